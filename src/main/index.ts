@@ -1,0 +1,23 @@
+import { app, BrowserWindow } from 'electron';
+import { join } from 'node:path';
+import { fileURLToPath } from 'node:url';
+
+const here = fileURLToPath(new URL('.', import.meta.url));
+
+function createWindow(): void {
+  const win = new BrowserWindow({
+    width: 1440,
+    height: 900,
+    webPreferences: {
+      preload: join(here, '../preload/index.cjs'),
+      contextIsolation: true,
+      sandbox: true,
+      nodeIntegration: false,
+    },
+  });
+  if (process.env['ELECTRON_RENDERER_URL']) void win.loadURL(process.env['ELECTRON_RENDERER_URL']);
+  else void win.loadFile(join(here, '../renderer/index.html'));
+}
+
+void app.whenReady().then(createWindow);
+app.on('window-all-closed', () => app.quit());

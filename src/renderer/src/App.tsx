@@ -1,0 +1,3 @@
+export function App() {
+  return <main><h1>Torquewise</h1></main>;
+}

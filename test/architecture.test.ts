@@ -1,0 +1,74 @@
+// The runtime layering of the source tree, checked on every import statement:
+//   src/core      common: pure TypeScript, no Node, DOM, Electron or React (also type-checked
+//                 with lib ES2022 only and no @types, see tsconfig.core.json)
+//   src/renderer  browser: core, react, plotly; never Node or Electron
+//   src/cli       node: core and Node; never Electron, React or the renderer
+//   src/main      electron-main: core, Node, Electron; never the renderer or React
+//   src/preload   electron sandbox: electron only (and core types)
+import { readdirSync, readFileSync, statSync } from 'node:fs';
+import { join, relative, resolve, dirname, sep } from 'node:path';
+import { describe, expect, it } from 'vitest';
+
+const root = resolve(__dirname, '..');
+
+function files(dir: string): string[] {
+  const out: string[] = [];
+  for (const name of readdirSync(dir)) {
+    const p = join(dir, name);
+    if (statSync(p).isDirectory()) out.push(...files(p));
+    else if (/\.(ts|tsx)$/.test(name)) out.push(p);
+  }
+  return out;
+}
+
+function imports(file: string): string[] {
+  const src = readFileSync(file, 'utf8');
+  const re = /(?:import|export)\s[^'"]*?from\s*['"]([^'"]+)['"]|import\s*\(\s*['"]([^'"]+)['"]\s*\)|import\s+['"]([^'"]+)['"]|require\(\s*['"]([^'"]+)['"]\s*\)/g;
+  const out: string[] = [];
+  for (let m = re.exec(src); m; m = re.exec(src)) out.push((m[1] ?? m[2] ?? m[3] ?? m[4])!);
+  return out;
+}
+
+const NODE_BUILTINS = /^(node:|fs$|fs\/|path$|os$|child_process$|crypto$|url$|util$|worker_threads$|stream$|events$|http$|https$|net$|zlib$|buffer$|process$)/;
+
+function layerOf(abs: string): string {
+  const rel = relative(join(root, 'src'), abs).split(sep);
+  return rel[0]!;
+}
+
+interface Rule { forbidPackages: RegExp[]; allowLayers: string[] }
+const RULES: Record<string, Rule> = {
+  core: { forbidPackages: [NODE_BUILTINS, /^electron/, /^react/, /^plotly/], allowLayers: ['core', 'types'] },
+  renderer: { forbidPackages: [NODE_BUILTINS, /^electron/], allowLayers: ['core', 'renderer', 'types'] },
+  cli: { forbidPackages: [/^electron/, /^react/, /^plotly/], allowLayers: ['core', 'cli', 'types', 'node'] },
+  node: { forbidPackages: [/^electron/, /^react/, /^plotly/], allowLayers: ['core', 'node', 'types'] },
+  main: { forbidPackages: [/^react/, /^plotly/], allowLayers: ['core', 'main', 'node', 'types'] },
+  preload: { forbidPackages: [NODE_BUILTINS, /^react/, /^plotly/], allowLayers: ['preload', 'core', 'types'] },
+};
+
+describe('source layering by runtime', () => {
+  const all = files(join(root, 'src'));
+  it('finds the source tree', () => {
+    expect(all.some((f) => f.includes(`${sep}core${sep}`))).toBe(true);
+  });
+  for (const file of all) {
+    const layer = layerOf(file);
+    const rule = RULES[layer];
+    if (!rule) continue;
+    it(`${relative(root, file)} imports only what ${layer} may`, () => {
+      for (const spec of imports(file)) {
+        if (spec.startsWith('.')) {
+          const target = resolve(dirname(file), spec);
+          const tl = layerOf(target);
+          expect(rule.allowLayers, `${spec} reaches layer ${tl}`).toContain(tl);
+        } else {
+          for (const bad of rule.forbidPackages) expect(bad.test(spec), `${layer} must not import ${spec}`).toBe(false);
+        }
+      }
+    });
+  }
+  it('only src/main and src/preload import electron', () => {
+    const offenders = all.filter((f) => !['main', 'preload'].includes(layerOf(f)) && imports(f).some((s) => /^electron/.test(s)));
+    expect(offenders).toEqual([]);
+  });
+});
