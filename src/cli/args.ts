@@ -1,0 +1,63 @@
+import { InputError } from '../core/errors';
+
+/** Parsed command line: `<command> <project.json> [--flag value | --switch]...` */
+export interface ParsedArgs {
+  command: string;
+  file: string | undefined;
+  flags: Map<string, string | true>;
+}
+
+export function parseArgs(argv: readonly string[]): ParsedArgs {
+  const flags = new Map<string, string | true>();
+  const positional: string[] = [];
+  for (let i = 0; i < argv.length; i++) {
+    const a = argv[i]!;
+    if (a.startsWith('--')) {
+      const eq = a.indexOf('=');
+      if (eq > 0) flags.set(a.slice(2, eq), a.slice(eq + 1));
+      else {
+        const next = argv[i + 1];
+        if (next !== undefined && !next.startsWith('--')) {
+          flags.set(a.slice(2), next);
+          i++;
+        } else flags.set(a.slice(2), true);
+      }
+    } else positional.push(a);
+  }
+  return { command: positional[0] ?? '', file: positional[1], flags };
+}
+
+/** The flags a command knows: name -> 'switch' (no value) or 'number' | 'string'. */
+export type FlagSpec = Record<string, 'switch' | 'number' | 'string'>;
+
+export function checkFlags(args: ParsedArgs, spec: FlagSpec): void {
+  // a switch followed by a positional was read as a value: give the value back as positional-less error
+  for (const [name, value] of args.flags) {
+    const kind = spec[name];
+    if (!kind) {
+      const known = Object.keys(spec).map((k) => `--${k}`).join(', ');
+      throw new InputError(`--${name}`, `is not an option of '${args.command}' (options: ${known || 'none'})`);
+    }
+    if (kind === 'switch' && value !== true) {
+      throw new InputError(`--${name}`, `takes no value (got '${value}')`);
+    }
+    if (kind !== 'switch' && value === true) throw new InputError(`--${name}`, `needs a value`);
+  }
+}
+
+export function numberFlag(args: ParsedArgs, name: string, range: { min?: number; max?: number; integer?: boolean; unit?: string } = {}): number | undefined {
+  const v = args.flags.get(name);
+  if (v === undefined) return undefined;
+  const x = typeof v === 'string' ? Number(v) : NaN;
+  const unit = range.unit ? ` ${range.unit}` : '';
+  if (!Number.isFinite(x)) throw new InputError(`--${name}`, `must be a number${unit} (got '${String(v)}')`);
+  if (range.integer && !Number.isInteger(x)) throw new InputError(`--${name}`, `must be a whole number (got ${x})`);
+  if (range.min !== undefined && x < range.min) throw new InputError(`--${name}`, `must be >= ${range.min}${unit} (got ${x})`);
+  if (range.max !== undefined && x > range.max) throw new InputError(`--${name}`, `must be <= ${range.max}${unit} (got ${x})`);
+  return x;
+}
+
+export function stringFlag(args: ParsedArgs, name: string): string | undefined {
+  const v = args.flags.get(name);
+  return typeof v === 'string' ? v : undefined;
+}

@@ -1,0 +1,15 @@
+/** Plain fixed-width table for terminals: header row with units, right-aligned numbers. */
+export function table(header: readonly string[], rows: ReadonlyArray<ReadonlyArray<string | number>>, digits = 4): string {
+  const cells = rows.map((r) => r.map((c) => (typeof c === 'number' ? fmt(c, digits) : c)));
+  const width = header.map((h, j) => Math.max(h.length, ...cells.map((r) => (r[j] ?? '').length)));
+  const line = (r: readonly string[]) => r.map((c, j) => c.padStart(width[j]!)).join('  ');
+  return [line(header), line(width.map((w) => '-'.repeat(w))), ...cells.map(line)].join('\n');
+}
+
+export function fmt(x: number, digits = 4): string {
+  if (!Number.isFinite(x)) return String(x);
+  if (x === 0) return '0';
+  const a = Math.abs(x);
+  if (a >= 1e6 || a < 1e-3) return x.toExponential(digits - 1);
+  return Number(x.toPrecision(digits)).toString();
+}
