@@ -1,0 +1,100 @@
+// Opening and saving project files. Opening reads and checks and never writes; saving goes through
+// the atomic replace, so a failed save leaves the good file as it was. Every outcome is a result
+// object with a sentence for the user; nothing throws out of these functions.
+import { basename } from 'node:path';
+import { isInputError } from '../core/errors';
+import type { OpenResult, SaveResult } from '../types/bridge';
+import { atomicWrite } from './atomic-write';
+import { describeFsError, nodeFs, type FsLayer } from './fs-layer';
+
+export const PROJECT_FORMAT = 'torquewise-project';
+/** The newest project format version this build reads and writes. */
+export const PROJECT_VERSION = 1;
+
+/**
+ * Checks a project text; throws InputError(field, message) when it is not a usable project.
+ * The default checks the header (format, version) of a JSON object; src/core/project.ts's
+ * `loadProjectText` is the full check and drops in here.
+ */
+export type ProjectChecker = (text: string) => unknown;
+
+export interface ProjectFileOptions {
+  fs?: FsLayer;
+  /** Largest project file read, in bytes. Default 16 MiB: a project is a few kB. */
+  maxBytes?: number;
+  check?: ProjectChecker;
+}
+
+export const DEFAULT_PROJECT_FILE_OPTIONS = { maxBytes: 16 * 1024 * 1024 } as const;
+
+export type HeaderVerdict =
+  | { kind: 'ok' }
+  | { kind: 'newer'; version: number }
+  | { kind: 'bad'; message: string };
+
+/** Reads the header of a project text: is it our format, and a version this build knows? */
+export function projectHeader(text: string): HeaderVerdict {
+  let json: unknown;
+  try {
+    json = JSON.parse(text);
+  } catch (e) {
+    return { kind: 'bad', message: `it is not valid JSON (${(e as Error).message})` };
+  }
+  if (typeof json !== 'object' || json === null || Array.isArray(json)) return { kind: 'bad', message: 'it is not a JSON object' };
+  const o = json as Record<string, unknown>;
+  if (o['format'] !== PROJECT_FORMAT) return { kind: 'bad', message: `format must be "${PROJECT_FORMAT}"` };
+  const v = o['version'];
+  if (typeof v !== 'number' || !Number.isInteger(v) || v < 1) return { kind: 'bad', message: 'version must be a whole number >= 1' };
+  if (v > PROJECT_VERSION) return { kind: 'newer', version: v };
+  return { kind: 'ok' };
+}
+
+export async function openProjectFile(path: string, options: ProjectFileOptions = {}): Promise<OpenResult> {
+  const fs = options.fs ?? nodeFs;
+  const maxBytes = options.maxBytes ?? DEFAULT_PROJECT_FILE_OPTIONS.maxBytes;
+  const name = basename(path);
+  const fail = (why: string): OpenResult => ({ ok: false, canceled: false, message: `Could not open "${name}": ${why}.` });
+  let text: string;
+  try {
+    const st = await fs.stat(path);
+    if (!st) return fail('the file does not exist');
+    if (!st.isFile) return fail('it is not a file');
+    if (st.size > maxBytes) return fail(`it is ${st.size} bytes, more than the ${maxBytes} bytes a project may have`);
+    const buf = await fs.readFile(path);
+    text = new TextDecoder('utf-8', { fatal: true }).decode(buf);
+  } catch (e) {
+    if (e instanceof TypeError) return fail('it is not UTF-8 text');
+    return fail(describeFsError(e));
+  }
+  if (text.charCodeAt(0) === 0xfeff) text = text.slice(1);
+  const header = projectHeader(text);
+  if (header.kind === 'bad') return fail(header.message);
+  if (header.kind === 'newer') {
+    return {
+      ok: true,
+      path,
+      text,
+      readOnly: true,
+      message: `"${name}" was written in project format version ${header.version}; this version of Torquewise reads up to version ${PROJECT_VERSION}. It is open read-only: Save As writes a copy, the file itself is not changed.`,
+    };
+  }
+  if (options.check) {
+    try {
+      options.check(text);
+    } catch (e) {
+      if (isInputError(e)) return fail(e.message);
+      return fail('its content could not be read as a project');
+    }
+  }
+  return { ok: true, path, text, readOnly: false };
+}
+
+export async function saveProjectFile(path: string, text: string, options: { fs?: FsLayer; platform?: string } = {}): Promise<SaveResult> {
+  const header = projectHeader(text);
+  if (header.kind !== 'ok') {
+    const why = header.kind === 'bad' ? header.message : `version ${header.version} is newer than ${PROJECT_VERSION}`;
+    return { ok: false, canceled: false, message: `Not saved: the project text is not a valid project (${why}). The file on disk is unchanged.` };
+  }
+  const r = await atomicWrite(path, text.endsWith('\n') ? text : `${text}\n`, options);
+  return r.ok ? { ok: true, path } : { ok: false, canceled: false, message: r.message };
+}

@@ -1,0 +1,171 @@
+import { mkdtempSync, readFileSync, readdirSync, rmSync, statSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { afterEach, beforeEach, describe, expect, it } from 'vitest';
+import { InputError } from '../src/core/errors';
+import { nodeFs, type FsLayer } from '../src/node/fs-layer';
+import { openProjectFile, projectHeader, PROJECT_VERSION, saveProjectFile } from '../src/node/project-file';
+
+let dir: string;
+beforeEach(() => {
+  dir = mkdtempSync(join(tmpdir(), 'tw-project-'));
+});
+afterEach(() => rmSync(dir, { recursive: true, force: true }));
+
+const GOOD = JSON.stringify({ format: 'torquewise-project', version: 1, motor: { polePairs: 4 } });
+
+/** A file system that records every call that could change something. */
+function watchingFs(): FsLayer & { writes: string[] } {
+  const writes: string[] = [];
+  return {
+    ...nodeFs,
+    writes,
+    open: (p, f, m) => {
+      if (f !== 'r') writes.push(`open ${f} ${p}`);
+      return nodeFs.open(p, f, m);
+    },
+    rename: (a, b) => (writes.push(`rename ${a}`), nodeFs.rename(a, b)),
+    unlink: (p) => (writes.push(`unlink ${p}`), nodeFs.unlink(p)),
+    mkdir: (p) => (writes.push(`mkdir ${p}`), nodeFs.mkdir(p)),
+  };
+}
+
+describe('projectHeader', () => {
+  it('accepts our format at the current version and flags a newer one', () => {
+    expect(projectHeader(GOOD)).toEqual({ kind: 'ok' });
+    expect(projectHeader('{"format":"torquewise-project","version":7}')).toEqual({ kind: 'newer', version: 7 });
+    expect(PROJECT_VERSION).toBe(1);
+  });
+  it('names what is wrong with a foreign or broken header', () => {
+    expect(projectHeader('{"format":"something-else","version":1}')).toEqual({ kind: 'bad', message: 'format must be "torquewise-project"' });
+    expect(projectHeader('{"format":"torquewise-project","version":1.5}')).toEqual({ kind: 'bad', message: 'version must be a whole number >= 1' });
+    expect(projectHeader('{"format":"torquewise-project","version":"1"}').kind).toBe('bad');
+    expect(projectHeader('[1,2]')).toEqual({ kind: 'bad', message: 'it is not a JSON object' });
+    const r = projectHeader('{"format": ');
+    expect(r.kind).toBe('bad');
+    if (r.kind === 'bad') expect(r.message).toMatch(/^it is not valid JSON/);
+  });
+});
+
+describe('openProjectFile', () => {
+  it('reads a good project (a UTF-8 byte-order mark is dropped)', async () => {
+    const p = join(dir, 'motor.json');
+    writeFileSync(p, `\ufeff${GOOD}`);
+    expect(await openProjectFile(p)).toEqual({ ok: true, path: p, text: GOOD, readOnly: false });
+  });
+
+  const broken: Array<[string, string | Buffer, RegExp]> = [
+    ['truncated JSON', GOOD.slice(0, 30), /^Could not open "x\.json": it is not valid JSON/],
+    ['another format', '{"format":"other","version":1}', /format must be "torquewise-project"\.$/],
+    ['no version', '{"format":"torquewise-project"}', /version must be a whole number >= 1\.$/],
+    ['binary bytes', Buffer.from([0xff, 0xfe, 0x00, 0x81, 0x7b]), /it is not UTF-8 text\.$/],
+  ];
+  for (const [what, content, re] of broken) {
+    it(`a broken file (${what}) opens with a clear message and nothing is written`, async () => {
+      const p = join(dir, 'x.json');
+      writeFileSync(p, content);
+      const before = readFileSync(p);
+      const fs = watchingFs();
+      const r = await openProjectFile(p, { fs });
+      expect(r.ok).toBe(false);
+      if (!r.ok) {
+        expect(r.canceled).toBe(false);
+        expect(r.message).toMatch(re);
+        expect(r.message).not.toMatch(/\n\s+at /); // no stack
+      }
+      expect(fs.writes).toEqual([]);
+      expect(readFileSync(p)).toEqual(before);
+      expect(readdirSync(dir)).toEqual(['x.json']);
+    });
+  }
+
+  it('a newer format version opens read-only with a message, touching nothing', async () => {
+    const p = join(dir, 'future.json');
+    const text = '{"format":"torquewise-project","version":3,"motor":{}}';
+    writeFileSync(p, text);
+    const mtime = statSync(p).mtimeMs;
+    const fs = watchingFs();
+    const r = await openProjectFile(p, { fs });
+    expect(r).toMatchObject({ ok: true, path: p, text, readOnly: true });
+    if (r.ok) expect(r.message).toMatch(/format version 3; this version of Torquewise reads up to version 1\. It is open read-only/);
+    expect(fs.writes).toEqual([]);
+    expect(statSync(p).mtimeMs).toBe(mtime);
+  });
+
+  it('passes the InputError of the project check through as the message', async () => {
+    const p = join(dir, 'bad-ld.json');
+    writeFileSync(p, GOOD);
+    const r = await openProjectFile(p, {
+      check: () => {
+        throw new InputError('motor.Ld', 'must be > 0 H');
+      },
+    });
+    expect(r).toEqual({ ok: false, canceled: false, message: 'Could not open "bad-ld.json": motor.Ld must be > 0 H.' });
+    const r2 = await openProjectFile(p, {
+      check: () => {
+        throw new RangeError('internal');
+      },
+    });
+    expect(r2).toEqual({ ok: false, canceled: false, message: 'Could not open "bad-ld.json": its content could not be read as a project.' });
+  });
+
+  it('refuses a missing file, a folder and an oversized file', async () => {
+    expect(await openProjectFile(join(dir, 'nope.json'))).toEqual({ ok: false, canceled: false, message: 'Could not open "nope.json": the file does not exist.' });
+    expect((await openProjectFile(dir)).ok).toBe(false);
+    const p = join(dir, 'big.json');
+    writeFileSync(p, GOOD);
+    const r = await openProjectFile(p, { maxBytes: 10 });
+    expect(r.ok).toBe(false);
+    if (!r.ok) expect(r.message).toBe(`Could not open "big.json": it is ${GOOD.length} bytes, more than the 10 bytes a project may have.`);
+  });
+
+  it('reports a read error by its reason', async () => {
+    const p = join(dir, 'p.json');
+    writeFileSync(p, GOOD);
+    const fs: FsLayer = {
+      ...nodeFs,
+      readFile: async () => {
+        throw Object.assign(new Error('x'), { code: 'EACCES' });
+      },
+    };
+    expect(await openProjectFile(p, { fs })).toEqual({ ok: false, canceled: false, message: 'Could not open "p.json": permission denied.' });
+  });
+});
+
+describe('saveProjectFile', () => {
+  it('saves atomically with a final newline, then reopens the same text', async () => {
+    const p = join(dir, 's.json');
+    expect(await saveProjectFile(p, GOOD)).toEqual({ ok: true, path: p });
+    expect(readFileSync(p, 'utf8')).toBe(`${GOOD}\n`);
+    const r = await openProjectFile(p);
+    expect(r.ok && r.text).toBe(`${GOOD}\n`);
+  });
+
+  it('refuses to write text that is not a project, leaving the file as it was', async () => {
+    const p = join(dir, 's.json');
+    writeFileSync(p, GOOD);
+    const r = await saveProjectFile(p, '{"format":"torquewise-project"');
+    expect(r.ok).toBe(false);
+    if (!r.ok) expect(r.message).toMatch(/^Not saved: the project text is not a valid project \(it is not valid JSON.*The file on disk is unchanged\.$/);
+    expect(readFileSync(p, 'utf8')).toBe(GOOD);
+  });
+
+  it('a read-only folder (injected EROFS) fails with a message and keeps the old file', async () => {
+    const p = join(dir, 's.json');
+    writeFileSync(p, GOOD);
+    const fs: FsLayer = {
+      ...nodeFs,
+      open: async (path, flags, mode) => {
+        if (flags !== 'r') throw Object.assign(new Error('ro'), { code: 'EROFS' });
+        return nodeFs.open(path, flags, mode);
+      },
+    };
+    const r = await saveProjectFile(p, GOOD.replace('4', '5'), { fs });
+    expect(r).toEqual({
+      ok: false,
+      canceled: false,
+      message: 'Could not save "s.json": the folder is on a read-only file system (while creating the temporary file). The file on disk is unchanged.',
+    });
+    expect(readFileSync(p, 'utf8')).toBe(GOOD);
+  });
+});
