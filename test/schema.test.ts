@@ -1,0 +1,200 @@
+import { describe, expect, it } from 'vitest';
+import fc from 'fast-check';
+import { KEYS, checkProject, parseProject } from '../src/core/schema';
+import { InputError } from '../src/core/errors';
+
+const minimal = (): Record<string, any> => ({
+  format: 'torquewise-project',
+  version: 1,
+  name: 'test (invented)',
+  motor: { polePairs: 4, Rs: 0.05, Ld: 1e-4, Lq: 1.2e-4, psiM: 0.01, inertia: 1e-4 },
+  inverter: { Vdc: 48, Imax: 100, Icont: 50, modulation: 'svpwm' },
+  conditions: { windingTemp_C: 100 },
+  requirements: [{ label: 'rated', speed_rpm: 3000, torque_Nm: 1 }],
+});
+
+const messageOf = (f: () => unknown): string => {
+  try {
+    f();
+  } catch (e) {
+    expect(e).toBeInstanceOf(InputError);
+    return (e as Error).message;
+  }
+  throw new Error('did not throw');
+};
+
+describe('parseProject', () => {
+  it('fills the documented defaults', () => {
+    const p = parseProject(minimal());
+    expect(p.inverter.voltageUtilization).toBe(1);
+    expect(p.inverter.deviceDrop).toBe(0);
+    expect(p.conditions.magnetTemp_C).toBe(20);
+    expect(p.conditions.coldTemp_C).toBe(20);
+    expect(p.conditions.magnetTempCoeff).toBe(-0.0012);
+    expect(p.motor?.viscousFriction).toBe(0);
+    expect(p.motor?.coulombFriction).toBe(0);
+    expect(p.note).toBe('');
+    expect(p.control).toBeUndefined();
+  });
+
+  it('control and scenario defaults', () => {
+    const j = minimal();
+    j.control = { currentBandwidth_Hz: 1000, speedTuning: { method: 'symmetric-optimum' } };
+    j.scenario = { duration_s: 0.5, speedSteps: [{ t_s: 0.01, speed_rpm: 1000 }] };
+    const p = parseProject(j);
+    expect(p.control).toEqual({
+      mode: 'speed',
+      fCtrl_Hz: 10000,
+      delaySamples: 1,
+      currentBandwidth_Hz: 1000,
+      speedTuning: { method: 'symmetric-optimum', a: 2 },
+      antiWindup: 'clamping',
+      decoupling: true,
+      speedLoopDivider: 1,
+    });
+    expect(p.scenario?.initialSpeed_rpm).toBe(0);
+    expect(p.scenario?.loadSteps).toEqual([]);
+    expect(p.scenario?.loadInertia).toBe(0);
+  });
+
+  it('one clear message naming the path, with the unit', () => {
+    const j = minimal();
+    j.motor.Ld = -1e-4;
+    expect(messageOf(() => parseProject(j))).toBe('motor.Ld must be > 0 H');
+    const k = minimal();
+    k.motor.polePairs = 3.5;
+    expect(messageOf(() => parseProject(k))).toBe('motor.polePairs must be a whole number');
+    const l = minimal();
+    l.inverter.voltageUtilization = 1.2;
+    expect(messageOf(() => parseProject(l))).toBe('inverter.voltageUtilization must be <= 1');
+    const m = minimal();
+    m.requirements[0].speed_rpm = -5;
+    expect(messageOf(() => parseProject(m))).toBe('requirements[0].speed_rpm must be >= 0 rpm');
+    const n = minimal();
+    n.inverter.modulation = 'svm';
+    expect(messageOf(() => parseProject(n))).toBe('inverter.modulation must be one of "sinusoidal", "svpwm", "six-step"');
+    const o = minimal();
+    o.motor.Rs = '0.05';
+    expect(messageOf(() => parseProject(o))).toBe('motor.Rs must be a number in ohm');
+    const q = minimal();
+    delete q.motor.psiM;
+    expect(messageOf(() => parseProject(q))).toBe('motor.psiM is required (peak magnet flux linkage per phase at 20 °C in Wb)');
+    const r = minimal();
+    r.motor.Lq = Infinity;
+    expect(messageOf(() => parseProject(r))).toMatch(/^motor\.Lq must be/);
+  });
+
+  it('an unknown key is rejected, naming the key and the known ones', () => {
+    const j = minimal();
+    j.motor.Lx = 1;
+    const msg = messageOf(() => parseProject(j));
+    expect(msg).toMatch(/^motor\.Lx is not a known key \(known here: polePairs, Rs, Ld, Lq, psiM, inertia/);
+    const k = minimal();
+    k.extra = true;
+    expect(messageOf(() => parseProject(k))).toMatch(/^extra is not a known key/);
+  });
+
+  it('Icont <= Imax, motor or nameplate', () => {
+    const j = minimal();
+    j.inverter.Icont = 200;
+    expect(messageOf(() => parseProject(j))).toBe('inverter.Icont must be <= inverter.Imax (100 A)');
+    const k = minimal();
+    delete k.motor;
+    expect(messageOf(() => parseProject(k))).toBe('motor is required (or a nameplate section)');
+  });
+
+  it('a newer version gets a plain message, not a raw error', () => {
+    const j = minimal();
+    j.version = 2;
+    expect(messageOf(() => parseProject(j))).toBe(
+      'version is 2: the file was written by a newer Torquewise (version 2); this one reads version 1',
+    );
+    expect(messageOf(() => parseProject({ ...minimal(), format: 'other' }))).toMatch(/^format must be "torquewise-project"/);
+    expect(messageOf(() => parseProject(null))).toBe('file must be a JSON object { ... }');
+    expect(messageOf(() => parseProject([]))).toBe('file must be a JSON object { ... }');
+  });
+
+  it('nameplate section: poles must be even', () => {
+    const j = minimal();
+    delete j.motor;
+    j.nameplate = { poles: 7, R: { value: 0.1, basis: 'phase' }, Ld: { value: 1e-4, basis: 'phase' }, Ke: { value: 5, unit: 'V_LL_rms/krpm' }, inertia: 1e-4 };
+    expect(messageOf(() => parseProject(j))).toBe('nameplate.poles must be even (poles, not pole pairs)');
+    j.nameplate.poles = 8;
+    j.nameplate.Ke.unit = 'V/krpm';
+    expect(messageOf(() => parseProject(j))).toBe('nameplate.Ke.unit must be one of "V_LL_rms/krpm", "V_LL_peak/krpm", "V_ph_peak*s/rad"');
+  });
+
+  it('control: gains or bandwidth, not both; current-step needs a step', () => {
+    const j = minimal();
+    j.control = { currentBandwidth_Hz: 1000, currentKp: 1, currentKi: 100 };
+    expect(messageOf(() => parseProject(j))).toBe('control.currentBandwidth_Hz give either currentBandwidth_Hz or currentKp/currentKi, not both');
+    j.control = { mode: 'current-step' };
+    j.scenario = { duration_s: 0.01 };
+    expect(messageOf(() => parseProject(j))).toBe('scenario.currentStep is required by control.mode "current-step"');
+    j.scenario = { duration_s: 0.01, loadSteps: [{ t_s: 0.02, torque_Nm: 1 }] };
+    expect(messageOf(() => parseProject(j))).toBe('scenario.loadSteps[0].t_s must be <= scenario.duration_s (0.01 s)');
+  });
+});
+
+describe('checkProject', () => {
+  it('lists every problem with its path', () => {
+    const j = minimal();
+    j.motor.Ld = 0;
+    j.motor.polePairs = 0;
+    j.inverter.Vdc = -1;
+    j.conditions.windingTemp_C = 900;
+    j.requirements.push({ label: '', speed_rpm: 1, torque_Nm: 1 });
+    expect(checkProject(j)).toEqual([
+      { path: 'motor.polePairs', message: 'must be >= 1' },
+      { path: 'motor.Ld', message: 'must be > 0 H' },
+      { path: 'inverter.Vdc', message: 'must be > 0 V' },
+      { path: 'conditions.windingTemp_C', message: 'must be <= 250 °C' },
+      { path: 'requirements[1].label', message: 'must not be empty' },
+    ]);
+    expect(checkProject(minimal())).toEqual([]);
+  });
+
+  it('never throws and speaks plainly, whatever a section holds', () => {
+    const sections = ['motor', 'nameplate', 'inverter', 'conditions', 'requirements', 'control', 'scenario', 'version'];
+    fc.assert(
+      fc.property(fc.constantFrom(...sections), fc.jsonValue(), fc.constantFrom(...sections), fc.jsonValue(), (s1, v1, s2, v2) => {
+        const obj = { ...minimal(), [s1]: v1, [s2]: v2 };
+        const problems = checkProject(obj);
+        for (const p of problems) expect(p.message).not.toMatch(/invalid_|ZodError|Expected|received|union|NaN/i);
+        if (problems.length > 0) expect(() => parseProject(obj)).toThrow(InputError);
+      }),
+      { numRuns: 500 },
+    );
+    // scenario shapes near the valid one
+    const step = fc.record({ t_s: fc.oneof(fc.double(), fc.constant(null), fc.string()), torque_Nm: fc.double() }, { requiredKeys: [] });
+    fc.assert(
+      fc.property(fc.array(fc.oneof(step, fc.constant(null))), fc.oneof(fc.double(), fc.constant(undefined)), (loadSteps, duration_s) => {
+        const obj = { ...minimal(), scenario: { duration_s, loadSteps } };
+        expect(() => checkProject(obj)).not.toThrow();
+      }),
+    );
+  });
+
+  it('no zod jargon and never throws, for arbitrary JSON', () => {
+    fc.assert(
+      fc.property(fc.jsonValue(), (v) => {
+        const obj = { ...minimal(), motor: v };
+        const problems = checkProject(obj);
+        for (const p of problems) {
+          expect(p.message).not.toMatch(/invalid_|ZodError|Expected|received|union/i);
+          expect(p.path.length).toBeGreaterThan(0);
+        }
+      }),
+    );
+  });
+});
+
+describe('KEYS table', () => {
+  it('documents a unit or a doc for every key', () => {
+    for (const [k, v] of Object.entries(KEYS)) {
+      expect(v.doc.length, k).toBeGreaterThan(0);
+    }
+    expect(KEYS['motor.Ld'].unit).toBe('H');
+    expect(KEYS['scenario.loadModel.k'].unit).toBe('N·m·s²/rad²');
+  });
+});
