@@ -1,23 +1,144 @@
-import { app, BrowserWindow } from 'electron';
+// Electron main: thin wiring of the plain modules beside it. All logic (window options, CSP,
+// navigation policy, menu, argument checks, file handling) lives in those modules and is tested
+// under Node; this file only connects them to Electron.
+import { app, BrowserWindow, dialog, ipcMain, Menu, session, type IpcMainInvokeEvent, type MenuItemConstructorOptions } from 'electron';
 import { join } from 'node:path';
-import { fileURLToPath } from 'node:url';
+import { fileURLToPath, pathToFileURL } from 'node:url';
+import { projectPathFromArgv } from './argv';
+import { cspHeader } from './csp';
+import { FileService, type Dialogs } from './file-service';
+import { CHANNELS, EXPORT_FORMATS } from './ipc';
+import { menuTemplate, type MenuItemData } from './menu';
+import { isAppPage, navigationDecision, permissionDecision, windowOpenDecision } from './navigation';
+import { PRELOAD_FROM_MAIN, RENDERER_FROM_MAIN } from './paths';
+import { windowOptions } from './window-options';
 
 const here = fileURLToPath(new URL('.', import.meta.url));
+const devServerUrl = process.env['ELECTRON_RENDERER_URL'];
+const dev = !app.isPackaged && Boolean(devServerUrl);
+const rendererFile = join(here, RENDERER_FROM_MAIN);
+const appUrl = devServerUrl ?? pathToFileURL(rendererFile).href;
 
-function createWindow(): void {
-  const win = new BrowserWindow({
-    width: 1440,
-    height: 900,
-    webPreferences: {
-      preload: join(here, '../preload/index.cjs'),
-      contextIsolation: true,
-      sandbox: true,
-      nodeIntegration: false,
-    },
+let win: BrowserWindow | null = null;
+
+const PROJECT_FILTER = { name: 'Torquewise project', extensions: ['json'] };
+
+const dialogs: Dialogs = {
+  async showOpen() {
+    const opts = { properties: ['openFile' as const], filters: [PROJECT_FILTER] };
+    const r = win ? await dialog.showOpenDialog(win, opts) : await dialog.showOpenDialog(opts);
+    return r.canceled || r.filePaths.length === 0 ? null : r.filePaths[0]!;
+  },
+  async showSave({ kind, defaultName }) {
+    const filter = kind === 'project' ? PROJECT_FILTER : { name: EXPORT_FORMATS[kind].filterName, extensions: [EXPORT_FORMATS[kind].extension] };
+    const opts = { defaultPath: join(app.getPath('documents'), defaultName), filters: [filter] };
+    const r = win ? await dialog.showSaveDialog(win, opts) : await dialog.showSaveDialog(opts);
+    return r.canceled || !r.filePath ? null : r.filePath;
+  },
+};
+
+// TODO(core): pass `check: loadProjectText` from src/core/project.ts once it lands, so a file
+// that is valid JSON but not a valid project is refused on open with the field named.
+const files = new FileService({
+  userDataDir: app.getPath('userData'),
+  dialogs,
+  // npm runs `npm start` in the package folder; INIT_CWD is where the user typed it.
+  initialPath: projectPathFromArgv(process.argv, { packaged: app.isPackaged, cwd: (!app.isPackaged && process.env['INIT_CWD']) || process.cwd() }),
+  onRecentChanged: (recent) => buildMenu(recent),
+});
+
+function toElectron(items: MenuItemData[]): MenuItemConstructorOptions[] {
+  return items.map((i) => {
+    const o: MenuItemConstructorOptions = { id: i.id };
+    if (i.label !== undefined) o.label = i.label;
+    if (i.accelerator !== undefined) o.accelerator = i.accelerator;
+    if (i.role !== undefined) o.role = i.role;
+    if (i.type !== undefined) o.type = i.type;
+    if (i.enabled !== undefined) o.enabled = i.enabled;
+    if (i.submenu) o.submenu = toElectron(i.submenu);
+    const event = i.event;
+    if (event) o.click = () => win?.webContents.send(CHANNELS.menu, i.path === undefined ? { name: event } : { name: event, path: i.path });
+    return o;
   });
-  if (process.env['ELECTRON_RENDERER_URL']) void win.loadURL(process.env['ELECTRON_RENDERER_URL']);
-  else void win.loadFile(join(here, '../renderer/index.html'));
 }
 
-void app.whenReady().then(createWindow);
-app.on('window-all-closed', () => app.quit());
+function buildMenu(recent: string[]): void {
+  Menu.setApplicationMenu(Menu.buildFromTemplate(toElectron(menuTemplate({ recent, platform: process.platform, dev }))));
+}
+
+/** Only the app's own page may call main. */
+function fromApp(e: IpcMainInvokeEvent): boolean {
+  const url = e.senderFrame?.url;
+  return typeof url === 'string' && isAppPage(url, appUrl);
+}
+
+function handle(channel: string, fn: (arg: unknown) => Promise<unknown>): void {
+  ipcMain.handle(channel, async (e, arg: unknown) => {
+    if (!fromApp(e)) return { ok: false, canceled: false, message: 'Refused: the request did not come from the Torquewise page.' };
+    try {
+      return await fn(arg);
+    } catch {
+      return { ok: false, canceled: false, message: 'An unexpected error occurred; nothing was changed.' };
+    }
+  });
+}
+
+function wireIpc(): void {
+  handle(CHANNELS.open, () => files.open());
+  handle(CHANNELS.openRecent, (a) => files.openRecent(a));
+  handle(CHANNELS.initialFile, () => files.initialFile());
+  handle(CHANNELS.save, (a) => files.save(a));
+  handle(CHANNELS.saveAs, (a) => files.saveAs(a));
+  handle(CHANNELS.export, (a) => files.export(a));
+  handle(CHANNELS.recent, () => files.recent());
+  handle(CHANNELS.recoveryCheck, () => files.recoveryCheck());
+  handle(CHANNELS.recoveryWrite, (a) => files.recoveryWrite(a));
+  handle(CHANNELS.recoveryDiscard, () => files.recoveryDiscard());
+}
+
+function secureSession(): void {
+  const csp = cspHeader(dev && devServerUrl ? { devServerUrl } : {});
+  session.defaultSession.webRequest.onHeadersReceived((details, callback) => {
+    const headers = { ...details.responseHeaders };
+    for (const k of Object.keys(headers)) if (k.toLowerCase() === 'content-security-policy') delete headers[k];
+    headers['Content-Security-Policy'] = [csp];
+    callback({ responseHeaders: headers });
+  });
+  session.defaultSession.setPermissionRequestHandler((_wc, permission, callback) => callback(permissionDecision(permission)));
+  session.defaultSession.setPermissionCheckHandler((_wc, permission) => permissionDecision(permission));
+}
+
+app.on('web-contents-created', (_e, contents) => {
+  const guard = (event: { url: string; preventDefault(): void }): void => {
+    if (navigationDecision(event.url, appUrl) === 'deny') event.preventDefault();
+  };
+  contents.on('will-navigate', guard);
+  contents.on('will-redirect', guard);
+  contents.on('will-frame-navigate', guard);
+  contents.on('will-attach-webview', (event) => event.preventDefault());
+  contents.setWindowOpenHandler(({ url }) => windowOpenDecision(url));
+});
+
+function createWindow(): void {
+  win = new BrowserWindow(windowOptions(join(here, PRELOAD_FROM_MAIN), { dev }));
+  win.once('ready-to-show', () => win?.show());
+  win.on('closed', () => {
+    win = null;
+  });
+  if (devServerUrl) void win.loadURL(devServerUrl);
+  else void win.loadFile(rendererFile);
+}
+
+void app.whenReady().then(async () => {
+  secureSession();
+  wireIpc();
+  buildMenu(await files.recent());
+  createWindow();
+  app.on('activate', () => {
+    if (BrowserWindow.getAllWindows().length === 0) createWindow();
+  });
+});
+
+app.on('window-all-closed', () => {
+  if (process.platform !== 'darwin') app.quit();
+});

@@ -1,3 +1,6 @@
-import { contextBridge } from 'electron';
+// The sandboxed preload: exposes exactly the TorquewiseBridge as window.torquewise, nothing else
+// (no ipcRenderer, no Node API).
+import { contextBridge, ipcRenderer } from 'electron';
+import { createBridge } from './bridge';
 
-contextBridge.exposeInMainWorld('torquewise', { version: 1 });
+contextBridge.exposeInMainWorld('torquewise', createBridge(ipcRenderer));

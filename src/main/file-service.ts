@@ -1,0 +1,138 @@
+// What each IPC handler does, without Electron: dialogs come in as functions, the file system as
+// a layer, so the whole flow (validate, check the grant, save atomically, update recent files,
+// drop the recovery file) is tested under Node. Every handler returns a result; none throws.
+import { atomicWrite } from '../node/atomic-write';
+import { nodeFs, type FsLayer } from '../node/fs-layer';
+import { openProjectFile, saveProjectFile, type ProjectChecker } from '../node/project-file';
+import { addRecent, readRecent, removeRecent } from '../node/recent-files';
+import { clearRecovery, readRecovery, writeRecovery } from '../node/recovery';
+import type { ExportKind, Failure, OpenResult, RecoveryOffer, SaveResult } from '../types/bridge';
+import { checkExportRequest, checkPath, checkRecoveryWrite, checkSaveAsRequest, checkSaveRequest, EXPORT_FORMATS } from './ipc';
+import { PathGrants } from './path-grants';
+
+export interface SaveDialogRequest {
+  /** 'project' or an export kind: decides the filter. */
+  kind: 'project' | ExportKind;
+  defaultName: string;
+}
+
+export interface Dialogs {
+  /** The project file the user picked, or null when canceled. */
+  showOpen(): Promise<string | null>;
+  /** The path the user picked to save to, or null when canceled. */
+  showSave(request: SaveDialogRequest): Promise<string | null>;
+}
+
+export interface FileServiceDeps {
+  userDataDir: string;
+  dialogs: Dialogs;
+  /** The project named on the command line, or null. */
+  initialPath: string | null;
+  fs?: FsLayer;
+  platform?: string;
+  check?: ProjectChecker;
+  /** Called after the recent list changed (main rebuilds the menu). */
+  onRecentChanged?: (files: string[]) => void;
+}
+
+const refused = (message: string): Failure => ({ ok: false, canceled: false, message });
+const canceled: Failure = { ok: false, canceled: true, message: 'Canceled.' };
+
+export class FileService {
+  readonly grants: PathGrants;
+  private readonly fs: FsLayer;
+
+  constructor(private readonly deps: FileServiceDeps) {
+    this.fs = deps.fs ?? nodeFs;
+    this.grants = new PathGrants(deps.platform);
+  }
+
+  private async remember(path: string): Promise<void> {
+    const files = await addRecent(this.deps.userDataDir, path, { fs: this.fs });
+    this.deps.onRecentChanged?.(files);
+  }
+
+  private async openAt(path: string): Promise<OpenResult> {
+    const r = await openProjectFile(path, { fs: this.fs, check: this.deps.check });
+    if (r.ok) {
+      if (!r.readOnly) this.grants.grant(path);
+      await this.remember(path);
+    }
+    return r;
+  }
+
+  async open(): Promise<OpenResult> {
+    const path = await this.deps.dialogs.showOpen();
+    if (path === null) return canceled;
+    return this.openAt(path);
+  }
+
+  async openRecent(arg: unknown): Promise<OpenResult> {
+    const p = checkPath(arg, 'openRecent.path');
+    if (!p.ok) return refused(p.message);
+    const list = await readRecent(this.deps.userDataDir, { fs: this.fs });
+    if (!list.includes(p.value)) return refused('Not opened: that file is not in the recent list.');
+    const r = await this.openAt(p.value);
+    if (!r.ok && / does not exist\.$/.test(r.message)) this.deps.onRecentChanged?.(await removeRecent(this.deps.userDataDir, p.value, { fs: this.fs }));
+    return r;
+  }
+
+  async initialFile(): Promise<OpenResult | null> {
+    if (this.deps.initialPath === null) return null;
+    return this.openAt(this.deps.initialPath);
+  }
+
+  private async afterCleanSave(path: string): Promise<void> {
+    await clearRecovery(this.deps.userDataDir, { fs: this.fs });
+    await this.remember(path);
+  }
+
+  async save(arg: unknown): Promise<SaveResult> {
+    const req = checkSaveRequest(arg);
+    if (!req.ok) return refused(`Not saved: ${req.message}.`);
+    if (!this.grants.has(req.value.path)) return refused('Not saved: this file was not chosen in a dialog in this session. Use Save As… to pick where to save.');
+    const r = await saveProjectFile(req.value.path, req.value.text, { fs: this.fs, platform: this.deps.platform });
+    if (r.ok) await this.afterCleanSave(r.path);
+    return r;
+  }
+
+  async saveAs(arg: unknown): Promise<SaveResult> {
+    const req = checkSaveAsRequest(arg);
+    if (!req.ok) return refused(`Not saved: ${req.message}.`);
+    const path = await this.deps.dialogs.showSave({ kind: 'project', defaultName: req.value.suggestedName ?? 'project.json' });
+    if (path === null) return canceled;
+    this.grants.grant(path);
+    const r = await saveProjectFile(path, req.value.text, { fs: this.fs, platform: this.deps.platform });
+    if (r.ok) await this.afterCleanSave(r.path);
+    return r;
+  }
+
+  async export(arg: unknown): Promise<SaveResult> {
+    const req = checkExportRequest(arg);
+    if (!req.ok) return refused(`Not exported: ${req.message}.`);
+    const fmt = EXPORT_FORMATS[req.value.kind];
+    const path = await this.deps.dialogs.showSave({ kind: req.value.kind, defaultName: req.value.suggestedName ?? fmt.defaultName });
+    if (path === null) return canceled;
+    this.grants.grant(path);
+    const r = await atomicWrite(path, req.value.data, { fs: this.fs, platform: this.deps.platform });
+    return r.ok ? { ok: true, path } : refused(r.message);
+  }
+
+  recent(): Promise<string[]> {
+    return readRecent(this.deps.userDataDir, { fs: this.fs });
+  }
+
+  recoveryCheck(): Promise<RecoveryOffer | null> {
+    return readRecovery(this.deps.userDataDir, { fs: this.fs });
+  }
+
+  async recoveryWrite(arg: unknown): Promise<SaveResult> {
+    const req = checkRecoveryWrite(arg);
+    if (!req.ok) return refused(`Autosave refused: ${req.message}.`);
+    return writeRecovery(this.deps.userDataDir, req.value.text, req.value.documentPath, { fs: this.fs });
+  }
+
+  recoveryDiscard(): Promise<void> {
+    return clearRecovery(this.deps.userDataDir, { fs: this.fs });
+  }
+}
