@@ -69,7 +69,7 @@ export class FileService {
 
   async openRecent(arg: unknown): Promise<OpenResult> {
     const p = checkPath(arg, 'openRecent.path');
-    if (!p.ok) return refused(p.message);
+    if (!p.ok) return refused(`Not opened: ${p.message}.`);
     const list = await readRecent(this.deps.userDataDir, { fs: this.fs });
     if (!list.includes(p.value)) return refused('Not opened: that file is not in the recent list.');
     const r = await this.openAt(p.value);

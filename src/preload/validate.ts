@@ -13,18 +13,23 @@ function unknownKey(o: Record<string, unknown>, allowed: string[], what: string)
   return null;
 }
 const isPath = (x: unknown): x is string => typeof x === 'string' && x.length > 0 && x.length <= 4096 && !x.includes('\0');
+function pathError(x: unknown, field: string): string | null {
+  if (typeof x === 'string' && x.includes('\0')) return `${field} must not contain a NUL character`;
+  return isPath(x) ? null : `${field} must be a non-empty string`;
+}
 const isName = (x: unknown): boolean => x === undefined || (typeof x === 'string' && x.length > 0 && x.length <= 255 && !/[\\/\0]/.test(x));
 
 /** null when fine, else the message. */
 export function shapeError(call: 'openRecent' | 'save' | 'saveAs' | 'export' | 'recovery.write', x: unknown): string | null {
   switch (call) {
     case 'openRecent':
-      return isPath(x) ? null : 'openRecent.path must be a non-empty string';
+      return pathError(x, 'openRecent.path');
     case 'save': {
       if (!isObject(x)) return 'save: the request must be an object { path, text }';
       const k = unknownKey(x, ['path', 'text'], 'save');
       if (k) return k;
-      if (!isPath(x['path'])) return 'save.path must be a non-empty string';
+      const p = pathError(x['path'], 'save.path');
+      if (p) return p;
       return typeof x['text'] === 'string' ? null : 'save.text must be a string';
     }
     case 'saveAs': {
