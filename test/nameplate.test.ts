@@ -142,3 +142,33 @@ describe('nameplateToModel', () => {
     expect(() => nameplateToModel(base(), { path: 'x' })).not.toThrow();
   });
 });
+
+describe('no NaN escapes', () => {
+  it('any valid nameplate gives a finite model and finite derived constants', () => {
+    const pos = (min: number, max: number) => fc.double({ min, max, noNaN: true, noDefaultInfinity: true });
+    const b = fc.constantFrom('phase' as const, 'line-to-line' as const);
+    fc.assert(
+      fc.property(
+        fc.integer({ min: 1, max: 50 }),
+        pos(1e-4, 100), b, pos(1e-7, 1), b, fc.option(pos(1e-7, 1), { nil: undefined }),
+        pos(1e-3, 1e4), fc.constantFrom('V_LL_rms/krpm' as const, 'V_LL_peak/krpm' as const, 'V_ph_peak*s/rad' as const),
+        pos(-60, 250), pos(-60, 250),
+        (pp, R, rb, Ld, lb, Lq, ke, unit, tR, tKe) => {
+          const r = nameplateToModel({
+            poles: 2 * pp,
+            R: { value: R, basis: rb, temp_C: tR },
+            Ld: { value: Ld, basis: lb },
+            ...(Lq !== undefined ? { Lq: { value: Lq, basis: lb } } : {}),
+            Ke: { value: ke, unit, temp_C: tKe },
+            Kt: { value: 1, unit: 'Nm/A_rms' },
+            inertia: 1e-3,
+          });
+          for (const v of Object.values(r.model)) expect(Number.isFinite(v)).toBe(true);
+          for (const v of Object.values(deriveConstants(r.model))) expect(Number.isFinite(v)).toBe(true);
+          for (const f of r.findings) expect(f.message).not.toContain('NaN');
+          for (const i of r.interpretation) expect(i.takenAs).not.toContain('NaN');
+        },
+      ),
+    );
+  });
+});

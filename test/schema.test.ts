@@ -94,6 +94,16 @@ describe('parseProject', () => {
     expect(messageOf(() => parseProject(k))).toMatch(/^extra is not a known key/);
   });
 
+  it('magnet coefficient range keeps psiM positive at every allowed temperature', () => {
+    const j = minimal();
+    j.conditions.magnetTempCoeff = -0.01;
+    expect(messageOf(() => parseProject(j))).toBe('conditions.magnetTempCoeff must be >= -0.003 /K');
+    // worst corner allowed: 1 + (-0.003)(250 - 20) = 0.31 > 0, so the hottest allowed file still parses
+    const k = minimal();
+    k.conditions = { windingTemp_C: 250, magnetTemp_C: 250, magnetTempCoeff: -0.003 };
+    expect(parseProject(k).conditions.magnetTemp_C).toBe(250);
+  });
+
   it('Icont <= Imax, motor or nameplate', () => {
     const j = minimal();
     j.inverter.Icont = 200;

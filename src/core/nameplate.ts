@@ -196,6 +196,11 @@ export function nameplateToModel(np: Nameplate, options: Partial<NameplateOption
   }
 
   const alphaBr = o.magnetTempCoeff;
+  for (const t of [np.Ke?.temp_C, np.Kt?.temp_C]) {
+    if (t !== undefined && !(fluxAt(1, t, alphaBr) > 0)) {
+      throw new InputError('conditions.magnetTempCoeff', `makes the magnet flux vanish at ${fmt(t)} °C; use a coefficient between -0.003 and 0.001 /K`);
+    }
+  }
   const toPhase = (x: number, basis: Basis): number => (basis === 'line-to-line' ? x / 2 : x);
   const basisText = (b: Basis): string => (b === 'line-to-line' ? 'line-to-line' : 'per phase');
 

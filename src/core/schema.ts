@@ -78,7 +78,7 @@ export const KEYS: Readonly<Record<string, { unit: string; doc: string }>> = {
   'conditions.windingTemp_C': { unit: '°C', doc: 'winding temperature, hot corner' },
   'conditions.magnetTemp_C': { unit: '°C', doc: 'magnet temperature, hot corner, default 20' },
   'conditions.coldTemp_C': { unit: '°C', doc: 'winding and magnet temperature, cold corner, default 20' },
-  'conditions.magnetTempCoeff': { unit: '/K', doc: 'remanence coefficient, default -0.0012 (sintered NdFeB)' },
+  'conditions.magnetTempCoeff': { unit: '/K', doc: 'remanence coefficient, -0.003..0.001, default -0.0012 (sintered NdFeB; SmCo about -0.0004)' },
 
   requirements: { unit: '', doc: 'operating points to meet' },
   'requirements[]': { unit: '', doc: '{label, speed_rpm, torque_Nm}' },
@@ -235,7 +235,7 @@ const conditionsSchema = z
     windingTemp_C: num('conditions.windingTemp_C', T_MIN, T_MAX),
     magnetTemp_C: num('conditions.magnetTemp_C', T_MIN, T_MAX).default(20),
     coldTemp_C: num('conditions.coldTemp_C', T_MIN, T_MAX).default(20),
-    magnetTempCoeff: num('conditions.magnetTempCoeff', -0.01, 0.01).default(-0.0012),
+    magnetTempCoeff: num('conditions.magnetTempCoeff', -0.003, 0.001).default(-0.0012),
   })
   .describe(doc('conditions'));
 
