@@ -1,0 +1,193 @@
+/**
+ * Parse + validate + resolve a project: the dq machine at 20 °C, hot and cold, the inverter's
+ * limits (peak and continuous current), the conditions, the requirements, what each nameplate
+ * input was taken to mean, and consistency findings.
+ */
+import type { Conditions, DqMachine, DriveLimits, Finding, InverterSpec, Mechanics, Requirement } from './types';
+import { InputError } from './errors';
+import { machineAt } from './thermal';
+import { driveLimits } from './inverter';
+import { fmt, nameplateToModel, type Interpretation, type RatedData } from './nameplate';
+import { parseProject, type ProjectFile } from './schema';
+import { solveOperatingPoint } from './operating-point';
+import { SQRT2 } from './units';
+
+export interface ResolvedProject {
+  /** the validated file with its defaults filled in */
+  file: ProjectFile;
+  name: string;
+  /** dq model at 20 °C */
+  machine20: DqMachine;
+  /** Rs at the winding temperature, psiM at the magnet temperature */
+  hot: DqMachine;
+  /** Rs and psiM at the cold temperature (highest back-EMF) */
+  cold: DqMachine;
+  mechanics: Mechanics;
+  inverter: InverterSpec;
+  /** voltage limit and peak current Imax */
+  peak: DriveLimits;
+  /** voltage limit and continuous current Icont */
+  continuous: DriveLimits;
+  conditions: Conditions;
+  requirements: Requirement[];
+  /** rated data from a nameplate section (SI, A peak), empty for a motor section */
+  rated: RatedData;
+  interpretation: Interpretation[];
+  findings: Finding[];
+}
+
+/** Where a JSON.parse message puts the error: "at position N" (V8) or "line L column C". */
+function lineColumn(text: string, message: string): { line: number; column: number } | null {
+  const lc = /line (\d+) column (\d+)/.exec(message);
+  if (lc) return { line: Number(lc[1]), column: Number(lc[2]) };
+  const pos = /position (\d+)/.exec(message);
+  const at = pos ? Math.min(Number(pos[1]), text.length) : /end of JSON input/.test(message) ? text.length : firstBadOffset(text);
+  let line = 1;
+  let col = 1;
+  for (let i = 0; i < at; i++) {
+    if (text.charCodeAt(i) === 10) {
+      line++;
+      col = 1;
+    } else col++;
+  }
+  return { line, column: col };
+}
+
+/**
+ * Where a text stops being a valid JSON prefix, when the parser does not say: the longest prefix
+ * whose only fault is that it ends early (the parser ran off its end). Bisection, at most ~log2(length) parses.
+ */
+function firstBadOffset(text: string): number {
+  const endsEarly = (n: number): boolean => {
+    try {
+      JSON.parse(text.slice(0, n));
+      return true;
+    } catch (e) {
+      if (!(e instanceof Error)) return false;
+      if (/end of JSON input/.test(e.message)) return true;
+      const at = /position (\d+)/.exec(e.message);
+      return at !== null && Number(at[1]) >= n; // ran off the end of the prefix
+
+    }
+  };
+  let lo = 0;
+  let hi = text.length;
+  for (let k = 0; k < 64 && hi - lo > 1; k++) {
+    const mid = (lo + hi) >> 1;
+    if (endsEarly(mid)) lo = mid;
+    else hi = mid;
+  }
+  return lo;
+}
+
+/** Project text -> resolved project. A JSON syntax error is InputError('file', 'is not valid JSON: ...'). */
+export function loadProjectText(text: string): ResolvedProject {
+  let json: unknown;
+  try {
+    json = JSON.parse(text);
+  } catch (e) {
+    const raw = e instanceof Error ? e.message : String(e);
+    const where = lineColumn(text, raw);
+    // keep the engine's reason, drop its own position wording and any echo of the text
+    const reason = raw.replace(/\s*\(line \d+ column \d+\)/, '').replace(/\s*(at|in JSON at) position \d+.*$/, '').replace(/,\s*(\.\.\.)?"[\s\S]*$/, '').replace(/\r?\n/g, '\\n').trim();
+    const lead = reason || 'unexpected input';
+    throw new InputError('file', `is not valid JSON: ${lead}${where ? ` at line ${where.line} column ${where.column}` : ''}`);
+  }
+  return resolveProject(parseProject(json));
+}
+
+/** A validated project file -> machine hot and cold, limits, findings. */
+export function resolveProject(file: ProjectFile): ResolvedProject {
+  const c = file.conditions;
+  const conditions: Conditions = {
+    windingTemp_C: c.windingTemp_C,
+    magnetTemp_C: c.magnetTemp_C,
+    coldTemp_C: c.coldTemp_C,
+    magnetTempCoeff: c.magnetTempCoeff,
+  };
+  let machine20: DqMachine;
+  let mechanics: Mechanics;
+  let interpretation: Interpretation[] = [];
+  const findings: Finding[] = [];
+  let rated: RatedData = {};
+  if (file.motor) {
+    const m = file.motor;
+    machine20 = { polePairs: m.polePairs, Rs: m.Rs, Ld: m.Ld, Lq: m.Lq, psiM: m.psiM };
+    mechanics = { inertia: m.inertia, viscousFriction: m.viscousFriction, coulombFriction: m.coulombFriction };
+  } else if (file.nameplate) {
+    const r = nameplateToModel(file.nameplate, { magnetTempCoeff: c.magnetTempCoeff, path: 'nameplate' });
+    machine20 = r.model;
+    mechanics = r.mechanics;
+    interpretation = r.interpretation;
+    findings.push(...r.findings);
+    rated = r.rated;
+  } else {
+    throw new InputError('motor', 'is required (or a nameplate section)');
+  }
+
+  const inverter: InverterSpec = { ...file.inverter };
+  const peak = driveLimits(inverter, 'peak');
+  const continuous = driveLimits(inverter, 'continuous');
+  const hot = machineAt(machine20, c.windingTemp_C, c.magnetTemp_C, c.magnetTempCoeff);
+  const cold = machineAt(machine20, c.coldTemp_C, c.coldTemp_C, c.magnetTempCoeff);
+
+  findings.push(...ratedFindings(rated, hot, inverter, peak));
+
+  return {
+    file,
+    name: file.name,
+    machine20,
+    hot,
+    cold,
+    mechanics,
+    inverter,
+    peak,
+    continuous,
+    conditions,
+    requirements: file.requirements.map((r) => ({ label: r.label, speed_rpm: r.speed_rpm, torque_Nm: r.torque_Nm })),
+    rated,
+    interpretation,
+    findings,
+  };
+}
+
+/** The motor's rated point against this inverter: current limits, and voltage at the hot corner. */
+function ratedFindings(rated: RatedData, hot: DqMachine, inv: InverterSpec, peak: DriveLimits): Finding[] {
+  const out: Finding[] = [];
+  const amps = (x: number): string => `${fmt(x)} A peak (${fmt(x / SQRT2)} A rms)`;
+  if (rated.current_A !== undefined) {
+    if (rated.current_A > inv.Imax) {
+      out.push({
+        code: 'rated-current-above-imax',
+        severity: 'warning',
+        field: 'nameplate.ratedCurrent',
+        message: `The motor's rated current ${amps(rated.current_A)} is above the inverter's peak current ${amps(inv.Imax)}: the motor cannot reach its rated torque on this inverter.`,
+      });
+    } else if (rated.current_A > inv.Icont) {
+      out.push({
+        code: 'rated-current-above-icont',
+        severity: 'warning',
+        field: 'nameplate.ratedCurrent',
+        message: `The motor's rated current ${amps(rated.current_A)} is above the inverter's continuous current ${amps(inv.Icont)}: rated torque is available only for short periods.`,
+      });
+    }
+  }
+  if (rated.speed_rad_s !== undefined && rated.torque_Nm !== undefined) {
+    const op = solveOperatingPoint(hot, peak, rated.speed_rad_s, rated.torque_Nm);
+    if (!op.feasible) {
+      const why =
+        op.limitedBy === 'current'
+          ? `it needs ${amps(op.current)}, above Imax`
+          : op.limitedBy === 'beyond-mtpv'
+            ? `no current reaches it within ${fmt(peak.Vmax)} V peak phase (beyond MTPV)`
+            : `it needs ${amps(op.current)} to stay within ${fmt(peak.Vmax)} V peak phase, above Imax`;
+      out.push({
+        code: 'rated-point-infeasible',
+        severity: 'warning',
+        field: 'nameplate.ratedTorque_Nm',
+        message: `The rated point (${fmt(rated.torque_Nm)} N·m at ${fmt((rated.speed_rad_s * 60) / (2 * Math.PI))} rpm) is outside this inverter at the hot corner: ${why}.`,
+      });
+    }
+  }
+  return out;
+}

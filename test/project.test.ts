@@ -1,0 +1,139 @@
+import { describe, expect, it } from 'vitest';
+import { readFileSync } from 'node:fs';
+import { fileURLToPath } from 'node:url';
+import { loadProjectText, resolveProject } from '../src/core/project';
+import { parseProject } from '../src/core/schema';
+import { solveOperatingPoint } from '../src/core/operating-point';
+import { InputError } from '../src/core/errors';
+
+const demoText = (name: string): string => readFileSync(fileURLToPath(new URL(`../resources/${name}.json`, import.meta.url)), 'utf8');
+const demoJson = (name: string): Record<string, any> => JSON.parse(demoText(name));
+const DEMOS = ['demo-spm-48v', 'demo-ipm-traction', 'demo-servo-axis'];
+
+const messageOf = (f: () => unknown): string => {
+  try {
+    f();
+  } catch (e) {
+    expect(e).toBeInstanceOf(InputError);
+    return (e as Error).message;
+  }
+  throw new Error('did not throw');
+};
+
+describe('demo projects', () => {
+  for (const name of DEMOS) {
+    it(`${name} parses, resolves, is labelled invented and has a control section and a scenario`, () => {
+      const rp = loadProjectText(demoText(name));
+      expect(rp.name).toMatch(/invented/i);
+      expect(rp.file.note).toMatch(/invented/i);
+      expect(rp.file.control).toBeDefined();
+      expect(rp.file.scenario?.speedSteps.length).toBeGreaterThan(0);
+      expect(rp.file.scenario?.loadSteps.length).toBeGreaterThan(0);
+      // the speed step comes before the load step
+      expect(rp.file.scenario!.speedSteps[0].t_s).toBeLessThan(rp.file.scenario!.loadSteps[0].t_s);
+      expect(rp.findings.filter((f) => f.severity !== 'info')).toEqual([]);
+      for (const m of [rp.machine20, rp.hot, rp.cold]) {
+        for (const v of Object.values(m)) expect(Number.isFinite(v)).toBe(true);
+      }
+    });
+  }
+
+  it('requirement points mostly pass, one is tight or fails (hot corner, peak current)', () => {
+    const verdict = (name: string) => {
+      const rp = loadProjectText(demoText(name));
+      return rp.requirements.map((r) => ({ label: r.label, op: solveOperatingPoint(rp.hot, rp.peak, (r.speed_rpm * Math.PI) / 30, r.torque_Nm), Imax: rp.peak.Imax }));
+    };
+    const spm = verdict('demo-spm-48v');
+    expect(spm.every((x) => x.op.feasible)).toBe(true);
+    const start = spm.find((x) => x.label === 'start-up')!;
+    expect(start.op.current / start.Imax).toBeGreaterThan(0.97); // tight
+    expect(verdict('demo-ipm-traction').filter((x) => !x.op.feasible).map((x) => x.label)).toEqual(['overtake at top speed']);
+    expect(verdict('demo-servo-axis').filter((x) => !x.op.feasible).map((x) => x.label)).toEqual(['peak above rated speed']);
+  });
+
+  it('traction demo: saliency 2.5, characteristic current below Imax, converted from mixed datasheet terms', () => {
+    const rp = loadProjectText(demoText('demo-ipm-traction'));
+    expect(rp.machine20.polePairs).toBe(4);
+    expect(rp.machine20.Lq / rp.machine20.Ld).toBeCloseTo(2.5, 12);
+    expect(rp.hot.psiM / rp.hot.Ld).toBeLessThan(rp.peak.Imax);
+    expect(rp.cold.psiM / rp.cold.Ld).toBeLessThan(rp.peak.Imax);
+    // R 0.036 ohm line-to-line at 25 °C -> 0.018 ohm/phase at 25 °C -> /(1 + 0.00393·5) at 20 °C (IEC 60028)
+    expect(rp.machine20.Rs).toBeCloseTo(0.018 / 1.01965, 12);
+    // Ke 33.1 V_LL,rms/krpm: psiM = 33.1·sqrt(2/3)/(4·104.72) at 25 °C, /(1 - 0.0012·5) at 20 °C
+    expect(rp.machine20.psiM).toBeCloseTo((33.1 * Math.sqrt(2 / 3)) / (4 * ((1000 * 2 * Math.PI) / 60)) / 0.994, 12);
+    expect(rp.interpretation.map((x) => x.field)).toContain('nameplate.R');
+    expect(rp.rated.current_A).toBeCloseTo(160 * Math.SQRT2, 10);
+    expect(rp.findings).toEqual([]); // Kt 0.54 N·m/A rms agrees with Ke within 5 %
+  });
+});
+
+describe('resolveProject', () => {
+  it('hot and cold machines, peak and continuous limits', () => {
+    const rp = loadProjectText(demoText('demo-spm-48v'));
+    // R(T) = R20 (1 + 0.00393 (T - 20)), IEC 60028; psi(T) = psi20 (1 + alpha (T - 20)), conventions page
+    expect(rp.hot.Rs).toBeCloseTo(0.012 * (1 + 0.00393 * 90), 14);
+    expect(rp.hot.psiM).toBeCloseTo(0.0095 * (1 - 0.0012 * 70), 14);
+    expect(rp.cold.Rs).toBeCloseTo(0.012 * (1 - 0.00393 * 40), 14);
+    expect(rp.cold.psiM).toBeCloseTo(0.0095 * (1 + 0.0012 * 40), 14);
+    expect(rp.hot.Ld).toBe(4.5e-5);
+    // SVPWM Vdc/sqrt3 (Holmes and Lipo, 2003, Pulse Width Modulation for Power Converters), utilisation 0.95, two 0.2 V drops
+    expect(rp.peak.Vmax).toBeCloseTo((0.95 * (48 - 0.4)) / Math.sqrt(3), 12);
+    expect(rp.peak.Imax).toBe(200);
+    expect(rp.continuous.Imax).toBe(100);
+    expect(rp.continuous.Vmax).toBe(rp.peak.Vmax);
+    expect(rp.mechanics).toEqual({ inertia: 0.0004, viscousFriction: 0.00005, coulombFriction: 0.05 });
+    expect(rp.conditions).toEqual({ windingTemp_C: 110, magnetTemp_C: 90, coldTemp_C: -20, magnetTempCoeff: -0.0012 });
+    expect(rp.requirements.length).toBe(5);
+    expect(rp.interpretation).toEqual([]);
+  });
+
+  it('rated current above the inverter current is a finding', () => {
+    const j = demoJson('demo-ipm-traction');
+    j.inverter.Imax = 200;
+    j.inverter.Icont = 150;
+    const rp = resolveProject(parseProject(j));
+    expect(rp.findings.map((f) => f.code)).toContain('rated-current-above-imax');
+    const k = demoJson('demo-ipm-traction');
+    k.inverter.Icont = 200;
+    expect(resolveProject(parseProject(k)).findings.map((f) => f.code)).toEqual(['rated-current-above-icont']);
+  });
+
+  it('rated point outside the voltage is a finding', () => {
+    const j = demoJson('demo-ipm-traction');
+    j.inverter.Vdc = 120;
+    const f = resolveProject(parseProject(j)).findings.find((x) => x.code === 'rated-point-infeasible');
+    expect(f?.severity).toBe('warning');
+    expect(f?.message).toMatch(/^The rated point \(90 N·m at 4000 rpm\) is outside this inverter/);
+  });
+
+  it('a Kt far from Ke is carried into the project findings', () => {
+    const j = demoJson('demo-ipm-traction');
+    j.nameplate.Kt = { value: 0.54, unit: 'Nm/A_peak' };
+    expect(resolveProject(parseProject(j)).findings.map((f) => f.code)).toEqual(['kt-ke-mismatch']);
+  });
+});
+
+describe('loadProjectText', () => {
+  it('a JSON syntax error names the line and column', () => {
+    const text = demoText('demo-servo-axis').replace('"polePairs": 4,', '"polePairs": 4,,');
+    const msg = messageOf(() => loadProjectText(text));
+    const line = text.split('\n').findIndex((l) => l.includes('"polePairs": 4,,')) + 1;
+    const col = text.split('\n')[line - 1].indexOf(',,') + 2;
+    expect(msg).toMatch(/^file is not valid JSON: /);
+    expect(msg).toContain(`at line ${line} column ${col}`);
+    expect(messageOf(() => loadProjectText('{"format": "torquewise-project"'))).toMatch(/^file is not valid JSON: .* at line 1 column 32$/);
+    expect(messageOf(() => loadProjectText(''))).toBe('file is not valid JSON: Unexpected end of JSON input at line 1 column 1');
+    // a bad literal: the parser gives no position, so it is located by bisection
+    const bad = '{\n  "format": "torquewise-project",\n  "version": tru\n}';
+    const m2 = messageOf(() => loadProjectText(bad));
+    expect(m2).toMatch(/^file is not valid JSON: /);
+    expect(m2).toBe("file is not valid JSON: Unexpected token '\\n' at line 3 column 17");
+    expect(m2).not.toContain('torquewise-project'); // no echo of the text
+  });
+
+  it('schema problems come through as InputError naming the path', () => {
+    const j = demoJson('demo-servo-axis');
+    j.motor.Ld = 0;
+    expect(messageOf(() => loadProjectText(JSON.stringify(j)))).toBe('motor.Ld must be > 0 H');
+  });
+});
