@@ -1,0 +1,346 @@
+/**
+ * The digital cascade controller, as a drive's processor runs it once per control period Ts:
+ *
+ * 1. At the period start it samples i_d, i_q (from the phase currents and the rotor angle), the
+ *    mechanical speed and the electrical angle theta_e.
+ * 2. Speed mode: every `speedLoopDivider` periods the speed PI turns the (ramp-limited, optionally
+ *    prefiltered) speed error into a torque reference, clamped to the drive's torque limit at that
+ *    speed; torque mode takes the torque reference from its schedule. The reference table turns the
+ *    torque into (i_d, i_q) references (least current, MTPA or field weakening). Current-step mode
+ *    takes (i_d, i_q) references directly. The current reference is limited to Imax, d axis first.
+ * 3. The dq current PIs (with optional decoupling and back-EMF feed-forward) give the voltage, which
+ *    is limited to the modulation's limit with d-axis priority: a circle |v| <= Vmax (sinusoidal PWM,
+ *    SVPWM) or the hexagon of the bridge (six-step / overmodulation).
+ * 4. The voltage goes through the inverse Park transform at the sampled angle, advanced by
+ *    (delaySamples + 0.5)·omega_e·Ts when `delayAngleCompensation` is on (the rotor turns while the
+ *    command waits and while it is applied), and is applied `delaySamples` periods later, held
+ *    constant in the stationary frame over one period (the PWM average).
+ *
+ * Anti-windup, per PI: 'clamping' = conditional integration (the integrator stops while the output
+ * is limited and the error pushes further into the limit); 'back-calculation' = the integrator is
+ * driven by (limited - unlimited output) with tracking time equal to the integral time Kp/Ki.
+ *
+ * All state is preallocated; `step` allocates nothing.
+ */
+import type { DqMachine } from './types';
+import type { ReferenceTable } from './reference-table';
+import { lookupCurrents, torqueLimitsAt } from './reference-table';
+import { hexagonRadius } from './inverter';
+
+export type ControlMode = 'speed' | 'torque' | 'current-step';
+export type AntiWindup = 'clamping' | 'back-calculation';
+
+export interface PiGains {
+  /** proportional gain (V/A for current loops, N·m/(rad/s) for the speed loop) */
+  Kp: number;
+  /** integral gain (V/(A·s), N·m/rad) */
+  Ki: number;
+}
+
+/** A piecewise-constant schedule: value `initial` before times[0], values[k] from times[k] on. */
+export interface StepSchedule {
+  initial: number;
+  times: Float64Array;
+  values: Float64Array;
+}
+
+export function stepSchedule(initial: number, steps: ReadonlyArray<{ t: number; v: number }>): StepSchedule {
+  const s = [...steps].sort((a, b) => a.t - b.t);
+  return { initial, times: Float64Array.from(s.map((x) => x.t)), values: Float64Array.from(s.map((x) => x.v)) };
+}
+
+export interface VoltageLimitSpec {
+  /** 'circle': |v| <= radius; 'hexagon': the bridge's hexagon for the bus `Vdc` */
+  shape: 'circle' | 'hexagon';
+  /** circle radius (peak phase V); for the hexagon the inscribed radius Vdc/sqrt(3) */
+  radius: number;
+  /** effective bus voltage (hexagon only), V */
+  Vdc: number;
+}
+
+export interface ControllerConfig {
+  mode: ControlMode;
+  /** control period, s */
+  Ts: number;
+  /** whole periods between sampling and applying the voltage (0 = ideal) */
+  delaySamples: number;
+  machine: DqMachine;
+  currentD: PiGains;
+  currentQ: PiGains;
+  speed: PiGains;
+  /** the speed loop runs every this many current periods (>= 1) */
+  speedLoopDivider: number;
+  antiWindup: AntiWindup;
+  /** cross-coupling feed-forward -omega_e L_q i_q (d) and omega_e L_d i_d (q) */
+  decoupling: boolean;
+  /** back-EMF feed-forward omega_e psi_m on the q axis */
+  backEmfFeedForward: boolean;
+  /** advance the inverse-Park angle by (delaySamples + 0.5)·omega_e·Ts */
+  delayAngleCompensation: boolean;
+  /** slew limit of the speed reference, rad/s² (Infinity = none) */
+  speedRamp_rad_s2: number;
+  /** time constant of a first-order speed-reference prefilter, s (0 = none) */
+  speedRefPrefilter_s: number;
+  /** peak current limit of the references, A */
+  Imax: number;
+  voltage: VoltageLimitSpec;
+  /** torque -> currents (speed and torque modes) */
+  table: ReferenceTable | null;
+  /** speed reference, rad/s (speed mode) */
+  speedRef: StepSchedule;
+  /** torque reference, N·m (torque mode) */
+  torqueRef: StepSchedule;
+  /** current references, A (current-step mode) */
+  idRef: StepSchedule;
+  iqRef: StepSchedule;
+  /** torque the speed integrator starts at (bumpless start against the initial load), N·m */
+  initialTorque: number;
+}
+
+export const DEFAULT_CONTROLLER_OPTIONS = {
+  delaySamples: 1,
+  speedLoopDivider: 1,
+  antiWindup: 'back-calculation' as AntiWindup,
+  decoupling: true,
+  backEmfFeedForward: true,
+  delayAngleCompensation: true,
+  speedRamp_rad_s2: Infinity,
+  speedRefPrefilter_s: 0,
+};
+
+const MAX_DELAY = 16;
+
+export function scheduleValue(s: StepSchedule, t: number): number {
+  let v = s.initial;
+  const n = s.times.length;
+  for (let k = 0; k < n; k++) {
+    if (s.times[k]! <= t) v = s.values[k]!; else break;
+  }
+  return v;
+}
+
+/**
+ * Limit (vd, vq) to the modulation limit with d-axis priority. `theta` is the electrical angle at
+ * which the vector will be applied (its d axis direction in the alpha-beta plane). Writes out[0..1];
+ * returns true when the vector was changed.
+ */
+export function limitVoltageDq(spec: VoltageLimitSpec, vd: number, vq: number, theta: number, out: Float64Array): boolean {
+  if (spec.shape === 'circle') {
+    const R = spec.radius;
+    if (vd * vd + vq * vq <= R * R) {
+      out[0] = vd; out[1] = vq;
+      return false;
+    }
+    const d = vd > R ? R : vd < -R ? -R : vd;
+    const qm = Math.sqrt(Math.max(0, R * R - d * d));
+    out[0] = d;
+    out[1] = vq > qm ? qm : vq < -qm ? -qm : vq;
+    return true;
+  }
+  // hexagon: |n_k · v| <= h for the edge normals n_k at 30°, 90°, 150° (alpha-beta), h = Vdc/sqrt(3)
+  const h = spec.radius;
+  const rd = hexagonRadius(spec.Vdc, theta);
+  const d = vd > rd ? rd : vd < -rd ? -rd : vd;
+  let qLo = -Infinity;
+  let qHi = Infinity;
+  for (let k = 0; k < 3; k++) {
+    const phi = Math.PI / 6 + (k * Math.PI) / 3 - theta;
+    const c = Math.cos(phi);
+    const s = Math.sin(phi);
+    // h >= |d c + q s|
+    if (Math.abs(s) < 1e-12) continue;
+    const a = (-h - d * c) / s;
+    const b = (h - d * c) / s;
+    const lo = a < b ? a : b;
+    const hi = a < b ? b : a;
+    if (lo > qLo) qLo = lo;
+    if (hi < qHi) qHi = hi;
+  }
+  if (qLo > qHi) qLo = qHi = 0.5 * (qLo + qHi);
+  const q = vq > qHi ? qHi : vq < qLo ? qLo : vq;
+  out[0] = d;
+  out[1] = q;
+  return d !== vd || q !== vq;
+}
+
+/** Largest length of an alpha-beta vector at this angle, V. */
+export function voltageLimitAt(spec: VoltageLimitSpec, angle: number): number {
+  return spec.shape === 'circle' ? spec.radius : hexagonRadius(spec.Vdc, angle);
+}
+
+export class CascadeController {
+  readonly cfg: ControllerConfig;
+  // integrators
+  xd = 0;
+  xq = 0;
+  xw = 0;
+  // speed reference chain
+  wRefRamp = 0;
+  wRefFilt = 0;
+  // outputs of the last step, for traces
+  speedRefOut = 0;
+  torqueRef = 0;
+  idRef = 0;
+  iqRef = 0;
+  /** commanded (limited) dq voltage of this period, V */
+  vdCmd = 0;
+  vqCmd = 0;
+  currentLimited = false;
+  voltageSaturated = false;
+  private k = 0;
+  private readonly bufA = new Float64Array(MAX_DELAY);
+  private readonly bufB = new Float64Array(MAX_DELAY);
+  private readonly tmp = new Float64Array(2);
+  private speedCounter = 0;
+  private torqueClamped = false;
+
+  constructor(cfg: ControllerConfig) {
+    if (!(Number.isInteger(cfg.delaySamples) && cfg.delaySamples >= 0 && cfg.delaySamples < MAX_DELAY)) {
+      throw new RangeError(`delaySamples must be a whole number 0..${MAX_DELAY - 1}`);
+    }
+    this.cfg = cfg;
+  }
+
+  /**
+   * Start from rest currents at speed w0 and angle theta0: the voltages already in the delay line
+   * are the back-EMF (so the first periods do not short the motor), the integrators start where the
+   * steady state needs them.
+   */
+  reset(w0: number, theta0: number): void {
+    const c = this.cfg;
+    const we = c.machine.polePairs * w0;
+    this.k = 0;
+    this.speedCounter = 0;
+    this.wRefRamp = w0;
+    this.wRefFilt = w0;
+    this.xd = 0;
+    this.xq = c.backEmfFeedForward ? 0 : we * c.machine.psiM;
+    this.xw = c.initialTorque;
+    this.torqueRef = c.mode === 'speed' ? c.initialTorque : 0;
+    this.bufA.fill(0);
+    this.bufB.fill(0);
+    for (let j = 0; j < c.delaySamples; j++) {
+      const th = theta0 + (j + 0.5) * we * c.Ts;
+      const vq = we * c.machine.psiM;
+      this.bufA[j] = -vq * Math.sin(th);
+      this.bufB[j] = vq * Math.cos(th);
+    }
+  }
+
+  /**
+   * One control period starting at time t with the sampled state. Writes the alpha-beta voltage to
+   * apply over this period into out[0..1].
+   */
+  step(t: number, id: number, iq: number, w: number, theta: number, out: Float64Array): void {
+    const c = this.cfg;
+    const m = c.machine;
+    const we = m.polePairs * w;
+    const tmp = this.tmp;
+
+    // ---- references
+    if (c.mode === 'speed') {
+      if (this.speedCounter === 0) this.speedLoop(t, w);
+      this.speedCounter = (this.speedCounter + 1) % c.speedLoopDivider;
+    } else if (c.mode === 'torque') {
+      this.speedRefOut = w;
+      const T = scheduleValue(c.torqueRef, t);
+      torqueLimitsAt(c.table!, w, tmp);
+      const Tc = T > tmp[0]! ? tmp[0]! : T < tmp[1]! ? tmp[1]! : T;
+      this.torqueClamped = Tc !== T;
+      this.torqueRef = Tc;
+    } else {
+      this.speedRefOut = w;
+      this.torqueClamped = false;
+    }
+    let idr: number;
+    let iqr: number;
+    if (c.mode === 'current-step') {
+      idr = scheduleValue(c.idRef, t);
+      iqr = scheduleValue(c.iqRef, t);
+    } else {
+      lookupCurrents(c.table!, w, this.torqueRef, tmp);
+      idr = tmp[0]!;
+      iqr = tmp[1]!;
+    }
+    // current reference limit, d axis first
+    const I = c.Imax;
+    let limited = this.torqueClamped;
+    if (idr > I) { idr = I; limited = true; } else if (idr < -I) { idr = -I; limited = true; }
+    const qm = Math.sqrt(Math.max(0, I * I - idr * idr));
+    if (iqr > qm) { iqr = qm; limited = true; } else if (iqr < -qm) { iqr = -qm; limited = true; }
+    this.idRef = idr;
+    this.iqRef = iqr;
+    this.currentLimited = limited;
+
+    // ---- current PIs
+    const ed = idr - id;
+    const eq = iqr - iq;
+    const ffd = c.decoupling ? -we * m.Lq * iq : 0;
+    const ffq = (c.decoupling ? we * m.Ld * id : 0) + (c.backEmfFeedForward ? we * m.psiM : 0);
+    const ud = c.currentD.Kp * ed + this.xd + ffd;
+    const uq = c.currentQ.Kp * eq + this.xq + ffq;
+    const thApply = theta + (c.delayAngleCompensation ? (c.delaySamples + 0.5) * we * c.Ts : 0);
+    const sat = limitVoltageDq(c.voltage, ud, uq, thApply, tmp);
+    const vd = tmp[0]!;
+    const vq = tmp[1]!;
+    this.voltageSaturated = sat;
+    this.vdCmd = vd;
+    this.vqCmd = vq;
+    if (c.antiWindup === 'clamping') {
+      if (!(sat && (vd !== ud) && ed * (ud - vd) > 0)) this.xd += c.Ts * c.currentD.Ki * ed;
+      if (!(sat && (vq !== uq) && eq * (uq - vq) > 0)) this.xq += c.Ts * c.currentQ.Ki * eq;
+    } else {
+      const kd = c.currentD.Kp > 0 ? Math.min(1, (c.Ts * c.currentD.Ki) / c.currentD.Kp) : 0;
+      const kq = c.currentQ.Kp > 0 ? Math.min(1, (c.Ts * c.currentQ.Ki) / c.currentQ.Kp) : 0;
+      this.xd += c.Ts * c.currentD.Ki * ed + kd * (vd - ud);
+      this.xq += c.Ts * c.currentQ.Ki * eq + kq * (vq - uq);
+    }
+
+    // ---- inverse Park and the delay line
+    const cs = Math.cos(thApply);
+    const sn = Math.sin(thApply);
+    const va = vd * cs - vq * sn;
+    const vb = vd * sn + vq * cs;
+    const D = c.delaySamples;
+    if (D === 0) {
+      out[0] = va;
+      out[1] = vb;
+    } else {
+      const slot = this.k % D;
+      out[0] = this.bufA[slot]!;
+      out[1] = this.bufB[slot]!;
+      this.bufA[slot] = va;
+      this.bufB[slot] = vb;
+    }
+    this.k++;
+  }
+
+  private speedLoop(t: number, w: number): void {
+    const c = this.cfg;
+    const Tsw = c.Ts * c.speedLoopDivider;
+    const target = scheduleValue(c.speedRef, t);
+    // ramp limit
+    const dmax = c.speedRamp_rad_s2 * Tsw;
+    const dr = target - this.wRefRamp;
+    this.wRefRamp += dr > dmax ? dmax : dr < -dmax ? -dmax : dr;
+    // first-order prefilter, exact discretisation
+    if (c.speedRefPrefilter_s > 0) this.wRefFilt += (1 - Math.exp(-Tsw / c.speedRefPrefilter_s)) * (this.wRefRamp - this.wRefFilt);
+    else this.wRefFilt = this.wRefRamp;
+    this.speedRefOut = this.wRefRamp;
+    const e = this.wRefFilt - w;
+    const Tu = c.speed.Kp * e + this.xw;
+    const lim = this.tmp;
+    torqueLimitsAt(c.table!, w, lim);
+    const Tmax = lim[0]!;
+    const Tmin = lim[1]!;
+    const T = Tu > Tmax ? Tmax : Tu < Tmin ? Tmin : Tu;
+    this.torqueClamped = T !== Tu;
+    if (c.antiWindup === 'clamping') {
+      if (!(T !== Tu && e * (Tu - T) > 0)) this.xw += Tsw * c.speed.Ki * e;
+    } else {
+      const kw = c.speed.Kp > 0 ? Math.min(1, (Tsw * c.speed.Ki) / c.speed.Kp) : 0;
+      this.xw += Tsw * c.speed.Ki * e + kw * (T - Tu);
+    }
+    this.torqueRef = T;
+  }
+}

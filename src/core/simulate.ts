@@ -1,0 +1,621 @@
+/**
+ * The cascade simulator: the dq plant (plant.ts) integrated period by period with the Cash-Karp
+ * adaptive Runge-Kutta method (ode45-cash-karp), under the digital controller (controller.ts).
+ *
+ * Each control period [t_k, t_k + Ts]: the controller samples the state at t_k and returns the
+ * alpha-beta voltage to hold over the period (its command of `delaySamples` periods before); the
+ * integrator is reset in place (t, dt) and integrates to the period end with tLimit = period end
+ * and dtMaxMag = Ts, splitting at load-schedule breakpoints so that no step straddles a jump.
+ * The error is relative per state with an absolute floor for near-zero states (currents,
+ * speed, angle), see `errorFloors`; the energy state is excluded from step control.
+ *
+ * The run stops with a diagnostic on divergence (a non-finite state, |i| > 20·Imax, |omega| above
+ * the divergence speed, or a step-size collapse), on the step or wall-time budget, or when the
+ * abort signal is raised (checked every `CHECK_EVERY` periods). Traces are recorded every period
+ * and decimated (min/max preserving) to `maxPoints`.
+ */
+import ode45 from 'ode45-cash-karp';
+import type { DqMachine, DriveLimits, Finding } from './types';
+import { InputError } from './errors';
+import { Plant, STATE_SIZE as STATE_SIZE_, I_D as I_D_, I_Q as I_Q_, OMEGA as OMEGA_, THETA as THETA_, ENERGY as ENERGY_, loadSchedule, loadLevel, nextLoadBreak, coulombWidth } from './plant';
+import type { PlantParams } from './plant';
+import { CascadeController, stepSchedule, voltageLimitAt, DEFAULT_CONTROLLER_OPTIONS } from './controller';
+import type { ControllerConfig, VoltageLimitSpec, AntiWindup, ControlMode } from './controller';
+import { buildReferenceTable } from './reference-table';
+import type { ReferenceTable } from './reference-table';
+import { tuneLoops, tuningInputFromProject } from './tuning';
+import type { TuningReport } from './tuning';
+import { decimateMinMax, DEFAULT_MAX_POINTS } from './decimate';
+import { stepResponse, loadStepResponse, steadyStateError, finiteOrNull } from './metrics';
+import { effectiveBus } from './inverter';
+import type { ResolvedProject } from './project';
+import { RAD_S_TO_RPM, RPM_TO_RAD_S } from './units';
+
+const TWO_PI = 2 * Math.PI;
+const SQRT3_2 = Math.sqrt(3) / 2;
+const CHECK_EVERY = 256;
+// local copies of the state indices: module-local constants stay plain numbers in every build
+const STATE_SIZE: number = STATE_SIZE_;
+const I_D: number = I_D_;
+const I_Q: number = I_Q_;
+const OMEGA: number = OMEGA_;
+const THETA: number = THETA_;
+const ENERGY: number = ENERGY_;
+
+export interface SolverOptions {
+  /** 'cash-karp': adaptive ode45-cash-karp; 'rk4': classical fixed-step RK4 (baseline) */
+  method: 'cash-karp' | 'rk4';
+  /** Cash-Karp error tolerance (relative, with the floors below) */
+  tol: number;
+  /** RK4 steps per control period */
+  rk4Substeps: number;
+  /** absolute error floor of the currents, as a fraction of Imax */
+  currentFloor: number;
+  /** absolute error floor of the speed, as a fraction of the divergence speed / 3 */
+  speedFloor: number;
+  /** absolute error floor of the electrical angle, rad */
+  angleFloor: number;
+}
+
+export const DEFAULT_SOLVER_OPTIONS: Readonly<SolverOptions> = {
+  method: 'cash-karp',
+  tol: 1e-6,
+  rk4Substeps: 1,
+  currentFloor: 1e-3,
+  speedFloor: 1e-3,
+  angleFloor: 1,
+};
+
+export interface ScenarioMarks {
+  /** speed reference steps, rad/s (for the step metrics) */
+  speedSteps: Array<{ t: number; v: number }>;
+  /** times of load events (steps and ramp starts), s */
+  loadEvents: number[];
+}
+
+export interface SimulationSetup {
+  plant: PlantParams;
+  controller: ControllerConfig;
+  duration_s: number;
+  initialSpeed_rad_s: number;
+  initialTheta_rad: number;
+  solver: SolverOptions;
+  /** peak current limit, A (divergence at 20x) */
+  Imax: number;
+  /** |omega_m| above which the run is stopped as diverged, rad/s */
+  divergenceSpeed_rad_s: number;
+  /** |omega_m| above which an overspeed event is recorded, rad/s */
+  overspeed_rad_s: number;
+  marks: ScenarioMarks;
+  /** the tuning the gains came from (null when a test built the setup by hand) */
+  tuning: TuningReport | null;
+}
+
+export interface RunOptions {
+  signal?: { readonly aborted: boolean };
+  onProgress?: (fraction: number) => void;
+  /** largest trace length per channel (default 5000) */
+  maxPoints?: number;
+  /** wall-time budget, s (default 60) */
+  wallBudget_s?: number;
+  /** control-period budget (default 2 000 000) */
+  maxSteps?: number;
+  /** wall clock in seconds (default: globalThis.performance.now or Date.now) */
+  clock?: () => number;
+  /** periods between two closings of an event interval before it is split (default 20) */
+  eventMergeGap?: number;
+}
+
+export const DEFAULT_RUN_OPTIONS = { maxPoints: DEFAULT_MAX_POINTS, wallBudget_s: 60, maxSteps: 2_000_000, eventMergeGap: 20 };
+
+export type EventKind = 'current-limit' | 'voltage-saturation' | 'overspeed' | 'divergence' | 'aborted' | 'budget';
+
+export interface SimulationEvent {
+  kind: EventKind;
+  t_s: number;
+  tEnd_s?: number;
+  message: string;
+}
+
+export interface SimulationMetrics {
+  finalSpeed_rpm: number | null;
+  speedOvershoot_pct: number | null;
+  riseTime_s: number | null;
+  settlingTime_s: number | null;
+  loadStepDip_rpm: number | null;
+  loadStepRecovery_s: number | null;
+  /** largest |i_dq| = peak phase current amplitude, A */
+  peakCurrent_A: number | null;
+  /** rms phase current over the run, A rms */
+  rmsCurrent_A: number | null;
+  voltageSaturation_s: number | null;
+  energyFromBus_J: number | null;
+  steadyStateError_rpm: number | null;
+}
+
+export const TRACE_NAMES = [
+  't_s', 'speedRef_rpm', 'speed_rpm', 'torque_Nm', 'loadTorque_Nm', 'idRef_A', 'iqRef_A', 'id_A', 'iq_A',
+  'vd_V', 'vq_V', 'vNorm', 'ia_A', 'ib_A', 'ic_A', 'pDc_W',
+] as const;
+export type TraceName = (typeof TRACE_NAMES)[number];
+export type Traces = Record<TraceName, Float64Array>;
+
+export interface SimulationStats {
+  controlSteps: number;
+  rhsEvaluations: number;
+  /** median derivative evaluations per control period */
+  evaluationsPerPeriod: number;
+  wall_s: number;
+}
+
+export interface SimulationResult {
+  metrics: SimulationMetrics;
+  traces: Traces;
+  events: SimulationEvent[];
+  stats: SimulationStats;
+  diagnostic?: string;
+}
+
+function defaultClock(): () => number {
+  const perf = (globalThis as unknown as { performance?: { now(): number } }).performance;
+  if (perf && typeof perf.now === 'function') return () => perf.now() / 1000;
+  return () => Date.now() / 1000;
+}
+
+/** Absolute error floors per state (see DEFAULT_SOLVER_OPTIONS); Infinity = excluded from step control. */
+export function errorFloors(setup: SimulationSetup): Float64Array {
+  const f = new Float64Array(STATE_SIZE);
+  const s = setup.solver;
+  f[I_D] = s.currentFloor * setup.Imax;
+  f[I_Q] = s.currentFloor * setup.Imax;
+  f[OMEGA] = s.speedFloor * (Number.isFinite(setup.divergenceSpeed_rad_s) ? setup.divergenceSpeed_rad_s / 3 : 100);
+  f[THETA] = s.angleFloor;
+  f[ENERGY] = Infinity;
+  return f;
+}
+
+/** Fixed-step classical RK4 over [t0, t0 + h·n] in place, with preallocated scratch. */
+class Rk4 {
+  private readonly k1 = new Float64Array(STATE_SIZE);
+  private readonly k2 = new Float64Array(STATE_SIZE);
+  private readonly k3 = new Float64Array(STATE_SIZE);
+  private readonly k4 = new Float64Array(STATE_SIZE);
+  private readonly w = new Float64Array(STATE_SIZE);
+  constructor(private readonly f: (d: Float64Array, y: Float64Array, t: number) => void) {}
+  run(y: Float64Array, t0: number, t1: number, n: number): void {
+    const h = (t1 - t0) / n;
+    const { k1, k2, k3, k4, w, f } = this;
+    for (let s = 0; s < n; s++) {
+      const t = t0 + s * h;
+      f(k1, y, t);
+      for (let i = 0; i < STATE_SIZE; i++) w[i] = y[i]! + 0.5 * h * k1[i]!;
+      f(k2, w, t + 0.5 * h);
+      for (let i = 0; i < STATE_SIZE; i++) w[i] = y[i]! + 0.5 * h * k2[i]!;
+      f(k3, w, t + 0.5 * h);
+      for (let i = 0; i < STATE_SIZE; i++) w[i] = y[i]! + h * k3[i]!;
+      f(k4, w, t + h);
+      for (let i = 0; i < STATE_SIZE; i++) y[i] = y[i]! + (h / 6) * (k1[i]! + 2 * k2[i]! + 2 * k3[i]! + k4[i]!);
+    }
+  }
+}
+
+function median(hist: Uint32Array): number {
+  let total = 0;
+  for (let i = 0; i < hist.length; i++) total += hist[i]!;
+  if (total === 0) return 0;
+  let acc = 0;
+  for (let i = 0; i < hist.length; i++) {
+    acc += hist[i]!;
+    if (acc * 2 >= total) return i;
+  }
+  return hist.length - 1;
+}
+
+export function runSimulation(setup: SimulationSetup, opts: RunOptions = {}): SimulationResult {
+  const o = { ...DEFAULT_RUN_OPTIONS, ...opts };
+  const clock = opts.clock ?? defaultClock();
+  const wall0 = clock();
+  const Ts = setup.controller.Ts;
+  if (!(Ts > 0) || !Number.isFinite(Ts)) throw new InputError('control.fCtrl_Hz', 'must be > 0 Hz');
+  if (!(setup.duration_s > 0) || !Number.isFinite(setup.duration_s)) throw new InputError('scenario.duration_s', 'must be > 0 s');
+  const events: SimulationEvent[] = [];
+  let diagnostic: string | undefined;
+  const Nwanted = Math.max(1, Math.round(setup.duration_s / Ts));
+  let N = Nwanted;
+  if (N > o.maxSteps) {
+    N = Math.max(1, Math.floor(o.maxSteps));
+    events.push({ kind: 'budget', t_s: N * Ts, message: `the run needs ${Nwanted} control periods; the step budget is ${N}: simulated ${(N * Ts).toPrecision(4)} s of ${setup.duration_s} s` });
+    diagnostic = `stopped at the step budget (${N} control periods)`;
+  }
+
+  const plant = new Plant(setup.plant);
+  const ctrl = new CascadeController(setup.controller);
+  const y = new Float64Array(STATE_SIZE);
+  y[OMEGA] = setup.plant.mechanics === 'locked' ? setup.initialSpeed_rad_s : setup.initialSpeed_rad_s;
+  y[THETA] = setup.initialTheta_rad;
+  ctrl.reset(y[OMEGA]!, y[THETA]!);
+  const floors = errorFloors(setup);
+  const errorScale = (i: number, dt: number, yi: Float64Array | number[], dydt: Float64Array | number[]): number =>
+    floors[i]! + Math.abs(yi as unknown as number) + Math.abs(dt * (dydt as unknown as number));
+  const useCk = setup.solver.method === 'cash-karp';
+  const integ = useCk
+    ? ode45(y, plant.deriv as (d: Float64Array | number[], y: Float64Array | number[], t: number) => void, 0, Ts, {
+        tol: setup.solver.tol,
+        dtMaxMag: Ts,
+        errorScaleFunction: errorScale as never,
+        verbose: false,
+      })
+    : null;
+  const rk4 = useCk ? null : new Rk4(plant.deriv);
+  const sub = Math.max(1, Math.round(setup.solver.rk4Substeps));
+
+  // traces at every period start plus the end
+  const cap = N + 1;
+  const ch = {} as Traces;
+  for (const name of TRACE_NAMES) ch[name] = new Float64Array(cap);
+  const tT = ch.t_s, tWr = ch.speedRef_rpm, tW = ch.speed_rpm, tTe = ch.torque_Nm, tTl = ch.loadTorque_Nm;
+  const tIdr = ch.idRef_A, tIqr = ch.iqRef_A, tId = ch.id_A, tIq = ch.iq_A, tVd = ch.vd_V, tVq = ch.vq_V;
+  const tVn = ch.vNorm, tIa = ch.ia_A, tIb = ch.ib_A, tIc = ch.ic_A, tP = ch.pDc_W;
+  const hist = new Uint32Array(1025);
+  const vab = plant.input;
+  const Imax = setup.Imax;
+  const iDiv2 = (20 * Imax) ** 2;
+  const wDiv = setup.divergenceSpeed_rad_s;
+  const wOver = setup.overspeed_rad_s;
+  const vspec = setup.controller.voltage;
+  const circle = vspec.shape === 'circle';
+  const locked = setup.plant.mechanics !== 'free';
+  const p = setup.plant.machine.polePairs;
+  const load = setup.plant.load;
+  const gap = Math.max(1, Math.floor(o.eventMergeGap));
+
+  let peakI2 = 0;
+  let sumI2 = 0;
+  let satPeriods = 0;
+  let curStart = -1, curOff = 0, satStart = -1, satOff = 0, overStart = -1;
+  let curCount = 0, satCount = 0;
+  const MAX_INTERVALS = 200;
+  const closeInterval = (kind: EventKind, t0: number, t1: number, count: number): void => {
+    if (count < MAX_INTERVALS) {
+      events.push({
+        kind, t_s: t0, tEnd_s: t1,
+        message: kind === 'current-limit'
+          ? 'current reference at the drive limit (Imax, or the torque the voltage allows at this speed)'
+          : 'voltage vector at the modulation limit (the current loop has lost authority)',
+      });
+    } else if (count === MAX_INTERVALS) {
+      events.push({ kind, t_s: t0, message: `more than ${MAX_INTERVALS} intervals; the rest are not listed` });
+    }
+  };
+
+  let k = 0;
+  let nRec = 0;
+  let stopped = false;
+  const record = (idx: number, t: number): void => {
+    const id = y[I_D]!, iq = y[I_Q]!, w = y[OMEGA]!, th = y[THETA]!;
+    const c = Math.cos(th), s = Math.sin(th);
+    const ia = id * c - iq * s;
+    const ib = id * s + iq * c;
+    tT[idx] = t;
+    tWr[idx] = ctrl.speedRefOut * RAD_S_TO_RPM;
+    tW[idx] = w * RAD_S_TO_RPM;
+    tTe[idx] = plant.torque(y);
+    tTl[idx] = locked ? 0 : plant.loadTorque(t, w);
+    tIdr[idx] = ctrl.idRef;
+    tIqr[idx] = ctrl.iqRef;
+    tId[idx] = id;
+    tIq[idx] = iq;
+    // applied voltage in dq at the mid-period angle
+    const thm = th + 0.5 * p * w * Ts;
+    const cm = Math.cos(thm), sm = Math.sin(thm);
+    tVd[idx] = vab[0]! * cm + vab[1]! * sm;
+    tVq[idx] = -vab[0]! * sm + vab[1]! * cm;
+    const vlen = Math.sqrt(vab[0]! * vab[0]! + vab[1]! * vab[1]!);
+    tVn[idx] = vlen / (circle ? vspec.radius : voltageLimitAt(vspec, Math.atan2(vab[1]!, vab[0]!)));
+    tIa[idx] = ia;
+    tIb[idx] = -0.5 * ia + SQRT3_2 * ib;
+    tIc[idx] = -0.5 * ia - SQRT3_2 * ib;
+    tP[idx] = 1.5 * (vab[0]! * ia + vab[1]! * ib);
+  };
+
+  for (k = 0; k < N; k++) {
+    const t0 = k * Ts;
+    const t1 = (k + 1) * Ts;
+    ctrl.step(t0, y[I_D]!, y[I_Q]!, y[OMEGA]!, y[THETA]!, vab);
+    record(k, t0);
+    nRec = k + 1;
+    const i2 = y[I_D]! * y[I_D]! + y[I_Q]! * y[I_Q]!;
+    if (i2 > peakI2) peakI2 = i2;
+    sumI2 += i2;
+    // event intervals
+    if (ctrl.currentLimited) { if (curStart < 0) curStart = t0; curOff = 0; }
+    else if (curStart >= 0 && ++curOff >= gap) { closeInterval('current-limit', curStart, t0 - (gap - 1) * Ts, curCount++); curStart = -1; }
+    if (ctrl.voltageSaturated) { satPeriods++; if (satStart < 0) satStart = t0; satOff = 0; }
+    else if (satStart >= 0 && ++satOff >= gap) { closeInterval('voltage-saturation', satStart, t0 - (gap - 1) * Ts, satCount++); satStart = -1; }
+    const wabs = Math.abs(y[OMEGA]!);
+    if (wabs > wOver) { if (overStart < 0) overStart = t0; }
+    else if (overStart >= 0) {
+      events.push({ kind: 'overspeed', t_s: overStart, tEnd_s: t0, message: `speed above ${(wOver * RAD_S_TO_RPM).toPrecision(4)} rpm` });
+      overStart = -1;
+    }
+
+    // integrate the period
+    const e0 = plant.evaluations;
+    try {
+      if (integ) {
+        let tb = nextLoadBreak(load, t0);
+        let seg = 0;
+        let tStart = t0;
+        while (seg++ < 8) {
+          const tEnd = tb < t1 - 1e-9 * Ts ? tb : t1;
+          plant.setLoadSegment(tStart, tEnd);
+          integ.t = tStart;
+          integ.dt = tEnd - tStart < Ts ? tEnd - tStart : Ts;
+          let g = 0;
+          while (g++ < 2000 && integ.step(tEnd)) { /* steps until the segment end */ }
+          if (g >= 2000) throw new Error('step size collapsed (more than 2000 steps in one control period)');
+          integ.t = tEnd;
+          if (tEnd >= t1) break;
+          tStart = tEnd;
+          tb = nextLoadBreak(load, tEnd);
+        }
+      } else {
+        let tb = nextLoadBreak(load, t0);
+        let tStart = t0;
+        for (let seg = 0; seg < 8; seg++) {
+          const tEnd = tb < t1 - 1e-9 * Ts ? tb : t1;
+          plant.setLoadSegment(tStart, tEnd);
+          rk4!.run(y, tStart, tEnd, Math.max(1, Math.round((sub * (tEnd - tStart)) / Ts)));
+          if (tEnd >= t1) break;
+          tStart = tEnd;
+          tb = nextLoadBreak(load, tEnd);
+        }
+      }
+    } catch (err) {
+      const why = err instanceof Error ? err.message : String(err);
+      diagnostic = `diverged at t = ${t0.toPrecision(6)} s: integration failed (${why}); state id = ${y[I_D]} A, iq = ${y[I_Q]} A, speed = ${(y[OMEGA]! * RAD_S_TO_RPM).toPrecision(6)} rpm`;
+      events.push({ kind: 'divergence', t_s: t0, message: diagnostic });
+      stopped = true;
+      k++;
+      break;
+    }
+    const ev = plant.evaluations - e0;
+    hist[ev < 1024 ? ev : 1024]!++;
+    // wrap the angle (the next period restarts the integrator anyway)
+    let th = y[THETA]! % TWO_PI;
+    if (th < 0) th += TWO_PI;
+    y[THETA] = th;
+
+    const id = y[I_D]!, iq = y[I_Q]!, w = y[OMEGA]!;
+    const bad = !(Number.isFinite(id) && Number.isFinite(iq) && Number.isFinite(w) && Number.isFinite(th));
+    if (bad || id * id + iq * iq > iDiv2 || Math.abs(w) > wDiv) {
+      const what = bad ? 'a state became non-finite' : id * id + iq * iq > iDiv2 ? `|i| exceeded 20·Imax = ${(20 * Imax).toPrecision(4)} A` : `|speed| exceeded ${(wDiv * RAD_S_TO_RPM).toPrecision(4)} rpm`;
+      diagnostic = `diverged at t = ${t1.toPrecision(6)} s: ${what}; state id = ${id.toPrecision(6)} A, iq = ${iq.toPrecision(6)} A, speed = ${(w * RAD_S_TO_RPM).toPrecision(6)} rpm (check the gains, the delay and the scenario)`;
+      events.push({ kind: 'divergence', t_s: t1, message: diagnostic });
+      stopped = true;
+      k++;
+      break;
+    }
+    if ((k & (CHECK_EVERY - 1)) === CHECK_EVERY - 1) {
+      if (opts.signal?.aborted) {
+        diagnostic = `aborted at t = ${t1.toPrecision(6)} s`;
+        events.push({ kind: 'aborted', t_s: t1, message: diagnostic });
+        stopped = true;
+        k++;
+        break;
+      }
+      if (clock() - wall0 > o.wallBudget_s) {
+        diagnostic = `stopped at t = ${t1.toPrecision(6)} s: the wall-time budget of ${o.wallBudget_s} s is used up`;
+        events.push({ kind: 'budget', t_s: t1, message: diagnostic });
+        stopped = true;
+        k++;
+        break;
+      }
+      opts.onProgress?.(k / N);
+    }
+  }
+  const periods = k;
+  // final sample (the state at the end) unless a divergence left it non-finite
+  if (!stopped || Number.isFinite(y[I_D]! + y[I_Q]! + y[OMEGA]! + y[THETA]!)) {
+    if (nRec < cap) { record(nRec, periods * Ts); nRec++; }
+  }
+  const tLast = nRec > 0 ? tT[nRec - 1]! : 0;
+  if (curStart >= 0) closeInterval('current-limit', curStart, tLast, curCount++);
+  if (satStart >= 0) closeInterval('voltage-saturation', satStart, tLast, satCount++);
+  if (overStart >= 0) events.push({ kind: 'overspeed', t_s: overStart, tEnd_s: tLast, message: `speed above ${(wOver * RAD_S_TO_RPM).toPrecision(4)} rpm` });
+  events.sort((a, b) => a.t_s - b.t_s);
+  opts.onProgress?.(1);
+
+  // ---- metrics
+  const mode = setup.controller.mode;
+  const marks = setup.marks;
+  const allEvents = [...marks.speedSteps.map((s) => s.t), ...marks.loadEvents].sort((a, b) => a - b);
+  const nextAfter = (t: number): number => {
+    for (const x of allEvents) if (x > t + 1e-12) return x;
+    return tLast + Ts;
+  };
+  let rise: number | null = null, over: number | null = null, settle: number | null = null;
+  let dip: number | null = null, recov: number | null = null, sse: number | null = null;
+  if (mode === 'speed' && nRec > 2) {
+    const s0 = marks.speedSteps[0];
+    if (s0) {
+      const before = scheduleBefore(marks.speedSteps, s0.t, setup.initialSpeed_rad_s) * RAD_S_TO_RPM;
+      const r = stepResponse(tT, tW, nRec, s0.t, nextAfter(s0.t), before, s0.v * RAD_S_TO_RPM);
+      rise = r.riseTime_s; over = r.overshoot_pct; settle = r.settlingTime_s;
+    }
+    const l0 = marks.loadEvents[0];
+    if (l0 !== undefined) {
+      const r = loadStepResponse(tT, tWr, tW, nRec, l0, nextAfter(l0));
+      dip = r.dip; recov = r.recovery_s;
+    }
+    sse = steadyStateError(tT, tWr, tW, nRec, Math.max(0.05 * tLast, 2 * Ts));
+  }
+  const nI = Math.max(1, Math.min(periods, nRec));
+  const metrics: SimulationMetrics = {
+    finalSpeed_rpm: finiteOrNull(nRec > 0 ? tW[nRec - 1]! : null),
+    speedOvershoot_pct: finiteOrNull(over),
+    riseTime_s: finiteOrNull(rise),
+    settlingTime_s: finiteOrNull(settle),
+    loadStepDip_rpm: finiteOrNull(dip),
+    loadStepRecovery_s: finiteOrNull(recov),
+    peakCurrent_A: finiteOrNull(Math.sqrt(peakI2)),
+    rmsCurrent_A: finiteOrNull(Math.sqrt(sumI2 / nI / 2)),
+    voltageSaturation_s: finiteOrNull(satPeriods * Ts),
+    energyFromBus_J: finiteOrNull(y[ENERGY]!),
+    steadyStateError_rpm: finiteOrNull(sse),
+  };
+
+  // ---- traces, decimated; non-finite samples (a divergence) become 0 so no NaN escapes
+  const names = TRACE_NAMES.slice(1);
+  const dec = decimateMinMax(tT, names.map((n) => ch[n]), nRec, o.maxPoints);
+  const traces = { t_s: dec.t } as Traces;
+  names.forEach((n, i) => {
+    const a = dec.channels[i]!;
+    for (let j = 0; j < a.length; j++) if (!Number.isFinite(a[j]!)) a[j] = 0;
+    traces[n] = a;
+  });
+  const stats: SimulationStats = {
+    controlSteps: periods,
+    rhsEvaluations: plant.evaluations,
+    evaluationsPerPeriod: median(hist),
+    wall_s: Math.max(0, clock() - wall0),
+  };
+  return { metrics, traces, events, stats, ...(diagnostic ? { diagnostic } : {}) };
+}
+
+function scheduleBefore(steps: Array<{ t: number; v: number }>, t: number, initial: number): number {
+  let v = initial;
+  for (const s of steps) if (s.t < t) v = s.v;
+  return v;
+}
+
+// ------------------------------------------------------------------ from a project
+
+export interface SimulationOverrides {
+  control?: Partial<NonNullable<ResolvedProject['file']['control']>>;
+  scenario?: Partial<NonNullable<ResolvedProject['file']['scenario']>>;
+  solver?: Partial<SolverOptions>;
+  /** first-order speed-reference prefilter with the speed PI's integral time (default false) */
+  speedRefPrefilter?: boolean;
+  /** see ControllerConfig.delayAngleCompensation (default true) */
+  delayAngleCompensation?: boolean;
+  /** back-EMF feed-forward; default follows control.decoupling */
+  backEmfFeedForward?: boolean;
+  /** reference-table grid (default 49 x 41) */
+  tableNodes?: { speed: number; torque: number };
+}
+
+/** Voltage limit of the controller: the whole modulation range of the effective bus (the utilisation headroom is the controller's). */
+export function controllerVoltageLimit(inv: ResolvedProject['inverter']): VoltageLimitSpec {
+  const Vdc = effectiveBus(inv);
+  if (inv.modulation === 'six-step') return { shape: 'hexagon', radius: Vdc / Math.sqrt(3), Vdc };
+  return { shape: 'circle', radius: inv.modulation === 'svpwm' ? Vdc / Math.sqrt(3) : Vdc / 2, Vdc };
+}
+
+/** Speed at which the open-circuit back-EMF reaches Vmax, rad/s (mechanical). */
+function noLoadSpeed(m: DqMachine, lim: DriveLimits): number {
+  return m.psiM > 0 ? lim.Vmax / (m.polePairs * m.psiM) : lim.Vmax / (m.polePairs * m.Ld * lim.Imax);
+}
+
+export function simulationFromProject(p: ResolvedProject, overrides: SimulationOverrides = {}): SimulationSetup {
+  const baseScenario = p.file.scenario;
+  if (!baseScenario && !overrides.scenario) throw new InputError('scenario', 'is required to simulate (duration_s, speedSteps, loadSteps, ...)');
+  const control = { ...(p.file.control ?? {}), ...(overrides.control ?? {}) } as NonNullable<ResolvedProject['file']['control']>;
+  const scenario = { ...(baseScenario ?? {}), ...(overrides.scenario ?? {}) } as NonNullable<ResolvedProject['file']['scenario']>;
+  if (!(scenario.duration_s > 0)) throw new InputError('scenario.duration_s', 'must be > 0 s');
+  const mode: ControlMode = control.mode ?? 'speed';
+  const fCtrl = control.fCtrl_Hz ?? 10000;
+  const Ts = 1 / fCtrl;
+  const delaySamples = control.delaySamples ?? 1;
+  const divider = control.speedLoopDivider ?? 1;
+  const machine = p.hot;
+  const lim = p.peak;
+  const J = p.mechanics.inertia + (scenario.loadInertia ?? 0);
+  const tuning = tuneLoops(tuningInputFromProject({ ...p, file: { ...p.file, control, scenario } } as ResolvedProject));
+  const cd = tuning.current;
+  const cq = tuning.currentQ ?? tuning.current;
+  const sp = tuning.speed;
+  const speedSteps = (scenario.speedSteps ?? []).map((s) => ({ t: s.t_s, v: s.speed_rpm * RPM_TO_RAD_S }));
+  const w0 = mode === 'current-step' ? 0 : (scenario.initialSpeed_rpm ?? 0) * RPM_TO_RAD_S;
+  const wMaxRef = Math.max(Math.abs(w0), ...speedSteps.map((s) => Math.abs(s.v)));
+  const w0NoLoad = noLoadSpeed(machine, lim);
+  const speedMax = Math.max(1.5 * wMaxRef, 1.2 * w0NoLoad, 1);
+  let table: ReferenceTable | null = null;
+  if (mode !== 'current-step') {
+    table = buildReferenceTable(machine, lim, {
+      speedMax_rad_s: speedMax,
+      ...(overrides.tableNodes ? { speedNodes: overrides.tableNodes.speed, torqueNodes: overrides.tableNodes.torque } : {}),
+    });
+  }
+  const loadSteps = mode === 'current-step' ? [] : scenario.loadSteps ?? [];
+  const loadRamps = mode === 'current-step' ? [] : scenario.loadRamps ?? [];
+  const k2 = mode === 'current-step' ? 0 : scenario.loadModel?.k ?? 0;
+  const load = loadSchedule(loadSteps, loadRamps, k2);
+  const TL0 = loadLevel(load, 0);
+  const plant: PlantParams = {
+    machine,
+    inertia: J,
+    viscousFriction: p.mechanics.viscousFriction,
+    coulombFriction: p.mechanics.coulombFriction,
+    load,
+    mechanics: mode === 'current-step' ? 'locked' : 'free',
+    inputFrame: 'alpha-beta',
+    coulombWidth_rad_s: coulombWidth(p.mechanics.coulombFriction, J, Ts),
+  };
+  const decoupling = control.decoupling ?? true;
+  const antiWindup: AntiWindup = control.antiWindup ?? 'clamping';
+  const cs = scenario.currentStep;
+  const Ti = sp.Ki > 0 ? sp.Kp / sp.Ki : 0;
+  const cfg: ControllerConfig = {
+    ...DEFAULT_CONTROLLER_OPTIONS,
+    mode,
+    Ts,
+    delaySamples,
+    machine,
+    currentD: { Kp: cd.Kp, Ki: cd.Ki },
+    currentQ: { Kp: cq.Kp, Ki: cq.Ki },
+    speed: { Kp: sp.Kp, Ki: sp.Ki },
+    speedLoopDivider: divider,
+    antiWindup,
+    decoupling,
+    backEmfFeedForward: overrides.backEmfFeedForward ?? decoupling,
+    delayAngleCompensation: overrides.delayAngleCompensation ?? true,
+    speedRamp_rad_s2: control.speedRamp_rpm_per_s !== undefined ? control.speedRamp_rpm_per_s * RPM_TO_RAD_S : Infinity,
+    speedRefPrefilter_s: overrides.speedRefPrefilter ? Ti : 0,
+    Imax: lim.Imax,
+    voltage: controllerVoltageLimit(p.inverter),
+    table,
+    speedRef: stepSchedule(w0, speedSteps),
+    torqueRef: stepSchedule(0, (scenario.torqueSteps ?? []).map((s) => ({ t: s.t_s, v: s.torque_Nm }))),
+    idRef: stepSchedule(0, cs ? [{ t: cs.t_s, v: cs.id_A }] : []),
+    iqRef: stepSchedule(0, cs ? [{ t: cs.t_s, v: cs.iq_A }] : []),
+    initialTorque: mode === 'speed' ? TL0 + p.mechanics.viscousFriction * w0 + k2 * w0 * Math.abs(w0) + (w0 !== 0 ? Math.sign(w0) * p.mechanics.coulombFriction : 0) : 0,
+  };
+  if (mode === 'current-step' && !cs) throw new InputError('scenario.currentStep', 'is required in current-step mode ({id_A, iq_A, t_s})');
+  if (mode === 'torque' && (scenario.torqueSteps ?? []).length === 0) throw new InputError('scenario.torqueSteps', 'needs at least one step in torque mode');
+  const overspeed = mode === 'speed' ? Math.max(1.2 * wMaxRef, 0.1 * speedMax) : speedMax;
+  return {
+    plant,
+    controller: cfg,
+    duration_s: scenario.duration_s,
+    initialSpeed_rad_s: w0,
+    initialTheta_rad: 0,
+    solver: { ...DEFAULT_SOLVER_OPTIONS, ...(overrides.solver ?? {}) },
+    Imax: lim.Imax,
+    divergenceSpeed_rad_s: mode === 'current-step' ? Infinity : 3 * speedMax,
+    overspeed_rad_s: mode === 'current-step' ? Infinity : overspeed,
+    marks: {
+      speedSteps: mode === 'speed' ? speedSteps : [],
+      loadEvents: [...loadSteps.map((s) => s.t_s), ...loadRamps.map((r) => r.t_s)].sort((a, b) => a - b),
+    },
+    tuning,
+  };
+}
+
+/** Findings of a run worth showing beside the metrics. */
+export function simulationFindings(r: SimulationResult): Finding[] {
+  const out: Finding[] = [];
+  if (r.diagnostic) out.push({ code: 'simulation-stopped', severity: 'danger', message: r.diagnostic });
+  if ((r.metrics.voltageSaturation_s ?? 0) > 0) out.push({ code: 'voltage-saturation', severity: 'warning', message: `the voltage limit was active for ${r.metrics.voltageSaturation_s!.toPrecision(3)} s` });
+  return out;
+}
