@@ -1,0 +1,70 @@
+import type { Command } from '../command';
+import { computeEnvelope, type Envelope } from '../../core/envelope';
+import { numberFlag, stringFlag } from '../args';
+import { table, fmt } from '../table';
+import { peakToRms, radSToRpm, rpmToRadS } from '../../core/units';
+
+/** The envelope as the CLI's JSON document (motoring under Imax at the file's temperatures). */
+export function envelopeJson(env: Envelope) {
+  const points = [];
+  for (let k = 0; k < env.speed.length; k++) {
+    points.push({
+      speed_rpm: radSToRpm(env.speed[k]!),
+      torque_Nm: env.torque[k]!,
+      power_W: env.power[k]!,
+      id_A: env.id[k]!,
+      iq_A: env.iq[k]!,
+      current_A: env.current[k]!,
+      voltage_V: env.voltage[k]!,
+      region: env.region[k]!,
+    });
+  }
+  return {
+    points,
+    baseSpeed_rpm: radSToRpm(env.baseSpeed),
+    maxSpeed_rpm: env.maxSpeed === null ? null : radSToRpm(env.maxSpeed),
+    characteristicCurrent_A: env.characteristicCurrent,
+    accuracy: env.accuracy,
+  };
+}
+
+export function envelopeCsv(env: Envelope): string {
+  const lines = ['speed_rpm,torque_Nm,power_W,id_A,iq_A,current_A_peak,current_A_rms,voltage_V_peak_phase,region'];
+  for (let k = 0; k < env.speed.length; k++) {
+    lines.push(
+      [radSToRpm(env.speed[k]!), env.torque[k]!, env.power[k]!, env.id[k]!, env.iq[k]!, env.current[k]!, peakToRms(env.current[k]!), env.voltage[k]!]
+        .map((x) => Number(x.toPrecision(10)))
+        .join(',') + `,${env.region[k]}`,
+    );
+  }
+  return lines.join('\n') + '\n';
+}
+
+export const envelopeCommand: Command = {
+  name: 'envelope',
+  summary: 'maximum motoring torque vs speed under Imax, hot corner',
+  usage: 'envelope <project.json> [--speed-max RPM] [--points N] [--csv FILE] [--json]',
+  flags: { 'speed-max': 'number', points: 'number', csv: 'string' },
+  run(p, args) {
+    const speedMax = numberFlag(args, 'speed-max', { min: 1, max: 1e6, unit: 'rpm' });
+    const points = numberFlag(args, 'points', { min: 2, max: 100000, integer: true });
+    const env = computeEnvelope(p.hot, p.peak, {
+      ...(points !== undefined ? { points } : {}),
+      ...(speedMax !== undefined ? { speedMax: rpmToRadS(speedMax) } : {}),
+    });
+    const json = envelopeJson(env);
+    const csv = stringFlag(args, 'csv');
+    const step = Math.max(1, Math.floor(env.speed.length / 25));
+    const rows = json.points.filter((_, k) => k % step === 0 || k === json.points.length - 1)
+      .map((q) => [q.speed_rpm, q.torque_Nm, q.power_W / 1e3, q.id_A, q.iq_A, q.current_A, peakToRms(q.current_A), q.voltage_V, q.region]);
+    const text = [
+      `${p.name}: motoring envelope under Imax ${fmt(p.peak.Imax)} A peak, Vmax ${fmt(p.peak.Vmax)} V peak phase, hot corner`,
+      '',
+      table(['speed rpm', 'torque N·m', 'power kW', 'id A pk', 'iq A pk', '|i| A pk', '|i| A rms', '|v| V pk', 'region'], rows),
+      '',
+      `base speed ${fmt(json.baseSpeed_rpm)} rpm, maximum speed ${json.maxSpeed_rpm === null ? 'unbounded (psiM/Ld inside the current limit)' : fmt(json.maxSpeed_rpm) + ' rpm'}, ` +
+        `characteristic current ${fmt(json.characteristicCurrent_A)} A peak (${fmt(peakToRms(json.characteristicCurrent_A))} A rms), torque accuracy ${fmt(env.accuracy, 2)} relative`,
+    ].join('\n');
+    return { json, text, ...(csv ? { files: [{ path: csv, contents: envelopeCsv(env) }] } : {}) };
+  },
+};
