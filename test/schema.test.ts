@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
-import { KEYS, checkProject, parseProject } from '../src/core/schema';
+import { KEYS, checkProject, parseProject, projectSchema } from '../src/core/schema';
 import { InputError } from '../src/core/errors';
 
 const minimal = (): Record<string, any> => ({
@@ -199,7 +199,34 @@ describe('checkProject', () => {
   });
 });
 
+/** every key path of the schema, arrays as [] (walks zod's definitions) */
+function schemaPaths(schema: any, prefix: string, out: string[]): string[] {
+  const def = schema._zod.def;
+  if (def.type === 'optional' || def.type === 'default' || def.type === 'nullable' || def.type === 'prefault') return schemaPaths(def.innerType, prefix, out);
+  if (def.type === 'pipe') return schemaPaths(def.in, prefix, out);
+  if (def.type === 'array') {
+    out.push(`${prefix}[]`);
+    return schemaPaths(def.element, `${prefix}[]`, out);
+  }
+  if (def.type === 'object') {
+    for (const [k, v] of Object.entries(def.shape)) {
+      const path = prefix ? `${prefix}.${k}` : k;
+      out.push(path);
+      schemaPaths(v, path, out);
+    }
+  }
+  return out;
+}
+
 describe('KEYS table', () => {
+  it('documents exactly the keys of the schema', () => {
+    const paths = schemaPaths(projectSchema, '', []).filter((p) => !p.endsWith('[]') || KEYS[p] !== undefined);
+    expect(paths.length).toBeGreaterThan(80);
+    for (const p of paths) expect(KEYS[p], p).toBeDefined();
+    const all = new Set(schemaPaths(projectSchema, '', []));
+    for (const k of Object.keys(KEYS)) expect(all.has(k), k).toBe(true);
+  });
+
   it('documents a unit or a doc for every key', () => {
     for (const [k, v] of Object.entries(KEYS)) {
       expect(v.doc.length, k).toBeGreaterThan(0);
