@@ -15,8 +15,9 @@ beforeEach(() => {
 });
 afterEach(() => rmSync(dir, { recursive: true, force: true }));
 
-const P1 = '{"format":"torquewise-project","version":1,"n":1}';
-const P2 = '{"format":"torquewise-project","version":1,"n":2}';
+// two valid projects: the invented traction demo, and the same with another name
+const P1 = readFileSync(join(__dirname, '../resources/demo-ipm-traction.json'), 'utf8').trimEnd();
+const P2 = P1.replace('"name": "Invented demo', '"name": "Edited invented demo');
 
 function service(picks: { open?: Array<string | null>; save?: Array<string | null> } = {}, extra: { initialPath?: string | null; fs?: FsLayer } = {}) {
   const saveRequests: SaveDialogRequest[] = [];
@@ -39,6 +40,9 @@ function service(picks: { open?: Array<string | null>; save?: Array<string | nul
 }
 
 describe('FileService', () => {
+  it('the fixtures are two different projects', () => {
+    expect(P2).not.toBe(P1);
+  });
   it('open through the dialog grants saving back to that file and records it as recent', async () => {
     const p = join(dir, 'a.json');
     writeFileSync(p, P1);

@@ -12,7 +12,9 @@ beforeEach(() => {
 });
 afterEach(() => rmSync(dir, { recursive: true, force: true }));
 
-const GOOD = JSON.stringify({ format: 'torquewise-project', version: 1, motor: { polePairs: 4 } });
+// a full, valid project: the invented traction demo
+const GOOD = readFileSync(join(__dirname, '../resources/demo-ipm-traction.json'), 'utf8');
+const HEADER_ONLY = JSON.stringify({ format: 'torquewise-project', version: 1, motor: { polePairs: 4 } });
 
 /** A file system that records every call that could change something. */
 function watchingFs(): FsLayer & { writes: string[] } {
@@ -33,6 +35,7 @@ function watchingFs(): FsLayer & { writes: string[] } {
 describe('projectHeader', () => {
   it('accepts our format at the current version and flags a newer one', () => {
     expect(projectHeader(GOOD)).toEqual({ kind: 'ok' });
+    expect(projectHeader(HEADER_ONLY)).toEqual({ kind: 'ok' });
     expect(projectHeader('{"format":"torquewise-project","version":7}')).toEqual({ kind: 'newer', version: 7 });
     expect(PROJECT_VERSION).toBe(1);
   });
@@ -55,9 +58,11 @@ describe('openProjectFile', () => {
   });
 
   const broken: Array<[string, string | Buffer, RegExp]> = [
-    ['truncated JSON', GOOD.slice(0, 30), /^Could not open "x\.json": it is not valid JSON/],
-    ['another format', '{"format":"other","version":1}', /format must be "torquewise-project"\.$/],
-    ['no version', '{"format":"torquewise-project"}', /version must be a whole number >= 1\.$/],
+    ['truncated JSON', '{"format": ', /^Could not open "x\.json": file is not valid JSON: .* at line 1 column 12\.$/],
+    ['another format', '{"format":"other","version":1}', /: format must be "torquewise-project" \(this is not a Torquewise project file\)\.$/],
+    ['no version', '{"format":"torquewise-project"}', /: version must be 1\.$/],
+    ['a section missing a required key', HEADER_ONLY, /: motor\.Rs is required \(stator resistance per phase .* in ohm\)\.$/],
+    ['a negative inductance', GOOD.replace('"Ld": { "value": 0.0003', '"Ld": { "value": -0.0003'), /: nameplate\.Ld\.value must be > 0/],
     ['binary bytes', Buffer.from([0xff, 0xfe, 0x00, 0x81, 0x7b]), /it is not UTF-8 text\.$/],
   ];
   for (const [what, content, re] of broken) {
@@ -116,7 +121,7 @@ describe('openProjectFile', () => {
     writeFileSync(p, GOOD);
     const r = await openProjectFile(p, { maxBytes: 10 });
     expect(r.ok).toBe(false);
-    if (!r.ok) expect(r.message).toBe(`Could not open "big.json": it is ${GOOD.length} bytes, more than the 10 bytes a project may have.`);
+    if (!r.ok) expect(r.message).toBe(`Could not open "big.json": it is ${Buffer.byteLength(GOOD)} bytes, more than the 10 bytes a project may have.`);
   });
 
   it('reports a read error by its reason', async () => {
@@ -136,9 +141,9 @@ describe('saveProjectFile', () => {
   it('saves atomically with a final newline, then reopens the same text', async () => {
     const p = join(dir, 's.json');
     expect(await saveProjectFile(p, GOOD)).toEqual({ ok: true, path: p });
-    expect(readFileSync(p, 'utf8')).toBe(`${GOOD}\n`);
+    expect(readFileSync(p, 'utf8')).toBe(GOOD.endsWith('\n') ? GOOD : `${GOOD}\n`);
     const r = await openProjectFile(p);
-    expect(r.ok && r.text).toBe(`${GOOD}\n`);
+    expect(r.ok && r.text).toBe(GOOD.endsWith('\n') ? GOOD : `${GOOD}\n`);
   });
 
   it('refuses to write text that is not a project, leaving the file as it was', async () => {
@@ -160,7 +165,7 @@ describe('saveProjectFile', () => {
         return nodeFs.open(path, flags, mode);
       },
     };
-    const r = await saveProjectFile(p, GOOD.replace('4', '5'), { fs });
+    const r = await saveProjectFile(p, GOOD.replace('350 V bus', '400 V bus'), { fs });
     expect(r).toEqual({
       ok: false,
       canceled: false,

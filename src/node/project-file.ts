@@ -3,25 +3,22 @@
 // object with a sentence for the user; nothing throws out of these functions.
 import { basename } from 'node:path';
 import { isInputError } from '../core/errors';
+import { loadProjectText } from '../core/project';
+import { PROJECT_FORMAT, PROJECT_VERSION } from '../core/schema';
 import type { OpenResult, SaveResult } from '../types/bridge';
 import { atomicWrite } from './atomic-write';
 import { describeFsError, nodeFs, type FsLayer } from './fs-layer';
 
-export const PROJECT_FORMAT = 'torquewise-project';
-/** The newest project format version this build reads and writes. */
-export const PROJECT_VERSION = 1;
+export { PROJECT_FORMAT, PROJECT_VERSION };
 
-/**
- * Checks a project text; throws InputError(field, message) when it is not a usable project.
- * The default checks the header (format, version) of a JSON object; src/core/project.ts's
- * `loadProjectText` is the full check and drops in here.
- */
+/** Checks a project text; throws InputError(field, message) when it is not a usable project. */
 export type ProjectChecker = (text: string) => unknown;
 
 export interface ProjectFileOptions {
   fs?: FsLayer;
   /** Largest project file read, in bytes. Default 16 MiB: a project is a few kB. */
   maxBytes?: number;
+  /** The full check after the header. Default: src/core/project.ts loadProjectText (schema and resolve). */
   check?: ProjectChecker;
 }
 
@@ -68,7 +65,6 @@ export async function openProjectFile(path: string, options: ProjectFileOptions 
   }
   if (text.charCodeAt(0) === 0xfeff) text = text.slice(1);
   const header = projectHeader(text);
-  if (header.kind === 'bad') return fail(header.message);
   if (header.kind === 'newer') {
     return {
       ok: true,
@@ -78,14 +74,13 @@ export async function openProjectFile(path: string, options: ProjectFileOptions 
       message: `"${name}" was written in project format version ${header.version}; this version of Torquewise reads up to version ${PROJECT_VERSION}. It is open read-only: Save As writes a copy, the file itself is not changed.`,
     };
   }
-  if (options.check) {
-    try {
-      options.check(text);
-    } catch (e) {
-      if (isInputError(e)) return fail(e.message);
-      return fail('its content could not be read as a project');
-    }
+  try {
+    (options.check ?? loadProjectText)(text);
+  } catch (e) {
+    if (isInputError(e)) return fail(e.message);
+    return fail('its content could not be read as a project');
   }
+  if (header.kind === 'bad') return fail(header.message);
   return { ok: true, path, text, readOnly: false };
 }
 
