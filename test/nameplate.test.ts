@@ -107,6 +107,10 @@ describe('nameplateToModel', () => {
     const bad = nameplateToModel(base({ Kt: { value: 0.4243 * 0.9, unit: 'Nm/A_rms' } }));
     expect(bad.findings.map((f) => f.code)).toEqual(['kt-ke-mismatch']);
     expect(bad.findings[0].message).toContain('disagree by -10.0 %');
+    expect(bad.findings[0].message).toContain('lower through saturation');
+    const high = nameplateToModel(base({ Kt: { value: 0.4243 * 1.2, unit: 'Nm/A_rms' } }));
+    expect(high.findings[0].message).toContain('disagree by 20.0 %');
+    expect(high.findings[0].message).toContain('reluctance torque');
     // a Kt given per rms ampere but labelled per peak ampere is off by sqrt2: caught
     const units = nameplateToModel(base({ Kt: { value: 0.4243, unit: 'Nm/A_peak' } }));
     expect(units.findings[0].code).toBe('kt-ke-mismatch');

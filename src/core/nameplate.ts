@@ -295,7 +295,11 @@ export function nameplateToModel(np: Nameplate, options: Partial<NameplateOption
           message:
             `Kt (${fmt(ktPk * SQRT2)} N·m/A rms) and Ke (which implies ${fmt(ktFromKe * SQRT2)} N·m/A rms) disagree by ${(rel * 100).toFixed(1)} %, ` +
             `more than ${fmt(o.ktKeTolerance * 100)} %. psiM is taken from Ke. Check the units (rms or peak, line-to-line or phase, poles or pole pairs); ` +
-            'a Kt measured at high current is lower through saturation.',
+            (rel < 0
+              ? 'a Kt measured at high current is lower through saturation.'
+              : Lq > Ld
+                ? 'on an interior-magnet motor a Kt measured along MTPA includes reluctance torque and is higher than 1.5 p psiM.'
+                : 'a Kt above the one Ke implies is unusual for a surface-magnet motor.'),
         });
       }
     }
