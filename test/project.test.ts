@@ -131,6 +131,10 @@ describe('loadProjectText', () => {
     expect(m2).not.toContain('torquewise-project'); // no echo of the text
   });
 
+  it('a leading byte-order mark is ignored', () => {
+    expect(loadProjectText('\uFEFF' + demoText('demo-servo-axis')).machine20.Rs).toBe(1.1);
+  });
+
   it('schema problems come through as InputError naming the path', () => {
     const j = demoJson('demo-servo-axis');
     j.motor.Ld = 0;

@@ -80,8 +80,10 @@ function firstBadOffset(text: string): number {
   return lo;
 }
 
-/** Project text -> resolved project. A JSON syntax error is InputError('file', 'is not valid JSON: ...'). */
-export function loadProjectText(text: string): ResolvedProject {
+/** Project text -> resolved project (a leading byte-order mark is ignored). A JSON syntax error is InputError('file', 'is not valid JSON: ...'). */
+export function loadProjectText(source: string): ResolvedProject {
+  // a UTF-8 byte-order mark, as some editors write it, is not JSON: drop it
+  const text = source.charCodeAt(0) === 0xfeff ? source.slice(1) : source;
   let json: unknown;
   try {
     json = JSON.parse(text);
