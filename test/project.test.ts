@@ -5,6 +5,7 @@ import { loadProjectText, resolveProject } from '../src/core/project';
 import { parseProject } from '../src/core/schema';
 import { solveOperatingPoint } from '../src/core/operating-point';
 import { InputError } from '../src/core/errors';
+import fc from 'fast-check';
 
 const demoText = (name: string): string => readFileSync(fileURLToPath(new URL(`../resources/${name}.json`, import.meta.url)), 'utf8');
 const demoJson = (name: string): Record<string, any> => JSON.parse(demoText(name));
@@ -139,5 +140,37 @@ describe('loadProjectText', () => {
     const j = demoJson('demo-servo-axis');
     j.motor.Ld = 0;
     expect(messageOf(() => loadProjectText(JSON.stringify(j)))).toBe('motor.Ld must be > 0 H');
+  });
+});
+
+describe('no NaN escapes', () => {
+  it('any valid motor, inverter and conditions resolve to finite machines and limits', () => {
+    const d = (min: number, max: number) => fc.double({ min, max, noNaN: true, noDefaultInfinity: true });
+    fc.assert(
+      fc.property(
+        fc.record({
+          polePairs: fc.integer({ min: 1, max: 200 }),
+          Rs: d(1e-6, 1000),
+          Ld: d(1e-9, 10),
+          Lq: d(1e-9, 10),
+          psiM: d(1e-6, 100),
+          inertia: d(1e-9, 1e5),
+        }),
+        fc.record({ Vdc: d(1, 1e5), Imax: d(1e-3, 1e6), frac: d(0.001, 1), modulation: fc.constantFrom('sinusoidal', 'svpwm', 'six-step'), voltageUtilization: d(0.01, 1) }),
+        fc.record({ windingTemp_C: d(-60, 250), magnetTemp_C: d(-60, 250), coldTemp_C: d(-60, 250), magnetTempCoeff: d(-0.003, 0.001) }),
+        (motor, inv, conditions) => {
+          const { frac, ...rest } = inv;
+          const file = parseProject({ format: 'torquewise-project', version: 1, motor, inverter: { ...rest, Icont: rest.Imax * frac }, conditions });
+          const rp = resolveProject(file);
+          for (const m of [rp.machine20, rp.hot, rp.cold]) for (const v of Object.values(m)) expect(Number.isFinite(v)).toBe(true);
+          expect(rp.hot.psiM).toBeGreaterThan(0);
+          expect(rp.cold.Rs).toBeGreaterThan(0);
+          for (const l of [rp.peak, rp.continuous]) {
+            expect(Number.isFinite(l.Vmax) && l.Vmax > 0).toBe(true);
+            expect(Number.isFinite(l.Imax) && l.Imax > 0).toBe(true);
+          }
+        },
+      ),
+    );
   });
 });
