@@ -276,12 +276,12 @@ export function tuneLoops(inp: TuningInput): TuningReport {
   checkMargin('d-axis current', 'control.currentBandwidth_Hz', current);
   if (currentQ) checkMargin('q-axis current', 'control.currentBandwidth_Hz', currentQ);
   checkMargin('speed', 'control.speedTuning', speed);
-  if (speed.crossover_Hz !== null && speed.crossover_Hz > designQ / 4) {
+  if (speed.crossover_Hz !== null && speed.crossover_Hz > designQ / 2) {
     warnings.push({
       code: 'speed-bandwidth-high',
       severity: 'warning',
       field: 'control.speedBandwidth_Hz',
-      message: `speed crossover ${speed.crossover_Hz.toPrecision(3)} Hz is above a quarter of the current bandwidth (${designQ.toPrecision(3)} Hz): the loops interact (common practice)`,
+      message: `speed crossover ${speed.crossover_Hz.toPrecision(3)} Hz is above half the current bandwidth (${designQ.toPrecision(3)} Hz): the loops interact (common practice)`,
     });
   }
   return { current, ...(currentQ ? { currentQ } : {}), speed, speedLagEquivalent_s: Tsigma, currentDelay_s: Td, warnings };

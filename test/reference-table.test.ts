@@ -1,0 +1,73 @@
+import { describe, expect, it } from 'vitest';
+import { buildReferenceTable, lookupCurrents, torqueLimitsAt } from '../src/core/reference-table';
+import { solveOperatingPoint } from '../src/core/operating-point';
+import { maxTorquePoint } from '../src/core/envelope';
+import type { DqMachine, DriveLimits } from '../src/core/types';
+
+const ipm: DqMachine = { polePairs: 4, Rs: 0.02, Ld: 0.3e-3, Lq: 0.75e-3, psiM: 0.07 };
+const lim: DriveLimits = { Vmax: 190, Imax: 450 };
+const torque = (m: DqMachine, id: number, iq: number): number => 1.5 * m.polePairs * (m.psiM * iq + (m.Ld - m.Lq) * id * iq);
+const wMax = 1400; // rad/s, deep in field weakening
+
+describe('torque -> current reference table', () => {
+  const tab = buildReferenceTable(ipm, lim, { speedMax_rad_s: wMax });
+  const out = new Float64Array(2);
+
+  it('row limits agree with the envelope\'s maximum torque', () => {
+    // cross-check against envelope.ts (independent closed-form/root-finding implementation)
+    for (const r of [0, 10, 24, 48]) {
+      const w = (wMax * r) / (tab.nS - 1);
+      const mot = maxTorquePoint(ipm, lim, w, 'motoring').torque;
+      expect(tab.tMot[r]!).toBeCloseTo(mot, 3);
+      const gen = maxTorquePoint(ipm, lim, w, 'generating').torque;
+      expect(tab.tGen[r]!).toBeCloseTo(Math.abs(gen), 3);
+    }
+  });
+
+  it('interpolated currents give the asked torque within 1 % of the limit and stay within Imax', () => {
+    let worst = 0;
+    for (let k = 0; k <= 60; k++) {
+      const w = (wMax * k) / 60.3;
+      torqueLimitsAt(tab, w, out);
+      const [tHi, tLo] = [out[0]!, out[1]!];
+      for (let j = -10; j <= 10; j++) {
+        const T = j >= 0 ? (tHi * j) / 10 : (tLo * -j) / 10;
+        const asked = lookupCurrents(tab, w, T, out);
+        expect(asked).toBeCloseTo(T, 9);
+        const err = Math.abs(torque(ipm, out[0]!, out[1]!) - T) / Math.max(tHi, 1e-9);
+        worst = Math.max(worst, err);
+        expect(Math.hypot(out[0]!, out[1]!)).toBeLessThanOrEqual(lim.Imax * 1.005);
+      }
+    }
+    expect(worst).toBeLessThan(0.01);
+  });
+
+  it('at a grid node it returns the solver\'s least-current point', () => {
+    const w = (wMax * 12) / (tab.nS - 1);
+    const T = 0.5 * tab.tMot[12]!;
+    lookupCurrents(tab, w, T, out);
+    const op = solveOperatingPoint(ipm, lim, w, T);
+    expect(out[0]).toBeCloseTo(op.id, 6);
+    expect(out[1]).toBeCloseTo(op.iq, 6);
+  });
+
+  it('negative speed mirrors: same id, opposite iq for the opposite torque', () => {
+    const a = new Float64Array(2);
+    const b = new Float64Array(2);
+    lookupCurrents(tab, 700, 60, a);
+    lookupCurrents(tab, -700, -60, b);
+    expect(b[0]).toBeCloseTo(a[0]!, 12);
+    expect(b[1]).toBeCloseTo(-a[1]!, 12);
+    // and the exact solver agrees with the symmetry (dq model, Rs included)
+    const op = solveOperatingPoint(ipm, lim, -700, -60);
+    const oq = solveOperatingPoint(ipm, lim, 700, 60);
+    expect(op.id).toBeCloseTo(oq.id, 6);
+    expect(op.iq).toBeCloseTo(-oq.iq, 6);
+  });
+
+  it('clamps torque beyond the limit and returns the clamped torque', () => {
+    torqueLimitsAt(tab, 300, out);
+    const tHi = out[0]!;
+    expect(lookupCurrents(tab, 300, 10 * tHi, out)).toBeCloseTo(tHi, 9);
+  });
+});

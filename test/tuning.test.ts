@@ -1,0 +1,107 @@
+import { describe, expect, it } from 'vitest';
+import { readFileSync } from 'node:fs';
+import { resolve } from 'node:path';
+import { tuneLoops, tuneFromProject, imcCurrentGains, symmetricOptimumGains } from '../src/core/tuning';
+import type { TuningInput } from '../src/core/tuning';
+import { loadProjectText } from '../src/core/project';
+
+const base: TuningInput = {
+  machine: { polePairs: 4, Rs: 0.2, Ld: 1e-3, Lq: 2.5e-3, psiM: 0.08 },
+  inertia: 5e-3,
+  viscousFriction: 1e-3,
+  fCtrl_Hz: 10000,
+  delaySamples: 1,
+  speedLoopDivider: 1,
+  current: { bandwidth_Hz: 500 },
+  speed: { method: 'symmetric-optimum', a: 2 },
+};
+const rad = Math.PI / 180;
+
+describe('loop tuning', () => {
+  it('internal model control: Kp = L omega_c, Ki = Rs omega_c per axis', () => {
+    // Harnefors and Nee, 1998, Model-based current control of AC machines using the internal model control method
+    const r = tuneLoops(base);
+    const wc = 2 * Math.PI * 500;
+    expect(r.current.Kp).toBeCloseTo(1e-3 * wc, 12);
+    expect(r.current.Ki).toBeCloseTo(0.2 * wc, 12);
+    expect(r.currentQ!.Kp).toBeCloseTo(2.5e-3 * wc, 12);
+    expect(r.currentQ!.Ki).toBeCloseTo(0.2 * wc, 12);
+    expect(imcCurrentGains(2, 3, 5)).toEqual({ Kp: 10, Ki: 15 });
+  });
+
+  it('IMC open loop omega_c e^{-s Td}/s: crossover omega_c, PM 90° - omega_c Td, GM from omega_180 = pi/(2 Td)', () => {
+    // closed forms of the IMC loop with a pure delay (derived from Harnefors and Nee, 1998, loop shape omega_c/s)
+    const r = tuneLoops(base);
+    const Td = 1.5e-4; // one period + half a period of PWM hold at 10 kHz
+    expect(r.currentDelay_s).toBeCloseTo(Td, 15);
+    const wc = 2 * Math.PI * 500;
+    expect(r.current.crossover_Hz!).toBeCloseTo(500, 6);
+    expect(r.current.phaseMargin_deg!).toBeCloseTo(90 - wc * Td / rad, 6);
+    expect(r.current.gainMargin_dB!).toBeCloseTo(20 * Math.log10(Math.PI / (2 * Td) / wc), 6);
+    // Bode data: 0 dB near the crossover
+    const b = r.current.bode;
+    expect(b.f_Hz.length).toBe(b.mag_dB.length);
+    // |omega_c/(j omega)| = 500 Hz / f at every point
+    b.f_Hz.forEach((f, i) => expect(b.mag_dB[i]!).toBeCloseTo(20 * Math.log10(500 / f), 9));
+    expect(b.phase_deg[0]!).toBeCloseTo(-90 - (2 * Math.PI * b.f_Hz[0]! * Td) / rad, 9);
+    expect(b.f_Hz[b.f_Hz.length - 1]).toBeCloseTo(5000, 6);
+  });
+
+  it('symmetric optimum: crossover 1/(a T_sigma), phase margin atan((a²-1)/(2a)) (36.9° for a = 2)', () => {
+    // Kessler, 1958, symmetric optimum: PI zero at 1/(a² T_sigma), crossover at 1/(a T_sigma), PM atan((a²-1)/(2a)).
+    // The rule sees the closed current loop as a first-order lag 1/omega_c; the exact loop (with its
+    // delay) has a little peaking, so the true crossover sits a few per cent higher and the margin a little lower.
+    const r = tuneLoops({ ...base, current: { bandwidth_Hz: 300 } });
+    const Ts = r.speedLagEquivalent_s;
+    expect(Ts).toBeCloseTo(1 / (2 * Math.PI * 300) + 0.5e-4, 12);
+    const g = symmetricOptimumGains(5e-3, Ts, 2);
+    expect(r.speed.Kp).toBeCloseTo(g.Kp, 9);
+    expect(r.speed.Ki).toBeCloseTo(5e-3 / (2 * Ts) / (4 * Ts), 6);
+    const fc = 1 / (2 * Ts) / (2 * Math.PI);
+    expect(r.speed.crossover_Hz! / fc).toBeGreaterThan(1);
+    expect(r.speed.crossover_Hz! / fc).toBeLessThan(1.06);
+    expect(Math.abs(r.speed.phaseMargin_deg! - Math.atan(3 / 4) / rad)).toBeLessThan(2.5);
+    const r4 = tuneLoops({ ...base, current: { bandwidth_Hz: 300 }, speed: { method: 'symmetric-optimum', a: 4 } });
+    expect(r4.speed.crossover_Hz! / (1 / (4 * r4.speedLagEquivalent_s) / (2 * Math.PI))).toBeLessThan(1.03);
+    expect(Math.abs(r4.speed.phaseMargin_deg! - Math.atan(15 / 8) / rad)).toBeLessThan(0.5);
+  });
+
+  it('bandwidth rule for speed: crossover near the target, generous phase margin', () => {
+    const r = tuneLoops({ ...base, speed: { method: 'bandwidth', bandwidth_Hz: 20 } });
+    expect(r.speed.Kp).toBeCloseTo(5e-3 * 2 * Math.PI * 20, 9);
+    expect(r.speed.crossover_Hz!).toBeGreaterThan(19);
+    expect(r.speed.crossover_Hz!).toBeLessThan(23);
+    expect(r.speed.phaseMargin_deg!).toBeGreaterThan(60);
+    expect(r.warnings).toEqual([]);
+  });
+
+  it('warns above fCtrl/10 and under 30° phase margin; flags an unstable loop', () => {
+    // common practice (no source): current bandwidth at most a tenth of the control rate; PM >= 30°
+    const w = tuneLoops({ ...base, current: { bandwidth_Hz: 1500 } }).warnings.map((x) => x.code);
+    expect(w).toContain('current-bandwidth-high');
+    // 90 - 2 pi 1500 1.5e-4 rad = 9°: low margin
+    expect(w).toContain('phase-margin-low');
+    const u = tuneLoops({ ...base, current: { bandwidth_Hz: 2000 } }).warnings;
+    expect(u.some((x) => x.code === 'loop-unstable' && x.severity === 'danger')).toBe(true);
+  });
+
+  it('explicit gains are reported as given', () => {
+    const r = tuneLoops({ ...base, current: { Kp: 3, Ki: 600 }, speed: { Kp: 0.5, Ki: 10 } });
+    expect(r.current.Kp).toBe(3);
+    expect(r.currentQ!.Kp).toBe(3);
+    expect(r.speed.Ki).toBe(10);
+    expect(r.current.crossover_Hz!).toBeGreaterThan(0);
+  });
+
+  it('tunes every demo project without NaN and with the demo gains in the reports', () => {
+    for (const f of ['demo-spm-48v', 'demo-ipm-traction', 'demo-servo-axis']) {
+      const p = loadProjectText(readFileSync(resolve(__dirname, '..', 'resources', `${f}.json`), 'utf8'));
+      const r = tuneFromProject(p);
+      const all = JSON.stringify(r);
+      expect(all).not.toMatch(/NaN|null,"phaseMargin/);
+      expect(r.current.phaseMargin_deg!).toBeGreaterThan(30);
+      expect(r.speed.phaseMargin_deg!).toBeGreaterThan(30);
+      expect(r.warnings.filter((w) => w.severity !== 'info')).toEqual([]);
+    }
+  });
+});
