@@ -37,8 +37,7 @@ const dialogs: Dialogs = {
   },
 };
 
-// TODO(core): pass `check: loadProjectText` from src/core/project.ts once it lands, so a file
-// that is valid JSON but not a valid project is refused on open with the field named.
+// Opening checks the header, then the full project (src/core/project.ts loadProjectText).
 const files = new FileService({
   userDataDir: app.getPath('userData'),
   dialogs,
