@@ -3,7 +3,7 @@
 // (common practice (no source) beyond the Electron documentation's checklist itself).
 import { describe, expect, it } from 'vitest';
 import { CSP_DIRECTIVES, cspHeader, cspMeta, parseCsp, serializeCsp } from '../src/main/csp';
-import { isAppPage, navigationDecision, permissionDecision, windowOpenDecision } from '../src/main/navigation';
+import { isAppPage, isLoopbackDevServer, navigationDecision, permissionDecision, windowOpenDecision } from '../src/main/navigation';
 import { windowOptions } from '../src/main/window-options';
 
 describe('window options', () => {
@@ -115,5 +115,17 @@ describe('navigation and windows', () => {
   });
   it('grant no permission', () => {
     for (const p of ['media', 'geolocation', 'notifications', 'openExternal', 'clipboard-read', 'fullscreen']) expect(permissionDecision(p)).toBe(false);
+  });
+});
+
+describe('development server', () => {
+  it('is used only on loopback over http(s)', () => {
+    expect(isLoopbackDevServer('http://localhost:5173')).toBe(true);
+    expect(isLoopbackDevServer('http://127.0.0.1:5173/')).toBe(true);
+    expect(isLoopbackDevServer('http://[::1]:5173/')).toBe(true);
+    expect(isLoopbackDevServer('https://example.com/')).toBe(false);
+    expect(isLoopbackDevServer('http://localhost.example.com:5173/')).toBe(false);
+    expect(isLoopbackDevServer('file:///etc/passwd')).toBe(false);
+    expect(isLoopbackDevServer('')).toBe(false);
   });
 });

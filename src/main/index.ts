@@ -9,13 +9,16 @@ import { cspHeader } from './csp';
 import { FileService, type Dialogs } from './file-service';
 import { CHANNELS, EXPORT_FORMATS } from './ipc';
 import { menuTemplate, type MenuItemData } from './menu';
-import { isAppPage, navigationDecision, permissionDecision, windowOpenDecision } from './navigation';
+import { isAppPage, isLoopbackDevServer, navigationDecision, permissionDecision, windowOpenDecision } from './navigation';
 import { PRELOAD_FROM_MAIN, RENDERER_FROM_MAIN } from './paths';
 import { windowOptions } from './window-options';
 
 const here = fileURLToPath(new URL('.', import.meta.url));
-const devServerUrl = process.env['ELECTRON_RENDERER_URL'];
-const dev = !app.isPackaged && Boolean(devServerUrl);
+// Only an unpackaged app (electron-vite dev) may load from the development server, and only on
+// loopback; a packaged app ignores the variable and always loads its own files.
+const devEnv = process.env['ELECTRON_RENDERER_URL'];
+const devServerUrl = !app.isPackaged && devEnv && isLoopbackDevServer(devEnv) ? devEnv : undefined;
+const dev = devServerUrl !== undefined;
 const rendererFile = join(here, RENDERER_FROM_MAIN);
 const appUrl = devServerUrl ?? pathToFileURL(rendererFile).href;
 
@@ -96,7 +99,7 @@ function wireIpc(): void {
 }
 
 function secureSession(): void {
-  const csp = cspHeader(dev && devServerUrl ? { devServerUrl } : {});
+  const csp = cspHeader(devServerUrl ? { devServerUrl } : {});
   session.defaultSession.webRequest.onHeadersReceived((details, callback) => {
     const headers = { ...details.responseHeaders };
     for (const k of Object.keys(headers)) if (k.toLowerCase() === 'content-security-policy') delete headers[k];

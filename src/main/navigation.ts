@@ -41,3 +41,13 @@ export function windowOpenDecision(_url: string): { action: 'deny' } {
 export function permissionDecision(_permission: string): boolean {
   return false;
 }
+
+/** A development server URL is used only when it is http(s) on this machine's loopback. */
+export function isLoopbackDevServer(url: string): boolean {
+  try {
+    const u = new URL(url);
+    return (u.protocol === 'http:' || u.protocol === 'https:') && ['localhost', '127.0.0.1', '[::1]'].includes(u.hostname) && !u.username && !u.password;
+  } catch {
+    return false;
+  }
+}
