@@ -91,7 +91,7 @@ const v2Of = (id: number, iq: number): number => {
 };
 
 /**
- * Root of vCircle2 in [a, b] (opposite signs), Illinois method. Stops when |g| <= 1e-13 Vmax²
+ * Root of vCircle2 in [a, b] (opposite signs), Illinois method. Stops when -1e-13 Vmax² <= g <= 0
  * (|v| within 5e-14 of Vmax relative) or the bracket is below 1e-15 rad; else returns the end with g <= 0.
  */
 function circleRoot(a: number, b: number, ga: number, gb: number): number {
@@ -100,8 +100,8 @@ function circleRoot(a: number, b: number, ga: number, gb: number): number {
     let c = b - (gb * (b - a)) / (gb - ga);
     if (!(c > Math.min(a, b) && c < Math.max(a, b))) c = 0.5 * (a + b);
     const gc = vCircle2(c);
-    if (Math.abs(gc) <= tol) return c;
-    if ((gc < 0) !== (gb < 0)) { a = b; ga = gb; }
+    if (gc <= 0 && gc >= -tol) return c;
+    if ((gc <= 0) !== (gb <= 0)) { a = b; ga = gb; }
     else ga *= 0.5;
     b = c; gb = gc;
   }
@@ -120,9 +120,9 @@ function offerCircle(theta: number): void {
 /**
  * Core: the largest sign*torque at electrical speed we under Imax (may be Infinity) and Vmax.
  * No validation (callers validate). Writes the answer into `out`; out.ok is false when no point within
- * both limits gives sign*torque >= 0 (candidates of the wrong sign are not refined).
+ * both limits gives sign*torque >= floor (candidates below the floor are not refined).
  */
-export function maxTorqueCore(m: DqMachine, Vmax: number, Imax: number, we: number, sign: 1 | -1, out: MaxTorqueScratch): void {
+export function maxTorqueCore(m: DqMachine, Vmax: number, Imax: number, we: number, sign: 1 | -1, out: MaxTorqueScratch, floor = 0): void {
   P = m.polePairs; RS = m.Rs; LD = m.Ld; LQ = m.Lq; PSI = m.psiM; WE = we; VM = Vmax; IM = Imax; SG = sign;
   const vm2 = Vmax * Vmax;
   const finiteI = Number.isFinite(Imax);
@@ -179,7 +179,7 @@ export function maxTorqueCore(m: DqMachine, Vmax: number, Imax: number, we: numb
       const a = k * STEP;
       const b = (k + 1) * STEP;
       if ((ga <= 0) !== (gb <= 0)) {
-        if (0.5 * (jC[k] + jC[k1] + lc * STEP) < Math.max(bestJ, 0)) continue;
+        if (0.5 * (jC[k] + jC[k1] + lc * STEP) < Math.max(bestJ, floor)) continue;
         offerCircle(circleRoot(a, b, ga, gb));
       }
     }
@@ -194,7 +194,7 @@ export function maxTorqueCore(m: DqMachine, Vmax: number, Imax: number, we: numb
         const k0 = k === 0 ? NS - 1 : k - 1;
         const g0 = gS[k0];
         if (ga <= g0 && ga <= gb) {
-          if (Math.max(jC[k0], jC[k], jC[k1]) + 0.5 * lc * STEP < Math.max(bestJ, 0)) continue;
+          if (Math.max(jC[k0], jC[k], jC[k1]) + 0.5 * lc * STEP < Math.max(bestJ, floor)) continue;
           let lo = a - STEP;
           let hi = b;
           let x1 = hi - GOLD * (hi - lo);
@@ -252,7 +252,7 @@ export function maxTorqueCore(m: DqMachine, Vmax: number, Imax: number, we: numb
       if (eId * eId + eIq * eIq <= im2) offer(eId, eIq, 2);
     }
   }
-  if (bestJ >= 0) {
+  if (bestJ >= floor) {
     out.ok = true; out.id = bestId; out.iq = bestIq; out.J = bestJ; out.region = bestRegion;
   }
 }

@@ -38,19 +38,25 @@ export const torqueOf = (m: DqMachine, id: number, iq: number): number =>
  * id = -2 (Lq-Ld) I² / (psiM + sqrt(psiM² + 8 (Lq-Ld)² I²)) that stays exact as Lq -> Ld (id = 0 for SPM).
  */
 export function mtpaId(m: DqMachine, I: number): number {
+  return I * mtpaCos(m, I);
+}
+
+/** cos of the MTPA current angle, id / I, in [-1, 1] (0 for SPM; also defined at I = 0). */
+function mtpaCos(m: DqMachine, I: number): number {
   const dL = m.Lq - m.Ld;
   const S = Math.sqrt(m.psiM * m.psiM + 8 * dL * dL * I * I);
   const den = m.psiM + S;
   if (!(den > 0)) return 0;
-  const id = (-2 * dL * I * I) / den;
-  return Math.max(-I, Math.min(I, id));
+  const x = (-2 * dL * I) / den;
+  if (x === 0) return 0; // no -0 for SPM
+  return Math.max(-1, Math.min(1, x));
 }
 
 /** MTPA currents for a current magnitude I >= 0 (positive torque: iq >= 0). */
 export function mtpaCurrents(m: DqMachine, I: number): { id: number; iq: number } {
   const Ia = Math.abs(I);
-  const id = mtpaId(m, Ia);
-  return { id, iq: Math.sqrt(Math.max(0, Ia * Ia - id * id)) };
+  const x = mtpaCos(m, Ia);
+  return { id: Ia * x, iq: Ia * Math.sqrt(1 - x * x) };
 }
 
 /** Torque along the MTPA trajectory at current magnitude I, N·m (>= 0). */
