@@ -28,9 +28,9 @@ export interface ReferenceTableOptions {
 }
 
 export const DEFAULT_REFERENCE_TABLE_OPTIONS: Omit<ReferenceTableOptions, 'speedMax_rad_s'> = {
-  speedNodes: 49,
-  torqueNodes: 41,
-  limitIterations: 40,
+  speedNodes: 33,
+  torqueNodes: 25,
+  limitIterations: 30,
 };
 
 export interface ReferenceTable {

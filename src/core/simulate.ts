@@ -34,6 +34,8 @@ import { RAD_S_TO_RPM, RPM_TO_RAD_S } from './units';
 const TWO_PI = 2 * Math.PI;
 const SQRT3_2 = Math.sqrt(3) / 2;
 const CHECK_EVERY = 256;
+const OSC_WINDOW = 64;
+const OSC_LIMIT = 16;
 // local copies of the state indices: module-local constants stay plain numbers in every build
 const STATE_SIZE: number = STATE_SIZE_;
 const I_D: number = I_D_;
@@ -66,6 +68,9 @@ export const DEFAULT_SOLVER_OPTIONS: Readonly<SolverOptions> = {
   angleFloor: 1,
 };
 
+/** Overcurrent trip of `simulationFromProject`, in units of Imax. */
+export const DEFAULT_TRIP_FACTOR = 3;
+
 export interface ScenarioMarks {
   /** speed reference steps, rad/s (for the step metrics) */
   speedSteps: Array<{ t: number; v: number }>;
@@ -82,6 +87,11 @@ export interface SimulationSetup {
   solver: SolverOptions;
   /** peak current limit, A (divergence at 20x) */
   Imax: number;
+  /**
+   * overcurrent trip, A: |i_dq| above it stops the run as a divergence, as a drive's hardware trip
+   * would (a saturated unstable loop settles into a bounded limit cycle that 20·Imax never sees)
+   */
+  tripCurrent_A: number;
   /** |omega_m| above which the run is stopped as diverged, rad/s */
   divergenceSpeed_rad_s: number;
   /** |omega_m| above which an overspeed event is recorded, rad/s */
@@ -259,7 +269,8 @@ export function runSimulation(setup: SimulationSetup, opts: RunOptions = {}): Si
   const hist = new Uint32Array(1025);
   const vab = plant.input;
   const Imax = setup.Imax;
-  const iDiv2 = (20 * Imax) ** 2;
+  const iDivA = Math.min(20 * Imax, setup.tripCurrent_A);
+  const iDiv2 = iDivA * iDivA;
   const wDiv = setup.divergenceSpeed_rad_s;
   const wOver = setup.overspeed_rad_s;
   const vspec = setup.controller.voltage;
@@ -287,6 +298,13 @@ export function runSimulation(setup: SimulationSetup, opts: RunOptions = {}): Si
       events.push({ kind, t_s: t0, message: `more than ${MAX_INTERVALS} intervals; the rest are not listed` });
     }
   };
+
+  // oscillation watch: sign changes of a current error larger than 5 % of Imax over the last
+  // OSC_WINDOW periods; OSC_LIMIT of them means an unstable (saturated, bounded) current loop
+  const oscRing = new Uint8Array(OSC_WINDOW);
+  let oscSum = 0;
+  let prevEd = 0, prevEq = 0;
+  const eMin = 0.05 * Imax;
 
   let k = 0;
   let nRec = 0;
@@ -339,6 +357,21 @@ export function runSimulation(setup: SimulationSetup, opts: RunOptions = {}): Si
       overStart = -1;
     }
 
+    const ed = ctrl.idRef - y[I_D]!, eq = ctrl.iqRef - y[I_Q]!;
+    const flip = ((ed > eMin && prevEd < -eMin) || (ed < -eMin && prevEd > eMin) || (eq > eMin && prevEq < -eMin) || (eq < -eMin && prevEq > eMin)) ? 1 : 0;
+    if (ed > eMin || ed < -eMin) prevEd = ed;
+    if (eq > eMin || eq < -eMin) prevEq = eq;
+    const slotO = k % OSC_WINDOW;
+    oscSum += flip - oscRing[slotO]!;
+    oscRing[slotO] = flip;
+    if (oscSum >= OSC_LIMIT) {
+      diagnostic = `diverged at t = ${t0.toPrecision(6)} s: the current loop oscillates (${oscSum} reversals of a current error above 5 % of Imax in ${OSC_WINDOW} periods; unstable gains held bounded by the voltage limit); state id = ${y[I_D]!.toPrecision(6)} A, iq = ${y[I_Q]!.toPrecision(6)} A, speed = ${(y[OMEGA]! * RAD_S_TO_RPM).toPrecision(6)} rpm`;
+      events.push({ kind: 'divergence', t_s: t0, message: diagnostic });
+      stopped = true;
+      k++;
+      break;
+    }
+
     // integrate the period
     const e0 = plant.evaluations;
     try {
@@ -389,7 +422,7 @@ export function runSimulation(setup: SimulationSetup, opts: RunOptions = {}): Si
     const id = y[I_D]!, iq = y[I_Q]!, w = y[OMEGA]!;
     const bad = !(Number.isFinite(id) && Number.isFinite(iq) && Number.isFinite(w) && Number.isFinite(th));
     if (bad || id * id + iq * iq > iDiv2 || Math.abs(w) > wDiv) {
-      const what = bad ? 'a state became non-finite' : id * id + iq * iq > iDiv2 ? `|i| exceeded 20·Imax = ${(20 * Imax).toPrecision(4)} A` : `|speed| exceeded ${(wDiv * RAD_S_TO_RPM).toPrecision(4)} rpm`;
+      const what = bad ? 'a state became non-finite' : id * id + iq * iq > iDiv2 ? `|i| exceeded the overcurrent trip ${iDivA.toPrecision(4)} A (${(iDivA / Imax).toPrecision(3)}·Imax)` : `|speed| exceeded ${(wDiv * RAD_S_TO_RPM).toPrecision(4)} rpm`;
       diagnostic = `diverged at t = ${t1.toPrecision(6)} s: ${what}; state id = ${id.toPrecision(6)} A, iq = ${iq.toPrecision(6)} A, speed = ${(w * RAD_S_TO_RPM).toPrecision(6)} rpm (check the gains, the delay and the scenario)`;
       events.push({ kind: 'divergence', t_s: t1, message: diagnostic });
       stopped = true;
@@ -501,7 +534,7 @@ export interface SimulationOverrides {
   delayAngleCompensation?: boolean;
   /** back-EMF feed-forward; default follows control.decoupling */
   backEmfFeedForward?: boolean;
-  /** reference-table grid (default 49 x 41) */
+  /** reference-table grid (default 33 x 25) */
   tableNodes?: { speed: number; torque: number };
 }
 
@@ -602,6 +635,7 @@ export function simulationFromProject(p: ResolvedProject, overrides: SimulationO
     initialTheta_rad: 0,
     solver: { ...DEFAULT_SOLVER_OPTIONS, ...(overrides.solver ?? {}) },
     Imax: lim.Imax,
+    tripCurrent_A: DEFAULT_TRIP_FACTOR * lim.Imax,
     divergenceSpeed_rad_s: mode === 'current-step' ? Infinity : 3 * speedMax,
     overspeed_rad_s: mode === 'current-step' ? Infinity : overspeed,
     marks: {

@@ -1,0 +1,228 @@
+import { describe, expect, it } from 'vitest';
+import { readFileSync } from 'node:fs';
+import { resolve } from 'node:path';
+import { loadProjectText } from '../src/core/project';
+import type { ResolvedProject } from '../src/core/project';
+import { simulationFromProject, runSimulation, TRACE_NAMES } from '../src/core/simulate';
+import type { SimulationResult } from '../src/core/simulate';
+
+const demo = (f: string): any => JSON.parse(readFileSync(resolve(__dirname, '..', 'resources', `${f}.json`), 'utf8'));
+const proj = (o: unknown): ResolvedProject => loadProjectText(JSON.stringify(o));
+const FULL = { maxPoints: 1e7 };
+
+function noNaN(r: SimulationResult): void {
+  for (const v of Object.values(r.metrics)) expect(v === null || Number.isFinite(v)).toBe(true);
+  for (const n of TRACE_NAMES) for (const x of r.traces[n]) expect(Number.isFinite(x)).toBe(true);
+}
+
+/** a surface-magnet variant of the servo demo (Ld = Lq), no friction unless asked */
+function spmServo(control: object, scenario: object, motor: object = {}): ResolvedProject {
+  const o = demo('demo-servo-axis');
+  o.motor = { ...o.motor, Ld: 0.005, Lq: 0.005, viscousFriction: 0, coulombFriction: 0, ...motor };
+  o.control = control;
+  o.scenario = scenario;
+  return proj(o);
+}
+
+describe('cascade simulator against outside references', () => {
+  it('IMC current loop answers a step like a first-order lag 1/omega_c, within the sample delay', () => {
+    // Harnefors and Nee, 1998, Model-based current control of AC machines using the internal model control method:
+    // the IMC-tuned loop is omega_c/s, closed loop a first-order lag with time constant 1/omega_c.
+    for (const [fCtrl, delay] of [[10000, 1], [50000, 0]] as const) {
+      const p = spmServo(
+        { mode: 'current-step', fCtrl_Hz: fCtrl, delaySamples: delay, currentBandwidth_Hz: 300 },
+        { duration_s: 0.006, currentStep: { id_A: 0, iq_A: 4, t_s: 0.001 } },
+      );
+      const r = runSimulation(simulationFromProject(p), FULL);
+      const tau = 1 / (2 * Math.PI * 300);
+      const Td = delay / fCtrl + 0.5 / fCtrl;
+      const t = r.traces.t_s, iq = r.traces.iq_A;
+      let worst = 0;
+      let t63 = NaN;
+      for (let i = 0; i < t.length; i++) {
+        const x = t[i]! - 0.001;
+        if (x < 0) continue;
+        worst = Math.max(worst, Math.abs(iq[i]! - 4 * (1 - Math.exp(-x / tau))));
+        if (Number.isNaN(t63) && iq[i]! >= 4 * (1 - Math.exp(-1))) t63 = x;
+      }
+      // deviation from the ideal lag bounded by the delay's share of the time constant
+      expect(worst).toBeLessThan(4 * (2 * Math.PI * 300) * Td);
+      expect(Math.abs(t63 - tau)).toBeLessThan(Td + 1 / fCtrl);
+      expect(iq[iq.length - 1]!).toBeCloseTo(4, 2);
+      expect(Math.max(...r.traces.id_A.map(Math.abs))).toBeLessThan(1e-9); // locked rotor, no coupling
+    }
+  });
+
+  it('constant torque, no load, no friction: omega = T t / J', () => {
+    // Newton's second law for rotation, J domega/dt = T
+    const p = spmServo(
+      { mode: 'torque', fCtrl_Hz: 10000, currentBandwidth_Hz: 1000 },
+      { duration_s: 0.05, torqueSteps: [{ t_s: 0, torque_Nm: 0.5 }], loadInertia: 0.0001 },
+    );
+    const setup = simulationFromProject(p);
+    const J = setup.plant.inertia;
+    expect(J).toBeCloseTo(0.00022, 12);
+    const r = runSimulation(setup, FULL);
+    const n = r.traces.t_s.length;
+    const tEnd = r.traces.t_s[n - 1]!;
+    const w = (r.traces.speed_rpm[n - 1]! * 2 * Math.PI) / 60;
+    // the current loop lags by about 1/omega_c + Td: the speed is short by T (1/omega_c + Td)/J at most
+    const lag = 1 / (2 * Math.PI * 1000) + 1.5e-4;
+    expect(w).toBeLessThanOrEqual((0.5 * tEnd) / J);
+    expect(w).toBeGreaterThan((0.5 * (tEnd - 1.5 * lag)) / J);
+    expect(r.traces.torque_Nm[n - 1]!).toBeCloseTo(0.5, 3);
+  });
+
+  it('symmetric optimum a = 2: about 43 % overshoot without a prefilter, under 10 % with it', () => {
+    // from memory: Kessler's symmetric optimum (1958) with a = 2 overshoots 40-45 % on a reference step;
+    // the first-order prefilter with the integral time brings it under about 10 %.
+    const make = (): ResolvedProject =>
+      spmServo(
+        { mode: 'speed', fCtrl_Hz: 10000, currentBandwidth_Hz: 800, speedTuning: { method: 'symmetric-optimum', a: 2 } },
+        { duration_s: 0.05, initialSpeed_rpm: 1000, speedSteps: [{ t_s: 0.005, speed_rpm: 1010 }], loadInertia: 0.0001 },
+      );
+    const raw = runSimulation(simulationFromProject(make()), FULL);
+    const pre = runSimulation(simulationFromProject(make(), { speedRefPrefilter: true }), FULL);
+    expect(raw.metrics.speedOvershoot_pct!).toBeGreaterThan(38);
+    expect(raw.metrics.speedOvershoot_pct!).toBeLessThan(48);
+    expect(pre.metrics.speedOvershoot_pct!).toBeLessThan(10);
+    expect(raw.events.filter((e) => e.kind !== 'overspeed')).toEqual([]); // linear: no limit touched
+  });
+
+  it('after a load step on a surface-PM motor iq settles at (T_load + B omega + T_c)/(1.5 p psiM)', () => {
+    // torque balance at steady speed with T_e = 1.5 p psiM iq (conventions page; Newton's second law)
+    const p = spmServo(
+      { mode: 'speed', fCtrl_Hz: 10000, currentBandwidth_Hz: 800, speedBandwidth_Hz: 60 },
+      { duration_s: 0.25, initialSpeed_rpm: 1500, speedSteps: [], loadSteps: [{ t_s: 0.02, torque_Nm: 1.2 }], loadInertia: 0.0001 },
+      { viscousFriction: 2e-4, coulombFriction: 0.03 },
+    );
+    const setup = simulationFromProject(p);
+    const r = runSimulation(setup, FULL);
+    const n = r.traces.t_s.length;
+    const w = (1500 * 2 * Math.PI) / 60;
+    const m = setup.plant.machine;
+    const expected = (1.2 + 2e-4 * w + 0.03) / (1.5 * m.polePairs * m.psiM);
+    expect(Math.abs(r.traces.iq_A[n - 1]! / expected - 1)).toBeLessThan(1e-3);
+    expect(r.metrics.finalSpeed_rpm!).toBeCloseTo(1500, 2);
+    expect(r.metrics.loadStepDip_rpm!).toBeGreaterThan(1);
+    expect(r.metrics.loadStepRecovery_s!).toBeGreaterThan(0);
+    expect(r.metrics.loadStepRecovery_s!).toBeLessThan(0.2);
+  });
+
+  it('balanced phase currents: amplitude sqrt(id² + iq²), electrical frequency p n / 60', () => {
+    // amplitude-invariant Clarke/Park (conventions page): |i_abc| peak = |i_dq|; f_e = p n / 60
+    const o = demo('demo-servo-axis');
+    o.scenario = { duration_s: 0.06, initialSpeed_rpm: 1200, speedSteps: [], loadSteps: [{ t_s: 0, torque_Nm: 1 }], loadInertia: 0.0001 };
+    const setup = simulationFromProject(proj(o));
+    const r = runSimulation(setup, FULL);
+    const t = r.traces.t_s;
+    const i0 = t.findIndex((x) => x >= 0.03);
+    const n = t.length;
+    const amp = Math.hypot(r.traces.id_A[n - 1]!, r.traces.iq_A[n - 1]!);
+    for (const ph of [r.traces.ia_A, r.traces.ib_A, r.traces.ic_A]) {
+      let mx = -Infinity;
+      let mn = Infinity;
+      const ups: number[] = [];
+      for (let i = i0; i < n; i++) {
+        mx = Math.max(mx, ph[i]!);
+        mn = Math.min(mn, ph[i]!);
+        if (i > i0 && ph[i - 1]! < 0 && ph[i]! >= 0) ups.push(t[i - 1]! + (-ph[i - 1]! / (ph[i]! - ph[i - 1]!)) * (t[i]! - t[i - 1]!));
+      }
+      expect(mx).toBeCloseTo(amp, 1);
+      expect(-mn).toBeCloseTo(amp, 1);
+      const f = (ups.length - 1) / (ups[ups.length - 1]! - ups[0]!);
+      expect(f).toBeCloseTo((setup.plant.machine.polePairs * 1200) / 60, 0);
+    }
+    // the three phases sum to zero
+    for (let i = 0; i < n; i += 97) expect(r.traces.ia_A[i]! + r.traces.ib_A[i]! + r.traces.ic_A[i]!).toBeCloseTo(0, 9);
+  });
+});
+
+describe('cascade simulator behaviour', () => {
+  it('runs every demo with at most 10 derivative evaluations per period and no NaN', () => {
+    for (const f of ['demo-spm-48v', 'demo-ipm-traction', 'demo-servo-axis']) {
+      const r = runSimulation(simulationFromProject(proj(demo(f))));
+      expect(r.diagnostic).toBeUndefined();
+      expect(r.stats.evaluationsPerPeriod).toBeLessThanOrEqual(10);
+      expect(r.stats.rhsEvaluations / r.stats.controlSteps).toBeLessThanOrEqual(10);
+      expect(r.traces.t_s.length).toBeLessThanOrEqual(5000);
+      noNaN(r);
+      const ref = demo(f).scenario.speedSteps[0].speed_rpm;
+      expect(r.metrics.finalSpeed_rpm!).toBeCloseTo(ref, -1);
+      for (const x of r.traces.vNorm) expect(x).toBeLessThanOrEqual(1 + 1e-9);
+    }
+  });
+
+  it('a speed step too large for the bus saturates the voltage and reports it', () => {
+    const o = demo('demo-spm-48v');
+    o.inverter.voltageUtilization = 1; // the steady state may use the whole modulation range
+    o.scenario = { ...o.scenario, speedSteps: [{ t_s: 0.01, speed_rpm: 20000 }], loadSteps: [] };
+    const r = runSimulation(simulationFromProject(proj(o)));
+    expect(r.metrics.voltageSaturation_s!).toBeGreaterThan(0.01);
+    expect(r.events.some((e) => e.kind === 'voltage-saturation' && e.tEnd_s! > e.t_s)).toBe(true);
+    expect(r.diagnostic).toBeUndefined(); // saturation is not an instability
+    expect(r.metrics.peakCurrent_A!).toBeLessThan(1.1 * 200);
+    noNaN(r);
+  });
+
+  it('unstable gains end the run with a diagnostic naming the time and the state, never NaN', () => {
+    const p = spmServo(
+      { mode: 'current-step', fCtrl_Hz: 10000, currentKp: 200, currentKi: 1000 },
+      { duration_s: 0.05, currentStep: { id_A: 0, iq_A: 2, t_s: 0.001 } },
+    );
+    const r = runSimulation(simulationFromProject(p));
+    expect(r.diagnostic).toMatch(/diverged at t = [0-9.e-]+ s/);
+    expect(r.diagnostic).toMatch(/iq = /);
+    expect(r.diagnostic).toMatch(/oscillates/);
+    expect(r.events.some((e) => e.kind === 'divergence')).toBe(true);
+    expect(r.stats.controlSteps).toBeLessThan(500);
+    noNaN(r);
+  });
+
+  it('an overcurrent trip stops a run whose current runs away', () => {
+    const p = spmServo(
+      { mode: 'current-step', fCtrl_Hz: 10000, currentBandwidth_Hz: 300 },
+      { duration_s: 0.05, currentStep: { id_A: 0, iq_A: 14, t_s: 0.001 } },
+    );
+    const setup = simulationFromProject(p);
+    setup.tripCurrent_A = 10; // below the asked current
+    const r = runSimulation(setup);
+    expect(r.diagnostic).toMatch(/overcurrent trip 10\.00 A/);
+    noNaN(r);
+  });
+
+  it('stops on the abort signal and on the step budget', () => {
+    const p = proj(demo('demo-servo-axis'));
+    let calls = 0;
+    const signal = { get aborted() { return ++calls > 2; } };
+    const a = runSimulation(simulationFromProject(p), { signal });
+    expect(a.events.some((e) => e.kind === 'aborted')).toBe(true);
+    expect(a.stats.controlSteps).toBe(3 * 256);
+    const b = runSimulation(simulationFromProject(p), { maxSteps: 100 });
+    expect(b.events.some((e) => e.kind === 'budget')).toBe(true);
+    expect(b.stats.controlSteps).toBe(100);
+    let t = 0;
+    const c = runSimulation(simulationFromProject(p), { wallBudget_s: 1, clock: () => (t += 0.4) });
+    expect(c.events.some((e) => e.kind === 'budget')).toBe(true);
+    noNaN(c);
+  });
+
+  it('reports progress up to 1 and the delay-angle compensation changes the result', () => {
+    const p = proj(demo('demo-servo-axis'));
+    const seen: number[] = [];
+    const r1 = runSimulation(simulationFromProject(p), { onProgress: (x) => seen.push(x) });
+    expect(seen[seen.length - 1]).toBe(1);
+    expect(seen.every((x, i) => i === 0 || x >= seen[i - 1]!)).toBe(true);
+    const r0 = runSimulation(simulationFromProject(p, { delayAngleCompensation: false }));
+    expect(r0.metrics.rmsCurrent_A).not.toBe(r1.metrics.rmsCurrent_A);
+  });
+
+  it('bad scenarios throw InputError naming the field', () => {
+    const o = demo('demo-servo-axis');
+    o.control.mode = 'torque';
+    expect(() => simulationFromProject(proj(o))).toThrow(/scenario.torqueSteps/);
+    const q = demo('demo-servo-axis');
+    delete q.scenario;
+    expect(() => simulationFromProject(proj(q))).toThrow(/scenario/);
+  });
+});
