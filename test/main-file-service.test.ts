@@ -146,4 +146,25 @@ describe('FileService', () => {
     expect(await s.recoveryWrite(7)).toEqual({ ok: false, canceled: false, message: 'Autosave refused: recovery.write: the request must be an object { text, documentPath }.' });
     expect(await s.openRecent(null)).toEqual({ ok: false, canceled: false, message: 'Not opened: openRecent.path must be a non-empty string.' });
   });
+
+  it('recovered edits of a recent file may be saved back to it; of any other path, not', async () => {
+    const p = join(dir, 'a.json');
+    writeFileSync(p, P1);
+    const first = service({ open: [p] });
+    await first.s.open();
+    await first.s.recoveryWrite({ text: P2, documentPath: p });
+    // next start: a new service, no grants yet
+    const next = service();
+    expect(next.s.grants.size).toBe(0);
+    expect(await next.s.recoveryCheck()).toMatchObject({ text: P2, documentPath: p });
+    expect(await next.s.save({ path: p, text: P2 })).toEqual({ ok: true, path: p });
+    expect(await next.s.recoveryCheck()).toBeNull();
+    // a recovery file naming a path never picked grants nothing
+    const elsewhere = join(dir, 'never-picked.json');
+    await next.s.recoveryWrite({ text: P2, documentPath: elsewhere });
+    const third = service();
+    expect(await third.s.recoveryCheck()).toMatchObject({ documentPath: elsewhere });
+    expect((await third.s.save({ path: elsewhere, text: P2 })).ok).toBe(false);
+    expect(existsSync(elsewhere)).toBe(false);
+  });
 });

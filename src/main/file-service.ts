@@ -122,8 +122,14 @@ export class FileService {
     return readRecent(this.deps.userDataDir, { fs: this.fs });
   }
 
-  recoveryCheck(): Promise<RecoveryOffer | null> {
-    return readRecovery(this.deps.userDataDir, { fs: this.fs });
+  /**
+   * The unsaved edits of an earlier run. When they belong to a file of the recent list (a path
+   * the user picked in a dialog before), Save may write back to it, as after Open Recent.
+   */
+  async recoveryCheck(): Promise<RecoveryOffer | null> {
+    const offer = await readRecovery(this.deps.userDataDir, { fs: this.fs });
+    if (offer?.documentPath && (await readRecent(this.deps.userDataDir, { fs: this.fs })).includes(offer.documentPath)) this.grants.grant(offer.documentPath);
+    return offer;
   }
 
   async recoveryWrite(arg: unknown): Promise<SaveResult> {

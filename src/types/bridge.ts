@@ -97,7 +97,7 @@ export interface TorquewiseBridge {
   /** Subscribe to menu events; returns the unsubscribe function. */
   onMenu(listener: (event: MenuEvent) => void): () => void;
   recovery: {
-    /** Unsaved edits from a previous run, or null. */
+    /** Unsaved edits from a previous run, or null. If they belong to a recent file, save() may write back to it. */
     check(): Promise<RecoveryOffer | null>;
     /** Autosave the current unsaved edits (call debounced while the project is dirty). */
     write(request: RecoveryWriteRequest): Promise<SaveResult>;
