@@ -1,3 +1,309 @@
+// Torquewise main window: the input side on the left, four views on the right.
+import { useCallback, useEffect, useMemo, useRef, useState } from 'react';
+import { checkProject, parseProject } from '../../core/schema';
+import { resolveProject, type ResolvedProject } from '../../core/project';
+import { isInputError } from '../../core/errors';
+import type { MenuEvent } from '../../types/bridge';
+import { DEMOS, DEFAULT_DEMO } from './demos';
+import { newDraft, normalisePath, type Draft, type Json } from './draft';
+import { FormContext, type FormApi } from './Inputs';
+import { InputPanel } from './InputPanel';
+import { computeResults, DEFAULT_ENVELOPE_OPTIONS, type EnvelopeOptions, type Results } from './compute';
+import { fileBridge } from './file-bridge';
+import { EnvelopeView } from './EnvelopeView';
+import { LoadStepsView } from './LoadStepsView';
+import { TuningView } from './TuningView';
+import { DatasheetView } from './DatasheetView';
+import { envelopeCsv } from './exports';
+
+type View = 'envelope' | 'loadsteps' | 'tuning' | 'datasheet';
+const VIEWS: Array<[View, string]> = [
+  ['envelope', 'Envelope'],
+  ['loadsteps', 'Load steps'],
+  ['tuning', 'Tuning'],
+  ['datasheet', 'Datasheet'],
+];
+
+/** Wait after the last keystroke before recomputing, ms. */
+export const EDIT_DEBOUNCE_MS = 25;
+
+interface Checked {
+  issues: Record<string, string>;
+  resolved: ResolvedProject | null;
+}
+
+function check(tree: Json): Checked {
+  const issues: Record<string, string> = {};
+  const problems = checkProject(tree);
+  for (const pr of problems) {
+    const p = normalisePath(pr.path);
+    if (!issues[p]) issues[p] = pr.message;
+  }
+  if (problems.length) return { issues, resolved: null };
+  try {
+    return { issues, resolved: resolveProject(parseProject(tree)) };
+  } catch (e) {
+    if (isInputError(e)) {
+      const p = normalisePath(e.field);
+      const msg = e.message.startsWith(e.field) ? e.message.slice(e.field.length).trim() : e.message;
+      return { issues: { [p]: msg }, resolved: null };
+    }
+    return { issues: { file: e instanceof Error ? e.message : String(e) }, resolved: null };
+  }
+}
+
+declare global {
+  interface Window {
+    /** edit-to-redraw figures, ms, read by the end-to-end tests */
+    __twPerf?: number[];
+  }
+}
+
+function parseText(text: string): Json | null {
+  try {
+    return JSON.parse(text) as Json;
+  } catch {
+    return null;
+  }
+}
+
+const demoText = (file: string): string => DEMOS.find((d) => d.file === file)?.text ?? DEMOS[0]?.text ?? '{}';
+
 export function App() {
-  return <main><h1>Torquewise</h1></main>;
+  const [theme, setTheme] = useState<'light' | 'dark'>(() => (localStorage.getItem('tw-theme') === 'dark' ? 'dark' : 'light'));
+  const [draft, setDraft] = useState<Draft>(() => newDraft(parseText(demoText(DEFAULT_DEMO)) ?? {}));
+  const [source, setSource] = useState<{ name: string; path: string | null; demo: boolean; readOnly: boolean }>({
+    name: DEFAULT_DEMO,
+    path: null,
+    demo: true,
+    readOnly: false,
+  });
+  const [dirty, setDirty] = useState(false);
+  const [checked, setChecked] = useState<Checked>(() => check(draft.tree));
+  const [lastGood, setLastGood] = useState<ResolvedProject | null>(checked.resolved);
+  const [envOpts, setEnvOpts] = useState<EnvelopeOptions>(DEFAULT_ENVELOPE_OPTIONS);
+  const [view, setView] = useState<View>('envelope');
+  const [notice, setNotice] = useState<string | null>(null);
+  const [computeError, setComputeError] = useState<string | null>(null);
+
+  useEffect(() => {
+    document.documentElement.dataset.theme = theme;
+    localStorage.setItem('tw-theme', theme);
+  }, [theme]);
+
+  // validate and resolve, debounced after the last edit
+  const first = useRef(true);
+  useEffect(() => {
+    if (first.current) {
+      first.current = false;
+      return;
+    }
+    const h = setTimeout(() => {
+      const c = check(draft.tree);
+      setChecked(c);
+      if (c.resolved) setLastGood(c.resolved);
+    }, EDIT_DEBOUNCE_MS);
+    return () => clearTimeout(h);
+  }, [draft]);
+
+  const results: Results | null = useMemo(() => {
+    if (!lastGood) return null;
+    try {
+      const r = computeResults(lastGood, envOpts);
+      setComputeError(null);
+      return r;
+    } catch (e) {
+      setComputeError(isInputError(e) ? e.message : `The engine could not compute this project: ${e instanceof Error ? e.message : String(e)}`);
+      return null;
+    }
+  }, [lastGood, envOpts]);
+
+  const update = useCallback((f: (d: Draft) => Draft) => {
+    setDraft((d) => f(d));
+    setDirty(true);
+  }, []);
+  const form: FormApi = { draft, issues: checked.issues, update };
+
+  const load = useCallback((text: string, src: { name: string; path: string | null; demo: boolean; readOnly: boolean }, message?: string) => {
+    const tree = parseText(text);
+    if (tree === null) {
+      setNotice(`${src.name} is not valid JSON; nothing was changed.`);
+      return;
+    }
+    const d = newDraft(tree);
+    const c = check(tree);
+    setDraft(d);
+    setChecked(c);
+    setLastGood(c.resolved);
+    setSource(src);
+    setDirty(false);
+    setNotice(message ?? null);
+    first.current = true;
+  }, []);
+
+  const bridge = fileBridge();
+  const projectText = () => JSON.stringify(draft.tree, null, 2) + '\n';
+  const suggested = () => (source.demo ? source.name.replace(/^demo-/, 'my-') : source.name.replace(/^.*[\\/]/, ''));
+
+  const doOpen = useCallback(async () => {
+    const r = await bridge.open();
+    if (r.ok) load(r.text, { name: r.path.replace(/^.*[\\/]/, ''), path: r.path, demo: false, readOnly: r.readOnly }, r.message);
+    else if (!r.canceled) setNotice(r.message);
+  }, [bridge, load]);
+
+  const doSave = useCallback(
+    async (as: boolean) => {
+      const canUsePath = !as && !source.demo && !source.readOnly ? source.path : null;
+      const r = as || !canUsePath ? await bridge.saveAs(projectText(), suggested()) : await bridge.save(projectText(), canUsePath, suggested());
+      if (r.ok) {
+        setSource({ name: r.path.replace(/^.*[\\/]/, ''), path: r.path, demo: false, readOnly: false });
+        setDirty(false);
+        setNotice(`Saved ${r.path.replace(/^.*[\\/]/, '')}.`);
+        void bridge.recoveryDiscard();
+      } else if (!r.canceled) setNotice(r.message);
+    },
+    // eslint-disable-next-line react-hooks/exhaustive-deps
+    [bridge, source, draft],
+  );
+
+  // Electron: a project given at start, unsaved edits from last time, menu events
+  useEffect(() => {
+    if (bridge.kind !== 'electron') return;
+    void bridge.initialFile().then((r) => {
+      if (r && r.ok) load(r.text, { name: r.path.replace(/^.*[\\/]/, ''), path: r.path, demo: false, readOnly: r.readOnly }, r.message);
+      else if (r && !r.ok && !r.canceled) setNotice(r.message);
+    });
+    void bridge.recoveryCheck().then((offer) => {
+      if (offer && window.confirm(`Unsaved edits from ${offer.savedAt} were found. Restore them?`)) {
+        load(offer.text, { name: offer.documentPath?.replace(/^.*[\\/]/, '') ?? 'recovered.json', path: offer.documentPath, demo: false, readOnly: false });
+        setDirty(true);
+      } else if (offer) void bridge.recoveryDiscard();
+    });
+  }, [bridge, load]);
+
+  useEffect(() => {
+    if (bridge.kind !== 'electron' || !dirty) return;
+    const h = setTimeout(() => void bridge.recoveryWrite(JSON.stringify(draft.tree, null, 2), source.path), 1500);
+    return () => clearTimeout(h);
+  }, [bridge, dirty, draft, source.path]);
+
+  const menuRef = useRef<(e: MenuEvent) => void>(() => {});
+  menuRef.current = (e: MenuEvent) => {
+    switch (e.name) {
+      case 'file:new':
+        load(demoText(DEFAULT_DEMO), { name: 'untitled.json', path: null, demo: false, readOnly: false }, 'New project, started from the traction demo (invented data).');
+        break;
+      case 'file:open':
+        void doOpen();
+        break;
+      case 'file:save':
+        void doSave(false);
+        break;
+      case 'file:save-as':
+        void doSave(true);
+        break;
+      case 'export:envelope-csv':
+        if (results) void bridge.export('envelope-csv', envelopeCsv(results), 'envelope.csv');
+        break;
+      default:
+        window.dispatchEvent(new CustomEvent('tw-menu', { detail: e }));
+    }
+  };
+  useEffect(() => bridge.onMenu((e) => menuRef.current(e)), [bridge]);
+
+  const stale = Object.keys(checked.issues).length > 0;
+  const projectName = lastGood?.name || source.name;
+
+  return (
+    <FormContext.Provider value={form}>
+      <div className="app">
+        <header className="topbar">
+          <span className="brand">
+            Torquewise<small>PMSM drive bench</small>
+          </span>
+          <label>
+            Demo
+            <select
+              data-testid="demo-picker"
+              value={source.demo ? source.name : ''}
+              onChange={(e) => e.target.value && load(demoText(e.target.value), { name: e.target.value, path: null, demo: true, readOnly: false })}
+            >
+              {!source.demo && <option value="">(own file)</option>}
+              {DEMOS.map((d) => (
+                <option key={d.file} value={d.file}>
+                  {d.file.replace(/^demo-|\.json$/g, '')} (invented)
+                </option>
+              ))}
+            </select>
+          </label>
+          <span className="project-name" data-testid="project-name">
+            {projectName}
+            {dirty ? ' •' : ''}
+          </span>
+          {source.demo && <span className="invented">invented demo data</span>}
+          {source.readOnly && <span className="invented">read-only</span>}
+          <span className="spacer" />
+          <button className="btn" onClick={() => void doOpen()} data-testid="open">Open…</button>
+          <button className="btn" onClick={() => void doSave(false)} data-testid="save">Save</button>
+          <button className="btn" onClick={() => void doSave(true)}>Save as…</button>
+          <button
+            className="btn"
+            data-testid="theme-toggle"
+            aria-label="Switch light or dark theme"
+            onClick={() => setTheme((t) => (t === 'dark' ? 'light' : 'dark'))}
+          >
+            {theme === 'dark' ? 'Light theme' : 'Dark theme'}
+          </button>
+        </header>
+        <div className="body">
+          <aside className="inputs" data-testid="inputs">
+            <InputPanel form={form} resolved={lastGood} marks={requirementMarks(results)} />
+          </aside>
+          <main className="main">
+            <nav className="tabs" role="tablist">
+              {VIEWS.map(([v, label]) => (
+                <button key={v} role="tab" className="tab" aria-selected={view === v} data-testid={`tab-${v}`} onClick={() => setView(v)}>
+                  {label}
+                </button>
+              ))}
+            </nav>
+            <div className={'status' + (stale ? ' stale' : '')} data-testid="status" role="status">
+              {stale
+                ? `${Object.keys(checked.issues).length} input problem(s): showing the last valid project. ${otherIssues(checked.issues)}`
+                : (notice ?? computeError ?? (results ? `Recomputed in ${results.compute_ms.toFixed(1)} ms (${results.curves.length} envelopes × ${results.points} points).` : ''))}
+            </div>
+            <div className="view">
+              {computeError && <div className="finding danger">{computeError}</div>}
+              {!results ? (
+                <div className="empty">No valid project yet: correct the marked inputs.</div>
+              ) : view === 'envelope' ? (
+                <EnvelopeView results={results} opts={envOpts} setOpts={setEnvOpts} theme={theme} />
+              ) : view === 'loadsteps' ? (
+                <LoadStepsView project={results.project} theme={theme} stale={stale} />
+              ) : view === 'tuning' ? (
+                <TuningView project={results.project} theme={theme} />
+              ) : (
+                <DatasheetView results={results} theme={theme} />
+              )}
+            </div>
+          </main>
+        </div>
+      </div>
+    </FormContext.Provider>
+  );
+}
+
+/** Problems on paths no field shows (whole-file or section-level), spelled out in the status line. */
+function otherIssues(issues: Record<string, string>): string {
+  const top = Object.entries(issues).filter(([p]) => !p.includes('.') || p === 'file');
+  return top.map(([p, m]) => `${p} ${m}.`).join(' ');
+}
+
+function requirementMarks(r: Results | null) {
+  if (!r) return [];
+  return r.sizing.points.map((pt, i) => (
+    <span key={i} className={pt.met ? 'pass' : 'fail'} data-testid={`req-mark-${i}`} title={pt.met ? 'met' : `not met (${pt.limitedBy})`}>
+      {pt.met ? 'pass' : 'fail'}
+    </span>
+  ));
 }

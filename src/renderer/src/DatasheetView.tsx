@@ -1,0 +1,166 @@
+// Datasheet view: summary table, sizing verdict per requirement, cautions, the envelope plot;
+// export PNG/SVG/CSV and a print layout.
+import { useMemo, useRef } from 'react';
+import Plotly from 'plotly.js-dist-min';
+import { RAD_S_TO_RPM, SQRT2 } from '../../core/units';
+import type { Finding } from '../../core/types';
+import { Plot } from './Plot';
+import type { Results } from './compute';
+import { torqueSpeedFigure } from './EnvelopeView';
+import { envelopeCsv } from './exports';
+import { dataUrlToBytes, fileBridge, svgDataUrlToText } from './file-bridge';
+import { amps, num, rpm } from './format';
+
+export const SAFETY_TEXT =
+  'High DC-bus voltage and back-EMF can kill. A spinning permanent-magnet motor generates voltage at its terminals whether or not the inverter runs. ' +
+  'Work on drives only as local codes and licensed practice allow, and follow the drive-safety standard IEC 61800-5-1.';
+
+function peakOf(a: Float64Array, feasible: Uint8Array): number {
+  let best = 0;
+  for (let k = 0; k < a.length; k++) if (feasible[k] && Math.abs(a[k]!) > Math.abs(best)) best = a[k]!;
+  return best;
+}
+
+/** Findings that must carry the safety caution wherever they are shown. */
+export const isHazard = (f: Finding): boolean => f.severity === 'danger' || /uncontrolled|demagnet|back-?emf|exceeds/i.test(f.code + ' ' + f.message);
+
+export function Cautions({ results, testId, hazardsOnly, compact }: { results: Results; testId?: string; hazardsOnly?: boolean; compact?: boolean }) {
+  const s = results.safety;
+  const findings = [...results.project.findings, ...s.findings];
+  const hazards = findings.filter(isHazard);
+  return (
+    <div data-testid={testId}>
+      {(hazards.length > 0 || s.exceedsBus) && (
+        <div className={compact ? 'caution compact' : 'caution'} role="alert">
+          <strong>Caution.</strong>{' '}
+          {s.exceedsBus
+            ? `At ${rpm(results.speedMax)} the open-circuit back-EMF of the cold motor reaches ${num(s.backEmfLineLinePeak_V)} V line-to-line peak, above the ${num(results.project.inverter.Vdc)} V bus: if gating stops above ${rpm(s.uncontrolledGeneratorSpeed_rad_s)} the diodes rectify into the bus (uncontrolled generator). `
+            : ''}
+          {hazards.map((h) => h.message).join(' ')} {SAFETY_TEXT}
+        </div>
+      )}
+      {!hazardsOnly &&
+        findings
+        .filter((f) => !isHazard(f))
+        .map((f, i) => (
+          <div key={i} className={`finding ${f.severity}`}>
+            {f.field ? <code>{f.field}</code> : null} {f.message}
+          </div>
+        ))}
+    </div>
+  );
+}
+
+export function DatasheetView({ results, theme }: { results: Results; theme: 'light' | 'dark' }) {
+  const plotEl = useRef<HTMLDivElement | null>(null);
+  const p = results.project;
+  const fig = useMemo(() => torqueSpeedFigure(results, theme, { peak: true, continuous: true, hot: true, cold: true, generating: true }, false), [results, theme]);
+  const peakHot = results.main;
+  const contHot = results.curves.find((c) => c.key === 'continuous-hot-motoring')!.env;
+  const c = results.constantsHot;
+  const c20 = results.constantsCold;
+  const s = results.safety;
+  const exportImage = async (format: 'png' | 'svg') => {
+    if (!plotEl.current) return;
+    const url = await Plotly.toImage(plotEl.current, { format, width: 1200, height: 700, scale: format === 'png' ? 2 : 1 });
+    if (format === 'png') await fileBridge().export('plot-png', dataUrlToBytes(url), 'datasheet-envelope.png');
+    else await fileBridge().export('plot-svg', svgDataUrlToText(url), 'datasheet-envelope.svg');
+  };
+  const rows: Array<[string, string]> = [
+    ['pole pairs', `${p.hot.polePairs} (${2 * p.hot.polePairs} poles)`],
+    ['Rs per phase', `${num(p.machine20.Rs * 1e3)} mΩ at 20 °C, ${num(p.hot.Rs * 1e3)} mΩ at ${p.conditions.windingTemp_C} °C`],
+    ['Ld, Lq', `${num(p.hot.Ld * 1e3)} mH, ${num(p.hot.Lq * 1e3)} mH (saliency Lq/Ld ${num(c.saliency, 3)})`],
+    ['ψm (peak)', `${num(p.machine20.psiM * 1e3)} mWb at 20 °C, ${num(p.hot.psiM * 1e3)} mWb at ${p.conditions.magnetTemp_C} °C, ${num(p.cold.psiM * 1e3)} mWb at ${p.conditions.coldTemp_C} °C`],
+    ['Kt (id = 0, hot)', `${num(c.Kt_Nm_per_Arms)} N·m/A rms (${num(c.Kt_Nm_per_Apeak)} N·m/A peak)`],
+    ['Ke (cold)', `${num(c20.Ke_VLLrms_per_krpm)} V line-line rms per 1000 rpm`],
+    ['electrical time constants', `τd ${num(c.tauD_s * 1e3)} ms, τq ${num(c.tauQ_s * 1e3)} ms (hot)`],
+    ['characteristic current ψm/Ld', `${amps(c.characteristicCurrent_A)}, hot; inverter Imax ${amps(p.inverter.Imax)}`],
+    ['inverter', `${num(p.inverter.Vdc)} V bus, ${p.inverter.modulation}, Vmax ${num(p.peak.Vmax)} V peak phase; Imax ${amps(p.inverter.Imax)}, Icont ${amps(p.inverter.Icont)}`],
+    ['base speed (peak current, hot)', rpm(peakHot.baseSpeed)],
+    ['maximum speed (peak current, hot)', peakHot.maxSpeed === null ? 'unbounded (ψm/Ld below Imax)' : rpm(peakHot.maxSpeed)],
+    ['peak torque (hot, standstill)', `${num(peakHot.torque[0])} N·m`],
+    ['continuous torque (hot, standstill)', `${num(contHot.torque[0])} N·m`],
+    ['peak power (hot)', `${num(peakOf(peakHot.power, peakHot.feasible) / 1000)} kW`],
+    ['continuous power (hot)', `${num(peakOf(contHot.power, contHot.feasible) / 1000)} kW`],
+    ['least Imax for all points', results.sizing.minImax === null || !Number.isFinite(results.sizing.minImax) ? 'no current meets all points' : amps(results.sizing.minImax)],
+    ['least Vdc for all points', results.sizing.minVdc === null || !Number.isFinite(results.sizing.minVdc) ? '–' : `${num(results.sizing.minVdc)} V`],
+    ['back-EMF at plot end, cold', `${num(s.backEmfLineLinePeak_V)} V line-line peak at ${rpm(results.speedMax)}`],
+    ['uncontrolled-generator speed, cold', rpm(s.uncontrolledGeneratorSpeed_rad_s)],
+  ];
+  return (
+    <div data-testid="view-datasheet">
+      <div className="toolbar no-print">
+        <button className="btn" onClick={() => window.print()} data-testid="print">Print…</button>
+        <button className="btn" onClick={() => void exportImage('png')}>Plot PNG</button>
+        <button className="btn" onClick={() => void exportImage('svg')}>Plot SVG</button>
+        <button className="btn" onClick={() => void fileBridge().export('envelope-csv', envelopeCsv(results), 'envelope.csv')}>Envelope CSV</button>
+      </div>
+      <div className="sheet-head">
+        <h2>{p.name || 'Unnamed project'}</h2>
+        <span className="hint">hot corner: winding {p.conditions.windingTemp_C} °C, magnet {p.conditions.magnetTemp_C} °C; cold corner {p.conditions.coldTemp_C} °C</span>
+      </div>
+      <Cautions results={results} testId="datasheet-cautions" />
+      <div className="caution print-only">{SAFETY_TEXT}</div>
+      <div className="cols">
+        <div className="card">
+          <h4>Summary</h4>
+          <table className="data" data-testid="summary">
+            <tbody>
+              {rows.map(([k, v]) => (
+                <tr key={k}>
+                  <th style={{ fontWeight: 500 }}>{k}</th>
+                  <td>{v}</td>
+                </tr>
+              ))}
+            </tbody>
+          </table>
+        </div>
+        <div className="card">
+          <h4>Torque against speed</h4>
+          <Plot data={fig.data} layout={fig.layout} height={420} testId="datasheet-plot" elRef={(el) => (plotEl.current = el)} />
+        </div>
+      </div>
+      <div className="card">
+        <h4>Sizing verdict per requirement (hot corner, peak current)</h4>
+        <table className="data" data-testid="verdicts">
+          <thead>
+            <tr>
+              <th>point</th>
+              <th className="num">speed</th>
+              <th className="num">torque asked</th>
+              <th className="num">torque available</th>
+              <th className="num">current</th>
+              <th className="num">current headroom</th>
+              <th className="num">voltage</th>
+              <th className="num">voltage headroom</th>
+              <th>limited by</th>
+              <th>verdict</th>
+            </tr>
+          </thead>
+          <tbody>
+            {results.sizing.points.map((pt, i) => (
+              <tr key={i} data-testid={`verdict-${i}`}>
+                <td>{pt.label}</td>
+                <td className="num">{num(pt.speed_rpm)} rpm</td>
+                <td className="num">{num(pt.torque_Nm)} N·m</td>
+                <td className="num">{num(pt.torqueAvailable_Nm)} N·m</td>
+                <td className="num">
+                  {num(pt.current_A)} A peak<br />
+                  {num(pt.current_A / SQRT2)} A rms
+                </td>
+                <td className="num">{num(pt.currentHeadroom_A)} A peak</td>
+                <td className="num">{num(pt.voltage_V)} V peak</td>
+                <td className="num">{num(pt.voltageHeadroom_V)} V</td>
+                <td>{pt.limitedBy}</td>
+                <td className={pt.met ? 'pass' : 'fail'}>{pt.met ? 'met' : 'NOT met'}</td>
+              </tr>
+            ))}
+          </tbody>
+        </table>
+        <div className="hint" style={{ fontSize: 12 }}>
+          Speeds mechanical; currents peak phase (amplitude-invariant dq) with rms beside; voltages peak phase. Plot spans 0 to {Math.round(results.speedMax * RAD_S_TO_RPM)} rpm.
+        </div>
+      </div>
+    </div>
+  );
+}

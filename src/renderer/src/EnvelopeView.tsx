@@ -1,0 +1,436 @@
+// Envelope view: torque-speed and power-speed (peak and continuous, motoring and generating, hot and
+// cold), requirement points, region bands, base and maximum speed; beside it the current plane.
+import { useCallback, useMemo, useRef, useState } from 'react';
+import Plotly from 'plotly.js-dist-min';
+import type { Data, Layout } from 'plotly.js-dist-min';
+import { solveOperatingPoint } from '../../core/operating-point';
+import { RAD_S_TO_RPM, RPM_TO_RAD_S, SQRT2 } from '../../core/units';
+import type { OperatingPoint } from '../../core/types';
+import { axis, baseLayout, CURVE, Plot, readTheme, REGION_FILL } from './Plot';
+import { planeCurves, type Curve, type EnvelopeOptions, type Results } from './compute';
+import { envelopeCsv } from './exports';
+import { fileBridge, dataUrlToBytes, svgDataUrlToText } from './file-bridge';
+import { num } from './format';
+import { Cautions } from './DatasheetView';
+
+const REGION_NAME = { mtpa: 'MTPA', 'field-weakening': 'field weakening', mtpv: 'MTPV' } as const;
+
+type Show = { peak: boolean; continuous: boolean; hot: boolean; cold: boolean; generating: boolean };
+
+function curveStyle(c: Curve, col: (typeof CURVE)['light'] | (typeof CURVE)['dark']) {
+  const colour = c.current === 'peak' ? (c.corner === 'hot' ? col.hot : col.cold) : c.corner === 'hot' ? col.hotCont : col.coldCont;
+  return { color: colour, width: c.current === 'peak' ? 2.4 : 1.6, dash: c.corner === 'hot' ? 'solid' : 'dash' };
+}
+
+const curveName = (c: Curve) => `${c.current === 'peak' ? 'peak' : 'continuous'} current, ${c.corner} magnet`;
+
+/** Contiguous runs of a region along the reference envelope (feasible points only). */
+export function regionRuns(r: Results): Array<{ region: keyof typeof REGION_NAME; x0: number; x1: number }> {
+  const e = r.main;
+  const runs: Array<{ region: keyof typeof REGION_NAME; x0: number; x1: number }> = [];
+  for (let k = 0; k < e.speed.length; k++) {
+    if (!e.feasible[k]) continue;
+    const x = e.speed[k]! * RAD_S_TO_RPM;
+    const reg = e.region[k]!;
+    const last = runs[runs.length - 1];
+    if (last && last.region === reg) last.x1 = x;
+    else {
+      if (last) last.x1 = (last.x1 + x) / 2;
+      runs.push({ region: reg, x0: last ? last.x1 : x, x1: x });
+    }
+  }
+  return runs;
+}
+
+export function torqueSpeedFigure(r: Results, theme: 'light' | 'dark', show: Show, withPower: boolean): { data: Data[]; layout: Layout } {
+  const t = readTheme();
+  const col = CURVE[theme];
+  const data: Data[] = [];
+  // one trace per (current, corner): motoring, a gap, then generating (fewer traces draw faster)
+  for (const current of ['peak', 'continuous'] as const) {
+    for (const corner of ['hot', 'cold'] as const) {
+      if (!show[current] || !show[corner]) continue;
+      const x: Array<number | null> = [];
+      const yT: Array<number | null> = [];
+      const yP: Array<number | null> = [];
+      let first: Curve | null = null;
+      for (const c of r.curves) {
+        if (c.current !== current || c.corner !== corner || (c.direction === 'generating' && !show.generating)) continue;
+        first ??= c;
+        if (x.length) {
+          x.push(null);
+          yT.push(null);
+          yP.push(null);
+        }
+        const e = c.env;
+        for (let k = 0; k < e.speed.length; k++) {
+          if (!e.feasible[k] && k > 0 && !e.feasible[k - 1]) continue;
+          x.push(e.speed[k]! * RAD_S_TO_RPM);
+          yT.push(e.torque[k]!);
+          yP.push(e.power[k]! / 1000);
+        }
+      }
+      if (!first) continue;
+      const st = curveStyle(first, col);
+      const name = curveName(first);
+      data.push({ type: 'scatter', mode: 'lines', x, y: yT, name, legendgroup: name, line: st, hovertemplate: `${name}<br>%{x:.0f} rpm, %{y:.4g} N·m<extra></extra>` });
+      if (withPower) {
+        data.push({ type: 'scatter', mode: 'lines', x, y: yP, xaxis: 'x', yaxis: 'y2', name, legendgroup: name, showlegend: false, line: st, hovertemplate: `${name}<br>%{x:.0f} rpm, %{y:.4g} kW<extra></extra>` });
+      }
+    }
+  }
+  // requirement points as pass/fail markers
+  const req = r.project.requirements;
+  const pts = r.sizing.points;
+  for (const met of [true, false]) {
+    const idx = req.map((_, i) => i).filter((i) => (pts[i]?.met ?? false) === met);
+    if (!idx.length) continue;
+    data.push({
+      type: 'scatter',
+      mode: 'markers+text',
+      x: idx.map((i) => req[i]!.speed_rpm),
+      y: idx.map((i) => req[i]!.torque_Nm),
+      text: idx.map((i) => req[i]!.label),
+      textposition: idx.map((i) => (req[i]!.speed_rpm > 0.72 * r.speedMax * RAD_S_TO_RPM ? 'top left' : 'top right')),
+      textfont: { size: 11, color: met ? t.ok : t.bad },
+      name: met ? 'requirement met' : 'requirement not met',
+      marker: met
+        ? { symbol: 'circle', size: 11, color: t.ok, line: { color: t.panel, width: 1.5 } }
+        : { symbol: 'x-thin-open', size: 13, color: t.bad, line: { width: 3, color: t.bad } },
+      hovertemplate: `%{text}: %{x:.0f} rpm, %{y:.4g} N·m — ${met ? 'met' : 'NOT met'}<extra></extra>`,
+    });
+  }
+  const runs = regionRuns(r);
+  const fill = REGION_FILL[theme];
+  const shapes: Record<string, unknown>[] = runs.map((run) => ({
+    type: 'rect',
+    xref: 'x',
+    yref: 'paper',
+    x0: run.x0,
+    x1: run.x1,
+    y0: 0,
+    y1: 1,
+    fillcolor: fill[run.region],
+    line: { width: 0 },
+    layer: 'below',
+  }));
+  const top_rpm = r.speedMax * RAD_S_TO_RPM;
+  // a label fits across its band when the band is wider than the text (about 6.5 px a character
+  // on a plot about 460 px wide); otherwise it is written upright inside the band
+  const annotations: Record<string, unknown>[] = runs
+    .filter((run) => run.x1 - run.x0 > 0.025 * top_rpm)
+    .map((run) => {
+      const text = REGION_NAME[run.region];
+      const across = (run.x1 - run.x0) / top_rpm > (text.length * 6.5 + 10) / 460;
+      return {
+        x: (run.x0 + run.x1) / 2,
+        y: 0.995,
+        xref: 'x',
+        yref: 'paper',
+        yanchor: 'top',
+        textangle: across ? 0 : -90,
+        text,
+        showarrow: false,
+        font: { size: 11, color: t.muted },
+      };
+    });
+  const marks: Array<[number | null, string]> = [
+    [r.main.baseSpeed, 'base'],
+    [r.main.maxSpeed, 'max'],
+  ];
+  for (const [w, label] of marks) {
+    if (w === null || !(w > 0) || w > r.speedMax) continue;
+    const x = w * RAD_S_TO_RPM;
+    shapes.push({ type: 'line', xref: 'x', yref: 'paper', x0: x, x1: x, y0: 0, y1: 1, line: { color: t.ink, width: 1.2, dash: 'dot' } });
+    annotations.push({
+      x,
+      y: 1,
+      xref: 'x',
+      yref: 'paper',
+      yanchor: 'bottom',
+      xanchor: label === 'base' ? 'right' : 'left',
+      text: `${label} speed ${Math.round(x)} rpm`,
+      showarrow: false,
+      font: { size: 11, color: t.ink },
+    });
+  }
+  const xTitle = 'speed, rpm (mechanical)';
+  const layout: Layout = baseLayout(t, {
+    margin: { l: 70, r: 16, t: 34, b: 40 },
+    hovermode: 'closest',
+    showlegend: true,
+    legend: { orientation: 'h', x: 0, y: -0.09, font: { size: 11 } },
+    xaxis: axis(t, withPower ? '' : xTitle, { range: [0, r.speedMax * RAD_S_TO_RPM], anchor: withPower ? 'y2' : 'y', showticklabels: true }),
+    yaxis: axis(t, 'torque, N·m', withPower ? { domain: [0.45, 1] } : {}),
+    ...(withPower ? { yaxis2: axis(t, 'mechanical power, kW', { domain: [0, 0.37] }) } : {}),
+    shapes,
+    annotations,
+  });
+  if (withPower) (layout.xaxis as Record<string, unknown>).title = { text: xTitle, font: { size: 12 } };
+  return { data, layout };
+}
+
+function parseSpeeds(text: string): number[] {
+  return text
+    .split(/[,;\s]+/)
+    .map(Number)
+    .filter((v) => Number.isFinite(v) && v > 0)
+    .slice(0, 6);
+}
+
+function defaultSpeeds(r: Results): string {
+  const wb = r.main.baseSpeed * RAD_S_TO_RPM;
+  const top = r.speedMax * RAD_S_TO_RPM;
+  const round = (x: number) => Math.round(x / 100) * 100 || Math.round(x);
+  return [wb, 2 * wb, 3.5 * wb]
+    .filter((x) => x > 0 && x <= top)
+    .map(round)
+    .join(', ');
+}
+
+export function planeFigure(r: Results, theme: 'light' | 'dark', speeds: number[], op: OperatingPoint | null): { data: Data[]; layout: Layout } {
+  const t = readTheme();
+  const col = CURVE[theme];
+  const p = r.project;
+  const m = p.hot;
+  const Imax = p.peak.Imax;
+  const Icont = p.continuous.Imax;
+  const mtpvSpeeds: number[] = [];
+  const w0 = Math.max(r.main.baseSpeed, 1e-3);
+  for (let k = 0; k <= 80; k++) mtpvSpeeds.push(w0 * Math.pow(40, k / 80));
+  const pc = planeCurves(m, p.peak.Vmax, Imax, speeds, mtpvSpeeds);
+  const data: Data[] = [];
+  const circle = (R: number) => {
+    const x: number[] = [];
+    const y: number[] = [];
+    for (let k = 0; k <= 180; k++) {
+      x.push(R * Math.cos((k / 180) * 2 * Math.PI));
+      y.push(R * Math.sin((k / 180) * 2 * Math.PI));
+    }
+    return { x, y };
+  };
+  const ci = circle(Imax);
+  data.push({ type: 'scatter', mode: 'lines', ...ci, name: `|i| = Imax ${num(Imax)} A peak (${num(Imax / SQRT2)} A rms)`, line: { color: t.ink, width: 2 }, hoverinfo: 'skip' });
+  const cc = circle(Icont);
+  data.push({ type: 'scatter', mode: 'lines', ...cc, name: `|i| = Icont ${num(Icont)} A peak (${num(Icont / SQRT2)} A rms)`, line: { color: t.muted, width: 1.4, dash: 'dash' }, hoverinfo: 'skip' });
+  const dashes = ['solid', 'dash', 'dot', 'dashdot', 'longdash', 'longdashdot'];
+  const annotations: Record<string, unknown>[] = [];
+  const span = 1.2 * Imax;
+  pc.ellipses.forEach((el, i) => {
+    data.push({
+      type: 'scatter',
+      mode: 'lines',
+      x: el.id,
+      y: el.iq,
+      name: i === 0 ? '|v| = Vmax at the speeds marked' : `${Math.round(el.speed_rpm)} rpm`,
+      legendgroup: 'volt',
+      showlegend: i === 0,
+      line: { color: col.volt, width: 1.6, dash: dashes[i % dashes.length] },
+      hoverinfo: 'skip',
+    });
+    // label where the ellipse crosses the positive iq half-axis nearest the top of the view
+    let best = -1;
+    for (let k = 0; k < el.id.length; k++) {
+      const x = el.id[k]!;
+      const y = el.iq[k]!;
+      if (y > 0 && y < span * 0.97 && x > -span && x < 0.25 * Imax && (best < 0 || y > el.iq[best]!)) best = k;
+    }
+    if (best >= 0) {
+      annotations.push({ x: el.id[best], y: el.iq[best], text: `${Math.round(el.speed_rpm)} rpm`, showarrow: false, yanchor: 'bottom', font: { size: 10, color: col.volt }, bgcolor: t.panel });
+    }
+  });
+  data.push({ type: 'scatter', mode: 'lines', x: pc.mtpa.id, y: pc.mtpa.iq, name: 'MTPA', line: { color: col.mtpa, width: 2 }, hoverinfo: 'skip' });
+  if (pc.mtpv.id.length > 1) data.push({ type: 'scatter', mode: 'lines', x: pc.mtpv.id, y: pc.mtpv.iq, name: 'MTPV', line: { color: col.mtpv, width: 2, dash: 'dashdot' }, hoverinfo: 'skip' });
+  // constant-torque lines: T = 1.5 p iq (psiM + (Ld - Lq) id), solved for iq
+  const T0 = r.main.torque[0]!;
+  [0.25, 0.5, 0.75, 1].forEach((f, i) => {
+    const T = f * T0;
+    const x: Array<number | null> = [];
+    const y: Array<number | null> = [];
+    for (let k = 0; k <= 120; k++) {
+      const id = -span + (k / 120) * (span + 0.25 * Imax);
+      const den = 1.5 * m.polePairs * (m.psiM + (m.Ld - m.Lq) * id);
+      const iq = den > 0 ? T / den : NaN;
+      const ok = Number.isFinite(iq) && Math.abs(iq) <= span;
+      x.push(ok ? id : null);
+      y.push(ok ? iq : null);
+    }
+    data.push({
+      type: 'scatter',
+      mode: 'lines',
+      x,
+      y,
+      name: i === 0 ? 'constant torque' : '',
+      showlegend: i === 0,
+      legendgroup: 'ct',
+      line: { color: t.muted, width: 1, dash: 'dot' },
+      hoverinfo: 'skip',
+    });
+    // label at the left end of the line (inside the view)
+    for (let k = 0; k < x.length; k++) {
+      if (x[k] !== null) {
+        annotations.push({ x: x[k], y: y[k], text: `${num(T, 3)} N·m`, showarrow: false, xanchor: 'left', yanchor: 'bottom', font: { size: 10, color: t.muted } });
+        break;
+      }
+    }
+  });
+  // the path of the reference envelope through the plane
+  const e = r.main;
+  const px: number[] = [];
+  const py: number[] = [];
+  for (let k = 0; k < e.speed.length; k++) if (e.feasible[k]) {
+    px.push(e.id[k]!);
+    py.push(e.iq[k]!);
+  }
+  data.push({ type: 'scatter', mode: 'lines', x: px, y: py, name: 'envelope path (peak, hot)', line: { color: col.hot, width: 3 }, opacity: 0.5, hoverinfo: 'skip' });
+  const ch = -m.psiM / m.Ld;
+  if (ch > -span) data.push({ type: 'scatter', mode: 'markers', x: [ch], y: [0], name: '−ψm/Ld', marker: { symbol: 'x', size: 9, color: col.volt }, hoverinfo: 'skip' });
+  if (op) {
+    data.push({
+      type: 'scatter',
+      mode: 'markers',
+      x: [op.id],
+      y: [op.iq],
+      name: op.feasible ? 'operating point' : 'operating point (not reachable)',
+      marker: { symbol: op.feasible ? 'circle' : 'circle-open', size: 13, color: op.feasible ? t.ok : t.bad, line: { width: 2, color: op.feasible ? t.ink : t.bad } },
+      hoverinfo: 'skip',
+    });
+  }
+  const layout: Layout = baseLayout(t, {
+    margin: { l: 64, r: 16, t: 16, b: 40 },
+    showlegend: true,
+    legend: { orientation: 'h', x: 0, y: -0.1, font: { size: 11 } },
+    hovermode: false,
+    xaxis: axis(t, 'id, A peak', { range: [-span, 0.25 * Imax], constrain: 'domain' }),
+    yaxis: axis(t, 'iq, A peak', { range: [-span, span], scaleanchor: 'x', scaleratio: 1, constrain: 'domain' }),
+    annotations,
+  });
+  return { data, layout };
+}
+
+export function EnvelopeView({ results, opts, setOpts, theme }: { results: Results; opts: EnvelopeOptions; setOpts: (o: EnvelopeOptions) => void; theme: 'light' | 'dark' }) {
+  const [show, setShow] = useState<Show>({ peak: true, continuous: true, hot: true, cold: true, generating: true });
+  const [speedText, setSpeedText] = useState<string | null>(null);
+  const [op, setOp] = useState<OperatingPoint | null>(null);
+  const [topText, setTopText] = useState('');
+  const envEl = useRef<HTMLDivElement | null>(null);
+  const speeds = useMemo(() => parseSpeeds(speedText ?? defaultSpeeds(results)), [speedText, results]);
+  const fig = useMemo(() => torqueSpeedFigure(results, theme, show, true), [results, theme, show]);
+  const plane = useMemo(() => planeFigure(results, theme, speeds, op), [results, theme, speeds, op]);
+
+  const onHover = useCallback(
+    (ev: any) => {
+      const pt = ev?.points?.[0];
+      if (!pt) return;
+      const onPower = pt.data?.yaxis === 'y2';
+      let speed_rpm: number = Array.isArray(ev.xvals) && Number.isFinite(ev.xvals[0]) ? ev.xvals[0] : pt.x;
+      let y: number = Array.isArray(ev.yvals) && Number.isFinite(ev.yvals[0]) ? ev.yvals[0] : pt.y;
+      if (!Number.isFinite(speed_rpm) || !Number.isFinite(y)) return;
+      speed_rpm = Math.max(0, speed_rpm);
+      const w = speed_rpm * RPM_TO_RAD_S;
+      const torque = onPower ? (w > 0 ? (y * 1000) / w : 0) : y;
+      y = torque;
+      try {
+        setOp(solveOperatingPoint(results.project.hot, results.project.peak, w, torque));
+      } catch {
+        setOp(null);
+      }
+    },
+    [results],
+  );
+
+  const onDrawn = useCallback(() => {
+    const marks = performance.getEntriesByName('tw-edit', 'mark');
+    if (!marks.length) return;
+    const start = marks[marks.length - 1]!.startTime;
+    requestAnimationFrame(() => {
+      const ms = performance.now() - start;
+      (window.__twPerf ??= []).push(ms);
+      performance.clearMarks('tw-edit');
+    });
+  }, []);
+
+  const exportImage = async (format: 'png' | 'svg') => {
+    if (!envEl.current) return;
+    const url = await Plotly.toImage(envEl.current, { format, width: 1200, height: 800, scale: format === 'png' ? 2 : 1 });
+    const b = fileBridge();
+    if (format === 'png') await b.export('plot-png', dataUrlToBytes(url), 'envelope.png');
+    else await b.export('plot-svg', svgDataUrlToText(url), 'envelope.svg');
+  };
+
+  const toggle = (k: keyof Show) => setShow((s) => ({ ...s, [k]: !s[k] }));
+  return (
+    <div data-testid="view-envelope">
+      <Cautions results={results} hazardsOnly compact testId="envelope-cautions" />
+      <div className="toolbar no-print">
+        <span>Show:</span>
+        {(
+          [
+            ['peak', 'peak current'],
+            ['continuous', 'continuous current'],
+            ['hot', 'hot magnet'],
+            ['cold', 'cold magnet'],
+            ['generating', 'generating'],
+          ] as Array<[keyof Show, string]>
+        ).map(([k, label]) => (
+          <label key={k}>
+            <input type="checkbox" checked={show[k]} onChange={() => toggle(k)} /> {label}
+          </label>
+        ))}
+        <label>
+          plot to{' '}
+          <input
+            type="text"
+            size={7}
+            data-testid="speed-max"
+            value={topText}
+            placeholder={String(Math.round(results.speedMax * RAD_S_TO_RPM))}
+            onChange={(e) => {
+              setTopText(e.target.value);
+              const v = Number(e.target.value);
+              setOpts({ ...opts, speedMax: e.target.value.trim() !== '' && Number.isFinite(v) && v > 0 ? v * RPM_TO_RAD_S : null });
+            }}
+          />{' '}
+          rpm
+        </label>
+        <span className="spacer" style={{ flex: 1 }} />
+        <button className="btn small" onClick={() => void exportImage('png')} data-testid="export-png">PNG</button>
+        <button className="btn small" onClick={() => void exportImage('svg')} data-testid="export-svg">SVG</button>
+        <button className="btn small" data-testid="export-csv" onClick={() => void fileBridge().export('envelope-csv', envelopeCsv(results), 'envelope.csv')}>
+          CSV
+        </button>
+      </div>
+      <div className="cols">
+        <div className="card">
+          <h4>Torque and power against speed</h4>
+          <Plot data={fig.data} layout={fig.layout} height={560} testId="envelope-plot" onHover={onHover} onDrawn={onDrawn} elRef={(el) => (envEl.current = el)} />
+          <div className="readout" data-testid="summary-line">
+            base speed {Math.round(results.main.baseSpeed * RAD_S_TO_RPM)} rpm · maximum speed{' '}
+            {results.main.maxSpeed === null ? 'unbounded (current limit reaches past the voltage-ellipse centre)' : `${Math.round(results.main.maxSpeed * RAD_S_TO_RPM)} rpm`} · peak current, hot magnet, motoring ·
+            characteristic current ψm/Ld = {num(results.main.characteristicCurrent)} A peak
+          </div>
+        </div>
+        <div className="card">
+          <h4>Current plane (hot magnet, peak limits)</h4>
+          <div className="toolbar">
+            <label>
+              voltage limits at{' '}
+              <input type="text" size={22} data-testid="ellipse-speeds" value={speedText ?? defaultSpeeds(results)} onChange={(e) => setSpeedText(e.target.value)} /> rpm
+            </label>
+          </div>
+          <Plot data={plane.data} layout={plane.layout} height={560} testId="plane-plot" defer />
+          <div className="readout" data-testid="op-readout">
+            {op ? (
+              <>
+                {Math.round(op.speed * RAD_S_TO_RPM)} rpm, {num(op.torque)} N·m: id {num(op.id)} A, iq {num(op.iq)} A, |i| {num(op.current)} A peak ({num(op.current / SQRT2)} A
+                rms), |v| {num(op.voltage)} V peak, {op.feasible ? op.region : `not reachable (${op.limitedBy})`}
+              </>
+            ) : (
+              'Move the pointer over the torque-speed plot to place an operating point.'
+            )}
+          </div>
+        </div>
+      </div>
+    </div>
+  );
+}

@@ -1,0 +1,251 @@
+// Load steps view: the scenario editor, a run button (the simulation runs in a Web Worker, with
+// progress and cancel), stacked traces on one time axis, the metrics table, saturation shaded.
+import { useEffect, useMemo, useRef, useState } from 'react';
+import type { Data, Layout } from 'plotly.js-dist-min';
+import type { ResolvedProject } from '../../core/project';
+import { SQRT2 } from '../../core/units';
+import { axis, baseLayout, CURVE, Plot, readTheme } from './Plot';
+import { ControlFields, ScenarioFields } from './InputPanel';
+import { Section } from './Inputs';
+import type { SimEvent, SimReply, SimRequest } from './sim-protocol';
+import { fileBridge } from './file-bridge';
+import { tracesCsv } from './exports';
+import { num } from './format';
+
+export interface SimDone {
+  metrics: Record<string, unknown>;
+  traces: Record<string, Float64Array>;
+  events: SimEvent[];
+  stats: Record<string, unknown>;
+  diagnostic: unknown;
+  /** project name the run belongs to */
+  project: string;
+}
+
+type RunState = { kind: 'idle' } | { kind: 'running'; fraction: number; started: number } | { kind: 'cancelled' } | { kind: 'error'; message: string };
+
+// The last result survives switching views.
+let kept: SimDone | null = null;
+
+const ROWS = 5;
+const GAP = 0.025;
+const domain = (i: number): [number, number] => {
+  const h = (1 - GAP * (ROWS - 1)) / ROWS;
+  const top = 1 - i * (h + GAP);
+  return [top - h, top];
+};
+
+export function tracesFigure(r: SimDone, theme: 'light' | 'dark'): { data: Data[]; layout: Layout } {
+  const t = readTheme();
+  const col = CURVE[theme];
+  const tr = r.traces;
+  const x = tr.t_s!;
+  const data: Data[] = [];
+  const line = (y: Float64Array | undefined, name: string, row: number, colour: string, dash = 'solid', width = 1.6) => {
+    if (!y) return;
+    data.push({
+      type: 'scatter',
+      mode: 'lines',
+      x,
+      y,
+      name,
+      xaxis: 'x',
+      yaxis: row === 0 ? 'y' : `y${row + 1}`,
+      line: { color: colour, width, dash },
+      hovertemplate: `${name}: %{y:.4g}<extra>%{x:.4f} s</extra>`,
+    });
+  };
+  line(tr.speedRef_rpm, 'speed reference', 0, col.ref, 'dash', 1.4);
+  line(tr.speed_rpm, 'speed', 0, col.hot, 'solid', 2);
+  line(tr.torque_Nm, 'motor torque', 1, col.cold, 'solid', 1.6);
+  line(tr.loadTorque_Nm, 'load torque', 1, col.load, 'dash', 1.6);
+  line(tr.idRef_A, 'id reference', 2, col.id, 'dot', 1.3);
+  line(tr.iqRef_A, 'iq reference', 2, col.iq, 'dot', 1.3);
+  line(tr.id_A, 'id', 2, col.id);
+  line(tr.iq_A, 'iq', 2, col.iq);
+  line(tr.vNorm, '|v| / Vmax', 3, col.volt);
+  line(tr.ia_A, 'ia', 4, col.a, 'solid', 1.1);
+  line(tr.ib_A, 'ib', 4, col.b, 'solid', 1.1);
+  line(tr.ic_A, 'ic', 4, col.c, 'solid', 1.1);
+  const titles = ['speed, rpm', 'torque, N·m', 'id, iq, A peak', '|v| / Vmax', 'ia, ib, ic, A'];
+  const layout: Record<string, unknown> = baseLayout(t, {
+    margin: { l: 78, r: 130, t: 10, b: 44 },
+    hovermode: 'x',
+    legend: { orientation: 'v', x: 1.01, y: 1, font: { size: 11 } },
+    xaxis: axis(t, 'time, s', { anchor: `y${ROWS}`, range: [x[0], x[x.length - 1]] }),
+  });
+  for (let i = 0; i < ROWS; i++) {
+    layout[i === 0 ? 'yaxis' : `yaxis${i + 1}`] = axis(t, titles[i]!, { domain: domain(i), ...(i === 3 ? { range: [0, 1.15] } : {}) });
+  }
+  // the x axis ticks appear once at the bottom; every row shares it
+  const fill = theme === 'dark' ? 'rgba(255,179,64,0.16)' : 'rgba(224,138,0,0.16)';
+  const fillI = theme === 'dark' ? 'rgba(255,123,114,0.13)' : 'rgba(179,38,30,0.10)';
+  const shapes: Record<string, unknown>[] = [];
+  const end = x[x.length - 1] ?? 0;
+  for (const e of r.events) {
+    if (e.kind !== 'voltage-saturation' && e.kind !== 'current-limit') continue;
+    shapes.push({
+      type: 'rect',
+      xref: 'x',
+      yref: 'paper',
+      x0: e.t_s,
+      x1: e.tEnd_s ?? end,
+      y0: 0,
+      y1: 1,
+      fillcolor: e.kind === 'voltage-saturation' ? fill : fillI,
+      line: { width: 0 },
+      layer: 'below',
+    });
+  }
+  layout.shapes = shapes;
+  return { data, layout };
+}
+
+const METRICS: Array<[string, string, (v: number) => string]> = [
+  ['finalSpeed_rpm', 'final speed', (v) => `${num(v)} rpm`],
+  ['speedOvershoot_pct', 'speed overshoot', (v) => `${num(v, 3)} %`],
+  ['riseTime_s', 'rise time (10–90 %)', (v) => `${num(v * 1e3)} ms`],
+  ['settlingTime_s', 'settling time (2 % band)', (v) => `${num(v * 1e3)} ms`],
+  ['loadStepDip_rpm', 'speed dip after load step', (v) => `${num(v)} rpm`],
+  ['loadStepRecovery_s', 'recovery after load step', (v) => `${num(v * 1e3)} ms`],
+  ['steadyStateError_rpm', 'steady-state error', (v) => `${num(v)} rpm`],
+  ['peakCurrent_A', 'peak phase current', (v) => `${num(v)} A peak (${num(v / SQRT2)} A rms)`],
+  ['rmsCurrent_A', 'rms phase current', (v) => `${num(v * SQRT2)} A peak (${num(v)} A rms)`],
+  ['voltageSaturation_s', 'time in voltage saturation', (v) => `${num(v * 1e3)} ms`],
+  ['energyFromBus_J', 'energy from the DC link', (v) => `${num(v)} J`],
+];
+
+export function LoadStepsView({ project, theme, stale }: { project: ResolvedProject; theme: 'light' | 'dark'; stale: boolean }) {
+  const [run, setRun] = useState<RunState>({ kind: 'idle' });
+  const [result, setResult] = useState<SimDone | null>(kept);
+  const worker = useRef<Worker | null>(null);
+
+  const stop = () => {
+    worker.current?.terminate();
+    worker.current = null;
+  };
+  useEffect(() => stop, []);
+
+  const start = () => {
+    stop();
+    const w = new Worker(new URL('./sim-worker.ts', import.meta.url), { type: 'module' });
+    worker.current = w;
+    setRun({ kind: 'running', fraction: 0, started: performance.now() });
+    w.onmessage = (ev: MessageEvent<SimReply>) => {
+      const m = ev.data;
+      if (m.kind === 'progress') setRun((r) => (r.kind === 'running' ? { ...r, fraction: m.fraction } : r));
+      else if (m.kind === 'done') {
+        const done: SimDone = { metrics: m.metrics, traces: m.traces, events: m.events, stats: m.stats, diagnostic: m.diagnostic, project: project.name };
+        kept = done;
+        setResult(done);
+        setRun({ kind: 'idle' });
+        stop();
+      } else {
+        setRun({ kind: 'error', message: m.message });
+        stop();
+      }
+    };
+    w.onerror = (ev) => {
+      ev.preventDefault();
+      setRun({ kind: 'error', message: `The simulation worker failed: ${ev.message || 'unknown error'}` });
+      stop();
+    };
+    const req: SimRequest = { file: project.file, maxPoints: 4000 };
+    w.postMessage(req);
+  };
+  const cancel = () => {
+    stop();
+    setRun({ kind: 'cancelled' });
+  };
+
+  const fig = useMemo(() => (result ? tracesFigure(result, theme) : null), [result, theme]);
+  const hasScenario = project.file.scenario !== undefined;
+  const sat = result?.events.filter((e) => e.kind === 'voltage-saturation' || e.kind === 'current-limit') ?? [];
+  const other = result?.events.filter((e) => e.kind !== 'voltage-saturation' && e.kind !== 'current-limit') ?? [];
+
+  return (
+    <div data-testid="view-loadsteps" style={{ display: 'grid', gridTemplateColumns: '340px minmax(0, 1fr)', gap: 12 }}>
+      <div>
+        <Section title="Scenario">
+          <ScenarioFields />
+        </Section>
+        <Section title="Controller">
+          <ControlFields />
+        </Section>
+      </div>
+      <div>
+        <div className="toolbar">
+          <button className="btn primary" data-testid="run" disabled={run.kind === 'running' || !hasScenario || stale} onClick={start}>
+            Run load-step test
+          </button>
+          <button className="btn danger" data-testid="cancel" disabled={run.kind !== 'running'} onClick={cancel}>
+            Cancel
+          </button>
+          {run.kind === 'running' && (
+            <>
+              <progress className="progress" data-testid="progress" max={1} value={run.fraction} /> {Math.round(run.fraction * 100)} %
+            </>
+          )}
+          {run.kind === 'cancelled' && <span data-testid="cancelled">Cancelled; the previous result (if any) is shown.</span>}
+          {!hasScenario && <span>Add a scenario on the left to run a test.</span>}
+          {stale && <span className="fail">Correct the marked inputs first.</span>}
+          <span style={{ flex: 1 }} />
+          {result && (
+            <button className="btn small" onClick={() => void fileBridge().export('traces-csv', tracesCsv(result.traces), 'traces.csv')}>
+              Traces CSV
+            </button>
+          )}
+        </div>
+        {run.kind === 'error' && <div className="finding danger" data-testid="sim-error">{run.message}</div>}
+        {result ? (
+          <>
+            {typeof result.diagnostic === 'string' && <div className="finding danger">{result.diagnostic}</div>}
+            <div className="card">
+              <h4>
+                Traces — {result.project}
+                <span style={{ fontWeight: 400, fontSize: 12, marginLeft: 10 }}>shaded: voltage saturation (amber), current limit (red)</span>
+              </h4>
+              {fig && <Plot data={fig.data} layout={fig.layout} height={760} testId="traces-plot" />}
+            </div>
+            <div className="cols">
+              <div className="card">
+                <h4>Metrics</h4>
+                <table className="data" data-testid="metrics">
+                  <tbody>
+                    {METRICS.map(([k, label, f]) => {
+                      const v = result.metrics[k];
+                      return (
+                        <tr key={k}>
+                          <td>{label}</td>
+                          <td className="num" data-metric={k}>{typeof v === 'number' && Number.isFinite(v) ? f(v) : '–'}</td>
+                        </tr>
+                      );
+                    })}
+                  </tbody>
+                </table>
+              </div>
+              <div className="card">
+                <h4>Events</h4>
+                {sat.length === 0 && other.length === 0 && <div className="finding">No limit reached.</div>}
+                {[...other, ...sat].slice(0, 12).map((e, i) => (
+                  <div key={i} className={`finding ${e.kind === 'divergence' || e.kind === 'overspeed' ? 'danger' : 'warning'}`}>
+                    {num(e.t_s * 1e3)}
+                    {e.tEnd_s !== undefined ? `–${num(e.tEnd_s * 1e3)}` : ''} ms: {e.message}
+                  </div>
+                ))}
+                {sat.length + other.length > 12 && <div className="hint">… and {sat.length + other.length - 12} more.</div>}
+                <div className="hint" style={{ fontSize: 12, marginTop: 6 }}>
+                  {typeof result.stats.controlSteps === 'number' && `${result.stats.controlSteps} control periods, `}
+                  {typeof result.stats.evaluationsPerPeriod === 'number' && `${num(result.stats.evaluationsPerPeriod as number)} derivative evaluations per period (median), `}
+                  {typeof result.stats.wall_s === 'number' && `${num((result.stats.wall_s as number) * 1e3)} ms wall time`}
+                </div>
+              </div>
+            </div>
+          </>
+        ) : (
+          <div className="empty">No run yet: press “Run load-step test”.</div>
+        )}
+      </div>
+    </div>
+  );
+}

@@ -1,0 +1,168 @@
+// Tuning view: bandwidths (or gains) in, gains out, Bode plots with crossover and margins, warnings.
+import { useMemo } from 'react';
+import type { Data, Layout } from 'plotly.js-dist-min';
+import type { ResolvedProject } from '../../core/project';
+import { tuneFromProject, type LoopReport, type TuningReport } from '../../core/tuning';
+import { isInputError } from '../../core/errors';
+import { axis, baseLayout, CURVE, Plot, readTheme } from './Plot';
+import { NumField, SelectField } from './Inputs';
+import { num } from './format';
+
+interface Loop {
+  key: string;
+  name: string;
+  rep: LoopReport;
+  colour: string;
+  kpUnit: string;
+  kiUnit: string;
+}
+
+function loops(rep: TuningReport, theme: 'light' | 'dark'): Loop[] {
+  const col = CURVE[theme];
+  const out: Loop[] = [{ key: 'current-d', name: rep.currentQ ? 'current loop, d axis' : 'current loop (d and q)', rep: rep.current, colour: col.id, kpUnit: 'V/A', kiUnit: 'V/(A·s)' }];
+  if (rep.currentQ) out.push({ key: 'current-q', name: 'current loop, q axis', rep: rep.currentQ, colour: col.iq, kpUnit: 'V/A', kiUnit: 'V/(A·s)' });
+  out.push({ key: 'speed', name: 'speed loop', rep: rep.speed, colour: col.volt, kpUnit: 'N·m·s/rad', kiUnit: 'N·m/rad' });
+  return out;
+}
+
+export function bodeFigure(rep: TuningReport, theme: 'light' | 'dark'): { data: Data[]; layout: Layout } {
+  const t = readTheme();
+  const data: Data[] = [];
+  const shapes: Record<string, unknown>[] = [];
+  const annotations: Record<string, unknown>[] = [];
+  for (const l of loops(rep, theme)) {
+    const b = l.rep.bode;
+    data.push({ type: 'scatter', mode: 'lines', x: b.f_Hz, y: b.mag_dB, name: l.name, legendgroup: l.key, line: { color: l.colour, width: 2 }, hovertemplate: `${l.name}<br>%{x:.4g} Hz, %{y:.3g} dB<extra></extra>` });
+    data.push({
+      type: 'scatter',
+      mode: 'lines',
+      x: b.f_Hz,
+      y: b.phase_deg,
+      yaxis: 'y2',
+      name: l.name,
+      legendgroup: l.key,
+      showlegend: false,
+      line: { color: l.colour, width: 2 },
+      hovertemplate: `${l.name}<br>%{x:.4g} Hz, %{y:.4g}°<extra></extra>`,
+    });
+    const fc = l.rep.crossover_Hz;
+    if (fc !== null && fc > 0) {
+      shapes.push({ type: 'line', xref: 'x', yref: 'paper', x0: fc, x1: fc, y0: 0, y1: 1, line: { color: l.colour, width: 1, dash: 'dot' } });
+      const pm = l.rep.phaseMargin_deg;
+      if (pm !== null) {
+        // the phase margin drawn as a bar from -180° up to the phase at crossover
+        shapes.push({ type: 'line', xref: 'x', yref: 'y2', x0: fc, x1: fc, y0: -180, y1: -180 + pm, line: { color: l.colour, width: 4 } });
+        annotations.push({ x: Math.log10(fc), y: -180 + pm, xref: 'x', yref: 'y2', text: `PM ${num(pm, 3)}°`, showarrow: true, arrowhead: 0, ax: 30, ay: -18, font: { size: 11, color: l.colour } });
+      }
+      annotations.push({ x: Math.log10(fc), y: 0, xref: 'x', yref: 'y', text: `${num(fc, 3)} Hz`, showarrow: true, arrowhead: 0, ax: 26, ay: -22, font: { size: 11, color: l.colour } });
+    }
+  }
+  shapes.push({ type: 'line', xref: 'paper', yref: 'y', x0: 0, x1: 1, y0: 0, y1: 0, line: { color: t.ink, width: 1 } });
+  shapes.push({ type: 'line', xref: 'paper', yref: 'y2', x0: 0, x1: 1, y0: -180, y1: -180, line: { color: t.bad, width: 1, dash: 'dash' } });
+  const layout = baseLayout(t, {
+    margin: { l: 70, r: 20, t: 20, b: 50 },
+    hovermode: 'closest',
+    xaxis: axis(t, 'frequency, Hz', { type: 'log', anchor: 'y2' }),
+    yaxis: axis(t, 'open-loop gain, dB', { domain: [0.55, 1] }),
+    yaxis2: axis(t, 'open-loop phase, degrees', { domain: [0, 0.45], dtick: 90 }),
+    legend: { orientation: 'h', x: 0, y: -0.12 },
+    shapes,
+    annotations,
+  });
+  return { data, layout };
+}
+
+export function TuningView({ project, theme }: { project: ResolvedProject; theme: 'light' | 'dark' }) {
+  const tuned = useMemo(() => {
+    try {
+      return { rep: tuneFromProject(project), error: null as string | null };
+    } catch (e) {
+      return { rep: null, error: isInputError(e) ? e.message : `Tuning failed: ${e instanceof Error ? e.message : String(e)}` };
+    }
+  }, [project]);
+  const fig = useMemo(() => (tuned.rep ? bodeFigure(tuned.rep, theme) : null), [tuned, theme]);
+  return (
+    <div data-testid="view-tuning">
+      <div className="cols">
+        <div>
+          <div className="card">
+            <h4>Loops in</h4>
+            {project.file.control === undefined && <div className="finding">No control section: the defaults are used (current bandwidth fCtrl/20, speed bandwidth a tenth of it).</div>}
+            <NumField path="control.fCtrl_Hz" label="Control rate" unit="Hz" optional placeholder="10000" />
+            <NumField path="control.delaySamples" label="Delay" unit="periods" optional placeholder="1" />
+            <NumField path="control.currentBandwidth_Hz" label="Current bandwidth" unit="Hz" optional />
+            <NumField path="control.speedBandwidth_Hz" label="Speed bandwidth" unit="Hz" optional />
+            <SelectField
+              path="control.speedTuning.method"
+              label="Speed rule"
+              optional
+              options={[
+                ['symmetric-optimum', 'symmetric optimum'],
+                ['bandwidth', 'from bandwidth'],
+              ]}
+            />
+            <NumField path="control.speedTuning.a" label="  spacing a" unit="–" optional placeholder="2" />
+            <div className="hint" style={{ fontSize: 12 }}>
+              Current PI by internal model control: Kp = L·ωc, Ki = Rs·ωc (hot winding). Gains can be given instead in the Control section.
+            </div>
+          </div>
+          {tuned.rep && (
+            <div className="card">
+              <h4>Gains and margins out</h4>
+              <table className="data" data-testid="tuning-table">
+                <thead>
+                  <tr>
+                    <th>loop</th>
+                    <th className="num">Kp</th>
+                    <th className="num">Ki</th>
+                    <th className="num">aimed, Hz</th>
+                    <th className="num">bandwidth, Hz</th>
+                    <th className="num">crossover, Hz</th>
+                    <th className="num">phase margin</th>
+                    <th className="num">gain margin</th>
+                  </tr>
+                </thead>
+                <tbody>
+                  {loops(tuned.rep, theme).map((l) => (
+                    <tr key={l.key}>
+                      <td>{l.name}</td>
+                      <td className="num">
+                        {num(l.rep.Kp)} {l.kpUnit}
+                      </td>
+                      <td className="num">
+                        {num(l.rep.Ki)} {l.kiUnit}
+                      </td>
+                      <td className="num">{num(l.rep.design_Hz)}</td>
+                      <td className="num">{num(l.rep.bandwidth_Hz)}</td>
+                      <td className="num">{num(l.rep.crossover_Hz)}</td>
+                      <td className="num">{l.rep.phaseMargin_deg === null ? '–' : `${num(l.rep.phaseMargin_deg, 3)}°`}</td>
+                      <td className="num">{l.rep.gainMargin_dB === null ? '–' : `${num(l.rep.gainMargin_dB, 3)} dB`}</td>
+                    </tr>
+                  ))}
+                </tbody>
+              </table>
+              <div className="hint" style={{ fontSize: 12, marginTop: 6 }}>
+                Margins include the {num(tuned.rep.currentDelay_s * 1e6)} µs delay of the current loop; speed rule uses an equivalent lag of{' '}
+                {num(tuned.rep.speedLagEquivalent_s * 1e3)} ms.
+              </div>
+            </div>
+          )}
+          <div className="card" data-testid="tuning-warnings">
+            <h4>Warnings</h4>
+            {tuned.error && <div className="finding danger">{tuned.error}</div>}
+            {tuned.rep && tuned.rep.warnings.length === 0 && <div className="finding">None: bandwidths below fCtrl/10 and phase margins at or above 30°.</div>}
+            {tuned.rep?.warnings.map((w) => (
+              <div key={w.code + w.message} className={`finding ${w.severity}`}>
+                {w.message}
+              </div>
+            ))}
+          </div>
+        </div>
+        <div className="card">
+          <h4>Open loops: gain and phase</h4>
+          {fig ? <Plot data={fig.data} layout={fig.layout} height={640} testId="bode-plot" /> : <div className="empty">No tuning.</div>}
+        </div>
+      </div>
+    </div>
+  );
+}

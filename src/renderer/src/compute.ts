@@ -1,0 +1,135 @@
+// Everything the views show, computed by src/core from one valid resolved project.
+// No physics here: this module calls the engine and arranges its answers for plotting.
+import type { ResolvedProject } from '../../core/project';
+import { computeEnvelope, type Envelope } from '../../core/envelope';
+import { mtpaCurrents, mtpvPoint, currentOnVoltageBoundary } from '../../core/mtpa';
+import { sizeDrive } from './pending-core';
+import { safetyReport } from './pending-core';
+import { deriveConstants } from '../../core/nameplate';
+import { RPM_TO_RAD_S } from '../../core/units';
+import type { DqMachine } from '../../core/types';
+
+export type Corner = 'hot' | 'cold';
+export type CurrentKind = 'peak' | 'continuous';
+export type Direction = 'motoring' | 'generating';
+
+export interface Curve {
+  key: string;
+  corner: Corner;
+  current: CurrentKind;
+  direction: Direction;
+  env: Envelope;
+}
+
+export interface EnvelopeOptions {
+  points: number;
+  /** rad/s; null = the engine's default range (to just past the maximum speed) of the hot, peak, motoring envelope */
+  speedMax: number | null;
+}
+
+export const DEFAULT_ENVELOPE_OPTIONS: EnvelopeOptions = { points: 200, speedMax: null };
+
+export interface Results {
+  project: ResolvedProject;
+  speedMax: number;
+  points: number;
+  curves: Curve[];
+  /** the reference curve: hot magnet, peak current, motoring */
+  main: Envelope;
+  sizing: ReturnType<typeof sizeDrive>;
+  safety: ReturnType<typeof safetyReport>;
+  constantsHot: ReturnType<typeof deriveConstants>;
+  constantsCold: ReturnType<typeof deriveConstants>;
+  compute_ms: number;
+}
+
+export const curveKey = (c: Corner, i: CurrentKind, d: Direction): string => `${i}-${c}-${d}`;
+
+export function computeResults(p: ResolvedProject, opts: EnvelopeOptions): Results {
+  const t0 = performance.now();
+  let speedMax = opts.speedMax;
+  if (speedMax === null) {
+    const probe = computeEnvelope(p.hot, p.peak, { points: 2, direction: 'motoring' });
+    speedMax = probe.speed[probe.speed.length - 1]!;
+    // the cold magnet reaches further: show its end too
+    const cold = computeEnvelope(p.cold, p.peak, { points: 2, direction: 'motoring' });
+    speedMax = Math.max(speedMax, cold.speed[cold.speed.length - 1]!);
+    // and every requirement point and the motor's rated maximum speed
+    for (const q of p.requirements) speedMax = Math.max(speedMax, 1.08 * q.speed_rpm * RPM_TO_RAD_S);
+    if (p.rated.maxSpeed_rad_s !== undefined) speedMax = Math.max(speedMax, 1.05 * p.rated.maxSpeed_rad_s);
+  }
+  const curves: Curve[] = [];
+  for (const current of ['peak', 'continuous'] as const) {
+    const lim = current === 'peak' ? p.peak : p.continuous;
+    for (const corner of ['hot', 'cold'] as const) {
+      const m = corner === 'hot' ? p.hot : p.cold;
+      for (const direction of ['motoring', 'generating'] as const) {
+        const env = computeEnvelope(m, lim, { points: opts.points, speedMax, direction });
+        curves.push({ key: curveKey(corner, current, direction), corner, current, direction, env });
+      }
+    }
+  }
+  const main = curves.find((c) => c.key === curveKey('hot', 'peak', 'motoring'))!.env;
+  const sizing = sizeDrive(p.hot, p.inverter, p.requirements);
+  const overspeed = Math.max(speedMax, main.maxSpeed ?? 0);
+  const safety = safetyReport(p.cold, p.inverter, overspeed);
+  return {
+    project: p,
+    speedMax,
+    points: opts.points,
+    curves,
+    main,
+    sizing,
+    safety,
+    constantsHot: deriveConstants(p.hot),
+    constantsCold: deriveConstants(p.cold),
+    compute_ms: performance.now() - t0,
+  };
+}
+
+export interface PlaneCurves {
+  mtpa: { id: number[]; iq: number[] };
+  mtpv: { id: number[]; iq: number[] };
+  ellipses: Array<{ speed_rpm: number; id: number[]; iq: number[] }>;
+}
+
+/** Geometry of the current plane for one machine and voltage limit (engine functions only). */
+export function planeCurves(m: DqMachine, Vmax: number, Imax: number, speeds_rpm: number[], mtpvSpeeds: number[]): PlaneCurves {
+  const n = 60;
+  const mtpa = { id: [] as number[], iq: [] as number[] };
+  for (let k = -n; k <= n; k++) {
+    const I = (Math.abs(k) / n) * Imax * 1.25;
+    const c = mtpaCurrents(m, I);
+    mtpa.id.push(c.id);
+    mtpa.iq.push(k < 0 ? -Math.abs(c.iq) : Math.abs(c.iq));
+  }
+  const mtpv = { id: [] as number[], iq: [] as number[] };
+  const upper: Array<{ id: number; iq: number }> = [];
+  for (const w of mtpvSpeeds) {
+    const pt = mtpvPoint(m, Vmax, w, 1);
+    if (pt && pt.current <= 1.6 * Imax) upper.push({ id: pt.id, iq: pt.iq });
+  }
+  for (let i = upper.length - 1; i >= 0; i--) {
+    mtpv.id.push(upper[i]!.id);
+    mtpv.iq.push(-upper[i]!.iq);
+  }
+  for (const u of upper) {
+    mtpv.id.push(u.id);
+    mtpv.iq.push(u.iq);
+  }
+  const buf = new Float64Array(2);
+  const ellipses = speeds_rpm
+    .filter((s) => Number.isFinite(s) && s > 0)
+    .map((speed_rpm) => {
+      const we = m.polePairs * speed_rpm * RPM_TO_RAD_S;
+      const id: number[] = [];
+      const iq: number[] = [];
+      for (let k = 0; k <= 180; k++) {
+        currentOnVoltageBoundary(m, Vmax, we, (k / 180) * 2 * Math.PI, buf);
+        id.push(buf[0]!);
+        iq.push(buf[1]!);
+      }
+      return { speed_rpm, id, iq };
+    });
+  return { mtpa, mtpv, ellipses };
+}

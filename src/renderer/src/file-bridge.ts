@@ -1,0 +1,144 @@
+// The one place that knows where files come from and go to: the Electron preload bridge
+// (window.torquewise) when present, otherwise browser upload/download. Everything else in the
+// renderer calls this module and takes the same code path in both.
+import type {
+  ExportKind,
+  MenuEvent,
+  OpenResult,
+  RecoveryOffer,
+  SaveResult,
+  TorquewiseBridge,
+} from '../../types/bridge';
+
+export interface FileBridge {
+  readonly kind: 'electron' | 'browser';
+  /** Let the user pick a project file and read it. */
+  open(): Promise<OpenResult>;
+  /** The project given at start (Electron command line), or null. */
+  initialFile(): Promise<OpenResult | null>;
+  /** Save to `path` when one was granted (opened or saved before), otherwise ask (Save As). */
+  save(text: string, path: string | null, suggestedName: string): Promise<SaveResult>;
+  saveAs(text: string, suggestedName: string): Promise<SaveResult>;
+  export(kind: ExportKind, data: string | Uint8Array, suggestedName: string): Promise<SaveResult>;
+  onMenu(listener: (event: MenuEvent) => void): () => void;
+  recoveryCheck(): Promise<RecoveryOffer | null>;
+  recoveryWrite(text: string, documentPath: string | null): Promise<void>;
+  recoveryDiscard(): Promise<void>;
+}
+
+const MIME: Record<ExportKind, string> = {
+  'envelope-csv': 'text/csv',
+  'traces-csv': 'text/csv',
+  'plot-png': 'image/png',
+  'plot-svg': 'image/svg+xml',
+  datasheet: 'text/html',
+};
+
+function download(data: string | Uint8Array, name: string, mime: string): void {
+  const part: BlobPart = typeof data === 'string' ? data : new Uint8Array(data);
+  const url = URL.createObjectURL(new Blob([part], { type: mime }));
+  const a = document.createElement('a');
+  a.href = url;
+  a.download = name;
+  a.style.display = 'none';
+  document.body.appendChild(a);
+  a.click();
+  a.remove();
+  setTimeout(() => URL.revokeObjectURL(url), 10_000);
+}
+
+function pickFile(): Promise<OpenResult> {
+  return new Promise((resolve) => {
+    const input = document.createElement('input');
+    input.type = 'file';
+    input.accept = '.json,application/json';
+    input.style.display = 'none';
+    let settled = false;
+    const finish = (r: OpenResult) => {
+      if (settled) return;
+      settled = true;
+      input.remove();
+      resolve(r);
+    };
+    input.addEventListener('change', () => {
+      const file = input.files?.[0];
+      if (!file) return finish({ ok: false, canceled: true, message: '' });
+      file.text().then(
+        (text) => finish({ ok: true, path: file.name, text, readOnly: false }),
+        () => finish({ ok: false, canceled: false, message: `Could not read ${file.name}.` }),
+      );
+    });
+    input.addEventListener('cancel', () => finish({ ok: false, canceled: true, message: '' }));
+    document.body.appendChild(input);
+    input.click();
+  });
+}
+
+function browserBridge(): FileBridge {
+  return {
+    kind: 'browser',
+    open: pickFile,
+    initialFile: async () => null,
+    async save(text, _path, suggestedName) {
+      download(text, suggestedName, 'application/json');
+      return { ok: true, path: suggestedName };
+    },
+    async saveAs(text, suggestedName) {
+      download(text, suggestedName, 'application/json');
+      return { ok: true, path: suggestedName };
+    },
+    async export(kind, data, suggestedName) {
+      download(data, suggestedName, MIME[kind]);
+      return { ok: true, path: suggestedName };
+    },
+    onMenu: () => () => {},
+    recoveryCheck: async () => null,
+    recoveryWrite: async () => {},
+    recoveryDiscard: async () => {},
+  };
+}
+
+function electronBridge(b: TorquewiseBridge): FileBridge {
+  return {
+    kind: 'electron',
+    open: () => b.open(),
+    initialFile: () => b.initialFile(),
+    save: (text, path, suggestedName) => (path ? b.save({ path, text }) : b.saveAs({ text, suggestedName })),
+    saveAs: (text, suggestedName) => b.saveAs({ text, suggestedName }),
+    export: (kind, data, suggestedName) => b.export({ kind, data, suggestedName }),
+    onMenu: (listener) => b.onMenu(listener),
+    recoveryCheck: () => b.recovery.check(),
+    recoveryWrite: async (text, documentPath) => {
+      await b.recovery.write({ text, documentPath });
+    },
+    recoveryDiscard: () => b.recovery.discard(),
+  };
+}
+
+let bridge: FileBridge | null = null;
+
+/** The bridge for this window: Electron's when the preload exposed it, the browser's otherwise. */
+export function fileBridge(): FileBridge {
+  if (!bridge) {
+    const b = typeof window !== 'undefined' ? window.torquewise : undefined;
+    bridge = b ? electronBridge(b) : browserBridge();
+  }
+  return bridge;
+}
+
+/** PNG data URL (from plotly's image API) to bytes. */
+export function dataUrlToBytes(url: string): Uint8Array {
+  const b64 = url.slice(url.indexOf(',') + 1);
+  const bin = atob(b64);
+  const out = new Uint8Array(bin.length);
+  for (let i = 0; i < bin.length; i++) out[i] = bin.charCodeAt(i);
+  return out;
+}
+
+/** SVG data URL to text (plotly returns it URI-encoded). */
+export function svgDataUrlToText(url: string): string {
+  const comma = url.indexOf(',');
+  const head = url.slice(0, comma);
+  const body = url.slice(comma + 1);
+  return head.includes('base64') ? atob(body) : decodeURIComponent(body);
+}

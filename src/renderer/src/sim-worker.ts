@@ -1,0 +1,49 @@
+// The simulation runs here, off the window's thread. Cancel = the window terminates this worker.
+/// <reference lib="webworker" />
+import { resolveProject } from '../../core/project';
+import { parseProject } from '../../core/schema';
+import { runSimulation, simulationFromProject } from '../../core/simulate';
+import { isInputError } from '../../core/errors';
+import type { SimRequest, SimReply } from './sim-protocol';
+
+const post = (msg: SimReply, transfer: Transferable[] = []) => (self as unknown as DedicatedWorkerGlobalScope).postMessage(msg, transfer);
+
+self.onmessage = (ev: MessageEvent<SimRequest>) => {
+  const { file, maxPoints } = ev.data;
+  try {
+    const p = resolveProject(parseProject(file));
+    const setup = simulationFromProject(p);
+    let last = 0;
+    const result = runSimulation(setup, {
+      maxPoints,
+      onProgress: (f: number) => {
+        const now = performance.now();
+        if (now - last > 50) {
+          last = now;
+          post({ kind: 'progress', fraction: Math.max(0, Math.min(1, f)) });
+        }
+      },
+    });
+    const traces: Record<string, Float64Array> = {};
+    const transfer: Transferable[] = [];
+    for (const [k, v] of Object.entries(result.traces)) {
+      if (v instanceof Float64Array) {
+        traces[k] = v;
+        transfer.push(v.buffer);
+      }
+    }
+    post(
+      {
+        kind: 'done',
+        metrics: { ...result.metrics },
+        traces,
+        events: result.events,
+        stats: { ...result.stats },
+        diagnostic: result.diagnostic ?? null,
+      },
+      transfer,
+    );
+  } catch (e) {
+    post({ kind: 'error', message: isInputError(e) ? e.message : `The simulation stopped: ${e instanceof Error ? e.message : String(e)}` });
+  }
+};

@@ -1,0 +1,219 @@
+// End-to-end: the built renderer in Debian's headless Chromium, driven by playwright-core.
+import { readFileSync, writeFileSync } from 'node:fs';
+import { join } from 'node:path';
+import type { Server } from 'node:http';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import type { Browser, Page } from 'playwright-core';
+import { buildRenderer, cleanup, launch, ROOT, serve, shotPath, SHOTS } from './harness';
+import { parseProject } from '../../src/core/schema';
+import { resolveProject } from '../../src/core/project';
+import { computeEnvelope } from '../../src/core/envelope';
+import { RAD_S_TO_RPM } from '../../src/core/units';
+
+let dir = '';
+let server: Server;
+let url = '';
+let browser: Browser;
+let page: Page;
+const consoleErrors: string[] = [];
+
+const input = (path: string) => `.inputs [data-path="${path}"]`;
+
+async function perfCount(): Promise<number> {
+  return page.evaluate(() => (window.__twPerf ?? []).length);
+}
+
+/** Set a field and wait until the envelope plot was redrawn after it; returns the edit-to-redraw time. */
+async function edit(path: string, value: string): Promise<number> {
+  const before = await perfCount();
+  await page.fill(input(path), value);
+  await page.waitForFunction((n) => (window.__twPerf ?? []).length > n, before, { timeout: 10_000 });
+  return page.evaluate(() => window.__twPerf![window.__twPerf!.length - 1]!);
+}
+
+async function baseSpeedRpm(): Promise<number> {
+  const text = (await page.textContent('[data-testid="summary-line"]')) ?? '';
+  const m = /base speed (\d+) rpm/.exec(text);
+  if (!m) throw new Error(`no base speed in "${text}"`);
+  return Number(m[1]);
+}
+
+async function curvesDrawn(testId: string): Promise<number> {
+  return page.$$eval(`[data-testid="${testId}"] .scatterlayer .trace path.js-line`, (els) => els.filter((e) => (e.getAttribute('d') ?? '').length > 20).length);
+}
+
+beforeAll(async () => {
+  dir = await buildRenderer();
+  ({ server, url } = await serve(dir));
+  browser = await launch();
+  const ctx = await browser.newContext({ viewport: { width: 1440, height: 900 }, acceptDownloads: true });
+  page = await ctx.newPage();
+  page.on('console', (m) => {
+    if (m.type() === 'error') consoleErrors.push(m.text());
+  });
+  page.on('pageerror', (e) => consoleErrors.push(`pageerror: ${e.message}`));
+  await page.goto(url);
+  await page.waitForSelector('[data-testid="envelope-plot"] .scatterlayer .trace');
+}, 120_000);
+
+afterAll(async () => {
+  await browser?.close();
+  server?.close();
+  if (dir) cleanup(dir);
+});
+
+describe('Torquewise in a browser', () => {
+  it('loads the traction demo and draws the envelope curves', async () => {
+    expect(await page.textContent('[data-testid="project-name"]')).toContain('traction');
+    // 4 curve pairs (peak/continuous x hot/cold, motoring and generating in one line each), torque and power
+    expect(await curvesDrawn('envelope-plot')).toBeGreaterThanOrEqual(8);
+    expect(await curvesDrawn('plane-plot')).toBeGreaterThanOrEqual(5);
+    expect(await baseSpeedRpm()).toBeGreaterThan(0);
+    await page.screenshot({ path: shotPath('01-envelope') });
+  });
+
+  it('raises the base speed when Vdc is raised, and times edit-to-redraw', async () => {
+    const before = await baseSpeedRpm();
+    const times: number[] = [];
+    for (const v of ['360', '380', '400', '420', '450']) times.push(await edit('inverter.Vdc', v));
+    const after = await baseSpeedRpm();
+    // more bus voltage, more speed before the voltage limit binds (common practice (no source))
+    expect(after).toBeGreaterThan(before * 1.2);
+    times.sort((a, b) => a - b);
+    const median = times[Math.floor(times.length / 2)]!;
+    writeFileSync(join(SHOTS, 'edit-to-redraw.json'), JSON.stringify({ times_ms: times, median_ms: median }, null, 2));
+    console.log(`edit-to-redraw on the traction demo: median ${median.toFixed(1)} ms, all ${times.map((t) => t.toFixed(1)).join(', ')} ms`);
+    await page.screenshot({ path: shotPath('02-vdc-raised') });
+    await edit('inverter.Vdc', '350');
+    expect(await baseSpeedRpm()).toBe(before);
+  });
+
+  it('turns a requirement point from pass to fail when Imax is lowered', async () => {
+    // hill start: 200 N·m at 500 rpm
+    await page.waitForSelector('[data-testid="req-mark-0"]');
+    expect(await page.textContent('[data-testid="req-mark-0"]')).toBe('pass');
+    await edit('inverter.Icont', '150');
+    await edit('inverter.Imax', '200');
+    expect(await page.textContent('[data-testid="req-mark-0"]')).toBe('fail');
+    await page.screenshot({ path: shotPath('03-requirement-fails') });
+    await edit('inverter.Imax', '450');
+    await edit('inverter.Icont', '250');
+    expect(await page.textContent('[data-testid="req-mark-0"]')).toBe('pass');
+  });
+
+  it('shows the inline message for a bad input, keeps the typed text, and goes on', async () => {
+    const path = 'nameplate.Ld.value';
+    const good = await page.inputValue(input(path));
+    await page.fill(input(path), '-0.3e-3');
+    const msg = await page.waitForSelector(`.inputs [data-msg-for="${path}"]`);
+    expect(await msg.textContent()).toContain('must be > 0 H');
+    expect(await page.inputValue(input(path))).toBe('-0.3e-3');
+    expect(await page.textContent('[data-testid="status"]')).toContain('showing the last valid project');
+    await page.fill(input(path), '0.3 mH');
+    await page.waitForFunction((p) => document.querySelector(`.inputs [data-msg-for="${p}"]`)?.textContent?.includes('number'), path);
+    expect(await page.inputValue(input(path))).toBe('0.3 mH');
+    // the last valid envelope is still drawn
+    expect(await curvesDrawn('envelope-plot')).toBeGreaterThanOrEqual(8);
+    await page.screenshot({ path: shotPath('04-bad-input') });
+    await edit(path, good);
+    expect(await page.$(`.inputs [data-msg-for="${path}"]`)).toBeNull();
+  });
+
+  it('exports an envelope CSV whose numbers match the engine', async () => {
+    const [download] = await Promise.all([page.waitForEvent('download'), page.click('[data-testid="export-csv"]')]);
+    const file = join(SHOTS, 'envelope.csv');
+    await download.saveAs(file);
+    const text = readFileSync(file, 'utf8');
+    const head = /points=(\d+) speedMax_rad_s=([0-9.eE+-]+)/.exec(text);
+    expect(head).not.toBeNull();
+    const points = Number(head![1]);
+    const speedMax = Number(head![2]);
+    const rows = text
+      .split('\n')
+      .filter((l) => l.startsWith('peak-hot-motoring,'))
+      .map((l) => l.split(','));
+    expect(rows.length).toBe(points);
+    const p = resolveProject(parseProject(JSON.parse(readFileSync(join(ROOT, 'resources', 'demo-ipm-traction.json'), 'utf8'))));
+    const env = computeEnvelope(p.hot, p.peak, { points, speedMax, direction: 'motoring' });
+    let worst = 0;
+    for (let k = 0; k < points; k++) {
+      const r = rows[k]!;
+      expect(Number(r[1])).toBeCloseTo(env.speed[k]! * RAD_S_TO_RPM, 4);
+      const scale = Math.max(1, Math.abs(env.torque[k]!));
+      worst = Math.max(worst, Math.abs(Number(r[2]) - env.torque[k]!) / scale);
+      expect(Math.abs(Number(r[6]) - env.current[k]!)).toBeLessThan(1e-6 * Math.max(1, env.current[k]!));
+    }
+    expect(worst).toBeLessThan(1e-8);
+  });
+
+  it('runs a load-step test in the worker, shows traces and metrics, and cancels a long run', async () => {
+    await page.click('[data-testid="tab-loadsteps"]');
+    await page.click('[data-testid="run"]');
+    await page.waitForSelector('[data-testid="traces-plot"] .scatterlayer .trace', { timeout: 60_000 });
+    expect(await curvesDrawn('traces-plot')).toBeGreaterThanOrEqual(10);
+    const final = await page.textContent('[data-metric="finalSpeed_rpm"]');
+    expect(final).toMatch(/rpm/);
+    const peak = await page.textContent('[data-metric="peakCurrent_A"]');
+    expect(peak).toMatch(/A peak .* A rms/);
+    await page.screenshot({ path: shotPath('05-load-steps') });
+    // a long run, cancelled while it runs
+    const dur = '.view [data-path="scenario.duration_s"]';
+    const old = await page.inputValue(dur);
+    await page.fill(dur, '30');
+    await page.waitForFunction(() => !(document.querySelector('[data-testid="run"]') as HTMLButtonElement).disabled);
+    await page.waitForTimeout(100);
+    await page.click('[data-testid="run"]');
+    await page.waitForSelector('[data-testid="progress"]');
+    await page.click('[data-testid="cancel"]');
+    await page.waitForSelector('[data-testid="cancelled"]');
+    expect(await page.$('[data-testid="progress"]')).toBeNull();
+    expect(await page.isEnabled('[data-testid="run"]')).toBe(true);
+    await page.fill(dur, old);
+  });
+
+  it('screenshots every view at 1440x900, light and dark', async () => {
+    for (const [tab, name] of [
+      ['envelope', 'envelope'],
+      ['loadsteps', 'load-steps'],
+      ['tuning', 'tuning'],
+      ['datasheet', 'datasheet'],
+    ] as const) {
+      await page.click(`[data-testid="tab-${tab}"]`);
+      await page.waitForSelector(`[data-testid="view-${tab}"]`);
+      await page.waitForTimeout(300);
+      await page.screenshot({ path: shotPath(`view-${name}-light`) });
+    }
+    expect(await curvesDrawn('bode-plot').catch(() => 0)).toBe(0); // tuning view no longer mounted
+    await page.click('[data-testid="tab-tuning"]');
+    await page.waitForSelector('[data-testid="bode-plot"] .scatterlayer .trace');
+    expect(await curvesDrawn('bode-plot')).toBeGreaterThanOrEqual(4);
+    await page.click('[data-testid="theme-toggle"]');
+    for (const tab of ['envelope', 'tuning', 'datasheet'] as const) {
+      await page.click(`[data-testid="tab-${tab}"]`);
+      await page.waitForTimeout(300);
+      await page.screenshot({ path: shotPath(`view-${tab}-dark`) });
+    }
+    await page.click('[data-testid="theme-toggle"]');
+    await page.click('[data-testid="tab-datasheet"]');
+    await page.emulateMedia({ media: 'print' });
+    await page.screenshot({ path: shotPath('view-datasheet-print'), fullPage: true });
+    await page.emulateMedia({ media: 'screen' });
+    expect(await page.textContent('[data-testid="verdicts"]')).toMatch(/met/);
+  });
+
+  it('loads the other demos from the picker', async () => {
+    for (const demo of ['demo-spm-48v.json', 'demo-servo-axis.json', 'demo-ipm-traction.json']) {
+      const before = await perfCount();
+      await page.selectOption('[data-testid="demo-picker"]', demo);
+      await page.click('[data-testid="tab-envelope"]');
+      await page.waitForFunction((n) => (window.__twPerf ?? []).length >= n, before);
+      await page.waitForSelector('[data-testid="envelope-plot"] .scatterlayer .trace');
+      expect(await curvesDrawn('envelope-plot')).toBeGreaterThanOrEqual(8);
+      await page.screenshot({ path: shotPath(`06-demo-${demo.replace('.json', '')}`) });
+    }
+  });
+
+  it('logged no console errors', () => {
+    expect(consoleErrors).toEqual([]);
+  });
+});

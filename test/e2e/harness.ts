@@ -1,0 +1,84 @@
+// End-to-end harness: build the renderer once into a temporary folder, serve it from a tiny
+// static server on 127.0.0.1 (random port), and drive Debian's Chromium through playwright-core.
+import { createServer, type Server } from 'node:http';
+import { mkdtempSync, readFileSync, rmSync, statSync, mkdirSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { extname, join, normalize, resolve, sep } from 'node:path';
+import type { AddressInfo } from 'node:net';
+import { build } from 'vite';
+import { chromium, type Browser } from 'playwright-core';
+
+export const ROOT = resolve(__dirname, '..', '..');
+export const SHOTS = join(ROOT, 'test-results');
+
+export const CHROMIUM_ARGS = [
+  '--headless',
+  '--no-sandbox',
+  '--disable-gpu',
+  '--disable-background-networking',
+  '--disable-component-update',
+  '--disable-sync',
+  '--no-first-run',
+];
+
+const TYPES: Record<string, string> = {
+  '.html': 'text/html; charset=utf-8',
+  '.js': 'text/javascript; charset=utf-8',
+  '.mjs': 'text/javascript; charset=utf-8',
+  '.css': 'text/css; charset=utf-8',
+  '.json': 'application/json',
+  '.svg': 'image/svg+xml',
+  '.png': 'image/png',
+  '.woff2': 'font/woff2',
+};
+
+export async function buildRenderer(): Promise<string> {
+  const outDir = mkdtempSync(join(tmpdir(), 'torquewise-e2e-'));
+  await build({
+    configFile: join(ROOT, 'vite.web.config.ts'),
+    root: join(ROOT, 'src', 'renderer'),
+    logLevel: 'warn',
+    build: { outDir, emptyOutDir: true },
+  });
+  return outDir;
+}
+
+export function serve(dir: string): Promise<{ server: Server; url: string }> {
+  const base = resolve(dir);
+  const server = createServer((req, res) => {
+    const u = new URL(req.url ?? '/', 'http://127.0.0.1');
+    let rel = decodeURIComponent(u.pathname);
+    if (rel.endsWith('/')) rel += 'index.html';
+    const file = normalize(join(base, rel));
+    if (!file.startsWith(base + sep)) {
+      res.writeHead(403).end();
+      return;
+    }
+    try {
+      if (!statSync(file).isFile()) throw new Error('not a file');
+      res.writeHead(200, { 'content-type': TYPES[extname(file)] ?? 'application/octet-stream', 'cache-control': 'no-store' });
+      res.end(readFileSync(file));
+    } catch {
+      res.writeHead(404).end('not found');
+    }
+  });
+  return new Promise((ok) => {
+    server.listen(0, '127.0.0.1', () => {
+      const port = (server.address() as AddressInfo).port;
+      ok({ server, url: `http://127.0.0.1:${port}/` });
+    });
+  });
+}
+
+export function launch(): Promise<Browser> {
+  return chromium.launch({ executablePath: '/usr/bin/chromium', args: CHROMIUM_ARGS });
+}
+
+export function shotPath(name: string): string {
+  mkdirSync(SHOTS, { recursive: true });
+  return join(SHOTS, `${name}.png`);
+}
+
+export function cleanup(dir: string): void {
+  rmSync(dir, { recursive: true, force: true });
+}
