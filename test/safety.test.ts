@@ -1,0 +1,50 @@
+import { describe, expect, it } from 'vitest';
+import type { DqMachine, InverterSpec } from '../src/core/types';
+import { SAFETY_CAUTION, safetyReport } from '../src/core/safety';
+import { rpmToRadS } from '../src/core/units';
+import { InputError } from '../src/core/errors';
+
+// Invented test machine and inverter.
+const COLD: DqMachine = { polePairs: 4, Rs: 0.015, Ld: 0.12e-3, Lq: 0.3e-3, psiM: 0.05 };
+const INV: InverterSpec = { Vdc: 350, Imax: 400, Icont: 250, modulation: 'svpwm', voltageUtilization: 1, deviceDrop: 0 };
+
+describe('safety report', () => {
+  it('back-EMF, uncontrolled-generator speed and characteristic current by hand formula', () => {
+    const w = rpmToRadS(12000);
+    const r = safetyReport(COLD, INV, w);
+    // common practice (no source): line-to-line peak = sqrt(3) x phase peak = sqrt(3) p omega psiM
+    const emf = Math.sqrt(3) * 4 * w * 0.05; // 12000 rpm = 1256.6 rad/s -> 435.3 V
+    expect(r.backEmfLineLinePeak_V).toBeCloseTo(emf, 9);
+    expect(r.backEmfLineLinePeak_V).toBeCloseTo(435.28, 1);
+    expect(r.exceedsBus).toBe(true);
+    expect(r.uncontrolledGeneratorSpeed_rad_s).toBeCloseTo(350 / (Math.sqrt(3) * 4 * 0.05), 9);
+    expect(r.characteristicCurrent_A).toBeCloseTo(0.05 / 0.12e-3, 9);
+    expect(r.findings.find((f) => f.code === 'back-emf-above-bus')?.severity).toBe('danger');
+    expect(r.findings.some((f) => f.code === 'field-weakening-trip-braking')).toBe(false); // 416.7 A > 400 A
+    expect(r.findings.find((f) => f.code === 'short-circuit-current-above-imax')?.severity).toBe('warning');
+    expect(r.caution).toBe(SAFETY_CAUTION);
+    expect(r.caution).toMatch(/IEC 61800-5-1/);
+    expect(r.caution).toMatch(/local codes/);
+  });
+
+  it('below the bus: no danger; characteristic current below Imax warns of braking after a trip', () => {
+    const m = { ...COLD, psiM: 0.04 }; // psiM/Ld = 333 A < 400 A
+    const r = safetyReport(m, INV, rpmToRadS(6000));
+    expect(r.backEmfLineLinePeak_V).toBeCloseTo(Math.sqrt(3) * 4 * rpmToRadS(6000) * 0.04, 9);
+    expect(r.exceedsBus).toBe(false);
+    expect(r.findings.some((f) => f.severity === 'danger')).toBe(false);
+    expect(r.findings.find((f) => f.code === 'field-weakening-trip-braking')?.message).toMatch(/braking current/);
+  });
+
+  it('a reluctance machine makes no back-EMF', () => {
+    const r = safetyReport({ ...COLD, psiM: 0 }, INV, 1000);
+    expect(r.backEmfLineLinePeak_V).toBe(0);
+    expect(r.uncontrolledGeneratorSpeed_rad_s).toBeNull();
+    expect(r.exceedsBus).toBe(false);
+  });
+
+  it('rejects bad input', () => {
+    expect(() => safetyReport(COLD, INV, -1)).toThrow(InputError);
+    expect(() => safetyReport(COLD, { ...INV, Vdc: 0 }, 1)).toThrow(/inverter.Vdc/);
+  });
+});
