@@ -1,20 +1,26 @@
 // Builds the app once with electron-vite and checks what Electron will load: a CommonJS preload
 // (a sandboxed preload cannot load ES modules), the main bundle and every path it loads, and
 // the renderer page with its Content-Security-Policy meta tag.
+// It builds into a fresh temporary folder with the project's own config (electron-vite's
+// --outDir keeps the main/preload/renderer layout), so tests that read out/ at the same time
+// never see a half-written build.
 import { execFileSync } from 'node:child_process';
-import { existsSync, readFileSync } from 'node:fs';
+import { existsSync, mkdtempSync, readFileSync, rmSync } from 'node:fs';
+import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
-import { beforeAll, describe, expect, it } from 'vitest';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { cspMeta, parseCsp } from '../src/main/csp';
 import { PRELOAD_FROM_MAIN, RENDERER_FROM_MAIN } from '../src/main/paths';
 
 const root = resolve(__dirname, '..');
-const out = join(root, 'out');
+const out = mkdtempSync(join(tmpdir(), 'tw-build-'));
 const mainDir = join(out, 'main');
+
+afterAll(() => rmSync(out, { recursive: true, force: true }));
 
 beforeAll(() => {
   try {
-    execFileSync('npx', ['electron-vite', 'build'], { cwd: root, stdio: 'pipe', timeout: 120_000, env: { ...process.env, NODE_ENV: 'production' } });
+    execFileSync('npx', ['electron-vite', 'build', '--outDir', out], { cwd: root, stdio: 'pipe', timeout: 120_000, env: { ...process.env, NODE_ENV: 'production' } });
   } catch (e) {
     const err = e as { stderr?: Buffer; stdout?: Buffer };
     const tail = `${err.stdout?.toString() ?? ''}\n${err.stderr?.toString() ?? ''}`.replace(/\x1b\[[0-9;]*m/g, '').split('\n').filter((l) => l.trim()).slice(0, 12).join('\n');
@@ -22,7 +28,7 @@ beforeAll(() => {
   }
 }, 130_000);
 
-describe('built preload (out/preload/index.cjs)', () => {
+describe('built preload (preload/index.cjs)', () => {
   const file = join(out, 'preload', 'index.cjs');
   const src = () => readFileSync(file, 'utf8');
   it('exists', () => {
@@ -56,7 +62,7 @@ describe('built preload (out/preload/index.cjs)', () => {
   });
 });
 
-describe('built main (out/main/index.js)', () => {
+describe('built main (main/index.js)', () => {
   const file = join(mainDir, 'index.js');
   it('exists and imports only electron, Node built-ins and shipped dependencies', () => {
     const shipped = Object.keys((JSON.parse(readFileSync(join(root, 'package.json'), 'utf8')) as { dependencies: Record<string, string> }).dependencies);
@@ -75,7 +81,7 @@ describe('built main (out/main/index.js)', () => {
   });
 });
 
-describe('built renderer (out/renderer/index.html)', () => {
+describe('built renderer (renderer/index.html)', () => {
   it('carries the app Content-Security-Policy in a meta tag', () => {
     const html = readFileSync(join(out, 'renderer', 'index.html'), 'utf8');
     const m = html.match(/<meta\s+http-equiv=["']Content-Security-Policy["']\s+content=(?:"([^"]*)"|'([^']*)')/i);
@@ -92,5 +98,15 @@ describe('built renderer (out/renderer/index.html)', () => {
       if (s.startsWith('data:')) continue; // inline (e.g. an empty icon), nothing fetched
       expect(existsSync(resolve(out, 'renderer', s)), s).toBe(true);
     }
+  });
+});
+
+describe('the normal build writes to out/', () => {
+  it('the config sends each target to out/<target> and package.json starts out/main/index.js', () => {
+    const cfg = readFileSync(join(root, 'electron.vite.config.ts'), 'utf8');
+    for (const t of ['main', 'preload', 'renderer']) expect(cfg).toContain(`outDir: 'out/${t}'`);
+    expect(cfg).toContain("formats: ['cjs'], fileName: () => 'index.cjs'");
+    const pkg = JSON.parse(readFileSync(join(root, 'package.json'), 'utf8')) as { main: string };
+    expect(pkg.main).toBe('./out/main/index.js');
   });
 });
