@@ -11,10 +11,6 @@ import { envelopeCsv } from './exports';
 import { dataUrlToBytes, fileBridge, svgDataUrlToText } from './file-bridge';
 import { amps, num, rpm } from './format';
 
-export const SAFETY_TEXT =
-  'High DC-bus voltage and back-EMF can kill. A spinning permanent-magnet motor generates voltage at its terminals whether or not the inverter runs. ' +
-  'Work on drives only as local codes and licensed practice allow, and follow the drive-safety standard IEC 61800-5-1.';
-
 function peakOf(a: Float64Array, feasible: Uint8Array): number {
   let best = 0;
   for (let k = 0; k < a.length; k++) if (feasible[k] && Math.abs(a[k]!) > Math.abs(best)) best = a[k]!;
@@ -22,7 +18,8 @@ function peakOf(a: Float64Array, feasible: Uint8Array): number {
 }
 
 /** Findings that must carry the safety caution wherever they are shown. */
-export const isHazard = (f: Finding): boolean => f.severity === 'danger' || /uncontrolled|demagnet|back-?emf|exceeds/i.test(f.code + ' ' + f.message);
+export const isHazard = (f: Finding): boolean =>
+  f.severity === 'danger' || (f.severity === 'warning' && /demagnet|uncontrolled|braking|back-emf/i.test(f.code));
 
 export function Cautions({ results, testId, hazardsOnly, compact }: { results: Results; testId?: string; hazardsOnly?: boolean; compact?: boolean }) {
   const s = results.safety;
@@ -30,13 +27,9 @@ export function Cautions({ results, testId, hazardsOnly, compact }: { results: R
   const hazards = findings.filter(isHazard);
   return (
     <div data-testid={testId}>
-      {(hazards.length > 0 || s.exceedsBus) && (
+      {hazards.length > 0 && (
         <div className={compact ? 'caution compact' : 'caution'} role="alert">
-          <strong>Caution.</strong>{' '}
-          {s.exceedsBus
-            ? `At ${rpm(results.speedMax)} the open-circuit back-EMF of the cold motor reaches ${num(s.backEmfLineLinePeak_V)} V line-to-line peak, above the ${num(results.project.inverter.Vdc)} V bus: if gating stops above ${rpm(s.uncontrolledGeneratorSpeed_rad_s)} the diodes rectify into the bus (uncontrolled generator). `
-            : ''}
-          {hazards.map((h) => h.message).join(' ')} {SAFETY_TEXT}
+          <strong>Caution.</strong> {hazards.map((h) => h.message).join(' ')} {s.caution}
         </div>
       )}
       {!hazardsOnly &&
@@ -54,7 +47,7 @@ export function Cautions({ results, testId, hazardsOnly, compact }: { results: R
 export function DatasheetView({ results, theme }: { results: Results; theme: 'light' | 'dark' }) {
   const plotEl = useRef<HTMLDivElement | null>(null);
   const p = results.project;
-  const fig = useMemo(() => torqueSpeedFigure(results, theme, { peak: true, continuous: true, hot: true, cold: true, generating: true }, false), [results, theme]);
+  const fig = useMemo(() => torqueSpeedFigure(results, theme, { peak: true, continuous: true, hot: true, cold: true, generating: true }, false, 330), [results, theme]);
   const peakHot = results.main;
   const contHot = results.curves.find((c) => c.key === 'continuous-hot-motoring')!.env;
   const c = results.constantsHot;
@@ -84,8 +77,8 @@ export function DatasheetView({ results, theme }: { results: Results; theme: 'li
     ['continuous power (hot)', `${num(peakOf(contHot.power, contHot.feasible) / 1000)} kW`],
     ['least Imax for all points', results.sizing.minImax === null || !Number.isFinite(results.sizing.minImax) ? 'no current meets all points' : amps(results.sizing.minImax)],
     ['least Vdc for all points', results.sizing.minVdc === null || !Number.isFinite(results.sizing.minVdc) ? '–' : `${num(results.sizing.minVdc)} V`],
-    ['back-EMF at plot end, cold', `${num(s.backEmfLineLinePeak_V)} V line-line peak at ${rpm(results.speedMax)}`],
-    ['uncontrolled-generator speed, cold', rpm(s.uncontrolledGeneratorSpeed_rad_s)],
+    ['open-circuit back-EMF, cold', `${num(s.backEmfLineLinePeak_V)} V line-line peak at ${rpm(results.safetySpeed)} (${p.rated.maxSpeed_rad_s !== undefined ? 'rated maximum speed' : 'plot end'}), bus ${num(p.inverter.Vdc)} V`],
+    ['uncontrolled-generator speed, cold', s.uncontrolledGeneratorSpeed_rad_s === null ? 'none (no magnet flux)' : rpm(s.uncontrolledGeneratorSpeed_rad_s)],
   ];
   return (
     <div data-testid="view-datasheet">
@@ -100,7 +93,7 @@ export function DatasheetView({ results, theme }: { results: Results; theme: 'li
         <span className="hint">hot corner: winding {p.conditions.windingTemp_C} °C, magnet {p.conditions.magnetTemp_C} °C; cold corner {p.conditions.coldTemp_C} °C</span>
       </div>
       <Cautions results={results} testId="datasheet-cautions" />
-      <div className="caution print-only">{SAFETY_TEXT}</div>
+      <div className="caution print-only">{s.caution}</div>
       <div className="cols">
         <div className="card">
           <h4>Summary</h4>

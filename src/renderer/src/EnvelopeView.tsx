@@ -42,7 +42,7 @@ export function regionRuns(r: Results): Array<{ region: keyof typeof REGION_NAME
   return runs;
 }
 
-export function torqueSpeedFigure(r: Results, theme: 'light' | 'dark', show: Show, withPower: boolean): { data: Data[]; layout: Layout } {
+export function torqueSpeedFigure(r: Results, theme: 'light' | 'dark', show: Show, withPower: boolean, plotWidth_px = 460): { data: Data[]; layout: Layout } {
   const t = readTheme();
   const col = CURVE[theme];
   const data: Data[] = [];
@@ -64,7 +64,7 @@ export function torqueSpeedFigure(r: Results, theme: 'light' | 'dark', show: Sho
         }
         const e = c.env;
         for (let k = 0; k < e.speed.length; k++) {
-          if (!e.feasible[k] && k > 0 && !e.feasible[k - 1]) continue;
+          if (!e.feasible[k]) continue;
           x.push(e.speed[k]! * RAD_S_TO_RPM);
           yT.push(e.torque[k]!);
           yP.push(e.power[k]! / 1000);
@@ -121,7 +121,7 @@ export function torqueSpeedFigure(r: Results, theme: 'light' | 'dark', show: Sho
     .filter((run) => run.x1 - run.x0 > 0.025 * top_rpm)
     .map((run) => {
       const text = REGION_NAME[run.region];
-      const across = (run.x1 - run.x0) / top_rpm > (text.length * 6.5 + 10) / 460;
+      const across = (run.x1 - run.x0) / top_rpm > (text.length * 6.5 + 10) / plotWidth_px;
       return {
         x: (run.x0 + run.x1) / 2,
         y: 0.995,
@@ -148,7 +148,7 @@ export function torqueSpeedFigure(r: Results, theme: 'light' | 'dark', show: Sho
       xref: 'x',
       yref: 'paper',
       yanchor: 'bottom',
-      xanchor: label === 'base' ? 'right' : 'left',
+      xanchor: x < 0.5 * top_rpm ? 'left' : 'right',
       text: `${label} speed ${Math.round(x)} rpm`,
       showarrow: false,
       font: { size: 11, color: t.ink },
@@ -159,7 +159,7 @@ export function torqueSpeedFigure(r: Results, theme: 'light' | 'dark', show: Sho
     margin: { l: 70, r: 16, t: 34, b: 40 },
     hovermode: 'closest',
     showlegend: true,
-    legend: { orientation: 'h', x: 0, y: -0.09, font: { size: 11 } },
+    legend: { orientation: 'h', x: 0, y: withPower ? -0.1 : -0.2, font: { size: 11 } },
     xaxis: axis(t, withPower ? '' : xTitle, { range: [0, r.speedMax * RAD_S_TO_RPM], anchor: withPower ? 'y2' : 'y', showticklabels: true }),
     yaxis: axis(t, 'torque, N·m', withPower ? { domain: [0.45, 1] } : {}),
     ...(withPower ? { yaxis2: axis(t, 'mechanical power, kW', { domain: [0, 0.37] }) } : {}),

@@ -205,7 +205,7 @@ export function LoadStepsView({ project, theme, stale }: { project: ResolvedProj
                 Traces — {result.project}
                 <span style={{ fontWeight: 400, fontSize: 12, marginLeft: 10 }}>shaded: voltage saturation (amber), current limit (red)</span>
               </h4>
-              {fig && <Plot data={fig.data} layout={fig.layout} height={760} testId="traces-plot" />}
+              {fig && <Plot data={fig.data} layout={fig.layout} height={660} testId="traces-plot" />}
             </div>
             <div className="cols">
               <div className="card">

@@ -30,9 +30,10 @@ export function bodeFigure(rep: TuningReport, theme: 'light' | 'dark'): { data: 
   const data: Data[] = [];
   const shapes: Record<string, unknown>[] = [];
   const annotations: Record<string, unknown>[] = [];
-  for (const l of loops(rep, theme)) {
+  for (const l of [...loops(rep, theme)].reverse()) {
     const b = l.rep.bode;
-    data.push({ type: 'scatter', mode: 'lines', x: b.f_Hz, y: b.mag_dB, name: l.name, legendgroup: l.key, line: { color: l.colour, width: 2 }, hovertemplate: `${l.name}<br>%{x:.4g} Hz, %{y:.3g} dB<extra></extra>` });
+    const ln = { color: l.colour, width: l.key === 'current-d' ? 2.6 : 2, dash: l.key === 'current-d' ? 'dash' : 'solid' };
+    data.push({ type: 'scatter', mode: 'lines', x: b.f_Hz, y: b.mag_dB, name: l.name, legendgroup: l.key, line: ln, hovertemplate: `${l.name}<br>%{x:.4g} Hz, %{y:.3g} dB<extra></extra>` });
     data.push({
       type: 'scatter',
       mode: 'lines',
@@ -42,7 +43,7 @@ export function bodeFigure(rep: TuningReport, theme: 'light' | 'dark'): { data: 
       name: l.name,
       legendgroup: l.key,
       showlegend: false,
-      line: { color: l.colour, width: 2 },
+      line: ln,
       hovertemplate: `${l.name}<br>%{x:.4g} Hz, %{y:.4g}°<extra></extra>`,
     });
     const fc = l.rep.crossover_Hz;
@@ -62,8 +63,9 @@ export function bodeFigure(rep: TuningReport, theme: 'light' | 'dark'): { data: 
   const layout = baseLayout(t, {
     margin: { l: 70, r: 20, t: 20, b: 50 },
     hovermode: 'closest',
-    xaxis: axis(t, 'frequency, Hz', { type: 'log', anchor: 'y2' }),
+    xaxis: axis(t, 'frequency, Hz', { type: 'log', anchor: 'y2', dtick: 1, exponentformat: 'SI' }),
     yaxis: axis(t, 'open-loop gain, dB', { domain: [0.55, 1] }),
+    // the x axis is shared: gain on top, phase below
     yaxis2: axis(t, 'open-loop phase, degrees', { domain: [0, 0.45], dtick: 90 }),
     legend: { orientation: 'h', x: 0, y: -0.12 },
     shapes,
@@ -112,31 +114,29 @@ export function TuningView({ project, theme }: { project: ResolvedProject; theme
               <table className="data" data-testid="tuning-table">
                 <thead>
                   <tr>
-                    <th>loop</th>
-                    <th className="num">Kp</th>
-                    <th className="num">Ki</th>
-                    <th className="num">aimed, Hz</th>
-                    <th className="num">bandwidth, Hz</th>
-                    <th className="num">crossover, Hz</th>
-                    <th className="num">phase margin</th>
-                    <th className="num">gain margin</th>
+                    <th />
+                    {loops(tuned.rep, theme).map((l) => (
+                      <th key={l.key} className="num">{l.name}</th>
+                    ))}
                   </tr>
                 </thead>
                 <tbody>
-                  {loops(tuned.rep, theme).map((l) => (
-                    <tr key={l.key}>
-                      <td>{l.name}</td>
-                      <td className="num">
-                        {num(l.rep.Kp)} {l.kpUnit}
-                      </td>
-                      <td className="num">
-                        {num(l.rep.Ki)} {l.kiUnit}
-                      </td>
-                      <td className="num">{num(l.rep.design_Hz)}</td>
-                      <td className="num">{num(l.rep.bandwidth_Hz)}</td>
-                      <td className="num">{num(l.rep.crossover_Hz)}</td>
-                      <td className="num">{l.rep.phaseMargin_deg === null ? '–' : `${num(l.rep.phaseMargin_deg, 3)}°`}</td>
-                      <td className="num">{l.rep.gainMargin_dB === null ? '–' : `${num(l.rep.gainMargin_dB, 3)} dB`}</td>
+                  {(
+                    [
+                      ['Kp', (l: Loop) => `${num(l.rep.Kp)} ${l.kpUnit}`],
+                      ['Ki', (l: Loop) => `${num(l.rep.Ki)} ${l.kiUnit}`],
+                      ['aimed bandwidth', (l: Loop) => `${num(l.rep.design_Hz)} Hz`],
+                      ['closed-loop bandwidth (−3 dB)', (l: Loop) => (l.rep.bandwidth_Hz === null ? '–' : `${num(l.rep.bandwidth_Hz)} Hz`)],
+                      ['gain crossover', (l: Loop) => (l.rep.crossover_Hz === null ? '–' : `${num(l.rep.crossover_Hz)} Hz`)],
+                      ['phase margin', (l: Loop) => (l.rep.phaseMargin_deg === null ? '–' : `${num(l.rep.phaseMargin_deg, 3)}°`)],
+                      ['gain margin', (l: Loop) => (l.rep.gainMargin_dB === null ? '–' : `${num(l.rep.gainMargin_dB, 3)} dB`)],
+                    ] as Array<[string, (l: Loop) => string]>
+                  ).map(([label, f]) => (
+                    <tr key={label}>
+                      <td>{label}</td>
+                      {loops(tuned.rep!, theme).map((l) => (
+                        <td key={l.key} className="num" data-cell={`${l.key}:${label}`}>{f(l)}</td>
+                      ))}
                     </tr>
                   ))}
                 </tbody>

@@ -3,8 +3,8 @@
 import type { ResolvedProject } from '../../core/project';
 import { computeEnvelope, type Envelope } from '../../core/envelope';
 import { mtpaCurrents, mtpvPoint, currentOnVoltageBoundary } from '../../core/mtpa';
-import { sizeDrive } from './pending-core';
-import { safetyReport } from './pending-core';
+import { sizeDrive, type SizingResult } from '../../core/sizing';
+import { safetyReport, type SafetyReport } from '../../core/safety';
 import { deriveConstants } from '../../core/nameplate';
 import { RPM_TO_RAD_S } from '../../core/units';
 import type { DqMachine } from '../../core/types';
@@ -36,8 +36,10 @@ export interface Results {
   curves: Curve[];
   /** the reference curve: hot magnet, peak current, motoring */
   main: Envelope;
-  sizing: ReturnType<typeof sizeDrive>;
-  safety: ReturnType<typeof safetyReport>;
+  sizing: SizingResult;
+  safety: SafetyReport;
+  /** the speed the safety figures are for: the motor's rated maximum speed, else the plotted top speed, rad/s */
+  safetySpeed: number;
   constantsHot: ReturnType<typeof deriveConstants>;
   constantsCold: ReturnType<typeof deriveConstants>;
   compute_ms: number;
@@ -49,14 +51,14 @@ export function computeResults(p: ResolvedProject, opts: EnvelopeOptions): Resul
   const t0 = performance.now();
   let speedMax = opts.speedMax;
   if (speedMax === null) {
+    // the engine's range for the hot, peak, motoring envelope (just past its maximum speed, or
+    // 4 x base speed when unbounded), widened to every requirement point and the motor's rated
+    // maximum speed
     const probe = computeEnvelope(p.hot, p.peak, { points: 2, direction: 'motoring' });
     speedMax = probe.speed[probe.speed.length - 1]!;
-    // the cold magnet reaches further: show its end too
-    const cold = computeEnvelope(p.cold, p.peak, { points: 2, direction: 'motoring' });
-    speedMax = Math.max(speedMax, cold.speed[cold.speed.length - 1]!);
-    // and every requirement point and the motor's rated maximum speed
-    for (const q of p.requirements) speedMax = Math.max(speedMax, 1.08 * q.speed_rpm * RPM_TO_RAD_S);
-    if (p.rated.maxSpeed_rad_s !== undefined) speedMax = Math.max(speedMax, 1.05 * p.rated.maxSpeed_rad_s);
+    const wanted = Math.max(0, ...p.requirements.map((q) => 1.08 * q.speed_rpm * RPM_TO_RAD_S), 1.05 * (p.rated.maxSpeed_rad_s ?? 0));
+    if (wanted > 0 && p.rated.maxSpeed_rad_s !== undefined) speedMax = Math.min(speedMax, wanted);
+    speedMax = Math.max(speedMax, wanted);
   }
   const curves: Curve[] = [];
   for (const current of ['peak', 'continuous'] as const) {
@@ -71,8 +73,8 @@ export function computeResults(p: ResolvedProject, opts: EnvelopeOptions): Resul
   }
   const main = curves.find((c) => c.key === curveKey('hot', 'peak', 'motoring'))!.env;
   const sizing = sizeDrive(p.hot, p.inverter, p.requirements);
-  const overspeed = Math.max(speedMax, main.maxSpeed ?? 0);
-  const safety = safetyReport(p.cold, p.inverter, overspeed);
+  const safetySpeed = p.rated.maxSpeed_rad_s ?? speedMax;
+  const safety = safetyReport(p.cold, p.inverter, safetySpeed);
   return {
     project: p,
     speedMax,
@@ -81,6 +83,7 @@ export function computeResults(p: ResolvedProject, opts: EnvelopeOptions): Resul
     main,
     sizing,
     safety,
+    safetySpeed,
     constantsHot: deriveConstants(p.hot),
     constantsCold: deriveConstants(p.cold),
     compute_ms: performance.now() - t0,
