@@ -15,8 +15,8 @@
  * dq with the rotor angle of the state; `inputFrame: 'dq'` holds it constant in dq instead (used
  * for open-loop steady-state checks).
  *
- * The sign of the Coulomb friction is smoothed as tanh(omega / w) with a width w chosen so that the
- * friction term is not stiff at the control period (see `coulombWidth`).
+ * The sign of the Coulomb friction is smoothed as x / sqrt(1 + x²), x = omega / w, with a width w
+ * chosen so that the friction term is not stiff at the control period (see `coulombWidth`).
  */
 import type { DqMachine } from './types';
 import { InputError } from './errors';
@@ -121,7 +121,7 @@ export interface PlantParams {
 }
 
 /**
- * Width of tanh(omega/w) replacing sgn(omega): the larger of 1e-3 rad/s and 2·T_c·Ts/J, so that
+ * Width w of the smoothed sign x/sqrt(1 + x²), x = omega/w, replacing sgn(omega): the larger of 1e-3 rad/s and 2·T_c·Ts/J, so that
  * the friction's slope T_c/(J w) times the period stays at or below 0.5 (not stiff for an explicit
  * Runge-Kutta step of one period).
  */
@@ -155,57 +155,82 @@ export class Plant {
    * Load level as loadA + loadB·t over the current integration segment (see `setLoadSegment`);
    * while `segmented` is false the derivative looks the schedule up at each call instead.
    */
-  loadA = 0;
-  loadB = 0;
+  loadA = 0.5;
+  loadB = 0.5;
   segmented = false;
+  /** the derivative as a function value (dydt, y, t), for integrators that take one */
   readonly deriv: (dydt: Float64Array, y: Float64Array, t: number) => void;
+  // constants of the derivative, as plain double fields
+  private readonly p: number;
+  private readonly Rs: number;
+  private readonly Ld: number;
+  private readonly Lq: number;
+  private readonly psiM: number;
+  private readonly invLd: number;
+  private readonly invLq: number;
+  private readonly invJ: number;
+  private readonly B: number;
+  private readonly Tc: number;
+  private readonly invW: number;
+  private readonly k2: number;
+  private readonly free: boolean;
+  private readonly ab: boolean;
 
   constructor(params: PlantParams) {
     validatePlant(params);
     this.params = params;
-    const { polePairs: p, Rs, Ld, Lq, psiM } = params.machine;
-    const invLd = 1 / Ld;
-    const invLq = 1 / Lq;
-    const invJ = 1 / params.inertia;
-    const B = params.viscousFriction;
-    const Tc = params.coulombFriction;
-    const invW = 1 / params.coulombWidth_rad_s;
-    const load = params.load;
-    const k2 = load.quadraticK;
-    const free = params.mechanics === 'free';
-    const ab = params.inputFrame === 'alpha-beta';
+    const m = params.machine;
+    this.p = m.polePairs;
+    this.Rs = m.Rs;
+    this.Ld = m.Ld;
+    this.Lq = m.Lq;
+    this.psiM = m.psiM;
+    this.invLd = 1 / m.Ld;
+    this.invLq = 1 / m.Lq;
+    this.invJ = 1 / params.inertia;
+    this.B = params.viscousFriction;
+    this.Tc = params.coulombFriction;
+    this.invW = 1 / params.coulombWidth_rad_s;
+    this.k2 = params.load.quadraticK;
+    this.free = params.mechanics === 'free';
+    this.ab = params.inputFrame === 'alpha-beta';
+    this.deriv = (dydt, y, t) => this.derivInto(dydt, y, t);
+  }
+
+  /** dy/dt of the state y at time t into dydt (a prototype method: one call target for every plant). */
+  derivInto(dydt: Float64Array, y: Float64Array, t: number): void {
+    this.evaluations++;
     const u = this.input;
-    const kT = 1.5 * p;
-    const dL = Ld - Lq;
-    this.deriv = (dydt: Float64Array, y: Float64Array, t: number): void => {
-      this.evaluations++;
-      const id = y[0]!;
-      const iq = y[1]!;
-      const w = y[2]!;
-      let vd: number;
-      let vq: number;
-      if (ab) {
-        const c = Math.cos(y[3]!);
-        const s = Math.sin(y[3]!);
-        vd = u[0]! * c + u[1]! * s;
-        vq = -u[0]! * s + u[1]! * c;
-      } else {
-        vd = u[0]!;
-        vq = u[1]!;
-      }
-      const we = p * w;
-      dydt[0] = (vd - Rs * id + we * Lq * iq) * invLd;
-      dydt[1] = (vq - Rs * iq - we * (Ld * id + psiM)) * invLq;
-      if (free) {
-        const Te = kT * (psiM * iq + dL * id * iq);
-        const TL = (this.segmented ? this.loadA + this.loadB * t : loadLevel(load, t)) + k2 * w * Math.abs(w);
-        dydt[2] = (Te - B * w - (Tc > 0 ? Tc * Math.tanh(w * invW) : 0) - TL) * invJ;
-      } else {
-        dydt[2] = 0;
-      }
-      dydt[3] = we;
-      dydt[4] = 1.5 * (vd * id + vq * iq);
-    };
+    const id = y[0]!;
+    const iq = y[1]!;
+    const w = y[2]!;
+    let vd: number;
+    let vq: number;
+    if (this.ab) {
+      const c = Math.cos(y[3]!);
+      const s = Math.sin(y[3]!);
+      vd = u[0]! * c + u[1]! * s;
+      vq = -u[0]! * s + u[1]! * c;
+    } else {
+      vd = u[0]!;
+      vq = u[1]!;
+    }
+    const we = this.p * w;
+    const Ld = this.Ld;
+    const Lq = this.Lq;
+    dydt[0] = (vd - this.Rs * id + we * Lq * iq) * this.invLd;
+    dydt[1] = (vq - this.Rs * iq - we * (Ld * id + this.psiM)) * this.invLq;
+    if (this.free) {
+      const Te = 1.5 * this.p * (this.psiM * iq + (Ld - Lq) * id * iq);
+      const TL = (this.segmented ? this.loadA + this.loadB * t : loadLevel(this.params.load, t)) + this.k2 * w * Math.abs(w);
+      const Tc = this.Tc;
+      const x = w * this.invW;
+      dydt[2] = (Te - this.B * w - (Tc > 0 ? (Tc * x) / Math.sqrt(1 + x * x) : 0) - TL) * this.invJ;
+    } else {
+      dydt[2] = 0;
+    }
+    dydt[3] = we;
+    dydt[4] = 1.5 * (vd * id + vq * iq);
   }
 
   /**

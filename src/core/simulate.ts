@@ -209,6 +209,23 @@ class Rk4 {
   }
 }
 
+// The derivative and error-scale callbacks handed to the integrator: module-level functions that
+// read the running simulation's plant and floors (runSimulation is synchronous; it saves and
+// restores them, so a nested run from a progress callback is safe).
+let activePlant: Plant | null = null;
+let activeFloors: Float64Array = new Float64Array(STATE_SIZE_);
+function plantDeriv(dydt: Float64Array, y: Float64Array, t: number): void {
+  activePlant!.derivInto(dydt, y, t);
+}
+/** error scale |y| + |dt·dy/dt| plus an absolute floor per state (ode45-cash-karp's default has none) */
+function floorErrorScale(i: number, dt: number, y: number, dydt: number): number {
+  return activeFloors[i]! + Math.abs(y) + Math.abs(dt * dydt);
+}
+function maxReduce(_i: number, acc: number, e: number): number {
+  const a = e < 0 ? -e : e;
+  return a > acc ? a : acc;
+}
+
 function median(hist: Uint32Array): number {
   let total = 0;
   for (let i = 0; i < hist.length; i++) total += hist[i]!;
@@ -245,18 +262,22 @@ export function runSimulation(setup: SimulationSetup, opts: RunOptions = {}): Si
   y[THETA] = setup.initialTheta_rad;
   ctrl.reset(y[OMEGA]!, y[THETA]!);
   const floors = errorFloors(setup);
-  const errorScale = (i: number, dt: number, yi: Float64Array | number[], dydt: Float64Array | number[]): number =>
-    floors[i]! + Math.abs(yi as unknown as number) + Math.abs(dt * (dydt as unknown as number));
   const useCk = setup.solver.method === 'cash-karp';
+  // module-level call targets (the same functions for every run, so the engine can inline them)
+  const prevPlant = activePlant;
+  const prevFloors = activeFloors;
+  activePlant = plant;
+  activeFloors = floors;
   const integ = useCk
-    ? ode45(y, plant.deriv as (d: Float64Array | number[], y: Float64Array | number[], t: number) => void, 0, Ts, {
+    ? ode45(y, plantDeriv as never, 0, Ts, {
         tol: setup.solver.tol,
         dtMaxMag: Ts,
-        errorScaleFunction: errorScale as never,
+        errorScaleFunction: floorErrorScale as never,
+        errorReduceFunction: maxReduce,
         verbose: false,
       })
     : null;
-  const rk4 = useCk ? null : new Rk4(plant.deriv);
+  const rk4 = useCk ? null : new Rk4(plantDeriv);
   const sub = Math.max(1, Math.round(setup.solver.rk4Substeps));
 
   // traces at every period start plus the end
@@ -309,7 +330,8 @@ export function runSimulation(setup: SimulationSetup, opts: RunOptions = {}): Si
   let k = 0;
   let nRec = 0;
   let stopped = false;
-  const record = (idx: number, t: number): void => {
+  const record = (idx: number): void => {
+    const t = idx * Ts;
     const id = y[I_D]!, iq = y[I_Q]!, w = y[OMEGA]!, th = y[THETA]!;
     const c = Math.cos(th), s = Math.sin(th);
     const ia = id * c - iq * s;
@@ -340,7 +362,7 @@ export function runSimulation(setup: SimulationSetup, opts: RunOptions = {}): Si
     const t0 = k * Ts;
     const t1 = (k + 1) * Ts;
     ctrl.step(t0, y[I_D]!, y[I_Q]!, y[OMEGA]!, y[THETA]!, vab);
-    record(k, t0);
+    record(k);
     nRec = k + 1;
     const i2 = y[I_D]! * y[I_D]! + y[I_Q]! * y[I_Q]!;
     if (i2 > peakI2) peakI2 = i2;
@@ -448,9 +470,11 @@ export function runSimulation(setup: SimulationSetup, opts: RunOptions = {}): Si
     }
   }
   const periods = k;
+  activePlant = prevPlant;
+  activeFloors = prevFloors;
   // final sample (the state at the end) unless a divergence left it non-finite
   if (!stopped || Number.isFinite(y[I_D]! + y[I_Q]! + y[OMEGA]! + y[THETA]!)) {
-    if (nRec < cap) { record(nRec, periods * Ts); nRec++; }
+    if (nRec < cap) { record(nRec); nRec++; }
   }
   const tLast = nRec > 0 ? tT[nRec - 1]! : 0;
   if (curStart >= 0) closeInterval('current-limit', curStart, tLast, curCount++);

@@ -1,9 +1,13 @@
 import type { Command } from '../command';
 import { envelopeCommand } from './envelope';
 import { pointCommand } from './point';
+import { simulateCommand } from './simulate';
+import { tuneCommand } from './tune';
 
 /** Every command of the CLI, in the order `help` lists them. Add a command by importing it here. */
 export const COMMANDS: Command[] = [
   envelopeCommand,
   pointCommand,
+  simulateCommand,
+  tuneCommand,
 ];

@@ -1,0 +1,92 @@
+import type { Command } from '../command';
+import { stringFlag } from '../args';
+import { table, fmt } from '../table';
+import { runSimulation, simulationFromProject, TRACE_NAMES } from '../../core/simulate';
+import type { SimulationResult } from '../../core/simulate';
+import { peakToRms } from '../../core/units';
+
+const JSON_METRICS = [
+  'finalSpeed_rpm', 'speedOvershoot_pct', 'riseTime_s', 'settlingTime_s', 'loadStepDip_rpm', 'loadStepRecovery_s',
+  'peakCurrent_A', 'rmsCurrent_A', 'voltageSaturation_s',
+] as const;
+const JSON_TRACES = ['t_s', 'speed_rpm', 'torque_Nm', 'id_A', 'iq_A', 'vd_V', 'vq_V', 'ia_A', 'ib_A', 'ic_A'] as const;
+
+/** The simulate command's JSON document (the shape of issue 3 §5; traces as plain arrays). */
+export function simulationJson(r: SimulationResult) {
+  const metrics: Record<string, number | null> = {};
+  for (const k of JSON_METRICS) metrics[k] = r.metrics[k];
+  const traces: Record<string, number[]> = {};
+  for (const k of JSON_TRACES) traces[k] = Array.from(r.traces[k]);
+  return {
+    metrics,
+    traces,
+    events: r.events.map((e) => ({ ...e })),
+    stats: { controlSteps: r.stats.controlSteps, rhsEvaluations: r.stats.rhsEvaluations, wall_s: r.stats.wall_s },
+  };
+}
+
+const CSV_HEADER: Record<string, string> = {
+  t_s: 't_s', speedRef_rpm: 'speed_ref_rpm', speed_rpm: 'speed_rpm', torque_Nm: 'torque_Nm', loadTorque_Nm: 'load_torque_Nm',
+  idRef_A: 'id_ref_A_peak', iqRef_A: 'iq_ref_A_peak', id_A: 'id_A_peak', iq_A: 'iq_A_peak', vd_V: 'vd_V_peak', vq_V: 'vq_V_peak',
+  vNorm: 'v_over_vmax', ia_A: 'ia_A', ib_A: 'ib_A', ic_A: 'ic_A', pDc_W: 'p_dc_W',
+};
+
+export function simulationCsv(r: SimulationResult): string {
+  const lines = [TRACE_NAMES.map((n) => CSV_HEADER[n]).join(',')];
+  const n = r.traces.t_s.length;
+  for (let i = 0; i < n; i++) lines.push(TRACE_NAMES.map((c) => Number(r.traces[c][i]!.toPrecision(10))).join(','));
+  return lines.join('\n') + '\n';
+}
+
+const orDash = (x: number | null, digits = 4): string => (x === null ? '-' : fmt(x, digits));
+
+export const simulateCommand: Command = {
+  name: 'simulate',
+  summary: 'cascade simulation of the scenario: metrics, events, traces',
+  usage: 'simulate <project.json> [--csv FILE] [--json]',
+  flags: { csv: 'string' },
+  run(p, args) {
+    const setup = simulationFromProject(p);
+    const r = runSimulation(setup);
+    const m = r.metrics;
+    const c = setup.controller;
+    const csv = stringFlag(args, 'csv');
+    const rows: Array<[string, string, string]> = [
+      ['final speed', orDash(m.finalSpeed_rpm), 'rpm'],
+      ['speed overshoot', orDash(m.speedOvershoot_pct), '%'],
+      ['rise time 10-90 %', orDash(m.riseTime_s === null ? null : m.riseTime_s * 1e3), 'ms'],
+      ['settling time 2 %', orDash(m.settlingTime_s === null ? null : m.settlingTime_s * 1e3), 'ms'],
+      ['load-step speed dip', orDash(m.loadStepDip_rpm), 'rpm'],
+      ['load-step recovery', orDash(m.loadStepRecovery_s === null ? null : m.loadStepRecovery_s * 1e3), 'ms'],
+      ['steady-state speed error', orDash(m.steadyStateError_rpm), 'rpm'],
+      ['peak phase current', m.peakCurrent_A === null ? '-' : `${fmt(m.peakCurrent_A)} (${fmt(peakToRms(m.peakCurrent_A))} rms)`, 'A peak'],
+      ['rms phase current', m.rmsCurrent_A === null ? '-' : `${fmt(m.rmsCurrent_A)} (${fmt(m.rmsCurrent_A * Math.SQRT2)} peak)`, 'A rms'],
+      ['time in voltage saturation', orDash(m.voltageSaturation_s === null ? null : m.voltageSaturation_s * 1e3), 'ms'],
+      ['energy from the DC link', orDash(m.energyFromBus_J), 'J'],
+    ];
+    const lines = [
+      `${p.name}: ${c.mode} control at ${fmt(1 / c.Ts)} Hz, delay ${c.delaySamples} period(s), anti-windup ${c.antiWindup}, ` +
+        `${setup.duration_s} s simulated, hot corner`,
+      `current PI d: Kp ${fmt(c.currentD.Kp)} V/A, Ki ${fmt(c.currentD.Ki)} V/(A·s); q: Kp ${fmt(c.currentQ.Kp)} V/A, Ki ${fmt(c.currentQ.Ki)} V/(A·s)` +
+        (c.mode === 'speed' ? `; speed PI: Kp ${fmt(c.speed.Kp)} N·m·s/rad, Ki ${fmt(c.speed.Ki)} N·m/rad` : ''),
+      '',
+      table(['metric', 'value', 'unit'], rows),
+      '',
+    ];
+    if (r.events.length === 0) lines.push('events: none');
+    else {
+      lines.push('events:');
+      const shown = r.events.slice(0, 30);
+      lines.push(table(['kind', 'from ms', 'to ms', 'what'], shown.map((e) => [e.kind, fmt(e.t_s * 1e3), e.tEnd_s === undefined ? '-' : fmt(e.tEnd_s * 1e3), e.message])));
+      if (r.events.length > shown.length) lines.push(`... ${r.events.length - shown.length} more (see --json)`);
+    }
+    if (r.diagnostic) lines.push('', `stopped: ${r.diagnostic}`);
+    lines.push('', `${r.stats.controlSteps} control periods, ${r.stats.rhsEvaluations} derivative evaluations ` +
+      `(median ${r.stats.evaluationsPerPeriod} per period), ${fmt(r.stats.wall_s * 1e3)} ms wall time` +
+      (r.stats.wall_s > 0 ? `, ${fmt((r.stats.controlSteps * c.Ts) / r.stats.wall_s)} x real time` : ''));
+    if (p.inverter.Vdc > 60) {
+      lines.push(`caution: a ${fmt(p.inverter.Vdc)} V DC bus is hazardous; work on it only under local codes, licensed practice and IEC 61800-5-1.`);
+    }
+    return { json: simulationJson(r), text: lines.join('\n'), ...(csv ? { files: [{ path: csv, contents: simulationCsv(r) }] } : {}) };
+  },
+};
