@@ -81,8 +81,11 @@ describe('Torquewise in a browser', () => {
     expect(after).toBeGreaterThan(before * 1.2);
     times.sort((a, b) => a - b);
     const median = times[Math.floor(times.length / 2)]!;
-    writeFileSync(join(SHOTS, 'edit-to-redraw.json'), JSON.stringify({ times_ms: times, median_ms: median }, null, 2));
-    console.log(`edit-to-redraw on the traction demo: median ${median.toFixed(1)} ms, all ${times.map((t) => t.toFixed(1)).join(', ')} ms`);
+    await page.waitForTimeout(300);
+    const verdicts = (await page.evaluate(() => window.__twPerfVerdicts ?? [])).slice(-5).sort((a, b) => a - b);
+    const vMedian = verdicts[Math.floor(verdicts.length / 2)] ?? NaN;
+    writeFileSync(join(SHOTS, 'edit-to-redraw.json'), JSON.stringify({ times_ms: times, median_ms: median, verdicts_ms: verdicts, verdictsMedian_ms: vMedian }, null, 2));
+    console.log(`edit-to-redraw on the traction demo: median ${median.toFixed(1)} ms, all ${times.map((t) => t.toFixed(1)).join(', ')} ms; edit-to-verdicts median ${vMedian.toFixed(1)} ms`);
     await page.screenshot({ path: shotPath('02-vdc-raised') });
     await edit('inverter.Vdc', '350');
     expect(await baseSpeedRpm()).toBe(before);
@@ -94,11 +97,15 @@ describe('Torquewise in a browser', () => {
     expect(await page.textContent('[data-testid="req-mark-0"]')).toBe('pass');
     await edit('inverter.Icont', '150');
     await edit('inverter.Imax', '200');
-    expect(await page.textContent('[data-testid="req-mark-0"]')).toBe('fail');
+    await page.waitForFunction(() => document.querySelector('[data-testid="req-mark-0"]')?.textContent === 'fail');
+    expect(await page.$('[data-testid="verdict-0"]')).toBeNull(); // the datasheet is not mounted yet
+    await page.click('[data-testid="tab-datasheet"]');
+    expect(await page.textContent('[data-testid="verdict-0"]')).toContain('NOT met');
+    await page.click('[data-testid="tab-envelope"]');
     await page.screenshot({ path: shotPath('03-requirement-fails') });
     await edit('inverter.Imax', '450');
     await edit('inverter.Icont', '250');
-    expect(await page.textContent('[data-testid="req-mark-0"]')).toBe('pass');
+    await page.waitForFunction(() => document.querySelector('[data-testid="req-mark-0"]')?.textContent === 'pass');
   });
 
   it('shows the inline message for a bad input, keeps the typed text, and goes on', async () => {

@@ -8,7 +8,7 @@ import { DEMOS, DEFAULT_DEMO } from './demos';
 import { newDraft, normalisePath, type Draft, type Json } from './draft';
 import { FormContext, type FormApi } from './Inputs';
 import { InputPanel } from './InputPanel';
-import { computeResults, DEFAULT_ENVELOPE_OPTIONS, type EnvelopeOptions, type Results } from './compute';
+import { computeEnvelopes, computeVerdicts, DEFAULT_ENVELOPE_OPTIONS, type EnvelopeOptions, type EnvelopeResults, type Results, type Verdicts } from './compute';
 import { fileBridge } from './file-bridge';
 import { EnvelopeView } from './EnvelopeView';
 import { LoadStepsView } from './LoadStepsView';
@@ -56,12 +56,22 @@ declare global {
   interface Window {
     /** edit-to-redraw figures, ms, read by the end-to-end tests */
     __twPerf?: number[];
+    /** edit-to-verdicts figures, ms */
+    __twPerfVerdicts?: number[];
   }
 }
 
 function parseText(text: string): Json | null {
   try {
     return JSON.parse(text) as Json;
+  } catch {
+    return null;
+  }
+}
+
+function safeVerdicts(e: EnvelopeResults): Verdicts | null {
+  try {
+    return computeVerdicts(e.project, e.speedMax);
   } catch {
     return null;
   }
@@ -106,10 +116,10 @@ export function App() {
     return () => clearTimeout(h);
   }, [draft]);
 
-  const results: Results | null = useMemo(() => {
+  const envelopes: EnvelopeResults | null = useMemo(() => {
     if (!lastGood) return null;
     try {
-      const r = computeResults(lastGood, envOpts);
+      const r = computeEnvelopes(lastGood, envOpts);
       setComputeError(null);
       return r;
     } catch (e) {
@@ -117,6 +127,23 @@ export function App() {
       return null;
     }
   }, [lastGood, envOpts]);
+
+  // verdicts (sizing searches) follow the curves: computed after the redraw, so typing stays quick
+  const [verdicts, setVerdicts] = useState<Verdicts | null>(() => (envelopes ? safeVerdicts(envelopes) : null));
+  useEffect(() => {
+    if (!envelopes || verdicts?.verdictsFor === envelopes.project) return;
+    const h = setTimeout(() => {
+      const v = safeVerdicts(envelopes);
+      if (v) setVerdicts(v);
+      const marks = performance.getEntriesByName('tw-edit-v', 'mark');
+      if (marks.length) {
+        (window.__twPerfVerdicts ??= []).push(performance.now() - marks[marks.length - 1]!.startTime);
+        performance.clearMarks('tw-edit-v');
+      }
+    }, 0);
+    return () => clearTimeout(h);
+  }, [envelopes, verdicts]);
+  const results: Results | null = useMemo(() => (envelopes && verdicts ? { ...envelopes, ...verdicts } : null), [envelopes, verdicts]);
 
   const update = useCallback((f: (d: Draft) => Draft) => {
     setDraft((d) => f(d));
@@ -270,7 +297,7 @@ export function App() {
             <div className={'status' + (stale ? ' stale' : '')} data-testid="status" role="status">
               {stale
                 ? `${Object.keys(checked.issues).length} input problem(s): showing the last valid project. ${otherIssues(checked.issues)}`
-                : (notice ?? computeError ?? (results ? `Recomputed in ${results.compute_ms.toFixed(1)} ms (${results.curves.length} envelopes × ${results.points} points).` : ''))}
+                : (notice ?? computeError ?? (results ? `Envelopes in ${results.compute_ms.toFixed(1)} ms (${results.curves.length} × ${results.points} points); sizing verdicts in ${results.verdict_ms.toFixed(1)} ms.` : ''))}
             </div>
             <div className="view">
               {computeError && <div className="finding danger">{computeError}</div>}

@@ -59,6 +59,7 @@ export function NumField(props: { path: Path; label: string; unit: string; optio
           aria-invalid={msgs.length > 0}
           onChange={(e) => {
             performance.mark('tw-edit');
+            performance.mark('tw-edit-v');
             const t = e.target.value;
             update((d) => editNumber(d, props.path, t, props.optional ?? false));
           }}
@@ -88,6 +89,7 @@ export function SelectField(props: { path: Path; label: string; options: Array<[
           value={v === undefined || v === null ? '' : String(v)}
           onChange={(e) => {
             performance.mark('tw-edit');
+            performance.mark('tw-edit-v');
             const t = e.target.value;
             update((d) => editValue(d, props.path, t === '' ? undefined : t));
           }}
@@ -183,6 +185,7 @@ export function Rows(props: { path: Path; columns: RowColumn[]; blank: Record<st
                       value={textOf(draft, p)}
                       onChange={(e) => {
                         performance.mark('tw-edit');
+            performance.mark('tw-edit-v');
                         const t = e.target.value;
                         update((d) => (c.kind === 'text' ? editValue(d, p, t) : editNumber(d, p, t, false)));
                       }}

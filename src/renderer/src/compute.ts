@@ -29,17 +29,14 @@ export interface EnvelopeOptions {
 
 export const DEFAULT_ENVELOPE_OPTIONS: EnvelopeOptions = { points: 200, speedMax: null };
 
-export interface Results {
+/** The curves: recomputed on every edit. */
+export interface EnvelopeResults {
   project: ResolvedProject;
   speedMax: number;
   points: number;
   curves: Curve[];
   /** the reference curve: hot magnet, peak current, motoring */
   main: Envelope;
-  sizing: SizingResult;
-  safety: SafetyReport;
-  /** the speed the safety figures are for: the motor's rated maximum speed, else the plotted top speed, rad/s */
-  safetySpeed: number;
   constantsHot: ReturnType<typeof deriveConstants>;
   constantsCold: ReturnType<typeof deriveConstants>;
   compute_ms: number;
@@ -47,7 +44,33 @@ export interface Results {
 
 export const curveKey = (c: Corner, i: CurrentKind, d: Direction): string => `${i}-${c}-${d}`;
 
+/** The verdicts (sizing searches are slower): computed right after the curves are drawn. */
+export interface Verdicts {
+  /** the project these verdicts belong to (may lag the curves by one redraw) */
+  verdictsFor: ResolvedProject;
+  sizing: SizingResult;
+  safety: SafetyReport;
+  /** the speed the safety figures are for: the motor's rated maximum speed, else the plotted top speed, rad/s */
+  safetySpeed: number;
+  verdict_ms: number;
+}
+
+export type Results = EnvelopeResults & Verdicts;
+
+export function computeVerdicts(p: ResolvedProject, speedMax: number): Verdicts {
+  const t0 = performance.now();
+  const sizing = sizeDrive(p.hot, p.inverter, p.requirements);
+  const safetySpeed = p.rated.maxSpeed_rad_s ?? speedMax;
+  const safety = safetyReport(p.cold, p.inverter, safetySpeed);
+  return { verdictsFor: p, sizing, safety, safetySpeed, verdict_ms: performance.now() - t0 };
+}
+
 export function computeResults(p: ResolvedProject, opts: EnvelopeOptions): Results {
+  const e = computeEnvelopes(p, opts);
+  return { ...e, ...computeVerdicts(p, e.speedMax) };
+}
+
+export function computeEnvelopes(p: ResolvedProject, opts: EnvelopeOptions): EnvelopeResults {
   const t0 = performance.now();
   let speedMax = opts.speedMax;
   if (speedMax === null) {
@@ -72,18 +95,12 @@ export function computeResults(p: ResolvedProject, opts: EnvelopeOptions): Resul
     }
   }
   const main = curves.find((c) => c.key === curveKey('hot', 'peak', 'motoring'))!.env;
-  const sizing = sizeDrive(p.hot, p.inverter, p.requirements);
-  const safetySpeed = p.rated.maxSpeed_rad_s ?? speedMax;
-  const safety = safetyReport(p.cold, p.inverter, safetySpeed);
   return {
     project: p,
     speedMax,
     points: opts.points,
     curves,
     main,
-    sizing,
-    safety,
-    safetySpeed,
     constantsHot: deriveConstants(p.hot),
     constantsCold: deriveConstants(p.cold),
     compute_ms: performance.now() - t0,
