@@ -91,21 +91,127 @@ const v2Of = (id: number, iq: number): number => {
 };
 
 /**
- * Root of vCircle2 in [a, b] (opposite signs), Illinois method. Stops when -1e-13 Vmax² <= g <= 0
- * (|v| within 5e-14 of Vmax relative) or the bracket is below 1e-15 rad; else returns the end with g <= 0.
+ * Root of |v(theta)|² - Vmax² on the circle in [a, b] (values of opposite sign at the ends):
+ * Newton with the analytic derivative, safeguarded by bisection inside the bracket. Stops when
+ * -1e-13 Vmax² <= g <= 0 or the bracket is below 1e-15 rad; always returns a point with g <= 0.
  */
 function circleRoot(a: number, b: number, ga: number, gb: number): number {
   const tol = 1e-13 * VM * VM;
-  for (let it = 0; it < ROOT_STEPS && Math.abs(b - a) > 1e-15; it++) {
-    let c = b - (gb * (b - a)) / (gb - ga);
-    if (!(c > Math.min(a, b) && c < Math.max(a, b))) c = 0.5 * (a + b);
-    const gc = vCircle2(c);
-    if (gc <= 0 && gc >= -tol) return c;
-    if ((gc <= 0) !== (gb <= 0)) { a = b; ga = gb; }
-    else ga *= 0.5;
-    b = c; gb = gc;
+  // lo: the end with g <= 0 (feasible), hi: the other
+  let lo = ga <= 0 ? a : b;
+  let hi = ga <= 0 ? b : a;
+  let x = (a * gb - b * ga) / (gb - ga);
+  if (!(x > Math.min(a, b) && x < Math.max(a, b))) x = 0.5 * (a + b);
+  for (let it = 0; it < ROOT_STEPS; it++) {
+    const c = Math.cos(x), sn = Math.sin(x);
+    const id = IM * c, iq = IM * sn;
+    const vd = RS * id - WE * LQ * iq;
+    const vq = RS * iq + WE * (LD * id + PSI);
+    const g = vd * vd + vq * vq - VM * VM;
+    if (g <= 0) {
+      if (g >= -tol) return x;
+      lo = x;
+    } else hi = x;
+    const dvd = IM * (-RS * sn - WE * LQ * c);
+    const dvq = IM * (-WE * LD * sn + RS * c);
+    const dg = 2 * (vd * dvd + vq * dvq);
+    const step = g / dg;
+    if (Math.abs(step) <= 1e-15 * (1 + Math.abs(x))) {
+      if (g <= 0) return x;
+      // converged from the infeasible side: step over onto the feasible side
+      const xs = x + Math.sign(lo - x) * Math.max(2 * Math.abs(step), 4e-16 * (1 + Math.abs(x)));
+      if (xs > Math.min(lo, hi) && xs < Math.max(lo, hi)) { x = xs; continue; }
+      return lo;
+    }
+    let xn = x - step;
+    if (!(xn > Math.min(lo, hi) && xn < Math.max(lo, hi))) xn = 0.5 * (lo + hi);
+    if (Math.abs(hi - lo) <= 1e-15) break;
+    x = xn;
   }
-  return ga <= 0 ? a : b;
+  return lo;
+}
+
+/**
+ * Where |v(theta)|² dips lowest on the circle in [lo, hi] around a sampled minimum x0, or the first
+ * point found with |v| <= Vmax: Newton on dg/dtheta with the analytic second derivative
+ * (d²v/dtheta² = -(v - b) on the circle), safeguarded by bisection on the sign of dg/dtheta.
+ */
+function circleMin(lo: number, hi: number, x0: number): number {
+  let x = x0;
+  for (let it = 0; it < ROOT_STEPS; it++) {
+    const c = Math.cos(x), sn = Math.sin(x);
+    const id = IM * c, iq = IM * sn;
+    const vd = RS * id - WE * LQ * iq;
+    const vq = RS * iq + WE * (LD * id + PSI);
+    if (vd * vd + vq * vq <= VM * VM) return x;
+    const dvd = IM * (-RS * sn - WE * LQ * c);
+    const dvq = IM * (-WE * LD * sn + RS * c);
+    const d1 = 2 * (vd * dvd + vq * dvq);
+    const d2 = 2 * (dvd * dvd + dvq * dvq - vd * vd - vq * (vq - WE * PSI));
+    if (d1 > 0) hi = x;
+    else lo = x;
+    const step = d1 / d2;
+    if (d2 > 0 && Math.abs(step) <= 1e-14) return x;
+    let xn = x - step;
+    if (!(d2 > 0) || !(xn > lo && xn < hi)) xn = 0.5 * (lo + hi);
+    if (hi - lo <= 1e-14) return xn;
+    x = xn;
+  }
+  return x;
+}
+
+/**
+ * Local maximum of the objective along the voltage boundary in [lo, hi] around a sampled maximum:
+ * Newton on dJ/dphi with analytic first and second derivatives, safeguarded by bisection on the sign
+ * of dJ/dphi; golden section when the derivative does not change sign across the window.
+ * Leaves the point in eId, eIq.
+ */
+function ellipseMax(lo: number, hi: number, x0: number): void {
+  const D = RS * RS + WE * WE * LD * LQ;
+  const kv = VM / D;
+  const K = SG * 1.5 * P;
+  const dl = LD - LQ;
+  const dJ = (x: number): number => {
+    const c = Math.cos(x), sn = Math.sin(x);
+    onEllipseCS(c, sn);
+    const did = kv * (WE * LQ * c - RS * sn);
+    const diq = kv * (WE * LD * sn + RS * c);
+    return K * (diq * (PSI + dl * eId) + eIq * dl * did);
+  };
+  const hl = dJ(lo);
+  const hh = dJ(hi);
+  if (hl > 0 && hh < 0) {
+    let x = x0;
+    for (let it = 0; it < ROOT_STEPS; it++) {
+      const c = Math.cos(x), sn = Math.sin(x);
+      onEllipseCS(c, sn);
+      const did = kv * (WE * LQ * c - RS * sn);
+      const diq = kv * (WE * LD * sn + RS * c);
+      const d2id = kv * (-WE * LQ * sn - RS * c);
+      const d2iq = kv * (WE * LD * c - RS * sn);
+      const h = K * (diq * (PSI + dl * eId) + eIq * dl * did);
+      const h2 = K * (d2iq * (PSI + dl * eId) + 2 * dl * did * diq + eIq * dl * d2id);
+      if (h > 0) lo = x;
+      else hi = x;
+      const step = h / h2;
+      if (h2 < 0 && Math.abs(step) <= 1e-14) break;
+      let xn = x - step;
+      if (!(h2 < 0) || !(xn > lo && xn < hi)) xn = 0.5 * (lo + hi);
+      if (hi - lo <= 1e-14) { x = xn; break; }
+      x = xn;
+    }
+    onEllipse(x);
+    return;
+  }
+  let x1 = hi - GOLD * (hi - lo);
+  let x2 = lo + GOLD * (hi - lo);
+  let f1 = jEllipse(x1);
+  let f2 = jEllipse(x2);
+  for (let it = 0; it < GOLDEN_STEPS; it++) {
+    if (f1 < f2) { lo = x1; x1 = x2; f1 = f2; x2 = lo + GOLD * (hi - lo); f2 = jEllipse(x2); }
+    else { hi = x2; x2 = x1; f2 = f1; x1 = hi - GOLD * (hi - lo); f1 = jEllipse(x1); }
+  }
+  onEllipse(f1 >= f2 ? x1 : x2);
 }
 
 let bestJ = -Infinity, bestId = 0, bestIq = 0, bestRegion: 0 | 1 | 2 = 0;
@@ -157,63 +263,6 @@ export function maxTorqueCore(m: DqMachine, Vmax: number, Imax: number, we: numb
         if (v2Of(id, iq) <= vm2) offer(id, iq, 0);
       }
     }
-    // crossings of the circle with the voltage boundary
-    // torque along the circle is Lipschitz in theta with lc: a window whose bound cannot beat the
-    // best so far (or zero) is skipped
-    const lc = 1.5 * P * (PSI * Imax + Math.abs(LD - LQ) * Imax * Imax);
-    {
-      const rs = m.Rs, xd = we * m.Ld, xq = we * m.Lq, e = we * m.psiM, psi = m.psiM, dl = m.Ld - m.Lq, kt = sign * 1.5 * m.polePairs;
-      for (let k = 0; k < NS; k++) {
-        const id = Imax * COS[k];
-        const iq = Imax * SIN[k];
-        const vd = rs * id - xq * iq;
-        const vq = rs * iq + xd * id + e;
-        gS[k] = vd * vd + vq * vq - vm2;
-        jC[k] = kt * iq * (psi + dl * id);
-      }
-    }
-    for (let k = 0; k < NS; k++) {
-      const k1 = k + 1 === NS ? 0 : k + 1;
-      const ga = gS[k];
-      const gb = gS[k1];
-      const a = k * STEP;
-      const b = (k + 1) * STEP;
-      if ((ga <= 0) !== (gb <= 0)) {
-        if (0.5 * (jC[k] + jC[k1] + lc * STEP) < Math.max(bestJ, floor)) continue;
-        offerCircle(circleRoot(a, b, ga, gb));
-      }
-    }
-    for (let k = 0; k < NS; k++) {
-      const k1 = k + 1 === NS ? 0 : k + 1;
-      const ga = gS[k];
-      const gb = gS[k1];
-      const a = k * STEP;
-      const b = (k + 1) * STEP;
-      if (ga > 0 && gb > 0) {
-        // a pair of roots between samples: look at the sampled local minimum
-        const k0 = k === 0 ? NS - 1 : k - 1;
-        const g0 = gS[k0];
-        if (ga <= g0 && ga <= gb) {
-          if (Math.max(jC[k0], jC[k], jC[k1]) + 0.5 * lc * STEP < Math.max(bestJ, floor)) continue;
-          let lo = a - STEP;
-          let hi = b;
-          let x1 = hi - GOLD * (hi - lo);
-          let x2 = lo + GOLD * (hi - lo);
-          let f1 = vCircle2(x1);
-          let f2 = vCircle2(x2);
-          for (let it = 0; it < GOLDEN_STEPS && f1 > 0 && f2 > 0; it++) {
-            if (f1 > f2) { lo = x1; x1 = x2; f1 = f2; x2 = lo + GOLD * (hi - lo); f2 = vCircle2(x2); }
-            else { hi = x2; x2 = x1; f2 = f1; x1 = hi - GOLD * (hi - lo); f1 = vCircle2(x1); }
-          }
-          const xm = f1 <= f2 ? x1 : x2;
-          const fm = Math.min(f1, f2);
-          if (fm <= 0) {
-            offerCircle(circleRoot(a - STEP, xm, g0, fm));
-            offerCircle(circleRoot(xm, b, fm, gb));
-          }
-        }
-      }
-    }
   }
   // local maxima of torque along the voltage boundary, inside the circle
   if (D > 0) {
@@ -238,20 +287,78 @@ export function maxTorqueCore(m: DqMachine, Vmax: number, Imax: number, we: numb
       const c = jS[k + 1 === NS ? 0 : k + 1];
       if (!(b >= a && b >= c)) continue;
       if (rS[k] > (Imax + reach) * (Imax + reach)) continue;
-      let lo = (k - 1) * STEP;
-      let hi = (k + 1) * STEP;
-      let x1 = hi - GOLD * (hi - lo);
-      let x2 = lo + GOLD * (hi - lo);
-      let f1 = jEllipse(x1);
-      let f2 = jEllipse(x2);
-      for (let it = 0; it < GOLDEN_STEPS; it++) {
-        if (f1 < f2) { lo = x1; x1 = x2; f1 = f2; x2 = lo + GOLD * (hi - lo); f2 = jEllipse(x2); }
-        else { hi = x2; x2 = x1; f2 = f1; x1 = hi - GOLD * (hi - lo); f1 = jEllipse(x1); }
-      }
-      onEllipse(f1 >= f2 ? x1 : x2);
+      // |dJ/dphi| <= 1.5 p (psiM + sqrt(2) |Ld-Lq| r) ||A^-1|| Vmax: skip windows that cannot beat the best
+      const rw = Math.sqrt(rS[k]) + reach;
+      const lj = 1.5 * P * (PSI + Math.SQRT2 * Math.abs(LD - LQ) * rw) * (reach / STEP);
+      if (Math.max(a, b, c) + 0.5 * lj * STEP < Math.max(bestJ, floor)) continue;
+      ellipseMax((k - 1) * STEP, (k + 1) * STEP, k * STEP);
       if (eId * eId + eIq * eIq <= im2) offer(eId, eIq, 2);
     }
   }
+  if (finiteI) {
+    // crossings of the circle with the voltage boundary
+    // a window whose torque bound cannot beat the best so far (or the floor) is skipped:
+    // T = 1.5 p (psiM I sin(theta) + (Ld-Lq) I² sin(2 theta)/2), so |d²T/dtheta²| <= gc and the largest
+    // value between two samples is at most the larger sample + gc h²/8
+    const gc = 1.5 * P * (PSI * Imax + 2 * Math.abs(LD - LQ) * Imax * Imax);
+    {
+      const rs = m.Rs, xd = we * m.Ld, xq = we * m.Lq, e = we * m.psiM, psi = m.psiM, dl = m.Ld - m.Lq, kt = sign * 1.5 * m.polePairs;
+      for (let k = 0; k < NS; k++) {
+        const id = Imax * COS[k];
+        const iq = Imax * SIN[k];
+        const vd = rs * id - xq * iq;
+        const vq = rs * iq + xd * id + e;
+        gS[k] = vd * vd + vq * vq - vm2;
+        jC[k] = kt * iq * (psi + dl * id);
+      }
+    }
+    for (let k = 0; k < NS; k++) {
+      const k1 = k + 1 === NS ? 0 : k + 1;
+      const ga = gS[k];
+      const gb = gS[k1];
+      const a = k * STEP;
+      const b = (k + 1) * STEP;
+      if ((ga <= 0) !== (gb <= 0)) {
+        if (Math.max(jC[k], jC[k1]) + 0.125 * gc * STEP * STEP < Math.max(bestJ, floor)) continue;
+        offerCircle(circleRoot(a, b, ga, gb));
+      }
+    }
+    for (let k = 0; k < NS; k++) {
+      const k1 = k + 1 === NS ? 0 : k + 1;
+      const ga = gS[k];
+      const gb = gS[k1];
+      const a = k * STEP;
+      const b = (k + 1) * STEP;
+      if (ga > 0 && gb > 0) {
+        // a pair of roots between samples: look at the sampled local minimum
+        const k0 = k === 0 ? NS - 1 : k - 1;
+        const g0 = gS[k0];
+        if (ga <= g0 && ga <= gb) {
+          if (Math.max(jC[k0], jC[k], jC[k1]) + 0.125 * gc * STEP * STEP < Math.max(bestJ, floor)) continue;
+          // Taylor bound: g >= g_k - |g'_k| h - G2 h²/2 on |theta - theta_k| <= h = STEP, with
+          // |g''| <= G2 = |first harmonic| + 4 |second harmonic| of the degree-2 trigonometric polynomial
+          {
+            const c = COS[k], sn = SIN[k];
+            const vd = RS * IM * c - WE * LQ * IM * sn;
+            const vq = RS * IM * sn + WE * (LD * IM * c + PSI);
+            const dvd = IM * (-RS * sn - WE * LQ * c);
+            const dvq = IM * (-WE * LD * sn + RS * c);
+            const dg = 2 * Math.abs(vd * dvd + vq * dvq);
+            const e = WE * PSI, xd = WE * LD, xq = WE * LQ;
+            const g2 = 2 * Math.abs(e) * IM * Math.hypot(xd, RS) + 4 * IM * IM * Math.hypot(0.5 * (xd * xd - xq * xq), RS * (xd - xq));
+            if (ga - dg * STEP - 0.5 * g2 * STEP * STEP > 0) continue;
+          }
+          const r = circleMin(a - STEP, b, a);
+          const xm = r;
+          const fm = vCircle2(xm);
+          if (fm <= 0) {
+            offerCircle(circleRoot(a - STEP, xm, g0, fm));
+            offerCircle(circleRoot(xm, b, fm, gb));
+          }
+        }
+      }
+    }
+    }
   if (bestJ >= floor) {
     out.ok = true; out.id = bestId; out.iq = bestIq; out.J = bestJ; out.region = bestRegion;
   }
