@@ -191,6 +191,11 @@ export class CascadeController {
   private readonly bufA = new Float64Array(MAX_DELAY);
   private readonly bufB = new Float64Array(MAX_DELAY);
   private readonly tmp = new Float64Array(2);
+  /**
+   * The sample of `stepSampled`: [t, i_d, i_q, omega_m, theta_e]. Passing the sample through this
+   * array instead of arguments keeps the engine from boxing five doubles per call.
+   */
+  readonly sample = new Float64Array(5);
   private speedCounter = 0;
   private torqueClamped = false;
 
@@ -232,6 +237,19 @@ export class CascadeController {
    * apply over this period into out[0..1].
    */
   step(t: number, id: number, iq: number, w: number, theta: number, out: Float64Array): void {
+    const x = this.sample;
+    x[0] = t; x[1] = id; x[2] = iq; x[3] = w; x[4] = theta;
+    this.stepSampled(out);
+  }
+
+  /** `step` with the sample already written into `this.sample`. */
+  stepSampled(out: Float64Array): void {
+    const x = this.sample;
+    const t = x[0]!;
+    const id = x[1]!;
+    const iq = x[2]!;
+    const w = x[3]!;
+    const theta = x[4]!;
     const c = this.cfg;
     const m = c.machine;
     const we = m.polePairs * w;
@@ -239,7 +257,7 @@ export class CascadeController {
 
     // ---- references
     if (c.mode === 'speed') {
-      if (this.speedCounter === 0) this.speedLoop(t, w);
+      if (this.speedCounter === 0) this.speedLoop();
       this.speedCounter = (this.speedCounter + 1) % c.speedLoopDivider;
     } else if (c.mode === 'torque') {
       this.speedRefOut = w;
@@ -315,7 +333,9 @@ export class CascadeController {
     this.k++;
   }
 
-  private speedLoop(t: number, w: number): void {
+  private speedLoop(): void {
+    const t = this.sample[0]!;
+    const w = this.sample[3]!;
     const c = this.cfg;
     const Tsw = c.Ts * c.speedLoopDivider;
     const target = scheduleValue(c.speedRef, t);

@@ -333,7 +333,8 @@ export function runSimulation(setup: SimulationSetup, opts: RunOptions = {}): Si
   const record = (idx: number): void => {
     const t = idx * Ts;
     const id = y[I_D]!, iq = y[I_Q]!, w = y[OMEGA]!, th = y[THETA]!;
-    const c = Math.cos(th), s = Math.sin(th);
+    plant.setAngleOrigin(th); // the period integrated next starts here; its cos/sin serve the record too
+    const c = plant.c0, s = plant.s0;
     const ia = id * c - iq * s;
     const ib = id * s + iq * c;
     tT[idx] = t;
@@ -361,7 +362,9 @@ export function runSimulation(setup: SimulationSetup, opts: RunOptions = {}): Si
   for (k = 0; k < N; k++) {
     const t0 = k * Ts;
     const t1 = (k + 1) * Ts;
-    ctrl.step(t0, y[I_D]!, y[I_Q]!, y[OMEGA]!, y[THETA]!, vab);
+    const smp = ctrl.sample;
+    smp[0] = t0; smp[1] = y[I_D]!; smp[2] = y[I_Q]!; smp[3] = y[OMEGA]!; smp[4] = y[THETA]!;
+    ctrl.stepSampled(vab);
     record(k);
     nRec = k + 1;
     const i2 = y[I_D]! * y[I_D]! + y[I_Q]! * y[I_Q]!;

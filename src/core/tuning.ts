@@ -140,6 +140,13 @@ function firstDownCrossing(g: (w: number) => number, wLo: number, wHi: number, n
   return null;
 }
 
+function foldDeg(x: number): number {
+  let y = x % 360;
+  if (y <= -180) y += 360;
+  if (y > 180) y -= 360;
+  return y;
+}
+
 export interface Margins {
   crossover_Hz: number | null;
   phaseMargin_deg: number | null;
@@ -158,7 +165,8 @@ export function loopMargins(open: Response, wLo: number, wHi: number): Margins {
   const fin = (x: number): number | null => (Number.isFinite(x) ? x : null);
   return {
     crossover_Hz: wc === null ? null : wc / (2 * Math.PI),
-    phaseMargin_deg: wc === null ? null : fin(180 + (ph(wc) * 180) / Math.PI),
+    // phase margin folded into (-180, 180] (an unstable loop's unwrapped phase can be far below -180)
+    phaseMargin_deg: wc === null ? null : fin(foldDeg(180 + (ph(wc) * 180) / Math.PI)),
     gainMargin_dB: w180 === null ? null : fin(-20 * Math.log10(mag(w180))),
     bandwidth_Hz: wb === null ? null : wb / (2 * Math.PI),
   };
