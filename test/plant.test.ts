@@ -101,6 +101,25 @@ describe('dq plant', () => {
     expect(d[1]).toBeCloseTo(0, 6);
   });
 
+  it('the rotation from an angle origin and a series equals Math.cos/Math.sin', () => {
+    const a = new Plant(params(ipm, { inputFrame: 'alpha-beta' }));
+    const b = new Plant(params(ipm, { inputFrame: 'alpha-beta' }));
+    for (const p of [a, b]) { p.input[0] = 40; p.input[1] = -25; }
+    const y = Float64Array.from([3, -7, 150, 0, 0]);
+    const da = new Float64Array(STATE_SIZE);
+    const db = new Float64Array(STATE_SIZE);
+    for (const th0 of [0.1, 2, 5.9]) {
+      for (const off of [-0.49, -0.2, 0, 0.3, 0.49]) {
+        y[3] = th0 + off;
+        a.setAngleOrigin(th0); // series path
+        b.setAngleOrigin(th0 + 10); // far away: Math.cos / Math.sin path
+        a.deriv(da, y, 0);
+        b.deriv(db, y, 0);
+        for (let i = 0; i < STATE_SIZE; i++) expect(Math.abs(da[i]! - db[i]!)).toBeLessThanOrEqual(1e-12 * Math.max(1, Math.abs(db[i]!)));
+      }
+    }
+  });
+
   it('load schedule: steps jump, ramps are linear, a later event overrides', () => {
     const s = loadSchedule([{ t_s: 0.1, torque_Nm: 5 }, { t_s: 0.5, torque_Nm: 0 }], [{ t_s: 0.2, duration_s: 0.2, torque_Nm: 9 }]);
     expect(loadLevel(s, 0.05)).toBe(0);
