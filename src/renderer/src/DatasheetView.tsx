@@ -1,6 +1,6 @@
 // Datasheet view: summary table, sizing verdict per requirement, cautions, the envelope plot;
 // export PNG/SVG/CSV and a print layout.
-import { useMemo, useRef } from 'react';
+import { memo, useMemo, useRef } from 'react';
 import Plotly from 'plotly.js-dist-min';
 import { RAD_S_TO_RPM, SQRT2 } from '../../core/units';
 import type { Finding } from '../../core/types';
@@ -44,7 +44,7 @@ export function Cautions({ results, testId, hazardsOnly, compact }: { results: R
   );
 }
 
-export function DatasheetView({ results, theme }: { results: Results; theme: 'light' | 'dark' }) {
+export const DatasheetView = memo(function DatasheetView({ results, theme }: { results: Results; theme: 'light' | 'dark' }) {
   const plotEl = useRef<HTMLDivElement | null>(null);
   const p = results.project;
   const fig = useMemo(() => torqueSpeedFigure(results, theme, { peak: true, continuous: true, hot: true, cold: true, generating: true }, false, 330), [results, theme]);
@@ -156,4 +156,4 @@ export function DatasheetView({ results, theme }: { results: Results; theme: 'li
       </div>
     </div>
   );
-}
+});

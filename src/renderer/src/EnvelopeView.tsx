@@ -1,6 +1,6 @@
 // Envelope view: torque-speed and power-speed (peak and continuous, motoring and generating, hot and
 // cold), requirement points, region bands, base and maximum speed; beside it the current plane.
-import { useCallback, useMemo, useRef, useState } from 'react';
+import { memo, useCallback, useMemo, useRef, useState } from 'react';
 import Plotly from 'plotly.js-dist-min';
 import type { Data, Layout } from 'plotly.js-dist-min';
 import { solveOperatingPoint } from '../../core/operating-point';
@@ -115,25 +115,38 @@ export function torqueSpeedFigure(r: Results, theme: 'light' | 'dark', show: Sho
     layer: 'below',
   }));
   const top_rpm = r.speedMax * RAD_S_TO_RPM;
-  // a label fits across its band when the band is wider than the text (about 6.5 px a character
-  // on a plot about 460 px wide); otherwise it is written upright inside the band
-  const annotations: Record<string, unknown>[] = runs
-    .filter((run) => run.x1 - run.x0 > 0.025 * top_rpm)
-    .map((run) => {
-      const text = REGION_NAME[run.region];
-      const across = (run.x1 - run.x0) / top_rpm > (text.length * 6.5 + 10) / plotWidth_px;
-      return {
-        x: (run.x0 + run.x1) / 2,
-        y: 0.995,
-        xref: 'x',
-        yref: 'paper',
-        yanchor: 'top',
-        textangle: across ? 0 : -90,
-        text,
-        showarrow: false,
-        font: { size: 11, color: t.muted },
-      };
-    });
+  // torque axis range from the drawn data (a fixed range lets labels sit in data coordinates)
+  let tMin = 0;
+  let tMax = 0;
+  for (const c of r.curves) {
+    if (!show[c.current] || !show[c.corner] || (c.direction === 'generating' && !show.generating)) continue;
+    for (let k = 0; k < c.env.torque.length; k++) {
+      const v = c.env.torque[k]!;
+      if (v < tMin) tMin = v;
+      if (v > tMax) tMax = v;
+    }
+  }
+  for (const q of req) {
+    tMin = Math.min(tMin, q.torque_Nm);
+    tMax = Math.max(tMax, q.torque_Nm);
+  }
+  const pad = 0.08 * (tMax - tMin || 1);
+  const yRange = [tMin - pad, tMax + 1.6 * pad];
+  // region names and base/maximum speed as one text trace (cheaper to draw than annotations);
+  // a name that does not fit across its band (about 6.5 px a character) is shortened
+  const lx: number[] = [];
+  const ly: number[] = [];
+  const lt: string[] = [];
+  const lp: string[] = [];
+  for (const run of runs) {
+    if (run.x1 - run.x0 < 0.025 * top_rpm) continue;
+    const long = REGION_NAME[run.region];
+    const fits = (run.x1 - run.x0) / top_rpm > (long.length * 6.5 + 8) / plotWidth_px;
+    lx.push((run.x0 + run.x1) / 2);
+    ly.push(yRange[1]!);
+    lt.push(fits ? long : run.region === 'field-weakening' ? 'FW' : long);
+    lp.push('bottom center');
+  }
   const marks: Array<[number | null, string]> = [
     [r.main.baseSpeed, 'base'],
     [r.main.maxSpeed, 'max'],
@@ -142,29 +155,32 @@ export function torqueSpeedFigure(r: Results, theme: 'light' | 'dark', show: Sho
     if (w === null || !(w > 0) || w > r.speedMax) continue;
     const x = w * RAD_S_TO_RPM;
     shapes.push({ type: 'line', xref: 'x', yref: 'paper', x0: x, x1: x, y0: 0, y1: 1, line: { color: t.ink, width: 1.2, dash: 'dot' } });
-    annotations.push({
-      x,
-      y: 1,
-      xref: 'x',
-      yref: 'paper',
-      yanchor: 'bottom',
-      xanchor: x < 0.5 * top_rpm ? 'left' : 'right',
-      text: `${label} speed ${Math.round(x)} rpm`,
-      showarrow: false,
-      font: { size: 11, color: t.ink },
-    });
+    lx.push(x);
+    ly.push(yRange[0]!);
+    lt.push(`${label} ${Math.round(x)} rpm`);
+    lp.push(x < 0.5 * top_rpm ? 'top right' : 'top left');
   }
+  data.push({
+    type: 'scatter',
+    mode: 'text',
+    x: lx,
+    y: ly,
+    text: lt,
+    textposition: lp,
+    textfont: { size: 11, color: t.ink },
+    hoverinfo: 'skip',
+    showlegend: false,
+  });
   const xTitle = 'speed, rpm (mechanical)';
   const layout: Layout = baseLayout(t, {
-    margin: { l: 70, r: 16, t: 34, b: 40 },
+    margin: { l: 70, r: 16, t: 12, b: 40 },
     hovermode: 'closest',
     showlegend: true,
     legend: { orientation: 'h', x: 0, y: withPower ? -0.1 : -0.2, font: { size: 11 } },
     xaxis: axis(t, withPower ? '' : xTitle, { range: [0, r.speedMax * RAD_S_TO_RPM], anchor: withPower ? 'y2' : 'y', showticklabels: true }),
-    yaxis: axis(t, 'torque, N·m', withPower ? { domain: [0.45, 1] } : {}),
+    yaxis: axis(t, 'torque, N·m', withPower ? { domain: [0.45, 1], range: yRange } : { range: yRange }),
     ...(withPower ? { yaxis2: axis(t, 'mechanical power, kW', { domain: [0, 0.37] }) } : {}),
     shapes,
-    annotations,
   });
   if (withPower) (layout.xaxis as Record<string, unknown>).title = { text: xTitle, font: { size: 12 } };
   return { data, layout };
@@ -308,7 +324,7 @@ export function planeFigure(r: Results, theme: 'light' | 'dark', speeds: number[
   return { data, layout };
 }
 
-export function EnvelopeView({ results, opts, setOpts, theme }: { results: Results; opts: EnvelopeOptions; setOpts: (o: EnvelopeOptions) => void; theme: 'light' | 'dark' }) {
+export const EnvelopeView = memo(function EnvelopeView({ results, opts, setOpts, theme }: { results: Results; opts: EnvelopeOptions; setOpts: (o: EnvelopeOptions) => void; theme: 'light' | 'dark' }) {
   const [show, setShow] = useState<Show>({ peak: true, continuous: true, hot: true, cold: true, generating: true });
   const [speedText, setSpeedText] = useState<string | null>(null);
   const [op, setOp] = useState<OperatingPoint | null>(null);
@@ -433,4 +449,4 @@ export function EnvelopeView({ results, opts, setOpts, theme }: { results: Resul
       </div>
     </div>
   );
-}
+});

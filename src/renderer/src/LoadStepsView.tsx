@@ -1,6 +1,6 @@
 // Load steps view: the scenario editor, a run button (the simulation runs in a Web Worker, with
 // progress and cancel), stacked traces on one time axis, the metrics table, saturation shaded.
-import { useEffect, useMemo, useRef, useState } from 'react';
+import { memo, useEffect, useMemo, useRef, useState } from 'react';
 import type { Data, Layout } from 'plotly.js-dist-min';
 import type { ResolvedProject } from '../../core/project';
 import { SQRT2 } from '../../core/units';
@@ -115,7 +115,7 @@ const METRICS: Array<[string, string, (v: number) => string]> = [
   ['energyFromBus_J', 'energy from the DC link', (v) => `${num(v)} J`],
 ];
 
-export function LoadStepsView({ project, theme, stale }: { project: ResolvedProject; theme: 'light' | 'dark'; stale: boolean }) {
+export const LoadStepsView = memo(function LoadStepsView({ project, theme, stale }: { project: ResolvedProject; theme: 'light' | 'dark'; stale: boolean }) {
   const [run, setRun] = useState<RunState>({ kind: 'idle' });
   const [result, setResult] = useState<SimDone | null>(kept);
   const worker = useRef<Worker | null>(null);
@@ -248,4 +248,4 @@ export function LoadStepsView({ project, theme, stale }: { project: ResolvedProj
       </div>
     </div>
   );
-}
+});

@@ -1,5 +1,5 @@
 // Tuning view: bandwidths (or gains) in, gains out, Bode plots with crossover and margins, warnings.
-import { useMemo } from 'react';
+import { memo, useMemo } from 'react';
 import type { Data, Layout } from 'plotly.js-dist-min';
 import type { ResolvedProject } from '../../core/project';
 import { tuneFromProject, type LoopReport, type TuningReport } from '../../core/tuning';
@@ -74,7 +74,7 @@ export function bodeFigure(rep: TuningReport, theme: 'light' | 'dark'): { data: 
   return { data, layout };
 }
 
-export function TuningView({ project, theme }: { project: ResolvedProject; theme: 'light' | 'dark' }) {
+export const TuningView = memo(function TuningView({ project, theme }: { project: ResolvedProject; theme: 'light' | 'dark' }) {
   const tuned = useMemo(() => {
     try {
       return { rep: tuneFromProject(project), error: null as string | null };
@@ -165,4 +165,4 @@ export function TuningView({ project, theme }: { project: ResolvedProject; theme
       </div>
     </div>
   );
-}
+});
