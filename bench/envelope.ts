@@ -99,15 +99,19 @@ export const envelopeBench: BenchSection = {
       if (err <= GRID_ACCURACY) break;
     }
     const full = new Float64Array(POINTS);
-    const gridRuns = 3;
-    const tGrid = time(() => gridEnvelope(m, lim, ref.speed, n, full), gridRuns);
+    // one timed run first; repeat (median of 3) only when a run is short enough to keep the bench brief
+    const t0 = performance.now();
+    gridEnvelope(m, lim, ref.speed, n, full);
+    const tFirst = performance.now() - t0;
+    const gridRuns = tFirst > 2000 ? 1 : 3;
+    const tGrid = gridRuns === 1 ? tFirst : time(() => gridEnvelope(m, lim, ref.speed, n, full), gridRuns);
     const gridErr = maxRelError(ref, full, 1);
 
-    for (let r = 0; r < 20; r++) computeEnvelope(m, lim, opts); // warm-up
+    for (let r = 0; r < 50; r++) computeEnvelope(m, lim, opts); // warm-up
     const tOurs = time(() => computeEnvelope(m, lim, opts), 101);
 
     console.log(`  ours:        median ${tOurs.toFixed(3)} ms per envelope (101 runs), stated accuracy ${ENVELOPE_ACCURACY} relative torque`);
-    console.log(`  brute force: median ${tGrid.toFixed(1)} ms per envelope (${gridRuns} runs), (id, iq) grid ${2 * n + 1} x ${n + 1}, max error ${(gridErr * 100).toFixed(3)} % (tuned to <= ${GRID_ACCURACY * 100} %)`);
+    console.log(`  brute force: median ${tGrid.toFixed(1)} ms per envelope (${gridRuns} run${gridRuns > 1 ? 's' : ''}), (id, iq) grid ${2 * n + 1} x ${n + 1}, max error ${(gridErr * 100).toFixed(3)} % (tuned to <= ${GRID_ACCURACY * 100} %)`);
     const ratio = tGrid / tOurs;
     console.log(`  ratio: ${ratio.toFixed(0)}x faster (target >= 50x: ${ratio >= 50 ? 'met' : 'NOT met'}); under 2 ms: ${tOurs < 2 ? 'met' : 'NOT met'}`);
   },

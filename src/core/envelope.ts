@@ -132,6 +132,22 @@ function circleRoot(a: number, b: number, ga: number, gb: number): number {
 }
 
 /**
+ * Zero in (-1, 1) of the parabola through (-1, a), (0, b), (1, c), in units of the sample step, nearest
+ * to 0; NaN when there is none (used only as a Newton start).
+ */
+function parabolaZero(a: number, b: number, c: number): number {
+  const A = 0.5 * (a + c) - b;
+  const B = 0.5 * (c - a);
+  if (A === 0) return B === 0 ? Number.NaN : -b / B;
+  const disc = B * B - 4 * A * b;
+  if (disc < 0) return Number.NaN;
+  const q = -0.5 * (B + (B >= 0 ? 1 : -1) * Math.sqrt(disc));
+  const r1 = q / A;
+  const r2 = q !== 0 ? b / q : r1;
+  return Math.abs(r1) < Math.abs(r2) ? r1 : r2;
+}
+
+/**
  * Where |v(theta)|² dips lowest on the circle in [lo, hi] around a sampled minimum x0, or the first
  * point found with |v| <= Vmax: Newton on dg/dtheta with the analytic second derivative
  * (d²v/dtheta² = -(v - b) on the circle), safeguarded by bisection on the sign of dg/dtheta.
@@ -166,20 +182,27 @@ function circleMin(lo: number, hi: number, x0: number): number {
  * of dJ/dphi; golden section when the derivative does not change sign across the window.
  * Leaves the point in eId, eIq.
  */
-function ellipseMax(lo: number, hi: number, x0: number): void {
+function ellipseMax(k: number): void {
+  let lo = (k - 1) * STEP;
+  let hi = (k + 1) * STEP;
   const D = RS * RS + WE * WE * LD * LQ;
   const kv = VM / D;
   const K = SG * 1.5 * P;
   const dl = LD - LQ;
-  const dJ = (x: number): number => {
-    const c = Math.cos(x), sn = Math.sin(x);
+  // dJ/dphi at a sample angle, from the cos/sin tables
+  const dJ = (j: number): number => {
+    const c = COS[j], sn = SIN[j];
     onEllipseCS(c, sn);
     const did = kv * (WE * LQ * c - RS * sn);
     const diq = kv * (WE * LD * sn + RS * c);
     return K * (diq * (PSI + dl * eId) + eIq * dl * did);
   };
-  const hl = dJ(lo);
-  const hh = dJ(hi);
+  const hl = dJ(k === 0 ? NS - 1 : k - 1);
+  const hh = dJ(k + 1 === NS ? 0 : k + 1);
+  const hm = dJ(k);
+  // start from the zero of the parabola through the three derivative samples (clamped into the window)
+  const x0s = parabolaZero(hl, hm, hh);
+  const x0 = k * STEP + (Number.isFinite(x0s) && Math.abs(x0s) < 1 ? x0s : 0) * STEP;
   if (hl > 0 && hh < 0) {
     let x = x0;
     for (let it = 0; it < ROOT_STEPS; it++) {
@@ -291,7 +314,7 @@ export function maxTorqueCore(m: DqMachine, Vmax: number, Imax: number, we: numb
       const rw = Math.sqrt(rS[k]) + reach;
       const lj = 1.5 * P * (PSI + Math.SQRT2 * Math.abs(LD - LQ) * rw) * (reach / STEP);
       if (Math.max(a, b, c) + 0.5 * lj * STEP < Math.max(bestJ, floor)) continue;
-      ellipseMax((k - 1) * STEP, (k + 1) * STEP, k * STEP);
+      ellipseMax(k);
       if (eId * eId + eIq * eIq <= im2) offer(eId, eIq, 2);
     }
   }
@@ -345,7 +368,7 @@ export function maxTorqueCore(m: DqMachine, Vmax: number, Imax: number, we: numb
             const dvq = IM * (-WE * LD * sn + RS * c);
             const dg = 2 * Math.abs(vd * dvd + vq * dvq);
             const e = WE * PSI, xd = WE * LD, xq = WE * LQ;
-            const g2 = 2 * Math.abs(e) * IM * Math.hypot(xd, RS) + 4 * IM * IM * Math.hypot(0.5 * (xd * xd - xq * xq), RS * (xd - xq));
+            const g2 = 2 * Math.abs(e) * IM * Math.sqrt(xd * xd + RS * RS) + 4 * IM * IM * Math.sqrt(0.25 * (xd * xd - xq * xq) ** 2 + (RS * (xd - xq)) ** 2);
             if (ga - dg * STEP - 0.5 * g2 * STEP * STEP > 0) continue;
           }
           const r = circleMin(a - STEP, b, a);
