@@ -347,8 +347,19 @@ export function runSimulation(setup: SimulationSetup, opts: RunOptions = {}): Si
     tId[idx] = id;
     tIq[idx] = iq;
     // applied voltage in dq at the mid-period angle
-    const thm = th + 0.5 * p * w * Ts;
-    const cm = Math.cos(thm), sm = Math.sin(thm);
+    const dm = 0.5 * p * w * Ts;
+    let cm: number, sm: number;
+    if (dm > -0.5 && dm < 0.5) {
+      // rotate (c, s) by dm with the same short series as the plant (truncation below 1e-13)
+      const d2 = dm * dm;
+      const sd = dm * (1 - (d2 / 6) * (1 - (d2 / 20) * (1 - (d2 / 42) * (1 - (d2 / 72) * (1 - d2 / 110)))));
+      const cd = 1 - (d2 / 2) * (1 - (d2 / 12) * (1 - (d2 / 30) * (1 - (d2 / 56) * (1 - (d2 / 90) * (1 - d2 / 132)))));
+      cm = c * cd - s * sd;
+      sm = s * cd + c * sd;
+    } else {
+      cm = Math.cos(th + dm);
+      sm = Math.sin(th + dm);
+    }
     tVd[idx] = vab[0]! * cm + vab[1]! * sm;
     tVq[idx] = -vab[0]! * sm + vab[1]! * cm;
     const vlen = Math.sqrt(vab[0]! * vab[0]! + vab[1]! * vab[1]!);
