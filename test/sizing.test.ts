@@ -1,4 +1,5 @@
 import { describe, expect, it } from 'vitest';
+import fc from 'fast-check';
 import type { DqMachine, InverterSpec, Requirement } from '../src/core/types';
 import { leastVoltageLimit, sizeDrive } from '../src/core/sizing';
 import { driveLimits, voltageLimit } from '../src/core/inverter';
@@ -85,5 +86,26 @@ describe('sizing', () => {
   it('rejects bad requirements with the path', () => {
     expect(() => sizeDrive(IPM, INV, [{ label: 'x', speed_rpm: Number.NaN, torque_Nm: 1 }])).toThrow(/requirements\[0\].speed_rpm/);
     expect(() => sizeDrive(IPM, { ...INV, voltageUtilization: 0 }, REQS)).toThrow(InputError);
+  });
+
+  it('property: no NaN in any verdict for valid machines and requirements', () => {
+    const machine = fc.record({
+      polePairs: fc.integer({ min: 1, max: 8 }),
+      Rs: fc.oneof(fc.constant(0), fc.double({ min: 1e-3, max: 0.5, noNaN: true })),
+      Ld: fc.double({ min: 5e-5, max: 5e-3, noNaN: true }),
+      ratio: fc.oneof(fc.constant(1), fc.double({ min: 0.5, max: 4, noNaN: true })),
+      psiM: fc.oneof(fc.constant(0), fc.double({ min: 5e-3, max: 0.3, noNaN: true })),
+    }).filter((r) => r.psiM > 0 || r.ratio !== 1)
+      .map((r): DqMachine => ({ polePairs: r.polePairs, Rs: r.Rs, Ld: r.Ld, Lq: r.Ld * r.ratio, psiM: r.psiM }));
+    const req = fc.record({ label: fc.constant('p'), speed_rpm: fc.double({ min: -8000, max: 8000, noNaN: true }), torque_Nm: fc.double({ min: -100, max: 100, noNaN: true }) });
+    fc.assert(fc.property(machine, fc.array(req, { minLength: 1, maxLength: 3 }), (m, reqs) => {
+      const s = sizeDrive(m, INV, reqs);
+      expect(s.minImax === null || Number.isFinite(s.minImax)).toBe(true);
+      expect(s.minVdc === null || Number.isFinite(s.minVdc)).toBe(true);
+      for (const p of s.points) {
+        for (const x of [p.torqueAvailable_Nm, p.current_A, p.voltage_V, p.currentHeadroom_A, p.voltageHeadroom_V]) expect(Number.isFinite(x)).toBe(true);
+        if (p.met) expect(p.currentHeadroom_A).toBeGreaterThanOrEqual(-1e-9 * INV.Imax);
+      }
+    }), { numRuns: 40 });
   });
 });

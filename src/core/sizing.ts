@@ -62,6 +62,7 @@ export function leastVoltageLimit(m: DqMachine, Imax: number, speed_rad_s: numbe
   let lo = 0;
   for (let it = 0; it < 200 && hi - lo > 1e-12 * hi; it++) {
     const mid = 0.5 * (lo + hi);
+    if (!(mid > 0)) break;
     if (solveOperatingPoint(m, { Vmax: mid, Imax }, speed_rad_s, torque_Nm).feasible) hi = mid;
     else lo = mid;
   }
