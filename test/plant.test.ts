@@ -1,11 +1,21 @@
 import { describe, expect, it } from 'vitest';
 import ode45 from 'ode45-cash-karp';
-import { Solver } from 'odex';
+import { createRequire } from 'node:module';
 import { Plant, STATE_SIZE, loadSchedule, loadLevel, nextLoadBreak, coulombWidth } from '../src/core/plant';
 import type { PlantParams } from '../src/core/plant';
 import type { DqMachine } from '../src/core/types';
 import { solveOperatingPoint } from '../src/core/operating-point';
 import { InputError } from '../src/core/errors';
+
+// odex ships its TypeScript source, which the project's strict type-check would then compile;
+// load it at run time with a local type instead
+interface OdexSolver {
+  absoluteTolerance: number;
+  relativeTolerance: number;
+  maxSteps: number;
+  solve(f: (x: number, y: number[]) => number[], x0: number, y0: number[], x1: number): { y: number[] };
+}
+const { Solver } = createRequire(import.meta.url)('odex') as { Solver: new (n: number) => OdexSolver };
 
 const spm: DqMachine = { polePairs: 4, Rs: 0.5, Ld: 2e-3, Lq: 2e-3, psiM: 0.05 };
 const ipm: DqMachine = { polePairs: 4, Rs: 0.05, Ld: 0.3e-3, Lq: 0.9e-3, psiM: 0.06 };
