@@ -202,6 +202,14 @@ describe('Torquewise in a browser', () => {
     }
     await page.click('[data-testid="theme-toggle"]');
     await page.click('[data-testid="tab-datasheet"]');
+    // the datasheet as one HTML file with the plot inline as SVG
+    const [sheet] = await Promise.all([page.waitForEvent('download'), page.click('[data-testid="export-datasheet"]')]);
+    const sheetFile = join(SHOTS, 'datasheet.html');
+    await sheet.saveAs(sheetFile);
+    const html = readFileSync(sheetFile, 'utf8');
+    expect(html).toContain('<svg');
+    expect(html).toContain('IEC 61800-5-1');
+    expect(html).toContain('hill start');
     await page.emulateMedia({ media: 'print' });
     await page.screenshot({ path: shotPath('view-datasheet-print'), fullPage: true });
     await page.emulateMedia({ media: 'screen' });

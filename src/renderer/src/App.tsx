@@ -14,7 +14,9 @@ import { EnvelopeView } from './EnvelopeView';
 import { LoadStepsView } from './LoadStepsView';
 import { TuningView } from './TuningView';
 import { DatasheetView } from './DatasheetView';
-import { envelopeCsv } from './exports';
+import { envelopeCsv, tracesCsv } from './exports';
+import { lastSimulation } from './LoadStepsView';
+import { exportDatasheetHtml, exportVisiblePlot } from './image-export';
 
 type View = 'envelope' | 'loadsteps' | 'tuning' | 'datasheet';
 const VIEWS: Array<[View, string]> = [
@@ -80,7 +82,11 @@ function safeVerdicts(e: EnvelopeResults): Verdicts | null {
 const demoText = (file: string): string => DEMOS.find((d) => d.file === file)?.text ?? DEMOS[0]?.text ?? '{}';
 
 export function App() {
-  const [theme, setTheme] = useState<'light' | 'dark'>(() => (localStorage.getItem('tw-theme') === 'dark' ? 'dark' : 'light'));
+  const [theme, setTheme] = useState<'light' | 'dark'>(() => {
+    const t = localStorage.getItem('tw-theme') === 'dark' ? 'dark' : 'light';
+    document.documentElement.dataset.theme = t;
+    return t;
+  });
   const [draft, setDraft] = useState<Draft>(() => newDraft(parseText(demoText(DEFAULT_DEMO)) ?? {}));
   const [source, setSource] = useState<{ name: string; path: string | null; demo: boolean; readOnly: boolean }>({
     name: DEFAULT_DEMO,
@@ -232,8 +238,20 @@ export function App() {
       case 'export:envelope-csv':
         if (results) void bridge.export('envelope-csv', envelopeCsv(results), 'envelope.csv');
         break;
-      default:
-        window.dispatchEvent(new CustomEvent('tw-menu', { detail: e }));
+      case 'export:traces-csv': {
+        const sim = lastSimulation();
+        if (sim) void bridge.export('traces-csv', tracesCsv(sim.traces), 'traces.csv');
+        else setNotice('Run a load-step test first: there are no traces to export.');
+        break;
+      }
+      case 'export:plot-png':
+      case 'export:plot-svg':
+        void exportVisiblePlot(e.name === 'export:plot-png' ? 'png' : 'svg').then((ok) => ok || setNotice('No plot on this view to export.'));
+        break;
+      case 'export:datasheet':
+        setView('datasheet');
+        setTimeout(() => void exportDatasheetHtml().then((ok) => ok || setNotice('The datasheet could not be exported.')), 400);
+        break;
     }
   };
   useEffect(() => bridge.onMenu((e) => menuRef.current(e)), [bridge]);
@@ -277,7 +295,12 @@ export function App() {
             className="btn"
             data-testid="theme-toggle"
             aria-label="Switch light or dark theme"
-            onClick={() => setTheme((t) => (t === 'dark' ? 'light' : 'dark'))}
+            onClick={() => {
+              // the plots read their colours from the document while rendering: switch it first
+              const next = theme === 'dark' ? 'light' : 'dark';
+              document.documentElement.dataset.theme = next;
+              setTheme(next);
+            }}
           >
             {theme === 'dark' ? 'Light theme' : 'Dark theme'}
           </button>

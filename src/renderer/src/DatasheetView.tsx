@@ -9,7 +9,8 @@ import type { Results } from './compute';
 import { torqueSpeedFigure } from './EnvelopeView';
 import { envelopeCsv } from './exports';
 import { dataUrlToBytes, fileBridge, svgDataUrlToText } from './file-bridge';
-import { amps, num, rpm } from './format';
+import { amps, fixed, num, rpm } from './format';
+import { exportDatasheetHtml } from './image-export';
 
 function peakOf(a: Float64Array, feasible: Uint8Array): number {
   let best = 0;
@@ -82,18 +83,22 @@ export const DatasheetView = memo(function DatasheetView({ results, theme }: { r
   ];
   return (
     <div data-testid="view-datasheet">
+      <div className="print-only" style={{ fontSize: 10, marginBottom: 4 }}>
+        Torquewise datasheet, printed {new Date().toISOString().slice(0, 10)}. Speeds mechanical; currents peak phase with rms beside.
+      </div>
       <div className="toolbar no-print">
         <button className="btn" onClick={() => window.print()} data-testid="print">Print…</button>
         <button className="btn" onClick={() => void exportImage('png')}>Plot PNG</button>
         <button className="btn" onClick={() => void exportImage('svg')}>Plot SVG</button>
         <button className="btn" onClick={() => void fileBridge().export('envelope-csv', envelopeCsv(results), 'envelope.csv')}>Envelope CSV</button>
+        <button className="btn" data-testid="export-datasheet" onClick={() => void exportDatasheetHtml()}>Datasheet HTML</button>
       </div>
       <div className="sheet-head">
         <h2>{p.name || 'Unnamed project'}</h2>
         <span className="hint">hot corner: winding {p.conditions.windingTemp_C} °C, magnet {p.conditions.magnetTemp_C} °C; cold corner {p.conditions.coldTemp_C} °C</span>
       </div>
       <Cautions results={results} testId="datasheet-cautions" />
-      <div className="caution print-only">{s.caution}</div>
+      {!results.project.findings.concat(s.findings).some(isHazard) && <div className="caution">{s.caution}</div>}
       <div className="cols">
         <div className="card">
           <h4>Summary</h4>
@@ -141,9 +146,9 @@ export const DatasheetView = memo(function DatasheetView({ results, theme }: { r
                   {num(pt.current_A)} A peak<br />
                   {num(pt.current_A / SQRT2)} A rms
                 </td>
-                <td className="num">{num(pt.currentHeadroom_A)} A peak</td>
+                <td className="num">{fixed(pt.currentHeadroom_A, 1)} A peak</td>
                 <td className="num">{num(pt.voltage_V)} V peak</td>
-                <td className="num">{num(pt.voltageHeadroom_V)} V</td>
+                <td className="num">{fixed(pt.voltageHeadroom_V, 1)} V</td>
                 <td>{pt.limitedBy}</td>
                 <td className={pt.met ? 'pass' : 'fail'}>{pt.met ? 'met' : 'NOT met'}</td>
               </tr>

@@ -4,6 +4,7 @@ import { memo, useCallback, useMemo, useRef, useState } from 'react';
 import Plotly from 'plotly.js-dist-min';
 import type { Data, Layout } from 'plotly.js-dist-min';
 import { solveOperatingPoint } from '../../core/operating-point';
+import { mtpaCurrentForTorque } from '../../core/mtpa';
 import { RAD_S_TO_RPM, RPM_TO_RAD_S, SQRT2 } from '../../core/units';
 import type { OperatingPoint } from '../../core/types';
 import { axis, baseLayout, CURVE, Plot, readTheme, REGION_FILL } from './Plot';
@@ -176,7 +177,7 @@ export function torqueSpeedFigure(r: Results, theme: 'light' | 'dark', show: Sho
     margin: { l: 70, r: 16, t: 12, b: 40 },
     hovermode: 'closest',
     showlegend: true,
-    legend: { orientation: 'h', x: 0, y: withPower ? -0.1 : -0.2, font: { size: 11 } },
+    legend: { orientation: 'h', x: 0, y: withPower ? -0.1 : -0.3, font: { size: 11 } },
     xaxis: axis(t, withPower ? '' : xTitle, { range: [0, r.speedMax * RAD_S_TO_RPM], anchor: withPower ? 'y2' : 'y', showticklabels: true }),
     yaxis: axis(t, 'torque, N·m', withPower ? { domain: [0.45, 1], range: yRange } : { range: yRange }),
     ...(withPower ? { yaxis2: axis(t, 'mechanical power, kW', { domain: [0, 0.37] }) } : {}),
@@ -282,13 +283,9 @@ export function planeFigure(r: Results, theme: 'light' | 'dark', speeds: number[
       line: { color: t.muted, width: 1, dash: 'dot' },
       hoverinfo: 'skip',
     });
-    // label at the left end of the line (inside the view)
-    for (let k = 0; k < x.length; k++) {
-      if (x[k] !== null) {
-        annotations.push({ x: x[k], y: y[k], text: `${num(T, 3)} N·m`, showarrow: false, xanchor: 'left', yanchor: 'bottom', font: { size: 10, color: t.muted } });
-        break;
-      }
-    }
+    // label at the line's least-current (MTPA) point
+    const at = mtpaCurrentForTorque(m, T);
+    if (at.current <= span) annotations.push({ x: at.id, y: at.iq, text: `${num(T, 3)} N·m`, showarrow: false, xanchor: 'right', yanchor: 'bottom', font: { size: 10, color: t.muted } });
   });
   // the path of the reference envelope through the plane
   const e = r.main;
@@ -298,9 +295,9 @@ export function planeFigure(r: Results, theme: 'light' | 'dark', speeds: number[
     px.push(e.id[k]!);
     py.push(e.iq[k]!);
   }
-  data.push({ type: 'scatter', mode: 'lines', x: px, y: py, name: 'envelope path (peak, hot)', line: { color: col.hot, width: 3 }, opacity: 0.5, hoverinfo: 'skip' });
+  data.push({ type: 'scatter', mode: 'lines', x: px, y: py, name: 'envelope path', line: { color: col.hot, width: 3 }, opacity: 0.5, hoverinfo: 'skip' });
   const ch = -m.psiM / m.Ld;
-  if (ch > -span) data.push({ type: 'scatter', mode: 'markers', x: [ch], y: [0], name: '−ψm/Ld', marker: { symbol: 'x', size: 9, color: col.volt }, hoverinfo: 'skip' });
+  if (ch > -span) data.push({ type: 'scatter', mode: 'text+markers', x: [ch], y: [0], text: ['−ψm/Ld'], textposition: 'bottom center', textfont: { size: 10, color: col.volt }, showlegend: false, marker: { symbol: 'x', size: 9, color: col.volt }, hoverinfo: 'skip' });
   if (op) {
     data.push({
       type: 'scatter',
@@ -315,7 +312,7 @@ export function planeFigure(r: Results, theme: 'light' | 'dark', speeds: number[
   const layout: Layout = baseLayout(t, {
     margin: { l: 64, r: 16, t: 16, b: 40 },
     showlegend: true,
-    legend: { orientation: 'h', x: 0, y: -0.1, font: { size: 11 } },
+    legend: { orientation: 'h', x: 0, y: -0.1, font: { size: 10 } },
     hovermode: false,
     xaxis: axis(t, 'id, A peak', { range: [-span, 0.25 * Imax], constrain: 'domain' }),
     yaxis: axis(t, 'iq, A peak', { range: [-span, span], scaleanchor: 'x', scaleratio: 1, constrain: 'domain' }),

@@ -27,6 +27,9 @@ type RunState = { kind: 'idle' } | { kind: 'running'; fraction: number; started:
 // The last result survives switching views.
 let kept: SimDone | null = null;
 
+/** The last finished simulation (for the Export menu). */
+export const lastSimulation = (): SimDone | null => kept;
+
 const ROWS = 5;
 const GAP = 0.025;
 const domain = (i: number): [number, number] => {

@@ -1,0 +1,35 @@
+// Plot images through plotly's image API, and the datasheet as one self-contained HTML file.
+import Plotly from 'plotly.js-dist-min';
+import css from './styles.css?raw';
+import { dataUrlToBytes, fileBridge, svgDataUrlToText } from './file-bridge';
+
+const PLOTS = ['envelope-plot', 'datasheet-plot', 'traces-plot', 'bode-plot', 'plane-plot'];
+
+/** The first plot shown on the current view, exported as PNG or SVG. */
+export async function exportVisiblePlot(format: 'png' | 'svg'): Promise<boolean> {
+  const el = PLOTS.map((id) => document.querySelector<HTMLElement>(`[data-testid="${id}"]`)).find((e) => e !== null);
+  if (!el) return false;
+  const url = await Plotly.toImage(el, { format, width: 1200, height: 800, scale: format === 'png' ? 2 : 1 });
+  const name = (el.dataset.testid ?? 'plot').replace('-plot', '');
+  if (format === 'png') await fileBridge().export('plot-png', dataUrlToBytes(url), `${name}.png`);
+  else await fileBridge().export('plot-svg', svgDataUrlToText(url), `${name}.svg`);
+  return true;
+}
+
+const escape = (s: string): string => s.replace(/&/g, '&amp;').replace(/</g, '&lt;').replace(/>/g, '&gt;');
+
+/** The Datasheet view as a static HTML page: its tables and cautions, the plot as inline SVG. */
+export async function exportDatasheetHtml(): Promise<boolean> {
+  const view = document.querySelector<HTMLElement>('[data-testid="view-datasheet"]');
+  const plot = document.querySelector<HTMLElement>('[data-testid="datasheet-plot"]');
+  if (!view || !plot) return false;
+  const svg = svgDataUrlToText(await Plotly.toImage(plot, { format: 'svg', width: 900, height: 520 }));
+  const copy = view.cloneNode(true) as HTMLElement;
+  copy.querySelectorAll('.no-print, .toolbar').forEach((n) => n.remove());
+  const slot = copy.querySelector('[data-testid="datasheet-plot"]');
+  if (slot) slot.outerHTML = `<div class="plot-image">${svg}</div>`;
+  const title = escape(document.querySelector('.sheet-head h2')?.textContent ?? 'Torquewise datasheet');
+  const html = `<!doctype html><html lang="en"><head><meta charset="utf-8"><title>${title}</title><style>${css}</style></head><body data-theme="light"><div class="view">${copy.outerHTML}</div></body></html>`;
+  await fileBridge().export('datasheet', html, 'datasheet.html');
+  return true;
+}
