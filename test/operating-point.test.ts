@@ -82,6 +82,34 @@ describe('operating point', () => {
     expect(t.voltage).toBeLessThanOrEqual(lim.Vmax * (1 + 1e-12));
   });
 
+  it('with a large Rs the voltage limit can force a least generating torque: smaller torques are infeasible (voltage)', () => {
+    // common practice (no source): only the Rs drop of a generating current brings |v| under Vmax here;
+    // the dense check below finds the reachable torque range [about 758, 1010] N·m (test only)
+    const m: DqMachine = { polePairs: 5, Rs: 0.6256, Ld: 1.0787e-5, Lq: 1.0787e-5, psiM: 0.17984 };
+    const lim = { Vmax: 528.97, Imax: 749.24 };
+    const w = -983.67;
+    const we = m.polePairs * w;
+    let tmin = Infinity, tmax = -Infinity;
+    for (let a = 0; a <= 600; a++) for (let b = 0; b <= 600; b++) {
+      const id = -lim.Imax + (2 * lim.Imax * a) / 600, iq = -lim.Imax + (2 * lim.Imax * b) / 600;
+      if (id * id + iq * iq > lim.Imax ** 2) continue;
+      if (Math.hypot(m.Rs * id - we * m.Lq * iq, m.Rs * iq + we * (m.Ld * id + m.psiM)) > lim.Vmax) continue;
+      const T = torque(m, id, iq);
+      tmin = Math.min(tmin, T); tmax = Math.max(tmax, T);
+    }
+    expect(tmin).toBeGreaterThan(700);
+    const small = solveOperatingPoint(m, lim, w, 92);
+    expect(small.feasible).toBe(false);
+    expect(small.limitedBy).toBe('voltage');
+    expect(solveOperatingPointUnlimitedCurrent(m, lim.Vmax, w, 92).feasible).toBe(false);
+    const mid = solveOperatingPoint(m, lim, w, 0.5 * (tmin + tmax));
+    expect(mid.feasible).toBe(true);
+    expect(mid.torque).toBeCloseTo(0.5 * (tmin + tmax), 8);
+    const top = maxTorquePoint(m, lim, w, 'generating');
+    expect(top.torque).toBeGreaterThanOrEqual(tmax * (1 - 1e-9));
+    expect(top.torque / tmax).toBeCloseTo(1, 2);
+  });
+
   it('zero torque with the open-circuit voltage below the limit needs no current', () => {
     const p = solveOperatingPoint(IPM, LIM, 100, 0);
     expect(p.current).toBe(0);

@@ -68,13 +68,14 @@ function zeroTorque(m: DqMachine, Vmax: number, speed: number): OperatingPoint |
 
 /**
  * Least current for torque T at speed, voltage limit Vmax, current unlimited. Returns the point, or
- * null when the torque is beyond MTPV at that speed.
+ * 'too-much' when the torque is beyond MTPV at that speed, or 'too-little' when the voltage limit
+ * forces more torque of that sign than T at any current (with Rs; or zero torque cannot be held).
  */
-function leastCurrent(m: DqMachine, Vmax: number, speed: number, T: number): OperatingPoint | null {
+function leastCurrent(m: DqMachine, Vmax: number, speed: number, T: number): OperatingPoint | 'too-much' | 'too-little' {
   const we = m.polePairs * speed;
   const sign: 1 | -1 = T < 0 ? -1 : 1;
   const Ta = Math.abs(T);
-  if (Ta === 0) return zeroTorque(m, Vmax, speed);
+  if (Ta === 0) return zeroTorque(m, Vmax, speed) ?? 'too-little';
   // MTPA for T: when its voltage fits it is the least current
   const mt = mtpaCurrentForTorque(m, T);
   const pm = point(m, speed, mt.id, mt.iq, 'mtpa');
@@ -86,13 +87,13 @@ function leastCurrent(m: DqMachine, Vmax: number, speed: number, T: number): Ope
   const top = Math.max(Ib, mt.current) * (1 + 1e-9);
   // least current whose largest torque reaches |T| ...
   const a = leastReaching(m, Vmax, we, sign, Ta, 0, top);
-  if (!a) return null;
+  if (!a) return 'too-much';
   // ... and whose smallest torque is not above it (with Rs the voltage limit can force torque of one sign)
   maxTorqueCore(m, Vmax, a.I, we, -sign as 1 | -1, sc, -Ta);
   let r = a;
   if (!(sc.ok && sc.J >= -Ta)) {
     const b = leastReaching(m, Vmax, we, -sign as 1 | -1, -Ta, a.I, top);
-    if (!b) return null;
+    if (!b) return 'too-little';
     r = b;
   }
   let id = r.id, iq = r.iq;
@@ -157,9 +158,11 @@ function polish(m: DqMachine, Vmax: number, we: number, T: number, id0: number, 
 }
 
 /**
- * Operating point for (speed, torque) ignoring the current limit (for sizing): feasible unless the
- * torque is beyond MTPV at that speed; then feasible=false, limitedBy 'beyond-mtpv' and the MTPA
- * point for the torque with the voltage it would need.
+ * Operating point for (speed, torque) ignoring the current limit (for sizing): feasible unless no
+ * current reaches the torque at that speed within Vmax; then feasible=false with the MTPA point for
+ * the torque and the voltage it would need, and limitedBy 'beyond-mtpv' (more torque than the
+ * voltage-limited maximum) or 'voltage' (with Rs the voltage limit forces more torque of that sign
+ * than asked, or zero torque cannot be held at that speed).
  */
 export function solveOperatingPointUnlimitedCurrent(m: DqMachine, Vmax: number, speed_rad_s: number, torque_Nm: number): OperatingPoint {
   assertMachine(m);
@@ -167,14 +170,15 @@ export function solveOperatingPointUnlimitedCurrent(m: DqMachine, Vmax: number, 
   assertFinite('speed', speed_rad_s, 'rad/s');
   assertFinite('torque', torque_Nm, 'N·m');
   const p = leastCurrent(m, Vmax, speed_rad_s, torque_Nm);
-  if (p) {
+  if (typeof p === 'object') {
     p.limitedBy = p.region === 'mtpa' ? 'none' : 'voltage';
     return p;
   }
   const mt = mtpaCurrentForTorque(m, torque_Nm);
   const q = point(m, speed_rad_s, mt.id, mt.iq, 'mtpv');
   q.feasible = false;
-  q.limitedBy = 'beyond-mtpv';
+  q.torque = torque_Nm;
+  q.limitedBy = p === 'too-much' ? 'beyond-mtpv' : 'voltage';
   return q;
 }
 
@@ -182,8 +186,9 @@ export function solveOperatingPointUnlimitedCurrent(m: DqMachine, Vmax: number, 
  * Least-current (id, iq) giving torque_Nm at speed_rad_s (mechanical) within both limits.
  * Feasible: region 'mtpa' (limitedBy 'none') or 'field-weakening'/'mtpv' (limitedBy 'voltage').
  * Infeasible: feasible=false with the current and voltage it would need, and limitedBy
- * 'current' (even MTPA needs more than Imax), 'voltage' (field weakening needs more than Imax)
- * or 'beyond-mtpv' (no current reaches that torque at that speed within Vmax).
+ * 'current' (even MTPA needs more than Imax), 'voltage' (field weakening needs more than Imax, or
+ * with Rs the voltage limit forces more torque of that sign than asked at any current) or
+ * 'beyond-mtpv' (more torque than any current reaches at that speed within Vmax).
  */
 export function solveOperatingPoint(m: DqMachine, lim: DriveLimits, speed_rad_s: number, torque_Nm: number): OperatingPoint {
   assertLimits(lim);

@@ -31,7 +31,7 @@ export interface SizingPoint {
 }
 
 export interface SizingResult {
-  /** least peak current meeting every point at the given bus, A peak; null if a point is beyond MTPV for any current */
+  /** least peak current meeting every point at the given bus, A peak; null if a point cannot be met at any current (beyond MTPV, or torque forced by the voltage limit) */
   minImax: number | null;
   /** least DC bus meeting every point with the given Imax, V; null if a point needs more than Imax at any bus */
   minVdc: number | null;
