@@ -124,6 +124,15 @@ describe('Torquewise in a browser', () => {
     await page.screenshot({ path: shotPath('04-bad-input') });
     await edit(path, good);
     expect(await page.$(`.inputs [data-msg-for="${path}"]`)).toBeNull();
+    // legal but odd: a bus far too low for any speed, an inverse-saliency motor; nothing may crash
+    await edit('inverter.Vdc', '2.5');
+    expect(await baseSpeedRpm()).toBeLessThan(20);
+    await edit('inverter.Vdc', '350');
+    await edit('nameplate.Lq.value', '0.0003');
+    expect(await curvesDrawn('envelope-plot')).toBeGreaterThanOrEqual(8);
+    await edit('nameplate.Lq.value', '0.0015');
+    // datasheet terms are shown with what each was taken to mean
+    expect(await page.textContent('[data-testid="taken-as"]')).toMatch(/line-to-line/);
   });
 
   it('exports an envelope CSV whose numbers match the engine', async () => {
