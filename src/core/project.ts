@@ -10,7 +10,7 @@ import { driveLimits } from './inverter';
 import { fmt, nameplateToModel, type Interpretation, type RatedData } from './nameplate';
 import { parseProject, type ProjectFile } from './schema';
 import { solveOperatingPoint } from './operating-point';
-import { SQRT2 } from './units';
+import { RPM_TO_RAD_S, SQRT2 } from './units';
 
 export interface ResolvedProject {
   /** the validated file with its defaults filled in */
@@ -116,6 +116,7 @@ export function resolveProject(file: ProjectFile): ResolvedProject {
     const m = file.motor;
     machine20 = { polePairs: m.polePairs, Rs: m.Rs, Ld: m.Ld, Lq: m.Lq, psiM: m.psiM };
     mechanics = { inertia: m.inertia, viscousFriction: m.viscousFriction, coulombFriction: m.coulombFriction };
+    if (m.maxSpeed_rpm !== undefined) rated = { maxSpeed_rad_s: m.maxSpeed_rpm * RPM_TO_RAD_S };
   } else if (file.nameplate) {
     const r = nameplateToModel(file.nameplate, { magnetTempCoeff: c.magnetTempCoeff, path: 'nameplate' });
     machine20 = r.model;

@@ -28,6 +28,7 @@ export const KEYS: Readonly<Record<string, { unit: string; doc: string }>> = {
   'motor.inertia': { unit: 'kg·m²', doc: 'rotor inertia' },
   'motor.viscousFriction': { unit: 'N·m·s/rad', doc: 'viscous friction B, default 0' },
   'motor.coulombFriction': { unit: 'N·m', doc: 'Coulomb friction, default 0' },
+  'motor.maxSpeed_rpm': { unit: 'rpm', doc: 'maximum mechanical speed (safety checks and plot range)' },
 
   nameplate: { unit: '', doc: 'motor in datasheet terms (give this or motor)' },
   'nameplate.poles': { unit: '', doc: 'number of magnet poles (even); or polePairs' },
@@ -161,6 +162,7 @@ const motorSchema = z
     inertia: num('motor.inertia', 0, 1e5, { gtMin: true }),
     viscousFriction: num('motor.viscousFriction', 0, 1e4).default(0),
     coulombFriction: num('motor.coulombFriction', 0, 1e5).default(0),
+    maxSpeed_rpm: num('motor.maxSpeed_rpm', 0, 1e6, { gtMin: true }).optional(),
   })
   .describe(doc('motor'));
 

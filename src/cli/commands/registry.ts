@@ -1,13 +1,17 @@
 import type { Command } from '../command';
+import { paramsCommand } from './params';
 import { envelopeCommand } from './envelope';
 import { pointCommand } from './point';
+import { sizeCommand } from './size';
 import { simulateCommand } from './simulate';
 import { tuneCommand } from './tune';
 
 /** Every command of the CLI, in the order `help` lists them. Add a command by importing it here. */
 export const COMMANDS: Command[] = [
+  paramsCommand,
   envelopeCommand,
   pointCommand,
+  sizeCommand,
   simulateCommand,
   tuneCommand,
 ];

@@ -1,0 +1,70 @@
+import type { Command } from '../command';
+import { deriveConstants } from '../../core/nameplate';
+import { safetyReport } from '../../core/safety';
+import { projectSpeedRange } from '../../core/speed-range';
+import { table, fmt } from '../table';
+import { peakToRms, radSToRpm } from '../../core/units';
+
+export const paramsCommand: Command = {
+  name: 'params',
+  summary: 'derived dq model (20 °C, hot, cold), what each input was taken to mean, findings',
+  usage: 'params <project.json> [--json]',
+  flags: {},
+  run(p) {
+    const corners = { '20C': p.machine20, hot: p.hot, cold: p.cold };
+    const derived = Object.fromEntries(Object.entries(corners).map(([k, m]) => [k, { model: m, ...deriveConstants(m) }]));
+    const { safetySpeed } = projectSpeedRange(p);
+    const safety = safetyReport(p.cold, p.inverter, safetySpeed);
+    const findings = [...p.findings, ...safety.findings];
+    const json = {
+      name: p.name,
+      model: p.machine20,
+      mechanics: p.mechanics,
+      hot: derived['hot'],
+      cold: derived['cold'],
+      at20C: derived['20C'],
+      conditions: p.conditions,
+      limits: { peak: p.peak, continuous: p.continuous },
+      interpretation: p.interpretation,
+      safety,
+      findings,
+    };
+    const rows: Array<[string, string, ...number[]]> = [];
+    const d = derived as Record<string, ReturnType<typeof deriveConstants> & { model: typeof p.hot }>;
+    const add = (label: string, unit: string, f: (x: ReturnType<typeof deriveConstants> & { model: typeof p.hot }) => number) =>
+      rows.push([label, unit, f(d['20C']!), f(d['cold']!), f(d['hot']!)]);
+    add('pole pairs', '-', (x) => x.model.polePairs);
+    add('Rs', 'ohm/phase', (x) => x.model.Rs);
+    add('Ld', 'mH', (x) => x.model.Ld * 1e3);
+    add('Lq', 'mH', (x) => x.model.Lq * 1e3);
+    add('psiM', 'mWb peak', (x) => x.model.psiM * 1e3);
+    add('Kt', 'N·m/A peak', (x) => x.Kt_Nm_per_Apeak);
+    add('Kt', 'N·m/A rms', (x) => x.Kt_Nm_per_Arms);
+    add('Ke', 'V LL rms/krpm', (x) => x.Ke_VLLrms_per_krpm);
+    add('char. current', 'A peak', (x) => x.characteristicCurrent_A);
+    add('char. current', 'A rms', (x) => peakToRms(x.characteristicCurrent_A));
+    add('saliency Lq/Ld', '-', (x) => x.saliency);
+    add('tau_d', 'ms', (x) => x.tauD_s * 1e3);
+    add('tau_q', 'ms', (x) => x.tauQ_s * 1e3);
+    const text = [
+      `${p.name}`,
+      '',
+      table(['quantity', 'unit', '20 °C', `cold ${p.conditions.coldTemp_C} °C`, `hot ${p.conditions.windingTemp_C}/${p.conditions.magnetTemp_C} °C`], rows),
+      '',
+      `limits: Vmax ${fmt(p.peak.Vmax)} V peak phase (${p.inverter.modulation}, Vdc ${fmt(p.inverter.Vdc)} V), ` +
+        `Imax ${fmt(p.peak.Imax)} A peak = ${fmt(peakToRms(p.peak.Imax))} A rms, Icont ${fmt(p.continuous.Imax)} A peak = ${fmt(peakToRms(p.continuous.Imax))} A rms`,
+      '',
+      'inputs taken to mean:',
+      ...(p.interpretation.length ? p.interpretation.map((i) => `  ${i.field}: ${i.given} -> ${i.takenAs}`) : ['  (model terms given directly)']),
+      '',
+      `safety: open-circuit back-EMF ${fmt(safety.backEmfLineLinePeak_V)} V LL peak at ${fmt(radSToRpm(safetySpeed))} rpm (cold magnet) vs Vdc ${fmt(p.inverter.Vdc)} V; ` +
+        `uncontrolled-generator speed ${safety.uncontrolledGeneratorSpeed_rad_s === null ? 'none (no magnet flux)' : fmt(radSToRpm(safety.uncontrolledGeneratorSpeed_rad_s)) + ' rpm'}`,
+      '',
+      'findings:',
+      ...(findings.length ? findings.map((f) => `  [${f.severity}] ${f.field ? f.field + ': ' : ''}${f.message}`) : ['  none']),
+      '',
+      safety.caution,
+    ].join('\n');
+    return { json, text };
+  },
+};
