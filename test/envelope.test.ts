@@ -20,39 +20,73 @@ function volt(m: DqMachine, w: number, id: number, iq: number): number {
 }
 
 /**
- * Independent dense search (slow, for tests only): a fine polar grid of the current disc, then
- * three zoomed local grids around the best feasible cell. Knows nothing of the solver's method.
+ * Independent dense search (slow, for tests only): a polar grid of the current disc (then four zoomed
+ * polar grids around its best feasible cell), and a fine Cartesian grid over the feasible set's
+ * bounding box (then four zoomed Cartesian grids); the better of the two. Knows nothing of the
+ * solver's method.
  */
 function denseMaxTorque(m: DqMachine, lim: DriveLimits, w: number, sign: 1 | -1): number {
+  const ok = (id: number, iq: number) => id * id + iq * iq <= lim.Imax * lim.Imax && volt(m, w, id, iq) <= lim.Vmax;
   const nr = 400, nt = 1440;
-  let best = -Infinity, br = 0, bt = 0;
+  let d0 = Infinity, d1 = -Infinity, q0 = Infinity, q1 = -Infinity;
+  let pBest = -Infinity, pr = 0, pt = 0;
   for (let i = 0; i <= nr; i++) {
     const r = (lim.Imax * i) / nr;
     for (let j = 0; j < nt; j++) {
       const t = (2 * Math.PI * j) / nt;
       const id = r * Math.cos(t), iq = r * Math.sin(t);
-      if (volt(m, w, id, iq) > lim.Vmax) continue;
+      if (!ok(id, iq)) continue;
+      d0 = Math.min(d0, id); d1 = Math.max(d1, id); q0 = Math.min(q0, iq); q1 = Math.max(q1, iq);
       const T = sign * torque(m, id, iq);
-      if (T > best) { best = T; br = r; bt = t; }
+      if (T > pBest) { pBest = T; pr = r; pt = t; }
     }
   }
+  // polar zoom around the best polar cell (suits points on the current circle)
   let dr = lim.Imax / nr, dt = (2 * Math.PI) / nt;
   for (let level = 0; level < 4; level++) {
-    const n = 120;
-    const r0 = br, t0 = bt;
-    for (let i = -n; i <= n; i++) {
-      const r = Math.min(lim.Imax, Math.max(0, r0 + (3 * dr * i) / n));
-      for (let j = -n; j <= n; j++) {
-        const t = t0 + (3 * dt * j) / n;
+    const k = 120;
+    const r0 = pr, t0 = pt;
+    for (let i = -k; i <= k; i++) {
+      const r = Math.min(lim.Imax, Math.max(0, r0 + (3 * dr * i) / k));
+      for (let j = -k; j <= k; j++) {
+        const t = t0 + (3 * dt * j) / k;
         const id = r * Math.cos(t), iq = r * Math.sin(t);
-        if (volt(m, w, id, iq) > lim.Vmax) continue;
+        if (!ok(id, iq)) continue;
         const T = sign * torque(m, id, iq);
-        if (T > best) { best = T; br = r; bt = t; }
+        if (T > pBest) { pBest = T; pr = r; pt = t; }
       }
     }
-    dr = (3 * dr) / n; dt = (3 * dt) / n;
+    dr = (3 * dr) / k; dt = (3 * dt) / k;
   }
-  return sign * best;
+  const pad = (2 * Math.PI * lim.Imax) / nt + lim.Imax / nr;
+  d0 -= pad; d1 += pad; q0 -= pad; q1 += pad;
+  let best = -Infinity, bd = 0, bq = 0;
+  const n = 1000;
+  for (let i = 0; i <= n; i++) {
+    const id = d0 + ((d1 - d0) * i) / n;
+    for (let j = 0; j <= n; j++) {
+      const iq = q0 + ((q1 - q0) * j) / n;
+      if (!ok(id, iq)) continue;
+      const T = sign * torque(m, id, iq);
+      if (T > best) { best = T; bd = id; bq = iq; }
+    }
+  }
+  let hd = (d1 - d0) / n, hq = (q1 - q0) / n;
+  for (let level = 0; level < 4; level++) {
+    const k = 120;
+    const c0 = bd, c1 = bq;
+    for (let i = -k; i <= k; i++) {
+      const id = c0 + (3 * hd * i) / k;
+      for (let j = -k; j <= k; j++) {
+        const iq = c1 + (3 * hq * j) / k;
+        if (!ok(id, iq)) continue;
+        const T = sign * torque(m, id, iq);
+        if (T > best) { best = T; bd = id; bq = iq; }
+      }
+    }
+    hd = (3 * hd) / k; hq = (3 * hq) / k;
+  }
+  return sign * Math.max(best, pBest);
 }
 
 describe('envelope against outside references', () => {
@@ -113,7 +147,8 @@ describe('envelope against outside references', () => {
         expect(p.current).toBeLessThanOrEqual(lim.Imax * (1 + 1e-9));
         expect(p.voltage).toBeLessThanOrEqual(lim.Vmax * (1 + 1e-9));
         expect(sign * p.torque).toBeGreaterThanOrEqual(sign * ref * (1 - 1e-9));
-        expect(Math.abs(p.torque - ref) / Math.abs(ref)).toBeLessThan(1e-3);
+        // 0.1 % asked; the dense search itself resolves about 5e-5, so that is what is asserted
+        expect(Math.abs(p.torque - ref) / Math.abs(ref)).toBeLessThan(1e-4);
       }
     }
     expect([...seen].sort()).toEqual(['field-weakening', 'mtpa', 'mtpv']);

@@ -463,7 +463,7 @@ export interface Envelope {
   direction: Direction;
   /** highest speed at which the MTPA torque at Imax is available, rad/s */
   baseSpeed: number;
-  /** speed where the largest torque reaches zero, rad/s; null when unbounded (none below 1e6 x base speed) */
+  /** speed where the largest torque reaches zero, rad/s; null when unbounded (torque still there at 2^20 x the first bracket guess, about max(base speed, Vmax / (p max(psiM, Ld Imax)))) */
   maxSpeed: number | null;
   /** psiM / Ld, A peak */
   characteristicCurrent: number;
