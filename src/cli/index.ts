@@ -55,6 +55,11 @@ export async function main(argv: readonly string[], out = process.stdout, err = 
 
 const isEntry = process.argv[1] !== undefined && /cli[\\/]index\.(ts|js)$/.test(process.argv[1]);
 if (isEntry) {
+  // `... | head` closes the pipe early: that is the reader's choice, not an error.
+  process.stdout.on('error', (e: NodeJS.ErrnoException) => {
+    if (e.code === 'EPIPE') process.exit(0);
+    throw e;
+  });
   void main(process.argv.slice(2)).then((code) => {
     process.exitCode = code;
   });

@@ -272,7 +272,7 @@ export function runSimulation(setup: SimulationSetup, opts: RunOptions = {}): Si
     ? ode45(y, plantDeriv as never, 0, Ts, {
         tol: setup.solver.tol,
         dtMaxMag: Ts,
-        errorScaleFunction: floorErrorScale as never,
+        errorScaleFunction: floorErrorScale,
         errorReduceFunction: maxReduce,
         verbose: false,
       })

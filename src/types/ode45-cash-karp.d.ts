@@ -7,7 +7,8 @@ declare module 'ode45-cash-karp' {
     maxDecreaseFactor?: number;
     dtMinMag?: number;
     dtMaxMag?: number;
-    errorScaleFunction?: (i: number, dt: number, y: Float64Array | number[], dydt: Float64Array | number[]) => number;
+    /** normalising factor for the error of component i; y and dydt are that component's values */
+    errorScaleFunction?: (i: number, dt: number, y: number, dydt: number) => number;
     errorReduceFunction?: (i: number, accumulatedError: number, errorEstimate: number) => number;
     errorPostFunction?: (accumulatedError: number) => number;
     verbose?: boolean;
