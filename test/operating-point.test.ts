@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
 import type { DqMachine, DriveLimits } from '../src/core/types';
-import { solveOperatingPoint, solveOperatingPointUnlimitedCurrent } from '../src/core/operating-point';
+import { canHoldTorque, solveOperatingPoint, solveOperatingPointUnlimitedCurrent } from '../src/core/operating-point';
 import { baseSpeed, maxTorquePoint } from '../src/core/envelope';
 import { mtpaCurrentForTorque, mtpvPoint } from '../src/core/mtpa';
 import { InputError } from '../src/core/errors';
@@ -202,6 +202,10 @@ describe('operating point', () => {
       (m, Vmax, Imax, w, T) => {
         const p = solveOperatingPoint(m, { Vmax, Imax }, w, T);
         for (const x of [p.torque, p.id, p.iq, p.current, p.vd, p.vq, p.voltage]) expect(Number.isFinite(x)).toBe(true);
+        // the quick feasibility test agrees with the solver (away from the boundary itself)
+        const hold = canHoldTorque(m, { Vmax, Imax }, w, T);
+        if (p.feasible && p.current < Imax * (1 - 1e-6)) expect(hold).toBe(true);
+        if (!p.feasible && p.current > Imax * (1 + 1e-6)) expect(hold).toBe(false);
         if (p.feasible) {
           expect(p.current).toBeLessThanOrEqual(Imax * (1 + 1e-9));
           expect(p.voltage).toBeLessThanOrEqual(Vmax * (1 + 1e-9));

@@ -199,3 +199,22 @@ export function solveOperatingPoint(m: DqMachine, lim: DriveLimits, speed_rad_s:
   p.limitedBy = mtpaCurrentForTorque(m, torque_Nm).current > lim.Imax ? 'current' : 'voltage';
   return p;
 }
+
+/**
+ * Whether (speed, torque) can be held within both limits, without locating the point: the limits
+ * cut a convex set from the (id, iq) plane, so the reachable torques form the interval
+ * [Tmin, Tmax] and two max-torque solves decide it. Inputs are validated.
+ */
+export function canHoldTorque(m: DqMachine, lim: DriveLimits, speed_rad_s: number, torque_Nm: number): boolean {
+  assertMachine(m);
+  assertLimits(lim);
+  assertFinite('speed', speed_rad_s, 'rad/s');
+  assertFinite('torque', torque_Nm, 'N·m');
+  const we = m.polePairs * speed_rad_s;
+  const sign: 1 | -1 = torque_Nm < 0 ? -1 : 1;
+  const Ta = Math.abs(torque_Nm);
+  maxTorqueCore(m, lim.Vmax, lim.Imax, we, sign, sc, Ta);
+  if (!(sc.ok && sc.J >= Ta)) return false;
+  maxTorqueCore(m, lim.Vmax, lim.Imax, we, -sign as 1 | -1, sc, -Ta);
+  return sc.ok && sc.J >= -Ta;
+}

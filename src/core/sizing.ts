@@ -9,7 +9,7 @@ import { busForVoltageLimit, driveLimits } from './inverter';
 import { rpmToRadS } from './units';
 import { assertMachine, mtpaCurrentForTorque } from './mtpa';
 import { maxTorquePoint, directionSign } from './envelope';
-import { solveOperatingPoint, solveOperatingPointUnlimitedCurrent } from './operating-point';
+import { canHoldTorque, solveOperatingPoint, solveOperatingPointUnlimitedCurrent } from './operating-point';
 
 export interface SizingPoint {
   label: string;
@@ -63,7 +63,7 @@ export function leastVoltageLimit(m: DqMachine, Imax: number, speed_rad_s: numbe
   for (let it = 0; it < 200 && hi - lo > 1e-12 * hi; it++) {
     const mid = 0.5 * (lo + hi);
     if (!(mid > 0)) break;
-    if (solveOperatingPoint(m, { Vmax: mid, Imax }, speed_rad_s, torque_Nm).feasible) hi = mid;
+    if (canHoldTorque(m, { Vmax: mid, Imax }, speed_rad_s, torque_Nm)) hi = mid;
     else lo = mid;
   }
   return hi;
