@@ -1,5 +1,6 @@
 import type { Command } from '../command';
 import { computeEnvelope, type Envelope } from '../../core/envelope';
+import { projectSpeedRange } from '../../core/speed-range';
 import { numberFlag, stringFlag } from '../args';
 import { table, fmt } from '../table';
 import { peakToRms, radSToRpm, rpmToRadS } from '../../core/units';
@@ -48,9 +49,10 @@ export const envelopeCommand: Command = {
   run(p, args) {
     const speedMax = numberFlag(args, 'speed-max', { min: 1, max: 1e6, unit: 'rpm' });
     const points = numberFlag(args, 'points', { min: 2, max: 100000, integer: true });
+    // Without --speed-max: the project's range (requirements, the motor's maximum speed).
     const env = computeEnvelope(p.hot, p.peak, {
       ...(points !== undefined ? { points } : {}),
-      ...(speedMax !== undefined ? { speedMax: rpmToRadS(speedMax) } : {}),
+      speedMax: speedMax !== undefined ? rpmToRadS(speedMax) : projectSpeedRange(p).speedMax,
     });
     const json = envelopeJson(env);
     const csv = stringFlag(args, 'csv');
