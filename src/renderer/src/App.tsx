@@ -5,8 +5,8 @@ import { resolveProject, type ResolvedProject } from '../../core/project';
 import { isInputError } from '../../core/errors';
 import type { MenuEvent } from '../../types/bridge';
 import { DEMOS, DEFAULT_DEMO } from './demos';
-import { newDraft, normalisePath, type Draft, type Json } from './draft';
-import { FormContext, type FormApi } from './Inputs';
+import { newDraft, normalisePath, type Json } from './draft';
+import { FormContext, FormStore } from './form-store';
 import { InputPanel } from './InputPanel';
 import { computeEnvelopes, computeVerdicts, DEFAULT_ENVELOPE_OPTIONS, type EnvelopeOptions, type EnvelopeResults, type Results, type Verdicts } from './compute';
 import { fileBridge } from './file-bridge';
@@ -81,13 +81,14 @@ function safeVerdicts(e: EnvelopeResults): Verdicts | null {
 
 const demoText = (file: string): string => DEMOS.find((d) => d.file === file)?.text ?? DEMOS[0]?.text ?? '{}';
 
+const bridgeKind = fileBridge().kind;
+
 export function App() {
   const [theme, setTheme] = useState<'light' | 'dark'>(() => {
     const t = localStorage.getItem('tw-theme') === 'dark' ? 'dark' : 'light';
     document.documentElement.dataset.theme = t;
     return t;
   });
-  const [draft, setDraft] = useState<Draft>(() => newDraft(parseText(demoText(DEFAULT_DEMO)) ?? {}));
   const [source, setSource] = useState<{ name: string; path: string | null; demo: boolean; readOnly: boolean }>({
     name: DEFAULT_DEMO,
     path: null,
@@ -95,7 +96,12 @@ export function App() {
     readOnly: false,
   });
   const [dirty, setDirty] = useState(false);
-  const [checked, setChecked] = useState<Checked>(() => check(draft.tree));
+  const pathRef = useRef<string | null>(null);
+  const [store] = useState(() => {
+    const d = newDraft(parseText(demoText(DEFAULT_DEMO)) ?? {});
+    return new FormStore(d, check(d.tree).issues);
+  });
+  const [checked, setChecked] = useState<Checked>(() => check(store.getDraft().tree));
   const [lastGood, setLastGood] = useState<ResolvedProject | null>(checked.resolved);
   const [envOpts, setEnvOpts] = useState<EnvelopeOptions>(DEFAULT_ENVELOPE_OPTIONS);
   const [view, setView] = useState<View>('envelope');
@@ -107,20 +113,30 @@ export function App() {
     localStorage.setItem('tw-theme', theme);
   }, [theme]);
 
-  // validate and resolve, debounced after the last edit
-  const first = useRef(true);
+  // validate and resolve, debounced after the last edit; autosave (Electron) a while after it
   useEffect(() => {
-    if (first.current) {
-      first.current = false;
-      return;
-    }
-    const h = setTimeout(() => {
-      const c = check(draft.tree);
-      setChecked(c);
-      if (c.resolved) setLastGood(c.resolved);
-    }, EDIT_DEBOUNCE_MS);
-    return () => clearTimeout(h);
-  }, [draft]);
+    let h: ReturnType<typeof setTimeout> | null = null;
+    let save: ReturnType<typeof setTimeout> | null = null;
+    const off = store.onEdit(() => {
+      setDirty(true);
+      if (h !== null) clearTimeout(h);
+      h = setTimeout(() => {
+        const c = check(store.getDraft().tree);
+        store.setIssues(c.issues);
+        setChecked(c);
+        if (c.resolved) setLastGood(c.resolved);
+      }, EDIT_DEBOUNCE_MS);
+      if (bridgeKind === 'electron') {
+        if (save !== null) clearTimeout(save);
+        save = setTimeout(() => void fileBridge().recoveryWrite(JSON.stringify(store.getDraft().tree, null, 2), pathRef.current), 1500);
+      }
+    });
+    return () => {
+      off();
+      if (h !== null) clearTimeout(h);
+      if (save !== null) clearTimeout(save);
+    };
+  }, [store]);
 
   const envelopes: EnvelopeResults | null = useMemo(() => {
     if (!lastGood) return null;
@@ -151,11 +167,6 @@ export function App() {
   }, [envelopes, verdicts]);
   const results: Results | null = useMemo(() => (envelopes && verdicts ? { ...envelopes, ...verdicts } : null), [envelopes, verdicts]);
 
-  const update = useCallback((f: (d: Draft) => Draft) => {
-    setDraft((d) => f(d));
-    setDirty(true);
-  }, []);
-  const form: FormApi = { draft, issues: checked.issues, update };
 
   const load = useCallback((text: string, src: { name: string; path: string | null; demo: boolean; readOnly: boolean }, message?: string) => {
     const tree = parseText(text);
@@ -165,17 +176,17 @@ export function App() {
     }
     const d = newDraft(tree);
     const c = check(tree);
-    setDraft(d);
+    store.replace(d, c.issues);
     setChecked(c);
     setLastGood(c.resolved);
     setSource(src);
     setDirty(false);
     setNotice(message ?? null);
-    first.current = true;
-  }, []);
+  }, [store]);
 
   const bridge = fileBridge();
-  const projectText = () => JSON.stringify(draft.tree, null, 2) + '\n';
+  pathRef.current = source.path;
+  const projectText = () => JSON.stringify(store.getDraft().tree, null, 2) + '\n';
   const suggested = () => (source.demo ? source.name.replace(/^demo-/, 'my-') : source.name.replace(/^.*[\\/]/, ''));
 
   const doOpen = useCallback(async () => {
@@ -196,7 +207,7 @@ export function App() {
       } else if (!r.canceled) setNotice(r.message);
     },
     // eslint-disable-next-line react-hooks/exhaustive-deps
-    [bridge, source, draft],
+    [bridge, source, store],
   );
 
   // Electron: a project given at start, unsaved edits from last time, menu events
@@ -213,12 +224,6 @@ export function App() {
       } else if (offer) void bridge.recoveryDiscard();
     });
   }, [bridge, load]);
-
-  useEffect(() => {
-    if (bridge.kind !== 'electron' || !dirty) return;
-    const h = setTimeout(() => void bridge.recoveryWrite(JSON.stringify(draft.tree, null, 2), source.path), 1500);
-    return () => clearTimeout(h);
-  }, [bridge, dirty, draft, source.path]);
 
   const menuRef = useRef<(e: MenuEvent) => void>(() => {});
   menuRef.current = (e: MenuEvent) => {
@@ -257,10 +262,11 @@ export function App() {
   useEffect(() => bridge.onMenu((e) => menuRef.current(e)), [bridge]);
 
   const stale = Object.keys(checked.issues).length > 0;
+  const marks = useMemo(() => requirementMarks(results), [results]);
   const projectName = lastGood?.name || source.name;
 
   return (
-    <FormContext.Provider value={form}>
+    <FormContext.Provider value={store}>
       <div className="app">
         <header className="topbar">
           <span className="brand">
@@ -307,7 +313,7 @@ export function App() {
         </header>
         <div className="body">
           <aside className="inputs" data-testid="inputs">
-            <InputPanel form={form} resolved={lastGood} marks={requirementMarks(results)} />
+            <InputPanel resolved={lastGood} marks={marks} />
           </aside>
           <main className="main">
             <nav className="tabs" role="tablist">

@@ -1,11 +1,12 @@
 // The sections of the input side, laid out from the project schema's keys (units from KEYS).
-import type { ReactNode } from 'react';
+import { memo, type ReactNode } from 'react';
 import { KEYS } from '../../core/schema';
 import type { ResolvedProject } from '../../core/project';
 import { deriveConstants } from '../../core/nameplate';
 import type { Draft, Json } from './draft';
 import { editSubtree, getAt } from './draft';
-import { BoolField, HINTS, NumField, Rows, Section, SelectField, TakenAs, type FormApi } from './Inputs';
+import { BoolField, HINTS, NumField, Rows, Section, SelectField, TakenAs } from './Inputs';
+import { useFormStore, useFormValue } from './form-store';
 import { num } from './format';
 
 const unit = (path: string): string => {
@@ -63,8 +64,9 @@ function switchMode(d: Draft, to: Mode, resolved: ResolvedProject | null): Draft
   return editSubtree(next, 'motor', model);
 }
 
-function Optional(props: { form: FormApi; path: string; label: string; blank: Json; children: ReactNode }) {
-  const present = getAt(props.form.draft.tree, props.path) !== undefined;
+function Optional(props: { path: string; label: string; blank: Json; children: ReactNode }) {
+  const store = useFormStore();
+  const present = useFormValue((d) => getAt(d.tree, props.path) !== undefined);
   return (
     <div className="optional">
       <label className="label" style={{ fontSize: 12 }}>
@@ -74,7 +76,7 @@ function Optional(props: { form: FormApi; path: string; label: string; blank: Js
           data-path={props.path + ':present'}
           onChange={(e) => {
             const on = e.target.checked;
-            props.form.update((d) => editSubtree(d, props.path, on ? props.blank : undefined));
+            store.update((d) => editSubtree(d, props.path, on ? props.blank : undefined));
           }}
         />{' '}
         {props.label}
@@ -93,14 +95,15 @@ const CURRENT_BASIS: Array<[string, string]> = [
   ['peak', 'peak'],
 ];
 
-function currentHint(form: FormApi, path: string) {
-  const b = getAt(form.draft.tree, path + '.basis');
+function useCurrentHint(path: string) {
+  const b = useFormValue((d) => getAt(d.tree, path + '.basis'));
   return b === 'rms' ? HINTS.peakOfRms : HINTS.rmsOfPeak;
 }
 
-function NameplateFields({ form }: { form: FormApi }) {
-  const np = (getAt(form.draft.tree, 'nameplate') ?? {}) as Record<string, Json>;
-  const surface = np.L !== undefined;
+function NameplateFields() {
+  const surface = useFormValue((d) => getAt(d.tree, 'nameplate.L') !== undefined);
+  const ratedHint = useCurrentHint('nameplate.ratedCurrent');
+  const peakHint = useCurrentHint('nameplate.peakCurrent');
   return (
     <>
       <NumField path="nameplate.poles" label="Poles" unit="poles" hint={(v) => `= ${num(v / 2)} pole pairs`} />
@@ -120,7 +123,7 @@ function NameplateFields({ form }: { form: FormApi }) {
           <SelectField path="nameplate.Lq.basis" label="  measured" options={BASIS} />
         </>
       )}
-      <Optional form={form} path="nameplate.Ke" label="Back-EMF constant Ke" blank={{ value: 10, unit: 'V_LL_rms/krpm' }}>
+      <Optional path="nameplate.Ke" label="Back-EMF constant Ke" blank={{ value: 10, unit: 'V_LL_rms/krpm' }}>
         <NumField path="nameplate.Ke.value" label="Ke" unit="(unit below)" />
         <SelectField
           path="nameplate.Ke.unit"
@@ -133,7 +136,7 @@ function NameplateFields({ form }: { form: FormApi }) {
         />
         <NumField path="nameplate.Ke.temp_C" label="  at" unit="°C" optional placeholder="20" />
       </Optional>
-      <Optional form={form} path="nameplate.Kt" label="Torque constant Kt" blank={{ value: 1, unit: 'Nm/A_rms' }}>
+      <Optional path="nameplate.Kt" label="Torque constant Kt" blank={{ value: 1, unit: 'Nm/A_rms' }}>
         <NumField path="nameplate.Kt.value" label="Kt" unit="(unit below)" />
         <SelectField
           path="nameplate.Kt.unit"
@@ -144,12 +147,12 @@ function NameplateFields({ form }: { form: FormApi }) {
           ]}
         />
       </Optional>
-      <Optional form={form} path="nameplate.ratedCurrent" label="Rated current" blank={{ value: 10, basis: 'rms' }}>
-        <NumField path="nameplate.ratedCurrent.value" label="Rated current" unit="A" hint={currentHint(form, 'nameplate.ratedCurrent')} />
+      <Optional path="nameplate.ratedCurrent" label="Rated current" blank={{ value: 10, basis: 'rms' }}>
+        <NumField path="nameplate.ratedCurrent.value" label="Rated current" unit="A" hint={ratedHint} />
         <SelectField path="nameplate.ratedCurrent.basis" label="  given as" options={CURRENT_BASIS} />
       </Optional>
-      <Optional form={form} path="nameplate.peakCurrent" label="Peak current" blank={{ value: 30, basis: 'rms' }}>
-        <NumField path="nameplate.peakCurrent.value" label="Peak current" unit="A" hint={currentHint(form, 'nameplate.peakCurrent')} />
+      <Optional path="nameplate.peakCurrent" label="Peak current" blank={{ value: 30, basis: 'rms' }}>
+        <NumField path="nameplate.peakCurrent.value" label="Peak current" unit="A" hint={peakHint} />
         <SelectField path="nameplate.peakCurrent.basis" label="  given as" options={CURRENT_BASIS} />
       </Optional>
       <NumField path="nameplate.ratedSpeed_rpm" label="Rated speed" unit="rpm" optional />
@@ -190,10 +193,11 @@ function DerivedModel({ p }: { p: ResolvedProject | null }) {
   );
 }
 
-export function InputPanel({ form, resolved, marks }: { form: FormApi; resolved: ResolvedProject | null; marks: ReactNode[] }) {
-  const mode = motorMode(form.draft.tree);
-  const control = getAt(form.draft.tree, 'control');
-  const scenario = getAt(form.draft.tree, 'scenario');
+export const InputPanel = memo(function InputPanel({ resolved, marks }: { resolved: ResolvedProject | null; marks: ReactNode[] }) {
+  const store = useFormStore();
+  const mode = useFormValue((d) => motorMode(d.tree));
+  const control = useFormValue((d) => getAt(d.tree, 'control') !== undefined);
+  const scenario = useFormValue((d) => getAt(d.tree, 'scenario') !== undefined);
   return (
     <>
       <Section
@@ -206,7 +210,7 @@ export function InputPanel({ form, resolved, marks }: { form: FormApi; resolved:
                 key={m}
                 aria-pressed={mode === m}
                 data-testid={`motor-mode-${m}`}
-                onClick={() => mode !== m && form.update((d) => switchMode(d, m, resolved))}
+                onClick={() => mode !== m && store.update((d) => switchMode(d, m, resolved))}
               >
                 {m === 'model' ? 'model terms' : 'datasheet terms'}
               </button>
@@ -214,7 +218,7 @@ export function InputPanel({ form, resolved, marks }: { form: FormApi; resolved:
           </span>
         }
       >
-        {mode === 'datasheet' ? <NameplateFields form={form} /> : <ModelFields />}
+        {mode === 'datasheet' ? <NameplateFields /> : <ModelFields />}
         <DerivedModel p={resolved} />
         {resolved && <TakenAs items={resolved.interpretation} />}
       </Section>
@@ -249,8 +253,8 @@ export function InputPanel({ form, resolved, marks }: { form: FormApi; resolved:
       </Section>
 
       <Section title="Control" testId="sec-control">
-        {control === undefined ? (
-          <button className="btn small" onClick={() => form.update((d) => editSubtree(d, 'control', { mode: 'speed', currentBandwidth_Hz: 1000, speedBandwidth_Hz: 50 }))}>
+        {!control ? (
+          <button className="btn small" onClick={() => store.update((d) => editSubtree(d, 'control', { mode: 'speed', currentBandwidth_Hz: 1000, speedBandwidth_Hz: 50 }))}>
             + add a controller
           </button>
         ) : (
@@ -259,11 +263,11 @@ export function InputPanel({ form, resolved, marks }: { form: FormApi; resolved:
       </Section>
 
       <Section title="Scenario" testId="sec-scenario">
-        {scenario === undefined ? (
+        {!scenario ? (
           <button
             className="btn small"
             onClick={() =>
-              form.update((d) =>
+              store.update((d) =>
                 editSubtree(d, 'scenario', { duration_s: 0.5, speedSteps: [{ t_s: 0.01, speed_rpm: 1000 }], loadSteps: [{ t_s: 0.25, torque_Nm: 1 }] }),
               )
             }
@@ -290,7 +294,7 @@ export function InputPanel({ form, resolved, marks }: { form: FormApi; resolved:
       </Section>
     </>
   );
-}
+});
 
 export function ControlFields() {
   return (

@@ -1,21 +1,20 @@
 // The input side: motor (model or datasheet terms), inverter, temperatures, control, scenario,
 // requirement points. Every field carries its unit; currents show peak and rms; messages come from
 // the project schema, by path, beside the field; typed text stays in the field while invalid.
-import { createContext, useContext, useId, type ReactNode } from 'react';
-import type { Draft, Json, Path } from './draft';
+import { memo, useId, type ReactNode } from 'react';
+import type { Json, Path } from './draft';
 import { editNumber, editSubtree, editValue, getAt, textOf } from './draft';
 import { num } from './format';
 import { SQRT2 } from '../../core/units';
 import type { Interpretation } from '../../core/nameplate';
 
-export interface FormApi {
-  draft: Draft;
-  issues: Record<Path, string>;
-  update: (f: (d: Draft) => Draft) => void;
-}
+import { useFormStore, useFormValue } from './form-store';
 
-export const FormContext = createContext<FormApi | null>(null);
-const useForm = (): FormApi => useContext(FormContext)!;
+/** Messages of one field as one string (stable for useSyncExternalStore), split for display. */
+const useMessages = (path: Path, exact = true): string[] => {
+  const joined = useFormValue((_, issues) => messagesFor(issues, path, exact).join('\n'));
+  return joined === '' ? [] : joined.split('\n');
+};
 
 
 type Hint = (v: number) => string;
@@ -37,11 +36,28 @@ function messagesFor(issues: Record<Path, string>, path: Path, exact = true): st
   return out;
 }
 
-export function NumField(props: { path: Path; label: string; unit: string; optional?: boolean; hint?: Hint; placeholder?: string }) {
+interface NumFieldProps {
+  path: Path;
+  label: string;
+  unit: string;
+  optional?: boolean;
+  hint?: Hint;
+  placeholder?: string;
+}
+
+// Fields re-render from the form store; their props are plain text, and a hint function is the
+// same when its source is (inline hints are recreated on every render of the section).
+const sameField = (a: Record<string, unknown>, b: Record<string, unknown>): boolean =>
+  Object.keys({ ...a, ...b }).every((k) =>
+    typeof a[k] === 'function' && typeof b[k] === 'function' ? String(a[k]) === String(b[k]) : a[k] === b[k],
+  );
+
+export const NumField = memo(function NumField(props: NumFieldProps) {
   const fid = useId();
-  const { draft, issues, update } = useForm();
-  const text = textOf(draft, props.path);
-  const msgs = messagesFor(issues, props.path);
+  const store = useFormStore();
+  const update = store.update.bind(store);
+  const text = useFormValue((d) => textOf(d, props.path));
+  const msgs = useMessages(props.path);
   const v = Number(text);
   const hint = props.hint && text.trim() !== '' && Number.isFinite(v) ? props.hint(v) : null;
   return (
@@ -72,13 +88,17 @@ export function NumField(props: { path: Path; label: string; unit: string; optio
       ))}
     </div>
   );
-}
+}, sameField);
 
-export function SelectField(props: { path: Path; label: string; options: Array<[string, string]>; optional?: boolean; unit?: string }) {
+export const SelectField = memo(function SelectField(props: { path: Path; label: string; options: Array<[string, string]>; optional?: boolean; unit?: string }) {
   const fid = useId();
-  const { draft, issues, update } = useForm();
-  const v = getAt(draft.tree, props.path);
-  const msgs = messagesFor(issues, props.path);
+  const store = useFormStore();
+  const update = store.update.bind(store);
+  const v = useFormValue((d) => {
+    const x = getAt(d.tree, props.path);
+    return x === undefined || x === null ? undefined : String(x);
+  });
+  const msgs = useMessages(props.path);
   return (
     <div className={'field' + (msgs.length ? ' invalid' : '')}>
       <label className="label" htmlFor={fid}>{props.label}</label>
@@ -86,7 +106,7 @@ export function SelectField(props: { path: Path; label: string; options: Array<[
         <select
           id={fid}
           data-path={props.path}
-          value={v === undefined || v === null ? '' : String(v)}
+          value={v ?? ''}
           onChange={(e) => {
             performance.mark('tw-edit');
             performance.mark('tw-edit-v');
@@ -106,13 +126,14 @@ export function SelectField(props: { path: Path; label: string; options: Array<[
       ))}
     </div>
   );
-}
+}, (a, b) => a.path === b.path && a.label === b.label && a.optional === b.optional && a.unit === b.unit && a.options.length === b.options.length);
 
 export function BoolField(props: { path: Path; label: string }) {
   const fid = useId();
-  const { draft, issues, update } = useForm();
-  const v = getAt(draft.tree, props.path);
-  const msgs = messagesFor(issues, props.path);
+  const store = useFormStore();
+  const update = store.update.bind(store);
+  const v = useFormValue((d) => getAt(d.tree, props.path) === true);
+  const msgs = useMessages(props.path);
   return (
     <div className="field">
       <label className="label" htmlFor={fid}>{props.label}</label>
@@ -121,7 +142,7 @@ export function BoolField(props: { path: Path; label: string }) {
           id={fid}
           type="checkbox"
           data-path={props.path}
-          checked={v === true}
+          checked={v}
           onChange={(e) => {
             const c = e.target.checked;
             update((d) => editValue(d, props.path, c));
@@ -155,8 +176,16 @@ export interface RowColumn {
 
 /** An editable list of rows (requirement points, steps). */
 export function Rows(props: { path: Path; columns: RowColumn[]; blank: Record<string, Json>; addLabel: string; marks?: Array<ReactNode> }) {
-  const { draft, issues, update } = useForm();
-  const rows = (getAt(draft.tree, props.path) as Json[] | undefined) ?? [];
+  const store = useFormStore();
+  const n = useFormValue((d) => {
+    const rows = getAt(d.tree, props.path);
+    return Array.isArray(rows) ? rows.length : 0;
+  });
+  const msgs = useMessages(props.path);
+  const rows = (): Json[] => {
+    const r = getAt(store.getDraft().tree, props.path);
+    return Array.isArray(r) ? r : [];
+  };
   return (
     <div>
       <table className="rows" data-path={props.path}>
@@ -170,38 +199,17 @@ export function Rows(props: { path: Path; columns: RowColumn[]; blank: Record<st
           </tr>
         </thead>
         <tbody>
-          {rows.map((_, i) => (
+          {Array.from({ length: n }, (_, i) => (
             <tr key={i}>
-              {props.columns.map((c) => {
-                const p = `${props.path}.${i}.${c.key}`;
-                const msgs = messagesFor(issues, p);
-                return (
-                  <td key={c.key} className={msgs.length ? 'invalid' : ''}>
-                    <input
-                      type="text"
-                      data-path={p}
-                      aria-label={`${c.label}, row ${i + 1}`}
-                      spellCheck={false}
-                      value={textOf(draft, p)}
-                      onChange={(e) => {
-                        performance.mark('tw-edit');
-            performance.mark('tw-edit-v');
-                        const t = e.target.value;
-                        update((d) => (c.kind === 'text' ? editValue(d, p, t) : editNumber(d, p, t, false)));
-                      }}
-                    />
-                    {msgs.map((m) => (
-                      <div key={m} className="msg" role="alert" data-msg-for={p}>{m}</div>
-                    ))}
-                  </td>
-                );
-              })}
+              {props.columns.map((c) => (
+                <RowCell key={c.key} path={`${props.path}.${i}.${c.key}`} label={`${c.label}, row ${i + 1}`} text={c.kind === 'text'} />
+              ))}
               {props.marks && <td>{props.marks[i]}</td>}
               <td>
                 <button
                   className="btn small"
                   title="Remove this row"
-                  onClick={() => update((d) => editSubtree(d, props.path, rows.filter((__, j) => j !== i)))}
+                  onClick={() => store.update((d) => editSubtree(d, props.path, rows().filter((__, j) => j !== i)))}
                 >
                   ×
                 </button>
@@ -210,13 +218,39 @@ export function Rows(props: { path: Path; columns: RowColumn[]; blank: Record<st
           ))}
         </tbody>
       </table>
-      {messagesFor(issues, props.path).map((m) => (
+      {msgs.map((m) => (
         <div key={m} className="msg" role="alert">{m}</div>
       ))}
-      <button className="btn small" onClick={() => update((d) => editSubtree(d, props.path, [...rows, props.blank]))}>
+      <button className="btn small" onClick={() => store.update((d) => editSubtree(d, props.path, [...rows(), props.blank]))}>
         + {props.addLabel}
       </button>
     </div>
+  );
+}
+
+function RowCell({ path, label, text }: { path: Path; label: string; text: boolean }) {
+  const store = useFormStore();
+  const value = useFormValue((d) => textOf(d, path));
+  const msgs = useMessages(path);
+  return (
+    <td className={msgs.length ? 'invalid' : ''}>
+      <input
+        type="text"
+        data-path={path}
+        aria-label={label}
+        spellCheck={false}
+        value={value}
+        onChange={(e) => {
+          performance.mark('tw-edit');
+          performance.mark('tw-edit-v');
+          const t = e.target.value;
+          store.update((d) => (text ? editValue(d, path, t) : editNumber(d, path, t, false)));
+        }}
+      />
+      {msgs.map((m) => (
+        <div key={m} className="msg" role="alert" data-msg-for={path}>{m}</div>
+      ))}
+    </td>
   );
 }
 
