@@ -69,6 +69,13 @@ describe('Torquewise in a browser', () => {
     expect(await curvesDrawn('envelope-plot')).toBeGreaterThanOrEqual(8);
     expect(await curvesDrawn('plane-plot')).toBeGreaterThanOrEqual(5);
     expect(await baseSpeedRpm()).toBeGreaterThan(0);
+    // the operating point under the cursor appears in the current plane
+    const drag = await page.$('[data-testid="envelope-plot"] .nsewdrag');
+    const box = (await drag!.boundingBox())!;
+    await page.mouse.move(box.x + box.width * 0.3, box.y + box.height * 0.3);
+    await page.mouse.move(box.x + box.width * 0.31, box.y + box.height * 0.32);
+    await page.waitForFunction(() => /A peak/.test(document.querySelector('[data-testid="op-readout"]')?.textContent ?? ''));
+    expect(await page.textContent('[data-testid="op-readout"]')).toMatch(/rpm, .* N·m: id .* A, iq .* A, \|i\| .* A peak \(.* A rms\)/);
     await page.screenshot({ path: shotPath('01-envelope') });
   });
 
