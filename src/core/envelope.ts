@@ -304,18 +304,34 @@ export function maxTorqueCore(m: DqMachine, Vmax: number, Imax: number, we: numb
     }
     // |i(phi) - i(phi_k)| <= ||A^-1|| Vmax |phi - phi_k|: a window that stays outside the circle is skipped
     const reach = ((Math.sqrt(2 * RS * RS + WE * WE * (LD * LD + LQ * LQ)) / D) * Vmax * STEP) * (1 + 1e-9);
+    let outside = -Infinity;
     for (let k = 0; k < NS; k++) {
       const a = jS[k === 0 ? NS - 1 : k - 1];
       const b = jS[k];
       const c = jS[k + 1 === NS ? 0 : k + 1];
       if (!(b >= a && b >= c)) continue;
-      if (rS[k] > (Imax + reach) * (Imax + reach)) continue;
-      // |dJ/dphi| <= 1.5 p (psiM + sqrt(2) |Ld-Lq| r) ||A^-1|| Vmax: skip windows that cannot beat the best
+      // |dJ/dphi| <= 1.5 p (psiM + sqrt(2) |Ld-Lq| r) ||A^-1|| Vmax: a bound on J in the window
       const rw = Math.sqrt(rS[k]) + reach;
       const lj = 1.5 * P * (PSI + Math.SQRT2 * Math.abs(LD - LQ) * rw) * (reach / STEP);
-      if (Math.max(a, b, c) + 0.5 * lj * STEP < Math.max(bestJ, floor)) continue;
+      const bound = Math.max(a, b, c) + 0.5 * lj * STEP;
+      if (rS[k] > (Imax + reach) * (Imax + reach)) {
+        if (bound > outside) outside = bound;
+        continue;
+      }
+      if (bound < Math.max(bestJ, floor)) continue;
       ellipseMax(k);
       if (eId * eId + eIq * eIq <= im2) offer(eId, eIq, 2);
+      else {
+        const jo = SG * 1.5 * P * eIq * (PSI + (LD - LQ) * eId);
+        if (jo > outside) outside = jo;
+      }
+    }
+    // When the best candidate is the largest torque on the whole voltage boundary, it is the answer
+    // (the feasible set lies inside the voltage region, whose torque maximum is on its boundary):
+    // every local maximum outside the circle, refined or skipped, must stay below it.
+    if (bestRegion === 2 && bestJ > -Infinity && outside < bestJ) {
+      out.ok = bestJ >= floor; out.id = bestId; out.iq = bestIq; out.J = bestJ; out.region = 2;
+      return;
     }
   }
   if (finiteI) {
