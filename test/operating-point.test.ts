@@ -124,13 +124,13 @@ describe('operating point', () => {
     expect(c.limitedBy).toBe('current');
     expect(c.current).toBeGreaterThan(LIM.Imax);
     expect(c.torque).toBeCloseTo(tMax * 1.1, 8);
-    // reachable by MTPA current within Imax, but field weakening needs more than Imax: voltage
+    // reachable by MTPA current within Imax, but field weakening needs more than Imax: both bind
     const w = 2 * baseSpeed(IPM, LIM);
     const tFw = maxTorquePoint(IPM, LIM, w, 'motoring').torque;
     const v = solveOperatingPoint(IPM, LIM, w, tFw * 1.05);
     expect(mtpaCurrentForTorque(IPM, tFw * 1.05).current).toBeLessThan(LIM.Imax);
     expect(v.feasible).toBe(false);
-    expect(v.limitedBy).toBe('voltage');
+    expect(v.limitedBy).toBe('current-and-voltage');
     expect(v.current).toBeGreaterThan(LIM.Imax);
     expect(v.voltage / LIM.Vmax).toBeCloseTo(1, 9);
     // more than the MTPV torque at that speed: no current can do it
@@ -211,7 +211,7 @@ describe('operating point', () => {
           expect(p.voltage).toBeLessThanOrEqual(Vmax * (1 + 1e-9));
           expect(Math.abs(p.torque - T)).toBeLessThanOrEqual(1e-9 * Math.max(1, Math.abs(T)));
         } else {
-          expect(['current', 'voltage', 'beyond-mtpv']).toContain(p.limitedBy);
+          expect(['current', 'current-and-voltage', 'voltage', 'beyond-mtpv']).toContain(p.limitedBy);
         }
       }), { numRuns: 300 });
   });

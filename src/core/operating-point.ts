@@ -186,8 +186,8 @@ export function solveOperatingPointUnlimitedCurrent(m: DqMachine, Vmax: number, 
  * Least-current (id, iq) giving torque_Nm at speed_rad_s (mechanical) within both limits.
  * Feasible: region 'mtpa' (limitedBy 'none') or 'field-weakening'/'mtpv' (limitedBy 'voltage').
  * Infeasible: feasible=false with the current and voltage it would need, and limitedBy
- * 'current' (even MTPA needs more than Imax), 'voltage' (field weakening needs more than Imax, or
- * with Rs the voltage limit forces more torque of that sign than asked at any current) or
+ * 'current' (even MTPA needs more than Imax), 'current-and-voltage' (field weakening needs more than
+ * Imax), 'voltage' (with Rs the voltage limit forces more torque of that sign than asked at any current) or
  * 'beyond-mtpv' (more torque than any current reaches at that speed within Vmax).
  */
 export function solveOperatingPoint(m: DqMachine, lim: DriveLimits, speed_rad_s: number, torque_Nm: number): OperatingPoint {
@@ -196,7 +196,8 @@ export function solveOperatingPoint(m: DqMachine, lim: DriveLimits, speed_rad_s:
   if (!p.feasible) return p;
   if (p.current <= lim.Imax) return p;
   p.feasible = false;
-  p.limitedBy = mtpaCurrentForTorque(m, torque_Nm).current > lim.Imax ? 'current' : 'voltage';
+  // MTPA alone over Imax: the current binds; field weakening pushing it over Imax: both bind
+  p.limitedBy = mtpaCurrentForTorque(m, torque_Nm).current > lim.Imax ? 'current' : 'current-and-voltage';
   return p;
 }
 
