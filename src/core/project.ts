@@ -10,6 +10,7 @@ import { driveLimits } from './inverter';
 import { fmt, nameplateToModel, type Interpretation, type RatedData } from './nameplate';
 import { parseProject, type ProjectFile } from './schema';
 import { solveOperatingPoint } from './operating-point';
+import { mtpaTorque } from './mtpa';
 import { RPM_TO_RAD_S, SQRT2 } from './units';
 
 export interface ResolvedProject {
@@ -117,6 +118,7 @@ export function resolveProject(file: ProjectFile): ResolvedProject {
     machine20 = { polePairs: m.polePairs, Rs: m.Rs, Ld: m.Ld, Lq: m.Lq, psiM: m.psiM };
     mechanics = { inertia: m.inertia, viscousFriction: m.viscousFriction, coulombFriction: m.coulombFriction };
     if (m.maxSpeed_rpm !== undefined) rated = { maxSpeed_rad_s: m.maxSpeed_rpm * RPM_TO_RAD_S };
+    if (m.psiM === 0 && m.Ld === m.Lq) throw new InputError('motor.psiM', 'must be > 0 Wb when Ld = Lq (with neither magnet nor saliency the machine makes no torque)');
   } else if (file.nameplate) {
     const r = nameplateToModel(file.nameplate, { magnetTempCoeff: c.magnetTempCoeff, path: 'nameplate' });
     machine20 = r.model;
@@ -135,6 +137,7 @@ export function resolveProject(file: ProjectFile): ResolvedProject {
   const cold = machineAt(machine20, c.coldTemp_C, c.coldTemp_C, c.magnetTempCoeff);
 
   findings.push(...ratedFindings(rated, hot, inverter, peak));
+  findings.push(...oddMachineFindings(file.motor ? 'motor' : 'nameplate', machine20, hot, mechanics, peak, file.requirements));
 
   return {
     file,
@@ -189,6 +192,65 @@ function ratedFindings(rated: RatedData, hot: DqMachine, inv: InverterSpec, peak
         severity: 'warning',
         field: 'nameplate.ratedTorque_Nm',
         message: `The rated point (${fmt(rated.torque_Nm)} N·m at ${fmt((rated.speed_rad_s * 60) / (2 * Math.PI))} rpm) is outside this inverter at the hot corner: ${why}.`,
+      });
+    }
+  }
+  return out;
+}
+
+/**
+ * Legal but unusual inputs, said plainly: a lossless winding, a reluctance machine, inverse
+ * saliency, a bus that reaches no requirement, a current limit that cannot overcome friction.
+ */
+function oddMachineFindings(section: string, m20: DqMachine, hot: DqMachine, mech: Mechanics, peak: DriveLimits, reqs: ProjectFile['requirements']): Finding[] {
+  const out: Finding[] = [];
+  if (m20.Rs === 0) {
+    out.push({
+      code: 'lossless-winding',
+      severity: 'info',
+      field: `${section}.Rs`,
+      message: 'Rs = 0: lossless winding assumed (no copper loss, no resistive drop); the internal-model current PI then has Ki = Rs·bandwidth = 0 (proportional only).',
+    });
+  }
+  if (m20.psiM === 0) {
+    out.push({
+      code: 'reluctance-machine',
+      severity: 'info',
+      field: `${section}.psiM`,
+      message: 'psiM = 0: reluctance machine: no magnet torque, torque from (Ld - Lq)·id·iq only; back-EMF checks do not apply.',
+    });
+  } else if (m20.Ld > m20.Lq) {
+    out.push({
+      code: 'inverse-saliency',
+      severity: 'info',
+      field: `${section}.Ld`,
+      message: `Ld > Lq (inverse saliency, Lq/Ld = ${fmt(m20.Lq / m20.Ld)}): reluctance torque needs positive (magnetising) id, which raises the flux and the voltage at speed.`,
+    });
+  }
+  const tStall = mtpaTorque(hot, peak.Imax);
+  if (mech.coulombFriction > 0 && tStall < mech.coulombFriction) {
+    out.push({
+      code: 'imax-below-friction',
+      severity: 'warning',
+      field: 'inverter.Imax',
+      message: `At Imax ${fmt(peak.Imax)} A peak the motor makes at most ${fmt(tStall)} N·m (hot corner), below its Coulomb friction ${fmt(mech.coulombFriction)} N·m: it cannot start even without load.`,
+    });
+  }
+  if (reqs.length > 0) {
+    let reached = false;
+    let byVoltage = 0;
+    for (let k = 0; k < reqs.length && !reached; k++) {
+      const q = reqs[k]!;
+      const op = solveOperatingPoint(hot, peak, q.speed_rpm * RPM_TO_RAD_S, q.torque_Nm);
+      if (op.feasible) reached = true;
+      else if (op.limitedBy !== 'current') byVoltage++;
+    }
+    if (!reached && byVoltage > 0) {
+      out.push({
+        code: 'bus-reaches-no-requirement',
+        severity: 'warning',
+        field: 'inverter.Vdc',
+        message: `No requirement is reachable at the hot corner (${byVoltage} of ${reqs.length} fail on the voltage limit ${fmt(peak.Vmax)} V peak phase): the bus is too low for this motor at these speeds.`,
       });
     }
   }

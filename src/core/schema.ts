@@ -155,10 +155,10 @@ const T_MAX = 250;
 const motorSchema = z
   .strictObject({
     polePairs: num('motor.polePairs', 1, 200, { int: true }),
-    Rs: num('motor.Rs', 0, 1000, { gtMin: true }),
+    Rs: num('motor.Rs', 0, 1000),
     Ld: num('motor.Ld', 0, 10, { gtMin: true }),
     Lq: num('motor.Lq', 0, 10, { gtMin: true }),
-    psiM: num('motor.psiM', 0, 100, { gtMin: true }),
+    psiM: num('motor.psiM', 0, 100),
     inertia: num('motor.inertia', 0, 1e5, { gtMin: true }),
     viscousFriction: num('motor.viscousFriction', 0, 1e4).default(0),
     coulombFriction: num('motor.coulombFriction', 0, 1e5).default(0),
