@@ -13,6 +13,9 @@ export const paramsCommand: Command = {
   run(p) {
     const corners = { '20C': p.machine20, hot: p.hot, cold: p.cold };
     const derived = Object.fromEntries(Object.entries(corners).map(([k, m]) => [k, { model: m, ...deriveConstants(m) }]));
+    // Rs = 0 (lossless winding): the electrical time constants are unbounded; the document says null
+    const tau = (x: number): number | null => (Number.isFinite(x) ? x : null);
+    const jsonCorner = (k: string) => ({ ...derived[k]!, tauD_s: tau(derived[k]!.tauD_s), tauQ_s: tau(derived[k]!.tauQ_s) });
     const { safetySpeed } = projectSpeedRange(p);
     const safety = safetyReport(p.cold, p.inverter, safetySpeed);
     const findings = [...p.findings, ...safety.findings];
@@ -20,19 +23,20 @@ export const paramsCommand: Command = {
       name: p.name,
       model: p.machine20,
       mechanics: p.mechanics,
-      hot: derived['hot'],
-      cold: derived['cold'],
-      at20C: derived['20C'],
+      hot: jsonCorner('hot'),
+      cold: jsonCorner('cold'),
+      at20C: jsonCorner('20C'),
       conditions: p.conditions,
       limits: { peak: p.peak, continuous: p.continuous },
       interpretation: p.interpretation,
       safety,
       findings,
     };
-    const rows: Array<[string, string, ...number[]]> = [];
+    const rows: Array<[string, string, ...Array<number | string>]> = [];
     const d = derived as Record<string, ReturnType<typeof deriveConstants> & { model: typeof p.hot }>;
+    const shown = (x: number): number | string => (Number.isFinite(x) ? x : 'unbounded (Rs = 0)');
     const add = (label: string, unit: string, f: (x: ReturnType<typeof deriveConstants> & { model: typeof p.hot }) => number) =>
-      rows.push([label, unit, f(d['20C']!), f(d['cold']!), f(d['hot']!)]);
+      rows.push([label, unit, shown(f(d['20C']!)), shown(f(d['cold']!)), shown(f(d['hot']!))]);
     add('pole pairs', '-', (x) => x.model.polePairs);
     add('Rs', 'ohm/phase', (x) => x.model.Rs);
     add('Ld', 'mH', (x) => x.model.Ld * 1e3);
