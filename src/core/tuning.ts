@@ -273,6 +273,14 @@ export function tuneLoops(inp: TuningInput): TuningReport {
       message: `current bandwidth ${fcMax.toPrecision(3)} Hz exceeds fCtrl/10 = ${(inp.fCtrl_Hz / 10).toPrecision(3)} Hz (common practice): the sample delay erodes the phase margin`,
     });
   }
+  if ('bandwidth_Hz' in inp.current && m.Rs === 0) {
+    warnings.push({
+      code: 'current-integral-zero',
+      severity: 'info',
+      field: 'motor.Rs',
+      message: 'Rs = 0 (lossless winding): the internal-model gains give Ki = Rs·bandwidth = 0, a proportional-only current loop; a real winding has resistance, so give Rs or currentKp/currentKi',
+    });
+  }
   const checkMargin = (name: string, field: string, r: LoopReport): void => {
     if (r.phaseMargin_deg === null) return;
     if (r.phaseMargin_deg <= 0 || (r.gainMargin_dB !== null && r.gainMargin_dB <= 0)) {
