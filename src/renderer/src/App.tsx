@@ -26,8 +26,10 @@ const VIEWS: Array<[View, string]> = [
   ['datasheet', 'Datasheet'],
 ];
 
-/** Wait after the last keystroke before recomputing, ms. */
+/** Wait after the last keystroke of a burst before recomputing, ms. */
 export const EDIT_DEBOUNCE_MS = 25;
+/** A keystroke this long after the previous one starts a new burst and is computed at once, ms. */
+export const EDIT_QUIET_MS = 150;
 
 interface Checked {
   issues: Record<string, string>;
@@ -117,15 +119,21 @@ export function App() {
   useEffect(() => {
     let h: ReturnType<typeof setTimeout> | null = null;
     let save: ReturnType<typeof setTimeout> | null = null;
+    let lastEdit = -Infinity;
     const off = store.onEdit(() => {
       setDirty(true);
       if (h !== null) clearTimeout(h);
+      // leading-edge debounce: an edit after a quiet spell is checked at once, a burst of
+      // keystrokes is coalesced into one check EDIT_DEBOUNCE_MS after its last key
+      const now = performance.now();
+      const quiet = now - lastEdit > EDIT_QUIET_MS;
+      lastEdit = now;
       h = setTimeout(() => {
         const c = check(store.getDraft().tree);
         store.setIssues(c.issues);
         setChecked(c);
         if (c.resolved) setLastGood(c.resolved);
-      }, EDIT_DEBOUNCE_MS);
+      }, quiet ? 0 : EDIT_DEBOUNCE_MS);
       if (bridgeKind === 'electron') {
         if (save !== null) clearTimeout(save);
         save = setTimeout(() => void fileBridge().recoveryWrite(JSON.stringify(store.getDraft().tree, null, 2), pathRef.current), 1500);
