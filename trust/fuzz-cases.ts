@@ -147,7 +147,7 @@ export const motorSection = fc
     inertia: fc.double({ min: 1e-6, max: 1, noNaN: true }),
     coulombFriction: fc.oneof(fc.constant(0), fc.double({ min: 0, max: 50, noNaN: true })),
   })
-  .map((m) => ({ polePairs: m.polePairs, Rs: m.Rs, Ld: m.Ld, Lq: m.Ld * m.saliency, psiM: m.psiM, inertia: m.inertia, viscousFriction: 1e-5, coulombFriction: m.coulombFriction }));
+  .map((m) => ({ polePairs: m.polePairs, Rs: m.Rs, Ld: m.Ld, Lq: m.Ld * (m.psiM === 0 && m.saliency === 1 ? 3 : m.saliency), psiM: m.psiM, inertia: m.inertia, viscousFriction: 1e-5, coulombFriction: m.coulombFriction }));
 
 /** A random legal project built around a random motor, a random bus (from tiny to generous) and requirements. */
 export const randomProject = fc

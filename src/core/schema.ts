@@ -437,8 +437,10 @@ function phrase(iss: z.core.$ZodIssue, input: unknown): ProjectProblem[] {
       if (iss.origin === 'array') return at(`must have at most ${fmtLimit(iss.maximum)} entries`);
       return at(withUnit(`must be ${iss.inclusive ? '<=' : '<'} ${fmtLimit(iss.maximum)}`, unit));
     case 'unrecognized_keys':
-      return iss.keys.map((k) => {
+      return iss.keys.map((key) => {
         const allowed = known(pattern);
+        // a runaway key (pasted text) is shown by its start and length, so the message stays one short line
+        const k = key.length > 60 ? `${key.slice(0, 40)}… (${key.length} characters)` : key;
         return {
           path: shown ? `${shown}.${k}` : k,
           message: `is not a known key${allowed.length ? ` (known here: ${allowed.join(', ')})` : ''}`,
