@@ -194,6 +194,26 @@ describe('Torquewise in a browser', () => {
     await page.fill(dur, old);
   });
 
+  it('switches the motor between datasheet and model terms without changing the machine', async () => {
+    await page.click('[data-testid="tab-envelope"]');
+    await page.waitForSelector('[data-testid="summary-line"]');
+    const before = await baseSpeedRpm();
+    let n = await perfCount();
+    await page.click('[data-testid="motor-mode-model"]');
+    await page.waitForFunction((k) => (window.__twPerf ?? []).length > k || !!document.querySelector('.inputs [data-path="motor.Ld"]'), n);
+    await page.waitForSelector('.inputs [data-path="motor.Ld"]');
+    // the model terms are the converted dq model at 20 °C: Ld = 0.3 mH per phase, Lq = 1.5 mH line-to-line / 2
+    expect(Number(await page.inputValue('.inputs [data-path="motor.Ld"]'))).toBeCloseTo(0.0003, 9);
+    expect(Number(await page.inputValue('.inputs [data-path="motor.Lq"]'))).toBeCloseTo(0.00075, 9);
+    await page.waitForTimeout(300);
+    expect(Math.abs((await baseSpeedRpm()) - before)).toBeLessThanOrEqual(1);
+    await page.screenshot({ path: shotPath('07-model-terms') });
+    n = await perfCount();
+    await page.selectOption('[data-testid="demo-picker"]', 'demo-ipm-traction.json');
+    await page.waitForSelector('.inputs [data-path="nameplate.Ld.value"]');
+    expect(await baseSpeedRpm()).toBe(before);
+  });
+
   it('screenshots every view at 1440x900, light and dark', async () => {
     for (const [tab, name] of [
       ['envelope', 'envelope'],

@@ -108,12 +108,15 @@ export function Plot({ data, layout, height, testId, onHover, onUnhover, onDrawn
         drawnRef.current?.(gd);
       });
     };
+    // deferred: after the next frame is painted, so the main plot reaches the screen first
     let timer: ReturnType<typeof setTimeout> | null = null;
-    if (defer) timer = setTimeout(draw, 16);
+    let frame: number | null = null;
+    if (defer) frame = requestAnimationFrame(() => (timer = setTimeout(draw, 0)));
     else draw();
     return () => {
       live = false;
       if (timer !== null) clearTimeout(timer);
+      if (frame !== null) cancelAnimationFrame(frame);
     };
   }, [data, layout, height]);
 
