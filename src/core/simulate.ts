@@ -458,8 +458,12 @@ export function runSimulation(setup: SimulationSetup, opts: RunOptions = {}): Si
     const id = y[I_D]!, iq = y[I_Q]!, w = y[OMEGA]!;
     const bad = !(Number.isFinite(id) && Number.isFinite(iq) && Number.isFinite(w) && Number.isFinite(th));
     if (bad || id * id + iq * iq > iDiv2 || Math.abs(w) > wDiv) {
-      const what = bad ? 'a state became non-finite' : id * id + iq * iq > iDiv2 ? `|i| exceeded the overcurrent trip ${iDivA.toPrecision(4)} A (${(iDivA / Imax).toPrecision(3)}·Imax)` : `|speed| exceeded ${(wDiv * RAD_S_TO_RPM).toPrecision(4)} rpm`;
-      diagnostic = `diverged at t = ${t1.toPrecision(6)} s: ${what}; state id = ${id.toPrecision(6)} A, iq = ${iq.toPrecision(6)} A, speed = ${(w * RAD_S_TO_RPM).toPrecision(6)} rpm (check the gains, the delay and the scenario)`;
+      const nonFinite = [['id', id], ['iq', iq], ['speed', w], ['angle', th]].filter(([, x]) => !Number.isFinite(x as number)).map(([n]) => n).join(', ');
+      const st = (x: number): string => (Number.isFinite(x) ? x.toPrecision(6) : 'not finite');
+      const what = bad
+        ? `a state became non-finite (${nonFinite}); at t = ${t0.toPrecision(6)} s it was id = ${st(tId[k]!)} A, iq = ${st(tIq[k]!)} A, speed = ${st(tW[k]!)} rpm`
+        : id * id + iq * iq > iDiv2 ? `|i| exceeded the overcurrent trip ${iDivA.toPrecision(4)} A (${(iDivA / Imax).toPrecision(3)}·Imax)` : `|speed| exceeded ${(wDiv * RAD_S_TO_RPM).toPrecision(4)} rpm`;
+      diagnostic = `diverged at t = ${t1.toPrecision(6)} s: ${what}; state id = ${st(id)} A, iq = ${st(iq)} A, speed = ${st(w * RAD_S_TO_RPM)} rpm (check the gains, the delay and the scenario)`;
       events.push({ kind: 'divergence', t_s: t1, message: diagnostic });
       stopped = true;
       k++;
