@@ -592,6 +592,9 @@ function noLoadSpeed(m: DqMachine, lim: DriveLimits): number {
   return m.psiM > 0 ? lim.Vmax / (m.polePairs * m.psiM) : lim.Vmax / (m.polePairs * m.Ld * lim.Imax);
 }
 
+/** Largest number of control periods a project scenario may ask for (duration_s x fCtrl_Hz): the default step budget. */
+export const MAX_CONTROL_PERIODS = DEFAULT_RUN_OPTIONS.maxSteps;
+
 export function simulationFromProject(p: ResolvedProject, overrides: SimulationOverrides = {}): SimulationSetup {
   const baseScenario = p.file.scenario;
   if (!baseScenario && !overrides.scenario) throw new InputError('scenario', 'is required to simulate (duration_s, speedSteps, loadSteps, ...)');
@@ -600,6 +603,10 @@ export function simulationFromProject(p: ResolvedProject, overrides: SimulationO
   if (!(scenario.duration_s > 0)) throw new InputError('scenario.duration_s', 'must be > 0 s');
   const mode: ControlMode = control.mode ?? 'speed';
   const fCtrl = control.fCtrl_Hz ?? 10000;
+  const wanted = scenario.duration_s * fCtrl;
+  if (wanted > MAX_CONTROL_PERIODS) {
+    throw new InputError('scenario.duration_s', `asks for ${Math.round(wanted)} control periods (duration_s x control.fCtrl_Hz); the limit is ${MAX_CONTROL_PERIODS} periods, at most ${MAX_CONTROL_PERIODS / fCtrl} s at ${fCtrl} Hz`);
+  }
   const Ts = 1 / fCtrl;
   const delaySamples = control.delaySamples ?? 1;
   const divider = control.speedLoopDivider ?? 1;
