@@ -91,7 +91,8 @@ describe('Torquewise in a browser', () => {
     await page.waitForTimeout(300);
     const verdicts = (await page.evaluate(() => window.__twPerfVerdicts ?? [])).slice(-5).sort((a, b) => a - b);
     const vMedian = verdicts[Math.floor(verdicts.length / 2)] ?? NaN;
-    writeFileSync(join(SHOTS, 'edit-to-redraw.json'), JSON.stringify({ times_ms: times, median_ms: median, verdicts_ms: verdicts, verdictsMedian_ms: vMedian }, null, 2));
+    const phases = (await page.evaluate(() => window.__twPerfPhases ?? [])).slice(-5);
+    writeFileSync(join(SHOTS, 'edit-to-redraw.json'), JSON.stringify({ times_ms: times, median_ms: median, verdicts_ms: verdicts, verdictsMedian_ms: vMedian, phases_ms_from_keystroke: phases }, null, 2));
     console.log(`edit-to-redraw on the traction demo: median ${median.toFixed(1)} ms, all ${times.map((t) => t.toFixed(1)).join(', ')} ms; edit-to-verdicts median ${vMedian.toFixed(1)} ms`);
     await page.screenshot({ path: shotPath('02-vdc-raised') });
     await edit('inverter.Vdc', '350');

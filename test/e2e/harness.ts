@@ -34,12 +34,20 @@ const TYPES: Record<string, string> = {
 
 export async function buildRenderer(): Promise<string> {
   const outDir = mkdtempSync(join(tmpdir(), 'torquewise-e2e-'));
-  await build({
-    configFile: join(ROOT, 'vite.web.config.ts'),
-    root: join(ROOT, 'src', 'renderer'),
-    logLevel: 'warn',
-    build: { outDir, emptyOutDir: true },
-  });
+  // vitest sets NODE_ENV=test, and Vite would then bundle React's development build: test what ships
+  const env = process.env.NODE_ENV;
+  process.env.NODE_ENV = 'production';
+  try {
+    await build({
+      configFile: join(ROOT, 'vite.web.config.ts'),
+      root: join(ROOT, 'src', 'renderer'),
+      mode: 'production',
+      logLevel: 'warn',
+      build: { outDir, emptyOutDir: true, minify: process.env.TW_E2E_NO_MINIFY ? false : undefined },
+    });
+  } finally {
+    process.env.NODE_ENV = env;
+  }
   return outDir;
 }
 

@@ -60,6 +60,8 @@ declare global {
   interface Window {
     /** edit-to-redraw figures, ms, read by the end-to-end tests */
     __twPerf?: number[];
+    /** where the time of each edit-to-redraw went: ms from the keystroke to each phase */
+    __twPerfPhases?: Array<Record<string, number>>;
     /** edit-to-verdicts figures, ms */
     __twPerfVerdicts?: number[];
   }
@@ -129,6 +131,7 @@ export function App() {
       const quiet = now - lastEdit > EDIT_QUIET_MS;
       lastEdit = now;
       h = setTimeout(() => {
+        performance.mark('tw-check');
         const c = check(store.getDraft().tree);
         store.setIssues(c.issues);
         setChecked(c);
@@ -149,7 +152,9 @@ export function App() {
   const envelopes: EnvelopeResults | null = useMemo(() => {
     if (!lastGood) return null;
     try {
+      performance.mark('tw-compute');
       const r = computeEnvelopes(lastGood, envOpts);
+      performance.mark('tw-computed');
       setComputeError(null);
       return r;
     } catch (e) {

@@ -356,9 +356,23 @@ export const EnvelopeView = memo(function EnvelopeView({ results, opts, setOpts,
     const marks = performance.getEntriesByName('tw-edit', 'mark');
     if (!marks.length) return;
     const start = marks[marks.length - 1]!.startTime;
+    const drawn = performance.now();
     requestAnimationFrame(() => {
       const ms = performance.now() - start;
       (window.__twPerf ??= []).push(ms);
+      const at = (name: string): number => {
+        const m = performance.getEntriesByName(name, 'mark');
+        const t = m.length ? m[m.length - 1]!.startTime - start : NaN;
+        return t >= 0 ? t : NaN;
+      };
+      (window.__twPerfPhases ??= []).push({
+        check: at('tw-check'),
+        compute: at('tw-compute'),
+        computed: at('tw-computed'),
+        plot: at('tw-plot:envelope-plot'),
+        plotted: drawn - start,
+        frame: ms,
+      });
       performance.clearMarks('tw-edit');
     });
   }, []);

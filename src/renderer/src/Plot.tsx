@@ -98,6 +98,7 @@ export function Plot({ data, layout, height, testId, onHover, onUnhover, onDrawn
     let live = true;
     const draw = () => {
       if (!live) return;
+      performance.mark(`tw-plot:${testId ?? ''}`);
       void Plotly.react(el, data, { ...layout, height }, { displaylogo: false, responsive: true, modeBarButtonsToRemove: ['select2d', 'lasso2d'] }).then((gd) => {
         if (!live) return;
         if (!bound.current) {
