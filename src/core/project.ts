@@ -11,6 +11,7 @@ import { fmt, nameplateToModel, type Interpretation, type RatedData } from './na
 import { parseProject, type ProjectFile } from './schema';
 import { solveOperatingPoint } from './operating-point';
 import { mtpaTorque } from './mtpa';
+import { migrateProject } from './migrate';
 import { RPM_TO_RAD_S, SQRT2 } from './units';
 
 export interface ResolvedProject {
@@ -35,6 +36,8 @@ export interface ResolvedProject {
   rated: RatedData;
   interpretation: Interpretation[];
   findings: Finding[];
+  /** true for a file of a newer format version: show it, never save it over itself */
+  readOnly?: boolean;
 }
 
 /** Where a JSON.parse message puts the error: "at position N" (V8) or "line L column C". */
@@ -96,7 +99,17 @@ export function loadProjectText(source: string): ResolvedProject {
     const lead = reason || 'unexpected input';
     throw new InputError('file', `is not valid JSON: ${lead}${where ? ` at line ${where.line} column ${where.column}` : ''}`);
   }
-  return resolveProject(parseProject(json));
+  const m = migrateProject(json);
+  if (!m.readOnly && m.fromVersion === m.json['version']) return resolveProject(parseProject(json));
+  let rp: ResolvedProject;
+  try {
+    rp = resolveProject(parseProject(m.json));
+  } catch (e) {
+    if (!m.readOnly || !(e instanceof InputError)) throw e;
+    throw new InputError('version', `is ${m.fromVersion}: the file was written by a newer Torquewise; this one reads version ${m.json['version']} and cannot read it (${e.message})`);
+  }
+  rp.findings.unshift(...m.findings);
+  return m.readOnly ? { ...rp, readOnly: true } : rp;
 }
 
 /** A validated project file -> machine hot and cold, limits, findings. */
