@@ -28,10 +28,18 @@ export function Cautions({ results, testId, hazardsOnly, compact }: { results: R
   const hazards = findings.filter(isHazard);
   return (
     <div data-testid={testId}>
-      {hazards.length > 0 && (
-        <div className={compact ? 'caution compact' : 'caution'} role="alert">
+      {hazards.length > 0 && !compact && (
+        <div className="caution" role="alert">
           <strong>Caution.</strong> {hazards.map((h) => h.message).join(' ')} {s.caution}
         </div>
+      )}
+      {hazards.length > 0 && compact && (
+        <details className="caution compact" role="alert">
+          <summary>
+            <strong>Caution.</strong> {hazards[0]!.message.split('. ')[0]}. Follow local codes, licensed practice and IEC 61800-5-1 (details).
+          </summary>
+          {hazards.map((h) => h.message).join(' ')} {s.caution}
+        </details>
       )}
       {!hazardsOnly &&
         findings

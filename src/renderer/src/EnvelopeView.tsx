@@ -187,6 +187,28 @@ export function torqueSpeedFigure(r: Results, theme: 'light' | 'dark', show: Sho
   return { data, layout };
 }
 
+/** The power-speed plot: the power traces of the combined figure on their own axes, with the legend. */
+export function powerSpeedFigure(r: Results, theme: 'light' | 'dark', show: Show): { data: Data[]; layout: Layout } {
+  const both = torqueSpeedFigure(r, theme, show, true);
+  const data = both.data.filter((d) => d.yaxis === 'y2').map((d) => ({ ...d, yaxis: 'y', showlegend: true }));
+  const l = both.layout as Record<string, any>;
+  const layout: Layout = {
+    ...l,
+    margin: { l: 70, r: 16, t: 8, b: 40 },
+    yaxis: { ...l.yaxis2, domain: [0, 1] },
+    xaxis: { ...l.xaxis, anchor: 'y' },
+    legend: { orientation: 'h', x: 0, y: -0.3, font: { size: 11 } },
+  };
+  delete (layout as Record<string, unknown>).yaxis2;
+  return { data, layout };
+}
+
+/** The torque-speed plot alone, without a legend (the power plot below carries it). */
+function torqueOnlyFigure(r: Results, theme: 'light' | 'dark', show: Show): { data: Data[]; layout: Layout } {
+  const f = torqueSpeedFigure(r, theme, show, false);
+  return { data: f.data, layout: { ...f.layout, showlegend: false, margin: { l: 70, r: 16, t: 8, b: 40 } } };
+}
+
 function parseSpeeds(text: string): number[] {
   return text
     .split(/[,;\s]+/)
@@ -328,7 +350,8 @@ export const EnvelopeView = memo(function EnvelopeView({ results, opts, setOpts,
   const [topText, setTopText] = useState('');
   const envEl = useRef<HTMLDivElement | null>(null);
   const speeds = useMemo(() => parseSpeeds(speedText ?? defaultSpeeds(results)), [speedText, results]);
-  const fig = useMemo(() => torqueSpeedFigure(results, theme, show, true), [results, theme, show]);
+  const fig = useMemo(() => torqueOnlyFigure(results, theme, show), [results, theme, show]);
+  const pfig = useMemo(() => powerSpeedFigure(results, theme, show), [results, theme, show]);
   const plane = useMemo(() => planeFigure(results, theme, speeds, op), [results, theme, speeds, op]);
 
   const onHover = useCallback(
@@ -430,7 +453,15 @@ export const EnvelopeView = memo(function EnvelopeView({ results, opts, setOpts,
       <div className="cols">
         <div className="card">
           <h4>Torque and power against speed</h4>
-          <Plot data={fig.data} layout={fig.layout} height={560} testId="envelope-plot" onHover={onHover} onDrawn={onDrawn} elRef={(el) => (envEl.current = el)} />
+          <div className="key" aria-label="line key">
+            <span style={{ color: CURVE[theme].hot }}>━ peak current, hot magnet</span>
+            <span style={{ color: CURVE[theme].cold }}>┅ peak, cold</span>
+            <span style={{ color: CURVE[theme].hotCont }}>━ continuous, hot</span>
+            <span style={{ color: CURVE[theme].coldCont }}>┅ continuous, cold</span>
+            <span>● met ✕ not met</span>
+          </div>
+          <Plot data={fig.data} layout={fig.layout} height={330} testId="envelope-plot" onHover={onHover} onDrawn={onDrawn} elRef={(el) => (envEl.current = el)} />
+          <Plot data={pfig.data} layout={pfig.layout} height={300} testId="power-plot" defer />
           <div className="readout" data-testid="summary-line">
             base speed {Math.round(results.main.baseSpeed * RAD_S_TO_RPM)} rpm · maximum speed{' '}
             {results.main.maxSpeed === null ? 'unbounded (current limit reaches past the voltage-ellipse centre)' : `${Math.round(results.main.maxSpeed * RAD_S_TO_RPM)} rpm`} · peak current, hot magnet, motoring ·
