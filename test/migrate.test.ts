@@ -36,7 +36,7 @@ const STEPS: MigrationStep[] = [
       const inv = { ...(j['inverter'] as Json) };
       inv['Vdc'] = inv['busVoltage'];
       delete inv['busVoltage'];
-      const out = { ...j, inverter: inv };
+      const out: Json = { ...j, inverter: inv };
       delete out['note'];
       return out;
     },

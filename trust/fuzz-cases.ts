@@ -181,7 +181,7 @@ export const randomProject = fc
 const flagsFor = (cmd: CommandName): fc.Arbitrary<string[]> => {
   const num = fc.oneof(fc.constantFrom('0', '-1', '1e9', 'NaN', 'Infinity', '1e-300', '', 'abc', '2.5', '100000', '100001'), fc.double({ noNaN: true, min: -2e4, max: 2e4 }).map(String));
   if (cmd === 'point') return fc.tuple(num, num).map(([s, t]) => ['--speed', s, '--torque', t]);
-  if (cmd === 'envelope') return fc.oneof(fc.constant(['--points', '24']), num.map((n) => ['--points', n]), num.map((n) => ['--speed-max', n, '--points', '16']));
+  if (cmd === 'envelope') return fc.oneof(fc.constant<string[]>(['--points', '24']), num.map((n) => ['--points', n]), num.map((n) => ['--speed-max', n, '--points', '16']));
   return fc.constant([]);
 };
 

@@ -1,0 +1,111 @@
+/**
+ * `npm run trust`: the reliability figures.
+ *  - fuzz: cases run and passed (fuzzed project files through every command, see fuzz-cases.ts)
+ *  - save faults: scenarios survived (a failing or crashing step of the atomic save, see src/node/save-faults.ts)
+ *  - memory: peak resident memory of a 60 s simulation at 20 kHz control, in its own process
+ *  - cancel: time from raising the abort signal to runSimulation returning
+ * Options: --cases N (default 10000), --seed S (default a new seed each run, printed), --quick
+ * (1000 cases, no long simulation). Exit code 1 when a figure misses its bound.
+ */
+import { mkdtempSync, rmSync, readFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { spawnSync } from 'node:child_process';
+import { runFuzz } from './fuzz-cases';
+import { runSaveFaultScenarios } from '../src/node/save-faults';
+import { resolveProject } from '../src/core/project';
+import { parseProject } from '../src/core/schema';
+import { simulationFromProject, runSimulation } from '../src/core/simulate';
+
+export const BOUNDS = { fuzzCases: 10_000, rss_MB: 300, cancel_ms: 100 } as const;
+
+const root = join(import.meta.dirname, '..');
+const argv = process.argv.slice(2);
+const flag = (name: string): string | undefined => {
+  const i = argv.indexOf(`--${name}`);
+  return i >= 0 ? argv[i + 1] : undefined;
+};
+const quick = argv.includes('--quick');
+const cases = Number(flag('cases') ?? (quick ? 1000 : BOUNDS.fuzzCases));
+const seed = Number(flag('seed') ?? Math.floor(Math.random() * 2 ** 31));
+const now = (): number => performance.now() / 1000;
+const out: string[] = [];
+const say = (s: string): void => {
+  out.push(s);
+  process.stdout.write(s + '\n');
+};
+let ok = true;
+
+say('Torquewise reliability figures');
+say('');
+
+// ---- fuzz
+{
+  const t0 = now();
+  const t = await runFuzz(seed, cases);
+  const wall = now() - t0;
+  say(`fuzz: ${t.run} cases run (seed ${seed}), ${t.passed} passed: ${t.ok} gave finite results, ${t.inputErrors} one-line refusals naming the field; ${t.failures.length} failed`);
+  say(`      slowest case ${(t.slowest_s * 1e3).toFixed(0)} ms, all ${wall.toFixed(1)} s`);
+  for (const f of t.failures.slice(0, 10)) say(`      FAILED #${f.index}: ${f.why.split('\n')[0]}`);
+  if (t.failures.length > 0 || t.run < Math.min(cases, BOUNDS.fuzzCases)) ok = false;
+}
+
+// ---- save faults
+{
+  const dir = mkdtempSync(join(tmpdir(), 'torquewise-trust-'));
+  try {
+    const r = await runSaveFaultScenarios(dir);
+    say(`save faults: ${r.survived} of ${r.run} scenarios survived (old file intact, user told)`);
+    if (r.survived !== r.run) ok = false;
+  } finally {
+    rmSync(dir, { recursive: true, force: true });
+  }
+}
+
+// ---- memory of the long simulation (its own process, so the figure is its own)
+if (!quick) {
+  const tsx = join(root, 'node_modules', 'tsx', 'dist', 'cli.mjs');
+  const r = spawnSync(process.execPath, [tsx, join(root, 'trust', 'long-sim.ts')], { encoding: 'utf8', timeout: 1_800_000 });
+  const line = r.stdout.trim().split('\n').pop() ?? '';
+  try {
+    const m = JSON.parse(line) as { periods: number; simulated_s: number; wall_s: number; rssBefore_MB: number; rssPeak_MB: number; traceLength: number; maxPoints: number; diagnostic: string | null };
+    say(`memory: 60 s at 20 kHz (${m.periods} control periods, ${m.wall_s} s wall): peak resident ${m.rssPeak_MB} MB (${m.rssBefore_MB} MB before the run), bound ${BOUNDS.rss_MB} MB; traces ${m.traceLength} samples (maxPoints ${m.maxPoints})`);
+    if (m.diagnostic) say(`      stopped early: ${m.diagnostic}`);
+    if (!(m.rssPeak_MB < BOUNDS.rss_MB) || m.traceLength > m.maxPoints || m.simulated_s < 60) ok = false;
+  } catch {
+    say(`memory: the long simulation did not report (exit ${r.status}): ${(r.stderr ?? '').split('\n')[0]}`);
+    ok = false;
+  }
+}
+
+// ---- cancel latency: an abort signal whose `aborted` turns true after N ms
+{
+  const j = JSON.parse(readFileSync(join(root, 'resources', 'demo-spm-48v.json'), 'utf8'));
+  j.scenario = { ...j.scenario, duration_s: 60 };
+  const setup = simulationFromProject(resolveProject(parseProject(j)));
+  const lat: number[] = [];
+  for (const after of [20, 50, 100, 200, 400, 800]) {
+    for (let rep = 0; rep < 3; rep++) {
+      const t0 = now();
+      const flip = t0 + after / 1000;
+      const signal = { get aborted(): boolean { return now() >= flip; } };
+      const r = runSimulation(setup, { signal });
+      const t1 = now();
+      if (!r.events.some((e) => e.kind === 'aborted')) {
+        say(`cancel: a run raised after ${after} ms was not aborted`);
+        ok = false;
+        continue;
+      }
+      lat.push((t1 - flip) * 1e3);
+    }
+  }
+  lat.sort((a, b) => a - b);
+  const med = lat[Math.floor(lat.length / 2)] ?? NaN;
+  const max = lat[lat.length - 1] ?? NaN;
+  say(`cancel: ${lat.length} runs aborted after 20..800 ms: latency median ${med.toFixed(1)} ms, worst ${max.toFixed(1)} ms (bound ${BOUNDS.cancel_ms} ms)`);
+  if (!(max < BOUNDS.cancel_ms)) ok = false;
+}
+
+say('');
+say(ok ? 'all figures within their bounds' : 'SOME FIGURES MISS THEIR BOUNDS');
+process.exitCode = ok ? 0 : 1;
