@@ -1,0 +1,157 @@
+// The command line as a user meets it: one JSON document with --json, exit codes 0/2/1,
+// one line naming the field for bad input, files written by --csv.
+import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join, resolve } from 'node:path';
+import { spawnSync } from 'node:child_process';
+import { describe, expect, it } from 'vitest';
+import { main } from '../src/cli/index';
+
+const root = resolve(__dirname, '..');
+const demo = (name: string) => join(root, 'resources', `demo-${name}.json`);
+
+class Sink {
+  text = '';
+  write(s: string): boolean {
+    this.text += s;
+    return true;
+  }
+}
+
+async function run(...argv: string[]): Promise<{ code: number; out: string; err: string }> {
+  const out = new Sink();
+  const err = new Sink();
+  const code = await main(argv, out as unknown as NodeJS.WriteStream, err as unknown as NodeJS.WriteStream);
+  return { code, out: out.text, err: err.text };
+}
+
+const dir = mkdtempSync(join(tmpdir(), 'tw-cli-'));
+
+/** An invented lossless surface-magnet project for closed-form checks. */
+function spmProject(over: Record<string, unknown> = {}): string {
+  const f = join(dir, `spm-${Math.random().toString(36).slice(2)}.json`);
+  writeFileSync(f, JSON.stringify({
+    format: 'torquewise-project', version: 1, name: 'invented lossless SPM',
+    motor: { polePairs: 3, Rs: 0, Ld: 0.001, Lq: 0.001, psiM: 0.05, inertia: 0.001 },
+    inverter: { Vdc: 300, Imax: 30, Icont: 15, modulation: 'svpwm' },
+    conditions: { windingTemp_C: 20 },
+    requirements: [{ label: 'a', speed_rpm: 1000, torque_Nm: 2 }],
+    ...over,
+  }));
+  return f;
+}
+
+describe('cli --json documents', () => {
+  it('envelope: points with the issue keys, regions from the three names, base speed in closed form', async () => {
+    const r = await run('envelope', spmProject(), '--points', '50', '--json');
+    expect(r.code).toBe(0);
+    expect(r.out.trim().split('\n')).toHaveLength(1);
+    const doc = JSON.parse(r.out);
+    expect(doc.points).toHaveLength(50);
+    for (const q of doc.points) {
+      expect(Object.keys(q).sort()).toEqual(['current_A', 'id_A', 'iq_A', 'power_W', 'region', 'speed_rpm', 'torque_Nm', 'voltage_V']);
+      expect(['mtpa', 'field-weakening', 'mtpv']).toContain(q.region);
+    }
+    // lossless SPM electrical base speed omega_b = Vmax / sqrt(psiM² + (L Imax)²)
+    // (Soong and Miller, 1994, Field-weakening performance of brushless synchronous AC motor drives)
+    const Vmax = 300 / Math.sqrt(3);
+    const wb = Vmax / Math.hypot(0.05, 0.001 * 30) / 3;
+    expect(doc.baseSpeed_rpm).toBeCloseTo((wb * 60) / (2 * Math.PI), 6);
+    // psiM/Ld = 50 A > Imax = 30 A: finite maximum speed Vmax / (p (psiM - L Imax)) (same source)
+    expect(doc.maxSpeed_rpm).toBeCloseTo(((Vmax / (3 * (0.05 - 0.03))) * 60) / (2 * Math.PI), 4);
+    expect(doc.characteristicCurrent_A).toBeCloseTo(50, 12);
+    // torque at standstill = 1.5 p psiM Imax (common practice (no source))
+    expect(doc.points[0].torque_Nm).toBeCloseTo(1.5 * 3 * 0.05 * 30, 9);
+  });
+
+  it('point: feasible MTPA point and an infeasible one naming the binding limit', async () => {
+    const ok = JSON.parse((await run('point', spmProject(), '--speed', '1000', '--torque', '2', '--json')).out);
+    expect(ok).toMatchObject({ feasible: true, limitedBy: 'none' });
+    expect(ok.id_A).toBeCloseTo(0, 9);
+    expect(ok.iq_A).toBeCloseTo(2 / (1.5 * 3 * 0.05), 9); // iq = T / (1.5 p psiM) for an SPM (common practice (no source))
+    const big = JSON.parse((await run('point', spmProject(), '--speed', '100', '--torque', '50', '--json')).out);
+    expect(big.feasible).toBe(false);
+    expect(big.limitedBy).toBe('current');
+    expect(big.current_A).toBeGreaterThan(30);
+  });
+
+  it('size: least Imax and Vdc with a verdict per point', async () => {
+    const doc = JSON.parse((await run('size', spmProject(), '--json')).out);
+    expect(doc.minImax_A).toBeCloseTo(2 / (1.5 * 3 * 0.05), 6); // MTPA current of the only point
+    expect(doc.minVdc_V).toBeGreaterThan(0);
+    expect(doc.points[0]).toMatchObject({ label: 'a', met: true });
+    expect(Object.keys(doc.points[0]).sort()).toEqual(['current_A', 'label', 'limitedBy', 'met', 'torqueAvailable_Nm', 'voltage_V']);
+  });
+
+  it('params: model, corners and findings', async () => {
+    const doc = JSON.parse((await run('params', demo('ipm-traction'), '--json')).out);
+    expect(doc.model.polePairs).toBe(4);
+    expect(doc.hot.model.Rs).toBeGreaterThan(doc.cold.model.Rs);
+    expect(doc.hot.model.psiM).toBeLessThan(doc.cold.model.psiM);
+    expect(doc.interpretation.length).toBeGreaterThan(0);
+    expect(doc.findings.some((f: { severity: string }) => f.severity === 'danger')).toBe(true);
+  });
+
+  it('simulate and tune: the documents of the issue', async () => {
+    const sim = JSON.parse((await run('simulate', demo('servo-axis'), '--json')).out);
+    expect(Object.keys(sim).sort()).toEqual(expect.arrayContaining(['events', 'metrics', 'stats', 'traces']));
+    for (const k of ['finalSpeed_rpm', 'speedOvershoot_pct', 'riseTime_s', 'settlingTime_s', 'loadStepDip_rpm', 'loadStepRecovery_s', 'peakCurrent_A', 'rmsCurrent_A', 'voltageSaturation_s']) {
+      expect(sim.metrics).toHaveProperty(k);
+    }
+    for (const k of ['t_s', 'speed_rpm', 'torque_Nm', 'id_A', 'iq_A', 'vd_V', 'vq_V', 'ia_A', 'ib_A', 'ic_A']) {
+      expect(Array.isArray(sim.traces[k])).toBe(true);
+      expect(sim.traces[k].length).toBe(sim.traces.t_s.length);
+    }
+    expect(sim.metrics.finalSpeed_rpm).toBeCloseTo(2000, -1);
+    const tune = JSON.parse((await run('tune', demo('servo-axis'), '--json')).out);
+    expect(tune.current.Kp).toBeGreaterThan(0);
+    expect(tune.speed.phaseMargin_deg).toBeGreaterThan(30);
+  });
+
+  it('--csv writes the envelope table', async () => {
+    const out = join(dir, 'env.csv');
+    const r = await run('envelope', spmProject(), '--points', '5', '--csv', out);
+    expect(r.code).toBe(0);
+    const lines = readFileSync(out, 'utf8').trim().split('\n');
+    expect(lines[0]).toMatch(/^speed_rpm,torque_Nm,power_W,id_A,iq_A/);
+    expect(lines).toHaveLength(6);
+  });
+});
+
+describe('cli bad input: exit 2 and one line naming the field', () => {
+  const cases: Array<[string, string[], RegExp]> = [
+    ['unknown command', ['spin', 'x.json'], /^torquewise: command 'spin' is unknown/],
+    ['missing file', ['envelope'], /^torquewise: project file is missing/],
+    ['unreadable file', ['envelope', join(dir, 'nope.json')], /cannot be read \(ENOENT\)/],
+    ['bad number', ['envelope', demo('spm-48v'), '--points', 'many'], /--points must be a number/],
+    ['unknown option', ['envelope', demo('spm-48v'), '--colour', 'red'], /--colour is not an option of 'envelope'/],
+    ['absurd point count', ['envelope', demo('spm-48v'), '--points', '1e9'], /--points must be <= /],
+  ];
+  for (const [what, argv, re] of cases) {
+    it(what, async () => {
+      const r = await run(...argv);
+      expect(r.code).toBe(2);
+      expect(r.err).toMatch(re);
+      expect(r.err.trim().split('\n')).toHaveLength(1);
+      expect(r.err).not.toMatch(/\n\s+at /); // no stack trace
+      expect(r.out).toBe('');
+    });
+  }
+  it('a negative inductance in the file', async () => {
+    const f = spmProject({ motor: { polePairs: 3, Rs: 0.1, Ld: -0.001, Lq: 0.001, psiM: 0.05, inertia: 0.001 } });
+    const r = await run('params', f);
+    expect(r.code).toBe(2);
+    expect(r.err.trim()).toMatch(/^torquewise: motor\.Ld must be > 0 H/);
+  });
+});
+
+describe('cli entry point', () => {
+  it('npm run -s cli prints one JSON document and exits 0; bad input exits 2', () => {
+    const ok = spawnSync('npm', ['run', '-s', 'cli', '--', 'point', demo('servo-axis'), '--speed', '1000', '--torque', '1', '--json'], { cwd: root, encoding: 'utf8' });
+    expect(ok.status).toBe(0);
+    expect(JSON.parse(ok.stdout).feasible).toBe(true);
+    const bad = spawnSync('npm', ['run', '-s', 'cli', '--', 'point', demo('servo-axis'), '--speed', 'fast'], { cwd: root, encoding: 'utf8' });
+    expect(bad.status).toBe(2);
+    expect(bad.stderr.trim()).toBe("torquewise: --speed must be a number rpm (got 'fast')");
+  });
+});
