@@ -178,6 +178,45 @@ export const randomProject = fc
     },
   }));
 
+/** A random legal project in datasheet terms (the nameplate section), around a random bus. */
+export const randomNameplateProject = fc
+  .record({
+    poles: fc.integer({ min: 1, max: 10 }).map((k) => 2 * k),
+    byPairs: fc.boolean(),
+    R: fc.record({ value: fc.double({ min: 1e-3, max: 5, noNaN: true }), basis: fc.constantFrom('phase', 'line-to-line'), temp_C: fc.integer({ min: -20, max: 150 }) }),
+    L: fc.oneof(
+      fc.record({ L: fc.record({ value: fc.double({ min: 1e-5, max: 2e-2, noNaN: true }), basis: fc.constantFrom('phase', 'line-to-line') }) }),
+      fc.record({ Ld: fc.record({ value: fc.double({ min: 1e-5, max: 2e-2, noNaN: true }), basis: fc.constantFrom('phase', 'line-to-line') }), Lq: fc.record({ value: fc.double({ min: 1e-5, max: 5e-2, noNaN: true }), basis: fc.constantFrom('phase', 'line-to-line') }) }),
+    ),
+    K: fc.oneof(
+      fc.record({ Ke: fc.record({ value: fc.double({ min: 0.5, max: 200, noNaN: true }), unit: fc.constantFrom('V_LL_rms/krpm', 'V_LL_peak/krpm') }) }),
+      fc.record({ Kt: fc.record({ value: fc.double({ min: 0.01, max: 5, noNaN: true }), unit: fc.constantFrom('Nm/A_rms', 'Nm/A_peak') }) }),
+      fc.record({ Ke: fc.record({ value: fc.double({ min: 1e-3, max: 1, noNaN: true }), unit: fc.constant('V_ph_peak*s/rad') }), Kt: fc.record({ value: fc.double({ min: 0.01, max: 5, noNaN: true }), unit: fc.constantFrom('Nm/A_rms', 'Nm/A_peak') }) }),
+    ),
+    rated: fc.option(fc.record({ I: fc.double({ min: 1, max: 300, noNaN: true }), n: fc.double({ min: 100, max: 20000, noNaN: true }), T: fc.double({ min: 0.1, max: 300, noNaN: true }) })),
+    Vdc: fc.double({ min: 5, max: 800, noNaN: true }),
+    Imax: fc.double({ min: 1, max: 600, noNaN: true }),
+    inertia: fc.double({ min: 1e-6, max: 0.5, noNaN: true }),
+  })
+  .map((r) => ({
+    format: 'torquewise-project',
+    version: 1,
+    name: 'fuzz nameplate',
+    nameplate: {
+      ...(r.byPairs ? { polePairs: r.poles / 2 } : { poles: r.poles }),
+      R: r.R,
+      ...r.L,
+      ...r.K,
+      ...(r.rated ? { ratedCurrent: { value: r.rated.I, basis: 'rms' }, ratedSpeed_rpm: r.rated.n, ratedTorque_Nm: r.rated.T } : {}),
+      inertia: r.inertia,
+    },
+    inverter: { Vdc: r.Vdc, Imax: r.Imax, Icont: r.Imax / 2, modulation: 'svpwm' },
+    conditions: { windingTemp_C: 100, magnetTemp_C: 80, coldTemp_C: -20 },
+    requirements: [{ label: 'a', speed_rpm: 1000, torque_Nm: 1 }],
+    control: { mode: 'speed', fCtrl_Hz: 10000 },
+    scenario: { duration_s: 0.02, speedSteps: [{ t_s: 0.001, speed_rpm: 1000 }] },
+  }));
+
 const flagsFor = (cmd: CommandName): fc.Arbitrary<string[]> => {
   const num = fc.oneof(fc.constantFrom('0', '-1', '1e9', 'NaN', 'Infinity', '1e-300', '', 'abc', '2.5', '100000', '100001'), fc.double({ noNaN: true, min: -2e4, max: 2e4 }).map(String));
   if (cmd === 'point') return fc.tuple(num, num).map(([s, t]) => ['--speed', s, '--torque', t]);
@@ -188,7 +227,11 @@ const flagsFor = (cmd: CommandName): fc.Arbitrary<string[]> => {
 /** One fuzz case: a mutated demo, a mutated random project, or a damaged text. */
 export const fuzzCase: fc.Arbitrary<FuzzCase> = fc
   .record({
-    seed: fc.oneof({ weight: 2, arbitrary: fc.constantFrom(...DEMO_NAMES).map((n) => DEMOS[n]) }, { weight: 2, arbitrary: randomProject }),
+    seed: fc.oneof(
+      { weight: 2, arbitrary: fc.constantFrom(...DEMO_NAMES).map((n) => DEMOS[n]) },
+      { weight: 2, arbitrary: randomProject },
+      { weight: 1, arbitrary: randomNameplateProject as fc.Arbitrary<unknown> },
+    ),
     muts: fc.oneof({ weight: 2, arbitrary: fc.constant([] as Mutation[]) }, { weight: 2, arbitrary: fc.array(mutation.filter((m) => m.op === 'scale'), { minLength: 1, maxLength: 2 }) }, { weight: 5, arbitrary: fc.array(mutation, { minLength: 1, maxLength: 3 }) }),
     asText: fc.boolean(),
     textDamage: fc.option(fc.record({ at: fc.nat(), kind: fc.constantFrom('truncate', 'flip', 'bom', 'nan-token', 'inf-token', 'deep') }), { freq: 6 }),
