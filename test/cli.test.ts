@@ -21,7 +21,7 @@ class Sink {
 async function run(...argv: string[]): Promise<{ code: number; out: string; err: string }> {
   const out = new Sink();
   const err = new Sink();
-  const code = await main(argv, out as unknown as NodeJS.WriteStream, err as unknown as NodeJS.WriteStream);
+  const code = await main(argv, out, err);
   return { code, out: out.text, err: err.text };
 }
 

@@ -14,7 +14,12 @@ function usage(): string {
   return lines.join('\n');
 }
 
-export async function main(argv: readonly string[], out = process.stdout, err = process.stderr): Promise<number> {
+/** The sinks main writes to (process.stdout and process.stderr, or a test's collector). */
+export interface TextSink {
+  write(s: string): unknown;
+}
+
+export async function main(argv: readonly string[], out: TextSink = process.stdout, err: TextSink = process.stderr): Promise<number> {
   try {
     const args = parseArgs(argv);
     if (args.command === '' || args.command === 'help' || args.flags.has('help')) {
