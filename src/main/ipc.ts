@@ -1,21 +1,9 @@
 // IPC channel names and the checks main applies to every argument from the renderer before it
 // touches a file. A wrong shape gets a sentence naming the field; paths are judged separately
 // (see path-grants.ts).
-import type { BridgeChannel, ExportKind, ExportRequest, RecoveryWriteRequest, SaveAsRequest, SaveRequest } from '../types/bridge';
+import { CHANNELS, type ExportKind, type ExportRequest, type RecoveryWriteRequest, type SaveAsRequest, type SaveRequest } from '../types/bridge';
 
-export const CHANNELS = {
-  open: 'tw:open',
-  openRecent: 'tw:open-recent',
-  initialFile: 'tw:initial-file',
-  save: 'tw:save',
-  saveAs: 'tw:save-as',
-  export: 'tw:export',
-  recent: 'tw:recent',
-  recoveryCheck: 'tw:recovery-check',
-  recoveryWrite: 'tw:recovery-write',
-  recoveryDiscard: 'tw:recovery-discard',
-  menu: 'tw:menu',
-} as const satisfies Record<string, BridgeChannel>;
+export { CHANNELS };
 
 /** Largest project text or export accepted over IPC, in characters or bytes. */
 export const MAX_TEXT_CHARS = 16 * 1024 * 1024;

@@ -1,21 +1,9 @@
 // Builds the TorquewiseBridge over an ipcRenderer-like object. Kept apart from index.ts (the only
 // preload file that imports electron) so it is tested under Node with a fake IPC.
-import type { BridgeChannel, Failure, MenuEvent, MenuEventName, TorquewiseBridge } from '../types/bridge';
+import { CHANNELS, type Failure, type MenuEvent, type MenuEventName, type TorquewiseBridge } from '../types/bridge';
 import { shapeError } from './validate';
 
-export const CHANNELS = {
-  open: 'tw:open',
-  openRecent: 'tw:open-recent',
-  initialFile: 'tw:initial-file',
-  save: 'tw:save',
-  saveAs: 'tw:save-as',
-  export: 'tw:export',
-  recent: 'tw:recent',
-  recoveryCheck: 'tw:recovery-check',
-  recoveryWrite: 'tw:recovery-write',
-  recoveryDiscard: 'tw:recovery-discard',
-  menu: 'tw:menu',
-} as const satisfies Record<string, BridgeChannel>;
+export { CHANNELS };
 
 const MENU_EVENTS: readonly MenuEventName[] = [
   'file:new', 'file:open', 'file:open-recent', 'file:save', 'file:save-as',

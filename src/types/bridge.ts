@@ -106,19 +106,22 @@ export interface TorquewiseBridge {
   };
 }
 
-/** IPC channel names shared by main and preload (each side declares its constant against this). */
-export type BridgeChannel =
-  | 'tw:open'
-  | 'tw:open-recent'
-  | 'tw:initial-file'
-  | 'tw:save'
-  | 'tw:save-as'
-  | 'tw:export'
-  | 'tw:recent'
-  | 'tw:recovery-check'
-  | 'tw:recovery-write'
-  | 'tw:recovery-discard'
-  | 'tw:menu';
+/** IPC channel names: the one table main and preload both use. */
+export const CHANNELS = {
+  open: 'tw:open',
+  openRecent: 'tw:open-recent',
+  initialFile: 'tw:initial-file',
+  save: 'tw:save',
+  saveAs: 'tw:save-as',
+  export: 'tw:export',
+  recent: 'tw:recent',
+  recoveryCheck: 'tw:recovery-check',
+  recoveryWrite: 'tw:recovery-write',
+  recoveryDiscard: 'tw:recovery-discard',
+  menu: 'tw:menu',
+} as const;
+
+export type BridgeChannel = (typeof CHANNELS)[keyof typeof CHANNELS];
 
 declare global {
   interface Window {
