@@ -1,12 +1,14 @@
 // Torquewise main window: the input side on the left, four views on the right.
 import { useCallback, useEffect, useMemo, useRef, useState } from 'react';
 import { checkProject, parseProject } from '../../core/schema';
+import { migrateProject } from '../../core/migrate';
 import { resolveProject, type ResolvedProject } from '../../core/project';
 import { isInputError } from '../../core/errors';
 import type { MenuEvent } from '../../types/bridge';
 import { DEMOS, DEFAULT_DEMO } from './demos';
 import { newDraft, normalisePath, type Json } from './draft';
 import { FormContext, FormStore } from './form-store';
+import { useAfterPaint } from './after-paint';
 import { InputPanel } from './InputPanel';
 import { computeEnvelopes, computeVerdicts, DEFAULT_ENVELOPE_OPTIONS, type EnvelopeOptions, type EnvelopeResults, type Results, type Verdicts } from './compute';
 import { fileBridge } from './file-bridge';
@@ -36,23 +38,50 @@ interface Checked {
   resolved: ResolvedProject | null;
 }
 
-function check(tree: Json): Checked {
-  const issues: Record<string, string> = {};
-  const problems = checkProject(tree);
-  for (const pr of problems) {
-    const p = normalisePath(pr.path);
-    if (!issues[p]) issues[p] = pr.message;
+function inputIssue(e: unknown): Record<string, string> {
+  if (isInputError(e)) {
+    const p = normalisePath(e.field);
+    const msg = e.message.startsWith(e.field) ? e.message.slice(e.field.length).trim() : e.message;
+    return { [p]: msg };
   }
-  if (problems.length) return { issues, resolved: null };
+  return { file: e instanceof Error ? e.message : String(e) };
+}
+
+/**
+ * Validate and resolve the form's tree, once per edit: one schema pass when the tree is valid (the
+ * full list of problems is gathered only when it is not). A file from a newer format version is
+ * read as far as this version understands it and marked read-only.
+ */
+function check(tree: Json): Checked {
+  let json: unknown = tree;
+  let readOnly = false;
+  let migrated: ResolvedProject['findings'] = [];
   try {
-    return { issues, resolved: resolveProject(parseProject(tree)) };
-  } catch (e) {
-    if (isInputError(e)) {
-      const p = normalisePath(e.field);
-      const msg = e.message.startsWith(e.field) ? e.message.slice(e.field.length).trim() : e.message;
-      return { issues: { [p]: msg }, resolved: null };
+    const m = migrateProject(tree);
+    json = m.json;
+    readOnly = m.readOnly;
+    migrated = m.findings;
+  } catch {
+    // not an object, or a version with no path: the schema names the problem below
+  }
+  let file: ReturnType<typeof parseProject>;
+  try {
+    file = parseProject(json);
+  } catch {
+    const issues: Record<string, string> = {};
+    for (const pr of checkProject(json)) {
+      const p = normalisePath(pr.path);
+      if (!issues[p]) issues[p] = pr.message;
     }
-    return { issues: { file: e instanceof Error ? e.message : String(e) }, resolved: null };
+    if (Object.keys(issues).length) return { issues, resolved: null };
+    return { issues: { file: 'could not be read' }, resolved: null };
+  }
+  try {
+    const rp = resolveProject(file);
+    if (migrated.length) rp.findings.unshift(...migrated);
+    return { issues: {}, resolved: readOnly ? { ...rp, readOnly: true } : rp };
+  } catch (e) {
+    return { issues: inputIssue(e), resolved: null };
   }
 }
 
@@ -130,13 +159,18 @@ export function App() {
       const now = performance.now();
       const quiet = now - lastEdit > EDIT_QUIET_MS;
       lastEdit = now;
-      h = setTimeout(() => {
+      const run = () => {
+        h = null;
         performance.mark('tw-check');
         const c = check(store.getDraft().tree);
         store.setIssues(c.issues);
         setChecked(c);
         if (c.resolved) setLastGood(c.resolved);
-      }, quiet ? 0 : EDIT_DEBOUNCE_MS);
+      };
+      // a quiet edit is checked within the keystroke's own task, so the keystroke and the redrawn
+      // plot reach the screen in the same frame
+      if (quiet) run();
+      else h = setTimeout(run, EDIT_DEBOUNCE_MS);
       if (bridgeKind === 'electron') {
         if (save !== null) clearTimeout(save);
         save = setTimeout(() => void fileBridge().recoveryWrite(JSON.stringify(store.getDraft().tree, null, 2), pathRef.current), 1500);
@@ -165,7 +199,9 @@ export function App() {
 
   // verdicts (sizing searches) follow the curves: computed after the redraw, so typing stays quick
   const [verdicts, setVerdicts] = useState<Verdicts | null>(() => (envelopes ? safeVerdicts(envelopes) : null));
+  const lateEnvelopes = useAfterPaint(envelopes);
   useEffect(() => {
+    const envelopes = lateEnvelopes;
     if (!envelopes || verdicts?.verdictsFor === envelopes.project) return;
     const h = setTimeout(() => {
       const v = safeVerdicts(envelopes);
@@ -177,7 +213,7 @@ export function App() {
       }
     }, 0);
     return () => clearTimeout(h);
-  }, [envelopes, verdicts]);
+  }, [lateEnvelopes, verdicts]);
   const results: Results | null = useMemo(() => (envelopes && verdicts ? { ...envelopes, ...verdicts } : null), [envelopes, verdicts]);
 
 
@@ -276,6 +312,8 @@ export function App() {
 
   const stale = Object.keys(checked.issues).length > 0;
   const marks = useMemo(() => requirementMarks(results), [results]);
+  const lateResolved = useAfterPaint(lastGood);
+  const lateMarks = useAfterPaint(marks);
   const projectName = lastGood?.name || source.name;
 
   return (
@@ -326,7 +364,7 @@ export function App() {
         </header>
         <div className="body">
           <aside className="inputs" data-testid="inputs">
-            <InputPanel resolved={lastGood} marks={marks} />
+            <InputPanel resolved={lateResolved} marks={lateMarks} />
           </aside>
           <main className="main">
             <nav className="tabs" role="tablist">

@@ -13,6 +13,7 @@ import { envelopeCsv } from './exports';
 import { fileBridge, dataUrlToBytes, svgDataUrlToText } from './file-bridge';
 import { num } from './format';
 import { Cautions } from './DatasheetView';
+import { useAfterPaint } from './after-paint';
 
 const REGION_NAME = { mtpa: 'MTPA', 'field-weakening': 'field weakening', mtpv: 'MTPV' } as const;
 
@@ -349,10 +350,13 @@ export const EnvelopeView = memo(function EnvelopeView({ results, opts, setOpts,
   const [op, setOp] = useState<OperatingPoint | null>(null);
   const [topText, setTopText] = useState('');
   const envEl = useRef<HTMLDivElement | null>(null);
-  const speeds = useMemo(() => parseSpeeds(speedText ?? defaultSpeeds(results)), [speedText, results]);
+  // the torque plot follows each edit at once; the power plot and the current plane are built and
+  // drawn after that frame is painted
+  const late = useAfterPaint(results);
+  const speeds = useMemo(() => parseSpeeds(speedText ?? defaultSpeeds(late)), [speedText, late]);
   const fig = useMemo(() => torqueOnlyFigure(results, theme, show), [results, theme, show]);
-  const pfig = useMemo(() => powerSpeedFigure(results, theme, show), [results, theme, show]);
-  const plane = useMemo(() => planeFigure(results, theme, speeds, op), [results, theme, speeds, op]);
+  const pfig = useMemo(() => powerSpeedFigure(late, theme, show), [late, theme, show]);
+  const plane = useMemo(() => planeFigure(late, theme, speeds, op), [late, theme, speeds, op]);
 
   const onHover = useCallback(
     (ev: any) => {

@@ -1,5 +1,5 @@
 // A thin React wrapper around plotly's `react` call, themed from the CSS variables.
-import { useEffect, useRef } from 'react';
+import { useEffect, useLayoutEffect, useRef } from 'react';
 import Plotly from 'plotly.js-dist-min';
 import type { Data, Layout, PlotlyHTMLElement } from 'plotly.js-dist-min';
 
@@ -92,7 +92,8 @@ export function Plot({ data, layout, height, testId, onHover, onUnhover, onDrawn
   drawnRef.current = onDrawn;
   const bound = useRef(false);
 
-  useEffect(() => {
+  // drawn in the commit itself (a layout effect): no frame is painted between the new DOM and the plot
+  useLayoutEffect(() => {
     const el = ref.current;
     if (!el) return;
     let live = true;
