@@ -1,6 +1,7 @@
 /**
  * `npm run bench`: speed figures as ratios against baselines computed in the same run.
  * Each section is a module with a name and a run(); add a section by adding it to the list.
+ * `--only WORD` runs only the sections whose name contains WORD (e.g. `npm run bench -- --only simulation`).
  */
 import { envelopeBench } from './envelope';
 import { simulateBench } from './simulate';
@@ -12,7 +13,13 @@ export interface BenchSection {
 
 const sections: BenchSection[] = [envelopeBench, simulateBench];
 
-for (const s of sections) {
+const argv = process.argv.slice(2);
+const onlyAt = argv.indexOf('--only');
+const only = onlyAt >= 0 ? (argv[onlyAt + 1] ?? '').toLowerCase() : '';
+const chosen = only ? sections.filter((s) => s.name.toLowerCase().includes(only)) : sections;
+if (chosen.length === 0) console.log(`no bench section matches "${only}": ${sections.map((s) => s.name).join('; ')}`);
+
+for (const s of chosen) {
   console.log(`\n== ${s.name} ==`);
   await s.run();
 }

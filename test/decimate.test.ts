@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { decimateMinMax } from '../src/core/decimate';
+import { decimateMinMax, StreamingMinMax } from '../src/core/decimate';
 
 describe('min/max decimation', () => {
   it('keeps every channel\'s extremes and the shared length', () => {
@@ -35,5 +35,45 @@ describe('min/max decimation', () => {
     const x = Float64Array.from([0, 9, 1, 2, -4, 0, 0, 0]);
     const d = decimateMinMax(t, [x], 8, 4);
     expect(Array.from(d.channels[0]!)).toEqual([0, 9, -4, 0]);
+  });
+});
+
+describe('streaming min/max decimation', () => {
+  const mk = (n: number) => {
+    const t = Float64Array.from({ length: n }, (_, i) => i * 1e-4);
+    let s = 12345;
+    const rnd = () => ((s = (s * 1103515245 + 12345) % 2147483648) / 2147483648) - 0.5;
+    const a = Float64Array.from(t, (x) => Math.sin(2 * Math.PI * 7 * x) + 0.1 * rnd());
+    const b = Float64Array.from(t, () => rnd());
+    b[n - 1] = 9; // a spike in the very last sample
+    return { t, a, b };
+  };
+  it('gives exactly what decimateMinMax gives on the whole trace, for lengths around the bucket edges', () => {
+    for (const [n, maxPoints] of [[100000, 1000], [8001, 300], [8001, 5000], [5001, 5000], [7, 4], [3001, 1001]] as const) {
+      const { t, a, b } = mk(n);
+      const ref = decimateMinMax(t, [a, b], n, maxPoints);
+      const s = new StreamingMinMax(2, n, maxPoints);
+      const row = new Float64Array(2);
+      for (let i = 0; i < n; i++) { row[0] = a[i]!; row[1] = b[i]!; s.push(t[i]!, row); }
+      const d = s.finish();
+      expect(Array.from(d.t)).toEqual(Array.from(ref.t));
+      expect(Array.from(d.channels[0]!)).toEqual(Array.from(ref.channels[0]!));
+      expect(Array.from(d.channels[1]!)).toEqual(Array.from(ref.channels[1]!));
+      expect(d.t[d.t.length - 1]).toBe(t[n - 1]);
+      expect(Math.max(...d.channels[1]!)).toBe(9);
+    }
+  });
+  it('keeps short traces whole and returns the filled buckets of a run that stops early', () => {
+    const short = new StreamingMinMax(1, 5, 5000);
+    [3, 1, 4].forEach((v, i) => short.push(i, [v]));
+    const ds = short.finish();
+    expect(Array.from(ds.t)).toEqual([0, 1, 2]);
+    expect(Array.from(ds.channels[0]!)).toEqual([3, 1, 4]);
+    // 1000 expected samples in 10 buckets of 100; stop after 250: two full buckets and a half one
+    const s = new StreamingMinMax(1, 1000, 20);
+    for (let i = 0; i < 250; i++) s.push(i, [i === 130 ? -5 : i]);
+    const d = s.finish();
+    expect(Array.from(d.t)).toEqual([0, 99, 100, 199, 200, 249]);
+    expect(Array.from(d.channels[0]!)).toEqual([0, 99, -5, 199, 200, 249]);
   });
 });

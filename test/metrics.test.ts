@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { stepResponse, loadStepResponse, steadyStateError, finiteOrNull } from '../src/core/metrics';
+import { stepResponse, loadStepResponse, steadyStateError, finiteOrNull, StepResponseTracker, LoadStepTracker, SteadyStateTracker } from '../src/core/metrics';
 
 const grid = (n: number, dt: number): Float64Array => Float64Array.from({ length: n }, (_, i) => i * dt);
 
@@ -57,5 +57,61 @@ describe('response metrics on synthetic signals', () => {
     expect(steadyStateError(t, ref, y, t.length, 0.05)).toBeCloseTo(0.5, 12);
     expect(finiteOrNull(NaN)).toBeNull();
     expect(finiteOrNull(3)).toBe(3);
+  });
+});
+
+describe('streaming trackers give exactly the array forms', () => {
+  // damped responses with noise (fixed seed), including runs that never settle
+  let s = 987654321;
+  const rnd = (): number => ((s = (s * 1103515245 + 12345) % 2147483648) / 2147483648) - 0.5;
+  const cases = Array.from({ length: 40 }, (_, k) => {
+    const n = 200 + 97 * k;
+    const dt = 1e-4;
+    const t = grid(n, dt);
+    const zeta = 0.1 + 0.05 * (k % 12);
+    const wn = 200 + 40 * (k % 5);
+    const y = Float64Array.from(t, (x) => {
+      const tt = Math.max(0, x - 0.003);
+      const wd = wn * Math.sqrt(Math.max(1e-6, 1 - zeta * zeta));
+      return 100 + 50 * (1 - Math.exp(-zeta * wn * tt) * Math.cos(wd * tt)) + (k % 3) * 0.5 * rnd();
+    });
+    const ref = Float64Array.from(t, () => 150);
+    return { n, t, y, ref };
+  });
+  it('step response, load step and steady-state error, 40 cases', () => {
+    let settled = 0, recovered = 0, unsettled = 0;
+    for (const { n, t, y, ref } of cases) {
+      const tEnd = k2(n);
+      const a = stepResponse(t, y, n, 0.003, tEnd, 100, 150);
+      const st = new StepResponseTracker(0.003, tEnd, 100, 150);
+      const b = loadStepResponse(t, ref, y, n, 0.003, Infinity);
+      const lt = new LoadStepTracker(0.003, Infinity, undefined, 16);
+      const win = Math.max(0.05 * t[n - 1]!, 2e-4);
+      const c = steadyStateError(t, ref, y, n, win);
+      const sst = new SteadyStateTracker(Math.ceil(0.05 * n) + 8);
+      for (let i = 0; i < n; i++) { st.push(t[i]!, y[i]!); lt.push(t[i]!, ref[i]!, y[i]!); sst.push(t[i]!, ref[i]!, y[i]!); }
+      expect(st.result()).toEqual(a);
+      expect(lt.result()).toEqual(b);
+      expect(sst.result(win)).toBe(c);
+      expect(b.dip).toBeGreaterThan(40); // the response starts 50 below the reference
+      if (a.settlingTime_s !== null) settled++; else unsettled++;
+      if (b.recovery_s !== null) recovered++;
+    }
+    // the cases cover settled and unsettled responses alike
+    expect(settled).toBeGreaterThan(5);
+    expect(unsettled).toBeGreaterThan(2);
+    expect(recovered).toBeGreaterThan(5);
+    function k2(n: number): number { return n % 2 ? Infinity : (0.6 * n) * 1e-4; }
+  });
+  it('a load step that never recovers gives null recovery, like the array form', () => {
+    const n = 500;
+    const t = grid(n, 1e-3);
+    const y = Float64Array.from(t, (x) => (x < 0.1 ? 0 : -10 * x));
+    const ref = new Float64Array(n);
+    const lt = new LoadStepTracker(0.1, Infinity);
+    for (let i = 0; i < n; i++) lt.push(t[i]!, ref[i]!, y[i]!);
+    expect(lt.result()).toEqual(loadStepResponse(t, ref, y, n, 0.1, Infinity));
+    expect(lt.result().recovery_s).toBeNull();
+    expect(lt.result().dip).toBeCloseTo(4.99, 9);
   });
 });

@@ -5,6 +5,7 @@ import { loadProjectText } from '../src/core/project';
 import type { ResolvedProject } from '../src/core/project';
 import { simulationFromProject, runSimulation, TRACE_NAMES } from '../src/core/simulate';
 import type { SimulationResult } from '../src/core/simulate';
+import { stepResponse, loadStepResponse, steadyStateError } from '../src/core/metrics';
 
 const demo = (f: string): any => JSON.parse(readFileSync(resolve(__dirname, '..', 'resources', `${f}.json`), 'utf8'));
 const proj = (o: unknown): ResolvedProject => loadProjectText(JSON.stringify(o));
@@ -224,5 +225,41 @@ describe('cascade simulator behaviour', () => {
     const q = demo('demo-servo-axis');
     delete q.scenario;
     expect(() => simulationFromProject(proj(q))).toThrow(/scenario/);
+  });
+});
+
+describe('streamed metrics and traces', () => {
+  it('metrics do not depend on the decimation and equal the array forms on the full-rate traces', () => {
+    const p = proj(demo('demo-servo-axis')); // its speed step then load step
+    const setup = simulationFromProject(p);
+    const full = runSimulation(setup, FULL);
+    const dec = runSimulation(setup, { maxPoints: 200 });
+    expect(dec.traces.t_s.length).toBeLessThanOrEqual(200);
+    expect(full.traces.t_s.length).toBe(full.stats.controlSteps + 1);
+    expect(dec.metrics).toEqual(full.metrics);
+    // the array forms over the full-rate traces (as the simulator computed them before streaming)
+    const tr = full.traces;
+    const n = tr.t_s.length;
+    const s0 = setup.marks.speedSteps[0]!;
+    const l0 = setup.marks.loadEvents[0]!;
+    const evs = [...setup.marks.speedSteps.map((s) => s.t), ...setup.marks.loadEvents].sort((a, b) => a - b);
+    const after = (t: number): number => evs.find((x) => x > t + 1e-12) ?? Infinity;
+    const rpm = 60 / (2 * Math.PI);
+    const before = setup.marks.speedSteps.filter((s) => s.t < s0.t).reduce((_, s) => s.v, setup.initialSpeed_rad_s) * rpm;
+    const st = stepResponse(tr.t_s, tr.speed_rpm, n, s0.t, after(s0.t), before, s0.v * rpm);
+    const ld = loadStepResponse(tr.t_s, tr.speedRef_rpm, tr.speed_rpm, n, l0, after(l0));
+    const tLast = tr.t_s[n - 1]!;
+    const sse = steadyStateError(tr.t_s, tr.speedRef_rpm, tr.speed_rpm, n, Math.max(0.05 * tLast, 2 * setup.controller.Ts));
+    expect(full.metrics.riseTime_s).toBe(st.riseTime_s);
+    expect(full.metrics.speedOvershoot_pct).toBe(st.overshoot_pct);
+    expect(full.metrics.settlingTime_s).toBe(st.settlingTime_s);
+    expect(full.metrics.loadStepDip_rpm).toBe(ld.dip);
+    expect(full.metrics.loadStepRecovery_s).toBe(ld.recovery_s);
+    expect(full.metrics.steadyStateError_rpm).toBe(sse);
+    expect(full.metrics.finalSpeed_rpm).toBe(tr.speed_rpm[n - 1]);
+    // the demo's figures are defined (not all null), so the comparison means something
+    expect(full.metrics.riseTime_s).toBeGreaterThan(0);
+    expect(full.metrics.loadStepDip_rpm).toBeGreaterThan(0);
+    expect(full.metrics.loadStepRecovery_s).toBeGreaterThan(0);
   });
 });

@@ -104,5 +104,163 @@ export function steadyStateError(t: ArrayLike<number>, ref: ArrayLike<number>, y
   return Number.isFinite(e) ? e : null;
 }
 
+// ------------------------------------------------------------------ streaming forms
+// The same figures, fed one sample at a time (times ascending) while a run goes on, so that a long
+// run needs no full-rate traces. Each gives exactly the number its array form above gives on the
+// same samples; `push` allocates nothing (LoadStepTracker grows its candidate list by doubling,
+// rarely, see there).
+
+/** `stepResponse` fed sample by sample: only samples with tStep <= t < tEnd count. */
+export class StepResponseTracker {
+  private readonly delta: number;
+  private readonly valid: boolean;
+  private n = 0;
+  private t10: number | null = null;
+  private t90: number | null = null;
+  private zMax = -Infinity;
+  private prevZ = 0;
+  private prevT = 0;
+  private lastWasOut = false;
+  private anyOut = false;
+  /** time of the sample after the last one outside the band */
+  private tAfterOut = 0;
+
+  constructor(private readonly tStep: number, private readonly tEnd: number, private readonly y0: number, yFinal: number, private readonly band = DEFAULT_SETTLING_BAND) {
+    this.delta = yFinal - y0;
+    const scale = Math.max(Math.abs(y0), Math.abs(yFinal));
+    this.valid = Math.abs(this.delta) > 1e-9 * Math.max(scale, 1e-300) && Number.isFinite(this.delta);
+  }
+
+  push(t: number, y: number): void {
+    if (!(t >= this.tStep) || !(t < this.tEnd)) return;
+    const z = (y - this.y0) / this.delta;
+    if (this.lastWasOut) this.tAfterOut = t;
+    if (this.n > 0) {
+      const prevZ = this.prevZ;
+      if (this.t10 === null && z >= 0.1) this.t10 = this.prevT + ((0.1 - prevZ) / (z - prevZ)) * (t - this.prevT);
+      if (this.t90 === null && z >= 0.9) this.t90 = this.prevT + ((0.9 - prevZ) / (z - prevZ)) * (t - this.prevT);
+    } else {
+      if (z >= 0.1) this.t10 = t;
+      if (z >= 0.9) this.t90 = t;
+    }
+    if (z > this.zMax) this.zMax = z;
+    this.lastWasOut = Math.abs(z - 1) > this.band;
+    if (this.lastWasOut) this.anyOut = true;
+    this.prevZ = z;
+    this.prevT = t;
+    this.n++;
+  }
+
+  result(): StepMetrics {
+    if (!this.valid || this.n < 2) return { riseTime_s: null, overshoot_pct: null, settlingTime_s: null };
+    const riseTime_s = this.t10 !== null && this.t90 !== null ? Math.max(0, this.t90 - this.t10) : null;
+    const overshoot_pct = Number.isFinite(this.zMax) ? Math.max(0, this.zMax - 1) * 100 : null;
+    const settlingTime_s = this.lastWasOut ? null : !this.anyOut ? 0 : this.tAfterOut - this.tStep;
+    return { riseTime_s, overshoot_pct, settlingTime_s };
+  }
+}
+
+/**
+ * `loadStepResponse` fed sample by sample (tStep <= t < tEnd). The recovery time depends on the
+ * final dip, known only at the end, so the tracker keeps the candidates for "the last sample
+ * outside the band": the samples whose |error| exceeds every later one and 5 % of the dip so far
+ * (a sample at or under the running threshold can never be outside the final band). They are few
+ * except during a long monotone recovery, and never more than the samples of the window.
+ */
+export class LoadStepTracker {
+  private n = 0;
+  private dip = 0;
+  private top = 0;
+  private val: Float64Array;
+  /** time of the sample after each candidate (NaN while it is the latest sample) */
+  private next: Float64Array;
+  private lastPushed = false;
+
+  constructor(private readonly tStep: number, private readonly tEnd: number, private readonly recoveryFraction = DEFAULT_RECOVERY_FRACTION, initialCapacity = 1024) {
+    this.val = new Float64Array(Math.max(16, initialCapacity));
+    this.next = new Float64Array(this.val.length);
+  }
+
+  push(t: number, yRef: number, y: number): void {
+    if (!(t >= this.tStep) || !(t < this.tEnd)) return;
+    const e = Math.abs(yRef - y);
+    if (this.lastPushed) this.next[this.top - 1] = t;
+    this.n++;
+    this.dip = Math.max(this.dip, e);
+    const thr = Math.max(this.recoveryFraction * this.dip, 1e-12);
+    let top = this.top;
+    while (top > 0 && this.val[top - 1]! <= e) top--;
+    this.lastPushed = e > thr;
+    if (this.lastPushed) {
+      if (top === this.val.length) this.grow();
+      this.val[top] = e;
+      this.next[top] = NaN;
+      top++;
+    }
+    this.top = top;
+  }
+
+  private grow(): void {
+    const v = new Float64Array(this.val.length * 2);
+    v.set(this.val);
+    const x = new Float64Array(this.val.length * 2);
+    x.set(this.next);
+    this.val = v;
+    this.next = x;
+  }
+
+  result(): LoadStepMetrics {
+    if (this.n < 2 || !Number.isFinite(this.dip)) return { dip: null, recovery_s: null };
+    const bandAbs = Math.max(this.recoveryFraction * this.dip, 1e-12);
+    let k = this.top - 1;
+    while (k >= 0 && !(this.val[k]! > bandAbs)) k--;
+    let recovery_s: number | null;
+    if (k < 0) recovery_s = 0;
+    else if (Number.isNaN(this.next[k]!)) recovery_s = null;
+    else recovery_s = this.next[k]! - this.tStep;
+    return { dip: this.dip, recovery_s };
+  }
+}
+
+/**
+ * `steadyStateError` over the last samples of a run, kept in a ring of `capacity` samples: exact
+ * when the window holds at most `capacity` samples (otherwise the mean is over the newest
+ * `capacity`).
+ */
+export class SteadyStateTracker {
+  private readonly t: Float64Array;
+  private readonly d: Float64Array;
+  private n = 0;
+
+  constructor(readonly capacity: number) {
+    const c = Math.max(2, Math.ceil(capacity));
+    this.t = new Float64Array(c);
+    this.d = new Float64Array(c);
+  }
+
+  push(t: number, ref: number, y: number): void {
+    const c = this.t.length;
+    const j = this.n % c;
+    this.t[j] = t;
+    this.d[j] = ref - y;
+    this.n++;
+  }
+
+  result(window: number): number | null {
+    const n = this.n;
+    if (n < 1) return null;
+    const c = this.t.length;
+    const held = Math.min(n, c);
+    const first = n - held; // absolute index of the oldest held sample
+    const tEnd = this.t[(n - 1) % c]!;
+    let i0 = first;
+    while (i0 < n - 1 && this.t[i0 % c]! < tEnd - window) i0++;
+    let s = 0;
+    for (let i = i0; i < n; i++) s += this.d[i % c]!;
+    const e = s / (n - i0);
+    return Number.isFinite(e) ? e : null;
+  }
+}
+
 /** Replace a non-finite figure by null. */
 export const finiteOrNull = (x: number | null | undefined): number | null => (x === null || x === undefined || !Number.isFinite(x) ? null : x);

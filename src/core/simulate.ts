@@ -11,8 +11,10 @@
  *
  * The run stops with a diagnostic on divergence (a non-finite state, |i| > 20·Imax, |omega| above
  * the divergence speed, or a step-size collapse), on the step or wall-time budget, or when the
- * abort signal is raised (checked every `CHECK_EVERY` periods). Traces are recorded every period
- * and decimated (min/max preserving) to `maxPoints`.
+ * abort signal is raised (checked every `CHECK_EVERY` periods). A sample of every channel is
+ * taken at every period start (and at the end) and fed at once to a streaming min/max decimator
+ * sized from the number of periods and `maxPoints`, and to streaming trackers of the metrics that
+ * need full-rate samples, so the memory of a run does not grow with its length.
  */
 import ode45 from 'ode45-cash-karp';
 import type { DqMachine, DriveLimits, Finding } from './types';
@@ -25,8 +27,8 @@ import { buildReferenceTable } from './reference-table';
 import type { ReferenceTable } from './reference-table';
 import { tuneLoops, tuningInputFromProject } from './tuning';
 import type { TuningReport } from './tuning';
-import { decimateMinMax, DEFAULT_MAX_POINTS } from './decimate';
-import { stepResponse, loadStepResponse, steadyStateError, finiteOrNull } from './metrics';
+import { StreamingMinMax, DEFAULT_MAX_POINTS } from './decimate';
+import { StepResponseTracker, LoadStepTracker, SteadyStateTracker, finiteOrNull } from './metrics';
 import { effectiveBus } from './inverter';
 import type { ResolvedProject } from './project';
 import { RAD_S_TO_RPM, RPM_TO_RAD_S } from './units';
@@ -280,13 +282,30 @@ export function runSimulation(setup: SimulationSetup, opts: RunOptions = {}): Si
   const rk4 = useCk ? null : new Rk4(plantDeriv);
   const sub = Math.max(1, Math.round(setup.solver.rk4Substeps));
 
-  // traces at every period start plus the end
+  // traces: a sample at every period start plus the end, fed to a streaming min/max decimator
+  // (bounded memory: one bucket of samples, and the output) and to the metrics that need the
+  // full-rate samples (streaming trackers, exact)
   const cap = N + 1;
-  const ch = {} as Traces;
-  for (const name of TRACE_NAMES) ch[name] = new Float64Array(cap);
-  const tT = ch.t_s, tWr = ch.speedRef_rpm, tW = ch.speed_rpm, tTe = ch.torque_Nm, tTl = ch.loadTorque_Nm;
-  const tIdr = ch.idRef_A, tIqr = ch.iqRef_A, tId = ch.id_A, tIq = ch.iq_A, tVd = ch.vd_V, tVq = ch.vq_V;
-  const tVn = ch.vNorm, tIa = ch.ia_A, tIb = ch.ib_A, tIc = ch.ic_A, tP = ch.pDc_W;
+  const NCH = TRACE_NAMES.length - 1;
+  const dec = new StreamingMinMax(NCH, cap, o.maxPoints);
+  const row = new Float64Array(NCH);
+  const mode = setup.controller.mode;
+  const marks = setup.marks;
+  const allEvents = [...marks.speedSteps.map((s) => s.t), ...marks.loadEvents].sort((a, b) => a - b);
+  const nextAfter = (t: number): number => {
+    for (const x of allEvents) if (x > t + 1e-12) return x;
+    return Infinity;
+  };
+  const speedMode = mode === 'speed';
+  const s0Mark = marks.speedSteps[0];
+  const l0Mark = marks.loadEvents[0];
+  const stepTrk = speedMode && s0Mark
+    ? new StepResponseTracker(s0Mark.t, nextAfter(s0Mark.t), scheduleBefore(marks.speedSteps, s0Mark.t, setup.initialSpeed_rad_s) * RAD_S_TO_RPM, s0Mark.v * RAD_S_TO_RPM)
+    : null;
+  const loadTrk = speedMode && l0Mark !== undefined ? new LoadStepTracker(l0Mark, nextAfter(l0Mark)) : null;
+  // the steady-state window is 5 % of the run (or 2 periods): the ring holds a little more
+  const sseTrk = speedMode ? new SteadyStateTracker(Math.ceil(0.05 * cap) + 8) : null;
+  let lastT = 0, lastW = 0, lastId = 0, lastIq = 0;
   const hist = new Uint32Array(1025);
   const vab = plant.input;
   const Imax = setup.Imax;
@@ -298,6 +317,8 @@ export function runSimulation(setup: SimulationSetup, opts: RunOptions = {}): Si
   const circle = vspec.shape === 'circle';
   const locked = setup.plant.mechanics !== 'free';
   const p = setup.plant.machine.polePairs;
+  const psiM = setup.plant.machine.psiM;
+  const dLdq = setup.plant.machine.Ld - setup.plant.machine.Lq;
   const load = setup.plant.load;
   const gap = Math.max(1, Math.floor(o.eventMergeGap));
 
@@ -337,15 +358,16 @@ export function runSimulation(setup: SimulationSetup, opts: RunOptions = {}): Si
     const c = plant.c0, s = plant.s0;
     const ia = id * c - iq * s;
     const ib = id * s + iq * c;
-    tT[idx] = t;
-    tWr[idx] = ctrl.speedRefOut * RAD_S_TO_RPM;
-    tW[idx] = w * RAD_S_TO_RPM;
-    tTe[idx] = plant.torque(y);
-    tTl[idx] = locked ? 0 : plant.loadTorque(t, w);
-    tIdr[idx] = ctrl.idRef;
-    tIqr[idx] = ctrl.iqRef;
-    tId[idx] = id;
-    tIq[idx] = iq;
+    const wr = ctrl.speedRefOut * RAD_S_TO_RPM;
+    const wRpm = w * RAD_S_TO_RPM;
+    row[0] = wr;
+    row[1] = wRpm;
+    row[2] = 1.5 * p * (psiM * iq + dLdq * id * iq);
+    row[3] = locked ? 0 : plant.loadTorque(t, w);
+    row[4] = ctrl.idRef;
+    row[5] = ctrl.iqRef;
+    row[6] = id;
+    row[7] = iq;
     // applied voltage in dq at the mid-period angle
     const dm = 0.5 * p * w * Ts;
     let cm: number, sm: number;
@@ -360,14 +382,20 @@ export function runSimulation(setup: SimulationSetup, opts: RunOptions = {}): Si
       cm = Math.cos(th + dm);
       sm = Math.sin(th + dm);
     }
-    tVd[idx] = vab[0]! * cm + vab[1]! * sm;
-    tVq[idx] = -vab[0]! * sm + vab[1]! * cm;
-    const vlen = Math.sqrt(vab[0]! * vab[0]! + vab[1]! * vab[1]!);
-    tVn[idx] = vlen / (circle ? vspec.radius : voltageLimitAt(vspec, Math.atan2(vab[1]!, vab[0]!)));
-    tIa[idx] = ia;
-    tIb[idx] = -0.5 * ia + SQRT3_2 * ib;
-    tIc[idx] = -0.5 * ia - SQRT3_2 * ib;
-    tP[idx] = 1.5 * (vab[0]! * ia + vab[1]! * ib);
+    const va = vab[0]!, vb = vab[1]!;
+    row[8] = va * cm + vb * sm;
+    row[9] = -va * sm + vb * cm;
+    const vlen = Math.sqrt(va * va + vb * vb);
+    row[10] = vlen / (circle ? vspec.radius : voltageLimitAt(vspec, Math.atan2(vb, va)));
+    row[11] = ia;
+    row[12] = -0.5 * ia + SQRT3_2 * ib;
+    row[13] = -0.5 * ia - SQRT3_2 * ib;
+    row[14] = 1.5 * (va * ia + vb * ib);
+    dec.push(t, row);
+    if (stepTrk) stepTrk.push(t, wRpm);
+    if (loadTrk) loadTrk.push(t, wr, wRpm);
+    if (sseTrk) sseTrk.push(t, wr, wRpm);
+    lastT = t; lastW = wRpm; lastId = id; lastIq = iq;
   };
 
   for (k = 0; k < N; k++) {
@@ -461,7 +489,7 @@ export function runSimulation(setup: SimulationSetup, opts: RunOptions = {}): Si
       const nonFinite = [['id', id], ['iq', iq], ['speed', w], ['angle', th]].filter(([, x]) => !Number.isFinite(x as number)).map(([n]) => n).join(', ');
       const st = (x: number): string => (Number.isFinite(x) ? x.toPrecision(6) : 'not finite');
       const what = bad
-        ? `a state became non-finite (${nonFinite}); at t = ${t0.toPrecision(6)} s it was id = ${st(tId[k]!)} A, iq = ${st(tIq[k]!)} A, speed = ${st(tW[k]!)} rpm`
+        ? `a state became non-finite (${nonFinite}); at t = ${t0.toPrecision(6)} s it was id = ${st(lastId)} A, iq = ${st(lastIq)} A, speed = ${st(lastW)} rpm`
         : id * id + iq * iq > iDiv2 ? `|i| exceeded the overcurrent trip ${iDivA.toPrecision(4)} A (${(iDivA / Imax).toPrecision(3)}·Imax)` : `|speed| exceeded ${(wDiv * RAD_S_TO_RPM).toPrecision(4)} rpm`;
       diagnostic = `diverged at t = ${t1.toPrecision(6)} s: ${what}; state id = ${st(id)} A, iq = ${st(iq)} A, speed = ${st(w * RAD_S_TO_RPM)} rpm (check the gains, the delay and the scenario)`;
       events.push({ kind: 'divergence', t_s: t1, message: diagnostic });
@@ -494,40 +522,30 @@ export function runSimulation(setup: SimulationSetup, opts: RunOptions = {}): Si
   if (!stopped || Number.isFinite(y[I_D]! + y[I_Q]! + y[OMEGA]! + y[THETA]!)) {
     if (nRec < cap) { record(nRec); nRec++; }
   }
-  const tLast = nRec > 0 ? tT[nRec - 1]! : 0;
+  const tLast = nRec > 0 ? lastT : 0;
   if (curStart >= 0) closeInterval('current-limit', curStart, tLast, curCount++);
   if (satStart >= 0) closeInterval('voltage-saturation', satStart, tLast, satCount++);
   if (overStart >= 0) events.push({ kind: 'overspeed', t_s: overStart, tEnd_s: tLast, message: `speed above ${(wOver * RAD_S_TO_RPM).toPrecision(4)} rpm` });
   events.sort((a, b) => a.t_s - b.t_s);
   opts.onProgress?.(1);
 
-  // ---- metrics
-  const mode = setup.controller.mode;
-  const marks = setup.marks;
-  const allEvents = [...marks.speedSteps.map((s) => s.t), ...marks.loadEvents].sort((a, b) => a - b);
-  const nextAfter = (t: number): number => {
-    for (const x of allEvents) if (x > t + 1e-12) return x;
-    return tLast + Ts;
-  };
+  // ---- metrics (from the streaming trackers fed at every recorded sample)
   let rise: number | null = null, over: number | null = null, settle: number | null = null;
   let dip: number | null = null, recov: number | null = null, sse: number | null = null;
   if (mode === 'speed' && nRec > 2) {
-    const s0 = marks.speedSteps[0];
-    if (s0) {
-      const before = scheduleBefore(marks.speedSteps, s0.t, setup.initialSpeed_rad_s) * RAD_S_TO_RPM;
-      const r = stepResponse(tT, tW, nRec, s0.t, nextAfter(s0.t), before, s0.v * RAD_S_TO_RPM);
+    if (stepTrk) {
+      const r = stepTrk.result();
       rise = r.riseTime_s; over = r.overshoot_pct; settle = r.settlingTime_s;
     }
-    const l0 = marks.loadEvents[0];
-    if (l0 !== undefined) {
-      const r = loadStepResponse(tT, tWr, tW, nRec, l0, nextAfter(l0));
+    if (loadTrk) {
+      const r = loadTrk.result();
       dip = r.dip; recov = r.recovery_s;
     }
-    sse = steadyStateError(tT, tWr, tW, nRec, Math.max(0.05 * tLast, 2 * Ts));
+    sse = sseTrk!.result(Math.max(0.05 * tLast, 2 * Ts));
   }
   const nI = Math.max(1, Math.min(periods, nRec));
   const metrics: SimulationMetrics = {
-    finalSpeed_rpm: finiteOrNull(nRec > 0 ? tW[nRec - 1]! : null),
+    finalSpeed_rpm: finiteOrNull(nRec > 0 ? lastW : null),
     speedOvershoot_pct: finiteOrNull(over),
     riseTime_s: finiteOrNull(rise),
     settlingTime_s: finiteOrNull(settle),
@@ -542,10 +560,10 @@ export function runSimulation(setup: SimulationSetup, opts: RunOptions = {}): Si
 
   // ---- traces, decimated; non-finite samples (a divergence) become 0 so no NaN escapes
   const names = TRACE_NAMES.slice(1);
-  const dec = decimateMinMax(tT, names.map((n) => ch[n]), nRec, o.maxPoints);
-  const traces = { t_s: dec.t } as Traces;
+  const decd = dec.finish();
+  const traces = { t_s: decd.t } as Traces;
   names.forEach((n, i) => {
-    const a = dec.channels[i]!;
+    const a = decd.channels[i]!;
     for (let j = 0; j < a.length; j++) if (!Number.isFinite(a[j]!)) a[j] = 0;
     traces[n] = a;
   });
