@@ -235,6 +235,7 @@ export function App() {
 
   const bridge = fileBridge();
   pathRef.current = source.path;
+  const readOnly = source.readOnly || lastGood?.readOnly === true;
   const projectText = () => JSON.stringify(store.getDraft().tree, null, 2) + '\n';
   const suggested = () => (source.demo ? source.name.replace(/^demo-/, 'my-') : source.name.replace(/^.*[\\/]/, ''));
 
@@ -246,7 +247,8 @@ export function App() {
 
   const doSave = useCallback(
     async (as: boolean) => {
-      const canUsePath = !as && !source.demo && !source.readOnly ? source.path : null;
+      // a read-only project (a file from a newer format version) is never written over: Save is Save As
+      const canUsePath = !as && !source.demo && !readOnly ? source.path : null;
       const r = as || !canUsePath ? await bridge.saveAs(projectText(), suggested()) : await bridge.save(projectText(), canUsePath, suggested());
       if (r.ok) {
         setSource({ name: r.path.replace(/^.*[\\/]/, ''), path: r.path, demo: false, readOnly: false });
@@ -256,7 +258,7 @@ export function App() {
       } else if (!r.canceled) setNotice(r.message);
     },
     // eslint-disable-next-line react-hooks/exhaustive-deps
-    [bridge, source, store],
+    [bridge, source, store, readOnly],
   );
 
   // Electron: a project given at start, unsaved edits from last time, menu events
@@ -343,10 +345,10 @@ export function App() {
             {dirty ? ' •' : ''}
           </span>
           {source.demo && <span className="invented">invented demo data</span>}
-          {source.readOnly && <span className="invented">read-only</span>}
+          {readOnly && <span className="invented">read-only</span>}
           <span className="spacer" />
           <button className="btn" onClick={() => void doOpen()} data-testid="open">Open…</button>
-          <button className="btn" onClick={() => void doSave(false)} data-testid="save">Save</button>
+          <button className="btn" onClick={() => void doSave(false)} data-testid="save" title={readOnly ? 'read-only: saves a copy' : undefined}>{readOnly ? 'Save a copy…' : 'Save'}</button>
           <button className="btn" onClick={() => void doSave(true)}>Save as…</button>
           <button
             className="btn"
@@ -379,6 +381,11 @@ export function App() {
                 ? `${Object.keys(checked.issues).length} input problem(s): showing the last valid project. ${otherIssues(checked.issues)}`
                 : (notice ?? computeError ?? (results ? `Envelopes in ${results.compute_ms.toFixed(1)} ms (${results.curves.length} × ${results.points} points); sizing verdicts in ${results.verdict_ms.toFixed(1)} ms.` : ''))}
             </div>
+            {readOnly && (
+              <div className="finding warning" data-testid="read-only-banner" role="note">
+                <strong>Read-only.</strong> {lastGood?.findings.find((f) => f.code === 'newer-format')?.message ?? 'This file is shown read-only: Save writes a copy (Save As), the file itself is not changed.'}
+              </div>
+            )}
             <div className="view">
               {computeError && <div className="finding danger">{computeError}</div>}
               {!results ? (

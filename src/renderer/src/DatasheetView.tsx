@@ -18,6 +18,9 @@ function peakOf(a: Float64Array, feasible: Uint8Array): number {
   return best;
 }
 
+/** An electrical time constant L/Rs, ms; with Rs = 0 it has no bound. */
+export const tau = (s: number): string => (Number.isFinite(s) && s >= 0 ? `${num(s * 1e3)} ms` : 'unbounded (Rs = 0)');
+
 /** Findings that must carry the safety caution wherever they are shown. */
 export const isHazard = (f: Finding): boolean =>
   f.severity === 'danger' || (f.severity === 'warning' && /demagnet|uncontrolled|braking|back-emf/i.test(f.code));
@@ -75,7 +78,7 @@ export const DatasheetView = memo(function DatasheetView({ results, theme }: { r
     ['ψm (peak)', `${num(p.machine20.psiM * 1e3)} mWb at 20 °C, ${num(p.hot.psiM * 1e3)} mWb at ${p.conditions.magnetTemp_C} °C, ${num(p.cold.psiM * 1e3)} mWb at ${p.conditions.coldTemp_C} °C`],
     ['Kt (id = 0, hot)', `${num(c.Kt_Nm_per_Arms)} N·m/A rms (${num(c.Kt_Nm_per_Apeak)} N·m/A peak)`],
     ['Ke (cold)', `${num(c20.Ke_VLLrms_per_krpm)} V line-line rms per 1000 rpm`],
-    ['electrical time constants', `τd ${num(c.tauD_s * 1e3)} ms, τq ${num(c.tauQ_s * 1e3)} ms (hot)`],
+    ['electrical time constants', `τd ${tau(c.tauD_s)}, τq ${tau(c.tauQ_s)} (hot)`],
     ['characteristic current ψm/Ld', `${amps(c.characteristicCurrent_A)}, hot; inverter Imax ${amps(p.inverter.Imax)}`],
     ['inverter', `${num(p.inverter.Vdc)} V bus, ${p.inverter.modulation}, Vmax ${num(p.peak.Vmax)} V peak phase; Imax ${amps(p.inverter.Imax)}, Icont ${amps(p.inverter.Icont)}`],
     ['base speed (peak current, hot)', rpm(peakHot.baseSpeed)],

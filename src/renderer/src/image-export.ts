@@ -18,6 +18,24 @@ export async function exportVisiblePlot(format: 'png' | 'svg'): Promise<boolean>
 
 const escape = (s: string): string => s.replace(/&/g, '&amp;').replace(/</g, '&lt;').replace(/>/g, '&gt;');
 
+/**
+ * plotly's SVG text as an element, parsed in an inert XML document (never as HTML of the live page):
+ * scripts, foreign objects, event-handler attributes and links out of the image are dropped.
+ */
+export function svgElement(text: string): SVGSVGElement | null {
+  const doc = new DOMParser().parseFromString(text, 'image/svg+xml');
+  const root = doc.documentElement;
+  if (root.localName !== 'svg' || doc.getElementsByTagName('parsererror').length) return null;
+  for (const n of Array.from(root.querySelectorAll('script, foreignObject'))) n.remove();
+  for (const el of [root, ...Array.from(root.querySelectorAll('*'))]) {
+    for (const a of Array.from(el.attributes)) {
+      const href = a.localName === 'href' && !a.value.startsWith('#') && !a.value.startsWith('data:image/');
+      if (a.name.toLowerCase().startsWith('on') || href) el.removeAttribute(a.name);
+    }
+  }
+  return root as unknown as SVGSVGElement;
+}
+
 /** The Datasheet view as a static HTML page: its tables and cautions, the plot as inline SVG. */
 export async function exportDatasheetHtml(): Promise<boolean> {
   const view = document.querySelector<HTMLElement>('[data-testid="view-datasheet"]');
@@ -27,7 +45,13 @@ export async function exportDatasheetHtml(): Promise<boolean> {
   const copy = view.cloneNode(true) as HTMLElement;
   copy.querySelectorAll('.no-print, .toolbar').forEach((n) => n.remove());
   const slot = copy.querySelector('[data-testid="datasheet-plot"]');
-  if (slot) slot.outerHTML = `<div class="plot-image">${svg}</div>`;
+  const image = svgElement(svg);
+  if (slot && image) {
+    const box = document.createElement('div');
+    box.className = 'plot-image';
+    box.appendChild(document.importNode(image, true));
+    slot.replaceWith(box);
+  }
   const title = escape(document.querySelector('.sheet-head h2')?.textContent ?? 'Torquewise datasheet');
   const html = `<!doctype html><html lang="en"><head><meta charset="utf-8"><title>${title}</title><style>${css}</style></head><body data-theme="light"><div class="view">${copy.outerHTML}</div></body></html>`;
   await fileBridge().export('datasheet', html, 'datasheet.html');
