@@ -27,6 +27,11 @@ import type { ReferenceTable } from './reference-table';
 import { lookupCurrents, torqueLimitsAt } from './reference-table';
 import { hexagonRadius } from './inverter';
 
+// module-local references to the imported functions called every period (a CommonJS build turns
+// an imported binding into a property getter called at each use)
+const lookupCurrentsL = lookupCurrents;
+const torqueLimitsAtL = torqueLimitsAt;
+
 export type ControlMode = 'speed' | 'torque' | 'current-step';
 export type AntiWindup = 'clamping' | 'back-calculation';
 
@@ -192,18 +197,62 @@ export class CascadeController {
   private readonly bufB = new Float64Array(MAX_DELAY);
   private readonly tmp = new Float64Array(2);
   /**
-   * The sample of `stepSampled`: [t, i_d, i_q, omega_m, theta_e]. Passing the sample through this
-   * array instead of arguments keeps the engine from boxing five doubles per call.
+   * The sample of `stepSampled`: [t, i_d, i_q, omega_m, theta_e, cos theta_e, sin theta_e].
+   * Passing the sample through this array instead of arguments keeps the engine from boxing
+   * doubles per call; the caller that has cos and sin of the angle already (the simulator's plant)
+   * passes them, so the inverse Park needs no transcendental call.
    */
-  readonly sample = new Float64Array(5);
+  readonly sample = new Float64Array(7);
   private speedCounter = 0;
   private torqueClamped = false;
+  // the configuration's hot numbers as plain fields (read once per period)
+  private readonly modeN: number;
+  private readonly Ts: number;
+  private readonly D: number;
+  private readonly p: number;
+  private readonly Ld: number;
+  private readonly Lq: number;
+  private readonly psiM: number;
+  private readonly Imax: number;
+  private readonly kpD: number;
+  private readonly kpQ: number;
+  private readonly kiTsD: number;
+  private readonly kiTsQ: number;
+  private readonly kbD: number;
+  private readonly kbQ: number;
+  private readonly clamping: boolean;
+  private readonly decoup: boolean;
+  private readonly bemf: boolean;
+  /** inverse-Park advance per rad/s of electrical speed, s */
+  private readonly advance: number;
+  private readonly circle: boolean;
+  private readonly radius: number;
 
   constructor(cfg: ControllerConfig) {
     if (!(Number.isInteger(cfg.delaySamples) && cfg.delaySamples >= 0 && cfg.delaySamples < MAX_DELAY)) {
       throw new RangeError(`delaySamples must be a whole number 0..${MAX_DELAY - 1}`);
     }
     this.cfg = cfg;
+    this.modeN = cfg.mode === 'speed' ? 0 : cfg.mode === 'torque' ? 1 : 2;
+    this.Ts = cfg.Ts;
+    this.D = cfg.delaySamples;
+    this.p = cfg.machine.polePairs;
+    this.Ld = cfg.machine.Ld;
+    this.Lq = cfg.machine.Lq;
+    this.psiM = cfg.machine.psiM;
+    this.Imax = cfg.Imax;
+    this.kpD = cfg.currentD.Kp;
+    this.kpQ = cfg.currentQ.Kp;
+    this.kiTsD = cfg.Ts * cfg.currentD.Ki;
+    this.kiTsQ = cfg.Ts * cfg.currentQ.Ki;
+    this.kbD = cfg.currentD.Kp > 0 ? Math.min(1, (cfg.Ts * cfg.currentD.Ki) / cfg.currentD.Kp) : 0;
+    this.kbQ = cfg.currentQ.Kp > 0 ? Math.min(1, (cfg.Ts * cfg.currentQ.Ki) / cfg.currentQ.Kp) : 0;
+    this.clamping = cfg.antiWindup === 'clamping';
+    this.decoup = cfg.decoupling;
+    this.bemf = cfg.backEmfFeedForward;
+    this.advance = cfg.delayAngleCompensation ? (cfg.delaySamples + 0.5) * cfg.Ts : 0;
+    this.circle = cfg.voltage.shape === 'circle';
+    this.radius = cfg.voltage.radius;
   }
 
   /**
@@ -238,11 +287,11 @@ export class CascadeController {
    */
   step(t: number, id: number, iq: number, w: number, theta: number, out: Float64Array): void {
     const x = this.sample;
-    x[0] = t; x[1] = id; x[2] = iq; x[3] = w; x[4] = theta;
+    x[0] = t; x[1] = id; x[2] = iq; x[3] = w; x[4] = theta; x[5] = Math.cos(theta); x[6] = Math.sin(theta);
     this.stepSampled(out);
   }
 
-  /** `step` with the sample already written into `this.sample`. */
+  /** `step` with the sample (cos and sin of the angle included) already written into `this.sample`. */
   stepSampled(out: Float64Array): void {
     const x = this.sample;
     const t = x[0]!;
@@ -251,18 +300,18 @@ export class CascadeController {
     const w = x[3]!;
     const theta = x[4]!;
     const c = this.cfg;
-    const m = c.machine;
-    const we = m.polePairs * w;
+    const mode = this.modeN;
+    const we = this.p * w;
     const tmp = this.tmp;
 
     // ---- references
-    if (c.mode === 'speed') {
+    if (mode === 0) {
       if (this.speedCounter === 0) this.speedLoop();
-      this.speedCounter = (this.speedCounter + 1) % c.speedLoopDivider;
-    } else if (c.mode === 'torque') {
+      if (++this.speedCounter >= c.speedLoopDivider) this.speedCounter = 0;
+    } else if (mode === 1) {
       this.speedRefOut = w;
       const T = scheduleValue(c.torqueRef, t);
-      torqueLimitsAt(c.table!, w, tmp);
+      torqueLimitsAtL(c.table!, w, tmp);
       const Tc = T > tmp[0]! ? tmp[0]! : T < tmp[1]! ? tmp[1]! : T;
       this.torqueClamped = Tc !== T;
       this.torqueRef = Tc;
@@ -272,16 +321,16 @@ export class CascadeController {
     }
     let idr: number;
     let iqr: number;
-    if (c.mode === 'current-step') {
+    if (mode === 2) {
       idr = scheduleValue(c.idRef, t);
       iqr = scheduleValue(c.iqRef, t);
     } else {
-      lookupCurrents(c.table!, w, this.torqueRef, tmp);
+      lookupCurrentsL(c.table!, w, this.torqueRef, tmp);
       idr = tmp[0]!;
       iqr = tmp[1]!;
     }
     // current reference limit, d axis first
-    const I = c.Imax;
+    const I = this.Imax;
     let limited = this.torqueClamped;
     if (idr > I) { idr = I; limited = true; } else if (idr < -I) { idr = -I; limited = true; }
     const qm = Math.sqrt(Math.max(0, I * I - idr * idr));
@@ -293,33 +342,54 @@ export class CascadeController {
     // ---- current PIs
     const ed = idr - id;
     const eq = iqr - iq;
-    const ffd = c.decoupling ? -we * m.Lq * iq : 0;
-    const ffq = (c.decoupling ? we * m.Ld * id : 0) + (c.backEmfFeedForward ? we * m.psiM : 0);
-    const ud = c.currentD.Kp * ed + this.xd + ffd;
-    const uq = c.currentQ.Kp * eq + this.xq + ffq;
-    const thApply = theta + (c.delayAngleCompensation ? (c.delaySamples + 0.5) * we * c.Ts : 0);
-    const sat = limitVoltageDq(c.voltage, ud, uq, thApply, tmp);
-    const vd = tmp[0]!;
-    const vq = tmp[1]!;
+    const decoup = this.decoup;
+    const ffd = decoup ? -we * this.Lq * iq : 0;
+    const ffq = (decoup ? we * this.Ld * id : 0) + (this.bemf ? we * this.psiM : 0);
+    const ud = this.kpD * ed + this.xd + ffd;
+    const uq = this.kpQ * eq + this.xq + ffq;
+    const dth = this.advance * we;
+    const thApply = theta + dth;
+    let vd: number;
+    let vq: number;
+    let sat: boolean;
+    const R = this.radius;
+    if (this.circle && ud * ud + uq * uq <= R * R) {
+      vd = ud; vq = uq; sat = false;
+    } else {
+      sat = limitVoltageDq(c.voltage, ud, uq, thApply, tmp);
+      vd = tmp[0]!;
+      vq = tmp[1]!;
+    }
     this.voltageSaturated = sat;
     this.vdCmd = vd;
     this.vqCmd = vq;
-    if (c.antiWindup === 'clamping') {
-      if (!(sat && (vd !== ud) && ed * (ud - vd) > 0)) this.xd += c.Ts * c.currentD.Ki * ed;
-      if (!(sat && (vq !== uq) && eq * (uq - vq) > 0)) this.xq += c.Ts * c.currentQ.Ki * eq;
+    if (this.clamping) {
+      if (!(sat && (vd !== ud) && ed * (ud - vd) > 0)) this.xd += this.kiTsD * ed;
+      if (!(sat && (vq !== uq) && eq * (uq - vq) > 0)) this.xq += this.kiTsQ * eq;
     } else {
-      const kd = c.currentD.Kp > 0 ? Math.min(1, (c.Ts * c.currentD.Ki) / c.currentD.Kp) : 0;
-      const kq = c.currentQ.Kp > 0 ? Math.min(1, (c.Ts * c.currentQ.Ki) / c.currentQ.Kp) : 0;
-      this.xd += c.Ts * c.currentD.Ki * ed + kd * (vd - ud);
-      this.xq += c.Ts * c.currentQ.Ki * eq + kq * (vq - uq);
+      this.xd += this.kiTsD * ed + this.kbD * (vd - ud);
+      this.xq += this.kiTsQ * eq + this.kbQ * (vq - uq);
     }
 
-    // ---- inverse Park and the delay line
-    const cs = Math.cos(thApply);
-    const sn = Math.sin(thApply);
+    // ---- inverse Park at theta + dth: cos and sin from those of the sampled angle, rotated by dth
+    // with a short series (truncation below 1e-13 for |dth| < 0.5), else computed directly
+    let cs: number;
+    let sn: number;
+    if (dth > -0.5 && dth < 0.5) {
+      const d2 = dth * dth;
+      const sd = dth * (1 - (d2 / 6) * (1 - (d2 / 20) * (1 - (d2 / 42) * (1 - (d2 / 72) * (1 - d2 / 110)))));
+      const cd = 1 - (d2 / 2) * (1 - (d2 / 12) * (1 - (d2 / 30) * (1 - (d2 / 56) * (1 - (d2 / 90) * (1 - d2 / 132)))));
+      const c0 = x[5]!;
+      const s0 = x[6]!;
+      cs = c0 * cd - s0 * sd;
+      sn = s0 * cd + c0 * sd;
+    } else {
+      cs = Math.cos(thApply);
+      sn = Math.sin(thApply);
+    }
     const va = vd * cs - vq * sn;
     const vb = vd * sn + vq * cs;
-    const D = c.delaySamples;
+    const D = this.D;
     if (D === 0) {
       out[0] = va;
       out[1] = vb;
@@ -350,7 +420,7 @@ export class CascadeController {
     const e = this.wRefFilt - w;
     const Tu = c.speed.Kp * e + this.xw;
     const lim = this.tmp;
-    torqueLimitsAt(c.table!, w, lim);
+    torqueLimitsAtL(c.table!, w, lim);
     const Tmax = lim[0]!;
     const Tmin = lim[1]!;
     const T = Tu > Tmax ? Tmax : Tu < Tmin ? Tmin : Tu;

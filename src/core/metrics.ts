@@ -131,6 +131,11 @@ export class StepResponseTracker {
     this.valid = Math.abs(this.delta) > 1e-9 * Math.max(scale, 1e-300) && Number.isFinite(this.delta);
   }
 
+  /** `push(s[0], s[2])` (the sample [t, reference, y] as the simulator hands it: no boxed arguments) */
+  take(s: Float64Array): void {
+    this.push(s[0]!, s[2]!);
+  }
+
   push(t: number, y: number): void {
     if (!(t >= this.tStep) || !(t < this.tEnd)) return;
     const z = (y - this.y0) / this.delta;
@@ -179,6 +184,11 @@ export class LoadStepTracker {
   constructor(private readonly tStep: number, private readonly tEnd: number, private readonly recoveryFraction = DEFAULT_RECOVERY_FRACTION, initialCapacity = 1024) {
     this.val = new Float64Array(Math.max(16, initialCapacity));
     this.next = new Float64Array(this.val.length);
+  }
+
+  /** `push(s[0], s[1], s[2])` */
+  take(s: Float64Array): void {
+    this.push(s[0]!, s[1]!, s[2]!);
   }
 
   push(t: number, yRef: number, y: number): void {
@@ -236,6 +246,11 @@ export class SteadyStateTracker {
     const c = Math.max(2, Math.ceil(capacity));
     this.t = new Float64Array(c);
     this.d = new Float64Array(c);
+  }
+
+  /** `push(s[0], s[1], s[2])` */
+  take(s: Float64Array): void {
+    this.push(s[0]!, s[1]!, s[2]!);
   }
 
   push(t: number, ref: number, y: number): void {

@@ -201,8 +201,21 @@ export class Plant {
     this.deriv = (dydt, y, t) => this.derivInto(dydt, y, t);
   }
 
+  /**
+   * The time of `derivAt`, s. An integrator's callback writes it here and calls `derivAt`, so that
+   * the time crosses the (not inlined) call as an unboxed double instead of a boxed argument.
+   */
+  readonly time = new Float64Array(1);
+
   /** dy/dt of the state y at time t into dydt (a prototype method: one call target for every plant). */
   derivInto(dydt: Float64Array, y: Float64Array, t: number): void {
+    this.time[0] = t;
+    this.derivAt(dydt, y);
+  }
+
+  /** dy/dt of the state y at time `this.time[0]` into dydt. */
+  derivAt(dydt: Float64Array, y: Float64Array): void {
+    const t = this.time[0]!;
     this.evaluations++;
     const u = this.input;
     const id = y[0]!;

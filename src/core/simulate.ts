@@ -45,6 +45,9 @@ const I_Q: number = I_Q_;
 const OMEGA: number = OMEGA_;
 const THETA: number = THETA_;
 const ENERGY: number = ENERGY_;
+// the same for the unit factor read every period (a CommonJS build turns an imported binding into
+// a property getter called at each use)
+const W_TO_RPM: number = RAD_S_TO_RPM;
 
 export interface SolverOptions {
   /** 'cash-karp': adaptive ode45-cash-karp; 'rk4': classical fixed-step RK4 (baseline) */
@@ -217,7 +220,9 @@ class Rk4 {
 let activePlant: Plant | null = null;
 let activeFloors: Float64Array = new Float64Array(STATE_SIZE_);
 function plantDeriv(dydt: Float64Array, y: Float64Array, t: number): void {
-  activePlant!.derivInto(dydt, y, t);
+  const pl = activePlant!;
+  pl.time[0] = t; // through a typed array: t would be boxed as an argument of the call below
+  pl.derivAt(dydt, y);
 }
 /** error scale |y| + |dt·dy/dt| plus an absolute floor per state (ode45-cash-karp's default has none) */
 function floorErrorScale(i: number, dt: number, y: number, dydt: number): number {
@@ -305,7 +310,11 @@ export function runSimulation(setup: SimulationSetup, opts: RunOptions = {}): Si
   const loadTrk = speedMode && l0Mark !== undefined ? new LoadStepTracker(l0Mark, nextAfter(l0Mark)) : null;
   // the steady-state window is 5 % of the run (or 2 periods): the ring holds a little more
   const sseTrk = speedMode ? new SteadyStateTracker(Math.ceil(0.05 * cap) + 8) : null;
-  let lastT = 0, lastW = 0, lastId = 0, lastIq = 0;
+  // the last recorded sample [t, speed rpm, id, iq] (a typed array: a double captured by the
+  // record closure and written every period would be boxed)
+  const last = new Float64Array(4);
+  /** the sample handed to the metric trackers: [t, speed reference rpm, speed rpm] */
+  const msmp = new Float64Array(3);
   const hist = new Uint32Array(1025);
   const vab = plant.input;
   const Imax = setup.Imax;
@@ -348,18 +357,23 @@ export function runSimulation(setup: SimulationSetup, opts: RunOptions = {}): Si
   let prevEd = 0, prevEq = 0;
   const eMin = 0.05 * Imax;
 
+  // the next load breakpoint after the current period start, and the breakpoint that ends the
+  // piece the plant's load segment was last set for
+  let nextBreak = -Infinity;
+  let segBreak = NaN;
   let k = 0;
   let nRec = 0;
   let stopped = false;
   const record = (idx: number): void => {
     const t = idx * Ts;
     const id = y[I_D]!, iq = y[I_Q]!, w = y[OMEGA]!, th = y[THETA]!;
-    plant.setAngleOrigin(th); // the period integrated next starts here; its cos/sin serve the record too
+    // cos/sin of the angle: set by the caller with plant.setAngleOrigin(th) (the period integrated
+    // next starts there; the same cos/sin serve the controller's inverse Park and this record)
     const c = plant.c0, s = plant.s0;
     const ia = id * c - iq * s;
     const ib = id * s + iq * c;
-    const wr = ctrl.speedRefOut * RAD_S_TO_RPM;
-    const wRpm = w * RAD_S_TO_RPM;
+    const wr = ctrl.speedRefOut * W_TO_RPM;
+    const wRpm = w * W_TO_RPM;
     row[0] = wr;
     row[1] = wRpm;
     row[2] = 1.5 * p * (psiM * iq + dLdq * id * iq);
@@ -392,17 +406,20 @@ export function runSimulation(setup: SimulationSetup, opts: RunOptions = {}): Si
     row[13] = -0.5 * ia - SQRT3_2 * ib;
     row[14] = 1.5 * (va * ia + vb * ib);
     dec.push(t, row);
-    if (stepTrk) stepTrk.push(t, wRpm);
-    if (loadTrk) loadTrk.push(t, wr, wRpm);
-    if (sseTrk) sseTrk.push(t, wr, wRpm);
-    lastT = t; lastW = wRpm; lastId = id; lastIq = iq;
+    msmp[0] = t; msmp[1] = wr; msmp[2] = wRpm;
+    if (stepTrk) stepTrk.take(msmp);
+    if (loadTrk) loadTrk.take(msmp);
+    if (sseTrk) sseTrk.take(msmp);
+    last[0] = t; last[1] = wRpm; last[2] = id; last[3] = iq;
   };
 
   for (k = 0; k < N; k++) {
     const t0 = k * Ts;
     const t1 = (k + 1) * Ts;
     const smp = ctrl.sample;
-    smp[0] = t0; smp[1] = y[I_D]!; smp[2] = y[I_Q]!; smp[3] = y[OMEGA]!; smp[4] = y[THETA]!;
+    const th0 = y[THETA]!;
+    plant.setAngleOrigin(th0);
+    smp[0] = t0; smp[1] = y[I_D]!; smp[2] = y[I_Q]!; smp[3] = y[OMEGA]!; smp[4] = th0; smp[5] = plant.c0; smp[6] = plant.s0;
     ctrl.stepSampled(vab);
     record(k);
     nRec = k + 1;
@@ -440,12 +457,14 @@ export function runSimulation(setup: SimulationSetup, opts: RunOptions = {}): Si
     const e0 = plant.evaluations;
     try {
       if (integ) {
-        let tb = nextLoadBreak(load, t0);
+        if (t0 >= nextBreak) nextBreak = nextLoadBreak(load, t0);
+        let tb = nextBreak;
         let seg = 0;
         let tStart = t0;
         while (seg++ < 8) {
           const tEnd = tb < t1 - 1e-9 * Ts ? tb : t1;
-          plant.setLoadSegment(tStart, tEnd);
+          // the load is linear between two breakpoints: set it once per piece (the piece ending at tb)
+          if (tb !== segBreak) { plant.setLoadSegment(tStart, tEnd); segBreak = tb; }
           integ.t = tStart;
           integ.dt = tEnd - tStart < Ts ? tEnd - tStart : Ts;
           let g = 0;
@@ -457,11 +476,12 @@ export function runSimulation(setup: SimulationSetup, opts: RunOptions = {}): Si
           tb = nextLoadBreak(load, tEnd);
         }
       } else {
-        let tb = nextLoadBreak(load, t0);
+        if (t0 >= nextBreak) nextBreak = nextLoadBreak(load, t0);
+        let tb = nextBreak;
         let tStart = t0;
         for (let seg = 0; seg < 8; seg++) {
           const tEnd = tb < t1 - 1e-9 * Ts ? tb : t1;
-          plant.setLoadSegment(tStart, tEnd);
+          if (tb !== segBreak) { plant.setLoadSegment(tStart, tEnd); segBreak = tb; }
           rk4!.run(y, tStart, tEnd, Math.max(1, Math.round((sub * (tEnd - tStart)) / Ts)));
           if (tEnd >= t1) break;
           tStart = tEnd;
@@ -489,7 +509,7 @@ export function runSimulation(setup: SimulationSetup, opts: RunOptions = {}): Si
       const nonFinite = [['id', id], ['iq', iq], ['speed', w], ['angle', th]].filter(([, x]) => !Number.isFinite(x as number)).map(([n]) => n).join(', ');
       const st = (x: number): string => (Number.isFinite(x) ? x.toPrecision(6) : 'not finite');
       const what = bad
-        ? `a state became non-finite (${nonFinite}); at t = ${t0.toPrecision(6)} s it was id = ${st(lastId)} A, iq = ${st(lastIq)} A, speed = ${st(lastW)} rpm`
+        ? `a state became non-finite (${nonFinite}); at t = ${t0.toPrecision(6)} s it was id = ${st(last[2]!)} A, iq = ${st(last[3]!)} A, speed = ${st(last[1]!)} rpm`
         : id * id + iq * iq > iDiv2 ? `|i| exceeded the overcurrent trip ${iDivA.toPrecision(4)} A (${(iDivA / Imax).toPrecision(3)}·Imax)` : `|speed| exceeded ${(wDiv * RAD_S_TO_RPM).toPrecision(4)} rpm`;
       diagnostic = `diverged at t = ${t1.toPrecision(6)} s: ${what}; state id = ${st(id)} A, iq = ${st(iq)} A, speed = ${st(w * RAD_S_TO_RPM)} rpm (check the gains, the delay and the scenario)`;
       events.push({ kind: 'divergence', t_s: t1, message: diagnostic });
@@ -520,9 +540,9 @@ export function runSimulation(setup: SimulationSetup, opts: RunOptions = {}): Si
   activeFloors = prevFloors;
   // final sample (the state at the end) unless a divergence left it non-finite
   if (!stopped || Number.isFinite(y[I_D]! + y[I_Q]! + y[OMEGA]! + y[THETA]!)) {
-    if (nRec < cap) { record(nRec); nRec++; }
+    if (nRec < cap) { plant.setAngleOrigin(y[THETA]!); record(nRec); nRec++; }
   }
-  const tLast = nRec > 0 ? lastT : 0;
+  const tLast = nRec > 0 ? last[0]! : 0;
   if (curStart >= 0) closeInterval('current-limit', curStart, tLast, curCount++);
   if (satStart >= 0) closeInterval('voltage-saturation', satStart, tLast, satCount++);
   if (overStart >= 0) events.push({ kind: 'overspeed', t_s: overStart, tEnd_s: tLast, message: `speed above ${(wOver * RAD_S_TO_RPM).toPrecision(4)} rpm` });
@@ -545,7 +565,7 @@ export function runSimulation(setup: SimulationSetup, opts: RunOptions = {}): Si
   }
   const nI = Math.max(1, Math.min(periods, nRec));
   const metrics: SimulationMetrics = {
-    finalSpeed_rpm: finiteOrNull(nRec > 0 ? lastW : null),
+    finalSpeed_rpm: finiteOrNull(nRec > 0 ? last[1]! : null),
     speedOvershoot_pct: finiteOrNull(over),
     riseTime_s: finiteOrNull(rise),
     settlingTime_s: finiteOrNull(settle),
