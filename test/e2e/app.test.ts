@@ -332,7 +332,7 @@ describe('Torquewise in a browser', () => {
     await page.waitForSelector('[data-testid="bode-plot"] .scatterlayer .trace');
     expect(await curvesDrawn('bode-plot')).toBeGreaterThanOrEqual(4);
     await page.click('[data-testid="theme-toggle"]');
-    for (const tab of ['envelope', 'tuning', 'datasheet'] as const) {
+    for (const tab of ['envelope', 'loadsteps', 'tuning', 'datasheet'] as const) {
       await page.click(`[data-testid="tab-${tab}"]`);
       await page.waitForTimeout(300);
       await page.screenshot({ path: shotPath(`view-${tab}-dark`) });
@@ -363,6 +363,20 @@ describe('Torquewise in a browser', () => {
       expect(await curvesDrawn('envelope-plot')).toBeGreaterThanOrEqual(4);
       await page.screenshot({ path: shotPath(`06-demo-${demo.replace('.json', '')}`) });
     }
+  });
+
+  it('opens a file of a newer format version read-only, and Save then saves a copy', async () => {
+    const demo = JSON.parse(readFileSync(join(ROOT, 'resources', 'demo-ipm-traction.json'), 'utf8'));
+    const newer = JSON.stringify({ ...demo, version: demo.version + 1 });
+    const [chooser] = await Promise.all([page.waitForEvent('filechooser'), page.click('[data-testid="open"]')]);
+    await chooser.setFiles({ name: 'from-the-future.json', mimeType: 'application/json', buffer: Buffer.from(newer) });
+    const banner = await page.waitForSelector('[data-testid="read-only-banner"]');
+    expect(await banner.textContent()).toMatch(/Read-only.*newer|version/);
+    expect(await page.textContent('[data-testid="save"]')).toContain('copy');
+    expect(await curvesDrawn('envelope-plot')).toBeGreaterThanOrEqual(4);
+    await page.screenshot({ path: shotPath('08-read-only') });
+    await page.selectOption('[data-testid="demo-picker"]', 'demo-ipm-traction.json');
+    await page.waitForFunction(() => !document.querySelector('[data-testid="read-only-banner"]'));
   });
 
   it('logged no console errors', () => {
