@@ -118,7 +118,9 @@ export function mutate(seed: unknown, muts: readonly Mutation[]): unknown {
     const parent = getAt(root, p.slice(0, -1)) as Record<string | number, unknown>;
     const key = p[p.length - 1]!;
     if (parent === null || typeof parent !== 'object') continue;
-    if (m.op === 'set') parent[key] = m.value;
+    // values are cloned: one generated value may stand in two mutations (a shared object would
+    // otherwise be grafted into itself and make the project circular)
+    if (m.op === 'set') parent[key] = structuredClone(m.value);
     else if (m.op === 'scale') {
       const v = parent[key];
       if (typeof v === 'number') parent[key] = v * m.factor;
@@ -128,7 +130,7 @@ export function mutate(seed: unknown, muts: readonly Mutation[]): unknown {
       else delete parent[key];
     } else if (m.op === 'unknown-key') {
       const target = parent[key];
-      if (target !== null && typeof target === 'object' && !Array.isArray(target)) Object.defineProperty(target, m.key, { value: m.value, enumerable: true, configurable: true, writable: true });
+      if (target !== null && typeof target === 'object' && !Array.isArray(target)) Object.defineProperty(target, m.key, { value: structuredClone(m.value), enumerable: true, configurable: true, writable: true });
     }
   }
   return root;
