@@ -6,6 +6,7 @@ import { mtpaCurrents, mtpvPoint, currentOnVoltageBoundary } from '../../core/mt
 import { sizeDrive, type SizingResult } from '../../core/sizing';
 import { safetyReport, type SafetyReport } from '../../core/safety';
 import { deriveConstants } from '../../core/nameplate';
+import { projectSpeedRange } from '../../core/speed-range';
 import { RPM_TO_RAD_S } from '../../core/units';
 import type { DqMachine } from '../../core/types';
 
@@ -60,6 +61,7 @@ export type Results = EnvelopeResults & Verdicts;
 export function computeVerdicts(p: ResolvedProject, speedMax: number): Verdicts {
   const t0 = performance.now();
   const sizing = sizeDrive(p.hot, p.inverter, p.requirements);
+  // the motor's maximum speed when the file gives one, else the plotted top speed
   const safetySpeed = p.rated.maxSpeed_rad_s ?? speedMax;
   const safety = safetyReport(p.cold, p.inverter, safetySpeed);
   return { verdictsFor: p, sizing, safety, safetySpeed, verdict_ms: performance.now() - t0 };
@@ -72,17 +74,8 @@ export function computeResults(p: ResolvedProject, opts: EnvelopeOptions): Resul
 
 export function computeEnvelopes(p: ResolvedProject, opts: EnvelopeOptions): EnvelopeResults {
   const t0 = performance.now();
-  let speedMax = opts.speedMax;
-  if (speedMax === null) {
-    // the engine's range for the hot, peak, motoring envelope (just past its maximum speed, or
-    // 4 x base speed when unbounded), widened to every requirement point and the motor's rated
-    // maximum speed
-    const probe = computeEnvelope(p.hot, p.peak, { points: 2, direction: 'motoring' });
-    speedMax = probe.speed[probe.speed.length - 1]!;
-    const wanted = Math.max(0, ...p.requirements.map((q) => 1.08 * q.speed_rpm * RPM_TO_RAD_S), 1.05 * (p.rated.maxSpeed_rad_s ?? 0));
-    if (wanted > 0 && p.rated.maxSpeed_rad_s !== undefined) speedMax = Math.min(speedMax, wanted);
-    speedMax = Math.max(speedMax, wanted);
-  }
+  // the project's range (one rule with the CLI) unless the user typed a top speed
+  const speedMax = opts.speedMax ?? projectSpeedRange(p).speedMax;
   const curves: Curve[] = [];
   for (const current of ['peak', 'continuous'] as const) {
     const lim = current === 'peak' ? p.peak : p.continuous;
