@@ -13,3 +13,6 @@ export function fmt(x: number, digits = 4): string {
   if (a >= 1e6 || a < 1e-3) return x.toExponential(digits - 1);
   return Number(x.toPrecision(digits)).toString();
 }
+
+/** A number for a table cell, or '-' where the quantity is not defined (null). */
+export const orDash = (x: number | null, digits = 4): string => (x === null ? '-' : fmt(x, digits));

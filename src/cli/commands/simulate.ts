@@ -1,6 +1,6 @@
 import type { Command } from '../command';
 import { stringFlag } from '../args';
-import { table, fmt } from '../table';
+import { table, fmt, orDash } from '../table';
 import { runSimulation, simulationFromProject, TRACE_NAMES } from '../../core/simulate';
 import type { SimulationResult } from '../../core/simulate';
 import { peakToRms } from '../../core/units';
@@ -38,7 +38,6 @@ export function simulationCsv(r: SimulationResult): string {
   return lines.join('\n') + '\n';
 }
 
-const orDash = (x: number | null, digits = 4): string => (x === null ? '-' : fmt(x, digits));
 
 export const simulateCommand: Command = {
   name: 'simulate',

@@ -1,5 +1,5 @@
 import type { Command } from '../command';
-import { table, fmt } from '../table';
+import { table, fmt, orDash } from '../table';
 import { tuneFromProject, tuningInputFromProject } from '../../core/tuning';
 import type { LoopReport, TuningReport } from '../../core/tuning';
 
@@ -20,7 +20,6 @@ export function tuningJson(r: TuningReport, withBode = false) {
   };
 }
 
-const orDash = (x: number | null): string => (x === null ? '-' : fmt(x));
 
 export const tuneCommand: Command = {
   name: 'tune',
