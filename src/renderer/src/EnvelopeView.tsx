@@ -93,7 +93,13 @@ export function torqueSpeedFigure(r: Results, theme: 'light' | 'dark', show: Sho
       x: idx.map((i) => req[i]!.speed_rpm),
       y: idx.map((i) => req[i]!.torque_Nm),
       text: idx.map((i) => req[i]!.label),
-      textposition: idx.map((i) => (req[i]!.speed_rpm > 0.72 * r.speedMax * RAD_S_TO_RPM ? 'top left' : 'top right')),
+      // labels kept off the envelope lines: a met point lies inside the envelope (label beside it,
+      // at its own torque), a missed one outside (label further out, away from zero torque)
+      textposition: idx.map((i) => {
+        const q = req[i]!;
+        const side = q.speed_rpm > 0.72 * r.speedMax * RAD_S_TO_RPM ? 'left' : 'right';
+        return met ? `middle ${side}` : `${q.torque_Nm >= 0 ? 'top' : 'bottom'} ${side}`;
+      }),
       textfont: { size: 11, color: met ? t.ok : t.bad },
       name: met ? 'requirement met' : 'requirement not met',
       marker: met
