@@ -379,6 +379,26 @@ describe('Torquewise in a browser', () => {
     await page.waitForFunction(() => !document.querySelector('[data-testid="read-only-banner"]'));
   });
 
+  it('keeps unsaved edits across a reload of the page and offers them back', async () => {
+    await edit('inverter.Vdc', '333');
+    // the autosave runs 1.5 s after the last edit
+    await page.waitForFunction(() => (localStorage.getItem('torquewise.recovery') ?? '').includes('333'), undefined, { timeout: 10_000 });
+    const offered: string[] = [];
+    const onDialog = (d: import('playwright-core').Dialog) => {
+      offered.push(d.message());
+      void d.accept();
+    };
+    page.on('dialog', onDialog);
+    await page.reload();
+    await page.waitForSelector('[data-testid="envelope-plot"] .scatterlayer .trace');
+    await page.waitForFunction((p) => (document.querySelector(p) as HTMLInputElement | null)?.value === '333', input('inverter.Vdc'), { timeout: 10_000 });
+    page.off('dialog', onDialog);
+    expect(offered.join(' ')).toMatch(/Unsaved edits .* Restore them\?/);
+    // back to the demo for the tests after this one, and no offer left behind
+    await page.selectOption('[data-testid="demo-picker"]', 'demo-ipm-traction.json');
+    await page.evaluate(() => localStorage.removeItem('torquewise.recovery'));
+  });
+
   it('logged no console errors', () => {
     expect(consoleErrors).toEqual([]);
   });

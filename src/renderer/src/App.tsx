@@ -114,8 +114,6 @@ function safeVerdicts(e: EnvelopeResults): Verdicts | null {
 
 const demoText = (file: string): string => DEMOS.find((d) => d.file === file)?.text ?? DEMOS[0]?.text ?? '{}';
 
-const bridgeKind = fileBridge().kind;
-
 export function App() {
   const [theme, setTheme] = useState<'light' | 'dark'>(() => {
     const t = localStorage.getItem('tw-theme') === 'dark' ? 'dark' : 'light';
@@ -171,10 +169,10 @@ export function App() {
       // plot reach the screen in the same frame
       if (quiet) run();
       else h = setTimeout(run, EDIT_DEBOUNCE_MS);
-      if (bridgeKind === 'electron') {
-        if (save !== null) clearTimeout(save);
-        save = setTimeout(() => void fileBridge().recoveryWrite(JSON.stringify(store.getDraft().tree, null, 2), pathRef.current), 1500);
-      }
+      // autosave of the edits for recovery after a crash or a closed tab (a file beside the user
+      // data on the desktop, local storage in a browser)
+      if (save !== null) clearTimeout(save);
+      save = setTimeout(() => void fileBridge().recoveryWrite(JSON.stringify(store.getDraft().tree, null, 2), pathRef.current), 1500);
     });
     return () => {
       off();
@@ -263,11 +261,12 @@ export function App() {
 
   // Electron: a project given at start, unsaved edits from last time, menu events
   useEffect(() => {
-    if (bridge.kind !== 'electron') return;
-    void bridge.initialFile().then((r) => {
-      if (r && r.ok) load(r.text, { name: r.path.replace(/^.*[\\/]/, ''), path: r.path, demo: false, readOnly: r.readOnly }, r.message);
-      else if (r && !r.ok && !r.canceled) setNotice(r.message);
-    });
+    if (bridge.kind === 'electron') {
+      void bridge.initialFile().then((r) => {
+        if (r && r.ok) load(r.text, { name: r.path.replace(/^.*[\\/]/, ''), path: r.path, demo: false, readOnly: r.readOnly }, r.message);
+        else if (r && !r.ok && !r.canceled) setNotice(r.message);
+      });
+    }
     void bridge.recoveryCheck().then((offer) => {
       if (offer && window.confirm(`Unsaved edits from ${offer.savedAt} were found. Restore them?`)) {
         load(offer.text, { name: offer.documentPath?.replace(/^.*[\\/]/, '') ?? 'recovered.json', path: offer.documentPath, demo: false, readOnly: false });
