@@ -12,6 +12,7 @@ import { menuTemplate, type MenuItemData } from './menu';
 import { isAppPage, isLoopbackDevServer, navigationDecision, permissionDecision, windowOpenDecision } from './navigation';
 import { PRELOAD_FROM_MAIN, RENDERER_FROM_MAIN } from './paths';
 import { windowOptions } from './window-options';
+import { closeAllowed, unsavedPrompt } from './unsaved-prompt';
 
 const here = fileURLToPath(new URL('.', import.meta.url));
 // Only an unpackaged app (electron-vite dev) may load from the development server, and only on
@@ -124,6 +125,12 @@ app.on('web-contents-created', (_e, contents) => {
 function createWindow(): void {
   win = new BrowserWindow(windowOptions(join(here, PRELOAD_FROM_MAIN), { dev }));
   win.once('ready-to-show', () => win?.show());
+  // the renderer's beforeunload handler refuses while edits are unsaved: ask before closing
+  win.webContents.on('will-prevent-unload', (event) => {
+    const title = win?.getTitle() ?? '';
+    const answer = dialog.showMessageBoxSync(win!, unsavedPrompt(title.replace(/^Torquewise\s*[—-]\s*/, '').replace(/\s*•$/, '') || null));
+    if (closeAllowed(answer)) event.preventDefault();
+  });
   win.on('closed', () => {
     win = null;
   });

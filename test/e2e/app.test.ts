@@ -384,7 +384,9 @@ describe('Torquewise in a browser', () => {
     // the autosave runs 1.5 s after the last edit
     await page.waitForFunction(() => (localStorage.getItem('torquewise.recovery') ?? '').includes('333'), undefined, { timeout: 10_000 });
     const offered: string[] = [];
+    const kinds: string[] = [];
     const onDialog = (d: import('playwright-core').Dialog) => {
+      kinds.push(d.type());
       offered.push(d.message());
       void d.accept();
     };
@@ -394,6 +396,8 @@ describe('Torquewise in a browser', () => {
     await page.waitForFunction((p) => (document.querySelector(p) as HTMLInputElement | null)?.value === '333', input('inverter.Vdc'), { timeout: 10_000 });
     page.off('dialog', onDialog);
     expect(offered.join(' ')).toMatch(/Unsaved edits .* Restore them\?/);
+    // leaving with unsaved edits asked first (accepted here), then the restore was offered
+    expect(kinds).toEqual(['beforeunload', 'confirm']);
     // back to the demo for the tests after this one, and no offer left behind
     await page.selectOption('[data-testid="demo-picker"]', 'demo-ipm-traction.json');
     await page.evaluate(() => localStorage.removeItem('torquewise.recovery'));

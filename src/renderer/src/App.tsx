@@ -139,6 +139,19 @@ export function App() {
   const [notice, setNotice] = useState<string | null>(null);
   const [computeError, setComputeError] = useState<string | null>(null);
 
+  // the window title names the file and marks unsaved edits; leaving with unsaved edits asks first
+  // (the browser's own question; on the desktop main asks, see src/main/unsaved-prompt.ts)
+  useEffect(() => {
+    document.title = `Torquewise — ${source.name}${dirty ? ' •' : ''}`;
+    if (!dirty) return;
+    const hold = (e: BeforeUnloadEvent) => {
+      e.preventDefault();
+      e.returnValue = '';
+    };
+    window.addEventListener('beforeunload', hold);
+    return () => window.removeEventListener('beforeunload', hold);
+  }, [source.name, dirty]);
+
   useEffect(() => {
     document.documentElement.dataset.theme = theme;
     localStorage.setItem('tw-theme', theme);
