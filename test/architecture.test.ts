@@ -5,21 +5,14 @@
 //   src/cli       node: core and Node; never Electron, React or the renderer
 //   src/main      electron-main: core, Node, Electron; never the renderer or React
 //   src/preload   electron sandbox: electron only (and core types)
-import { readdirSync, readFileSync, statSync } from 'node:fs';
+import { readFileSync } from 'node:fs';
 import { join, relative, resolve, dirname, sep } from 'node:path';
+import { sourceFiles } from './helpers';
 import { describe, expect, it } from 'vitest';
 
 const root = resolve(__dirname, '..');
 
-function files(dir: string): string[] {
-  const out: string[] = [];
-  for (const name of readdirSync(dir)) {
-    const p = join(dir, name);
-    if (statSync(p).isDirectory()) out.push(...files(p));
-    else if (/\.(ts|tsx)$/.test(name)) out.push(p);
-  }
-  return out;
-}
+const files = sourceFiles;
 
 function imports(file: string): string[] {
   const src = readFileSync(file, 'utf8');

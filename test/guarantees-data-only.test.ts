@@ -1,23 +1,16 @@
 // Project files are data only: nothing in a file is run, fetched or loaded. Checked two ways:
 // the source tree holds no construct that runs or fetches text (with two named exceptions), and
 // every command over a project full of URLs and script text touches no network or eval.
+import { sourceFiles } from './helpers';
 import { describe, expect, it, afterEach } from 'vitest';
-import { readdirSync, readFileSync, statSync } from 'node:fs';
+import { readFileSync } from 'node:fs';
 import { join, relative, resolve } from 'node:path';
 import { runCase, DEMOS, COMMAND_NAMES } from '../trust/fuzz-cases';
 import { loadProjectText } from '../src/core/project';
 import { InputError } from '../src/core/errors';
 
 const root = resolve(__dirname, '..');
-function files(dir: string): string[] {
-  const out: string[] = [];
-  for (const name of readdirSync(dir)) {
-    const p = join(dir, name);
-    if (statSync(p).isDirectory()) out.push(...files(p));
-    else if (/\.(ts|tsx)$/.test(name)) out.push(p);
-  }
-  return out;
-}
+const files = sourceFiles;
 
 const FORBIDDEN: Array<[string, RegExp]> = [
   ['eval', /\beval\s*\(/],

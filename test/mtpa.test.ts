@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
 import type { DqMachine } from '../src/core/types';
 import {
-  assertMachine, mtpaAngle, mtpaCurrentForTorque, mtpaCurrents, mtpaTorque, mtpvLossless, mtpvPoint, torqueOf,
+  assertMachine, mtpaAngle, mtpaCurrentForTorque, mtpaCurrents, mtpaTorque, mtpvLossless, mtpvPoint, torqueOf, constantTorqueIq,
 } from '../src/core/mtpa';
 import { InputError } from '../src/core/errors';
 
@@ -128,5 +128,19 @@ describe('MTPV', () => {
     expect(neg.torque).toBeLessThan(0);
     expect(-neg.torque).toBeGreaterThan(p.torque); // generating is helped by the Rs drop
     expect(mtpvPoint({ ...IPM, Rs: 0 }, Vmax, 0)).toBeNull();
+  });
+});
+
+describe('constant-torque locus', () => {
+  it('gives back the torque through the torque equation, and NaN where no motoring point exists', () => {
+    // T = 1.5 p (psiM iq + (Ld - Lq) id iq), the conventions page's torque (common practice (no source))
+    const m = { polePairs: 4, Rs: 0.02, Ld: 1.2e-4, Lq: 3e-4, psiM: 0.045 };
+    for (const id of [-400, -150, 0, 50]) {
+      const iq = constantTorqueIq(m, 120, id);
+      expect(torqueOf(m, id, iq)).toBeCloseTo(120, 9);
+    }
+    // inverse saliency (Ld > Lq): psiM + (Ld - Lq) id <= 0 for id <= -psiM / (Ld - Lq) = -50 A
+    const inv = { polePairs: 2, Rs: 0.1, Ld: 2e-3, Lq: 1e-3, psiM: 0.05 };
+    expect(constantTorqueIq(inv, 10, -60)).toBeNaN();
   });
 });

@@ -1,3 +1,4 @@
+import { messageOf } from './helpers';
 import { describe, expect, it } from 'vitest';
 import { readFileSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
@@ -11,15 +12,6 @@ const demoText = (name: string): string => readFileSync(fileURLToPath(new URL(`.
 const demoJson = (name: string): Record<string, any> => JSON.parse(demoText(name));
 const DEMOS = ['demo-spm-48v', 'demo-ipm-traction', 'demo-servo-axis'];
 
-const messageOf = (f: () => unknown): string => {
-  try {
-    f();
-  } catch (e) {
-    expect(e).toBeInstanceOf(InputError);
-    return (e as Error).message;
-  }
-  throw new Error('did not throw');
-};
 
 describe('demo projects', () => {
   for (const name of DEMOS) {

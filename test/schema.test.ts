@@ -1,3 +1,4 @@
+import { messageOf } from './helpers';
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
 import { KEYS, checkProject, parseProject, projectSchema } from '../src/core/schema';
@@ -13,15 +14,6 @@ const minimal = (): Record<string, any> => ({
   requirements: [{ label: 'rated', speed_rpm: 3000, torque_Nm: 1 }],
 });
 
-const messageOf = (f: () => unknown): string => {
-  try {
-    f();
-  } catch (e) {
-    expect(e).toBeInstanceOf(InputError);
-    return (e as Error).message;
-  }
-  throw new Error('did not throw');
-};
 
 describe('parseProject', () => {
   it('fills the documented defaults', () => {

@@ -33,6 +33,16 @@ export const torqueOf = (m: DqMachine, id: number, iq: number): number =>
   1.5 * m.polePairs * iq * (m.psiM + (m.Ld - m.Lq) * id);
 
 /**
+ * The constant-torque locus: the q current that gives torque T at d current id,
+ * iq = T / (1.5 p (psiM + (Ld - Lq) id)); NaN where the bracket is not positive (no such point
+ * on the motoring side of the locus).
+ */
+export function constantTorqueIq(m: DqMachine, T: number, id: number): number {
+  const den = 1.5 * m.polePairs * (m.psiM + (m.Ld - m.Lq) * id);
+  return den > 0 ? T / den : NaN;
+}
+
+/**
  * MTPA d-axis current for a current magnitude I (A peak), closed form
  * id = (psiM - sqrt(psiM² + 8 (Lq-Ld)² I²)) / (4 (Lq-Ld)), written in the rationalised form
  * id = -2 (Lq-Ld) I² / (psiM + sqrt(psiM² + 8 (Lq-Ld)² I²)) that stays exact as Lq -> Ld (id = 0 for SPM).

@@ -38,7 +38,6 @@ export function simulationCsv(r: SimulationResult): string {
   return lines.join('\n') + '\n';
 }
 
-
 export const simulateCommand: Command = {
   name: 'simulate',
   summary: 'cascade simulation of the scenario: metrics, events, traces',

@@ -20,7 +20,6 @@ export function tuningJson(r: TuningReport, withBode = false) {
   };
 }
 
-
 export const tuneCommand: Command = {
   name: 'tune',
   summary: 'current and speed PI gains with crossover, phase and gain margins',

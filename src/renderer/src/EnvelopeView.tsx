@@ -4,7 +4,7 @@ import { memo, useCallback, useMemo, useRef, useState } from 'react';
 import Plotly from 'plotly.js-dist-min';
 import type { Data, Layout } from 'plotly.js-dist-min';
 import { solveOperatingPoint } from '../../core/operating-point';
-import { mtpaCurrentForTorque } from '../../core/mtpa';
+import { constantTorqueIq, mtpaCurrentForTorque } from '../../core/mtpa';
 import { RAD_S_TO_RPM, RPM_TO_RAD_S, SQRT2 } from '../../core/units';
 import type { OperatingPoint } from '../../core/types';
 import { axis, baseLayout, CURVE, Plot, readTheme, REGION_FILL } from './Plot';
@@ -287,7 +287,7 @@ export function planeFigure(r: Results, theme: 'light' | 'dark', speeds: number[
   });
   data.push({ type: 'scatter', mode: 'lines', x: pc.mtpa.id, y: pc.mtpa.iq, name: 'MTPA', line: { color: col.mtpa, width: 2 }, hoverinfo: 'skip' });
   if (pc.mtpv.id.length > 1) data.push({ type: 'scatter', mode: 'lines', x: pc.mtpv.id, y: pc.mtpv.iq, name: 'MTPV', line: { color: col.mtpv, width: 2, dash: 'dashdot' }, hoverinfo: 'skip' });
-  // constant-torque lines: T = 1.5 p iq (psiM + (Ld - Lq) id), solved for iq
+  // constant-torque lines from the engine's locus
   const T0 = r.main.torque[0]!;
   [0.25, 0.5, 0.75, 1].forEach((f, i) => {
     const T = f * T0;
@@ -295,8 +295,7 @@ export function planeFigure(r: Results, theme: 'light' | 'dark', speeds: number[
     const y: Array<number | null> = [];
     for (let k = 0; k <= 120; k++) {
       const id = -span + (k / 120) * (span + 0.25 * Imax);
-      const den = 1.5 * m.polePairs * (m.psiM + (m.Ld - m.Lq) * id);
-      const iq = den > 0 ? T / den : NaN;
+      const iq = constantTorqueIq(m, T, id);
       const ok = Number.isFinite(iq) && Math.abs(iq) <= span;
       x.push(ok ? id : null);
       y.push(ok ? iq : null);

@@ -1,0 +1,27 @@
+// Small helpers shared by test files (not a test file itself).
+import { readdirSync, statSync } from 'node:fs';
+import { join } from 'node:path';
+import { expect } from 'vitest';
+import { InputError } from '../src/core/errors';
+
+/** Every .ts/.tsx file below dir. */
+export function sourceFiles(dir: string): string[] {
+  const out: string[] = [];
+  for (const name of readdirSync(dir)) {
+    const p = join(dir, name);
+    if (statSync(p).isDirectory()) out.push(...sourceFiles(p));
+    else if (/\.(ts|tsx)$/.test(name)) out.push(p);
+  }
+  return out;
+}
+
+/** The message of the InputError that f throws; fails the test when f throws anything else or nothing. */
+export function messageOf(f: () => unknown): string {
+  try {
+    f();
+  } catch (e) {
+    expect(e).toBeInstanceOf(InputError);
+    return (e as Error).message;
+  }
+  throw new Error('did not throw');
+}
