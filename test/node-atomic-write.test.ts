@@ -122,10 +122,19 @@ describe('atomicWrite', () => {
     const target = join(dir, 'p.json');
     writeFileSync(target, OLD);
     // the process "dies" at rename: the rename never completes and no cleanup code runs
-    const crashing: FsLayer = { ...nodeFs, rename: () => new Promise<void>(() => undefined) };
-    const pending = atomicWrite(target, NEW, { fs: crashing });
-    for (let i = 0; i < 50 && readdirSync(dir).length < 2; i++) await new Promise((r) => setTimeout(r, 10));
-    void pending;
+    // (the test waits for the rename to be reached, not for the temporary to appear: the file
+    // exists from open onwards, before its bytes are written)
+    let reached!: () => void;
+    const atRename = new Promise<void>((r) => (reached = r));
+    const crashing: FsLayer = {
+      ...nodeFs,
+      rename: () => {
+        reached();
+        return new Promise<void>(() => undefined);
+      },
+    };
+    void atomicWrite(target, NEW, { fs: crashing });
+    await atRename;
     const left = readdirSync(dir).filter((n) => n !== 'p.json');
     expect(left).toHaveLength(1);
     expect(isTempOf(target, left[0]!)).toBe(true);
