@@ -372,13 +372,14 @@ export class CascadeController {
     }
 
     // ---- inverse Park at theta + dth: cos and sin from those of the sampled angle, rotated by dth
-    // with a short series (truncation below 1e-13 for |dth| < 0.5), else computed directly
+    // with a short series (truncation below 2e-14 for |dth| < 0.5), else computed directly
     let cs: number;
     let sn: number;
     if (dth > -0.5 && dth < 0.5) {
+      // the plant's polynomials for sin and cos (see Plant.derivAt), written out
       const d2 = dth * dth;
-      const sd = dth * (1 - (d2 / 6) * (1 - (d2 / 20) * (1 - (d2 / 42) * (1 - (d2 / 72) * (1 - d2 / 110)))));
-      const cd = 1 - (d2 / 2) * (1 - (d2 / 12) * (1 - (d2 / 30) * (1 - (d2 / 56) * (1 - (d2 / 90) * (1 - d2 / 132)))));
+      const sd = dth * (1 + d2 * (-1 / 6 + d2 * (1 / 120 + d2 * (-1 / 5040 + d2 * (1 / 362880 + d2 * (-1 / 39916800))))));
+      const cd = 1 + d2 * (-1 / 2 + d2 * (1 / 24 + d2 * (-1 / 720 + d2 * (1 / 40320 + d2 * (-1 / 3628800 + d2 * (1 / 479001600))))));
       const c0 = x[5]!;
       const s0 = x[6]!;
       cs = c0 * cd - s0 * sd;

@@ -386,10 +386,11 @@ export function runSimulation(setup: SimulationSetup, opts: RunOptions = {}): Si
     const dm = 0.5 * p * w * Ts;
     let cm: number, sm: number;
     if (dm > -0.5 && dm < 0.5) {
-      // rotate (c, s) by dm with the same short series as the plant (truncation below 1e-13)
-      const d2 = dm * dm;
-      const sd = dm * (1 - (d2 / 6) * (1 - (d2 / 20) * (1 - (d2 / 42) * (1 - (d2 / 72) * (1 - d2 / 110)))));
-      const cd = 1 - (d2 / 2) * (1 - (d2 / 12) * (1 - (d2 / 30) * (1 - (d2 / 56) * (1 - (d2 / 90) * (1 - d2 / 132)))));
+      // rotate (c, s) by dm with the same short series as the plant (truncation below 2e-14)
+      // the plant's polynomials for sin and cos (see Plant.derivAt), written out: no call, no boxed result
+      const x = dm * dm;
+      const sd = dm * (1 + x * (-1 / 6 + x * (1 / 120 + x * (-1 / 5040 + x * (1 / 362880 + x * (-1 / 39916800))))));
+      const cd = 1 + x * (-1 / 2 + x * (1 / 24 + x * (-1 / 720 + x * (1 / 40320 + x * (-1 / 3628800 + x * (1 / 479001600))))));
       cm = c * cd - s * sd;
       sm = s * cd + c * sd;
     } else {
