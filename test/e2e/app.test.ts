@@ -81,6 +81,49 @@ describe('Torquewise in a browser', () => {
     await page.screenshot({ path: shotPath('01-envelope') });
   });
 
+  it('zooms the torque and the power plot together along speed, and a double-click shows all again', async () => {
+    const xRange = (id: string) => page.$eval(`[data-testid="${id}"] .js-plotly-plot, [data-testid="${id}"]`, (el) => {
+      const gd = (el.classList.contains('js-plotly-plot') ? el : el.querySelector('.js-plotly-plot')) as unknown as { _fullLayout: { xaxis: { range: number[] } } };
+      return gd._fullLayout.xaxis.range.slice();
+    });
+    const full = await xRange('envelope-plot');
+    expect(await xRange('power-plot')).toEqual(full);
+    // a horizontal drag on the torque plot: an x-only zoom from 20 % to 50 % of its width
+    const box = (await (await page.$('[data-testid="envelope-plot"] .nsewdrag'))!.boundingBox())!;
+    const y = box.y + box.height * 0.5;
+    await page.mouse.move(box.x + box.width * 0.2, y);
+    await page.mouse.down();
+    await page.mouse.move(box.x + box.width * 0.35, y + 2, { steps: 5 });
+    await page.mouse.move(box.x + box.width * 0.5, y + 2, { steps: 5 });
+    await page.mouse.up();
+    await page.waitForFunction(() => {
+      const gd = document.querySelector('[data-testid="power-plot"]') as unknown as { _fullLayout?: { xaxis: { range: number[] } } } | null;
+      const r = gd?._fullLayout?.xaxis.range;
+      return !!r && r[0]! > 0;
+    });
+    const zt = await xRange('envelope-plot');
+    const zp = await xRange('power-plot');
+    const span = full[1]! - full[0]!;
+    // the drag covered 20 % to 50 % of the axis: the new range sits there, within a few pixels
+    expect(zt[0]!).toBeGreaterThan(full[0]! + 0.15 * span);
+    expect(zt[1]!).toBeLessThan(full[0]! + 0.55 * span);
+    expect(zp[0]!).toBeCloseTo(zt[0]!, 6);
+    expect(zp[1]!).toBeCloseTo(zt[1]!, 6);
+    await page.screenshot({ path: shotPath('01b-linked-zoom') });
+    // double-click on the power plot: both back to the full speed range
+    const pbox = (await (await page.$('[data-testid="power-plot"] .nsewdrag'))!.boundingBox())!;
+    await page.mouse.dblclick(pbox.x + pbox.width * 0.5, pbox.y + pbox.height * 0.5);
+    await page.waitForFunction(() => {
+      const gd = document.querySelector('[data-testid="envelope-plot"]') as unknown as { _fullLayout?: { xaxis: { range: number[] } } } | null;
+      const r = gd?._fullLayout?.xaxis.range;
+      return !!r && Math.abs(r[0]!) < 1e-6;
+    });
+    const back = await xRange('envelope-plot');
+    expect(back[0]!).toBeCloseTo(full[0]!, 6);
+    expect(back[1]!).toBeCloseTo(full[1]!, 6);
+    expect(await xRange('power-plot')).toEqual(back);
+  });
+
   it('raises the base speed when Vdc is raised, and times edit-to-redraw', async () => {
     const before = await baseSpeedRpm();
     const times: number[] = [];

@@ -14,6 +14,7 @@ import { fileBridge, dataUrlToBytes, svgDataUrlToText } from './file-bridge';
 import { num } from './format';
 import { Cautions } from './DatasheetView';
 import { useAfterPaint } from './after-paint';
+import { sameRange, withXRange, xRangeFromRelayout, type SpeedRange } from './linked-axes';
 
 const REGION_NAME = { mtpa: 'MTPA', 'field-weakening': 'field weakening', mtpv: 'MTPV' } as const;
 
@@ -359,8 +360,17 @@ export const EnvelopeView = memo(function EnvelopeView({ results, opts, setOpts,
   // drawn after that frame is painted
   const late = useAfterPaint(results);
   const speeds = useMemo(() => parseSpeeds(speedText ?? defaultSpeeds(late)), [speedText, late]);
-  const fig = useMemo(() => torqueOnlyFigure(results, theme, show), [results, theme, show]);
-  const pfig = useMemo(() => powerSpeedFigure(late, theme, show), [late, theme, show]);
+  // one speed range for the torque and the power plot: a zoom or pan on either applies to both
+  const [xRange, setXRange] = useState<SpeedRange | null>(null);
+  const fig0 = useMemo(() => torqueOnlyFigure(results, theme, show), [results, theme, show]);
+  const pfig0 = useMemo(() => powerSpeedFigure(late, theme, show), [late, theme, show]);
+  const fig = useMemo(() => ({ data: fig0.data, layout: withXRange(fig0.layout, xRange) }), [fig0, xRange]);
+  const pfig = useMemo(() => ({ data: pfig0.data, layout: withXRange(pfig0.layout, xRange) }), [pfig0, xRange]);
+  const onSpeedZoom = useCallback((ev: Record<string, unknown>) => {
+    const r = xRangeFromRelayout(ev);
+    if (r === null) return;
+    setXRange((cur) => (r === 'reset' ? null : sameRange(cur, r) ? cur : r));
+  }, []);
   const plane = useMemo(() => planeFigure(late, theme, speeds, op), [late, theme, speeds, op]);
 
   const onHover = useCallback(
@@ -446,6 +456,7 @@ export const EnvelopeView = memo(function EnvelopeView({ results, opts, setOpts,
             placeholder={String(Math.round(results.speedMax * RAD_S_TO_RPM))}
             onChange={(e) => {
               setTopText(e.target.value);
+              setXRange(null); // a new top speed shows the whole range again
               const v = Number(e.target.value);
               setOpts({ ...opts, speedMax: e.target.value.trim() !== '' && Number.isFinite(v) && v > 0 ? v * RPM_TO_RAD_S : null });
             }}
@@ -469,8 +480,8 @@ export const EnvelopeView = memo(function EnvelopeView({ results, opts, setOpts,
             <span style={{ color: CURVE[theme].coldCont }}>┅ continuous, cold</span>
             <span>● met ✕ not met</span>
           </div>
-          <Plot data={fig.data} layout={fig.layout} height={330} testId="envelope-plot" onHover={onHover} onDrawn={onDrawn} elRef={(el) => (envEl.current = el)} />
-          <Plot data={pfig.data} layout={pfig.layout} height={300} testId="power-plot" defer />
+          <Plot data={fig.data} layout={fig.layout} height={330} testId="envelope-plot" onHover={onHover} onRelayout={onSpeedZoom} onDrawn={onDrawn} elRef={(el) => (envEl.current = el)} />
+          <Plot data={pfig.data} layout={pfig.layout} height={300} testId="power-plot" onRelayout={onSpeedZoom} defer />
           <div className="readout" data-testid="summary-line">
             base speed {Math.round(results.main.baseSpeed * RAD_S_TO_RPM)} rpm · maximum speed{' '}
             {results.main.maxSpeed === null ? 'unbounded (current limit reaches past the voltage-ellipse centre)' : `${Math.round(results.main.maxSpeed * RAD_S_TO_RPM)} rpm`} · peak current, hot magnet, motoring ·

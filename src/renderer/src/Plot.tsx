@@ -75,6 +75,8 @@ export interface PlotProps {
   testId?: string;
   onHover?: (ev: any) => void;
   onUnhover?: () => void;
+  /** Called with plotly's relayout event (zoom, pan, reset, resize). */
+  onRelayout?: (ev: Record<string, unknown>) => void;
   /** Called after each redraw finished (the promise of Plotly.react resolved). */
   onDrawn?: (el: PlotlyHTMLElement) => void;
   elRef?: (el: HTMLDivElement | null) => void;
@@ -82,10 +84,12 @@ export interface PlotProps {
   defer?: boolean;
 }
 
-export function Plot({ data, layout, height, testId, onHover, onUnhover, onDrawn, elRef, defer }: PlotProps) {
+export function Plot({ data, layout, height, testId, onHover, onUnhover, onRelayout, onDrawn, elRef, defer }: PlotProps) {
   const ref = useRef<HTMLDivElement | null>(null);
   const hoverRef = useRef(onHover);
   const unhoverRef = useRef(onUnhover);
+  const relayoutRef = useRef(onRelayout);
+  relayoutRef.current = onRelayout;
   const drawnRef = useRef(onDrawn);
   hoverRef.current = onHover;
   unhoverRef.current = onUnhover;
@@ -106,6 +110,7 @@ export function Plot({ data, layout, height, testId, onHover, onUnhover, onDrawn
           bound.current = true;
           gd.on('plotly_hover', (ev) => hoverRef.current?.(ev));
           gd.on('plotly_unhover', () => unhoverRef.current?.());
+          gd.on('plotly_relayout', (ev) => relayoutRef.current?.(ev as unknown as Record<string, unknown>));
         }
         drawnRef.current?.(gd);
       });
