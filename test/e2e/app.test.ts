@@ -446,6 +446,29 @@ describe('Torquewise in a browser', () => {
     await page.evaluate(() => localStorage.removeItem('torquewise.recovery'));
   });
 
+  it('fits a 900 px wide window: no sideways scrolling, the current plane below the torque plot', async () => {
+    const ctx = await browser.newContext({ viewport: { width: 900, height: 700 } });
+    const narrow = await ctx.newPage();
+    try {
+      await narrow.goto(url);
+      await narrow.waitForSelector('[data-testid="plane-plot"] .scatterlayer .trace');
+      const fit = await narrow.evaluate(() => {
+        const box = (id: string) => document.querySelector(`[data-testid="${id}"]`)!.closest('.card')!.getBoundingClientRect();
+        const env = box('envelope-plot');
+        const plane = box('plane-plot');
+        const buttons = [...document.querySelectorAll('.topbar .btn')].map((b) => b.getBoundingClientRect().right);
+        return { scroll: document.documentElement.scrollWidth, inner: window.innerWidth, envBottom: env.bottom, planeTop: plane.top, cardRight: Math.max(env.right, plane.right), buttonsRight: Math.max(...buttons) };
+      });
+      expect(fit.scroll).toBeLessThanOrEqual(fit.inner);
+      expect(fit.planeTop).toBeGreaterThanOrEqual(fit.envBottom);
+      expect(fit.cardRight).toBeLessThanOrEqual(fit.inner);
+      expect(fit.buttonsRight).toBeLessThanOrEqual(fit.inner);
+      await narrow.screenshot({ path: shotPath('09-narrow-900') });
+    } finally {
+      await ctx.close();
+    }
+  });
+
   it('logged no console errors', () => {
     expect(consoleErrors).toEqual([]);
   });

@@ -352,7 +352,7 @@ export function App() {
               ))}
             </select>
           </label>
-          <span className="project-name" data-testid="project-name">
+          <span className="project-name" data-testid="project-name" title={projectName}>
             {projectName}
             {dirty ? ' •' : ''}
           </span>
