@@ -180,6 +180,25 @@ describe('cascade simulator behaviour', () => {
     noNaN(r);
   });
 
+  it('an unstable speed loop ends the run with a diagnostic; the tuned demos do not trip the watch', () => {
+    const servo = demo('demo-servo-axis');
+    // speed gains far too high for the inertia: the tuning's own margin says unstable
+    const { speedBandwidth_Hz: _b, speedTuning: _t, ...control } = servo.control;
+    const bad = proj({ ...servo, control: { ...control, speedKp: 50, speedKi: 1e6 } });
+    const setup = simulationFromProject(bad);
+    expect(setup.tuning.speed.phaseMargin_deg!).toBeLessThan(0); // common practice (no source): PM < 0 is unstable
+    const r = runSimulation(setup);
+    expect(r.diagnostic).toMatch(/speed loop oscillates/);
+    expect(r.diagnostic).toMatch(/swung between the motoring and the generating limit 8 times/);
+    expect(r.events.filter((e) => e.kind === 'divergence')).toHaveLength(1);
+    expect(r.stats.controlSteps * setup.controller.Ts).toBeLessThan(servo.scenario.duration_s);
+    noNaN(r);
+    for (const f of ['demo-spm-48v', 'demo-ipm-traction', 'demo-servo-axis']) {
+      const ok = runSimulation(simulationFromProject(proj(demo(f))));
+      expect(ok.diagnostic).toBeUndefined();
+    }
+  });
+
   it('an overcurrent trip stops a run whose current runs away', () => {
     const p = spmServo(
       { mode: 'current-step', fCtrl_Hz: 10000, currentBandwidth_Hz: 300 },

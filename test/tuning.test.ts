@@ -81,8 +81,20 @@ describe('loop tuning', () => {
     expect(w).toContain('current-bandwidth-high');
     // 90 - 2 pi 1500 1.5e-4 rad = 9°: low margin
     expect(w).toContain('phase-margin-low');
-    const u = tuneLoops({ ...base, current: { bandwidth_Hz: 2000 } }).warnings;
+    const ur = tuneLoops({ ...base, current: { bandwidth_Hz: 2000 } });
+    const u = ur.warnings;
     expect(u.some((x) => x.code === 'loop-unstable' && x.severity === 'danger')).toBe(true);
+    // the margin of an unstable loop is negative, never folded back to a positive number:
+    // PM = 90 deg - wc Td for the internal-model loop with delay Td (Harnefors and Nee, 1998, Model-based
+    // current control of AC machines using the internal model control method); 2 pi 2000 1.5e-4 rad = 108 deg
+    expect(ur.current.phaseMargin_deg!).toBeLessThan(0);
+    expect(ur.current.phaseMargin_deg!).toBeCloseTo(90 - (2 * Math.PI * 2000 * 1.5e-4 * 180) / Math.PI, 0);
+    // gains far beyond the control rate: crossover above fCtrl/2 is flagged, and the margin stays negative
+    const far = tuneLoops({ ...base, current: { Kp: 200, Ki: 1e4 } });
+    expect(far.current.crossover_Hz!).toBeGreaterThan(base.fCtrl_Hz / 2);
+    expect(far.current.phaseMargin_deg!).toBeLessThan(0);
+    expect(far.warnings.some((x) => x.code === 'crossover-above-nyquist' && x.severity === 'danger' && x.field === 'control.currentBandwidth_Hz')).toBe(true);
+    expect(tuneLoops(base).warnings.some((x) => x.code === 'crossover-above-nyquist')).toBe(false);
   });
 
   it('explicit gains are reported as given', () => {

@@ -105,7 +105,7 @@ export interface ControllerConfig {
 export const DEFAULT_CONTROLLER_OPTIONS = {
   delaySamples: 1,
   speedLoopDivider: 1,
-  antiWindup: 'back-calculation' as AntiWindup,
+  antiWindup: 'clamping' as AntiWindup,
   decoupling: true,
   backEmfFeedForward: true,
   delayAngleCompensation: true,
@@ -204,7 +204,8 @@ export class CascadeController {
    */
   readonly sample = new Float64Array(7);
   private speedCounter = 0;
-  private torqueClamped = false;
+  /** the torque reference was clamped to a drive limit this period (speed and torque modes) */
+  torqueClamped = false;
   // the configuration's hot numbers as plain fields (read once per period)
   private readonly modeN: number;
   private readonly Ts: number;

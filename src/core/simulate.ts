@@ -38,6 +38,14 @@ const SQRT3_2 = Math.sqrt(3) / 2;
 const CHECK_EVERY = 256;
 const OSC_WINDOW = 64;
 const OSC_LIMIT = 16;
+/**
+ * Speed-loop watch: the torque reference clamped at the motoring limit, then at the generating
+ * limit, and back, SWING_LIMIT times with each swing within SWING_GAP_S of the one before, is a
+ * speed loop oscillating between the torque limits (a stable loop meets the opposite limit at most
+ * once or twice after a large step).
+ */
+const SWING_LIMIT = 8;
+const SWING_GAP_S = 1;
 // local copies of the state indices: module-local constants stay plain numbers in every build
 const STATE_SIZE: number = STATE_SIZE_;
 const I_D: number = I_D_;
@@ -354,6 +362,11 @@ export function runSimulation(setup: SimulationSetup, opts: RunOptions = {}): Si
   // OSC_WINDOW periods; OSC_LIMIT of them means an unstable (saturated, bounded) current loop
   const oscRing = new Uint8Array(OSC_WINDOW);
   let oscSum = 0;
+  // speed-loop watch (see SWING_LIMIT)
+  let swingSide = 0;
+  let swingAt = -Infinity;
+  let swings = 0;
+  const watchSwings = setup.controller.mode === 'speed';
   let prevEd = 0, prevEq = 0;
   const eMin = 0.05 * Imax;
 
@@ -452,6 +465,22 @@ export function runSimulation(setup: SimulationSetup, opts: RunOptions = {}): Si
       stopped = true;
       k++;
       break;
+    }
+
+    if (watchSwings && ctrl.torqueClamped) {
+      const side = ctrl.torqueRef > 0 ? 1 : -1;
+      if (side !== swingSide) {
+        swings = swingSide !== 0 && t0 - swingAt <= SWING_GAP_S ? swings + 1 : 0;
+        swingSide = side;
+        swingAt = t0;
+        if (swings >= SWING_LIMIT) {
+          diagnostic = `diverged at t = ${t0.toPrecision(6)} s: the speed loop oscillates (the torque reference swung between the motoring and the generating limit ${swings} times, each within ${SWING_GAP_S} s of the last); state speed = ${(y[OMEGA]! * RAD_S_TO_RPM).toPrecision(6)} rpm, reference ${(ctrl.speedRefOut * RAD_S_TO_RPM).toPrecision(6)} rpm (lower the speed gains, or check the inertia)`;
+          events.push({ kind: 'divergence', t_s: t0, message: diagnostic });
+          stopped = true;
+          k++;
+          break;
+        }
+      }
     }
 
     // integrate the period
@@ -684,7 +713,7 @@ export function simulationFromProject(p: ResolvedProject, overrides: SimulationO
     coulombWidth_rad_s: coulombWidth(p.mechanics.coulombFriction, J, Ts),
   };
   const decoupling = control.decoupling ?? true;
-  const antiWindup: AntiWindup = control.antiWindup ?? 'clamping';
+  const antiWindup: AntiWindup = control.antiWindup ?? DEFAULT_CONTROLLER_OPTIONS.antiWindup;
   const cs = scenario.currentStep;
   const Ti = sp.Ki > 0 ? sp.Kp / sp.Ki : 0;
   const cfg: ControllerConfig = {

@@ -163,10 +163,14 @@ export function loopMargins(open: Response, wLo: number, wHi: number): Margins {
   const cl = closedLoop(open);
   const wb = firstDownCrossing((w) => { cl(w, o); return o[0]! - Math.SQRT1_2; }, wLo, wHi);
   const fin = (x: number): number | null => (Number.isFinite(x) ? x : null);
+  // Phase margin folded into (-180, 180] (the summed phase may carry a 2 pi jump from an atan2). When
+  // the phase reaches -180 deg below the gain crossover the loop is unstable and the margin is
+  // negative: then it is taken in (-360, 0] (an unstable loop never shows a positive margin).
+  let pm = wc === null ? NaN : foldDeg(180 + (ph(wc) * 180) / Math.PI);
+  if (wc !== null && w180 !== null && w180 < wc && pm > 0) pm -= 360;
   return {
     crossover_Hz: wc === null ? null : wc / (2 * Math.PI),
-    // phase margin folded into (-180, 180] (an unstable loop's unwrapped phase can be far below -180)
-    phaseMargin_deg: wc === null ? null : fin(foldDeg(180 + (ph(wc) * 180) / Math.PI)),
+    phaseMargin_deg: wc === null ? null : fin(pm),
     gainMargin_dB: w180 === null ? null : fin(-20 * Math.log10(mag(w180))),
     bandwidth_Hz: wb === null ? null : wb / (2 * Math.PI),
   };
@@ -292,6 +296,16 @@ export function tuneLoops(inp: TuningInput): TuningReport {
   checkMargin('d-axis current', 'control.currentBandwidth_Hz', current);
   if (currentQ) checkMargin('q-axis current', 'control.currentBandwidth_Hz', currentQ);
   checkMargin('speed', 'control.speedTuning', speed);
+  // a crossover above half the control rate: the sampled loop cannot act there at all
+  for (const [name, field, r] of [
+    ['d-axis current', 'control.currentBandwidth_Hz', current],
+    ['q-axis current', 'control.currentBandwidth_Hz', currentQ],
+    ['speed', 'control.speedTuning', speed],
+  ] as const) {
+    if (r && r.crossover_Hz !== null && r.crossover_Hz > fNyq) {
+      warnings.push({ code: 'crossover-above-nyquist', severity: 'danger', field, message: `${name} loop crossover ${r.crossover_Hz.toPrecision(3)} Hz is above half the control rate (${fNyq.toPrecision(3)} Hz): the sampled loop cannot be designed there; lower the gains or raise control.fCtrl_Hz` });
+    }
+  }
   if (speed.crossover_Hz !== null && speed.crossover_Hz > designQ / 2) {
     warnings.push({
       code: 'speed-bandwidth-high',
