@@ -1,6 +1,7 @@
 // The command line as a user meets it: one JSON document with --json, exit codes 0/2/1,
 // one line naming the field for bad input, files written by --csv.
 import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
+import { TRACE_NAMES } from '../src/core/simulate';
 import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
 import { spawnSync } from 'node:child_process';
@@ -103,6 +104,13 @@ describe('cli --json documents', () => {
       expect(sim.traces[k].length).toBe(sim.traces.t_s.length);
     }
     expect(sim.metrics.finalSpeed_rpm).toBeCloseTo(2000, -1);
+    // beyond the keys: every trace channel and metric of the engine, findings, the diagnostic
+    expect(Object.keys(sim.traces).sort()).toEqual([...TRACE_NAMES].sort());
+    expect(sim.metrics).toHaveProperty('energyFromBus_J');
+    expect(sim.metrics).toHaveProperty('steadyStateError_rpm');
+    expect(sim.findings.map((f: { code: string }) => f.code)).toEqual(['voltage-saturation']); // 0.44 ms at the modulation limit in the speed step
+    expect(sim.diagnostic).toBeNull();
+    expect(sim.stats.evaluationsPerPeriod).toBe(6);
     const tune = JSON.parse((await run('tune', demo('servo-axis'), '--json')).out);
     expect(tune.current.Kp).toBeGreaterThan(0);
     expect(tune.speed.phaseMargin_deg).toBeGreaterThan(30);

@@ -3,7 +3,7 @@ import { readFileSync } from 'node:fs';
 import { resolve } from 'node:path';
 import { loadProjectText } from '../src/core/project';
 import type { ResolvedProject } from '../src/core/project';
-import { simulationFromProject, runSimulation, TRACE_NAMES } from '../src/core/simulate';
+import { simulationFromProject, simulationFindings, runSimulation, TRACE_NAMES } from '../src/core/simulate';
 import type { SimulationResult } from '../src/core/simulate';
 import { stepResponse, loadStepResponse, steadyStateError } from '../src/core/metrics';
 
@@ -186,7 +186,7 @@ describe('cascade simulator behaviour', () => {
     const { speedBandwidth_Hz: _b, speedTuning: _t, ...control } = servo.control;
     const bad = proj({ ...servo, control: { ...control, speedKp: 50, speedKi: 1e6 } });
     const setup = simulationFromProject(bad);
-    expect(setup.tuning.speed.phaseMargin_deg!).toBeLessThan(0); // common practice (no source): PM < 0 is unstable
+    expect(setup.tuning!.speed.phaseMargin_deg!).toBeLessThan(0); // common practice (no source): PM < 0 is unstable
     const r = runSimulation(setup);
     expect(r.diagnostic).toMatch(/speed loop oscillates/);
     expect(r.diagnostic).toMatch(/swung between the motoring and the generating limit 8 times/);
@@ -197,6 +197,51 @@ describe('cascade simulator behaviour', () => {
       const ok = runSimulation(simulationFromProject(proj(demo(f))));
       expect(ok.diagnostic).toBeUndefined();
     }
+  });
+
+  it('names what the scenario asks beyond the motor or the drive, before and after the run', () => {
+    const servo = demo('demo-servo-axis');
+    expect(simulationFromProject(proj(servo)).findings).toEqual([]);
+    // 50 000 rpm on a motor rated 6000 rpm, on a 320 V bus, with a 50 N·m load on a drive of about 9 N·m
+    const far = proj({
+      ...servo,
+      scenario: { ...servo.scenario, speedSteps: [{ t_s: 0.005, speed_rpm: 50000 }], loadSteps: [{ t_s: 0.05, torque_Nm: 50 }] },
+    });
+    const setup = simulationFromProject(far);
+    const f = setup.findings!;
+    const by = (code: string) => f.filter((x) => x.code === code);
+    expect(by('speed-above-motor-max').map((x) => x.field)).toEqual(['scenario.speedSteps[0].speed_rpm']);
+    expect(by('load-above-drive').map((x) => x.field)).toEqual(['scenario.loadSteps[0].torque_Nm']);
+    // back-EMF sqrt(3) p omega psiM, cold magnet, against the bus (common practice (no source))
+    const emf = by('back-emf-above-bus');
+    expect(emf).toHaveLength(1);
+    expect(emf[0]!.severity).toBe('danger');
+    expect(emf[0]!.message).toMatch(/IEC 61800-5-1/);
+    const wMax = 50000 * (Math.PI / 30);
+    expect(emf[0]!.message).toContain(`${(Math.sqrt(3) * far.cold.polePairs * wMax * far.cold.psiM).toFixed(0)} V line-to-line peak`);
+    // overspeed is the motor's maximum speed when the file gives one
+    expect(setup.overspeed_rad_s).toBeCloseTo(6000 * (Math.PI / 30), 9);
+    const r = runSimulation(setup);
+    expect(r.events.some((e) => e.kind === 'overspeed')).toBe(true);
+    // the reference is out of reach: said after the run, with the tuning warnings and the setup's findings
+    const after = simulationFindings(r, setup).map((x) => x.code);
+    expect(after).toEqual(expect.arrayContaining(['speed-above-motor-max', 'load-above-drive', 'back-emf-above-bus']));
+    // a load the drive holds gives no load finding; a reachable reference gives no speed-not-reached
+    const fine = proj({ ...servo, scenario: { ...servo.scenario, loadSteps: [{ t_s: 0.05, torque_Nm: 2 }] } });
+    const sf = simulationFromProject(fine);
+    expect(sf.findings!.some((x) => x.code === 'load-above-drive')).toBe(false);
+    expect(simulationFindings(runSimulation(sf), sf).some((x) => x.code === 'speed-not-reached')).toBe(false);
+  });
+
+  it('says the speed reference was not reached when the run ends short of it', () => {
+    const servo = demo('demo-servo-axis');
+    // a thousand times the inertia: the step cannot complete within the run
+    const heavy = proj({ ...servo, scenario: { ...servo.scenario, loadInertia: 0.5 } });
+    const setup = simulationFromProject(heavy);
+    const r = runSimulation(setup);
+    const nr = simulationFindings(r, setup).filter((x) => x.code === 'speed-not-reached');
+    expect(nr).toHaveLength(1);
+    expect(nr[0]!.message).toMatch(/reference of 2000 rpm/);
   });
 
   it('an overcurrent trip stops a run whose current runs away', () => {

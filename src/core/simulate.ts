@@ -21,9 +21,10 @@ import type { DqMachine, DriveLimits, Finding } from './types';
 import { InputError } from './errors';
 import { Plant, STATE_SIZE as STATE_SIZE_, I_D as I_D_, I_Q as I_Q_, OMEGA as OMEGA_, THETA as THETA_, ENERGY as ENERGY_, loadSchedule, loadLevel, nextLoadBreak, coulombWidth } from './plant';
 import type { PlantParams } from './plant';
-import { CascadeController, stepSchedule, voltageLimitAt, DEFAULT_CONTROLLER_OPTIONS } from './controller';
+import { CascadeController, stepSchedule, scheduleValue, voltageLimitAt, DEFAULT_CONTROLLER_OPTIONS } from './controller';
 import type { ControllerConfig, VoltageLimitSpec, AntiWindup, ControlMode } from './controller';
-import { buildReferenceTable } from './reference-table';
+import { buildReferenceTable, torqueLimitsAt } from './reference-table';
+import { safetyReport } from './safety';
 import type { ReferenceTable } from './reference-table';
 import { tuneLoops, tuningInputFromProject } from './tuning';
 import type { TuningReport } from './tuning';
@@ -112,6 +113,8 @@ export interface SimulationSetup {
   marks: ScenarioMarks;
   /** the tuning the gains came from (null when a test built the setup by hand) */
   tuning: TuningReport | null;
+  /** what the scenario asks that the motor or the drive cannot give, found before the run (see `scenarioFindings`) */
+  findings?: Finding[];
 }
 
 export interface RunOptions {
@@ -743,7 +746,13 @@ export function simulationFromProject(p: ResolvedProject, overrides: SimulationO
   };
   if (mode === 'current-step' && !cs) throw new InputError('scenario.currentStep', 'is required in current-step mode ({id_A, iq_A, t_s})');
   if (mode === 'torque' && (scenario.torqueSteps ?? []).length === 0) throw new InputError('scenario.torqueSteps', 'needs at least one step in torque mode');
-  const overspeed = mode === 'speed' ? Math.max(1.2 * wMaxRef, 0.1 * speedMax) : speedMax;
+  // overspeed: above the motor's maximum speed when the datasheet gives one, else well above what the run asks
+  const wRatedMax = p.rated.maxSpeed_rad_s;
+  const overspeed = wRatedMax !== undefined && wRatedMax > 0 ? wRatedMax : mode === 'speed' ? Math.max(1.2 * wMaxRef, 0.1 * speedMax) : speedMax;
+  const findings = scenarioFindings(p, {
+    mode, w0, speedSteps, loadSteps, load, table, wRatedMax, wMaxRef,
+    B: p.mechanics.viscousFriction, Tc: p.mechanics.coulombFriction, k2,
+  });
   return {
     plant,
     controller: cfg,
@@ -760,13 +769,79 @@ export function simulationFromProject(p: ResolvedProject, overrides: SimulationO
       loadEvents: [...loadSteps.map((s) => s.t_s), ...loadRamps.map((r) => r.t_s)].sort((a, b) => a - b),
     },
     tuning,
+    findings,
   };
 }
 
-/** Findings of a run worth showing beside the metrics. */
-export function simulationFindings(r: SimulationResult): Finding[] {
+interface ScenarioFacts {
+  mode: ControlMode;
+  w0: number;
+  speedSteps: ReadonlyArray<{ t: number; v: number }>;
+  loadSteps: ReadonlyArray<{ t_s: number; torque_Nm: number }>;
+  load: ReturnType<typeof loadSchedule>;
+  table: ReferenceTable | null;
+  wRatedMax: number | undefined;
+  wMaxRef: number;
+  B: number;
+  Tc: number;
+  k2: number;
+}
+
+const rpmText = (w: number): string => `${(w * RAD_S_TO_RPM).toFixed(0)} rpm`;
+
+/**
+ * What the scenario asks that the motor or the drive cannot give, before the run: speed steps above
+ * the motor's maximum speed; load steps (plus friction and the fan load) above the largest torque
+ * the drive makes at the speed reference in force then (hot magnet, peak current); back-EMF above
+ * the bus at the highest speed asked. Each finding names the field.
+ */
+function scenarioFindings(p: ResolvedProject, f: ScenarioFacts): Finding[] {
   const out: Finding[] = [];
+  if (f.mode === 'current-step') return out;
+  const wr = f.wRatedMax;
+  if (f.mode === 'speed' && wr !== undefined && wr > 0) {
+    if (Math.abs(f.w0) > wr) out.push({ code: 'speed-above-motor-max', severity: 'warning', field: 'scenario.initialSpeed_rpm', message: `starts at ${rpmText(Math.abs(f.w0))}, above the motor's maximum speed ${rpmText(wr)}` });
+    f.speedSteps.forEach((st, i) => {
+      if (Math.abs(st.v) > wr) out.push({ code: 'speed-above-motor-max', severity: 'warning', field: `scenario.speedSteps[${i}].speed_rpm`, message: `asks for ${rpmText(Math.abs(st.v))}, above the motor's maximum speed ${rpmText(wr)}` });
+    });
+  }
+  if (f.mode === 'speed' && f.table) {
+    const lim = new Float64Array(2);
+    const ref = stepSchedule(f.w0, f.speedSteps);
+    f.loadSteps.forEach((ls, i) => {
+      const w = scheduleValue(ref, ls.t_s);
+      const need = loadLevel(f.load, ls.t_s) + f.B * w + (w !== 0 ? Math.sign(w) * f.Tc : 0) + f.k2 * w * Math.abs(w);
+      torqueLimitsAt(f.table!, w, lim);
+      const tooMuch = need > lim[0]! * (1 + 1e-9) || need < lim[1]! * (1 + 1e-9);
+      if (tooMuch) {
+        const most = need > 0 ? lim[0]! : lim[1]!;
+        out.push({
+          code: 'load-above-drive', severity: 'warning', field: `scenario.loadSteps[${i}].torque_Nm`,
+          message: `at ${rpmText(w)} the load and friction need ${need.toPrecision(4)} N·m; the drive makes at most ${most.toPrecision(4)} N·m there (hot magnet, peak current): the speed will not hold`,
+        });
+      }
+    });
+  }
+  if (f.wMaxRef > 0) {
+    const s = safetyReport(p.cold, p.inverter, f.wMaxRef);
+    for (const x of s.findings) if (x.code === 'back-emf-above-bus') out.push({ ...x, field: f.mode === 'speed' ? 'scenario.speedSteps' : 'scenario.initialSpeed_rpm', message: `${x.message} Follow local codes, licensed practice and IEC 61800-5-1.` });
+  }
+  return out;
+}
+
+/** Findings of a run worth showing beside the metrics. */
+export function simulationFindings(r: SimulationResult, setup?: SimulationSetup): Finding[] {
+  const out: Finding[] = [...(setup?.findings ?? []), ...(setup?.tuning?.warnings ?? [])];
   if (r.diagnostic) out.push({ code: 'simulation-stopped', severity: 'danger', message: r.diagnostic });
+  // the speed reference not reached at the end of a speed-mode run
+  const n = r.traces.t_s.length;
+  if (!r.diagnostic && setup?.controller.mode === 'speed' && n > 0) {
+    const ref = r.traces.speedRef_rpm[n - 1]!;
+    const got = r.traces.speed_rpm[n - 1]!;
+    if (Math.abs(ref - got) > Math.max(0.02 * Math.abs(ref), 1)) {
+      out.push({ code: 'speed-not-reached', severity: 'warning', field: 'scenario.speedSteps', message: `at the end of the run the speed is ${got.toFixed(0)} rpm against a reference of ${ref.toFixed(0)} rpm: the drive could not reach it within the run (a current or voltage limit, the load, or too short a run)` });
+    }
+  }
   if ((r.metrics.voltageSaturation_s ?? 0) > 0) out.push({ code: 'voltage-saturation', severity: 'warning', message: `the voltage limit was active for ${r.metrics.voltageSaturation_s!.toPrecision(3)} s` });
   return out;
 }

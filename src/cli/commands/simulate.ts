@@ -1,27 +1,30 @@
 import type { Command } from '../command';
 import { stringFlag } from '../args';
 import { table, fmt, orDash } from '../table';
-import { runSimulation, simulationFromProject, TRACE_NAMES } from '../../core/simulate';
+import { runSimulation, simulationFindings, simulationFromProject, TRACE_NAMES } from '../../core/simulate';
+import type { Finding } from '../../core/types';
 import type { SimulationResult } from '../../core/simulate';
 import { peakToRms } from '../../core/units';
 
+/** The metrics of the JSON document: the keys issue 3 names first, then the rest of the engine's. */
 const JSON_METRICS = [
   'finalSpeed_rpm', 'speedOvershoot_pct', 'riseTime_s', 'settlingTime_s', 'loadStepDip_rpm', 'loadStepRecovery_s',
-  'peakCurrent_A', 'rmsCurrent_A', 'voltageSaturation_s',
-] as const;
-const JSON_TRACES = ['t_s', 'speed_rpm', 'torque_Nm', 'id_A', 'iq_A', 'vd_V', 'vq_V', 'ia_A', 'ib_A', 'ic_A'] as const;
+  'peakCurrent_A', 'rmsCurrent_A', 'voltageSaturation_s', 'energyFromBus_J', 'steadyStateError_rpm',
+] as const satisfies ReadonlyArray<keyof SimulationResult['metrics']>;
 
-/** The simulate command's JSON document (the shape of issue 3 §5; traces as plain arrays). */
-export function simulationJson(r: SimulationResult) {
+/** The simulate command's JSON document: every metric and trace channel, events, findings, stats. */
+export function simulationJson(r: SimulationResult, findings: Finding[] = []) {
   const metrics: Record<string, number | null> = {};
   for (const k of JSON_METRICS) metrics[k] = r.metrics[k];
   const traces: Record<string, number[]> = {};
-  for (const k of JSON_TRACES) traces[k] = Array.from(r.traces[k]);
+  for (const k of TRACE_NAMES) traces[k] = Array.from(r.traces[k]);
   return {
     metrics,
     traces,
     events: r.events.map((e) => ({ ...e })),
-    stats: { controlSteps: r.stats.controlSteps, rhsEvaluations: r.stats.rhsEvaluations, wall_s: r.stats.wall_s },
+    findings: findings.map((f) => ({ ...f })),
+    diagnostic: r.diagnostic ?? null,
+    stats: { controlSteps: r.stats.controlSteps, rhsEvaluations: r.stats.rhsEvaluations, evaluationsPerPeriod: r.stats.evaluationsPerPeriod, wall_s: r.stats.wall_s },
   };
 }
 
@@ -78,6 +81,11 @@ export const simulateCommand: Command = {
       lines.push(table(['kind', 'from ms', 'to ms', 'what'], shown.map((e) => [e.kind, fmt(e.t_s * 1e3), e.tEnd_s === undefined ? '-' : fmt(e.tEnd_s * 1e3), e.message])));
       if (r.events.length > shown.length) lines.push(`... ${r.events.length - shown.length} more (see --json)`);
     }
+    const findings = simulationFindings(r, setup).filter((f) => f.code !== 'simulation-stopped');
+    if (findings.length > 0) {
+      lines.push('', 'findings:');
+      for (const f of findings) lines.push(`  ${f.severity}: ${f.field ? `${f.field}: ` : ''}${f.message}`);
+    }
     if (r.diagnostic) lines.push('', `stopped: ${r.diagnostic}`);
     lines.push('', `${r.stats.controlSteps} control periods, ${r.stats.rhsEvaluations} derivative evaluations ` +
       `(median ${r.stats.evaluationsPerPeriod} per period), ${fmt(r.stats.wall_s * 1e3)} ms wall time` +
@@ -85,6 +93,6 @@ export const simulateCommand: Command = {
     if (p.inverter.Vdc > 60) {
       lines.push(`caution: a ${fmt(p.inverter.Vdc)} V DC bus is hazardous; work on it only under local codes, licensed practice and IEC 61800-5-1.`);
     }
-    return { json: simulationJson(r), text: lines.join('\n'), ...(csv ? { files: [{ path: csv, contents: simulationCsv(r) }] } : {}) };
+    return { json: simulationJson(r, findings), text: lines.join('\n'), ...(csv ? { files: [{ path: csv, contents: simulationCsv(r) }] } : {}) };
   },
 };
