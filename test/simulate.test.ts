@@ -3,7 +3,7 @@ import { readFileSync } from 'node:fs';
 import { resolve } from 'node:path';
 import { loadProjectText } from '../src/core/project';
 import type { ResolvedProject } from '../src/core/project';
-import { simulationFromProject, simulationFindings, runSimulation, TRACE_NAMES } from '../src/core/simulate';
+import { simulationFromProject, simulationFindings, rampedReference, runSimulation, TRACE_NAMES } from '../src/core/simulate';
 import type { SimulationResult } from '../src/core/simulate';
 import { stepResponse, loadStepResponse, steadyStateError } from '../src/core/metrics';
 
@@ -231,6 +231,16 @@ describe('cascade simulator behaviour', () => {
     const sf = simulationFromProject(fine);
     expect(sf.findings!.some((x) => x.code === 'load-above-drive')).toBe(false);
     expect(simulationFindings(runSimulation(sf), sf).some((x) => x.code === 'speed-not-reached')).toBe(false);
+  });
+
+  it('the ramped speed reference the load check uses: linear at the ramp rate, a later step retargets', () => {
+    // common practice (no source): a rate limiter moves the reference toward its target at a fixed rate
+    const steps = [{ t: 0.1, v: 100 }, { t: 0.5, v: 20 }];
+    expect(rampedReference(0, steps, Infinity, 0.2)).toBe(100);
+    expect(rampedReference(0, steps, 200, 0.05)).toBe(0);
+    expect(rampedReference(0, steps, 200, 0.3)).toBeCloseTo(40, 12);
+    expect(rampedReference(0, steps, 200, 0.55)).toBeCloseTo(70, 12); // 80 at 0.5 s, then down toward 20
+    expect(rampedReference(0, steps, 200, 2)).toBeCloseTo(20, 12);
   });
 
   it('says the speed reference was not reached when the run ends short of it', () => {

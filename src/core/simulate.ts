@@ -21,7 +21,7 @@ import type { DqMachine, DriveLimits, Finding } from './types';
 import { InputError } from './errors';
 import { Plant, STATE_SIZE as STATE_SIZE_, I_D as I_D_, I_Q as I_Q_, OMEGA as OMEGA_, THETA as THETA_, ENERGY as ENERGY_, loadSchedule, loadLevel, nextLoadBreak, coulombWidth } from './plant';
 import type { PlantParams } from './plant';
-import { CascadeController, stepSchedule, scheduleValue, voltageLimitAt, DEFAULT_CONTROLLER_OPTIONS } from './controller';
+import { CascadeController, stepSchedule, voltageLimitAt, DEFAULT_CONTROLLER_OPTIONS } from './controller';
 import type { ControllerConfig, VoltageLimitSpec, AntiWindup, ControlMode } from './controller';
 import { buildReferenceTable, torqueLimitsAt } from './reference-table';
 import { safetyReport } from './safety';
@@ -750,7 +750,7 @@ export function simulationFromProject(p: ResolvedProject, overrides: SimulationO
   const wRatedMax = p.rated.maxSpeed_rad_s;
   const overspeed = wRatedMax !== undefined && wRatedMax > 0 ? wRatedMax : mode === 'speed' ? Math.max(1.2 * wMaxRef, 0.1 * speedMax) : speedMax;
   const findings = scenarioFindings(p, {
-    mode, w0, speedSteps, loadSteps, load, table, wRatedMax, wMaxRef,
+    ramp: cfg.speedRamp_rad_s2, mode, w0, speedSteps, loadSteps, load, table, wRatedMax, wMaxRef,
     B: p.mechanics.viscousFriction, Tc: p.mechanics.coulombFriction, k2,
   });
   return {
@@ -773,7 +773,29 @@ export function simulationFromProject(p: ResolvedProject, overrides: SimulationO
   };
 }
 
+/** The speed reference at time t after the ramp limit (rate in rad/s², Infinity for none), as the speed loop sees it. */
+export function rampedReference(w0: number, steps: ReadonlyArray<{ t: number; v: number }>, rate: number, t: number): number {
+  const sorted = [...steps].sort((a, b) => a.t - b.t);
+  let w = w0;
+  let target = w0;
+  let tc = 0;
+  const advance = (to: number): void => {
+    const d = target - w;
+    const most = rate * Math.max(0, to - tc);
+    w += Math.abs(d) <= most ? d : Math.sign(d) * most;
+    tc = to;
+  };
+  for (const st of sorted) {
+    if (st.t > t) break;
+    advance(st.t);
+    target = st.v;
+  }
+  advance(t);
+  return w;
+}
+
 interface ScenarioFacts {
+  ramp: number;
   mode: ControlMode;
   w0: number;
   speedSteps: ReadonlyArray<{ t: number; v: number }>;
@@ -807,9 +829,8 @@ function scenarioFindings(p: ResolvedProject, f: ScenarioFacts): Finding[] {
   }
   if (f.mode === 'speed' && f.table) {
     const lim = new Float64Array(2);
-    const ref = stepSchedule(f.w0, f.speedSteps);
     f.loadSteps.forEach((ls, i) => {
-      const w = scheduleValue(ref, ls.t_s);
+      const w = rampedReference(f.w0, f.speedSteps, f.ramp, ls.t_s);
       const need = loadLevel(f.load, ls.t_s) + f.B * w + (w !== 0 ? Math.sign(w) * f.Tc : 0) + f.k2 * w * Math.abs(w);
       torqueLimitsAt(f.table!, w, lim);
       const tooMuch = need > lim[0]! * (1 + 1e-9) || need < lim[1]! * (1 + 1e-9);

@@ -238,6 +238,18 @@ describe('Torquewise in a browser', () => {
     expect(await page.$('[data-testid="progress"]')).toBeNull();
     expect(await page.isEnabled('[data-testid="run"]')).toBe(true);
     await page.fill(dur, old);
+    // a speed step above the motor's 12 000 rpm: the findings name the field and the back-EMF caution shows
+    const step = '.view [data-path^="scenario.speedSteps"][data-path$="speed_rpm"]';
+    const oldStep = await page.inputValue(step);
+    await page.fill(step, '20000');
+    await page.waitForFunction(() => !(document.querySelector('[data-testid="run"]') as HTMLButtonElement).disabled);
+    await page.click('[data-testid="run"]');
+    await page.waitForSelector('[data-testid="sim-findings"]', { timeout: 60_000 });
+    const said = (await page.textContent('[data-testid="sim-findings"]')) ?? '';
+    expect(said).toMatch(/scenario\.speedSteps\[0\]\.speed_rpm\s*asks for 20000 rpm, above the motor's maximum speed 12000 rpm/);
+    expect(said).toMatch(/back-EMF is \d+ V line-to-line peak, above the 350 V bus.*IEC 61800-5-1/);
+    await page.screenshot({ path: shotPath('05b-load-steps-findings') });
+    await page.fill(step, oldStep);
   });
 
   it('stays responsive while a long simulation runs in its worker, and cancel stops it at once', async () => {

@@ -3,6 +3,7 @@
 import { memo, useEffect, useMemo, useRef, useState } from 'react';
 import type { Data, Layout } from 'plotly.js-dist-min';
 import type { ResolvedProject } from '../../core/project';
+import type { Finding } from '../../core/types';
 import { SQRT2 } from '../../core/units';
 import { axis, baseLayout, CURVE, Plot, readTheme } from './Plot';
 import { ControlFields, ScenarioFields } from './InputPanel';
@@ -18,6 +19,7 @@ export interface SimDone {
   events: SimEvent[];
   stats: Record<string, unknown>;
   diagnostic: unknown;
+  findings: Finding[];
   /** project name the run belongs to */
   project: string;
 }
@@ -138,7 +140,7 @@ export const LoadStepsView = memo(function LoadStepsView({ project, theme, stale
       const m = ev.data;
       if (m.kind === 'progress') setRun((r) => (r.kind === 'running' ? { ...r, fraction: m.fraction } : r));
       else if (m.kind === 'done') {
-        const done: SimDone = { metrics: m.metrics, traces: m.traces, events: m.events, stats: m.stats, diagnostic: m.diagnostic, project: project.name };
+        const done: SimDone = { metrics: m.metrics, traces: m.traces, events: m.events, stats: m.stats, diagnostic: m.diagnostic, findings: m.findings ?? [], project: project.name };
         kept = done;
         setResult(done);
         setRun({ kind: 'idle' });
@@ -203,6 +205,15 @@ export const LoadStepsView = memo(function LoadStepsView({ project, theme, stale
         {result ? (
           <>
             {typeof result.diagnostic === 'string' && <div className="finding danger">{result.diagnostic}</div>}
+            {result.findings.length > 0 && (
+              <div data-testid="sim-findings">
+                {result.findings.map((f, i) => (
+                  <div key={i} className={`finding ${f.severity}`}>
+                    {f.field && <code className="finding-field">{f.field}</code>} {f.message}
+                  </div>
+                ))}
+              </div>
+            )}
             <div className="card">
               <h4>
                 Traces — {result.project}

@@ -1,4 +1,6 @@
 // Messages between the window and the simulation worker.
+import type { Finding } from '../../core/types';
+
 export interface SimRequest {
   /** the project file (already valid) */
   file: unknown;
@@ -21,5 +23,7 @@ export type SimReply =
       events: SimEvent[];
       stats: Record<string, unknown>;
       diagnostic: unknown;
+      /** before and after the run: the scenario beyond the motor or drive, tuning warnings, limits met */
+      findings: Finding[];
     }
   | { kind: 'error'; message: string };

@@ -2,7 +2,7 @@
 /// <reference lib="webworker" />
 import { resolveProject } from '../../core/project';
 import { parseProject } from '../../core/schema';
-import { runSimulation, simulationFromProject } from '../../core/simulate';
+import { runSimulation, simulationFindings, simulationFromProject } from '../../core/simulate';
 import { isInputError } from '../../core/errors';
 import type { SimRequest, SimReply } from './sim-protocol';
 
@@ -40,6 +40,7 @@ self.onmessage = (ev: MessageEvent<SimRequest>) => {
         events: result.events,
         stats: { ...result.stats },
         diagnostic: result.diagnostic ?? null,
+        findings: simulationFindings(result, setup).filter((f) => f.code !== 'simulation-stopped'),
       },
       transfer,
     );
