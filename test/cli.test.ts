@@ -134,6 +134,12 @@ describe('cli bad input: exit 2 and one line naming the field', () => {
     ['bad number', ['envelope', demo('spm-48v'), '--points', 'many'], /--points must be a number/],
     ['unknown option', ['envelope', demo('spm-48v'), '--colour', 'red'], /--colour is not an option of 'envelope'/],
     ['absurd point count', ['envelope', demo('spm-48v'), '--points', '1e9'], /--points must be <= /],
+    // a device or a pipe is not read at all: it could block forever
+    ['a device instead of a file', ['params', '/dev/zero'], /^torquewise: project file '\/dev\/zero' is not a regular file$/m],
+    ['a folder instead of a file', ['params', dir], /is not a regular file/],
+    ['words after the file', ['params', demo('spm-48v'), 'extra'], /^torquewise: arguments 'extra' is not expected after the project file/],
+    ['an empty number', ['point', demo('spm-48v'), '--speed', '', '--torque', '1'], /--speed must be a number rpm \(got ''\)/],
+    ['a hexadecimal number', ['point', demo('spm-48v'), '--speed', '1000', '--torque', '0x10'], /--torque must be a number/],
   ];
   for (const [what, argv, re] of cases) {
     it(what, async () => {
@@ -145,11 +151,24 @@ describe('cli bad input: exit 2 and one line naming the field', () => {
       expect(r.out).toBe('');
     });
   }
+  it('control characters from the file reach the terminal escaped, not raw', async () => {
+    const f = spmProject({ name: 'motor\u001b[2J\r\nfake line' });
+    const r = await run('params', f);
+    expect(r.code).toBe(0);
+    expect(r.out).not.toMatch(/[\u001b\r]/);
+    expect(r.out).toContain('motor\\u001b[2J\\u000d');
+    const k = spmProject({ ['bad\u001bkey']: 1 });
+    const e = await run('params', k);
+    expect(e.code).toBe(2);
+    expect(e.err).not.toMatch(/\u001b/);
+    expect(e.err.trim().split('\n')).toHaveLength(1);
+  });
+
   it('a negative inductance in the file', async () => {
     const f = spmProject({ motor: { polePairs: 3, Rs: 0.1, Ld: -0.001, Lq: 0.001, psiM: 0.05, inertia: 0.001 } });
     const r = await run('params', f);
     expect(r.code).toBe(2);
-    expect(r.err.trim()).toMatch(/^torquewise: motor\.Ld must be > 0 H/);
+    expect(r.err.trim()).toMatch(/^torquewise: motor\.Ld must be >= 1e-9 H/);
   });
 });
 

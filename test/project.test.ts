@@ -131,7 +131,7 @@ describe('loadProjectText', () => {
   it('schema problems come through as InputError naming the path', () => {
     const j = demoJson('demo-servo-axis');
     j.motor.Ld = 0;
-    expect(messageOf(() => loadProjectText(JSON.stringify(j)))).toBe('motor.Ld must be > 0 H');
+    expect(messageOf(() => loadProjectText(JSON.stringify(j)))).toBe('motor.Ld must be >= 1e-9 H');
   });
 });
 

@@ -49,10 +49,29 @@ describe('parseProject', () => {
     expect(p.scenario?.loadInertia).toBe(0);
   });
 
+  it('refuses denormal and vanishing values that would turn a ratio into Infinity, naming the field', () => {
+    const cases: Array<[(j: any) => void, string]> = [
+      [(j) => (j.motor.Ld = 5e-324), 'motor.Ld must be >= 1e-9 H'],
+      [(j) => (j.motor.Lq = 1e-300), 'motor.Lq must be >= 1e-9 H'],
+      [(j) => (j.motor.psiM = 1e-308), 'motor.psiM must be 0 (no magnet) or >= 0.000001 Wb'],
+      [(j) => (j.motor.inertia = 1e-320), 'motor.inertia must be >= 1e-9 kg·m²'],
+      [(j) => (j.inverter.voltageUtilization = 1e-310), 'inverter.voltageUtilization must be >= 0.001'],
+    ];
+    for (const [edit, msg] of cases) {
+      const j = minimal();
+      edit(j);
+      expect(messageOf(() => parseProject(j))).toBe(msg);
+    }
+    const ok = minimal();
+    ok.motor.psiM = 0; // a reluctance machine: no magnet is legal
+    ok.motor.Lq = 3 * ok.motor.Ld;
+    expect(parseProject(ok).motor!.psiM).toBe(0);
+  });
+
   it('one clear message naming the path, with the unit', () => {
     const j = minimal();
     j.motor.Ld = -1e-4;
-    expect(messageOf(() => parseProject(j))).toBe('motor.Ld must be > 0 H');
+    expect(messageOf(() => parseProject(j))).toBe('motor.Ld must be >= 1e-9 H');
     const k = minimal();
     k.motor.polePairs = 3.5;
     expect(messageOf(() => parseProject(k))).toBe('motor.polePairs must be a whole number');
@@ -148,7 +167,7 @@ describe('checkProject', () => {
     j.requirements.push({ label: '', speed_rpm: 1, torque_Nm: 1 });
     expect(checkProject(j)).toEqual([
       { path: 'motor.polePairs', message: 'must be >= 1' },
-      { path: 'motor.Ld', message: 'must be > 0 H' },
+      { path: 'motor.Ld', message: 'must be >= 1e-9 H' },
       { path: 'inverter.Vdc', message: 'must be > 0 V' },
       { path: 'conditions.windingTemp_C', message: 'must be <= 250 °C' },
       { path: 'requirements[1].label', message: 'must not be empty' },

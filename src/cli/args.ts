@@ -4,6 +4,8 @@ import { InputError } from '../core/errors';
 export interface ParsedArgs {
   command: string;
   file: string | undefined;
+  /** positional words after the file (no command takes any) */
+  extra: string[];
   flags: Map<string, string | true>;
 }
 
@@ -24,7 +26,7 @@ export function parseArgs(argv: readonly string[]): ParsedArgs {
       }
     } else positional.push(a);
   }
-  return { command: positional[0] ?? '', file: positional[1], flags };
+  return { command: positional[0] ?? '', file: positional[1], extra: positional.slice(2), flags };
 }
 
 /** The flags a command knows: name -> 'switch' (no value) or 'number' | 'string'. */
@@ -45,10 +47,13 @@ export function checkFlags(args: ParsedArgs, spec: FlagSpec): void {
   }
 }
 
+const DECIMAL = /^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/;
+
 export function numberFlag(args: ParsedArgs, name: string, range: { min?: number; max?: number; integer?: boolean; unit?: string } = {}): number | undefined {
   const v = args.flags.get(name);
   if (v === undefined) return undefined;
-  const x = typeof v === 'string' ? Number(v) : NaN;
+  // a decimal number only: Number('') is 0 and Number('0x10') is 16, neither is what was meant
+  const x = typeof v === 'string' && DECIMAL.test(v.trim()) ? Number(v) : NaN;
   const unit = range.unit ? ` ${range.unit}` : '';
   if (!Number.isFinite(x)) throw new InputError(`--${name}`, `must be a number${unit} (got '${String(v)}')`);
   if (range.integer && !Number.isInteger(x)) throw new InputError(`--${name}`, `must be a whole number (got ${x})`);

@@ -1,7 +1,7 @@
 #!/usr/bin/env node
 // Torquewise command line: `npm run -s cli -- <command> <project.json> [options]`.
 // Exit codes: 0 ok, 2 bad input (one line naming the field), 1 internal error.
-import { readFileSync, writeFileSync } from 'node:fs';
+import { readFileSync, statSync, writeFileSync } from 'node:fs';
 import { parseArgs, checkFlags } from './args';
 import type { Command } from './command';
 import { isInputError, InputError } from '../core/errors';
@@ -12,6 +12,37 @@ function usage(): string {
   const lines = ['usage: npm run -s cli -- <command> <project.json> [options] [--json]', '', 'commands:'];
   for (const c of COMMANDS) lines.push(`  ${c.usage.padEnd(58)} ${c.summary}`);
   return lines.join('\n');
+}
+
+/** Largest project file read, bytes: a project is a few kilobytes; anything near this is not one. */
+export const MAX_PROJECT_BYTES = 50 * 1024 * 1024;
+
+/** The project file's text: a regular file only (a device or a pipe could block forever), of bounded size. */
+function readProjectFile(path: string): string {
+  let size: number;
+  try {
+    const st = statSync(path);
+    if (!st.isFile()) throw new InputError('project file', `'${visible(path)}' is not a regular file`);
+    size = st.size;
+  } catch (e) {
+    if (isInputError(e)) throw e;
+    throw new InputError('project file', `'${visible(path)}' cannot be read (${(e as NodeJS.ErrnoException).code ?? 'unreadable'})`);
+  }
+  if (size > MAX_PROJECT_BYTES) throw new InputError('project file', `'${visible(path)}' is ${(size / 1048576).toFixed(0)} MB; a project file is at most ${MAX_PROJECT_BYTES / 1048576} MB`);
+  try {
+    return readFileSync(path, 'utf8');
+  } catch (e) {
+    throw new InputError('project file', `'${visible(path)}' cannot be read (${(e as NodeJS.ErrnoException).code ?? 'unreadable'})`);
+  }
+}
+
+/**
+ * Text for a terminal: control characters other than newline and tab (from names, labels or keys
+ * in a file) are written as \u escapes, so a file cannot move the cursor, clear the screen or
+ * fake lines of output.
+ */
+export function visible(s: string): string {
+  return s.replace(/[\u0000-\u0008\u000b-\u001f\u007f-\u009f]/g, (c) => `\\u${c.charCodeAt(0).toString(16).padStart(4, '0')}`);
 }
 
 /** The sinks main writes to (process.stdout and process.stderr, or a test's collector). */
@@ -30,14 +61,10 @@ export async function main(argv: readonly string[], out: TextSink = process.stdo
     if (!cmd) throw new InputError('command', `'${args.command}' is unknown; use one of: ${COMMANDS.map((c) => c.name).join(', ')}`);
     checkFlags(args, { ...cmd.flags, json: 'switch' });
     if (!args.file) throw new InputError('project file', `is missing: ${cmd.usage}`);
-    let text: string;
-    try {
-      text = readFileSync(args.file, 'utf8');
-    } catch (e) {
-      const code = (e as NodeJS.ErrnoException).code ?? 'unreadable';
-      throw new InputError('project file', `'${args.file}' cannot be read (${code})`);
-    }
+    if (args.extra.length > 0) throw new InputError('arguments', `'${args.extra[0]}' is not expected after the project file: ${cmd.usage}`);
+    const text = readProjectFile(args.file);
     const project = loadProjectText(text);
+    if (project.readOnly) err.write(`torquewise: note: ${project.findings.find((f) => f.code === 'newer-format')?.message ?? 'the file is of a newer format version and is read here read-only'}\n`);
     const result = await cmd.run(project, args);
     for (const f of result.files ?? []) {
       try {
@@ -46,14 +73,14 @@ export async function main(argv: readonly string[], out: TextSink = process.stdo
         throw new InputError(`output file`, `'${f.path}' cannot be written (${(e as NodeJS.ErrnoException).code ?? 'error'})`);
       }
     }
-    out.write(args.flags.has('json') ? JSON.stringify(result.json) + '\n' : result.text.replace(/\n?$/, '\n'));
+    out.write(args.flags.has('json') ? JSON.stringify(result.json) + '\n' : visible(result.text).replace(/\n?$/, '\n'));
     return 0;
   } catch (e) {
     if (isInputError(e)) {
-      err.write(`torquewise: ${e.message}\n`);
+      err.write(`torquewise: ${visible(e.message)}\n`);
       return 2;
     }
-    err.write(`torquewise: internal error: ${e instanceof Error ? e.message : String(e)}\n`);
+    err.write(`torquewise: internal error: ${visible(e instanceof Error ? e.message : String(e))}\n`);
     return 1;
   }
 }

@@ -72,7 +72,7 @@ export const KEYS: Readonly<Record<string, { unit: string; doc: string }>> = {
   'inverter.Imax': { unit: 'A', doc: 'peak phase current limit (A peak)' },
   'inverter.Icont': { unit: 'A', doc: 'continuous phase current limit (A peak), <= Imax' },
   'inverter.modulation': { unit: '', doc: '"sinusoidal", "svpwm" or "six-step"' },
-  'inverter.voltageUtilization': { unit: '', doc: 'fraction of the modulation limit, (0, 1], default 1' },
+  'inverter.voltageUtilization': { unit: '', doc: 'fraction of the modulation limit, 0.001 to 1, default 1' },
   'inverter.deviceDrop': { unit: 'V', doc: 'on-state drop per device, default 0' },
 
   conditions: { unit: '', doc: 'temperatures' },
@@ -150,23 +150,30 @@ function num(path: string, min: number, max: number, opts: { gtMin?: boolean; in
 const basis = z.enum(['phase', 'line-to-line']);
 const currentBasis = z.enum(['rms', 'peak']);
 const T_MIN = -60;
+// Lower bounds far below any real machine but far above the denormal numbers that turn a ratio
+// such as psiM/Ld or Vdc/psiM into Infinity: inductance 1 nH, flux linkage 1 µWb (or 0, no
+// magnet), inertia 1e-9 kg·m² (a 1 mm steel disc is ~1e-13, a bare micro-rotor ~1e-8), Ke/Kt 1e-6.
+const L_MIN = 1e-9;
+const PSI_MIN = 1e-6;
+const J_MIN = 1e-9;
+const K_MIN = 1e-6;
 const T_MAX = 250;
 
 const motorSchema = z
   .strictObject({
     polePairs: num('motor.polePairs', 1, 200, { int: true }),
     Rs: num('motor.Rs', 0, 1000),
-    Ld: num('motor.Ld', 0, 10, { gtMin: true }),
-    Lq: num('motor.Lq', 0, 10, { gtMin: true }),
-    psiM: num('motor.psiM', 0, 100),
-    inertia: num('motor.inertia', 0, 1e5, { gtMin: true }),
+    Ld: num('motor.Ld', L_MIN, 10),
+    Lq: num('motor.Lq', L_MIN, 10),
+    psiM: num('motor.psiM', 0, 100).refine((v) => v === 0 || v >= PSI_MIN, { message: `must be 0 (no magnet) or >= ${PSI_MIN} Wb` }),
+    inertia: num('motor.inertia', J_MIN, 1e5),
     viscousFriction: num('motor.viscousFriction', 0, 1e4).default(0),
     coulombFriction: num('motor.coulombFriction', 0, 1e5).default(0),
     maxSpeed_rpm: num('motor.maxSpeed_rpm', 0, 1e6, { gtMin: true }).optional(),
   })
   .describe(doc('motor'));
 
-const lValue = (path: string) => z.strictObject({ value: num(`${path}.value`, 0, 10, { gtMin: true }), basis });
+const lValue = (path: string) => z.strictObject({ value: num(`${path}.value`, L_MIN, 10), basis });
 const currentValue = (path: string) => z.strictObject({ value: num(`${path}.value`, 0, 1e5, { gtMin: true }), basis: currentBasis });
 
 const nameplateSchema = z
@@ -183,14 +190,14 @@ const nameplateSchema = z
     Lq: lValue('nameplate.Lq').optional(),
     Ke: z
       .strictObject({
-        value: num('nameplate.Ke.value', 0, 1e5, { gtMin: true }),
+        value: num('nameplate.Ke.value', K_MIN, 1e5),
         unit: z.enum(['V_LL_rms/krpm', 'V_LL_peak/krpm', 'V_ph_peak*s/rad']),
         temp_C: num('nameplate.Ke.temp_C', T_MIN, T_MAX).optional(),
       })
       .optional(),
     Kt: z
       .strictObject({
-        value: num('nameplate.Kt.value', 0, 1e5, { gtMin: true }),
+        value: num('nameplate.Kt.value', K_MIN, 1e5),
         unit: z.enum(['Nm/A_rms', 'Nm/A_peak']),
         temp_C: num('nameplate.Kt.temp_C', T_MIN, T_MAX).optional(),
       })
@@ -200,7 +207,7 @@ const nameplateSchema = z
     ratedSpeed_rpm: num('nameplate.ratedSpeed_rpm', 0, 1e6, { gtMin: true }).optional(),
     ratedTorque_Nm: num('nameplate.ratedTorque_Nm', 0, 1e6, { gtMin: true }).optional(),
     maxSpeed_rpm: num('nameplate.maxSpeed_rpm', 0, 1e6, { gtMin: true }).optional(),
-    inertia: num('nameplate.inertia', 0, 1e5, { gtMin: true }),
+    inertia: num('nameplate.inertia', J_MIN, 1e5),
     viscousFriction: num('nameplate.viscousFriction', 0, 1e4).optional(),
     coulombFriction: num('nameplate.coulombFriction', 0, 1e5).optional(),
   })
@@ -222,7 +229,7 @@ const inverterSchema = z
     Imax: num('inverter.Imax', 0, 1e6, { gtMin: true }),
     Icont: num('inverter.Icont', 0, 1e6, { gtMin: true }),
     modulation: z.enum(['sinusoidal', 'svpwm', 'six-step']),
-    voltageUtilization: num('inverter.voltageUtilization', 0, 1, { gtMin: true }).default(1),
+    voltageUtilization: num('inverter.voltageUtilization', 1e-3, 1).default(1),
     deviceDrop: num('inverter.deviceDrop', 0, 1e3).default(0),
   })
   .superRefine((inv, ctx) => {
@@ -252,10 +259,10 @@ const controlSchema = z
     mode: z.enum(['speed', 'torque', 'current-step']).default('speed'),
     fCtrl_Hz: num('control.fCtrl_Hz', 100, 1e6).default(10000),
     delaySamples: num('control.delaySamples', 0, 10, { int: true }).default(1),
-    currentBandwidth_Hz: num('control.currentBandwidth_Hz', 0, 1e5, { gtMin: true }).optional(),
+    currentBandwidth_Hz: num('control.currentBandwidth_Hz', 1e-3, 1e5).optional(),
     currentKp: num('control.currentKp', 0, 1e6, { gtMin: true }).optional(),
     currentKi: num('control.currentKi', 0, 1e10, { gtMin: true }).optional(),
-    speedBandwidth_Hz: num('control.speedBandwidth_Hz', 0, 1e4, { gtMin: true }).optional(),
+    speedBandwidth_Hz: num('control.speedBandwidth_Hz', 1e-3, 1e4).optional(),
     speedKp: num('control.speedKp', 0, 1e6, { gtMin: true }).optional(),
     speedKi: num('control.speedKi', 0, 1e9, { gtMin: true }).optional(),
     speedTuning: z
