@@ -10,7 +10,7 @@ import { newDraft, normalisePath, type Json } from './draft';
 import { FormContext, FormStore } from './form-store';
 import { useAfterPaint } from './after-paint';
 import { InputPanel } from './InputPanel';
-import { computeEnvelopes, computeVerdicts, DEFAULT_ENVELOPE_OPTIONS, type EnvelopeOptions, type EnvelopeResults, type Results, type Verdicts } from './compute';
+import { computeEnvelopes, computeVerdicts, pointVerdict, DEFAULT_ENVELOPE_OPTIONS, type EnvelopeOptions, type EnvelopeResults, type Results, type Verdicts } from './compute';
 import { fileBridge } from './file-bridge';
 import { EnvelopeView } from './EnvelopeView';
 import { LoadStepsView } from './LoadStepsView';
@@ -427,9 +427,13 @@ function otherIssues(issues: Record<string, string>): string {
 
 function requirementMarks(r: Results | null) {
   if (!r) return [];
-  return r.sizing.points.map((pt, i) => (
-    <span key={i} className={pt.met ? 'pass' : 'fail'} data-testid={`req-mark-${i}`} title={pt.met ? 'met' : `not met (${pt.limitedBy})`}>
-      {pt.met ? 'pass' : 'fail'}
-    </span>
-  ));
+  return r.sizing.points.map((pt, i) => {
+    const v = pointVerdict(r, i);
+    const why = v.fails === 'cold' ? `not met with the cold magnet (${r.sizingCold.points[i]!.limitedBy})` : `not met (${pt.limitedBy}${v.fails === 'both' ? ', hot and cold' : ', hot magnet'})`;
+    return (
+      <span key={i} className={v.met ? 'pass' : 'fail'} data-testid={`req-mark-${i}`} title={v.met ? 'met, hot and cold' : why}>
+        {v.met ? 'pass' : 'fail'}
+      </span>
+    );
+  });
 }

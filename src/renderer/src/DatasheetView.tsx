@@ -5,7 +5,7 @@ import Plotly from 'plotly.js-dist-min';
 import { RAD_S_TO_RPM, SQRT2 } from '../../core/units';
 import type { Finding } from '../../core/types';
 import { Plot } from './Plot';
-import type { Results } from './compute';
+import { pointVerdict, type Results } from './compute';
 import { torqueSpeedFigure } from './EnvelopeView';
 import { envelopeCsv } from './exports';
 import { dataUrlToBytes, fileBridge, svgDataUrlToText } from './file-bridge';
@@ -130,42 +130,53 @@ export const DatasheetView = memo(function DatasheetView({ results, theme }: { r
         </div>
       </div>
       <div className="card">
-        <h4>Sizing verdict per requirement (hot corner, peak current)</h4>
-        <table className="data" data-testid="verdicts">
-          <thead>
-            <tr>
-              <th>point</th>
-              <th className="num">speed</th>
-              <th className="num">torque asked</th>
-              <th className="num">torque available</th>
-              <th className="num">current</th>
-              <th className="num">current headroom</th>
-              <th className="num">voltage</th>
-              <th className="num">voltage headroom</th>
-              <th>limited by</th>
-              <th>verdict</th>
-            </tr>
-          </thead>
-          <tbody>
-            {results.sizing.points.map((pt, i) => (
-              <tr key={i} data-testid={`verdict-${i}`}>
-                <td>{pt.label}</td>
-                <td className="num">{num(pt.speed_rpm)} rpm</td>
-                <td className="num">{num(pt.torque_Nm)} N·m</td>
-                <td className="num">{num(pt.torqueAvailable_Nm)} N·m</td>
-                <td className="num">
-                  {num(pt.current_A)} A peak<br />
-                  {num(pt.current_A / SQRT2)} A rms
-                </td>
-                <td className="num">{fixed(pt.currentHeadroom_A, 1)} A peak</td>
-                <td className="num">{num(pt.voltage_V)} V peak</td>
-                <td className="num">{fixed(pt.voltageHeadroom_V, 1)} V</td>
-                <td>{pt.limitedBy}</td>
-                <td className={pt.met ? 'pass' : 'fail'}>{pt.met ? 'met' : 'NOT met'}</td>
+        <h4>Sizing verdict per requirement (peak current; figures for the hot magnet, verdicts hot and cold)</h4>
+        <div className="table-scroll">
+          <table className="data compact" data-testid="verdicts">
+            <thead>
+              <tr>
+                <th>point</th>
+                <th className="num">speed</th>
+                <th className="num">torque asked</th>
+                <th className="num">available</th>
+                <th className="num">current</th>
+                <th className="num">current headroom</th>
+                <th className="num">voltage</th>
+                <th className="num">voltage headroom</th>
+                <th>limited by</th>
+                <th>hot</th>
+                <th>cold</th>
               </tr>
-            ))}
-          </tbody>
-        </table>
+            </thead>
+            <tbody>
+              {results.sizing.points.map((pt, i) => {
+                const cold = results.sizingCold.points[i];
+                const v = pointVerdict(results, i);
+                return (
+                  <tr key={i} data-testid={`verdict-${i}`} data-met={v.met ? 'yes' : 'no'}>
+                    <td>{pt.label}</td>
+                    <td className="num">{num(pt.speed_rpm)} rpm</td>
+                    <td className="num">{num(pt.torque_Nm)} N·m</td>
+                    <td className="num">{num(pt.torqueAvailable_Nm)} N·m</td>
+                    <td className="num">
+                      {num(pt.current_A)} A pk<br />
+                      {num(pt.current_A / SQRT2)} A rms
+                    </td>
+                    <td className="num">{fixed(pt.currentHeadroom_A, 1)} A pk</td>
+                    {/* a point out of reach has no operating voltage: what the solver reports there is the need, not a state */}
+                    <td className="num" title={pt.met ? undefined : 'not reachable: no operating voltage'}>{pt.met ? `${num(pt.voltage_V)} V pk` : '–'}</td>
+                    <td className="num">{pt.met ? `${fixed(pt.voltageHeadroom_V, 1)} V` : '–'}</td>
+                    <td>{pt.limitedBy}</td>
+                    <td className={pt.met ? 'pass' : 'fail'}>{pt.met ? 'met' : 'NOT met'}</td>
+                    <td className={cold?.met ? 'pass' : 'fail'} title={cold && !cold.met ? `cold magnet: ${cold.limitedBy}, ${num(cold.torqueAvailable_Nm)} N·m available` : undefined}>
+                      {cold?.met ? 'met' : 'NOT met'}
+                    </td>
+                  </tr>
+                );
+              })}
+            </tbody>
+          </table>
+        </div>
         <div className="hint" style={{ fontSize: 12 }}>
           Speeds mechanical; currents peak phase (amplitude-invariant dq) with rms beside; voltages peak phase. Plot spans 0 to {Math.round(results.speedMax * RAD_S_TO_RPM)} rpm.
         </div>

@@ -8,7 +8,7 @@ import { constantTorqueIq, mtpaCurrentForTorque } from '../../core/mtpa';
 import { RAD_S_TO_RPM, RPM_TO_RAD_S, SQRT2 } from '../../core/units';
 import type { OperatingPoint } from '../../core/types';
 import { axis, baseLayout, CURVE, Plot, readTheme, REGION_FILL } from './Plot';
-import { planeCurves, type Curve, type EnvelopeOptions, type Results } from './compute';
+import { planeCurves, pointVerdict, type Curve, type EnvelopeOptions, type Results } from './compute';
 import { envelopeCsv } from './exports';
 import { fileBridge, dataUrlToBytes, svgDataUrlToText } from './file-bridge';
 import { num } from './format';
@@ -86,14 +86,14 @@ export function torqueSpeedFigure(r: Results, theme: 'light' | 'dark', show: Sho
   const req = r.project.requirements;
   const pts = r.sizing.points;
   for (const met of [true, false]) {
-    const idx = req.map((_, i) => i).filter((i) => (pts[i]?.met ?? false) === met);
+    const idx = req.map((_, i) => i).filter((i) => pointVerdict(r, i).met === met);
     if (!idx.length) continue;
     data.push({
       type: 'scatter',
       mode: 'markers+text',
       x: idx.map((i) => req[i]!.speed_rpm),
       y: idx.map((i) => req[i]!.torque_Nm),
-      text: idx.map((i) => req[i]!.label),
+      text: idx.map((i) => { const f = pointVerdict(r, i).fails; return f === 'cold' || f === 'hot' ? `${req[i]!.label} (fails ${f})` : req[i]!.label; }),
       // labels kept off the envelope lines: a met point lies inside the envelope (label beside it,
       // at its own torque), a missed one outside (label further out, away from zero torque)
       textposition: idx.map((i) => {

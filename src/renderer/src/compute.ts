@@ -49,7 +49,10 @@ export const curveKey = (c: Corner, i: CurrentKind, d: Direction): string => `${
 export interface Verdicts {
   /** the project these verdicts belong to (may lag the curves by one redraw) */
   verdictsFor: ResolvedProject;
+  /** hot corner (least torque per ampere) */
   sizing: SizingResult;
+  /** cold corner (most back-EMF: voltage-limited points fail here first) */
+  sizingCold: SizingResult;
   safety: SafetyReport;
   /** the speed the safety figures are for: the motor's rated maximum speed, else the plotted top speed, rad/s */
   safetySpeed: number;
@@ -58,13 +61,21 @@ export interface Verdicts {
 
 export type Results = EnvelopeResults & Verdicts;
 
+/** A requirement point met in both corners (hot and cold), and which corner fails it otherwise. */
+export function pointVerdict(v: Pick<Verdicts, 'sizing' | 'sizingCold'>, i: number): { met: boolean; fails: 'hot' | 'cold' | 'both' | null } {
+  const hot = v.sizing.points[i]?.met ?? false;
+  const cold = v.sizingCold.points[i]?.met ?? false;
+  return { met: hot && cold, fails: hot && cold ? null : !hot && !cold ? 'both' : hot ? 'cold' : 'hot' };
+}
+
 export function computeVerdicts(p: ResolvedProject, speedMax: number): Verdicts {
   const t0 = performance.now();
   const sizing = sizeDrive(p.hot, p.inverter, p.requirements);
+  const sizingCold = sizeDrive(p.cold, p.inverter, p.requirements);
   // the motor's maximum speed when the file gives one, else the plotted top speed
   const safetySpeed = p.rated.maxSpeed_rad_s ?? speedMax;
   const safety = safetyReport(p.cold, p.inverter, safetySpeed);
-  return { verdictsFor: p, sizing, safety, safetySpeed, verdict_ms: performance.now() - t0 };
+  return { verdictsFor: p, sizing, sizingCold, safety, safetySpeed, verdict_ms: performance.now() - t0 };
 }
 
 export function computeResults(p: ResolvedProject, opts: EnvelopeOptions): Results {
