@@ -477,7 +477,7 @@ export function runSimulation(setup: SimulationSetup, opts: RunOptions = {}): Si
         swingSide = side;
         swingAt = t0;
         if (swings >= SWING_LIMIT) {
-          diagnostic = `diverged at t = ${t0.toPrecision(6)} s: the speed loop oscillates (the torque reference swung between the motoring and the generating limit ${swings} times, each within ${SWING_GAP_S} s of the last); state speed = ${(y[OMEGA]! * RAD_S_TO_RPM).toPrecision(6)} rpm, reference ${(ctrl.speedRefOut * RAD_S_TO_RPM).toPrecision(6)} rpm (lower the speed gains, or check the inertia)`;
+          diagnostic = `diverged at t = ${t0.toPrecision(6)} s: the speed loop oscillates (the torque reference swung between the motoring and the generating limit ${swings} times, each within ${SWING_GAP_S} s of the last); state id = ${y[I_D]!.toPrecision(6)} A, iq = ${y[I_Q]!.toPrecision(6)} A, speed = ${(y[OMEGA]! * RAD_S_TO_RPM).toPrecision(6)} rpm, reference ${(ctrl.speedRefOut * RAD_S_TO_RPM).toPrecision(6)} rpm (lower the speed gains, or check the inertia)`;
           events.push({ kind: 'divergence', t_s: t0, message: diagnostic });
           stopped = true;
           k++;
