@@ -91,6 +91,29 @@ describe('resolveProject', () => {
     expect(resolveProject(parseProject(k)).findings.map((f) => f.code)).toEqual(['rated-current-above-icont']);
   });
 
+  it('an inverter current above the motor peak current is a demagnetisation caution on inverter.Imax', () => {
+    // traction demo: the motor's peak is 318 A rms = 449.7 A peak, the inverter 450 A peak (within 1 %)
+    const ok = resolveProject(parseProject(demoJson('demo-ipm-traction')));
+    expect(ok.findings.some((f) => f.code === 'imax-above-motor-peak')).toBe(false);
+    const j = demoJson('demo-ipm-traction');
+    j.inverter.Imax = 600;
+    const f = resolveProject(parseProject(j)).findings.find((x) => x.code === 'imax-above-motor-peak');
+    expect(f?.severity).toBe('danger');
+    expect(f?.field).toBe('inverter.Imax');
+    expect(f?.message).toMatch(/600 A peak \(424.3 A rms\) is above the motor.s peak current 449.7 A peak \(318 A rms\).*demagnetising/);
+  });
+
+  it('a missing cold-corner temperature is taken as 20 °C and said so', () => {
+    const j = demoJson('demo-spm-48v');
+    delete j.conditions.coldTemp_C;
+    const rp = resolveProject(parseProject(j));
+    expect(rp.conditions.coldTemp_C).toBe(20);
+    expect(rp.findings.find((f) => f.code === 'cold-corner-assumed')?.field).toBe('conditions.coldTemp_C');
+    // at 20 °C the cold machine is the 20 °C machine (common practice (no source): no correction at the reference temperature)
+    expect(rp.cold.psiM).toBeCloseTo(rp.machine20.psiM, 12);
+    expect(resolveProject(parseProject(demoJson('demo-spm-48v'))).findings.some((f) => f.code === 'cold-corner-assumed')).toBe(false);
+  });
+
   it('rated point outside the voltage is a finding', () => {
     const j = demoJson('demo-ipm-traction');
     j.inverter.Vdc = 120;

@@ -21,7 +21,7 @@ describe('parseProject', () => {
     expect(p.inverter.voltageUtilization).toBe(1);
     expect(p.inverter.deviceDrop).toBe(0);
     expect(p.conditions.magnetTemp_C).toBe(20);
-    expect(p.conditions.coldTemp_C).toBe(20);
+    expect(p.conditions.coldTemp_C).toBeUndefined(); // resolved to 20 °C with a finding (project.test)
     expect(p.conditions.magnetTempCoeff).toBe(-0.0012);
     expect(p.motor?.viscousFriction).toBe(0);
     expect(p.motor?.coulombFriction).toBe(0);

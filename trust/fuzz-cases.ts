@@ -49,7 +49,7 @@ export type Outcome =
 
 // ---------------------------------------------------------------- values
 
-const NASTY_NUMBERS = [0, -0, -1, -1e-300, 1e-300, 5e-324, 1e-12, 1e300, 1.7e308, -1.7e308, 1e6, 1e9, 2 ** 53 + 1, 0.5, 3, NaN, Infinity, -Infinity];
+const NASTY_NUMBERS = [0, -0, -1, -1e-300, 1e-300, 5e-324, 1e-310, 2.2e-308, 1e-12, 1e300, 1.7e308, -1.7e308, 1e6, 1e9, 2 ** 53 + 1, 0.5, 3, NaN, Infinity, -Infinity];
 
 /** A value that may replace any node: wrong types, non-finite and extreme numbers, long text, deep nesting. */
 export const nastyValue: fc.Arbitrary<unknown> = fc.oneof(
@@ -98,7 +98,7 @@ export type Mutation =
 
 export const mutation: fc.Arbitrary<Mutation> = fc.oneof(
   { weight: 5, arbitrary: fc.record({ op: fc.constant('set' as const), pick: fc.nat(), value: nastyValue }) },
-  { weight: 4, arbitrary: fc.record({ op: fc.constant('scale' as const), pick: fc.nat(), factor: fc.constantFrom(0, -1, 1e-9, 1e-3, 0.1, 0.5, 2, 10, 1e3, 1e9, 1e300) }) },
+  { weight: 4, arbitrary: fc.record({ op: fc.constant('scale' as const), pick: fc.nat(), factor: fc.constantFrom(0, -1, 5e-324, 1e-300, 1e-9, 1e-3, 0.1, 0.5, 2, 10, 1e3, 1e9, 1e300) }) },
   { weight: 2, arbitrary: fc.record({ op: fc.constant('delete' as const), pick: fc.nat() }) },
   { weight: 1, arbitrary: fc.record({ op: fc.constant('unknown-key' as const), pick: fc.nat(), key: fc.oneof(fc.string({ maxLength: 12 }), fc.constant('__proto__'), fc.constant('constructor'), fc.constant('k'.repeat(50_000))), value: nastyValue }) },
   { weight: 1, arbitrary: fc.record({ op: fc.constant('drop-section' as const), section: fc.constantFrom('motor', 'nameplate', 'inverter', 'conditions', 'requirements', 'control', 'scenario', 'format', 'version') }) },

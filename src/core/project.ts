@@ -112,13 +112,16 @@ export function loadProjectText(source: string): ResolvedProject {
   return m.readOnly ? { ...rp, readOnly: true } : rp;
 }
 
+/** The cold corner's temperature when the file gives none, °C (said as a finding). */
+export const DEFAULT_COLD_TEMP_C = 20;
+
 /** A validated project file -> machine hot and cold, limits, findings. */
 export function resolveProject(file: ProjectFile): ResolvedProject {
   const c = file.conditions;
   const conditions: Conditions = {
     windingTemp_C: c.windingTemp_C,
     magnetTemp_C: c.magnetTemp_C,
-    coldTemp_C: c.coldTemp_C,
+    coldTemp_C: c.coldTemp_C ?? DEFAULT_COLD_TEMP_C,
     magnetTempCoeff: c.magnetTempCoeff,
   };
   let machine20: DqMachine;
@@ -147,7 +150,13 @@ export function resolveProject(file: ProjectFile): ResolvedProject {
   const peak = driveLimits(inverter, 'peak');
   const continuous = driveLimits(inverter, 'continuous');
   const hot = machineAt(machine20, c.windingTemp_C, c.magnetTemp_C, c.magnetTempCoeff);
-  const cold = machineAt(machine20, c.coldTemp_C, c.coldTemp_C, c.magnetTempCoeff);
+  const cold = machineAt(machine20, conditions.coldTemp_C, conditions.coldTemp_C, c.magnetTempCoeff);
+  if (c.coldTemp_C === undefined) {
+    findings.push({
+      code: 'cold-corner-assumed', severity: 'info', field: 'conditions.coldTemp_C',
+      message: `No cold-corner temperature given: the cold corner (strongest magnet, highest back-EMF) is taken at ${DEFAULT_COLD_TEMP_C} °C. A colder start raises the back-EMF further; give the coldest ambient the drive must start in.`,
+    });
+  }
 
   findings.push(...ratedFindings(rated, hot, inverter, peak));
   findings.push(...oddMachineFindings(file.motor ? 'motor' : 'nameplate', machine20, hot, mechanics, peak, file.requirements));
@@ -190,6 +199,18 @@ function ratedFindings(rated: RatedData, hot: DqMachine, inv: InverterSpec, peak
         message: `The motor's rated current ${amps(rated.current_A)} is above the inverter's continuous current ${amps(inv.Icont)}: rated torque is available only for short periods.`,
       });
     }
+  }
+  // the inverter can drive more current than the motor is rated for: a demagnetisation risk
+  // (allowing 1 % for rounding between an rms datasheet figure and a peak inverter rating)
+  if (rated.peakCurrent_A !== undefined && inv.Imax > 1.01 * rated.peakCurrent_A) {
+    out.push({
+      code: 'imax-above-motor-peak',
+      severity: 'danger',
+      field: 'inverter.Imax',
+      message: `The inverter's peak current ${amps(inv.Imax)} is above the motor's peak current ${amps(rated.peakCurrent_A)}: ` +
+        'current beyond the motor rating, above all negative d-axis current in field weakening at a hot magnet, risks demagnetising the magnets for good. ' +
+        "Limit inverter.Imax to the motor's peak current, or confirm the magnets' demagnetisation limit with the motor's maker.",
+    });
   }
   if (rated.speed_rad_s !== undefined && rated.torque_Nm !== undefined) {
     const op = solveOperatingPoint(hot, peak, rated.speed_rad_s, rated.torque_Nm);

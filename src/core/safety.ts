@@ -30,6 +30,8 @@ export interface SafetyReport {
 
 const rpm = (w: number) => `${Math.round(radSToRpm(w))} rpm`;
 
+const amps = (x: number): string => `${x.toFixed(1)} A peak (${(x / Math.SQRT2).toFixed(1)} A rms)`;
+
 export function safetyReport(cold: DqMachine, inverter: InverterSpec, maxSpeed_rad_s: number): SafetyReport {
   assertMachine(cold);
   if (!(Number.isFinite(maxSpeed_rad_s) && maxSpeed_rad_s >= 0)) throw new InputError('maxSpeed', 'must be >= 0 rad/s');
@@ -51,20 +53,20 @@ export function safetyReport(cold: DqMachine, inverter: InverterSpec, maxSpeed_r
   }
   if (wUcg !== null) {
     findings.push({
-      code: 'uncontrolled-generator-speed', severity: exceeds ? 'danger' : 'info',
+      code: 'uncontrolled-generator-speed', severity: exceeds ? 'danger' : 'info', field: 'inverter.Vdc',
       message: `Above ${rpm(wUcg)} the cold-magnet back-EMF exceeds the bus (uncontrolled generator if gating stops).`,
     });
   }
   if (cold.psiM > 0 && ich < inverter.Imax) {
     findings.push({
       code: 'field-weakening-trip-braking', severity: 'warning', field: 'inverter.Imax',
-      message: `The characteristic current psiM/Ld = ${ich.toFixed(1)} A is below Imax = ${inverter.Imax.toFixed(1)} A: the drive field-weakens deep, ` +
+      message: `The characteristic current psiM/Ld of the cold magnet, ${amps(ich)}, is below Imax = ${amps(inverter.Imax)}: the drive field-weakens deep, ` +
         'and a trip there leaves a braking current (into the bus through the diodes, or about psiM/Ld in a short circuit).',
     });
   } else if (cold.psiM > 0) {
     findings.push({
       code: 'short-circuit-current-above-imax', severity: 'warning', field: 'inverter.Imax',
-      message: `The characteristic current psiM/Ld = ${ich.toFixed(1)} A is above Imax = ${inverter.Imax.toFixed(1)} A: a short-circuit safe state at speed would exceed the inverter's peak current.`,
+      message: `The characteristic current psiM/Ld of the cold magnet, ${amps(ich)}, is above Imax = ${amps(inverter.Imax)}: a short-circuit safe state at speed would exceed the inverter's peak current.`,
     });
   }
   return {

@@ -78,7 +78,7 @@ export const KEYS: Readonly<Record<string, { unit: string; doc: string }>> = {
   conditions: { unit: '', doc: 'temperatures' },
   'conditions.windingTemp_C': { unit: '°C', doc: 'winding temperature, hot corner' },
   'conditions.magnetTemp_C': { unit: '°C', doc: 'magnet temperature, hot corner, default 20' },
-  'conditions.coldTemp_C': { unit: '°C', doc: 'winding and magnet temperature, cold corner, default 20' },
+  'conditions.coldTemp_C': { unit: '°C', doc: 'winding and magnet temperature, cold corner (highest back-EMF), 20 when not given (with a finding)' },
   'conditions.magnetTempCoeff': { unit: '/K', doc: 'remanence coefficient, -0.003..0.001, default -0.0012 (sintered NdFeB; SmCo about -0.0004)' },
 
   requirements: { unit: '', doc: 'operating points to meet' },
@@ -226,8 +226,8 @@ const nameplateSchema = z
 const inverterSchema = z
   .strictObject({
     Vdc: num('inverter.Vdc', 0, 1e5, { gtMin: true }),
-    Imax: num('inverter.Imax', 0, 1e6, { gtMin: true }),
-    Icont: num('inverter.Icont', 0, 1e6, { gtMin: true }),
+    Imax: num('inverter.Imax', 1e-6, 1e6),
+    Icont: num('inverter.Icont', 1e-6, 1e6),
     modulation: z.enum(['sinusoidal', 'svpwm', 'six-step']),
     voltageUtilization: num('inverter.voltageUtilization', 1e-3, 1).default(1),
     deviceDrop: num('inverter.deviceDrop', 0, 1e3).default(0),
@@ -243,7 +243,7 @@ const conditionsSchema = z
   .strictObject({
     windingTemp_C: num('conditions.windingTemp_C', T_MIN, T_MAX),
     magnetTemp_C: num('conditions.magnetTemp_C', T_MIN, T_MAX).default(20),
-    coldTemp_C: num('conditions.coldTemp_C', T_MIN, T_MAX).default(20),
+    coldTemp_C: num('conditions.coldTemp_C', T_MIN, T_MAX).optional(), // 20 °C when absent, said as a finding
     magnetTempCoeff: num('conditions.magnetTempCoeff', -0.003, 0.001).default(-0.0012),
   })
   .describe(doc('conditions'));
@@ -292,14 +292,16 @@ const controlSchema = z
   })
   .describe('the drive controller');
 
+/** most steps or ramps in one list of a scenario (a test scenario has a handful) */
+const MAX_EVENTS = 1000;
 const stepT = (path: string) => num(path, 0, 1e5);
 const scenarioSchema = z
   .strictObject({
     duration_s: num('scenario.duration_s', 0, 3600, { gtMin: true }),
     initialSpeed_rpm: num('scenario.initialSpeed_rpm', -1e6, 1e6).default(0),
-    speedSteps: z.array(z.strictObject({ t_s: stepT('scenario.speedSteps[].t_s'), speed_rpm: num('scenario.speedSteps[].speed_rpm', -1e6, 1e6) })).default([]),
-    torqueSteps: z.array(z.strictObject({ t_s: stepT('scenario.torqueSteps[].t_s'), torque_Nm: num('scenario.torqueSteps[].torque_Nm', -1e6, 1e6) })).default([]),
-    loadSteps: z.array(z.strictObject({ t_s: stepT('scenario.loadSteps[].t_s'), torque_Nm: num('scenario.loadSteps[].torque_Nm', -1e6, 1e6) })).default([]),
+    speedSteps: z.array(z.strictObject({ t_s: stepT('scenario.speedSteps[].t_s'), speed_rpm: num('scenario.speedSteps[].speed_rpm', -1e6, 1e6) })).max(MAX_EVENTS).default([]),
+    torqueSteps: z.array(z.strictObject({ t_s: stepT('scenario.torqueSteps[].t_s'), torque_Nm: num('scenario.torqueSteps[].torque_Nm', -1e6, 1e6) })).max(MAX_EVENTS).default([]),
+    loadSteps: z.array(z.strictObject({ t_s: stepT('scenario.loadSteps[].t_s'), torque_Nm: num('scenario.loadSteps[].torque_Nm', -1e6, 1e6) })).max(MAX_EVENTS).default([]),
     loadRamps: z
       .array(
         z.strictObject({
@@ -308,6 +310,7 @@ const scenarioSchema = z
           torque_Nm: num('scenario.loadRamps[].torque_Nm', -1e6, 1e6),
         }),
       )
+      .max(MAX_EVENTS)
       .default([]),
     loadModel: z.strictObject({ kind: z.literal('quadratic'), k: num('scenario.loadModel.k', 0, 1e6) }).optional(),
     loadInertia: num('scenario.loadInertia', 0, 1e5).default(0),
