@@ -50,8 +50,8 @@ describe('cli --json documents', () => {
     const doc = JSON.parse(r.out);
     expect(doc.points).toHaveLength(50);
     for (const q of doc.points) {
-      expect(Object.keys(q).sort()).toEqual(['current_A', 'id_A', 'iq_A', 'power_W', 'region', 'speed_rpm', 'torque_Nm', 'voltage_V']);
-      expect(['mtpa', 'field-weakening', 'mtpv']).toContain(q.region);
+      expect(Object.keys(q).sort()).toEqual(['current_A', 'feasible', 'id_A', 'iq_A', 'power_W', 'region', 'speed_rpm', 'torque_Nm', 'voltage_V']);
+      expect(q.feasible ? ['mtpa', 'field-weakening', 'mtpv'] : ['beyond-max-speed']).toContain(q.region);
     }
     // lossless SPM electrical base speed omega_b = Vmax / sqrt(psiM² + (L Imax)²)
     // (Soong and Miller, 1994, Field-weakening performance of brushless synchronous AC motor drives)
@@ -81,7 +81,11 @@ describe('cli --json documents', () => {
     expect(doc.minImax_A).toBeCloseTo(2 / (1.5 * 3 * 0.05), 6); // MTPA current of the only point
     expect(doc.minVdc_V).toBeGreaterThan(0);
     expect(doc.points[0]).toMatchObject({ label: 'a', met: true });
-    expect(Object.keys(doc.points[0]).sort()).toEqual(['current_A', 'label', 'limitedBy', 'met', 'torqueAvailable_Nm', 'voltage_V']);
+    // the same keys in both corners, headrooms included
+    const keys = ['current_A', 'currentHeadroom_A', 'label', 'limitedBy', 'met', 'speed_rpm', 'torqueAvailable_Nm', 'torque_Nm', 'voltageHeadroom_V', 'voltage_V'];
+    expect(Object.keys(doc.points[0]).sort()).toEqual([...keys].sort());
+    expect(Object.keys(doc.cold.points[0]).sort()).toEqual([...keys].sort());
+    expect(doc.points[0].currentHeadroom_A).toBeCloseTo(30 - 2 / (1.5 * 3 * 0.05), 6); // Imax minus the MTPA current
   });
 
   it('params: model, corners and findings', async () => {
@@ -114,6 +118,19 @@ describe('cli --json documents', () => {
     const tune = JSON.parse((await run('tune', demo('servo-axis'), '--json')).out);
     expect(tune.current.Kp).toBeGreaterThan(0);
     expect(tune.speed.phaseMargin_deg).toBeGreaterThan(30);
+  });
+
+  it('points past the maximum speed are marked, not labelled MTPV', async () => {
+    // servo demo: maximum speed about 12 880 rpm at the hot corner; plotted to 20 000 rpm
+    const env = JSON.parse((await run('envelope', demo('servo-axis'), '--speed-max', '20000', '--points', '51', '--json')).out);
+    const first = env.points[0];
+    const last = env.points[env.points.length - 1];
+    expect(first.feasible).toBe(true);
+    expect(first.region).toBe('mtpa');
+    expect(last.feasible).toBe(false);
+    expect(last.region).toBe('beyond-max-speed');
+    expect(last.torque_Nm).toBe(0);
+    for (const q of env.points) expect(q.feasible).toBe(q.speed_rpm <= env.maxSpeed_rpm * (1 + 1e-9));
   });
 
   it('--csv writes the envelope table', async () => {

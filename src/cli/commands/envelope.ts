@@ -17,7 +17,9 @@ export function envelopeJson(env: Envelope) {
       iq_A: env.iq[k]!,
       current_A: env.current[k]!,
       voltage_V: env.voltage[k]!,
-      region: env.region[k]!,
+      // past the maximum speed no current gives motoring torque within the bus: no region then
+      feasible: env.feasible[k] === 1,
+      region: regionAt(env, k),
     });
   }
   return {
@@ -29,13 +31,18 @@ export function envelopeJson(env: Envelope) {
   };
 }
 
+/** The region of point k, or 'beyond-max-speed' where no motoring torque exists (open circuit shown). */
+export function regionAt(env: Envelope, k: number): string {
+  return env.feasible[k] === 1 ? env.region[k]! : 'beyond-max-speed';
+}
+
 export function envelopeCsv(env: Envelope): string {
   const lines = ['speed_rpm,torque_Nm,power_W,id_A,iq_A,current_A_peak,current_A_rms,voltage_V_peak_phase,region'];
   for (let k = 0; k < env.speed.length; k++) {
     lines.push(
       [radSToRpm(env.speed[k]!), env.torque[k]!, env.power[k]!, env.id[k]!, env.iq[k]!, env.current[k]!, peakToRms(env.current[k]!), env.voltage[k]!]
         .map((x) => Number(x.toPrecision(10)))
-        .join(',') + `,${env.region[k]}`,
+        .join(',') + `,${regionAt(env, k)}`,
     );
   }
   return lines.join('\n') + '\n';

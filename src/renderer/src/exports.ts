@@ -28,7 +28,7 @@ export function envelopeCsv(r: Results): string {
           g(e.current[k]!),
           g(e.current[k]! / SQRT2),
           g(e.voltage[k]!),
-          e.feasible[k] ? e.region[k] : 'none',
+          e.feasible[k] ? e.region[k] : 'beyond-max-speed',
         ].join(','),
       );
     }
