@@ -166,7 +166,7 @@ describe('Torquewise in a browser', () => {
     const good = await page.inputValue(input(path));
     await page.fill(input(path), '-0.3e-3');
     const msg = await page.waitForSelector(`.inputs [data-msg-for="${path}"]`);
-    expect(await msg.textContent()).toContain('must be > 0 H');
+    expect(await msg.textContent()).toContain('must be >= 1e-9 H');
     expect(await page.inputValue(input(path))).toBe('-0.3e-3');
     expect(await page.textContent('[data-testid="status"]')).toContain('showing the last valid project');
     await page.fill(input(path), '0.3 mH');
@@ -190,6 +190,8 @@ describe('Torquewise in a browser', () => {
 
   it('exports an envelope CSV whose numbers match the engine', async () => {
     const [download] = await Promise.all([page.waitForEvent('download'), page.click('[data-testid="export-csv"]')]);
+    // the export says how it went on the status line
+    await page.waitForFunction(() => document.querySelector('[data-testid="status"]')?.textContent === 'Exported envelope.csv.');
     const file = join(SHOTS, 'envelope.csv');
     await download.saveAs(file);
     const text = readFileSync(file, 'utf8');

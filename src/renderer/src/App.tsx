@@ -11,7 +11,7 @@ import { FormContext, FormStore } from './form-store';
 import { useAfterPaint } from './after-paint';
 import { InputPanel } from './InputPanel';
 import { computeEnvelopes, computeVerdicts, pointVerdict, DEFAULT_ENVELOPE_OPTIONS, type EnvelopeOptions, type EnvelopeResults, type Results, type Verdicts } from './compute';
-import { fileBridge } from './file-bridge';
+import { exportAndTell, fileBridge, setExportNotifier } from './file-bridge';
 import { EnvelopeView } from './EnvelopeView';
 import { LoadStepsView } from './LoadStepsView';
 import { TuningView } from './TuningView';
@@ -27,6 +27,9 @@ const VIEWS: Array<[View, string]> = [
   ['tuning', 'Tuning'],
   ['datasheet', 'Datasheet'],
 ];
+
+/** How long a successful export's notice stays on the status line, ms (a failure stays until replaced). */
+const EXPORT_NOTICE_MS = 8000;
 
 /** Wait after the last keystroke of a burst before recomputing, ms. */
 export const EDIT_DEBOUNCE_MS = 25;
@@ -137,6 +140,19 @@ export function App() {
   const [envOpts, setEnvOpts] = useState<EnvelopeOptions>(DEFAULT_ENVELOPE_OPTIONS);
   const [view, setView] = useState<View>('envelope');
   const [notice, setNotice] = useState<string | null>(null);
+  // every export says on the status line how it went
+  useEffect(() => {
+    let timer: ReturnType<typeof setTimeout> | null = null;
+    setExportNotifier((message, done) => {
+      setNotice(message);
+      if (timer) clearTimeout(timer);
+      timer = done ? setTimeout(() => setNotice((cur) => (cur === message ? null : cur)), EXPORT_NOTICE_MS) : null;
+    });
+    return () => {
+      setExportNotifier(null);
+      if (timer) clearTimeout(timer);
+    };
+  }, []);
   const [computeError, setComputeError] = useState<string | null>(null);
 
   // the window title names the file and marks unsaved edits; leaving with unsaved edits asks first
@@ -304,11 +320,11 @@ export function App() {
         void doSave(true);
         break;
       case 'export:envelope-csv':
-        if (results) void bridge.export('envelope-csv', envelopeCsv(results), 'envelope.csv');
+        if (results) void exportAndTell('envelope-csv', () => envelopeCsv(results), 'envelope.csv');
         break;
       case 'export:traces-csv': {
         const sim = lastSimulation();
-        if (sim) void bridge.export('traces-csv', tracesCsv(sim.traces), 'traces.csv');
+        if (sim) void exportAndTell('traces-csv', () => tracesCsv(sim.traces), 'traces.csv');
         else setNotice('Run a load-step test first: there are no traces to export.');
         break;
       }

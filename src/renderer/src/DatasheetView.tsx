@@ -1,16 +1,15 @@
 // Datasheet view: summary table, sizing verdict per requirement, cautions, the envelope plot;
 // export PNG/SVG/CSV and a print layout.
 import { memo, useMemo, useRef } from 'react';
-import Plotly from 'plotly.js-dist-min';
 import { RAD_S_TO_RPM, SQRT2 } from '../../core/units';
 import type { Finding } from '../../core/types';
 import { Plot } from './Plot';
 import { pointVerdict, type Results } from './compute';
 import { torqueSpeedFigure } from './EnvelopeView';
 import { envelopeCsv } from './exports';
-import { dataUrlToBytes, fileBridge, svgDataUrlToText } from './file-bridge';
+import { exportAndTell } from './file-bridge';
 import { amps, fixed, num, rpm } from './format';
-import { exportDatasheetHtml } from './image-export';
+import { exportDatasheetHtml, exportPlotImage } from './image-export';
 
 function peakOf(a: Float64Array, feasible: Uint8Array): number {
   let best = 0;
@@ -67,9 +66,7 @@ export const DatasheetView = memo(function DatasheetView({ results, theme }: { r
   const s = results.safety;
   const exportImage = async (format: 'png' | 'svg') => {
     if (!plotEl.current) return;
-    const url = await Plotly.toImage(plotEl.current, { format, width: 1200, height: 700, scale: format === 'png' ? 2 : 1 });
-    if (format === 'png') await fileBridge().export('plot-png', dataUrlToBytes(url), 'datasheet-envelope.png');
-    else await fileBridge().export('plot-svg', svgDataUrlToText(url), 'datasheet-envelope.svg');
+    await exportPlotImage(plotEl.current, format, 'datasheet-envelope');
   };
   const rows: Array<[string, string]> = [
     ['pole pairs', `${p.hot.polePairs} (${2 * p.hot.polePairs} poles)`],
@@ -101,7 +98,7 @@ export const DatasheetView = memo(function DatasheetView({ results, theme }: { r
         <button className="btn" onClick={() => window.print()} data-testid="print">Print…</button>
         <button className="btn" onClick={() => void exportImage('png')}>Plot PNG</button>
         <button className="btn" onClick={() => void exportImage('svg')}>Plot SVG</button>
-        <button className="btn" onClick={() => void fileBridge().export('envelope-csv', envelopeCsv(results), 'envelope.csv')}>Envelope CSV</button>
+        <button className="btn" onClick={() => void exportAndTell('envelope-csv', () => envelopeCsv(results), 'envelope.csv')}>Envelope CSV</button>
         <button className="btn" data-testid="export-datasheet" onClick={() => void exportDatasheetHtml()}>Datasheet HTML</button>
       </div>
       <div className="sheet-head">

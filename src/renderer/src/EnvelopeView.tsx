@@ -1,7 +1,6 @@
 // Envelope view: torque-speed and power-speed (peak and continuous, motoring and generating, hot and
 // cold), requirement points, region bands, base and maximum speed; beside it the current plane.
 import { memo, useCallback, useMemo, useRef, useState } from 'react';
-import Plotly from 'plotly.js-dist-min';
 import type { Data, Layout } from 'plotly.js-dist-min';
 import { solveOperatingPoint } from '../../core/operating-point';
 import { constantTorqueIq, mtpaCurrentForTorque } from '../../core/mtpa';
@@ -10,7 +9,8 @@ import type { OperatingPoint } from '../../core/types';
 import { axis, baseLayout, CURVE, Plot, readTheme, REGION_FILL } from './Plot';
 import { planeCurves, pointVerdict, type Curve, type EnvelopeOptions, type Results } from './compute';
 import { envelopeCsv } from './exports';
-import { fileBridge, dataUrlToBytes, svgDataUrlToText } from './file-bridge';
+import { exportAndTell } from './file-bridge';
+import { exportPlotImage } from './image-export';
 import { num } from './format';
 import { Cautions } from './DatasheetView';
 import { useAfterPaint } from './after-paint';
@@ -421,10 +421,7 @@ export const EnvelopeView = memo(function EnvelopeView({ results, opts, setOpts,
 
   const exportImage = async (format: 'png' | 'svg') => {
     if (!envEl.current) return;
-    const url = await Plotly.toImage(envEl.current, { format, width: 1200, height: 800, scale: format === 'png' ? 2 : 1 });
-    const b = fileBridge();
-    if (format === 'png') await b.export('plot-png', dataUrlToBytes(url), 'envelope.png');
-    else await b.export('plot-svg', svgDataUrlToText(url), 'envelope.svg');
+    await exportPlotImage(envEl.current, format, 'envelope');
   };
 
   const toggle = (k: keyof Show) => setShow((s) => ({ ...s, [k]: !s[k] }));
@@ -466,7 +463,7 @@ export const EnvelopeView = memo(function EnvelopeView({ results, opts, setOpts,
         <span className="spacer" style={{ flex: 1 }} />
         <button className="btn small" onClick={() => void exportImage('png')} data-testid="export-png">PNG</button>
         <button className="btn small" onClick={() => void exportImage('svg')} data-testid="export-svg">SVG</button>
-        <button className="btn small" data-testid="export-csv" onClick={() => void fileBridge().export('envelope-csv', envelopeCsv(results), 'envelope.csv')}>
+        <button className="btn small" data-testid="export-csv" onClick={() => void exportAndTell('envelope-csv', () => envelopeCsv(results), 'envelope.csv')}>
           CSV
         </button>
       </div>

@@ -9,7 +9,7 @@ import { axis, baseLayout, CURVE, Plot, readTheme } from './Plot';
 import { ControlFields, ScenarioFields } from './InputPanel';
 import { Section } from './Inputs';
 import type { SimEvent, SimReply, SimRequest } from './sim-protocol';
-import { fileBridge } from './file-bridge';
+import { exportAndTell } from './file-bridge';
 import { tracesCsv } from './exports';
 import { num } from './format';
 
@@ -196,7 +196,7 @@ export const LoadStepsView = memo(function LoadStepsView({ project, theme, stale
           {stale && <span className="fail">Correct the marked inputs first.</span>}
           <span style={{ flex: 1 }} />
           {result && (
-            <button className="btn small" onClick={() => void fileBridge().export('traces-csv', tracesCsv(result.traces), 'traces.csv')}>
+            <button className="btn small" onClick={() => void exportAndTell('traces-csv', () => tracesCsv(result.traces), 'traces.csv')}>
               Traces CSV
             </button>
           )}

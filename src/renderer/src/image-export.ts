@@ -1,7 +1,7 @@
 // Plot images through plotly's image API, and the datasheet as one self-contained HTML file.
 import Plotly from 'plotly.js-dist-min';
 import css from './styles.css?raw';
-import { dataUrlToBytes, fileBridge, svgDataUrlToText } from './file-bridge';
+import { dataUrlToBytes, exportAndTell, svgDataUrlToText, tell } from './file-bridge';
 
 const PLOTS = ['envelope-plot', 'datasheet-plot', 'traces-plot', 'bode-plot', 'plane-plot'];
 
@@ -9,11 +9,17 @@ const PLOTS = ['envelope-plot', 'datasheet-plot', 'traces-plot', 'bode-plot', 'p
 export async function exportVisiblePlot(format: 'png' | 'svg'): Promise<boolean> {
   const el = PLOTS.map((id) => document.querySelector<HTMLElement>(`[data-testid="${id}"]`)).find((e) => e !== null);
   if (!el) return false;
-  const url = await Plotly.toImage(el, { format, width: 1200, height: 800, scale: format === 'png' ? 2 : 1 });
   const name = (el.dataset.testid ?? 'plot').replace('-plot', '');
-  if (format === 'png') await fileBridge().export('plot-png', dataUrlToBytes(url), `${name}.png`);
-  else await fileBridge().export('plot-svg', svgDataUrlToText(url), `${name}.svg`);
+  await exportPlotImage(el, format, name);
   return true;
+}
+
+/** A plot element as a PNG or SVG file named `name`, through plotly's image API; says how it went. */
+export function exportPlotImage(el: HTMLElement, format: 'png' | 'svg', name: string): Promise<boolean> {
+  const image = () => Plotly.toImage(el, { format, width: 1200, height: 800, scale: format === 'png' ? 2 : 1 });
+  return format === 'png'
+    ? exportAndTell('plot-png', async () => dataUrlToBytes(await image()), `${name}.png`)
+    : exportAndTell('plot-svg', async () => svgDataUrlToText(await image()), `${name}.svg`);
 }
 
 const escape = (s: string): string => s.replace(/&/g, '&amp;').replace(/</g, '&lt;').replace(/>/g, '&gt;');
@@ -41,7 +47,13 @@ export async function exportDatasheetHtml(): Promise<boolean> {
   const view = document.querySelector<HTMLElement>('[data-testid="view-datasheet"]');
   const plot = document.querySelector<HTMLElement>('[data-testid="datasheet-plot"]');
   if (!view || !plot) return false;
-  const svg = svgDataUrlToText(await Plotly.toImage(plot, { format: 'svg', width: 900, height: 520 }));
+  let svg: string;
+  try {
+    svg = svgDataUrlToText(await Plotly.toImage(plot, { format: 'svg', width: 900, height: 520 }));
+  } catch (e) {
+    tell(`The datasheet could not be exported: the plot image failed (${e instanceof Error ? e.message : String(e)}). Nothing was written.`);
+    return true; // said already
+  }
   const copy = view.cloneNode(true) as HTMLElement;
   copy.querySelectorAll('.no-print, .toolbar').forEach((n) => n.remove());
   const slot = copy.querySelector('[data-testid="datasheet-plot"]');
@@ -54,6 +66,5 @@ export async function exportDatasheetHtml(): Promise<boolean> {
   }
   const title = escape(document.querySelector('.sheet-head h2')?.textContent ?? 'Torquewise datasheet');
   const html = `<!doctype html><html lang="en"><head><meta charset="utf-8"><title>${title}</title><style>${css}</style></head><body data-theme="light"><div class="view">${copy.outerHTML}</div></body></html>`;
-  await fileBridge().export('datasheet', html, 'datasheet.html');
-  return true;
+  return exportAndTell('datasheet', () => html, 'datasheet.html');
 }
