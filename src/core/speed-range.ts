@@ -2,6 +2,23 @@ import type { ResolvedProject } from './project';
 import { computeEnvelope } from './envelope';
 import { RPM_TO_RAD_S } from './units';
 
+/** Highest top speed a plot or an envelope is drawn to, rpm (the CLI's --speed-max and the app's 'plot to'). */
+export const PLOT_SPEED_MAX_RPM = 1e6;
+
+/**
+ * A typed top speed for plotting: a number in rpm within (0, PLOT_SPEED_MAX_RPM], blank for the
+ * project's own range (null), or the message saying what is allowed.
+ */
+export function parsePlotTop(text: string): { rpm: number | null } | { message: string } {
+  const t = text.trim();
+  if (t === '') return { rpm: null };
+  const v = /^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/.test(t) ? Number(t) : NaN;
+  if (!Number.isFinite(v)) return { message: `must be a number in rpm (got '${t}'), or blank for the project's range` };
+  if (!(v > 0)) return { message: 'must be > 0 rpm' };
+  if (v > PLOT_SPEED_MAX_RPM) return { message: `must be <= ${PLOT_SPEED_MAX_RPM} rpm` };
+  return { rpm: v };
+}
+
 /**
  * The speeds a project's results are drawn and checked over, one rule for every screen and the CLI:
  * - `speedMax`: the engine's range for the hot, peak-current, motoring envelope (just past its

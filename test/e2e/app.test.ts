@@ -122,6 +122,12 @@ describe('Torquewise in a browser', () => {
     expect(back[0]!).toBeCloseTo(full[0]!, 6);
     expect(back[1]!).toBeCloseTo(full[1]!, 6);
     expect(await xRange('power-plot')).toEqual(back);
+    // an absurd top speed is refused beside the field; the plot keeps its range
+    await page.fill('[data-testid="speed-max"]', '1e9');
+    expect(await page.textContent('[data-testid="speed-max-msg"]')).toBe('plot to must be <= 1000000 rpm');
+    expect(await xRange('envelope-plot')).toEqual(back);
+    await page.fill('[data-testid="speed-max"]', '');
+    expect(await page.$('[data-testid="speed-max-msg"]')).toBeNull();
   });
 
   it('raises the base speed when Vdc is raised, and times edit-to-redraw', async () => {

@@ -1,6 +1,6 @@
 import type { Command } from '../command';
 import { computeEnvelope, type Envelope } from '../../core/envelope';
-import { projectSpeedRange } from '../../core/speed-range';
+import { PLOT_SPEED_MAX_RPM, projectSpeedRange } from '../../core/speed-range';
 import { numberFlag, stringFlag } from '../args';
 import { table, fmt } from '../table';
 import { peakToRms, radSToRpm, rpmToRadS } from '../../core/units';
@@ -54,7 +54,7 @@ export const envelopeCommand: Command = {
   usage: 'envelope <project.json> [--speed-max RPM] [--points N] [--csv FILE] [--json]',
   flags: { 'speed-max': 'number', points: 'number', csv: 'string' },
   run(p, args) {
-    const speedMax = numberFlag(args, 'speed-max', { min: 1, max: 1e6, unit: 'rpm' });
+    const speedMax = numberFlag(args, 'speed-max', { min: 1, max: PLOT_SPEED_MAX_RPM, unit: 'rpm' });
     const points = numberFlag(args, 'points', { min: 2, max: 100000, integer: true });
     // Without --speed-max: the project's range (requirements, the motor's maximum speed).
     const env = computeEnvelope(p.hot, p.peak, {

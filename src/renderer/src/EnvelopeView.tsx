@@ -5,6 +5,7 @@ import type { Data, Layout } from 'plotly.js-dist-min';
 import { solveOperatingPoint } from '../../core/operating-point';
 import { constantTorqueIq, mtpaCurrentForTorque } from '../../core/mtpa';
 import { RAD_S_TO_RPM, RPM_TO_RAD_S, SQRT2 } from '../../core/units';
+import { parsePlotTop } from '../../core/speed-range';
 import type { OperatingPoint } from '../../core/types';
 import { axis, baseLayout, CURVE, Plot, readTheme, REGION_FILL } from './Plot';
 import { planeCurves, pointVerdict, type Curve, type EnvelopeOptions, type Results } from './compute';
@@ -355,6 +356,8 @@ export const EnvelopeView = memo(function EnvelopeView({ results, opts, setOpts,
   const [speedText, setSpeedText] = useState<string | null>(null);
   const [op, setOp] = useState<OperatingPoint | null>(null);
   const [topText, setTopText] = useState('');
+  const topParsed = parsePlotTop(topText);
+  const topMsg = 'message' in topParsed ? topParsed.message : null;
   const envEl = useRef<HTMLDivElement | null>(null);
   // the torque plot follows each edit at once; the power plot and the current plane are built and
   // drawn after that frame is painted
@@ -450,15 +453,19 @@ export const EnvelopeView = memo(function EnvelopeView({ results, opts, setOpts,
             size={7}
             data-testid="speed-max"
             value={topText}
+            className={topMsg ? 'invalid' : undefined}
+            aria-invalid={topMsg ? true : undefined}
             placeholder={String(Math.round(results.speedMax * RAD_S_TO_RPM))}
             onChange={(e) => {
               setTopText(e.target.value);
+              const r = parsePlotTop(e.target.value);
+              if ('message' in r) return; // the typed text stays, the plot keeps its last valid top
               setXRange(null); // a new top speed shows the whole range again
-              const v = Number(e.target.value);
-              setOpts({ ...opts, speedMax: e.target.value.trim() !== '' && Number.isFinite(v) && v > 0 ? v * RPM_TO_RAD_S : null });
+              setOpts({ ...opts, speedMax: r.rpm === null ? null : r.rpm * RPM_TO_RAD_S });
             }}
           />{' '}
           rpm
+          {topMsg && <span className="msg" data-testid="speed-max-msg">plot to {topMsg}</span>}
         </label>
         <span className="spacer" style={{ flex: 1 }} />
         <button className="btn small" onClick={() => void exportImage('png')} data-testid="export-png">PNG</button>
