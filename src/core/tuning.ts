@@ -205,6 +205,9 @@ export function bandwidthSpeedGains(J: number, omega_s: number): { Kp: number; K
   return { Kp, Ki: (Kp * omega_s) / 4 };
 }
 
+/** A frequency for a message: whole hertz from 100 Hz up, else 3 significant digits (never 1.06e+4). */
+const hz = (f: number): string => (Math.abs(f) >= 100 ? f.toFixed(0) : f.toPrecision(3));
+
 export function tuneLoops(inp: TuningInput): TuningReport {
   const m = inp.machine;
   if (!(inp.fCtrl_Hz > 0)) throw new InputError('control.fCtrl_Hz', 'must be > 0 Hz');
@@ -274,7 +277,7 @@ export function tuneLoops(inp: TuningInput): TuningReport {
       code: 'current-bandwidth-high',
       severity: 'warning',
       field: 'control.currentBandwidth_Hz',
-      message: `current bandwidth ${fcMax.toPrecision(3)} Hz exceeds fCtrl/10 = ${(inp.fCtrl_Hz / 10).toPrecision(3)} Hz (common practice): the sample delay erodes the phase margin`,
+      message: `current bandwidth ${hz(fcMax)} Hz exceeds fCtrl/10 = ${hz(inp.fCtrl_Hz / 10)} Hz (common practice): the sample delay erodes the phase margin`,
     });
   }
   if ('bandwidth_Hz' in inp.current && m.Rs === 0) {
@@ -303,7 +306,7 @@ export function tuneLoops(inp: TuningInput): TuningReport {
     ['speed', 'control.speedTuning', speed],
   ] as const) {
     if (r && r.crossover_Hz !== null && r.crossover_Hz > fNyq) {
-      warnings.push({ code: 'crossover-above-nyquist', severity: 'danger', field, message: `${name} loop crossover ${r.crossover_Hz.toPrecision(3)} Hz is above half the control rate (${fNyq.toPrecision(3)} Hz): the sampled loop cannot be designed there; lower the gains or raise control.fCtrl_Hz` });
+      warnings.push({ code: 'crossover-above-nyquist', severity: 'danger', field, message: `${name} loop crossover ${hz(r.crossover_Hz)} Hz is above half the control rate (${hz(fNyq)} Hz): the sampled loop cannot be designed there; lower the gains or raise control.fCtrl_Hz` });
     }
   }
   if (speed.crossover_Hz !== null && speed.crossover_Hz > designQ / 2) {
@@ -311,7 +314,7 @@ export function tuneLoops(inp: TuningInput): TuningReport {
       code: 'speed-bandwidth-high',
       severity: 'warning',
       field: 'control.speedBandwidth_Hz',
-      message: `speed crossover ${speed.crossover_Hz.toPrecision(3)} Hz is above half the current bandwidth (${designQ.toPrecision(3)} Hz): the loops interact (common practice)`,
+      message: `speed crossover ${hz(speed.crossover_Hz)} Hz is above half the current bandwidth (${hz(designQ)} Hz): the loops interact (common practice)`,
     });
   }
   return { current, ...(currentQ ? { currentQ } : {}), speed, speedLagEquivalent_s: Tsigma, currentDelay_s: Td, warnings };

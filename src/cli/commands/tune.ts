@@ -41,7 +41,7 @@ export const tuneCommand: Command = {
       '',
       table(
         ['loop', 'Kp', 'Kp unit', 'Ki', 'Ki unit', 'design Hz', 'crossover Hz', 'bandwidth -3 dB Hz', 'phase margin deg', 'gain margin dB'],
-        loops.map(([name, l, ku, kiu]) => [name, fmt(l.Kp), ku, fmt(l.Ki), kiu, fmt(l.design_Hz), orDash(l.crossover_Hz), orDash(l.bandwidth_Hz), orDash(l.phaseMargin_deg), orDash(l.gainMargin_dB)]),
+        loops.map(([name, l, ku, kiu]) => [name, fmt(l.Kp), ku, fmt(l.Ki), kiu, fmt(l.design_Hz), orDash(l.crossover_Hz), l.phaseMargin_deg !== null && l.phaseMargin_deg <= 0 ? '- (unstable)' : orDash(l.bandwidth_Hz), orDash(l.phaseMargin_deg), orDash(l.gainMargin_dB)]),
       ),
       '',
       r.warnings.length === 0 ? 'warnings: none' : ['warnings:', ...r.warnings.map((w) => `  ${w.severity}: ${w.message}`)].join('\n'),

@@ -126,7 +126,7 @@ export const TuningView = memo(function TuningView({ project, theme }: { project
                       ['Kp', (l: Loop) => `${num(l.rep.Kp)} ${l.kpUnit}`],
                       ['Ki', (l: Loop) => `${num(l.rep.Ki)} ${l.kiUnit}`],
                       ['aimed bandwidth', (l: Loop) => `${num(l.rep.design_Hz)} Hz`],
-                      ['closed-loop bandwidth (−3 dB)', (l: Loop) => (l.rep.bandwidth_Hz === null ? '–' : `${num(l.rep.bandwidth_Hz)} Hz`)],
+                      ['closed-loop bandwidth (−3 dB)', (l: Loop) => (l.rep.phaseMargin_deg !== null && l.rep.phaseMargin_deg <= 0 ? '– (unstable)' : l.rep.bandwidth_Hz === null ? '–' : `${num(l.rep.bandwidth_Hz)} Hz`)],
                       ['gain crossover', (l: Loop) => (l.rep.crossover_Hz === null ? '–' : `${num(l.rep.crossover_Hz)} Hz`)],
                       ['phase margin', (l: Loop) => (l.rep.phaseMargin_deg === null ? '–' : `${num(l.rep.phaseMargin_deg, 3)}°`)],
                       ['gain margin', (l: Loop) => (l.rep.gainMargin_dB === null ? '–' : `${num(l.rep.gainMargin_dB, 3)} dB`)],
