@@ -50,6 +50,27 @@ describe('response metrics on synthetic signals', () => {
     expect(r.recovery_s!).toBeCloseTo(lo * T, 5);
   });
 
+  it('a load step met by an unsettled loop is not measured; a settled one is, in both forms', () => {
+    // common practice (no source): a disturbance response is read from a settled operating point
+    const t = grid(2001, 1e-4);
+    const ref = t.map(() => 1000);
+    // still 100 rpm short of the reference when the load comes at 0.1 s, then slowly closing in
+    const late = t.map((x) => 900 + 80 * Math.min(1, x / 0.2));
+    const a = loadStepResponse(t, ref, late, t.length, 0.1, Infinity, undefined, 1);
+    expect(a).toEqual({ dip: null, recovery_s: null, errorAtStep: 60, settled: false });
+    expect(loadStepResponse(t, ref, late, t.length, 0.1, Infinity).settled).toBe(true); // no floor: always measured
+    const lt = new LoadStepTracker(0.1, Infinity, undefined, 16, 1);
+    for (let i = 0; i < t.length; i++) lt.push(t[i]!, ref[i]!, late[i]!);
+    expect(lt.result()).toEqual(a);
+    // settled within 2 % at the step: measured as before
+    const ok = t.map((x) => (x < 0.1 ? 999 : 1000 - 10 * Math.exp(-(x - 0.1) / 0.01)));
+    const b = loadStepResponse(t, ref, ok, t.length, 0.1, Infinity, undefined, 1);
+    expect(b.dip!).toBeCloseTo(10, 9);
+    expect(b.errorAtStep).toBeCloseTo(10, 9);
+    // without a floor every step is measured (the default)
+    expect(loadStepResponse(t, ref, late, t.length, 0.1, Infinity).dip!).toBeCloseTo(60, 9);
+  });
+
   it('steady-state error averages the last window', () => {
     const t = grid(1001, 1e-3);
     const ref = t.map(() => 10);

@@ -243,6 +243,32 @@ describe('cascade simulator behaviour', () => {
     expect(rampedReference(0, steps, 200, 2)).toBeCloseTo(20, 12);
   });
 
+  it('measures each load step, and leaves one met before the speed settled unmeasured, saying why', () => {
+    const servo = demo('demo-servo-axis');
+    // two load steps after the speed step has settled: both measured, the first gives the keys
+    const two = proj({ ...servo, scenario: { ...servo.scenario, duration_s: 0.15, loadSteps: [{ t_s: 0.05, torque_Nm: 2 }, { t_s: 0.1, torque_Nm: 4 }] } });
+    const s2 = simulationFromProject(two);
+    const r2 = runSimulation(s2, FULL);
+    expect(r2.loadSteps.map((l) => l.t_s)).toEqual([0.05, 0.1]);
+    for (const l of r2.loadSteps) {
+      expect(l.settled).toBe(true);
+      expect(l.dip_rpm!).toBeGreaterThan(0);
+    }
+    expect(r2.metrics.loadStepDip_rpm).toBe(r2.loadSteps[0]!.dip_rpm);
+    // each equals the array form on the full-rate traces, over its own window (common practice (no source))
+    const tr = r2.traces;
+    const n = tr.t_s.length;
+    expect(r2.loadSteps[1]!.dip_rpm!).toBeCloseTo(loadStepResponse(tr.t_s, tr.speedRef_rpm, tr.speed_rpm, n, 0.1, Infinity, undefined, 1).dip!, 9);
+    // a load step 1 ms after the speed step: the speed is far from its reference, nothing is measured
+    const early = proj({ ...servo, scenario: { ...servo.scenario, loadSteps: [{ t_s: 0.006, torque_Nm: 2 }] } });
+    const se = simulationFromProject(early);
+    const re = runSimulation(se);
+    expect(re.loadSteps[0]!.settled).toBe(false);
+    expect(re.loadSteps[0]!.errorAtStep_rpm!).toBeGreaterThan(100);
+    expect(re.metrics.loadStepDip_rpm).toBeNull();
+    expect(simulationFindings(re, se).some((f) => f.code === 'load-step-unsettled')).toBe(true);
+  });
+
   it('says the speed reference was not reached when the run ends short of it', () => {
     const servo = demo('demo-servo-axis');
     // a thousand times the inertia: the step cannot complete within the run

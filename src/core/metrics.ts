@@ -72,18 +72,36 @@ export function stepResponse(
 export interface LoadStepMetrics {
   dip: number | null;
   recovery_s: number | null;
+  /** |ref - y| at the first sample at or after the step (null without samples) */
+  errorAtStep: number | null;
+  /** the loop was settled at the step (always true with the default settledFloor) */
+  settled: boolean;
+}
+
+/**
+ * A load step is measured only from a settled loop: the error at the step within this fraction of
+ * the reference (and within `settledFloor`, in y's units, near zero reference). Otherwise the
+ * error left over from an earlier step would be counted as dip; dip and recovery are then null.
+ * `settledFloor` = Infinity (the default) measures every step as it is.
+ */
+export const SETTLED_FRACTION = 0.02;
+
+function unsettled(e0: number, yRef0: number, settledFloor: number): boolean {
+  return e0 > Math.max(SETTLED_FRACTION * Math.abs(yRef0), settledFloor);
 }
 
 export function loadStepResponse(
   t: ArrayLike<number>, yRef: ArrayLike<number>, y: ArrayLike<number>, n: number,
-  tStep: number, tEnd: number, recoveryFraction = DEFAULT_RECOVERY_FRACTION,
+  tStep: number, tEnd: number, recoveryFraction = DEFAULT_RECOVERY_FRACTION, settledFloor = Infinity,
 ): LoadStepMetrics {
   const i0 = firstIndexAtOrAfter(t, n, tStep);
   const i1 = firstIndexAtOrAfter(t, n, tEnd);
-  if (i1 - i0 < 2) return { dip: null, recovery_s: null };
+  const errorAtStep = i0 < i1 ? Math.abs(yRef[i0]! - y[i0]!) : null;
+  const settled = errorAtStep === null || !unsettled(errorAtStep, yRef[i0]!, settledFloor);
+  if (i1 - i0 < 2 || !settled) return { dip: null, recovery_s: null, errorAtStep, settled };
   let dip = 0;
   for (let i = i0; i < i1; i++) dip = Math.max(dip, Math.abs(yRef[i]! - y[i]!));
-  if (!Number.isFinite(dip)) return { dip: null, recovery_s: null };
+  if (!Number.isFinite(dip)) return { dip: null, recovery_s: null, errorAtStep, settled };
   const bandAbs = Math.max(recoveryFraction * dip, 1e-12);
   let lastOut = -1;
   for (let i = i0; i < i1; i++) if (Math.abs(yRef[i]! - y[i]!) > bandAbs) lastOut = i;
@@ -91,7 +109,7 @@ export function loadStepResponse(
   if (lastOut === i1 - 1) recovery_s = null;
   else if (lastOut < 0) recovery_s = 0;
   else recovery_s = t[lastOut + 1]! - tStep;
-  return { dip, recovery_s };
+  return { dip, recovery_s, errorAtStep, settled };
 }
 
 export function steadyStateError(t: ArrayLike<number>, ref: ArrayLike<number>, y: ArrayLike<number>, n: number, window: number): number | null {
@@ -180,8 +198,10 @@ export class LoadStepTracker {
   /** time of the sample after each candidate (NaN while it is the latest sample) */
   private next: Float64Array;
   private lastPushed = false;
+  private e0 = NaN;
+  private ref0 = NaN;
 
-  constructor(private readonly tStep: number, private readonly tEnd: number, private readonly recoveryFraction = DEFAULT_RECOVERY_FRACTION, initialCapacity = 1024) {
+  constructor(readonly tStep: number, readonly tEnd: number, private readonly recoveryFraction = DEFAULT_RECOVERY_FRACTION, initialCapacity = 1024, private readonly settledFloor = Infinity) {
     this.val = new Float64Array(Math.max(16, initialCapacity));
     this.next = new Float64Array(this.val.length);
   }
@@ -194,6 +214,10 @@ export class LoadStepTracker {
   push(t: number, yRef: number, y: number): void {
     if (!(t >= this.tStep) || !(t < this.tEnd)) return;
     const e = Math.abs(yRef - y);
+    if (this.n === 0) {
+      this.e0 = e;
+      this.ref0 = yRef;
+    }
     if (this.lastPushed) this.next[this.top - 1] = t;
     this.n++;
     this.dip = Math.max(this.dip, e);
@@ -220,7 +244,9 @@ export class LoadStepTracker {
   }
 
   result(): LoadStepMetrics {
-    if (this.n < 2 || !Number.isFinite(this.dip)) return { dip: null, recovery_s: null };
+    const errorAtStep = this.n > 0 ? this.e0 : null;
+    const settled = this.n === 0 || !unsettled(this.e0, this.ref0, this.settledFloor);
+    if (this.n < 2 || !settled || !Number.isFinite(this.dip)) return { dip: null, recovery_s: null, errorAtStep, settled };
     const bandAbs = Math.max(this.recoveryFraction * this.dip, 1e-12);
     let k = this.top - 1;
     while (k >= 0 && !(this.val[k]! > bandAbs)) k--;
@@ -228,7 +254,7 @@ export class LoadStepTracker {
     if (k < 0) recovery_s = 0;
     else if (Number.isNaN(this.next[k]!)) recovery_s = null;
     else recovery_s = this.next[k]! - this.tStep;
-    return { dip: this.dip, recovery_s };
+    return { dip: this.dip, recovery_s, errorAtStep, settled };
   }
 }
 

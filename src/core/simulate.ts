@@ -174,8 +174,24 @@ export interface SimulationStats {
   wall_s: number;
 }
 
+/** One load event's disturbance response (speed mode): dip and recovery, or null when the loop had not settled at it. */
+export interface LoadStepResult {
+  t_s: number;
+  dip_rpm: number | null;
+  recovery_s: number | null;
+  /** |speed reference - speed| when the load came, rpm */
+  errorAtStep_rpm: number | null;
+  /** the speed was within 2 % of the reference (at least 1 rpm) when the load came */
+  settled: boolean;
+}
+
+/** A load step is read only from a settled speed: within SETTLED_FRACTION of the reference, and at least this, rpm. */
+const SETTLED_FLOOR_RPM = 1;
+
 export interface SimulationResult {
   metrics: SimulationMetrics;
+  /** every load step and ramp start, in time order (the metrics' loadStep* keys are the first) */
+  loadSteps: LoadStepResult[];
   traces: Traces;
   events: SimulationEvent[];
   stats: SimulationStats;
@@ -318,7 +334,9 @@ export function runSimulation(setup: SimulationSetup, opts: RunOptions = {}): Si
   const stepTrk = speedMode && s0Mark
     ? new StepResponseTracker(s0Mark.t, nextAfter(s0Mark.t), scheduleBefore(marks.speedSteps, s0Mark.t, setup.initialSpeed_rad_s) * RAD_S_TO_RPM, s0Mark.v * RAD_S_TO_RPM)
     : null;
-  const loadTrk = speedMode && l0Mark !== undefined ? new LoadStepTracker(l0Mark, nextAfter(l0Mark)) : null;
+  // one tracker per load event; their windows [t, next event) do not overlap, so only the current one is fed
+  const loadTrks = speedMode ? marks.loadEvents.map((t) => new LoadStepTracker(t, nextAfter(t), undefined, 64, SETTLED_FLOOR_RPM)) : [];
+  let loadAt = 0;
   // the steady-state window is 5 % of the run (or 2 periods): the ring holds a little more
   const sseTrk = speedMode ? new SteadyStateTracker(Math.ceil(0.05 * cap) + 8) : null;
   // the last recorded sample [t, speed rpm, id, iq] (a typed array: a double captured by the
@@ -425,7 +443,8 @@ export function runSimulation(setup: SimulationSetup, opts: RunOptions = {}): Si
     dec.push(t, row);
     msmp[0] = t; msmp[1] = wr; msmp[2] = wRpm;
     if (stepTrk) stepTrk.take(msmp);
-    if (loadTrk) loadTrk.take(msmp);
+    while (loadAt < loadTrks.length && !(t < loadTrks[loadAt]!.tEnd)) loadAt++;
+    if (loadAt < loadTrks.length) loadTrks[loadAt]!.take(msmp);
     if (sseTrk) sseTrk.take(msmp);
     last[0] = t; last[1] = wRpm; last[2] = id; last[3] = iq;
   };
@@ -590,9 +609,9 @@ export function runSimulation(setup: SimulationSetup, opts: RunOptions = {}): Si
       const r = stepTrk.result();
       rise = r.riseTime_s; over = r.overshoot_pct; settle = r.settlingTime_s;
     }
-    if (loadTrk) {
-      const r = loadTrk.result();
-      dip = r.dip; recov = r.recovery_s;
+    const r0 = loadTrks[0]?.result();
+    if (r0) {
+      dip = r0.dip; recov = r0.recovery_s;
     }
     sse = sseTrk!.result(Math.max(0.05 * tLast, 2 * Ts));
   }
@@ -626,7 +645,17 @@ export function runSimulation(setup: SimulationSetup, opts: RunOptions = {}): Si
     evaluationsPerPeriod: median(hist),
     wall_s: Math.max(0, clock() - wall0),
   };
-  return { metrics, traces, events, stats, ...(diagnostic ? { diagnostic } : {}) };
+  const loadSteps: LoadStepResult[] = loadTrks.map((tr) => {
+    const r = tr.result();
+    return {
+      t_s: tr.tStep,
+      dip_rpm: finiteOrNull(r.dip),
+      recovery_s: finiteOrNull(r.recovery_s),
+      errorAtStep_rpm: finiteOrNull(r.errorAtStep),
+      settled: r.settled,
+    };
+  });
+  return { metrics, loadSteps, traces, events, stats, ...(diagnostic ? { diagnostic } : {}) };
 }
 
 function scheduleBefore(steps: Array<{ t: number; v: number }>, t: number, initial: number): number {
@@ -854,6 +883,12 @@ function scenarioFindings(p: ResolvedProject, f: ScenarioFacts): Finding[] {
 export function simulationFindings(r: SimulationResult, setup?: SimulationSetup): Finding[] {
   const out: Finding[] = [...(setup?.findings ?? []), ...(setup?.tuning?.warnings ?? [])];
   if (r.diagnostic) out.push({ code: 'simulation-stopped', severity: 'danger', message: r.diagnostic });
+  // load steps the loop met before it had settled: not measured, said why
+  for (const ls of r.loadSteps ?? []) {
+    if (!ls.settled && ls.errorAtStep_rpm !== null) {
+      out.push({ code: 'load-step-unsettled', severity: 'info', field: 'scenario.loadSteps', message: `the load at ${ls.t_s.toPrecision(4)} s came while the speed was still ${ls.errorAtStep_rpm.toPrecision(3)} rpm from its reference: its dip and recovery are not measured (start the load step after the speed has settled)` });
+    }
+  }
   // the speed reference not reached at the end of a speed-mode run
   const n = r.traces.t_s.length;
   if (!r.diagnostic && setup?.controller.mode === 'speed' && n > 0) {

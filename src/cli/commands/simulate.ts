@@ -20,6 +20,7 @@ export function simulationJson(r: SimulationResult, findings: Finding[] = []) {
   for (const k of TRACE_NAMES) traces[k] = Array.from(r.traces[k]);
   return {
     metrics,
+    loadSteps: r.loadSteps.map((l) => ({ ...l })),
     traces,
     events: r.events.map((e) => ({ ...e })),
     findings: findings.map((f) => ({ ...f })),
@@ -74,6 +75,13 @@ export const simulateCommand: Command = {
       table(['metric', 'value', 'unit'], rows),
       '',
     ];
+    if (r.loadSteps.length > 1 || r.loadSteps.some((l) => !l.settled)) {
+      lines.push('load steps (each from its time to the next event):');
+      lines.push(table(['at ms', 'dip rpm', 'recovery ms', 'error at step rpm'], r.loadSteps.map((l) => [
+        fmt(l.t_s * 1e3), l.settled ? orDash(l.dip_rpm) : 'not settled', orDash(l.recovery_s === null ? null : l.recovery_s * 1e3), orDash(l.errorAtStep_rpm),
+      ])));
+      lines.push('');
+    }
     if (r.events.length === 0) lines.push('events: none');
     else {
       lines.push('events:');

@@ -4,6 +4,7 @@ import { memo, useEffect, useMemo, useRef, useState } from 'react';
 import type { Data, Layout } from 'plotly.js-dist-min';
 import type { ResolvedProject } from '../../core/project';
 import type { Finding } from '../../core/types';
+import type { LoadStepResult } from '../../core/simulate';
 import { SQRT2 } from '../../core/units';
 import { axis, baseLayout, CURVE, Plot, readTheme } from './Plot';
 import { ControlFields, ScenarioFields } from './InputPanel';
@@ -20,6 +21,7 @@ export interface SimDone {
   stats: Record<string, unknown>;
   diagnostic: unknown;
   findings: Finding[];
+  loadSteps: LoadStepResult[];
   /** project name the run belongs to */
   project: string;
 }
@@ -140,7 +142,7 @@ export const LoadStepsView = memo(function LoadStepsView({ project, theme, stale
       const m = ev.data;
       if (m.kind === 'progress') setRun((r) => (r.kind === 'running' ? { ...r, fraction: m.fraction } : r));
       else if (m.kind === 'done') {
-        const done: SimDone = { metrics: m.metrics, traces: m.traces, events: m.events, stats: m.stats, diagnostic: m.diagnostic, findings: m.findings ?? [], project: project.name };
+        const done: SimDone = { metrics: m.metrics, traces: m.traces, events: m.events, stats: m.stats, diagnostic: m.diagnostic, findings: m.findings ?? [], loadSteps: m.loadSteps ?? [], project: project.name };
         kept = done;
         setResult(done);
         setRun({ kind: 'idle' });
@@ -237,6 +239,26 @@ export const LoadStepsView = memo(function LoadStepsView({ project, theme, stale
                     })}
                   </tbody>
                 </table>
+                {result.loadSteps.length > 1 && (
+                  <table className="data compact" data-testid="load-steps" style={{ marginTop: 8 }}>
+                    <thead>
+                      <tr>
+                        <th className="num">load at</th>
+                        <th className="num">speed dip</th>
+                        <th className="num">recovery (5 %)</th>
+                      </tr>
+                    </thead>
+                    <tbody>
+                      {result.loadSteps.map((l, i) => (
+                        <tr key={i}>
+                          <td className="num">{num(l.t_s * 1e3)} ms</td>
+                          <td className="num">{l.settled ? (l.dip_rpm === null ? '–' : `${num(l.dip_rpm)} rpm`) : 'not settled'}</td>
+                          <td className="num">{l.recovery_s === null ? '–' : `${num(l.recovery_s * 1e3)} ms`}</td>
+                        </tr>
+                      ))}
+                    </tbody>
+                  </table>
+                )}
               </div>
               <div className="card">
                 <h4>Events</h4>

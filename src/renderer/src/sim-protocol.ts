@@ -1,5 +1,6 @@
 // Messages between the window and the simulation worker.
 import type { Finding } from '../../core/types';
+import type { LoadStepResult } from '../../core/simulate';
 
 export interface SimRequest {
   /** the project file (already valid) */
@@ -19,6 +20,7 @@ export type SimReply =
   | {
       kind: 'done';
       metrics: Record<string, unknown>;
+      loadSteps: LoadStepResult[];
       traces: Record<string, Float64Array>;
       events: SimEvent[];
       stats: Record<string, unknown>;

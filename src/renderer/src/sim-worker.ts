@@ -36,6 +36,7 @@ self.onmessage = (ev: MessageEvent<SimRequest>) => {
       {
         kind: 'done',
         metrics: { ...result.metrics },
+        loadSteps: result.loadSteps,
         traces,
         events: result.events,
         stats: { ...result.stats },
