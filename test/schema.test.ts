@@ -42,6 +42,7 @@ describe('parseProject', () => {
       speedTuning: { method: 'symmetric-optimum', a: 2 },
       antiWindup: 'clamping',
       decoupling: true,
+      speedPrefilter: false,
       speedLoopDivider: 1,
     });
     expect(p.scenario?.initialSpeed_rpm).toBe(0);

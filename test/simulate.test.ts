@@ -88,6 +88,12 @@ describe('cascade simulator against outside references', () => {
     expect(raw.metrics.speedOvershoot_pct!).toBeLessThan(48);
     expect(pre.metrics.speedOvershoot_pct!).toBeLessThan(10);
     expect(raw.events.filter((e) => e.kind !== 'overspeed')).toEqual([]); // linear: no limit touched
+    // the same prefilter from the project file's control.speedPrefilter
+    const fromFile = spmServo(
+      { mode: 'speed', fCtrl_Hz: 10000, currentBandwidth_Hz: 800, speedTuning: { method: 'symmetric-optimum', a: 2 }, speedPrefilter: true },
+      { duration_s: 0.05, initialSpeed_rpm: 1000, speedSteps: [{ t_s: 0.005, speed_rpm: 1010 }], loadInertia: 0.0001 },
+    );
+    expect(runSimulation(simulationFromProject(fromFile), FULL).metrics.speedOvershoot_pct!).toBeCloseTo(pre.metrics.speedOvershoot_pct!, 9);
   });
 
   it('after a load step on a surface-PM motor iq settles at (T_load + B omega + T_c)/(1.5 p psiM)', () => {
@@ -289,6 +295,8 @@ describe('cascade simulator behaviour', () => {
     setup.tripCurrent_A = 10; // below the asked current
     const r = runSimulation(setup);
     expect(r.diagnostic).toMatch(/overcurrent trip 10\.00 A/);
+    // the peak current counts the state that tripped
+    expect(r.metrics.peakCurrent_A!).toBeGreaterThan(10);
     noNaN(r);
   });
 

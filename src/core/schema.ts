@@ -102,6 +102,7 @@ export const KEYS: Readonly<Record<string, { unit: string; doc: string }>> = {
   'control.speedTuning.a': { unit: '', doc: 'symmetric-optimum spacing a > 1, default 2' },
   'control.antiWindup': { unit: '', doc: '"clamping" or "back-calculation", default "clamping"' },
   'control.decoupling': { unit: '', doc: 'dq decoupling and back-EMF feed-forward, default true' },
+  'control.speedPrefilter': { unit: '', doc: 'first-order filter on the speed reference with the speed PI time constant Kp/Ki (tames the symmetric optimum overshoot), default false' },
   'control.speedRamp_rpm_per_s': { unit: 'rpm/s', doc: 'speed reference ramp limit; absent = none' },
   'control.speedLoopDivider': { unit: '', doc: 'speed loop runs every N current periods, default 1' },
 
@@ -273,6 +274,7 @@ const controlSchema = z
       .optional(),
     antiWindup: z.enum(['clamping', 'back-calculation']).default('clamping'),
     decoupling: z.boolean().default(true),
+    speedPrefilter: z.boolean().default(false),
     speedRamp_rpm_per_s: num('control.speedRamp_rpm_per_s', 0, 1e8, { gtMin: true }).optional(),
     speedLoopDivider: num('control.speedLoopDivider', 1, 1000, { int: true }).default(1),
   })

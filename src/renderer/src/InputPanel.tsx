@@ -337,6 +337,7 @@ export function ControlFields() {
         ]}
       />
       <BoolField path="control.decoupling" label="Decoupling + EMF feed-fwd" />
+      <BoolField path="control.speedPrefilter" label="Speed reference prefilter" />
       <NumField path="control.speedRamp_rpm_per_s" label="Speed ramp" unit="rpm/s" optional placeholder="none" />
       <NumField path="control.speedLoopDivider" label="Speed loop every" unit="periods" optional placeholder="1" />
     </>
