@@ -9,6 +9,14 @@ const COLD: DqMachine = { polePairs: 4, Rs: 0.015, Ld: 0.12e-3, Lq: 0.3e-3, psiM
 const INV: InverterSpec = { Vdc: 350, Imax: 400, Icont: 250, modulation: 'svpwm', voltageUtilization: 1, deviceDrop: 0 };
 
 describe('safety report', () => {
+  it('says when the speed checked is only the top of the plotted range', () => {
+    const w = rpmToRadS(12000);
+    const given = safetyReport(COLD, INV, w).findings.find((f) => f.code === 'back-emf-above-bus')!;
+    expect(given.message).not.toMatch(/No maximum speed is given/);
+    const guessed = safetyReport(COLD, INV, w, false).findings.find((f) => f.code === 'back-emf-above-bus')!;
+    expect(guessed.message).toMatch(/No maximum speed is given \(motor\.maxSpeed_rpm or nameplate\.maxSpeed_rpm\): 12000 rpm is only the top of the plotted range/);
+  });
+
   it('back-EMF, uncontrolled-generator speed and characteristic current by hand formula', () => {
     const w = rpmToRadS(12000);
     const r = safetyReport(COLD, INV, w);

@@ -8,7 +8,7 @@
  *     - the crossings of the current circle with the voltage boundary: |v(theta)|² - Vmax² along
  *       i = Imax (cos theta, sin theta) is a trigonometric polynomial of degree 2 (at most 4 roots),
  *       bracketed by 32 samples (and by a golden-section minimum where a pair of roots hides between
- *       samples) and refined by the Illinois method to 1e-15 rad, keeping the feasible end
+ *       samples) and refined by Newton's method safeguarded by bisection to 1e-15 rad, keeping the feasible end
  *       (region 'field-weakening');
  *     - the local maxima of torque along the voltage boundary (parametrised by the voltage angle),
  *       bracketed by 32 samples and refined by golden section, kept when inside the current circle

@@ -32,7 +32,11 @@ const rpm = (w: number) => `${Math.round(radSToRpm(w))} rpm`;
 
 const amps = (x: number): string => `${x.toFixed(1)} A peak (${(x / Math.SQRT2).toFixed(1)} A rms)`;
 
-export function safetyReport(cold: DqMachine, inverter: InverterSpec, maxSpeed_rad_s: number): SafetyReport {
+/**
+ * `speedGiven`: false when the file gives no maximum speed and `maxSpeed_rad_s` is only the top of
+ * the plotted range; the back-EMF finding then says so and asks for the motor's maximum speed.
+ */
+export function safetyReport(cold: DqMachine, inverter: InverterSpec, maxSpeed_rad_s: number, speedGiven = true): SafetyReport {
   assertMachine(cold);
   if (!(Number.isFinite(maxSpeed_rad_s) && maxSpeed_rad_s >= 0)) throw new InputError('maxSpeed', 'must be >= 0 rad/s');
   if (!(Number.isFinite(inverter.Vdc) && inverter.Vdc > 0)) throw new InputError('inverter.Vdc', 'must be > 0 V');
@@ -48,7 +52,8 @@ export function safetyReport(cold: DqMachine, inverter: InverterSpec, maxSpeed_r
     findings.push({
       code: 'back-emf-above-bus', severity: 'danger', field: 'inverter.Vdc',
       message: `At ${rpm(maxSpeed_rad_s)} the cold-magnet back-EMF is ${emf.toFixed(0)} V line-to-line peak, above the ${Vdc.toFixed(0)} V bus. ` +
-        'If gating stops, the diodes rectify it into the bus: uncontrolled braking and a rising bus voltage that can destroy the inverter and its capacitors.',
+        'If gating stops, the diodes rectify it into the bus: uncontrolled braking and a rising bus voltage that can destroy the inverter and its capacitors.' +
+        (speedGiven ? '' : ` No maximum speed is given (motor.maxSpeed_rpm or nameplate.maxSpeed_rpm): ${rpm(maxSpeed_rad_s)} is only the top of the plotted range; give the motor's maximum speed.`),
     });
   }
   if (wUcg !== null) {

@@ -355,7 +355,7 @@ const projectObject = z.strictObject({
 
 export const projectSchema = projectObject.superRefine((p, ctx) => {
   if (p.motor === undefined && p.nameplate === undefined) ctx.addIssue({ code: 'custom', path: ['motor'], message: 'is required (or a nameplate section)' });
-  if (p.motor !== undefined && p.nameplate !== undefined) ctx.addIssue({ code: 'custom', path: ['nameplate'], message: 'give either motor or nameplate, not both' });
+  if (p.motor !== undefined && p.nameplate !== undefined) ctx.addIssue({ code: 'custom', path: ['nameplate'], message: 'cannot be given beside motor: describe the machine once, either as a dq model (motor) or in datasheet terms (nameplate)' });
   if (p.control?.mode === 'current-step' && p.scenario !== undefined && p.scenario.currentStep === undefined) {
     ctx.addIssue({ code: 'custom', path: ['scenario', 'currentStep'], message: 'is required by control.mode "current-step"' });
   }

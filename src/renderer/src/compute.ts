@@ -74,7 +74,7 @@ export function computeVerdicts(p: ResolvedProject, speedMax: number): Verdicts 
   const sizingCold = sizeDrive(p.cold, p.inverter, p.requirements);
   // the motor's maximum speed when the file gives one, else the plotted top speed
   const safetySpeed = p.rated.maxSpeed_rad_s ?? speedMax;
-  const safety = safetyReport(p.cold, p.inverter, safetySpeed);
+  const safety = safetyReport(p.cold, p.inverter, safetySpeed, p.rated.maxSpeed_rad_s !== undefined);
   return { verdictsFor: p, sizing, sizingCold, safety, safetySpeed, verdict_ms: performance.now() - t0 };
 }
 
