@@ -428,6 +428,33 @@ describe('Torquewise in a browser', () => {
     }
   });
 
+  it('moves the maximum speed with Vdc on a drive with a finite maximum speed (servo demo)', async () => {
+    await page.selectOption('[data-testid="demo-picker"]', 'demo-servo-axis.json');
+    await page.click('[data-testid="tab-envelope"]');
+    await page.waitForSelector('.inputs [data-path="inverter.Vdc"]');
+    const maxSpeed = async (): Promise<number> => {
+      const text = (await page.textContent('[data-testid="summary-line"]')) ?? '';
+      const m = /maximum speed (\d+) rpm/.exec(text);
+      if (!m) throw new Error(`no maximum speed in "${text}"`);
+      return Number(m[1]);
+    };
+    const at: Record<string, number> = {};
+    for (const v of ['250', '320', '400']) {
+      await edit('inverter.Vdc', v);
+      at[v] = await maxSpeed();
+    }
+    expect(at['320']!).toBeGreaterThan(at['250']!);
+    expect(at['400']!).toBeGreaterThan(at['320']!);
+    // with psiM/Ld above Imax the maximum speed is Vmax / (p (psiM - Ld Imax)) for small Rs, so it
+    // scales with Vmax = (Vdc - 2 drop) / sqrt(3) (Soong and Miller, 1994, Field-weakening
+    // performance of brushless synchronous AC motor drives); Rs bends it by a few per cent
+    const drop = 1.5;
+    expect(at['400']! / at['250']!).toBeCloseTo((400 - 2 * drop) / (250 - 2 * drop), 1);
+    await page.screenshot({ path: shotPath('06b-servo-vdc-400') });
+    await page.selectOption('[data-testid="demo-picker"]', 'demo-ipm-traction.json');
+    await page.waitForSelector('.inputs [data-path="nameplate.Ld.value"]');
+  });
+
   it('opens a file of a newer format version read-only, and Save then saves a copy', async () => {
     const demo = JSON.parse(readFileSync(join(ROOT, 'resources', 'demo-ipm-traction.json'), 'utf8'));
     const newer = JSON.stringify({ ...demo, version: demo.version + 1 });
