@@ -147,6 +147,14 @@ describe('loadProjectText', () => {
     expect(m2).not.toContain('torquewise-project'); // no echo of the text
   });
 
+  it('an invisible character in the text is named by its code point', () => {
+    const m = messageOf(() => loadProjectText('{"format": \u0000}'));
+    expect(m).toMatch(/^file is not valid JSON: .*U\+0000.* at line 1 column 12$/);
+    expect(m).not.toMatch(/\u0000/);
+    const twice = messageOf(() => loadProjectText('\ufeff\ufeff{}'));
+    expect(twice).toMatch(/U\+FEFF/);
+  });
+
   it('a leading byte-order mark is ignored', () => {
     expect(loadProjectText('\uFEFF' + demoText('demo-servo-axis')).machine20.Rs).toBe(1.1);
   });

@@ -96,7 +96,8 @@ export function loadProjectText(source: string): ResolvedProject {
     const where = lineColumn(text, raw);
     // keep the engine's reason, drop its own position wording and any echo of the text
     const reason = raw.replace(/\s*\(line \d+ column \d+\)/, '').replace(/\s*(at|in JSON at) position \d+.*$/, '').replace(/,\s*(\.\.\.)?"[\s\S]*$/, '').replace(/\r?\n/g, '\\n').trim();
-    const lead = reason || 'unexpected input';
+    // an invisible character (NUL, a second byte-order mark) shown by its code point
+    const lead = (reason || 'unexpected input').replace(/[\u0000-\u001f\u007f-\u009f\ufeff]/g, (c) => `U+${c.charCodeAt(0).toString(16).toUpperCase().padStart(4, '0')}`);
     throw new InputError('file', `is not valid JSON: ${lead}${where ? ` at line ${where.line} column ${where.column}` : ''}`);
   }
   const m = migrateProject(json);
