@@ -1,7 +1,8 @@
 /**
  * Envelope bench: a 400-point motoring envelope with Rs on the interior-magnet traction demo (hot
  * corner), our solver against a brute-force (id, iq) grid search tuned to 0.1 % torque accuracy
- * (far coarser than ours, so the ratio understates the gain). Medians of repeated runs, same process.
+ * (far coarser than ours, so the ratio understates the gain). Medians of repeated runs, same process
+ * (a grid run over 2 s is timed once, and says so).
  */
 import { readFileSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
@@ -93,10 +94,13 @@ export const envelopeBench: BenchSection = {
     const subOut = new Float64Array(sub.length);
     let n = 50;
     let err = Infinity;
-    for (; n <= 6400; n *= 2) {
+    let tuned = false;
+    for (;;) {
       gridEnvelope(m, lim, sub, n, subOut);
       err = maxRelError(ref, subOut, stride);
-      if (err <= GRID_ACCURACY) break;
+      if (err <= GRID_ACCURACY) { tuned = true; break; }
+      if (n >= 6400) break; // the finest grid tried; the bench says the target was not reached
+      n *= 2;
     }
     const full = new Float64Array(POINTS);
     // one timed run first; repeat (median of 3) only when a run is short enough to keep the bench brief
@@ -111,7 +115,7 @@ export const envelopeBench: BenchSection = {
     const tOurs = time(() => computeEnvelope(m, lim, opts), 101);
 
     console.log(`  ours:        median ${tOurs.toFixed(3)} ms per envelope (101 runs), stated accuracy ${ENVELOPE_ACCURACY} relative torque`);
-    console.log(`  brute force: median ${tGrid.toFixed(1)} ms per envelope (${gridRuns} run${gridRuns > 1 ? 's' : ''}), (id, iq) grid ${2 * n + 1} x ${n + 1}, max error ${(gridErr * 100).toFixed(3)} % (tuned to <= ${GRID_ACCURACY * 100} %)`);
+    console.log(`  brute force: ${gridRuns > 1 ? `median of ${gridRuns} runs` : '1 run (too slow to repeat; not a median)'} ${tGrid.toFixed(1)} ms per envelope, (id, iq) grid ${2 * n + 1} x ${n + 1}, max error ${(gridErr * 100).toFixed(3)} % (${tuned ? `tuned to <= ${GRID_ACCURACY * 100} %` : `tuning target ${GRID_ACCURACY * 100} % NOT reached at the finest grid tried`})`);
     const ratio = tGrid / tOurs;
     console.log(`  ratio: ${ratio.toFixed(0)}x faster (target >= 50x: ${ratio >= 50 ? 'met' : 'NOT met'}); under 2 ms: ${tOurs < 2 ? 'met' : 'NOT met'}`);
   },
