@@ -313,9 +313,14 @@ export function planeFigure(r: Results, theme: 'light' | 'dark', speeds: number[
       line: { color: t.muted, width: 1, dash: 'dot' },
       hoverinfo: 'skip',
     });
-    // label at the line's least-current (MTPA) point
-    const at = mtpaCurrentForTorque(m, T);
-    if (at.current <= span) annotations.push({ x: at.id, y: at.iq, text: `${num(T, 3)} N·m`, showarrow: false, xanchor: 'right', yanchor: 'bottom', font: { size: 10, color: t.muted } });
+    // label near where the line leaves the view (top edge or right end), away from the MTPA
+    // corner where the voltage-ellipse labels sit
+    // (each a little lower than the one before, so that neighbours do not cover each other)
+    const top = (0.9 - 0.14 * i) * span;
+    let last = -1;
+    for (let k = 0; k < x.length; k++) if (x[k] !== null && y[k]! > 0 && y[k]! <= top) last = k;
+    const at = last >= 0 ? { id: x[last]!, iq: y[last]! } : mtpaCurrentForTorque(m, T);
+    annotations.push({ x: at.id, y: at.iq, text: `${num(T, 3)} N·m`, showarrow: false, xanchor: 'right', yanchor: 'bottom', font: { size: 10, color: t.muted }, bgcolor: t.panel });
   });
   // the path of the reference envelope through the plane
   const e = r.main;
@@ -327,7 +332,11 @@ export function planeFigure(r: Results, theme: 'light' | 'dark', speeds: number[
   }
   data.push({ type: 'scatter', mode: 'lines', x: px, y: py, name: 'envelope path', line: { color: col.hot, width: 3 }, opacity: 0.5, hoverinfo: 'skip' });
   const ch = -m.psiM / m.Ld;
-  if (ch > -span) data.push({ type: 'scatter', mode: 'text+markers', x: [ch], y: [0], text: ['−ψm/Ld'], textposition: 'bottom center', textfont: { size: 10, color: col.volt }, showlegend: false, marker: { symbol: 'x', size: 9, color: col.volt }, hoverinfo: 'skip' });
+  if (ch > -span) {
+    // the voltage ellipses are centred here: the label sits below on the panel colour, readable over them
+    data.push({ type: 'scatter', mode: 'markers', x: [ch], y: [0], showlegend: false, marker: { symbol: 'x', size: 9, color: col.volt }, hoverinfo: 'skip' });
+    annotations.push({ x: ch, y: 0, text: '−ψm/Ld', showarrow: false, yanchor: 'top', yshift: -6, font: { size: 10, color: col.volt }, bgcolor: t.panel });
+  }
   if (op) {
     data.push({
       type: 'scatter',
