@@ -115,6 +115,10 @@ describe('cli --json documents', () => {
     expect(sim.findings.map((f: { code: string }) => f.code)).toEqual(['voltage-saturation']); // 0.44 ms at the modulation limit in the speed step
     expect(sim.diagnostic).toBeNull();
     expect(sim.stats.evaluationsPerPeriod).toBe(6);
+    // --max-points bounds the trace length; the metrics are the same (they use every sample)
+    const short = JSON.parse((await run('simulate', demo('servo-axis'), '--max-points', '200', '--json')).out);
+    expect(short.traces.t_s.length).toBeLessThanOrEqual(200);
+    expect(short.metrics.loadStepDip_rpm).toBe(sim.metrics.loadStepDip_rpm);
     const tune = JSON.parse((await run('tune', demo('servo-axis'), '--json')).out);
     expect(tune.current.Kp).toBeGreaterThan(0);
     expect(tune.speed.phaseMargin_deg).toBeGreaterThan(30);

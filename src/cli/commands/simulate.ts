@@ -1,5 +1,5 @@
 import type { Command } from '../command';
-import { stringFlag } from '../args';
+import { numberFlag, stringFlag } from '../args';
 import { table, fmt, orDash } from '../table';
 import { runSimulation, simulationFindings, simulationFromProject, TRACE_NAMES } from '../../core/simulate';
 import type { Finding } from '../../core/types';
@@ -45,11 +45,13 @@ export function simulationCsv(r: SimulationResult): string {
 export const simulateCommand: Command = {
   name: 'simulate',
   summary: 'cascade simulation of the scenario: metrics, events, traces',
-  usage: 'simulate <project.json> [--csv FILE] [--json]',
-  flags: { csv: 'string' },
+  usage: 'simulate <project.json> [--max-points N] [--csv FILE] [--json]',
+  flags: { csv: 'string', 'max-points': 'number' },
   run(p, args) {
     const setup = simulationFromProject(p);
-    const r = runSimulation(setup);
+    // trace length per channel (min/max decimated; the metrics always use every sample)
+    const maxPoints = numberFlag(args, 'max-points', { min: 2, max: 1e7, integer: true });
+    const r = runSimulation(setup, maxPoints !== undefined ? { maxPoints } : {});
     const m = r.metrics;
     const c = setup.controller;
     const csv = stringFlag(args, 'csv');
