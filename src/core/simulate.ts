@@ -333,7 +333,6 @@ export function runSimulation(setup: SimulationSetup, opts: RunOptions = {}): Si
   };
   const speedMode = mode === 'speed';
   const s0Mark = marks.speedSteps[0];
-  const l0Mark = marks.loadEvents[0];
   const stepTrk = speedMode && s0Mark
     ? new StepResponseTracker(s0Mark.t, nextAfter(s0Mark.t), scheduleBefore(marks.speedSteps, s0Mark.t, setup.initialSpeed_rad_s) * RAD_S_TO_RPM, s0Mark.v * RAD_S_TO_RPM)
     : null;
@@ -423,8 +422,8 @@ export function runSimulation(setup: SimulationSetup, opts: RunOptions = {}): Si
     const dm = 0.5 * p * w * Ts;
     let cm: number, sm: number;
     if (dm > -0.5 && dm < 0.5) {
-      // rotate (c, s) by dm with the same short series as the plant (truncation below 2e-14)
-      // the plant's polynomials for sin and cos (see Plant.derivAt), written out: no call, no boxed result
+      // rotate (c, s) by dm with the plant's polynomials for sin and cos (see Plant.derivAt; truncation
+      // below 2e-14), written out: no call, no boxed result
       const x = dm * dm;
       const sd = dm * (1 + x * (-1 / 6 + x * (1 / 120 + x * (-1 / 5040 + x * (1 / 362880 + x * (-1 / 39916800))))));
       const cd = 1 + x * (-1 / 2 + x * (1 / 24 + x * (-1 / 720 + x * (1 / 40320 + x * (-1 / 3628800 + x * (1 / 479001600))))));
