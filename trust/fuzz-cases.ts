@@ -19,7 +19,7 @@ import { COMMANDS } from '../src/cli/commands/registry';
 import { parseArgs } from '../src/cli/args';
 import { checkFlags } from '../src/cli/args';
 import { simulationFromProject, runSimulation } from '../src/core/simulate';
-import { simulationJson } from '../src/cli/commands/simulate';
+import { simulationReport } from '../src/cli/commands/simulate';
 
 export const DEMO_NAMES = ['demo-spm-48v', 'demo-ipm-traction', 'demo-servo-axis'] as const;
 
@@ -296,7 +296,10 @@ export async function runCase(c: FuzzCase): Promise<Outcome> {
     let text = '';
     if (c.command === 'simulate') {
       // the simulate command's path with a small step budget (a fuzz case must be short)
-      json = simulationJson(runSimulation(simulationFromProject(project), { maxSteps: FUZZ_SIM_MAX_STEPS }));
+      const setup = simulationFromProject(project);
+      const rep = simulationReport(project, setup, runSimulation(setup, { maxSteps: FUZZ_SIM_MAX_STEPS }));
+      json = rep.json;
+      text = rep.text;
     } else {
       const r = await cmd.run(project, args);
       json = r.json;

@@ -3,7 +3,8 @@ import { numberFlag, stringFlag } from '../args';
 import { table, fmt, orDash } from '../table';
 import { runSimulation, simulationFindings, simulationFromProject, TRACE_NAMES } from '../../core/simulate';
 import type { Finding } from '../../core/types';
-import type { SimulationResult } from '../../core/simulate';
+import type { SimulationResult, SimulationSetup } from '../../core/simulate';
+import type { ResolvedProject } from '../../core/project';
 import { peakToRms } from '../../core/units';
 
 /** The metrics of the JSON document: the keys issue 3 names first, then the rest of the engine's. */
@@ -52,57 +53,63 @@ export const simulateCommand: Command = {
     // trace length per channel (min/max decimated; the metrics always use every sample)
     const maxPoints = numberFlag(args, 'max-points', { min: 2, max: 1e7, integer: true });
     const r = runSimulation(setup, maxPoints !== undefined ? { maxPoints } : {});
-    const m = r.metrics;
-    const c = setup.controller;
     const csv = stringFlag(args, 'csv');
-    const rows: Array<[string, string, string]> = [
-      ['final speed', orDash(m.finalSpeed_rpm), 'rpm'],
-      ['speed overshoot', orDash(m.speedOvershoot_pct), '%'],
-      ['rise time 10-90 %', orDash(m.riseTime_s === null ? null : m.riseTime_s * 1e3), 'ms'],
-      ['settling time 2 %', orDash(m.settlingTime_s === null ? null : m.settlingTime_s * 1e3), 'ms'],
-      ['load-step speed dip', orDash(m.loadStepDip_rpm), 'rpm'],
-      ['load-step recovery', orDash(m.loadStepRecovery_s === null ? null : m.loadStepRecovery_s * 1e3), 'ms'],
-      ['steady-state speed error', orDash(m.steadyStateError_rpm), 'rpm'],
-      ['peak phase current', m.peakCurrent_A === null ? '-' : `${fmt(m.peakCurrent_A)} (${fmt(peakToRms(m.peakCurrent_A))} rms)`, 'A peak'],
-      ['rms phase current', m.rmsCurrent_A === null ? '-' : `${fmt(m.rmsCurrent_A)} (${fmt(m.rmsCurrent_A * Math.SQRT2)} peak)`, 'A rms'],
-      ['time in voltage saturation', orDash(m.voltageSaturation_s === null ? null : m.voltageSaturation_s * 1e3), 'ms'],
-      ['energy from the DC link', orDash(m.energyFromBus_J), 'J'],
-    ];
-    const lines = [
-      `${p.name}: ${c.mode} control at ${fmt(1 / c.Ts)} Hz, delay ${c.delaySamples} period(s), anti-windup ${c.antiWindup}, ` +
-        `${setup.duration_s} s simulated, hot corner`,
-      `current PI d: Kp ${fmt(c.currentD.Kp)} V/A, Ki ${fmt(c.currentD.Ki)} V/(A·s); q: Kp ${fmt(c.currentQ.Kp)} V/A, Ki ${fmt(c.currentQ.Ki)} V/(A·s)` +
-        (c.mode === 'speed' ? `; speed PI: Kp ${fmt(c.speed.Kp)} N·m·s/rad, Ki ${fmt(c.speed.Ki)} N·m/rad` : ''),
-      '',
-      table(['metric', 'value', 'unit'], rows),
-      '',
-    ];
-    if (r.loadSteps.length > 1 || r.loadSteps.some((l) => !l.settled)) {
-      lines.push('load steps (each from its time to the next event):');
-      lines.push(table(['at ms', 'dip rpm', 'recovery ms', 'error at step rpm'], r.loadSteps.map((l) => [
-        fmt(l.t_s * 1e3), l.settled ? orDash(l.dip_rpm) : 'not settled', orDash(l.recovery_s === null ? null : l.recovery_s * 1e3), orDash(l.errorAtStep_rpm),
-      ])));
-      lines.push('');
-    }
-    if (r.events.length === 0) lines.push('events: none');
-    else {
-      lines.push('events:');
-      const shown = r.events.slice(0, 30);
-      lines.push(table(['kind', 'from ms', 'to ms', 'what'], shown.map((e) => [e.kind, fmt(e.t_s * 1e3), e.tEnd_s === undefined ? '-' : fmt(e.tEnd_s * 1e3), e.message])));
-      if (r.events.length > shown.length) lines.push(`... ${r.events.length - shown.length} more (see --json)`);
-    }
-    const findings = simulationFindings(r, setup).filter((f) => f.code !== 'simulation-stopped');
-    if (findings.length > 0) {
-      lines.push('', 'findings:');
-      for (const f of findings) lines.push(`  ${f.severity}: ${f.field ? `${f.field}: ` : ''}${f.message}`);
-    }
-    if (r.diagnostic) lines.push('', `stopped: ${r.diagnostic}`);
-    lines.push('', `${r.stats.controlSteps} control periods, ${r.stats.rhsEvaluations} derivative evaluations ` +
-      `(median ${r.stats.evaluationsPerPeriod} per period), ${fmt(r.stats.wall_s * 1e3)} ms wall time` +
-      (r.stats.wall_s > 0 ? `, ${fmt((r.stats.controlSteps * c.Ts) / r.stats.wall_s)} x real time` : ''));
-    if (p.inverter.Vdc > 60) {
-      lines.push(`caution: a ${fmt(p.inverter.Vdc)} V DC bus is hazardous; work on it only under local codes, licensed practice and IEC 61800-5-1.`);
-    }
-    return { json: simulationJson(r, findings), text: lines.join('\n'), ...(csv ? { files: [{ path: csv, contents: simulationCsv(r) }] } : {}) };
+    const { json, text } = simulationReport(p, setup, r);
+    return { json, text, ...(csv ? { files: [{ path: csv, contents: simulationCsv(r) }] } : {}) };
   },
 };
+
+/** The simulate command's document and text for a finished run (also what the fuzz checks). */
+export function simulationReport(p: ResolvedProject, setup: SimulationSetup, r: SimulationResult): { json: ReturnType<typeof simulationJson>; text: string } {
+  const m = r.metrics;
+  const c = setup.controller;
+  const rows: Array<[string, string, string]> = [
+    ['final speed', orDash(m.finalSpeed_rpm), 'rpm'],
+    ['speed overshoot', orDash(m.speedOvershoot_pct), '%'],
+    ['rise time 10-90 %', orDash(m.riseTime_s === null ? null : m.riseTime_s * 1e3), 'ms'],
+    ['settling time 2 %', orDash(m.settlingTime_s === null ? null : m.settlingTime_s * 1e3), 'ms'],
+    ['load-step speed dip', orDash(m.loadStepDip_rpm), 'rpm'],
+    ['load-step recovery', orDash(m.loadStepRecovery_s === null ? null : m.loadStepRecovery_s * 1e3), 'ms'],
+    ['steady-state speed error', orDash(m.steadyStateError_rpm), 'rpm'],
+    ['peak phase current', m.peakCurrent_A === null ? '-' : `${fmt(m.peakCurrent_A)} (${fmt(peakToRms(m.peakCurrent_A))} rms)`, 'A peak'],
+    ['rms phase current', m.rmsCurrent_A === null ? '-' : `${fmt(m.rmsCurrent_A)} (${fmt(m.rmsCurrent_A * Math.SQRT2)} peak)`, 'A rms'],
+    ['time in voltage saturation', orDash(m.voltageSaturation_s === null ? null : m.voltageSaturation_s * 1e3), 'ms'],
+    ['energy from the DC link', orDash(m.energyFromBus_J), 'J'],
+  ];
+  const lines = [
+    `${p.name}: ${c.mode} control at ${fmt(1 / c.Ts)} Hz, delay ${c.delaySamples} period(s), anti-windup ${c.antiWindup}, ` +
+      `${setup.duration_s} s simulated, hot corner`,
+    `current PI d: Kp ${fmt(c.currentD.Kp)} V/A, Ki ${fmt(c.currentD.Ki)} V/(A·s); q: Kp ${fmt(c.currentQ.Kp)} V/A, Ki ${fmt(c.currentQ.Ki)} V/(A·s)` +
+      (c.mode === 'speed' ? `; speed PI: Kp ${fmt(c.speed.Kp)} N·m·s/rad, Ki ${fmt(c.speed.Ki)} N·m/rad` : ''),
+    '',
+    table(['metric', 'value', 'unit'], rows),
+    '',
+  ];
+  if (r.loadSteps.length > 1 || r.loadSteps.some((l) => !l.settled)) {
+    lines.push('load steps (each from its time to the next event):');
+    lines.push(table(['at ms', 'dip rpm', 'recovery ms', 'error at step rpm'], r.loadSteps.map((l) => [
+      fmt(l.t_s * 1e3), l.settled ? orDash(l.dip_rpm) : 'not settled', orDash(l.recovery_s === null ? null : l.recovery_s * 1e3), orDash(l.errorAtStep_rpm),
+    ])));
+    lines.push('');
+  }
+  if (r.events.length === 0) lines.push('events: none');
+  else {
+    lines.push('events:');
+    const shown = r.events.slice(0, 30);
+    lines.push(table(['kind', 'from ms', 'to ms', 'what'], shown.map((e) => [e.kind, fmt(e.t_s * 1e3), e.tEnd_s === undefined ? '-' : fmt(e.tEnd_s * 1e3), e.message])));
+    if (r.events.length > shown.length) lines.push(`... ${r.events.length - shown.length} more (see --json)`);
+  }
+  const findings = simulationFindings(r, setup).filter((f) => f.code !== 'simulation-stopped');
+  if (findings.length > 0) {
+    lines.push('', 'findings:');
+    for (const f of findings) lines.push(`  ${f.severity}: ${f.field ? `${f.field}: ` : ''}${f.message}`);
+  }
+  if (r.diagnostic) lines.push('', `stopped: ${r.diagnostic}`);
+  lines.push('', `${r.stats.controlSteps} control periods, ${r.stats.rhsEvaluations} derivative evaluations ` +
+    `(median ${r.stats.evaluationsPerPeriod} per period), ${fmt(r.stats.wall_s * 1e3)} ms wall time` +
+    (r.stats.wall_s > 0 ? `, ${fmt((r.stats.controlSteps * c.Ts) / r.stats.wall_s)} x real time` : ''));
+  if (p.inverter.Vdc > 60) {
+    lines.push(`caution: a ${fmt(p.inverter.Vdc)} V DC bus is hazardous; work on it only under local codes, licensed practice and IEC 61800-5-1.`);
+  }
+  return { json: simulationJson(r, findings), text: lines.join('\n') };
+}
