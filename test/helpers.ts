@@ -15,13 +15,18 @@ export function sourceFiles(dir: string): string[] {
   return out;
 }
 
-/** The message of the InputError that f throws; fails the test when f throws anything else or nothing. */
-export function messageOf(f: () => unknown): string {
+/** The InputError that f throws; fails the test when f throws anything else or nothing. */
+export function refusal(f: () => unknown): InputError {
   try {
     f();
   } catch (e) {
     expect(e).toBeInstanceOf(InputError);
-    return (e as Error).message;
+    return e as InputError;
   }
-  throw new Error('did not throw');
+  throw new Error('was not refused');
+}
+
+/** The message of the InputError that f throws; fails the test when f throws anything else or nothing. */
+export function messageOf(f: () => unknown): string {
+  return refusal(f).message;
 }

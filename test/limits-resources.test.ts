@@ -12,21 +12,12 @@ import { simulationFromProject, runSimulation, MAX_CONTROL_PERIODS } from '../sr
 import { DEFAULT_MAX_POINTS } from '../src/core/decimate';
 import { envelopeCommand } from '../src/cli/commands/envelope';
 import { parseArgs } from '../src/cli/args';
-import { InputError } from '../src/core/errors';
 import { DEMOS } from '../trust/fuzz-cases';
+import { refusal } from './helpers';
 
 type Json = Record<string, any>;
 const demo = (n: string): Json => structuredClone(DEMOS[n]) as Json;
 const resolved = (j: Json) => resolveProject(parseProject(j));
-function refusal(f: () => unknown): InputError {
-  try {
-    f();
-  } catch (e) {
-    expect(e).toBeInstanceOf(InputError);
-    return e as InputError;
-  }
-  throw new Error('was not refused');
-}
 
 describe('absurd requests are refused with the limit named', () => {
   it('envelope --points 1e9: the command names --points and its limit', () => {

@@ -3,20 +3,11 @@ import { describe, expect, it } from 'vitest';
 import { migrateProject, MIGRATIONS, DEFAULT_MIGRATE_OPTIONS, type MigrationStep } from '../src/core/migrate';
 import { loadProjectText } from '../src/core/project';
 import { PROJECT_VERSION } from '../src/core/schema';
-import { InputError } from '../src/core/errors';
 import { DEMOS } from '../trust/fuzz-cases';
+import { refusal } from './helpers';
 
 type Json = Record<string, any>;
 const demo = (): Json => structuredClone(DEMOS['demo-spm-48v']) as Json;
-function refusal(f: () => unknown): InputError {
-  try {
-    f();
-  } catch (e) {
-    expect(e).toBeInstanceOf(InputError);
-    return e as InputError;
-  }
-  throw new Error('was not refused');
-}
 
 // Two invented format changes, to exercise the mechanism: v1 -> v2 renames inverter.Vdc to
 // inverter.busVoltage, v2 -> v3 moves it back and drops a key that v3 no longer has.
