@@ -1,5 +1,5 @@
 // Small helpers shared by test files (not a test file itself).
-import { readdirSync, statSync } from 'node:fs';
+import { readFileSync, readdirSync, statSync } from 'node:fs';
 import { join } from 'node:path';
 import { expect } from 'vitest';
 import { InputError } from '../src/core/errors';
@@ -29,4 +29,10 @@ export function refusal(f: () => unknown): InputError {
 /** The message of the InputError that f throws; fails the test when f throws anything else or nothing. */
 export function messageOf(f: () => unknown): string {
   return refusal(f).message;
+}
+
+/** A demo project from resources/ as a plain JSON object (to mutate in a test). */
+// eslint-disable-next-line @typescript-eslint/no-explicit-any
+export function demoJson(name: string): Record<string, any> {
+  return JSON.parse(readFileSync(join(__dirname, '..', 'resources', `${name}.json`), 'utf8'));
 }

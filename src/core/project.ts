@@ -3,7 +3,8 @@
  * limits (peak and continuous current), the conditions, the requirements, what each nameplate
  * input was taken to mean, and consistency findings.
  */
-import type { Conditions, DqMachine, DriveLimits, Finding, InverterSpec, Mechanics, Requirement } from './types';
+import type { Conditions, CurrentLimits, DqMachine, DriveLimits, Finding, InverterSpec, Mechanics, Requirement } from './types';
+import { effectiveCurrentLimits } from './current-limits';
 import { InputError } from './errors';
 import { machineAt } from './thermal';
 import { driveLimits } from './inverter';
@@ -26,10 +27,12 @@ export interface ResolvedProject {
   cold: DqMachine;
   mechanics: Mechanics;
   inverter: InverterSpec;
-  /** voltage limit and peak current Imax */
+  /** voltage limit and the effective peak current (the weaker of inverter Imax and motor peak current) */
   peak: DriveLimits;
-  /** voltage limit and continuous current Icont */
+  /** voltage limit and the effective continuous current (the weaker of inverter Icont and motor rated current) */
   continuous: DriveLimits;
+  /** the effective current limits and which rating binds each */
+  currentLimits: CurrentLimits;
   conditions: Conditions;
   requirements: Requirement[];
   /** rated data from a nameplate section (SI, A peak), empty for a motor section */
@@ -134,7 +137,9 @@ export function resolveProject(file: ProjectFile): ResolvedProject {
     const m = file.motor;
     machine20 = { polePairs: m.polePairs, Rs: m.Rs, Ld: m.Ld, Lq: m.Lq, psiM: m.psiM };
     mechanics = { inertia: m.inertia, viscousFriction: m.viscousFriction, coulombFriction: m.coulombFriction };
-    if (m.maxSpeed_rpm !== undefined) rated = { maxSpeed_rad_s: m.maxSpeed_rpm * RPM_TO_RAD_S };
+    if (m.maxSpeed_rpm !== undefined) rated.maxSpeed_rad_s = m.maxSpeed_rpm * RPM_TO_RAD_S;
+    if (m.ratedCurrent !== undefined) rated.current_A = m.ratedCurrent;
+    if (m.peakCurrent !== undefined) rated.peakCurrent_A = m.peakCurrent;
     if (m.psiM === 0 && m.Ld === m.Lq) throw new InputError('motor.psiM', 'must be > 0 Wb when Ld = Lq (with neither magnet nor saliency the machine makes no torque)');
   } else if (file.nameplate) {
     const r = nameplateToModel(file.nameplate, { magnetTempCoeff: c.magnetTempCoeff, path: 'nameplate' });
@@ -148,8 +153,9 @@ export function resolveProject(file: ProjectFile): ResolvedProject {
   }
 
   const inverter: InverterSpec = { ...file.inverter };
-  const peak = driveLimits(inverter, 'peak');
-  const continuous = driveLimits(inverter, 'continuous');
+  const currentLimits = effectiveCurrentLimits(inverter, rated.current_A, rated.peakCurrent_A);
+  const peak: DriveLimits = { ...driveLimits(inverter, 'peak'), Imax: currentLimits.peak.A };
+  const continuous: DriveLimits = { ...driveLimits(inverter, 'continuous'), Imax: currentLimits.continuous.A };
   const hot = machineAt(machine20, c.windingTemp_C, c.magnetTemp_C, c.magnetTempCoeff);
   const cold = machineAt(machine20, conditions.coldTemp_C, conditions.coldTemp_C, c.magnetTempCoeff);
   if (c.coldTemp_C === undefined) {
@@ -159,7 +165,7 @@ export function resolveProject(file: ProjectFile): ResolvedProject {
     });
   }
 
-  findings.push(...ratedFindings(rated, hot, inverter, peak));
+  findings.push(...ratedFindings(rated, hot, inverter, peak, file.motor ? 'motor' : 'nameplate'));
   findings.push(...oddMachineFindings(file.motor ? 'motor' : 'nameplate', machine20, hot, mechanics, peak, file.requirements));
 
   return {
@@ -172,6 +178,7 @@ export function resolveProject(file: ProjectFile): ResolvedProject {
     inverter,
     peak,
     continuous,
+    currentLimits,
     conditions,
     requirements: file.requirements.map((r) => ({ label: r.label, speed_rpm: r.speed_rpm, torque_Nm: r.torque_Nm })),
     rated,
@@ -181,7 +188,7 @@ export function resolveProject(file: ProjectFile): ResolvedProject {
 }
 
 /** The motor's rated point against this inverter: current limits, and voltage at the hot corner. */
-function ratedFindings(rated: RatedData, hot: DqMachine, inv: InverterSpec, peak: DriveLimits): Finding[] {
+function ratedFindings(rated: RatedData, hot: DqMachine, inv: InverterSpec, peak: DriveLimits, section: 'motor' | 'nameplate'): Finding[] {
   const out: Finding[] = [];
   const amps = (x: number): string => `${fmt(x)} A peak (${fmt(x / SQRT2)} A rms)`;
   if (rated.current_A !== undefined) {
@@ -189,14 +196,14 @@ function ratedFindings(rated: RatedData, hot: DqMachine, inv: InverterSpec, peak
       out.push({
         code: 'rated-current-above-imax',
         severity: 'warning',
-        field: 'nameplate.ratedCurrent',
+        field: `${section}.ratedCurrent`,
         message: `The motor's rated current ${amps(rated.current_A)} is above the inverter's peak current ${amps(inv.Imax)}: the motor cannot reach its rated torque on this inverter.`,
       });
-    } else if (rated.current_A > inv.Icont) {
+    } else if (rated.current_A > 1.01 * inv.Icont) {
       out.push({
         code: 'rated-current-above-icont',
         severity: 'warning',
-        field: 'nameplate.ratedCurrent',
+        field: `${section}.ratedCurrent`,
         message: `The motor's rated current ${amps(rated.current_A)} is above the inverter's continuous current ${amps(inv.Icont)}: rated torque is available only for short periods.`,
       });
     }
@@ -210,7 +217,17 @@ function ratedFindings(rated: RatedData, hot: DqMachine, inv: InverterSpec, peak
       field: 'inverter.Imax',
       message: `The inverter's peak current ${amps(inv.Imax)} is above the motor's peak current ${amps(rated.peakCurrent_A)}: ` +
         'current beyond the motor rating, above all negative d-axis current in field weakening at a hot magnet, risks demagnetising the magnets for good. ' +
-        "Limit inverter.Imax to the motor's peak current, or confirm the magnets' demagnetisation limit with the motor's maker.",
+        `Torquewise limits every result to the motor's ${amps(rated.peakCurrent_A)}; set the drive's own current limit there too, or confirm the magnets' demagnetisation limit with the motor's maker.`,
+    });
+  }
+  // a drive that may hold more current than the motor is rated for overheats the winding
+  if (rated.current_A !== undefined && inv.Icont > 1.01 * rated.current_A) {
+    out.push({
+      code: 'icont-above-motor-rated',
+      severity: 'warning',
+      field: 'inverter.Icont',
+      message: `The inverter's continuous current ${amps(inv.Icont)} is above the motor's rated current ${amps(rated.current_A)}: ` +
+        "held for long, it overheats the winding. Continuous results here use the motor's rated current; set the drive's continuous limit (or its overload protection) to it.",
     });
   }
   if (rated.speed_rad_s !== undefined && rated.torque_Nm !== undefined) {

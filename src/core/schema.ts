@@ -29,6 +29,8 @@ export const KEYS: Readonly<Record<string, { unit: string; doc: string }>> = {
   'motor.viscousFriction': { unit: 'N·m·s/rad', doc: 'viscous friction B, default 0' },
   'motor.coulombFriction': { unit: 'N·m', doc: 'Coulomb friction, default 0' },
   'motor.maxSpeed_rpm': { unit: 'rpm', doc: 'maximum mechanical speed (safety checks and plot range)' },
+  'motor.ratedCurrent': { unit: 'A', doc: "the motor's rated (continuous) phase current, A peak; the continuous limit is the lower of this and inverter.Icont" },
+  'motor.peakCurrent': { unit: 'A', doc: "the motor's peak phase current (demagnetisation and heat), A peak; the peak limit is the lower of this and inverter.Imax" },
 
   nameplate: { unit: '', doc: 'motor in datasheet terms (give this or motor)' },
   'nameplate.poles': { unit: '', doc: 'number of magnet poles (even); or polePairs' },
@@ -171,6 +173,13 @@ const motorSchema = z
     viscousFriction: num('motor.viscousFriction', 0, 1e4).default(0),
     coulombFriction: num('motor.coulombFriction', 0, 1e5).default(0),
     maxSpeed_rpm: num('motor.maxSpeed_rpm', 0, 1e6, { gtMin: true }).optional(),
+    ratedCurrent: num('motor.ratedCurrent', 1e-6, 1e6).optional(),
+    peakCurrent: num('motor.peakCurrent', 1e-6, 1e6).optional(),
+  })
+  .superRefine((m, ctx) => {
+    if (typeof m.ratedCurrent === 'number' && typeof m.peakCurrent === 'number' && m.ratedCurrent > m.peakCurrent) {
+      ctx.addIssue({ code: 'custom', path: ['ratedCurrent'], message: `must be <= motor.peakCurrent (${m.peakCurrent} A)` });
+    }
   })
   .describe(doc('motor'));
 

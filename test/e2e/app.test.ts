@@ -163,7 +163,7 @@ describe('Torquewise in a browser', () => {
     await page.click('[data-testid="tab-envelope"]');
     await page.screenshot({ path: shotPath('03-requirement-fails') });
     await edit('inverter.Imax', '450');
-    await edit('inverter.Icont', '250');
+    await edit('inverter.Icont', '226');
     await page.waitForFunction(() => document.querySelector('[data-testid="req-mark-0"]')?.textContent === 'pass');
   });
 
