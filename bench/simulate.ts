@@ -17,10 +17,11 @@ import { runSimulation, simulationFromProject } from '../src/core/simulate';
 import type { SimulationResult, SimulationSetup } from '../src/core/simulate';
 import type { BenchSection } from './index';
 import { STATE_SIZE } from '../src/core/plant';
+import { MAX_TRACE_POINTS } from '../src/core/decimate';
 
 const REPEATS = 9;
 /** full-rate traces, for the accuracy comparison */
-const FULL = { maxPoints: 1e9, wallBudget_s: 600 };
+const FULL = { maxPoints: MAX_TRACE_POINTS, wallBudget_s: 600 };
 /** the timed runs decimate as the app does (default maxPoints) */
 const TIMED = { wallBudget_s: 600 };
 

@@ -9,7 +9,8 @@ import { resolveProject } from '../src/core/project';
 import { parseProject } from '../src/core/schema';
 import { computeEnvelope } from '../src/core/envelope';
 import { simulationFromProject, runSimulation, MAX_CONTROL_PERIODS } from '../src/core/simulate';
-import { DEFAULT_MAX_POINTS } from '../src/core/decimate';
+import { DEFAULT_MAX_POINTS, MAX_TRACE_POINTS } from '../src/core/decimate';
+import { simulateCommand } from '../src/cli/commands/simulate';
 import { envelopeCommand } from '../src/cli/commands/envelope';
 import { parseArgs } from '../src/cli/args';
 import { DEMOS } from '../trust/fuzz-cases';
@@ -24,6 +25,16 @@ describe('absurd requests are refused with the limit named', () => {
     const e = refusal(() => envelopeCommand.run(resolved(demo('demo-spm-48v')), parseArgs(['envelope', 'f.json', '--points', '1e9'])));
     expect(e.field).toBe('--points');
     expect(e.message).toBe('--points must be <= 100000 (got 1000000000)');
+  });
+
+  it(`simulate --max-points above ${MAX_TRACE_POINTS}: refused by name before any work; the engine names its own limit`, () => {
+    const p = resolved(demo('demo-servo-axis'));
+    const e = refusal(() => simulateCommand.run(p, parseArgs(['simulate', 'f.json', '--max-points', '10000000'])));
+    expect(e.field).toBe('--max-points');
+    expect(e.message).toBe('--max-points must be <= 200000 (got 10000000)');
+    expect(refusal(() => simulateCommand.run(p, parseArgs(['simulate', 'f.json', '--max-points', '200001']))).field).toBe('--max-points');
+    const setup = simulationFromProject(p);
+    expect(refusal(() => runSimulation(setup, { maxPoints: 1e7 })).message).toBe('maxPoints must be a whole number in 2..200000 (got 10000000)');
   });
 
   it('computeEnvelope with 1e9 points: the engine names its own limit', () => {
@@ -74,7 +85,7 @@ describe('traces stay decimated', () => {
     const j = demo('demo-servo-axis'); // 16 kHz
     j.scenario.duration_s = 0.5; // 8000 periods
     const setup = simulationFromProject(resolved(j));
-    const full = runSimulation(setup, { maxPoints: 1e7 });
+    const full = runSimulation(setup, { maxPoints: MAX_TRACE_POINTS });
     expect(full.traces.t_s.length).toBe(8001);
     const dflt = runSimulation(setup);
     const small = runSimulation(setup, { maxPoints: 300 });

@@ -155,6 +155,27 @@ describe('saveProjectFile', () => {
     expect(readFileSync(p, 'utf8')).toBe(GOOD);
   });
 
+  it('a folder that cannot be flushed after the rename (injected EIO): saved, and the result carries a warning for the user', async () => {
+    const p = join(dir, 's.json');
+    writeFileSync(p, GOOD);
+    const fs: FsLayer = {
+      ...nodeFs,
+      open: async (path, flags, mode) => {
+        const h = await nodeFs.open(path, flags, mode);
+        if (flags !== 'r') return h;
+        return { writeFile: (d) => h.writeFile(d), sync: async () => { throw Object.assign(new Error('io'), { code: 'EIO' }); }, close: () => h.close(), chmod: (m) => h.chmod(m), chown: (u, g) => h.chown(u, g) };
+      },
+    };
+    const next = GOOD.replace('350 V bus', '400 V bus');
+    const r = await saveProjectFile(p, next, { fs, platform: 'linux' });
+    expect(r).toEqual({
+      ok: true,
+      path: p,
+      warning: 'Saved "s.json", but the system did not confirm that the folder was written to disk (an input/output error occurred on the disk): if the power fails soon, the save may be lost. Save again, or check the disk.',
+    });
+    expect(readFileSync(p, 'utf8')).toBe(next.endsWith('\n') ? next : `${next}\n`);
+  });
+
   it('a read-only folder (injected EROFS) fails with a message and keeps the old file', async () => {
     const p = join(dir, 's.json');
     writeFileSync(p, GOOD);

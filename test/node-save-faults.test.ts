@@ -15,9 +15,9 @@ describe('save fault scenarios', () => {
   it('every scenario keeps the old file, tells the user and leaves nothing behind', async () => {
     const r = await runSaveFaultScenarios(dir);
     expect(r.run).toBe(SAVE_FAULTS.length);
-    expect(r.run).toBe(17);
+    expect(r.run).toBe(18);
     expect(r.outcomes.filter((o) => !o.survived)).toEqual([]);
-    expect(r.survived).toBe(17);
+    expect(r.survived).toBe(18);
     const full = r.outcomes.find((o) => o.fault.step === 'write' && o.fault.code === 'ENOSPC')!;
     expect(full.message).toBe('Could not save "project.json": the disk is full (while writing). The file on disk is unchanged.');
   });
@@ -28,7 +28,7 @@ describe('save fault scenarios', () => {
       return atomicWrite(target, data, options);
     };
     const r = await runSaveFaultScenarios(dir, SAVE_FAULTS, careless);
-    expect(r.run).toBe(17);
+    expect(r.run).toBe(18);
     expect(r.survived).toBe(0);
     expect(r.outcomes.every((o) => !o.oldFileIntact)).toBe(true);
   });

@@ -6,10 +6,12 @@ import type { ResolvedProject } from '../src/core/project';
 import { simulationFromProject, simulationFindings, rampedReference, runSimulation, TRACE_NAMES } from '../src/core/simulate';
 import type { SimulationResult } from '../src/core/simulate';
 import { stepResponse, loadStepResponse, steadyStateError } from '../src/core/metrics';
+import { MAX_TRACE_POINTS } from '../src/core/decimate';
 
 const demo = (f: string): any => JSON.parse(readFileSync(resolve(__dirname, '..', 'resources', `${f}.json`), 'utf8'));
 const proj = (o: unknown): ResolvedProject => loadProjectText(JSON.stringify(o));
-const FULL = { maxPoints: 1e7 };
+/** untouched traces: every run here is shorter than the largest trace length a run may ask for */
+const FULL = { maxPoints: MAX_TRACE_POINTS };
 
 function noNaN(r: SimulationResult): void {
   for (const v of Object.values(r.metrics)) expect(v === null || Number.isFinite(v)).toBe(true);

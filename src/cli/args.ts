@@ -12,25 +12,33 @@ export interface ParsedArgs {
 export function parseArgs(argv: readonly string[]): ParsedArgs {
   const flags = new Map<string, string | true>();
   const positional: string[] = [];
+  // an option given twice is refused: which one was meant (the first, the last) is a guess
+  const set = (name: string, value: string | true): void => {
+    if (flags.has(name)) throw new InputError(`--${name}`, 'is given more than once; give each option once');
+    flags.set(name, value);
+  };
   for (let i = 0; i < argv.length; i++) {
     const a = argv[i]!;
     if (a.startsWith('--')) {
       const eq = a.indexOf('=');
-      if (eq > 0) flags.set(a.slice(2, eq), a.slice(eq + 1));
+      if (eq > 0) set(a.slice(2, eq), a.slice(eq + 1));
       else {
         const next = argv[i + 1];
         if (next !== undefined && !next.startsWith('--')) {
-          flags.set(a.slice(2), next);
+          set(a.slice(2), next);
           i++;
-        } else flags.set(a.slice(2), true);
+        } else set(a.slice(2), true);
       }
     } else positional.push(a);
   }
   return { command: positional[0] ?? '', file: positional[1], extra: positional.slice(2), flags };
 }
 
-/** The flags a command knows: name -> 'switch' (no value) or 'number' | 'string'. */
-export type FlagSpec = Record<string, 'switch' | 'number' | 'string'>;
+/**
+ * The flags a command knows: name -> 'switch' (no value), 'number', 'string', or 'output' (a file
+ * the CLI writes: never empty, never the project file itself; see src/cli/output-files.ts).
+ */
+export type FlagSpec = Record<string, 'switch' | 'number' | 'string' | 'output'>;
 
 export function checkFlags(args: ParsedArgs, spec: FlagSpec): void {
   // a switch followed by a positional was read as a value: give the value back as positional-less error
@@ -44,6 +52,7 @@ export function checkFlags(args: ParsedArgs, spec: FlagSpec): void {
       throw new InputError(`--${name}`, `takes no value (got '${value}')`);
     }
     if (kind !== 'switch' && value === true) throw new InputError(`--${name}`, `needs a value`);
+    if ((kind === 'string' || kind === 'output') && value === '') throw new InputError(`--${name}`, kind === 'output' ? 'needs a file name (got an empty one)' : 'needs a value (got an empty one)');
   }
 }
 

@@ -7,6 +7,12 @@
 
 export const DEFAULT_MAX_POINTS = 5000;
 
+/**
+ * Largest trace length per channel a run may ask for: 16 channels x 200 000 samples of 8 bytes are
+ * 26 MB of traces, and the JSON document of them stays well under V8's string limit.
+ */
+export const MAX_TRACE_POINTS = 200_000;
+
 export interface Decimated {
   t: Float64Array;
   channels: Float64Array[];

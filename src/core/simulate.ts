@@ -28,7 +28,7 @@ import { safetyReport } from './safety';
 import type { ReferenceTable } from './reference-table';
 import { tuneLoops, tuningInputFromProject } from './tuning';
 import type { TuningReport } from './tuning';
-import { StreamingMinMax, DEFAULT_MAX_POINTS } from './decimate';
+import { StreamingMinMax, DEFAULT_MAX_POINTS, MAX_TRACE_POINTS } from './decimate';
 import { StepResponseTracker, LoadStepTracker, SteadyStateTracker, finiteOrNull } from './metrics';
 import { effectiveBus } from './inverter';
 import type { ResolvedProject } from './project';
@@ -120,7 +120,7 @@ export interface SimulationSetup {
 export interface RunOptions {
   signal?: { readonly aborted: boolean };
   onProgress?: (fraction: number) => void;
-  /** largest trace length per channel (default 5000) */
+  /** largest trace length per channel (default 5000, at most MAX_TRACE_POINTS = 200 000) */
   maxPoints?: number;
   /** wall-time budget, s (default 60) */
   wallBudget_s?: number;
@@ -279,6 +279,7 @@ export function runSimulation(setup: SimulationSetup, opts: RunOptions = {}): Si
   const Ts = setup.controller.Ts;
   if (!(Ts > 0) || !Number.isFinite(Ts)) throw new InputError('control.fCtrl_Hz', 'must be > 0 Hz');
   if (!(setup.duration_s > 0) || !Number.isFinite(setup.duration_s)) throw new InputError('scenario.duration_s', 'must be > 0 s');
+  if (!(Number.isInteger(o.maxPoints) && o.maxPoints >= 2 && o.maxPoints <= MAX_TRACE_POINTS)) throw new InputError('maxPoints', `must be a whole number in 2..${MAX_TRACE_POINTS} (got ${o.maxPoints})`);
   const events: SimulationEvent[] = [];
   let diagnostic: string | undefined;
   const Nwanted = Math.max(1, Math.round(setup.duration_s / Ts));

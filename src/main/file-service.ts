@@ -115,7 +115,8 @@ export class FileService {
     if (path === null) return canceled;
     this.grants.grant(path);
     const r = await atomicWrite(path, req.value.data, { fs: this.fs, platform: this.deps.platform });
-    return r.ok ? { ok: true, path } : refused(r.message);
+    if (!r.ok) return refused(r.message);
+    return r.warning ? { ok: true, path, warning: r.warning } : { ok: true, path };
   }
 
   recent(): Promise<string[]> {

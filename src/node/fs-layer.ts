@@ -1,11 +1,30 @@
 // The few file-system calls the file logic needs, behind an interface so tests can inject faults
 // (a read-only folder, a full disk, a crash between write and rename) without root tricks.
-import { promises as fsp } from 'node:fs';
+import { constants as fsConstants, promises as fsp } from 'node:fs';
 
 export interface FileHandleLike {
   writeFile(data: string | Uint8Array): Promise<void>;
   sync(): Promise<void>;
   close(): Promise<void>;
+  /** Permission bits, set exactly (not masked by the umask), setgid and sticky bits included. */
+  chmod(mode: number): Promise<void>;
+  chown(uid: number, gid: number): Promise<void>;
+}
+
+/** What the file logic needs to know of an existing path (symbolic links followed). */
+export interface FileStat {
+  size: number;
+  /** st_mode: type and permission bits */
+  mode: number;
+  isFile: boolean;
+  /** number of hard links (names) of the file */
+  nlink: number;
+  uid: number;
+  gid: number;
+  /** device and inode: two paths with the same pair name the same file */
+  dev: number;
+  ino: number;
+  mtimeMs: number;
 }
 
 export interface FsLayer {
@@ -16,8 +35,12 @@ export interface FsLayer {
   readFile(path: string): Promise<Buffer>;
   readdir(path: string): Promise<string[]>;
   mkdir(path: string): Promise<void>;
-  /** Size in bytes and permission bits, or null when the path does not exist. */
-  stat(path: string): Promise<{ size: number; mode: number; isFile: boolean } | null>;
+  /** The path's file (symbolic links followed), or null when the path does not exist. */
+  stat(path: string): Promise<FileStat | null>;
+  /** The path with every symbolic link, `.` and `..` resolved (the path must exist). */
+  realpath(path: string): Promise<string>;
+  /** True when this process may write to the existing file at `path` (access(2) with W_OK). */
+  canWrite(path: string): Promise<boolean>;
 }
 
 /** The real file system (node:fs). */
@@ -33,10 +56,19 @@ export const nodeFs: FsLayer = {
   stat: async (path) => {
     try {
       const s = await fsp.stat(path);
-      return { size: s.size, mode: s.mode, isFile: s.isFile() };
+      return { size: s.size, mode: s.mode, isFile: s.isFile(), nlink: s.nlink, uid: s.uid, gid: s.gid, dev: s.dev, ino: s.ino, mtimeMs: s.mtimeMs };
     } catch (e) {
       if ((e as NodeJS.ErrnoException).code === 'ENOENT') return null;
       throw e;
+    }
+  },
+  realpath: (path) => fsp.realpath(path),
+  canWrite: async (path) => {
+    try {
+      await fsp.access(path, fsConstants.W_OK);
+      return true;
+    } catch {
+      return false;
     }
   },
 };
@@ -54,6 +86,8 @@ export function describeFsError(e: unknown): string {
       return 'the disk is full';
     case 'EDQUOT':
       return 'the disk quota is used up';
+    case 'EFBIG':
+      return 'the file would be larger than the system allows';
     case 'ENOENT':
       return 'the file or folder does not exist';
     case 'ENOTDIR':

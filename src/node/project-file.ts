@@ -91,5 +91,6 @@ export async function saveProjectFile(path: string, text: string, options: { fs?
     return { ok: false, canceled: false, message: `Not saved: the project text is not a valid project (${why}). The file on disk is unchanged.` };
   }
   const r = await atomicWrite(path, text.endsWith('\n') ? text : `${text}\n`, options);
-  return r.ok ? { ok: true, path } : { ok: false, canceled: false, message: r.message };
+  if (!r.ok) return { ok: false, canceled: false, message: r.message };
+  return r.warning ? { ok: true, path, warning: r.warning } : { ok: true, path };
 }

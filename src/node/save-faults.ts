@@ -39,6 +39,8 @@ export function faultyFs(fault: Fault, base: FsLayer = nodeFs): FsLayer {
       await h.close();
       return hit('close') ?? undefined;
     },
+    chmod: (m) => h.chmod(m),
+    chown: (u, g) => h.chown(u, g),
   });
   return {
     ...base,
@@ -60,6 +62,7 @@ export const SAVE_FAULTS: readonly Fault[] = [
   { step: 'open', code: 'ENOSPC' },
   { step: 'write', code: 'ENOSPC' }, // a full disk, after a partial write
   { step: 'write', code: 'EDQUOT' },
+  { step: 'write', code: 'EFBIG' }, // a file-size limit (ulimit -f), after a partial write
   { step: 'write', code: 'EIO' },
   { step: 'fsync', code: 'EIO' },
   { step: 'fsync', code: 'ENOSPC' },
@@ -120,7 +123,8 @@ export async function runSaveFaultScenarios(dir: string, faults: readonly Fault[
     const oldFileIntact = (await readFile(target, 'utf8')) === OLD;
     let noLeftovers: boolean;
     if (fault.code === 'crash') {
-      const next = await atomicWrite(target, OLD); // the next save, by a healthy process
+      // the next save, by a healthy process: the crashed process is gone, so its temporary is stale
+      const next = await atomicWrite(target, OLD, { isProcessAlive: () => false });
       noLeftovers = next.ok && (await readdir(sub)).length === 1 && (await readFile(target, 'utf8')) === OLD;
     } else {
       noLeftovers = (await readdir(sub)).length === 1;

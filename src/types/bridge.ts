@@ -45,6 +45,8 @@ export type OpenResult = OpenedProject | Failure;
 export interface Saved {
   ok: true;
   path: string;
+  /** Set when the new content is in place but could not be made durable (the folder was not flushed): tell the user. */
+  warning?: string;
 }
 export type SaveResult = Saved | Failure;
 

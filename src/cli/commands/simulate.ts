@@ -6,6 +6,7 @@ import type { Finding } from '../../core/types';
 import type { SimulationResult, SimulationSetup } from '../../core/simulate';
 import type { ResolvedProject } from '../../core/project';
 import { peakToRms } from '../../core/units';
+import { MAX_TRACE_POINTS } from '../../core/decimate';
 
 /** The metrics of the JSON document: the keys issue 3 names first, then the rest of the engine's. */
 const JSON_METRICS = [
@@ -50,8 +51,9 @@ export const simulateCommand: Command = {
   flags: { csv: 'string', 'max-points': 'number' },
   run(p, args) {
     const setup = simulationFromProject(p);
-    // trace length per channel (min/max decimated; the metrics always use every sample)
-    const maxPoints = numberFlag(args, 'max-points', { min: 2, max: 1e7, integer: true });
+    // trace length per channel (min/max decimated; the metrics always use every sample), bounded so
+    // that memory stays bounded (MAX_TRACE_POINTS)
+    const maxPoints = numberFlag(args, 'max-points', { min: 2, max: MAX_TRACE_POINTS, integer: true });
     const r = runSimulation(setup, maxPoints !== undefined ? { maxPoints } : {});
     const csv = stringFlag(args, 'csv');
     const { json, text } = simulationReport(p, setup, r);

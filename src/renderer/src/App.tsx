@@ -280,7 +280,8 @@ export function App() {
       if (r.ok) {
         setSource({ name: r.path.replace(/^.*[\\/]/, ''), path: r.path, demo: false, readOnly: false });
         setDirty(false);
-        setNotice(`Saved ${r.path.replace(/^.*[\\/]/, '')}.`);
+        // saved, but perhaps not durable (the folder could not be flushed): the warning says so
+        setNotice(r.warning ?? `Saved ${r.path.replace(/^.*[\\/]/, '')}.`);
         void bridge.recoveryDiscard();
       } else if (!r.canceled) setNotice(r.message);
     },

@@ -205,7 +205,7 @@ export async function exportAndTell(kind: ExportKind, make: () => string | Uint8
   try {
     const data = await make();
     const r = await fileBridge().export(kind, data, suggestedName);
-    if (r.ok) notifier?.(`Exported ${r.path.replace(/^.*[\\/]/, '')}.`, true);
+    if (r.ok) notifier?.(r.warning ?? `Exported ${r.path.replace(/^.*[\\/]/, '')}.`, true);
     else if (!r.canceled) notifier?.(r.message, false);
     return r.ok;
   } catch (e) {
