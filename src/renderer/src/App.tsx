@@ -1,6 +1,6 @@
 // Torquewise main window: the input side on the left, four views on the right.
 import { useCallback, useEffect, useMemo, useRef, useState } from 'react';
-import { checkProject, parseProject } from '../../core/schema';
+import { checkProject, listCapProblem, parseProject } from '../../core/schema';
 import { migrateProject } from '../../core/migrate';
 import { resolveProject, type ResolvedProject } from '../../core/project';
 import { isInputError } from '../../core/errors';
@@ -248,7 +248,13 @@ export function App() {
     const tree = parseText(text);
     if (tree === null) {
       setNotice(`${src.name} is not valid JSON; nothing was changed.`);
-      return;
+      return false;
+    }
+    // a list beyond the schema's cap is refused by its length before the form lays it out
+    const tooLong = listCapProblem(tree);
+    if (tooLong) {
+      setNotice(`${src.name} was not opened: ${tooLong.path} ${tooLong.message}; nothing was changed.`);
+      return false;
     }
     const d = newDraft(tree);
     const c = check(tree);
@@ -258,6 +264,7 @@ export function App() {
     setSource(src);
     setDirty(false);
     setNotice(message ?? null);
+    return true;
   }, [store]);
 
   const bridge = fileBridge();

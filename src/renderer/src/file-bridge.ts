@@ -1,6 +1,7 @@
 // The one place that knows where files come from and go to: the Electron preload bridge
 // (window.torquewise) when present, otherwise browser upload/download. Everything else in the
 // renderer calls this module and takes the same code path in both.
+import { MAX_PROJECT_BYTES } from '../../core/schema';
 import type {
   ExportKind,
   MenuEvent,
@@ -47,6 +48,28 @@ function download(data: string | Uint8Array, name: string, mime: string): void {
   setTimeout(() => URL.revokeObjectURL(url), 10_000);
 }
 
+/** What readUpload needs of a picked File. */
+export interface UploadLike {
+  readonly name: string;
+  readonly size: number;
+  text(): Promise<string>;
+}
+
+/**
+ * A picked file's text, or a refusal. Its size is checked first, against the limit the desktop
+ * app applies (MAX_PROJECT_BYTES): a larger file is never read, so it cannot stall or crash the tab.
+ */
+export async function readUpload(file: UploadLike, maxBytes: number = MAX_PROJECT_BYTES): Promise<OpenResult> {
+  if (!(file.size <= maxBytes)) {
+    return { ok: false, canceled: false, message: `Could not open "${file.name}": it is ${file.size} bytes, more than the ${maxBytes} bytes a project may have.` };
+  }
+  try {
+    return { ok: true, path: file.name, text: await file.text(), readOnly: false };
+  } catch {
+    return { ok: false, canceled: false, message: `Could not read ${file.name}.` };
+  }
+}
+
 function pickFile(): Promise<OpenResult> {
   return new Promise((resolve) => {
     const input = document.createElement('input');
@@ -63,10 +86,7 @@ function pickFile(): Promise<OpenResult> {
     input.addEventListener('change', () => {
       const file = input.files?.[0];
       if (!file) return finish({ ok: false, canceled: true, message: '' });
-      file.text().then(
-        (text) => finish({ ok: true, path: file.name, text, readOnly: false }),
-        () => finish({ ok: false, canceled: false, message: `Could not read ${file.name}.` }),
-      );
+      void readUpload(file).then(finish);
     });
     input.addEventListener('cancel', () => finish({ ok: false, canceled: true, message: '' }));
     document.body.appendChild(input);
