@@ -305,8 +305,12 @@ export function App() {
     }
     void bridge.recoveryCheck().then((offer) => {
       if (offer && window.confirm(`Unsaved edits from ${offer.savedAt} were found. Restore them?`)) {
-        load(offer.text, { name: offer.documentPath?.replace(/^.*[\\/]/, '') ?? 'recovered.json', path: offer.documentPath, demo: false, readOnly: false });
-        setDirty(true);
+        if (load(offer.text, { name: offer.documentPath?.replace(/^.*[\\/]/, '') ?? 'recovered.json', path: offer.documentPath, demo: false, readOnly: false })) {
+          setDirty(true);
+          // restored: autosaved afresh, so it is offered again if the tab goes before a save
+          void bridge.recoveryWrite(offer.text, offer.documentPath);
+        }
+        // not restored: the entry stays as it is, and the next start keeps it aside instead of offering it again
       } else if (offer) void bridge.recoveryDiscard();
     });
   }, [bridge, load]);

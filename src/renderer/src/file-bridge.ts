@@ -2,6 +2,7 @@
 // (window.torquewise) when present, otherwise browser upload/download. Everything else in the
 // renderer calls this module and takes the same code path in both.
 import { MAX_PROJECT_BYTES } from '../../core/schema';
+import { webRecovery } from './web-recovery';
 import type {
   ExportKind,
   MenuEvent,
@@ -118,42 +119,8 @@ function browserBridge(): FileBridge {
   };
 }
 
-/** Key of the autosaved edits in the page's local storage (the web variant's recovery file). */
-export const RECOVERY_KEY = 'torquewise.recovery';
-
-/**
- * Recovery of unsaved edits in a plain browser: the same offer as the desktop's recovery file, kept
- * in local storage. A storage that refuses (private mode, quota) only loses the autosave, never the
- * edits on screen.
- */
-export const browserRecovery = {
-  check(): RecoveryOffer | null {
-    try {
-      const raw = globalThis.localStorage?.getItem(RECOVERY_KEY);
-      if (!raw) return null;
-      const o = JSON.parse(raw) as Partial<RecoveryOffer>;
-      if (typeof o.text !== 'string' || typeof o.savedAt !== 'string') return null;
-      return { text: o.text, documentPath: typeof o.documentPath === 'string' ? o.documentPath : null, savedAt: o.savedAt };
-    } catch {
-      return null;
-    }
-  },
-  write(text: string, documentPath: string | null): void {
-    try {
-      const offer: RecoveryOffer = { text, documentPath, savedAt: new Date().toISOString() };
-      globalThis.localStorage?.setItem(RECOVERY_KEY, JSON.stringify(offer));
-    } catch {
-      /* storage full or refused: the edits stay on screen */
-    }
-  },
-  discard(): void {
-    try {
-      globalThis.localStorage?.removeItem(RECOVERY_KEY);
-    } catch {
-      /* nothing kept */
-    }
-  },
-};
+/** Recovery of unsaved edits in a plain browser, in the page's local storage (see web-recovery.ts). */
+export const browserRecovery = webRecovery(() => globalThis.localStorage);
 
 function electronBridge(b: TorquewiseBridge): FileBridge {
   return {
