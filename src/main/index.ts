@@ -5,6 +5,7 @@ import { app, BrowserWindow, dialog, ipcMain, Menu, session, type IpcMainInvokeE
 import { join } from 'node:path';
 import { fileURLToPath, pathToFileURL } from 'node:url';
 import { projectPathFromArgv } from './argv';
+import { changedOnDiskPrompt, overwriteAllowed } from './changed-on-disk';
 import { cspHeader } from './csp';
 import { FileService, type Dialogs } from './file-service';
 import { CHANNELS, EXPORT_FORMATS } from './ipc';
@@ -38,6 +39,11 @@ const dialogs: Dialogs = {
     const opts = { defaultPath: join(app.getPath('documents'), defaultName), filters: [filter] };
     const r = win ? await dialog.showSaveDialog(win, opts) : await dialog.showSaveDialog(opts);
     return r.canceled || !r.filePath ? null : r.filePath;
+  },
+  async confirmOverwrite(changed) {
+    const prompt = changedOnDiskPrompt(changed);
+    const r = win ? await dialog.showMessageBox(win, prompt) : await dialog.showMessageBox(prompt);
+    return overwriteAllowed(r.response);
   },
 };
 

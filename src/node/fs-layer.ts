@@ -16,8 +16,8 @@ export interface FsLayer {
   readFile(path: string): Promise<Buffer>;
   readdir(path: string): Promise<string[]>;
   mkdir(path: string): Promise<void>;
-  /** Size in bytes and permission bits, or null when the path does not exist. */
-  stat(path: string): Promise<{ size: number; mode: number; isFile: boolean } | null>;
+  /** Size in bytes, permission bits and (optional in fakes) the last modification time, or null when the path does not exist. */
+  stat(path: string): Promise<{ size: number; mode: number; isFile: boolean; mtimeMs?: number } | null>;
 }
 
 /** The real file system (node:fs). */
@@ -33,7 +33,7 @@ export const nodeFs: FsLayer = {
   stat: async (path) => {
     try {
       const s = await fsp.stat(path);
-      return { size: s.size, mode: s.mode, isFile: s.isFile() };
+      return { size: s.size, mode: s.mode, isFile: s.isFile(), mtimeMs: s.mtimeMs };
     } catch (e) {
       if ((e as NodeJS.ErrnoException).code === 'ENOENT') return null;
       throw e;
