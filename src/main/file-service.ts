@@ -49,6 +49,10 @@ const canceled: Failure = { ok: false, canceled: true, message: 'Canceled.' };
 export class FileService {
   readonly grants: PathGrants;
   private readonly fs: FsLayer;
+  /** The document whose recovery file was offered at start (dropped when the user declines it). */
+  private offered: { documentPath: string | null } | null = null;
+  /** A file named by a second launch of the app, handed to the window as its next file. */
+  private launched: string | null = null;
   /** Per file, the version this session last read or wrote: Save compares the disk against it. */
   private readonly known = new Map<string, KnownVersion>();
 
@@ -77,11 +81,11 @@ export class FileService {
   }
 
   /** Writes the project and records what was written, so the next Save knows its own version. */
-  private async write(path: string, text: string): Promise<SaveResult> {
+  private async write(path: string, text: string, saveAs: boolean): Promise<SaveResult> {
     const r = await saveProjectFile(path, text, { fs: this.fs, platform: this.deps.platform });
     if (r.ok) {
       this.known.set(path, { text: text.endsWith('\n') ? text : `${text}\n`, at: this.now(), how: 'saved' });
-      await this.afterCleanSave(r.path);
+      await this.afterCleanSave(r.path, saveAs);
     }
     return r;
   }
@@ -97,18 +101,25 @@ export class FileService {
     if (!p.ok) return refused(`Not opened: ${p.message}.`);
     const list = await readRecent(this.deps.userDataDir, { fs: this.fs });
     if (!list.includes(p.value)) return refused('Not opened: that file is not in the recent list.');
+    if (p.value === this.launched) this.launched = null;
     const r = await this.openAt(p.value);
     if (!r.ok && / does not exist\.$/.test(r.message)) this.deps.onRecentChanged?.(await removeRecent(this.deps.userDataDir, p.value, { fs: this.fs }));
     return r;
   }
 
   async initialFile(): Promise<OpenResult | null> {
-    if (this.deps.initialPath === null) return null;
-    return this.openAt(this.deps.initialPath);
+    // a window made for a second launch's file (no window was open) starts with that file
+    const launched = this.launched;
+    this.launched = null;
+    const path = launched ?? this.deps.initialPath;
+    if (path === null) return null;
+    return this.openAt(path);
   }
 
-  private async afterCleanSave(path: string): Promise<void> {
-    await clearRecovery(this.deps.userDataDir, { fs: this.fs });
+  private async afterCleanSave(path: string, wasUntitled: boolean): Promise<void> {
+    await clearRecovery(this.deps.userDataDir, path, { fs: this.fs });
+    // Save As gives the window's never-saved project its file: its untitled autosave is done with
+    if (wasUntitled) await clearRecovery(this.deps.userDataDir, null, { fs: this.fs });
     await this.remember(path);
   }
 
@@ -119,7 +130,7 @@ export class FileService {
     // another program or window changed the file since we read or wrote it: ask, never drop its edit
     const changed = await changedOnDisk(req.value.path, this.known.get(req.value.path), this.fs);
     if (changed && !(await this.deps.dialogs.confirmOverwrite?.(changed))) return refused(keptMessage(changed));
-    return this.write(req.value.path, req.value.text);
+    return this.write(req.value.path, req.value.text, false);
   }
 
   async saveAs(arg: unknown): Promise<SaveResult> {
@@ -129,7 +140,7 @@ export class FileService {
     if (path === null) return canceled;
     // the save dialog itself asked before replacing an existing file
     this.grants.grant(path);
-    return this.write(path, req.value.text);
+    return this.write(path, req.value.text, true);
   }
 
   async export(arg: unknown): Promise<SaveResult> {
@@ -153,6 +164,7 @@ export class FileService {
    */
   async recoveryCheck(): Promise<RecoveryOffer | null> {
     const offer = await readRecovery(this.deps.userDataDir, { fs: this.fs });
+    this.offered = offer ? { documentPath: offer.documentPath } : null;
     if (offer?.documentPath && (await readRecent(this.deps.userDataDir, { fs: this.fs })).includes(offer.documentPath)) {
       this.grants.grant(offer.documentPath);
       // the edits are from the autosave's time: a file changed after it is asked about on Save
@@ -167,7 +179,19 @@ export class FileService {
     return writeRecovery(this.deps.userDataDir, req.value.text, req.value.documentPath, { fs: this.fs });
   }
 
-  recoveryDiscard(): Promise<void> {
-    return clearRecovery(this.deps.userDataDir, { fs: this.fs });
+  /** The offered edits were declined (or saved): drop that document's recovery file, no other. */
+  async recoveryDiscard(): Promise<void> {
+    if (!this.offered) return;
+    await clearRecovery(this.deps.userDataDir, this.offered.documentPath, { fs: this.fs });
+    this.offered = null;
+  }
+
+  /**
+   * A second launch of the app named this file (single-instance lock: it opens here). It joins the
+   * recent list, so the window may open it as it opens a recent file.
+   */
+  async launch(path: string): Promise<void> {
+    this.launched = path;
+    await this.remember(path);
   }
 }

@@ -12,6 +12,7 @@ import { CHANNELS, EXPORT_FORMATS } from './ipc';
 import { menuTemplate, type MenuItemData } from './menu';
 import { isAppPage, isLoopbackDevServer, navigationDecision, permissionDecision, windowOpenDecision } from './navigation';
 import { PRELOAD_FROM_MAIN, RENDERER_FROM_MAIN } from './paths';
+import { secondLaunch } from './single-instance';
 import { windowOptions } from './window-options';
 import { closeAllowed, unsavedPrompt } from './unsaved-prompt';
 
@@ -144,15 +145,34 @@ function createWindow(): void {
   else void win.loadFile(rendererFile);
 }
 
-void app.whenReady().then(async () => {
-  secureSession();
-  wireIpc();
-  buildMenu(await files.recent());
-  createWindow();
-  app.on('activate', () => {
-    if (BrowserWindow.getAllWindows().length === 0) createWindow();
+/** A second launch of the app: its file opens here, in this window (or a new one when none is open). */
+async function onSecondLaunch(argv: string[], workingDirectory: string): Promise<void> {
+  const action = secondLaunch(argv, workingDirectory, { packaged: app.isPackaged });
+  if (action.open !== null) await files.launch(action.open);
+  if (!win) {
+    if (app.isReady()) createWindow();
+    return;
+  }
+  if (action.open !== null) win.webContents.send(CHANNELS.menu, { name: 'file:open-recent', path: action.open });
+  if (win.isMinimized()) win.restore();
+  win.focus();
+}
+
+// One instance: a second launch hands its command line to this one and quits.
+if (!app.requestSingleInstanceLock()) {
+  app.quit();
+} else {
+  app.on('second-instance', (_event, argv, workingDirectory) => void onSecondLaunch(argv, workingDirectory));
+  void app.whenReady().then(async () => {
+    secureSession();
+    wireIpc();
+    buildMenu(await files.recent());
+    createWindow();
+    app.on('activate', () => {
+      if (BrowserWindow.getAllWindows().length === 0) createWindow();
+    });
   });
-});
+}
 
 app.on('window-all-closed', () => {
   if (process.platform !== 'darwin') app.quit();

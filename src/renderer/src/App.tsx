@@ -279,6 +279,12 @@ export function App() {
     else if (!r.canceled) setNotice(r.message);
   }, [bridge, load]);
 
+  const doOpenRecent = useCallback(async (path: string) => {
+    const r = await bridge.openRecent(path);
+    if (r.ok) load(r.text, { name: r.path.replace(/^.*[\\/]/, ''), path: r.path, demo: false, readOnly: r.readOnly }, r.message);
+    else if (!r.canceled) setNotice(r.message);
+  }, [bridge, load]);
+
   const doSave = useCallback(
     async (as: boolean) => {
       // a read-only project (a file from a newer format version) is never written over: Save is Save As
@@ -323,6 +329,9 @@ export function App() {
         break;
       case 'file:open':
         void doOpen();
+        break;
+      case 'file:open-recent':
+        if (e.path) void doOpenRecent(e.path);
         break;
       case 'file:save':
         void doSave(false);

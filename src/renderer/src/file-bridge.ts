@@ -16,6 +16,8 @@ export interface FileBridge {
   readonly kind: 'electron' | 'browser';
   /** Let the user pick a project file and read it. */
   open(): Promise<OpenResult>;
+  /** Open a file of the recent list (desktop; the menu, or a second launch of the app naming a file). */
+  openRecent(path: string): Promise<OpenResult>;
   /** The project given at start (Electron command line), or null. */
   initialFile(): Promise<OpenResult | null>;
   /** Save to `path` when one was granted (opened or saved before), otherwise ask (Save As). */
@@ -99,6 +101,7 @@ function browserBridge(): FileBridge {
   return {
     kind: 'browser',
     open: pickFile,
+    openRecent: async () => ({ ok: false, canceled: false, message: 'Recent files are opened in the desktop app only.' }),
     initialFile: async () => null,
     async save(text, _path, suggestedName) {
       download(text, suggestedName, 'application/json');
@@ -126,6 +129,7 @@ function electronBridge(b: TorquewiseBridge): FileBridge {
   return {
     kind: 'electron',
     open: () => b.open(),
+    openRecent: (path) => b.openRecent(path),
     initialFile: () => b.initialFile(),
     save: (text, path, suggestedName) => (path ? b.save({ path, text }) : b.saveAs({ text, suggestedName })),
     saveAs: (text, suggestedName) => b.saveAs({ text, suggestedName }),
