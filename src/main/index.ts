@@ -1,9 +1,10 @@
 // Electron main: thin wiring of the plain modules beside it. All logic (window options, CSP,
 // navigation policy, menu, argument checks, file handling) lives in those modules and is tested
 // under Node; this file only connects them to Electron.
-import { app, BrowserWindow, dialog, ipcMain, Menu, session, type IpcMainInvokeEvent, type MenuItemConstructorOptions } from 'electron';
-import { join } from 'node:path';
-import { fileURLToPath, pathToFileURL } from 'node:url';
+import { app, BrowserWindow, dialog, ipcMain, Menu, protocol, session, type IpcMainInvokeEvent, type MenuItemConstructorOptions } from 'electron';
+import { dirname, join } from 'node:path';
+import { fileURLToPath } from 'node:url';
+import { APP_PAGE_URL, APP_SCHEME, APP_SCHEME_PRIVILEGES, serveAppRequest } from './app-protocol';
 import { projectPathFromArgv } from './argv';
 import { changedOnDiskPrompt, overwriteAllowed } from './changed-on-disk';
 import { cspHeader } from './csp';
@@ -23,7 +24,11 @@ const devEnv = process.env['ELECTRON_RENDERER_URL'];
 const devServerUrl = !app.isPackaged && devEnv && isLoopbackDevServer(devEnv) ? devEnv : undefined;
 const dev = devServerUrl !== undefined;
 const rendererFile = join(here, RENDERER_FROM_MAIN);
-const appUrl = devServerUrl ?? pathToFileURL(rendererFile).href;
+// The built renderer is served from app://torquewise/ (src/main/app-protocol.ts), never file://.
+const rendererRoot = dirname(rendererFile);
+const appUrl = devServerUrl ?? APP_PAGE_URL;
+// before the app is ready: the scheme is standard and secure (an origin of its own)
+protocol.registerSchemesAsPrivileged([{ scheme: APP_SCHEME, privileges: { ...APP_SCHEME_PRIVILEGES } }]);
 
 let win: BrowserWindow | null = null;
 
@@ -108,6 +113,11 @@ function wireIpc(): void {
 
 function secureSession(): void {
   const csp = cspHeader(devServerUrl ? { devServerUrl } : {});
+  // every response of the app scheme carries the CSP header; only files of the build output are served
+  protocol.handle(APP_SCHEME, async (request) => {
+    const r = await serveAppRequest({ url: request.url, method: request.method }, rendererRoot, csp);
+    return new Response(r.body, { status: r.status, headers: r.headers });
+  });
   session.defaultSession.webRequest.onHeadersReceived((details, callback) => {
     const headers = { ...details.responseHeaders };
     for (const k of Object.keys(headers)) if (k.toLowerCase() === 'content-security-policy') delete headers[k];
@@ -142,7 +152,7 @@ function createWindow(): void {
     win = null;
   });
   if (devServerUrl) void win.loadURL(devServerUrl);
-  else void win.loadFile(rendererFile);
+  else void win.loadURL(APP_PAGE_URL);
 }
 
 /** A second launch of the app: its file opens here, in this window (or a new one when none is open). */
