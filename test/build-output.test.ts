@@ -9,7 +9,8 @@ import { existsSync, mkdtempSync, readFileSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { cspMeta, parseCsp } from '../src/main/csp';
+import { APP_PAGE_URL, resolveAppPath, serveAppRequest } from '../src/main/app-protocol';
+import { cspHeader, cspMeta, parseCsp } from '../src/main/csp';
 import { PRELOAD_FROM_MAIN, RENDERER_FROM_MAIN } from '../src/main/paths';
 
 const root = resolve(__dirname, '..');
@@ -97,6 +98,25 @@ describe('built renderer (renderer/index.html)', () => {
       expect(s, s).not.toMatch(/^(https?:)?\/\//);
       if (s.startsWith('data:')) continue; // inline (e.g. an empty icon), nothing fetched
       expect(existsSync(resolve(out, 'renderer', s)), s).toBe(true);
+    }
+  });
+  it('every path the page loads through app://torquewise/ resolves inside the build output and is served with the CSP header', async () => {
+    const dir = join(out, 'renderer');
+    const html = readFileSync(join(dir, 'index.html'), 'utf8');
+    const srcs = [...html.matchAll(/<(?:script|link)[^>]+(?:src|href)=["']([^"']+)["']/g)].map((x) => x[1]!).filter((s) => !s.startsWith('data:'));
+    // and the files the scripts fetch by a relative URL (the simulation worker, chunks)
+    for (const f of srcs.filter((s) => s.endsWith('.js'))) {
+      for (const m of readFileSync(resolve(dir, f), 'utf8').matchAll(/["'`](\.{0,2}\/?assets\/[\w.-]+\.js)["'`]|["'`]\.\/([\w.-]+\.js)["'`]/g)) srcs.push((m[1] ?? `assets/${m[2]}`)!);
+    }
+    expect(srcs.length).toBeGreaterThan(1);
+    for (const s of new Set([APP_PAGE_URL, ...srcs.map((x) => new URL(x, APP_PAGE_URL).href)])) {
+      const r = resolveAppPath(s, dir);
+      expect(r.ok, s).toBe(true);
+      if (!r.ok) continue;
+      expect(r.path.startsWith(resolve(dir) + '/'), s).toBe(true);
+      const res = await serveAppRequest({ url: s, method: 'GET' }, dir, cspHeader());
+      expect([s, res.status]).toEqual([s, 200]);
+      expect(res.headers['content-security-policy']).toBe(cspHeader());
     }
   });
 });

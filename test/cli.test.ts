@@ -141,8 +141,8 @@ describe('cli --json documents', () => {
     const out = join(dir, 'env.csv');
     const r = await run('envelope', spmProject(), '--points', '5', '--csv', out);
     expect(r.code).toBe(0);
-    const lines = readFileSync(out, 'utf8').trim().split('\n');
-    expect(lines[0]).toMatch(/^speed_rpm,torque_Nm,power_W,id_A,iq_A/);
+    const lines = readFileSync(out, 'utf8').trim().split('\r\n');
+    expect(lines[0]).toMatch(/^"speed_rpm","torque_Nm","power_W","id_A","iq_A"/);
     expect(lines).toHaveLength(6);
   });
 });

@@ -5,7 +5,7 @@ import { join } from 'node:path';
 import { afterEach, beforeEach, describe, expect, it } from 'vitest';
 import { FileService, type SaveDialogRequest } from '../src/main/file-service';
 import { nodeFs, type FsLayer } from '../src/node/fs-layer';
-import { RECOVERY_FILE_NAME } from '../src/node/recovery';
+import { listRecoveries } from '../src/node/recovery';
 
 let dir: string;
 let ud: string;
@@ -77,7 +77,7 @@ describe('FileService', () => {
     expect(await s.recoveryCheck()).toMatchObject({ text: P2, documentPath: null });
     expect(await s.saveAs({ text: P2, suggestedName: 'traction.json' })).toEqual({ ok: true, path: target });
     expect(saveRequests).toEqual([{ kind: 'project', defaultName: 'traction.json' }]);
-    expect(existsSync(join(ud, RECOVERY_FILE_NAME))).toBe(false);
+    expect(await listRecoveries(ud)).toEqual([]);
     expect(await s.recoveryCheck()).toBeNull();
     expect(await s.save({ path: target, text: P1 })).toEqual({ ok: true, path: target });
   });
@@ -166,5 +166,19 @@ describe('FileService', () => {
     expect(await third.s.recoveryCheck()).toMatchObject({ documentPath: elsewhere });
     expect((await third.s.save({ path: elsewhere, text: P2 })).ok).toBe(false);
     expect(existsSync(elsewhere)).toBe(false);
+  });
+
+  it('recovery files are kept per document: declining one offer drops that file only, the other is offered next', async () => {
+    const a = join(dir, 'a.json');
+    const b = join(dir, 'b.json');
+    const { s } = service();
+    await s.recoveryWrite({ text: 'edits of a', documentPath: a });
+    await new Promise((r) => setTimeout(r, 5)); // a later autosave time for b
+    await s.recoveryWrite({ text: 'edits of b', documentPath: b });
+    const next = service();
+    expect(await next.s.recoveryCheck()).toMatchObject({ text: 'edits of b', documentPath: b });
+    await next.s.recoveryDiscard();
+    const third = service();
+    expect(await third.s.recoveryCheck()).toMatchObject({ text: 'edits of a', documentPath: a });
   });
 });

@@ -1,7 +1,7 @@
 import { messageOf } from './helpers';
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
-import { KEYS, checkProject, parseProject, projectSchema } from '../src/core/schema';
+import { CAPPED_LISTS, KEYS, MAX_LIST_ENTRIES, checkProject, listCapProblem, parseProject, projectSchema } from '../src/core/schema';
 import { InputError } from '../src/core/errors';
 
 const minimal = (): Record<string, any> => ({
@@ -245,5 +245,36 @@ describe('KEYS table', () => {
     }
     expect(KEYS['motor.Ld'].unit).toBe('H');
     expect(KEYS['scenario.loadModel.k'].unit).toBe('N·m·s²/rad²');
+  });
+});
+
+describe('one cap for every list, checked by length before any entry', () => {
+  // every entry of the huge list is invalid: a walk over the entries would report them
+  const bad = { label: 7, speed_rpm: -1, torque_Nm: 'x', extra: true };
+  it('a project with a million requirements is refused by the list, naming it and the cap', () => {
+    const p = { ...minimal(), requirements: Array.from({ length: 1_000_000 }, () => bad) };
+    expect(messageOf(() => parseProject(p))).toBe(`requirements must have at most ${MAX_LIST_ENTRIES} entries (it has 1000000)`);
+    expect(checkProject(p)).toEqual([{ path: 'requirements', message: `must have at most ${MAX_LIST_ENTRIES} entries (it has 1000000)` }]);
+  });
+  it('requirement, step and load lists share the cap, each named in its refusal and its KEYS entry', () => {
+    expect(CAPPED_LISTS.map((l) => l.join('.'))).toEqual(['requirements', 'scenario.speedSteps', 'scenario.torqueSteps', 'scenario.loadSteps', 'scenario.loadRamps']);
+    for (const path of CAPPED_LISTS) {
+      const p = minimal();
+      p.scenario = { duration_s: 1 };
+      const over = Array.from({ length: MAX_LIST_ENTRIES + 1 }, () => bad);
+      if (path.length === 1) p[path[0]!] = over;
+      else p.scenario[path[1]!] = over;
+      const name = path.join('.');
+      expect(listCapProblem(p)).toEqual({ path: name, message: `must have at most ${MAX_LIST_ENTRIES} entries (it has ${MAX_LIST_ENTRIES + 1})` });
+      expect(checkProject(p)).toEqual([listCapProblem(p)]);
+      expect(KEYS[name]!.doc).toContain(`at most ${MAX_LIST_ENTRIES}`);
+    }
+  });
+  it('a list at the cap is checked entry by entry as before', () => {
+    const p = { ...minimal(), requirements: Array.from({ length: MAX_LIST_ENTRIES }, (_, i) => ({ label: `p${i}`, speed_rpm: i, torque_Nm: 0.1 })) };
+    expect(listCapProblem(p)).toBeNull();
+    expect(parseProject(p).requirements).toHaveLength(MAX_LIST_ENTRIES);
+    p.requirements[999] = { label: 'p999', speed_rpm: -1, torque_Nm: 0 };
+    expect(messageOf(() => parseProject(p))).toBe('requirements[999].speed_rpm must be >= 0 rpm');
   });
 });

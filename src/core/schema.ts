@@ -12,6 +12,28 @@ import type { Nameplate } from './nameplate';
 export const PROJECT_FORMAT = 'torquewise-project';
 export const PROJECT_VERSION = 1;
 
+/**
+ * Largest project file read, in bytes, by the desktop app and the web page alike (a project is a
+ * few kB); the web page checks a picked file's size against it before reading it.
+ */
+export const MAX_PROJECT_BYTES = 16 * 1024 * 1024;
+
+/**
+ * Most entries in any one list of a project: requirements, scenario.speedSteps, torqueSteps,
+ * loadSteps and loadRamps (a project has a handful of each). A longer list is refused by its
+ * length, before any entry is looked at, so a file with a million entries is answered at once.
+ */
+export const MAX_LIST_ENTRIES = 1000;
+
+/** The lists MAX_LIST_ENTRIES applies to, as paths from the project root. */
+export const CAPPED_LISTS: readonly (readonly string[])[] = [
+  ['requirements'],
+  ['scenario', 'speedSteps'],
+  ['scenario', 'torqueSteps'],
+  ['scenario', 'loadSteps'],
+  ['scenario', 'loadRamps'],
+];
+
 /** unit ('' = dimensionless or text) and meaning of every key of the project file */
 export const KEYS: Readonly<Record<string, { unit: string; doc: string }>> = {
   format: { unit: '', doc: `always "${PROJECT_FORMAT}"` },
@@ -83,7 +105,7 @@ export const KEYS: Readonly<Record<string, { unit: string; doc: string }>> = {
   'conditions.coldTemp_C': { unit: '°C', doc: 'winding and magnet temperature, cold corner (highest back-EMF), 20 when not given (with a finding)' },
   'conditions.magnetTempCoeff': { unit: '/K', doc: 'remanence coefficient, -0.003..0.001, default -0.0012 (sintered NdFeB; SmCo about -0.0004)' },
 
-  requirements: { unit: '', doc: 'operating points to meet' },
+  requirements: { unit: '', doc: `operating points to meet, at most ${MAX_LIST_ENTRIES}` },
   'requirements[]': { unit: '', doc: '{label, speed_rpm, torque_Nm}' },
   'requirements[].label': { unit: '', doc: 'name of the point' },
   'requirements[].speed_rpm': { unit: 'rpm', doc: 'mechanical speed, >= 0' },
@@ -111,19 +133,19 @@ export const KEYS: Readonly<Record<string, { unit: string; doc: string }>> = {
   scenario: { unit: '', doc: 'what the simulation does' },
   'scenario.duration_s': { unit: 's', doc: 'simulated time' },
   'scenario.initialSpeed_rpm': { unit: 'rpm', doc: 'speed at t = 0, default 0' },
-  'scenario.speedSteps': { unit: '', doc: 'speed reference steps [{t_s, speed_rpm}]' },
+  'scenario.speedSteps': { unit: '', doc: `speed reference steps [{t_s, speed_rpm}], at most ${MAX_LIST_ENTRIES}` },
   'scenario.speedSteps[]': { unit: '', doc: '{t_s, speed_rpm}' },
   'scenario.speedSteps[].t_s': { unit: 's', doc: 'time of the step' },
   'scenario.speedSteps[].speed_rpm': { unit: 'rpm', doc: 'new speed reference' },
-  'scenario.torqueSteps': { unit: '', doc: 'torque reference steps (torque mode) [{t_s, torque_Nm}]' },
+  'scenario.torqueSteps': { unit: '', doc: `torque reference steps (torque mode) [{t_s, torque_Nm}], at most ${MAX_LIST_ENTRIES}` },
   'scenario.torqueSteps[]': { unit: '', doc: '{t_s, torque_Nm}' },
   'scenario.torqueSteps[].t_s': { unit: 's', doc: 'time of the step' },
   'scenario.torqueSteps[].torque_Nm': { unit: 'N·m', doc: 'new torque reference' },
-  'scenario.loadSteps': { unit: '', doc: 'load torque steps [{t_s, torque_Nm}]' },
+  'scenario.loadSteps': { unit: '', doc: `load torque steps [{t_s, torque_Nm}], at most ${MAX_LIST_ENTRIES}` },
   'scenario.loadSteps[]': { unit: '', doc: '{t_s, torque_Nm}' },
   'scenario.loadSteps[].t_s': { unit: 's', doc: 'time of the step' },
   'scenario.loadSteps[].torque_Nm': { unit: 'N·m', doc: 'new load torque (opposes motoring)' },
-  'scenario.loadRamps': { unit: '', doc: 'load torque ramps [{t_s, duration_s, torque_Nm}]' },
+  'scenario.loadRamps': { unit: '', doc: `load torque ramps [{t_s, duration_s, torque_Nm}], at most ${MAX_LIST_ENTRIES}` },
   'scenario.loadRamps[]': { unit: '', doc: 'from the load at t_s, linearly to torque_Nm over duration_s' },
   'scenario.loadRamps[].t_s': { unit: 's', doc: 'start of the ramp' },
   'scenario.loadRamps[].duration_s': { unit: 's', doc: 'length of the ramp' },
@@ -303,16 +325,14 @@ const controlSchema = z
   })
   .describe('the drive controller');
 
-/** most steps or ramps in one list of a scenario (a test scenario has a handful) */
-const MAX_EVENTS = 1000;
 const stepT = (path: string) => num(path, 0, 1e5);
 const scenarioSchema = z
   .strictObject({
     duration_s: num('scenario.duration_s', 0, 3600, { gtMin: true }),
     initialSpeed_rpm: num('scenario.initialSpeed_rpm', -1e6, 1e6).default(0),
-    speedSteps: z.array(z.strictObject({ t_s: stepT('scenario.speedSteps[].t_s'), speed_rpm: num('scenario.speedSteps[].speed_rpm', -1e6, 1e6) })).max(MAX_EVENTS).default([]),
-    torqueSteps: z.array(z.strictObject({ t_s: stepT('scenario.torqueSteps[].t_s'), torque_Nm: num('scenario.torqueSteps[].torque_Nm', -1e6, 1e6) })).max(MAX_EVENTS).default([]),
-    loadSteps: z.array(z.strictObject({ t_s: stepT('scenario.loadSteps[].t_s'), torque_Nm: num('scenario.loadSteps[].torque_Nm', -1e6, 1e6) })).max(MAX_EVENTS).default([]),
+    speedSteps: z.array(z.strictObject({ t_s: stepT('scenario.speedSteps[].t_s'), speed_rpm: num('scenario.speedSteps[].speed_rpm', -1e6, 1e6) })).max(MAX_LIST_ENTRIES).default([]),
+    torqueSteps: z.array(z.strictObject({ t_s: stepT('scenario.torqueSteps[].t_s'), torque_Nm: num('scenario.torqueSteps[].torque_Nm', -1e6, 1e6) })).max(MAX_LIST_ENTRIES).default([]),
+    loadSteps: z.array(z.strictObject({ t_s: stepT('scenario.loadSteps[].t_s'), torque_Nm: num('scenario.loadSteps[].torque_Nm', -1e6, 1e6) })).max(MAX_LIST_ENTRIES).default([]),
     loadRamps: z
       .array(
         z.strictObject({
@@ -321,7 +341,7 @@ const scenarioSchema = z
           torque_Nm: num('scenario.loadRamps[].torque_Nm', -1e6, 1e6),
         }),
       )
-      .max(MAX_EVENTS)
+      .max(MAX_LIST_ENTRIES)
       .default([]),
     loadModel: z.strictObject({ kind: z.literal('quadratic'), k: num('scenario.loadModel.k', 0, 1e6) }).optional(),
     loadInertia: num('scenario.loadInertia', 0, 1e5).default(0),
@@ -357,7 +377,7 @@ const projectObject = z.strictObject({
   nameplate: nameplateSchema.optional(),
   inverter: inverterSchema,
   conditions: conditionsSchema,
-  requirements: z.array(requirementSchema).max(1000).default([]),
+  requirements: z.array(requirementSchema).max(MAX_LIST_ENTRIES).default([]),
   control: controlSchema.optional(),
   scenario: scenarioSchema.optional(),
 });
@@ -500,9 +520,22 @@ function headerProblem(json: unknown): ProjectProblem | null {
   return null;
 }
 
+/**
+ * A list longer than MAX_LIST_ENTRIES, found by its length alone (no entry is read): checked
+ * before the schema looks at any entry, and by the app before it lays a file out in its form.
+ */
+export function listCapProblem(json: unknown): ProjectProblem | null {
+  for (const path of CAPPED_LISTS) {
+    let x: unknown = json;
+    for (const k of path) x = x !== null && typeof x === 'object' && !Array.isArray(x) ? (x as Record<string, unknown>)[k] : undefined;
+    if (Array.isArray(x) && x.length > MAX_LIST_ENTRIES) return { path: path.join('.'), message: `must have at most ${MAX_LIST_ENTRIES} entries (it has ${x.length})` };
+  }
+  return null;
+}
+
 /** Every problem of a project file, in file order (empty = valid). */
 export function checkProject(json: unknown): ProjectProblem[] {
-  const h = headerProblem(json);
+  const h = headerProblem(json) ?? listCapProblem(json);
   if (h) return [h];
   const r = projectSchema.safeParse(json);
   if (r.success) return [];
@@ -511,7 +544,7 @@ export function checkProject(json: unknown): ProjectProblem[] {
 
 /** Validate and fill defaults; throws InputError(path, message) for the first problem. */
 export function parseProject(json: unknown): ProjectFile {
-  const h = headerProblem(json);
+  const h = headerProblem(json) ?? listCapProblem(json);
   if (h) throw new InputError(h.path, h.message);
   const r = projectSchema.safeParse(json);
   if (r.success) return r.data;

@@ -8,6 +8,7 @@ import { addRecent, readRecent, removeRecent } from '../node/recent-files';
 import { clearRecovery, readRecovery, writeRecovery } from '../node/recovery';
 import type { ExportKind, Failure, OpenResult, RecoveryOffer, SaveResult } from '../types/bridge';
 import { checkExportRequest, checkPath, checkRecoveryWrite, checkSaveAsRequest, checkSaveRequest, EXPORT_FORMATS } from './ipc';
+import { changedOnDisk, keptMessage, type ChangedOnDisk, type KnownVersion } from './changed-on-disk';
 import { PathGrants } from './path-grants';
 
 export interface SaveDialogRequest {
@@ -21,6 +22,11 @@ export interface Dialogs {
   showOpen(): Promise<string | null>;
   /** The path the user picked to save to, or null when canceled. */
   showSave(request: SaveDialogRequest): Promise<string | null>;
+  /**
+   * The file changed on disk since it was opened or saved here: may Save replace it? (main asks
+   * with changedOnDiskPrompt). Without it such a save is refused.
+   */
+  confirmOverwrite?(changed: ChangedOnDisk): Promise<boolean>;
 }
 
 export interface FileServiceDeps {
@@ -33,6 +39,8 @@ export interface FileServiceDeps {
   check?: ProjectChecker;
   /** Called after the recent list changed (main rebuilds the menu). */
   onRecentChanged?: (files: string[]) => void;
+  /** The clock (when a file was opened or saved here). Default: () => new Date(). */
+  now?: () => Date;
 }
 
 const refused = (message: string): Failure => ({ ok: false, canceled: false, message });
@@ -41,6 +49,12 @@ const canceled: Failure = { ok: false, canceled: true, message: 'Canceled.' };
 export class FileService {
   readonly grants: PathGrants;
   private readonly fs: FsLayer;
+  /** The document whose recovery file was offered at start (dropped when the user declines it). */
+  private offered: { documentPath: string | null } | null = null;
+  /** A file named by a second launch of the app, handed to the window as its next file. */
+  private launched: string | null = null;
+  /** Per file, the version this session last read or wrote: Save compares the disk against it. */
+  private readonly known = new Map<string, KnownVersion>();
 
   constructor(private readonly deps: FileServiceDeps) {
     this.fs = deps.fs ?? nodeFs;
@@ -56,7 +70,22 @@ export class FileService {
     const r = await openProjectFile(path, { fs: this.fs, check: this.deps.check });
     if (r.ok) {
       if (!r.readOnly) this.grants.grant(path);
+      this.known.set(path, { text: r.text, at: this.now(), how: 'opened' });
       await this.remember(path);
+    }
+    return r;
+  }
+
+  private now(): Date {
+    return (this.deps.now ?? (() => new Date()))();
+  }
+
+  /** Writes the project and records what was written, so the next Save knows its own version. */
+  private async write(path: string, text: string, saveAs: boolean): Promise<SaveResult> {
+    const r = await saveProjectFile(path, text, { fs: this.fs, platform: this.deps.platform });
+    if (r.ok) {
+      this.known.set(path, { text: text.endsWith('\n') ? text : `${text}\n`, at: this.now(), how: 'saved' });
+      await this.afterCleanSave(r.path, saveAs);
     }
     return r;
   }
@@ -72,18 +101,25 @@ export class FileService {
     if (!p.ok) return refused(`Not opened: ${p.message}.`);
     const list = await readRecent(this.deps.userDataDir, { fs: this.fs });
     if (!list.includes(p.value)) return refused('Not opened: that file is not in the recent list.');
+    if (p.value === this.launched) this.launched = null;
     const r = await this.openAt(p.value);
     if (!r.ok && / does not exist\.$/.test(r.message)) this.deps.onRecentChanged?.(await removeRecent(this.deps.userDataDir, p.value, { fs: this.fs }));
     return r;
   }
 
   async initialFile(): Promise<OpenResult | null> {
-    if (this.deps.initialPath === null) return null;
-    return this.openAt(this.deps.initialPath);
+    // a window made for a second launch's file (no window was open) starts with that file
+    const launched = this.launched;
+    this.launched = null;
+    const path = launched ?? this.deps.initialPath;
+    if (path === null) return null;
+    return this.openAt(path);
   }
 
-  private async afterCleanSave(path: string): Promise<void> {
-    await clearRecovery(this.deps.userDataDir, { fs: this.fs });
+  private async afterCleanSave(path: string, wasUntitled: boolean): Promise<void> {
+    await clearRecovery(this.deps.userDataDir, path, { fs: this.fs });
+    // Save As gives the window's never-saved project its file: its untitled autosave is done with
+    if (wasUntitled) await clearRecovery(this.deps.userDataDir, null, { fs: this.fs });
     await this.remember(path);
   }
 
@@ -91,9 +127,10 @@ export class FileService {
     const req = checkSaveRequest(arg);
     if (!req.ok) return refused(`Not saved: ${req.message}.`);
     if (!this.grants.has(req.value.path)) return refused('Not saved: this file was not chosen in a dialog in this session. Use Save As… to pick where to save.');
-    const r = await saveProjectFile(req.value.path, req.value.text, { fs: this.fs, platform: this.deps.platform });
-    if (r.ok) await this.afterCleanSave(r.path);
-    return r;
+    // another program or window changed the file since we read or wrote it: ask, never drop its edit
+    const changed = await changedOnDisk(req.value.path, this.known.get(req.value.path), this.fs);
+    if (changed && !(await this.deps.dialogs.confirmOverwrite?.(changed))) return refused(keptMessage(changed));
+    return this.write(req.value.path, req.value.text, false);
   }
 
   async saveAs(arg: unknown): Promise<SaveResult> {
@@ -101,10 +138,9 @@ export class FileService {
     if (!req.ok) return refused(`Not saved: ${req.message}.`);
     const path = await this.deps.dialogs.showSave({ kind: 'project', defaultName: req.value.suggestedName ?? 'project.json' });
     if (path === null) return canceled;
+    // the save dialog itself asked before replacing an existing file
     this.grants.grant(path);
-    const r = await saveProjectFile(path, req.value.text, { fs: this.fs, platform: this.deps.platform });
-    if (r.ok) await this.afterCleanSave(r.path);
-    return r;
+    return this.write(path, req.value.text, true);
   }
 
   async export(arg: unknown): Promise<SaveResult> {
@@ -129,7 +165,12 @@ export class FileService {
    */
   async recoveryCheck(): Promise<RecoveryOffer | null> {
     const offer = await readRecovery(this.deps.userDataDir, { fs: this.fs });
-    if (offer?.documentPath && (await readRecent(this.deps.userDataDir, { fs: this.fs })).includes(offer.documentPath)) this.grants.grant(offer.documentPath);
+    this.offered = offer ? { documentPath: offer.documentPath } : null;
+    if (offer?.documentPath && (await readRecent(this.deps.userDataDir, { fs: this.fs })).includes(offer.documentPath)) {
+      this.grants.grant(offer.documentPath);
+      // the edits are from the autosave's time: a file changed after it is asked about on Save
+      if (!this.known.has(offer.documentPath)) this.known.set(offer.documentPath, { text: null, at: new Date(offer.savedAt), how: 'autosaved' });
+    }
     return offer;
   }
 
@@ -139,7 +180,19 @@ export class FileService {
     return writeRecovery(this.deps.userDataDir, req.value.text, req.value.documentPath, { fs: this.fs });
   }
 
-  recoveryDiscard(): Promise<void> {
-    return clearRecovery(this.deps.userDataDir, { fs: this.fs });
+  /** The offered edits were declined (or saved): drop that document's recovery file, no other. */
+  async recoveryDiscard(): Promise<void> {
+    if (!this.offered) return;
+    await clearRecovery(this.deps.userDataDir, this.offered.documentPath, { fs: this.fs });
+    this.offered = null;
+  }
+
+  /**
+   * A second launch of the app named this file (single-instance lock: it opens here). It joins the
+   * recent list, so the window may open it as it opens a recent file.
+   */
+  async launch(path: string): Promise<void> {
+    this.launched = path;
+    await this.remember(path);
   }
 }

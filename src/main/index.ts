@@ -1,16 +1,19 @@
 // Electron main: thin wiring of the plain modules beside it. All logic (window options, CSP,
 // navigation policy, menu, argument checks, file handling) lives in those modules and is tested
 // under Node; this file only connects them to Electron.
-import { app, BrowserWindow, dialog, ipcMain, Menu, session, type IpcMainInvokeEvent, type MenuItemConstructorOptions } from 'electron';
-import { join } from 'node:path';
-import { fileURLToPath, pathToFileURL } from 'node:url';
+import { app, BrowserWindow, dialog, ipcMain, Menu, protocol, session, type IpcMainInvokeEvent, type MenuItemConstructorOptions } from 'electron';
+import { dirname, join } from 'node:path';
+import { fileURLToPath } from 'node:url';
+import { APP_PAGE_URL, APP_SCHEME, APP_SCHEME_PRIVILEGES, serveAppRequest } from './app-protocol';
 import { projectPathFromArgv } from './argv';
+import { changedOnDiskPrompt, overwriteAllowed } from './changed-on-disk';
 import { cspHeader } from './csp';
 import { FileService, type Dialogs } from './file-service';
 import { CHANNELS, EXPORT_FORMATS } from './ipc';
 import { menuTemplate, type MenuItemData } from './menu';
 import { isAppPage, isLoopbackDevServer, navigationDecision, permissionDecision, windowOpenDecision } from './navigation';
 import { PRELOAD_FROM_MAIN, RENDERER_FROM_MAIN } from './paths';
+import { secondLaunch } from './single-instance';
 import { windowOptions } from './window-options';
 import { closeAllowed, unsavedPrompt } from './unsaved-prompt';
 
@@ -21,7 +24,11 @@ const devEnv = process.env['ELECTRON_RENDERER_URL'];
 const devServerUrl = !app.isPackaged && devEnv && isLoopbackDevServer(devEnv) ? devEnv : undefined;
 const dev = devServerUrl !== undefined;
 const rendererFile = join(here, RENDERER_FROM_MAIN);
-const appUrl = devServerUrl ?? pathToFileURL(rendererFile).href;
+// The built renderer is served from app://torquewise/ (src/main/app-protocol.ts), never file://.
+const rendererRoot = dirname(rendererFile);
+const appUrl = devServerUrl ?? APP_PAGE_URL;
+// before the app is ready: the scheme is standard and secure (an origin of its own)
+protocol.registerSchemesAsPrivileged([{ scheme: APP_SCHEME, privileges: { ...APP_SCHEME_PRIVILEGES } }]);
 
 let win: BrowserWindow | null = null;
 
@@ -38,6 +45,11 @@ const dialogs: Dialogs = {
     const opts = { defaultPath: join(app.getPath('documents'), defaultName), filters: [filter] };
     const r = win ? await dialog.showSaveDialog(win, opts) : await dialog.showSaveDialog(opts);
     return r.canceled || !r.filePath ? null : r.filePath;
+  },
+  async confirmOverwrite(changed) {
+    const prompt = changedOnDiskPrompt(changed);
+    const r = win ? await dialog.showMessageBox(win, prompt) : await dialog.showMessageBox(prompt);
+    return overwriteAllowed(r.response);
   },
 };
 
@@ -101,6 +113,11 @@ function wireIpc(): void {
 
 function secureSession(): void {
   const csp = cspHeader(devServerUrl ? { devServerUrl } : {});
+  // every response of the app scheme carries the CSP header; only files of the build output are served
+  protocol.handle(APP_SCHEME, async (request) => {
+    const r = await serveAppRequest({ url: request.url, method: request.method }, rendererRoot, csp);
+    return new Response(r.body, { status: r.status, headers: r.headers });
+  });
   session.defaultSession.webRequest.onHeadersReceived((details, callback) => {
     const headers = { ...details.responseHeaders };
     for (const k of Object.keys(headers)) if (k.toLowerCase() === 'content-security-policy') delete headers[k];
@@ -135,18 +152,37 @@ function createWindow(): void {
     win = null;
   });
   if (devServerUrl) void win.loadURL(devServerUrl);
-  else void win.loadFile(rendererFile);
+  else void win.loadURL(APP_PAGE_URL);
 }
 
-void app.whenReady().then(async () => {
-  secureSession();
-  wireIpc();
-  buildMenu(await files.recent());
-  createWindow();
-  app.on('activate', () => {
-    if (BrowserWindow.getAllWindows().length === 0) createWindow();
+/** A second launch of the app: its file opens here, in this window (or a new one when none is open). */
+async function onSecondLaunch(argv: string[], workingDirectory: string): Promise<void> {
+  const action = secondLaunch(argv, workingDirectory, { packaged: app.isPackaged });
+  if (action.open !== null) await files.launch(action.open);
+  if (!win) {
+    if (app.isReady()) createWindow();
+    return;
+  }
+  if (action.open !== null) win.webContents.send(CHANNELS.menu, { name: 'file:open-recent', path: action.open });
+  if (win.isMinimized()) win.restore();
+  win.focus();
+}
+
+// One instance: a second launch hands its command line to this one and quits.
+if (!app.requestSingleInstanceLock()) {
+  app.quit();
+} else {
+  app.on('second-instance', (_event, argv, workingDirectory) => void onSecondLaunch(argv, workingDirectory));
+  void app.whenReady().then(async () => {
+    secureSession();
+    wireIpc();
+    buildMenu(await files.recent());
+    createWindow();
+    app.on('activate', () => {
+      if (BrowserWindow.getAllWindows().length === 0) createWindow();
+    });
   });
-});
+}
 
 app.on('window-all-closed', () => {
   if (process.platform !== 'darwin') app.quit();

@@ -2,8 +2,8 @@
 // window.open to anywhere else are refused; there is no second window.
 
 /**
- * True when `url` is the app's own page `appUrl` (the built index.html as a file: URL, or the
- * development server root). Query and hash are ignored; anything else is not the app.
+ * True when `url` is the app's own page `appUrl` (the built index.html under the app's scheme or
+ * as a file: URL, or the development server root). Query and hash are ignored; anything else is not the app.
  */
 export function isAppPage(url: string, appUrl: string): boolean {
   let u: URL;
@@ -17,6 +17,8 @@ export function isAppPage(url: string, appUrl: string): boolean {
   if (u.protocol !== a.protocol) return false;
   if (u.username || u.password) return false;
   if (a.protocol === 'file:') return u.host === a.host && decodeURIComponent(u.pathname) === decodeURIComponent(a.pathname);
+  // the app's own scheme (app://torquewise/index.html): same host, the page itself
+  if (a.protocol === 'app:') return u.host === a.host && u.port === '' && (u.pathname === a.pathname || u.pathname === '/');
   if (a.protocol === 'http:' || a.protocol === 'https:') {
     if (u.origin !== a.origin) return false;
     const p = u.pathname;

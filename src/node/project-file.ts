@@ -4,7 +4,7 @@
 import { basename } from 'node:path';
 import { isInputError } from '../core/errors';
 import { loadProjectText } from '../core/project';
-import { PROJECT_FORMAT, PROJECT_VERSION } from '../core/schema';
+import { MAX_PROJECT_BYTES, PROJECT_FORMAT, PROJECT_VERSION } from '../core/schema';
 import type { OpenResult, SaveResult } from '../types/bridge';
 import { atomicWrite } from './atomic-write';
 import { describeFsError, nodeFs, type FsLayer } from './fs-layer';
@@ -22,7 +22,7 @@ export interface ProjectFileOptions {
   check?: ProjectChecker;
 }
 
-export const DEFAULT_PROJECT_FILE_OPTIONS = { maxBytes: 16 * 1024 * 1024 } as const;
+export const DEFAULT_PROJECT_FILE_OPTIONS = { maxBytes: MAX_PROJECT_BYTES } as const;
 
 export type HeaderVerdict =
   | { kind: 'ok' }

@@ -9,6 +9,7 @@ import { parseProject } from '../../src/core/schema';
 import { resolveProject } from '../../src/core/project';
 import { computeEnvelope } from '../../src/core/envelope';
 import { RAD_S_TO_RPM } from '../../src/core/units';
+import { parseCsv } from '../../src/core/csv';
 
 let dir = '';
 let server: Server;
@@ -205,10 +206,7 @@ describe('Torquewise in a browser', () => {
     expect(head).not.toBeNull();
     const points = Number(head![1]);
     const speedMax = Number(head![2]);
-    const rows = text
-      .split('\n')
-      .filter((l) => l.startsWith('peak-hot-motoring,'))
-      .map((l) => l.split(','));
+    const rows = parseCsv(text).filter((r) => r[0] === 'peak-hot-motoring');
     expect(rows.length).toBe(points);
     const p = resolveProject(parseProject(JSON.parse(readFileSync(join(ROOT, 'resources', 'demo-ipm-traction.json'), 'utf8'))));
     const env = computeEnvelope(p.hot, p.peak, { points, speedMax, direction: 'motoring' });

@@ -1,4 +1,5 @@
 import type { Command } from '../command';
+import { csvDocument, type CsvCell } from '../../core/csv';
 import { computeEnvelope, type Envelope } from '../../core/envelope';
 import { PLOT_SPEED_MAX_RPM, projectSpeedRange } from '../../core/speed-range';
 import { numberFlag, stringFlag } from '../args';
@@ -37,15 +38,11 @@ export function regionAt(env: Envelope, k: number): string {
 }
 
 export function envelopeCsv(env: Envelope): string {
-  const lines = ['speed_rpm,torque_Nm,power_W,id_A,iq_A,current_A_peak,current_A_rms,voltage_V_peak_phase,region'];
+  const rows: CsvCell[][] = [['speed_rpm', 'torque_Nm', 'power_W', 'id_A', 'iq_A', 'current_A_peak', 'current_A_rms', 'voltage_V_peak_phase', 'region']];
   for (let k = 0; k < env.speed.length; k++) {
-    lines.push(
-      [radSToRpm(env.speed[k]!), env.torque[k]!, env.power[k]!, env.id[k]!, env.iq[k]!, env.current[k]!, peakToRms(env.current[k]!), env.voltage[k]!]
-        .map((x) => Number(x.toPrecision(10)))
-        .join(',') + `,${regionAt(env, k)}`,
-    );
+    rows.push([radSToRpm(env.speed[k]!), env.torque[k]!, env.power[k]!, env.id[k]!, env.iq[k]!, env.current[k]!, peakToRms(env.current[k]!), env.voltage[k]!, regionAt(env, k)]);
   }
-  return lines.join('\n') + '\n';
+  return csvDocument(rows);
 }
 
 export const envelopeCommand: Command = {

@@ -1,4 +1,5 @@
 import type { Command } from '../command';
+import { csvDocument, type CsvCell } from '../../core/csv';
 import { numberFlag, stringFlag } from '../args';
 import { table, fmt, orDash } from '../table';
 import { runSimulation, simulationFindings, simulationFromProject, TRACE_NAMES } from '../../core/simulate';
@@ -38,10 +39,10 @@ const CSV_HEADER: Record<string, string> = {
 };
 
 export function simulationCsv(r: SimulationResult): string {
-  const lines = [TRACE_NAMES.map((n) => CSV_HEADER[n]).join(',')];
+  const rows: CsvCell[][] = [TRACE_NAMES.map((n) => CSV_HEADER[n]!)];
   const n = r.traces.t_s.length;
-  for (let i = 0; i < n; i++) lines.push(TRACE_NAMES.map((c) => Number(r.traces[c][i]!.toPrecision(10))).join(','));
-  return lines.join('\n') + '\n';
+  for (let i = 0; i < n; i++) rows.push(TRACE_NAMES.map((c) => r.traces[c][i]!));
+  return csvDocument(rows);
 }
 
 export const simulateCommand: Command = {

@@ -1,6 +1,6 @@
 // Torquewise main window: the input side on the left, four views on the right.
 import { useCallback, useEffect, useMemo, useRef, useState } from 'react';
-import { checkProject, parseProject } from '../../core/schema';
+import { checkProject, listCapProblem, parseProject } from '../../core/schema';
 import { migrateProject } from '../../core/migrate';
 import { resolveProject, type ResolvedProject } from '../../core/project';
 import { isInputError } from '../../core/errors';
@@ -248,7 +248,13 @@ export function App() {
     const tree = parseText(text);
     if (tree === null) {
       setNotice(`${src.name} is not valid JSON; nothing was changed.`);
-      return;
+      return false;
+    }
+    // a list beyond the schema's cap is refused by its length before the form lays it out
+    const tooLong = listCapProblem(tree);
+    if (tooLong) {
+      setNotice(`${src.name} was not opened: ${tooLong.path} ${tooLong.message}; nothing was changed.`);
+      return false;
     }
     const d = newDraft(tree);
     const c = check(tree);
@@ -258,6 +264,7 @@ export function App() {
     setSource(src);
     setDirty(false);
     setNotice(message ?? null);
+    return true;
   }, [store]);
 
   const bridge = fileBridge();
@@ -268,6 +275,12 @@ export function App() {
 
   const doOpen = useCallback(async () => {
     const r = await bridge.open();
+    if (r.ok) load(r.text, { name: r.path.replace(/^.*[\\/]/, ''), path: r.path, demo: false, readOnly: r.readOnly }, r.message);
+    else if (!r.canceled) setNotice(r.message);
+  }, [bridge, load]);
+
+  const doOpenRecent = useCallback(async (path: string) => {
+    const r = await bridge.openRecent(path);
     if (r.ok) load(r.text, { name: r.path.replace(/^.*[\\/]/, ''), path: r.path, demo: false, readOnly: r.readOnly }, r.message);
     else if (!r.canceled) setNotice(r.message);
   }, [bridge, load]);
@@ -299,8 +312,12 @@ export function App() {
     }
     void bridge.recoveryCheck().then((offer) => {
       if (offer && window.confirm(`Unsaved edits from ${offer.savedAt} were found. Restore them?`)) {
-        load(offer.text, { name: offer.documentPath?.replace(/^.*[\\/]/, '') ?? 'recovered.json', path: offer.documentPath, demo: false, readOnly: false });
-        setDirty(true);
+        if (load(offer.text, { name: offer.documentPath?.replace(/^.*[\\/]/, '') ?? 'recovered.json', path: offer.documentPath, demo: false, readOnly: false })) {
+          setDirty(true);
+          // restored: autosaved afresh, so it is offered again if the tab goes before a save
+          void bridge.recoveryWrite(offer.text, offer.documentPath);
+        }
+        // not restored: the entry stays as it is, and the next start keeps it aside instead of offering it again
       } else if (offer) void bridge.recoveryDiscard();
     });
   }, [bridge, load]);
@@ -313,6 +330,9 @@ export function App() {
         break;
       case 'file:open':
         void doOpen();
+        break;
+      case 'file:open-recent':
+        if (e.path) void doOpenRecent(e.path);
         break;
       case 'file:save':
         void doSave(false);

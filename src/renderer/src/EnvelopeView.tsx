@@ -13,6 +13,7 @@ import { envelopeCsv } from './exports';
 import { exportAndTell } from './file-bridge';
 import { exportPlotImage } from './image-export';
 import { num } from './format';
+import { plotText } from './plot-text';
 import { Cautions } from './DatasheetView';
 import { useAfterPaint } from './after-paint';
 import { sameRange, withXRange, xRangeFromRelayout, type SpeedRange } from './linked-axes';
@@ -94,7 +95,8 @@ export function torqueSpeedFigure(r: Results, theme: 'light' | 'dark', show: Sho
       mode: 'markers+text',
       x: idx.map((i) => req[i]!.speed_rpm),
       y: idx.map((i) => req[i]!.torque_Nm),
-      text: idx.map((i) => { const f = pointVerdict(r, i).fails; return f === 'cold' || f === 'hot' ? `${req[i]!.label} (fails ${f})` : req[i]!.label; }),
+      // a label is the file's text: plain text to plotly, never its markup
+      text: idx.map((i) => { const f = pointVerdict(r, i).fails; const label = plotText(req[i]!.label); return f === 'cold' || f === 'hot' ? `${label} (fails ${f})` : label; }),
       // labels kept off the envelope lines: a met point lies inside the envelope (label beside it,
       // at its own torque), a missed one outside (label further out, away from zero torque)
       textposition: idx.map((i) => {

@@ -1,39 +1,39 @@
-// Text exports: the envelope and the simulated traces as CSV (numbers straight from the engine).
+// Text exports: the envelope and the simulated traces as CSV (numbers straight from the engine),
+// written by the one CSV module the command line uses too (src/core/csv.ts): text quoted, formula
+// starts neutralised, numbers left as numbers.
+import { csvDocument, csvNumber, type CsvCell } from '../../core/csv';
 import { RAD_S_TO_RPM, SQRT2 } from '../../core/units';
 import type { Results } from './compute';
 
-const g = (x: number): string => (Number.isFinite(x) ? String(Number(x.toPrecision(10))) : '');
-
 /**
  * Every envelope curve in long form, one row per speed point. Header lines starting with '#'
- * state the options the curves were computed with, so the numbers can be reproduced.
+ * state the options the curves were computed with, so the numbers can be reproduced; each is one
+ * quoted cell (the project's name may hold commas, quotes or line breaks).
  */
 export function envelopeCsv(r: Results): string {
-  const lines: string[] = [];
-  lines.push(`# torquewise envelope; project: ${r.project.name || 'unnamed'}`);
-  lines.push(`# points=${r.points} speedMax_rad_s=${g(r.speedMax)} curves=${r.curves.map((c) => c.key).join(',')}`);
-  lines.push('# currents in A peak (and rms), voltage in V peak phase, speed mechanical');
-  lines.push('curve,speed_rpm,torque_Nm,power_W,id_A,iq_A,current_A_peak,current_A_rms,voltage_V,region');
+  const rows: CsvCell[][] = [];
+  rows.push([`# torquewise envelope; project: ${r.project.name || 'unnamed'}`]);
+  rows.push([`# points=${r.points} speedMax_rad_s=${csvNumber(r.speedMax)} curves=${r.curves.map((c) => c.key).join(',')}`]);
+  rows.push(['# currents in A peak (and rms), voltage in V peak phase, speed mechanical']);
+  rows.push(['curve', 'speed_rpm', 'torque_Nm', 'power_W', 'id_A', 'iq_A', 'current_A_peak', 'current_A_rms', 'voltage_V', 'region']);
   for (const c of r.curves) {
     const e = c.env;
     for (let k = 0; k < e.speed.length; k++) {
-      lines.push(
-        [
-          c.key,
-          g(e.speed[k]! * RAD_S_TO_RPM),
-          g(e.torque[k]!),
-          g(e.power[k]!),
-          g(e.id[k]!),
-          g(e.iq[k]!),
-          g(e.current[k]!),
-          g(e.current[k]! / SQRT2),
-          g(e.voltage[k]!),
-          e.feasible[k] ? e.region[k] : 'beyond-max-speed',
-        ].join(','),
-      );
+      rows.push([
+        c.key,
+        e.speed[k]! * RAD_S_TO_RPM,
+        e.torque[k]!,
+        e.power[k]!,
+        e.id[k]!,
+        e.iq[k]!,
+        e.current[k]!,
+        e.current[k]! / SQRT2,
+        e.voltage[k]!,
+        e.feasible[k] ? e.region[k]! : 'beyond-max-speed',
+      ]);
     }
   }
-  return lines.join('\n') + '\n';
+  return csvDocument(rows);
 }
 
 /** Simulated traces, one column per channel. */
@@ -41,7 +41,7 @@ export function tracesCsv(traces: Record<string, ArrayLike<number>>): string {
   const keys = Object.keys(traces).filter((k) => traces[k] && typeof traces[k]!.length === 'number');
   const t = keys.includes('t_s') ? ['t_s', ...keys.filter((k) => k !== 't_s')] : keys;
   const n = Math.min(...t.map((k) => traces[k]!.length));
-  const lines = [t.join(',')];
-  for (let i = 0; i < n; i++) lines.push(t.map((k) => g(traces[k]![i]!)).join(','));
-  return lines.join('\n') + '\n';
+  const rows: CsvCell[][] = [t];
+  for (let i = 0; i < n; i++) rows.push(t.map((k) => traces[k]![i]!));
+  return csvDocument(rows);
 }

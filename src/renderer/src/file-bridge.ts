@@ -1,6 +1,8 @@
 // The one place that knows where files come from and go to: the Electron preload bridge
 // (window.torquewise) when present, otherwise browser upload/download. Everything else in the
 // renderer calls this module and takes the same code path in both.
+import { MAX_PROJECT_BYTES } from '../../core/schema';
+import { webRecovery } from './web-recovery';
 import type {
   ExportKind,
   MenuEvent,
@@ -14,6 +16,8 @@ export interface FileBridge {
   readonly kind: 'electron' | 'browser';
   /** Let the user pick a project file and read it. */
   open(): Promise<OpenResult>;
+  /** Open a file of the recent list (desktop; the menu, or a second launch of the app naming a file). */
+  openRecent(path: string): Promise<OpenResult>;
   /** The project given at start (Electron command line), or null. */
   initialFile(): Promise<OpenResult | null>;
   /** Save to `path` when one was granted (opened or saved before), otherwise ask (Save As). */
@@ -47,6 +51,28 @@ function download(data: string | Uint8Array, name: string, mime: string): void {
   setTimeout(() => URL.revokeObjectURL(url), 10_000);
 }
 
+/** What readUpload needs of a picked File. */
+export interface UploadLike {
+  readonly name: string;
+  readonly size: number;
+  text(): Promise<string>;
+}
+
+/**
+ * A picked file's text, or a refusal. Its size is checked first, against the limit the desktop
+ * app applies (MAX_PROJECT_BYTES): a larger file is never read, so it cannot stall or crash the tab.
+ */
+export async function readUpload(file: UploadLike, maxBytes: number = MAX_PROJECT_BYTES): Promise<OpenResult> {
+  if (!(file.size <= maxBytes)) {
+    return { ok: false, canceled: false, message: `Could not open "${file.name}": it is ${file.size} bytes, more than the ${maxBytes} bytes a project may have.` };
+  }
+  try {
+    return { ok: true, path: file.name, text: await file.text(), readOnly: false };
+  } catch {
+    return { ok: false, canceled: false, message: `Could not read ${file.name}.` };
+  }
+}
+
 function pickFile(): Promise<OpenResult> {
   return new Promise((resolve) => {
     const input = document.createElement('input');
@@ -63,10 +89,7 @@ function pickFile(): Promise<OpenResult> {
     input.addEventListener('change', () => {
       const file = input.files?.[0];
       if (!file) return finish({ ok: false, canceled: true, message: '' });
-      file.text().then(
-        (text) => finish({ ok: true, path: file.name, text, readOnly: false }),
-        () => finish({ ok: false, canceled: false, message: `Could not read ${file.name}.` }),
-      );
+      void readUpload(file).then(finish);
     });
     input.addEventListener('cancel', () => finish({ ok: false, canceled: true, message: '' }));
     document.body.appendChild(input);
@@ -78,6 +101,7 @@ function browserBridge(): FileBridge {
   return {
     kind: 'browser',
     open: pickFile,
+    openRecent: async () => ({ ok: false, canceled: false, message: 'Recent files are opened in the desktop app only.' }),
     initialFile: async () => null,
     async save(text, _path, suggestedName) {
       download(text, suggestedName, 'application/json');
@@ -98,47 +122,14 @@ function browserBridge(): FileBridge {
   };
 }
 
-/** Key of the autosaved edits in the page's local storage (the web variant's recovery file). */
-export const RECOVERY_KEY = 'torquewise.recovery';
-
-/**
- * Recovery of unsaved edits in a plain browser: the same offer as the desktop's recovery file, kept
- * in local storage. A storage that refuses (private mode, quota) only loses the autosave, never the
- * edits on screen.
- */
-export const browserRecovery = {
-  check(): RecoveryOffer | null {
-    try {
-      const raw = globalThis.localStorage?.getItem(RECOVERY_KEY);
-      if (!raw) return null;
-      const o = JSON.parse(raw) as Partial<RecoveryOffer>;
-      if (typeof o.text !== 'string' || typeof o.savedAt !== 'string') return null;
-      return { text: o.text, documentPath: typeof o.documentPath === 'string' ? o.documentPath : null, savedAt: o.savedAt };
-    } catch {
-      return null;
-    }
-  },
-  write(text: string, documentPath: string | null): void {
-    try {
-      const offer: RecoveryOffer = { text, documentPath, savedAt: new Date().toISOString() };
-      globalThis.localStorage?.setItem(RECOVERY_KEY, JSON.stringify(offer));
-    } catch {
-      /* storage full or refused: the edits stay on screen */
-    }
-  },
-  discard(): void {
-    try {
-      globalThis.localStorage?.removeItem(RECOVERY_KEY);
-    } catch {
-      /* nothing kept */
-    }
-  },
-};
+/** Recovery of unsaved edits in a plain browser, in the page's local storage (see web-recovery.ts). */
+export const browserRecovery = webRecovery(() => globalThis.localStorage);
 
 function electronBridge(b: TorquewiseBridge): FileBridge {
   return {
     kind: 'electron',
     open: () => b.open(),
+    openRecent: (path) => b.openRecent(path),
     initialFile: () => b.initialFile(),
     save: (text, path, suggestedName) => (path ? b.save({ path, text }) : b.saveAs({ text, suggestedName })),
     saveAs: (text, suggestedName) => b.saveAs({ text, suggestedName }),
