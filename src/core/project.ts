@@ -180,7 +180,7 @@ export function resolveProject(file: ProjectFile): ResolvedProject {
     continuous,
     currentLimits,
     conditions,
-    requirements: file.requirements.map((r) => ({ label: r.label, speed_rpm: r.speed_rpm, torque_Nm: r.torque_Nm })),
+    requirements: file.requirements.map((r) => ({ label: r.label, speed_rpm: r.speed_rpm, torque_Nm: r.torque_Nm, duty: r.duty ?? 'peak' })),
     rated,
     interpretation,
     findings,

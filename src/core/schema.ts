@@ -84,10 +84,11 @@ export const KEYS: Readonly<Record<string, { unit: string; doc: string }>> = {
   'conditions.magnetTempCoeff': { unit: '/K', doc: 'remanence coefficient, -0.003..0.001, default -0.0012 (sintered NdFeB; SmCo about -0.0004)' },
 
   requirements: { unit: '', doc: 'operating points to meet' },
-  'requirements[]': { unit: '', doc: '{label, speed_rpm, torque_Nm}' },
+  'requirements[]': { unit: '', doc: '{label, speed_rpm, torque_Nm, duty}' },
   'requirements[].label': { unit: '', doc: 'name of the point' },
   'requirements[].speed_rpm': { unit: 'rpm', doc: 'mechanical speed, >= 0' },
   'requirements[].torque_Nm': { unit: 'N·m', doc: 'torque; negative = braking' },
+  'requirements[].duty': { unit: '', doc: '"peak" (default: checked against the peak current limit) or "continuous" (checked against the continuous limit, the lower of inverter.Icont and the motor\'s rated current)' },
 
   control: { unit: '', doc: 'the drive controller' },
   'control.mode': { unit: '', doc: '"speed", "torque" or "current-step", default "speed"' },
@@ -262,6 +263,7 @@ const requirementSchema = z.strictObject({
   label: z.string().min(1).max(200),
   speed_rpm: num('requirements[].speed_rpm', 0, 1e6),
   torque_Nm: num('requirements[].torque_Nm', -1e6, 1e6),
+  duty: z.enum(['peak', 'continuous']).optional(), // 'peak' when absent
 });
 
 const controlSchema = z
