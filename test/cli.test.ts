@@ -201,6 +201,35 @@ describe('cli: which current limit binds', () => {
   });
 });
 
+describe('cli: a file with several problems', () => {
+  it('prints every problem, one line each naming its field, and exits 2', async () => {
+    const f = spmProject({
+      motor: { polePairs: 3, Rs: -1, Ld: 0.001, Lq: 0.001, psiM: 0.05, inertia: 0.001, peakCurrent: { value: 10, basis: 'rms' } },
+      inverter: { Vdc: 300, Imax: 30, Icont: 15, modulation: 'spwm' },
+      requirements: [{ label: 'a', speed_rpm: 1000, torque_Nm: '2' }],
+    });
+    const r = await run('params', f);
+    expect(r.code).toBe(2);
+    expect(r.out).toBe('');
+    const lines = r.err.trim().split('\n');
+    expect(lines.map((l) => /^torquewise: (\S+) /.exec(l)?.[1])).toEqual(['motor.Rs', 'motor.peakCurrent', 'inverter.modulation', 'requirements[0].torque_Nm']);
+    expect(lines[1]).toMatch(/10 A rms = 14\.14 A peak.*accepted only in nameplate\.ratedCurrent and nameplate\.peakCurrent/);
+  });
+
+  it('a minimal file (no conditions, no modulation) runs, with the defaults said as findings', async () => {
+    const f = join(dir, 'minimal.json');
+    writeFileSync(f, JSON.stringify({
+      format: 'torquewise-project', version: 1, name: 'minimal (invented)',
+      motor: { polePairs: 3, Rs: 0.1, Ld: 0.001, Lq: 0.001, psiM: 0.05, inertia: 0.001, maxSpeed_rpm: 3000 },
+      inverter: { Vdc: 300, Imax: 30, Icont: 15 },
+    }));
+    const r = await run('params', f);
+    expect(r.code).toBe(0);
+    expect(r.out).toMatch(/\[info\] conditions: No conditions given: every temperature/);
+    expect(r.out).toMatch(/\[info\] inverter\.modulation: No modulation given: space-vector PWM/);
+  });
+});
+
 describe('cli bad input: exit 2 and one line naming the field', () => {
   const cases: Array<[string, string[], RegExp]> = [
     ['unknown command', ['spin', 'x.json'], /^torquewise: command 'spin' is unknown/],
