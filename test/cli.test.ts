@@ -82,7 +82,8 @@ describe('cli --json documents', () => {
     expect(doc.minVdc_V).toBeGreaterThan(0);
     expect(doc.points[0]).toMatchObject({ label: 'a', met: true });
     // the same keys in both corners, headrooms included
-    const keys = ['current_A', 'currentHeadroom_A', 'label', 'limitedBy', 'met', 'speed_rpm', 'torqueAvailable_Nm', 'torque_Nm', 'voltageHeadroom_V', 'voltage_V'];
+    const keys = ['current_A', 'currentHeadroom_A', 'label', 'limitedBy', 'met', 'speed_rpm', 'torqueAvailable_Nm', 'torque_Nm', 'voltageHeadroom_V', 'voltage_V',
+      'duty', 'currentLimit_A', 'currentLimitBinds', 'torqueShortfall_Nm', 'headroomNote'];
     expect(Object.keys(doc.points[0]).sort()).toEqual([...keys].sort());
     expect(Object.keys(doc.cold.points[0]).sort()).toEqual([...keys].sort());
     expect(doc.points[0].currentHeadroom_A).toBeCloseTo(30 - 2 / (1.5 * 3 * 0.05), 6); // Imax minus the MTPA current
@@ -112,7 +113,10 @@ describe('cli --json documents', () => {
     expect(Object.keys(sim.traces).sort()).toEqual([...TRACE_NAMES].sort());
     expect(sim.metrics).toHaveProperty('energyFromBus_J');
     expect(sim.metrics).toHaveProperty('steadyStateError_rpm');
-    expect(sim.findings.map((f: { code: string }) => f.code)).toEqual(['voltage-saturation']); // 0.44 ms at the modulation limit in the speed step
+    // 15.75 A against the inverter's 15 A in the speed step; 0.44 ms at the modulation limit
+    expect(sim.findings.map((f: { code: string }) => f.code)).toEqual(['current-above-limit', 'voltage-saturation']);
+    expect(sim.findings[0].field).toBe('inverter.Imax');
+    expect(sim.currentLimits.peak).toEqual({ A: 15, binds: 'inverter', inverter_A: 15 });
     expect(sim.diagnostic).toBeNull();
     expect(sim.stats.evaluationsPerPeriod).toBe(6);
     // --max-points bounds the trace length; the metrics are the same (they use every sample)
@@ -141,9 +145,88 @@ describe('cli --json documents', () => {
     const out = join(dir, 'env.csv');
     const r = await run('envelope', spmProject(), '--points', '5', '--csv', out);
     expect(r.code).toBe(0);
-    const lines = readFileSync(out, 'utf8').trim().split('\r\n');
+    const all = readFileSync(out, 'utf8').trim().split('\r\n');
+    // '#' comment rows first (quoted cells): the project and the current limit the curve is drawn at, and which binds
+    expect(all[0]).toBe('"# torquewise envelope; project: invented lossless SPM; motoring, hot corner"');
+    expect(all[1]).toMatch(/^"# drawn at peak 30 A peak \(21\.21 A rms\): inverter; Vmax 173\.2 V peak phase; continuous 15 A peak \(10\.61 A rms\): inverter"$/);
+    const lines = all.filter((l) => !l.startsWith('"#'));
     expect(lines[0]).toMatch(/^"speed_rpm","torque_Nm","power_W","id_A","iq_A"/);
     expect(lines).toHaveLength(6);
+  });
+});
+
+describe('cli: which current limit binds', () => {
+  // traction demo (invented): motor peak 318 A rms = 449.7 A peak below the inverter's 450 A;
+  // continuous: inverter 226 A peak against the motor's 160 A rms = 226.3 A peak
+  const traction = demo('ipm-traction');
+  const peakWords = /peak 449\.7 A peak \(318 A rms\): motor/;
+
+  it('every command says it in its text and carries currentLimits in its JSON', async () => {
+    for (const [cmd, extra] of [['params', []], ['envelope', ['--points', '20']], ['size', []], ['point', ['--speed', '1000', '--torque', '100']]] as const) {
+      const t = await run(cmd, traction, ...extra);
+      expect(t.code).toBe(0);
+      expect(t.out).toMatch(peakWords);
+      const doc = JSON.parse((await run(cmd, traction, ...extra, '--json')).out);
+      expect(doc.currentLimits.peak.binds).toBe('motor');
+      expect(doc.currentLimits.peak.A).toBeCloseTo(318 * Math.SQRT2, 9);
+      expect(doc.currentLimits.peak.inverter_A).toBe(450);
+      expect(doc.currentLimits.continuous).toMatchObject({ A: 226, binds: 'inverter' });
+    }
+    const sim = await run('simulate', demo('servo-axis'));
+    expect(sim.out).toMatch(/current reference limited to the peak 15 A peak \(10\.61 A rms\): inverter/);
+    expect(sim.out).toMatch(/warning: inverter\.Imax: the phase current reached 15\.75 A peak/);
+  });
+
+  it('size: a continuous point is checked against the continuous limit, and the text says so', async () => {
+    const f = spmProject({ requirements: [
+      { label: 'peak', speed_rpm: 1000, torque_Nm: 3 },
+      { label: 'held', speed_rpm: 1000, torque_Nm: 3, duty: 'continuous' },
+    ] });
+    const doc = JSON.parse((await run('size', f, '--json')).out);
+    // iq = T / (1.5 p psiM) = 3 / 0.225 = 13.33 A: within Imax 30 A and Icont 15 A
+    // (SPM: common practice (no source))
+    expect(doc.points[0]).toMatchObject({ duty: 'peak', met: true, currentLimit_A: 30 });
+    expect(doc.points[1]).toMatchObject({ duty: 'continuous', met: true, currentLimit_A: 15 });
+    expect(doc.points[1].currentHeadroom_A).toBeCloseTo(15 - 3 / 0.225, 6);
+    expect(doc.minIcont_A).toBeCloseTo(3 / 0.225, 6);
+    const text = (await run('size', f)).out;
+    expect(text).toMatch(/held \(continuous duty\): met, current headroom 1\.667 A peak \(continuous limit\), voltage headroom/);
+    // 4 N·m continuous needs 17.8 A > 15 A: not met, the shortfall and the binding limit instead of headroom
+    const g = spmProject({ requirements: [{ label: 'held', speed_rpm: 1000, torque_Nm: 4, duty: 'continuous' }] });
+    const d2 = JSON.parse((await run('size', g, '--json')).out);
+    expect(d2.points[0].met).toBe(false);
+    expect(d2.points[0].currentHeadroom_A).toBeNull();
+    expect(d2.points[0].torqueShortfall_Nm).toBeCloseTo(4 - 1.5 * 3 * 0.05 * 15, 9); // 4 - 3.375 N·m at 15 A
+    expect((await run('size', g)).out).toMatch(/held \(continuous duty\): NOT met, short by 0\.625 N·m: 3\.375 N·m available, limited by the continuous current limit 15 A peak \(inverter's Icont\)/);
+  });
+});
+
+describe('cli: a file with several problems', () => {
+  it('prints every problem, one line each naming its field, and exits 2', async () => {
+    const f = spmProject({
+      motor: { polePairs: 3, Rs: -1, Ld: 0.001, Lq: 0.001, psiM: 0.05, inertia: 0.001, peakCurrent: { value: 10, basis: 'rms' } },
+      inverter: { Vdc: 300, Imax: 30, Icont: 15, modulation: 'spwm' },
+      requirements: [{ label: 'a', speed_rpm: 1000, torque_Nm: '2' }],
+    });
+    const r = await run('params', f);
+    expect(r.code).toBe(2);
+    expect(r.out).toBe('');
+    const lines = r.err.trim().split('\n');
+    expect(lines.map((l) => /^torquewise: (\S+) /.exec(l)?.[1])).toEqual(['motor.Rs', 'motor.peakCurrent', 'inverter.modulation', 'requirements[0].torque_Nm']);
+    expect(lines[1]).toMatch(/10 A rms = 14\.14 A peak.*accepted only in nameplate\.ratedCurrent and nameplate\.peakCurrent/);
+  });
+
+  it('a minimal file (no conditions, no modulation) runs, with the defaults said as findings', async () => {
+    const f = join(dir, 'minimal.json');
+    writeFileSync(f, JSON.stringify({
+      format: 'torquewise-project', version: 1, name: 'minimal (invented)',
+      motor: { polePairs: 3, Rs: 0.1, Ld: 0.001, Lq: 0.001, psiM: 0.05, inertia: 0.001, maxSpeed_rpm: 3000 },
+      inverter: { Vdc: 300, Imax: 30, Icont: 15 },
+    }));
+    const r = await run('params', f);
+    expect(r.code).toBe(0);
+    expect(r.out).toMatch(/\[info\] conditions: No conditions given: every temperature/);
+    expect(r.out).toMatch(/\[info\] inverter\.modulation: No modulation given: space-vector PWM/);
   });
 });
 

@@ -59,7 +59,10 @@ describe('fuzz cases through the spawned CLI', () => {
           refusals++;
           expect(r.code).toBe(2);
           expect(r.stdout).toBe('');
-          expect(r.stderr).toBe(`torquewise: ${(inProcess as { message: string }).message}\n`);
+          // every problem of the file, one line each, the first being the InputError's message
+          const lines = (inProcess as { message: string; lines: string[] }).lines;
+          expect(lines[0]).toBe((inProcess as { message: string }).message);
+          expect(r.stderr).toBe(lines.map((l) => `torquewise: ${l}\n`).join(''));
         }
       }
       expect(refusals).toBeGreaterThan(0);

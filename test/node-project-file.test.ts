@@ -61,7 +61,7 @@ describe('openProjectFile', () => {
     ['truncated JSON', '{"format": ', /^Could not open "x\.json": file is not valid JSON: .* at line 1 column 12\.$/],
     ['another format', '{"format":"other","version":1}', /: format must be "torquewise-project" \(this is not a Torquewise project file\)\.$/],
     ['no version', '{"format":"torquewise-project"}', /: version must be 1\.$/],
-    ['a section missing a required key', HEADER_ONLY, /: motor\.Rs is required \(stator resistance per phase .* in ohm\)\.$/],
+    ['a section missing a required key', HEADER_ONLY, /: motor\.Rs is required \(stator resistance per phase .* in ohm\); motor\.Ld is required .*\.$/],
     ['a negative inductance', GOOD.replace('"Ld": { "value": 0.0003', '"Ld": { "value": -0.0003'), /: nameplate\.Ld\.value must be >= 1e-9 H/],
     ['binary bytes', Buffer.from([0xff, 0xfe, 0x00, 0x81, 0x7b]), /it is not UTF-8 text\.$/],
   ];

@@ -114,6 +114,46 @@ describe('resolveProject', () => {
     expect(resolveProject(parseProject(demoJson('demo-spm-48v'))).findings.some((f) => f.code === 'cold-corner-assumed')).toBe(false);
   });
 
+  it('a minimal file works: no conditions (every temperature 20 °C) and no modulation (SVPWM), each said as a finding', () => {
+    const rp = loadProjectText(JSON.stringify({
+      format: 'torquewise-project', version: 1, name: 'minimal (invented)',
+      motor: { polePairs: 4, Rs: 0.5, Ld: 0.001, Lq: 0.001, psiM: 0.05, inertia: 0.001 },
+      inverter: { Vdc: 300, Imax: 20, Icont: 10 },
+    }));
+    expect(rp.conditions).toEqual({ windingTemp_C: 20, magnetTemp_C: 20, coldTemp_C: 20, magnetTempCoeff: -0.0012 });
+    // at 20 °C the hot and cold machines are the 20 °C machine (common practice (no source): no correction at the reference temperature)
+    expect(rp.hot).toEqual(rp.machine20);
+    expect(rp.cold).toEqual(rp.machine20);
+    expect(rp.inverter.modulation).toBe('svpwm');
+    expect(rp.peak.Vmax).toBeCloseTo(300 / Math.sqrt(3), 9); // SVPWM linear range Vdc/√3 (conventions.md)
+    const codes = rp.findings.map((f) => [f.code, f.field, f.severity]);
+    expect(codes).toContainEqual(['conditions-assumed', 'conditions', 'info']);
+    expect(codes).toContainEqual(['modulation-assumed', 'inverter.modulation', 'info']);
+    // one finding for the whole section, not a second one for the cold corner
+    expect(rp.findings.some((f) => f.code === 'cold-corner-assumed')).toBe(false);
+    expect(rp.findings.find((f) => f.code === 'conditions-assumed')?.message).toMatch(/every temperature \(winding, magnet, cold corner\) is taken at 20 °C/);
+    // conditions without a winding temperature: that one at 20 °C, said on its field
+    const j = demoJson('demo-spm-48v');
+    delete j.conditions.windingTemp_C;
+    const w = resolveProject(parseProject(j));
+    expect(w.conditions.windingTemp_C).toBe(20);
+    expect(w.hot.Rs).toBeCloseTo(w.machine20.Rs, 12);
+    expect(w.findings.find((f) => f.code === 'winding-temp-assumed')?.field).toBe('conditions.windingTemp_C');
+    // the demos give both: no such findings
+    for (const name of DEMOS) {
+      const d = loadProjectText(demoText(name)).findings.map((f) => f.code);
+      expect(d).not.toContain('conditions-assumed');
+      expect(d).not.toContain('modulation-assumed');
+    }
+  });
+
+  it('a requirement carries its duty into the resolved project, peak when not given', () => {
+    const j = demoJson('demo-servo-axis');
+    j.requirements[0].duty = 'continuous';
+    const rp = resolveProject(parseProject(j));
+    expect(rp.requirements.map((r) => r.duty)).toEqual(['continuous', 'peak', 'peak', 'peak']);
+  });
+
   it('rated point outside the voltage is a finding', () => {
     const j = demoJson('demo-ipm-traction');
     j.inverter.Vdc = 120;

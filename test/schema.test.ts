@@ -20,9 +20,9 @@ describe('parseProject', () => {
     const p = parseProject(minimal());
     expect(p.inverter.voltageUtilization).toBe(1);
     expect(p.inverter.deviceDrop).toBe(0);
-    expect(p.conditions.magnetTemp_C).toBe(20);
-    expect(p.conditions.coldTemp_C).toBeUndefined(); // resolved to 20 °C with a finding (project.test)
-    expect(p.conditions.magnetTempCoeff).toBe(-0.0012);
+    expect(p.conditions?.magnetTemp_C).toBe(20);
+    expect(p.conditions?.coldTemp_C).toBeUndefined(); // resolved to 20 °C with a finding (project.test)
+    expect(p.conditions?.magnetTempCoeff).toBe(-0.0012);
     expect(p.motor?.viscousFriction).toBe(0);
     expect(p.motor?.coulombFriction).toBe(0);
     expect(p.note).toBe('');
@@ -113,7 +113,7 @@ describe('parseProject', () => {
     // worst corner allowed: 1 + (-0.003)(250 - 20) = 0.31 > 0, so the hottest allowed file still parses
     const k = minimal();
     k.conditions = { windingTemp_C: 250, magnetTemp_C: 250, magnetTempCoeff: -0.003 };
-    expect(parseProject(k).conditions.magnetTemp_C).toBe(250);
+    expect(parseProject(k).conditions?.magnetTemp_C).toBe(250);
   });
 
   it('Icont <= Imax, motor or nameplate', () => {
@@ -276,5 +276,78 @@ describe('one cap for every list, checked by length before any entry', () => {
     expect(parseProject(p).requirements).toHaveLength(MAX_LIST_ENTRIES);
     p.requirements[999] = { label: 'p999', speed_rpm: -1, torque_Nm: 0 };
     expect(messageOf(() => parseProject(p))).toBe('requirements[999].speed_rpm must be >= 0 rpm');
+  });
+});
+
+describe('every problem at once, each naming its field', () => {
+  const refusal = (j: unknown): InputError => {
+    try {
+      parseProject(j);
+    } catch (e) {
+      if (e instanceof InputError) return e;
+      throw e;
+    }
+    throw new Error('accepted');
+  };
+
+  it('a file with several problems lists them all, in file order', () => {
+    const j = minimal();
+    j.motor.Rs = -1;
+    j.motor.Ld = 0;
+    j.inverter.modulation = 'spwm';
+    j.requirements[0].torque_Nm = '2';
+    const e = refusal(j);
+    expect(e.problems.map((p) => p.path)).toEqual(['motor.Rs', 'motor.Ld', 'inverter.modulation', 'requirements[0].torque_Nm']);
+    expect(e.problems[0]).toEqual({ path: 'motor.Rs', message: 'must be >= 0 ohm' });
+    expect(e.message).toBe('motor.Rs must be >= 0 ohm'); // the first, as before
+    expect(e.field).toBe('motor.Rs');
+    expect(e.moreProblems).toBe(0);
+    // the app's list is the same
+    expect(checkProject(j)).toEqual(e.problems);
+  });
+
+  it('is bounded: 20 problems listed, the count of the rest said', () => {
+    const j = minimal();
+    j.requirements = Array.from({ length: 30 }, (_, i) => ({ label: `p${i}`, speed_rpm: -1, torque_Nm: 1 }));
+    const e = refusal(j);
+    expect(e.problems).toHaveLength(20);
+    expect(e.moreProblems).toBe(10);
+    expect(e.problems[19]!.path).toBe('requirements[19].speed_rpm');
+  });
+
+  it('a current given as {value, basis} outside the nameplate says where a basis is accepted', () => {
+    const j = minimal();
+    j.inverter.Imax = { value: 10, basis: 'rms' };
+    j.motor.peakCurrent = { value: 20, basis: 'peak' };
+    const e = refusal(j);
+    const byPath = Object.fromEntries(e.problems.map((p) => [p.path, p.message]));
+    // 10 A rms = 14.14 A peak (a sine's peak is √2 times its rms: common practice (no source))
+    expect(byPath['inverter.Imax']).toBe('must be a plain number in A peak (10 A rms = 14.14 A peak): a current with a basis {value, basis} ("rms" or "peak") is accepted only in nameplate.ratedCurrent and nameplate.peakCurrent; everywhere else a current is a number in A peak');
+    expect(byPath['motor.peakCurrent']).toMatch(/^must be a plain number in A peak: a current with a basis .* only in nameplate\.ratedCurrent and nameplate\.peakCurrent/);
+    // a basis object on a quantity that is not a current
+    const k = minimal();
+    k.motor.Ld = { value: 1e-4, basis: 'phase' };
+    expect(messageOf(() => parseProject(k))).toBe('motor.Ld must be a plain number in H: {value, basis} objects belong to the nameplate section only');
+  });
+
+  it('motor and nameplate together: choose one, first, even when the sections have problems of their own', () => {
+    const j = minimal();
+    j.nameplate = { poles: 8 };
+    const e = refusal(j);
+    expect(e.problems[0]).toEqual({ path: 'nameplate', message: 'and motor are both given: choose one, motor (the dq model) or nameplate (datasheet terms), and remove the other' });
+    expect(e.problems.length).toBeGreaterThan(1); // the nameplate's own gaps follow
+    // a complete nameplate beside the motor: the one problem
+    const k = minimal();
+    k.nameplate = { poles: 8, R: { value: 0.1, basis: 'phase' }, L: { value: 1e-4, basis: 'phase' }, Ke: { value: 5, unit: 'V_LL_rms/krpm' }, inertia: 1e-4 };
+    expect(refusal(k).problems).toEqual([{ path: 'nameplate', message: 'and motor are both given: choose one, motor (the dq model) or nameplate (datasheet terms), and remove the other' }]);
+  });
+
+  it('requirements[].duty: "peak" or "continuous", absent = peak', () => {
+    const j = minimal();
+    j.requirements[0].duty = 'continuous';
+    expect(parseProject(j).requirements[0]!.duty).toBe('continuous');
+    j.requirements[0].duty = 'short';
+    expect(messageOf(() => parseProject(j))).toBe('requirements[0].duty must be one of "peak", "continuous"');
+    expect(KEYS['requirements[].duty']).toBeDefined();
   });
 });

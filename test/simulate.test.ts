@@ -338,6 +338,51 @@ describe('cascade simulator behaviour', () => {
   });
 });
 
+describe('a phase current above the peak limit', () => {
+  it('the servo demo overshoots 15 A in the speed step: a finding on inverter.Imax with the peak, the limit and why', () => {
+    const p = proj(demo('demo-servo-axis'));
+    const setup = simulationFromProject(p);
+    const r = runSimulation(setup, FULL);
+    // the largest sampled |i_dq| of the run, read again from the full-rate traces
+    let most = 0;
+    for (let k = 0; k < r.traces.t_s.length; k++) most = Math.max(most, Math.hypot(r.traces.id_A[k]!, r.traces.iq_A[k]!));
+    expect(r.metrics.peakCurrent_A!).toBeCloseTo(most, 9);
+    expect(most).toBeCloseTo(15.753, 3); // 5 % above the inverter's 15 A
+    // the controller asked for the limit, no more: the overshoot is the current loop's own
+    expect(r.peakCurrentAt!.reference_A).toBeCloseTo(15, 6);
+    expect(r.peakCurrentAt!.t_s).toBeCloseTo(0.0055625, 9); // 9 periods after the speed step at 5 ms
+    const f = simulationFindings(r, setup).find((x) => x.code === 'current-above-limit');
+    expect(f?.field).toBe('inverter.Imax');
+    expect(f?.severity).toBe('warning');
+    expect(f?.message).toMatch(/reached 15\.75 A peak \(11\.14 A rms\) at 5\.563 ms, 5\.0 % above the peak limit 15\.00 A peak/);
+    expect(f?.message).toMatch(/asked for 15\.00 A peak .*overshot that reference .*1 period late \(computation delay\)/);
+  });
+
+  it('without the computation delay the same step stays within the limit: no finding', () => {
+    const o = demo('demo-servo-axis');
+    o.control.delaySamples = 0;
+    const setup = simulationFromProject(proj(o));
+    const r = runSimulation(setup, FULL);
+    expect(r.metrics.peakCurrent_A!).toBeLessThan(15);
+    expect(simulationFindings(r, setup).map((f) => f.code)).not.toContain('current-above-limit');
+  });
+
+  it('names motor.peakCurrent when the motor binds, against its (lower) limit', () => {
+    const o = demo('demo-servo-axis');
+    o.motor.peakCurrent = 14; // invented: below the inverter's 15 A
+    const p = proj(o);
+    const setup = simulationFromProject(p);
+    expect(setup.Imax).toBe(14);
+    expect(setup.currentLimitField).toBe('motor.peakCurrent');
+    const r = runSimulation(setup, FULL);
+    expect(r.peakCurrentAt!.reference_A).toBeCloseTo(14, 6);
+    const f = simulationFindings(r, setup).find((x) => x.code === 'current-above-limit');
+    expect(f?.field).toBe('motor.peakCurrent');
+    expect(f?.message).toMatch(/above the peak limit 14\.00 A peak \(9\.899 A rms\) \(motor\.peakCurrent\)/);
+    expect(r.metrics.peakCurrent_A!).toBeGreaterThan(14 * 1.001);
+  });
+});
+
 describe('streamed metrics and traces', () => {
   it('metrics do not depend on the decimation and equal the array forms on the full-rate traces', () => {
     const p = proj(demo('demo-servo-axis')); // its speed step then load step

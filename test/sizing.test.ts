@@ -7,6 +7,7 @@ import { solveOperatingPoint } from '../src/core/operating-point';
 import { maxTorquePoint } from '../src/core/envelope';
 import { rpmToRadS } from '../src/core/units';
 import { InputError } from '../src/core/errors';
+import { effectiveCurrentLimits } from '../src/core/current-limits';
 
 // Invented test machine and inverter.
 const IPM: DqMachine = { polePairs: 4, Rs: 0.02, Ld: 0.12e-3, Lq: 0.3e-3, psiM: 0.045 };
@@ -29,8 +30,15 @@ describe('sizing', () => {
       const op = solveOperatingPoint(IPM, lim, w, REQS[k].torque_Nm);
       expect(p.met).toBe(op.feasible);
       expect(p.current_A).toBeCloseTo(op.current, 9);
-      expect(p.currentHeadroom_A).toBeCloseTo(lim.Imax - op.current, 9);
-      expect(p.voltageHeadroom_V).toBeCloseTo(lim.Vmax - op.voltage, 9);
+      if (op.feasible) {
+        expect(p.currentHeadroom_A!).toBeCloseTo(lim.Imax - op.current, 9);
+        // in field weakening the least-current point sits on the voltage limit: 0 V by design
+        expect(p.voltageHeadroom_V!).toBeCloseTo(op.region === 'mtpa' ? lim.Vmax - op.voltage : 0, 9);
+        expect(p.torqueShortfall_Nm).toBeNull();
+      } else {
+        expect(p.currentHeadroom_A).toBeNull();
+        expect(p.voltageHeadroom_V).toBeNull();
+      }
       expect(p.limitedBy).toBe(op.limitedBy);
       const dir = REQS[k].torque_Nm >= 0 ? 'motoring' : 'generating';
       expect(p.torqueAvailable_Nm).toBeCloseTo(maxTorquePoint(IPM, lim, w, dir).torque, 9);
@@ -103,9 +111,72 @@ describe('sizing', () => {
       expect(s.minImax === null || Number.isFinite(s.minImax)).toBe(true);
       expect(s.minVdc === null || Number.isFinite(s.minVdc)).toBe(true);
       for (const p of s.points) {
-        for (const x of [p.torqueAvailable_Nm, p.current_A, p.voltage_V, p.currentHeadroom_A, p.voltageHeadroom_V]) expect(Number.isFinite(x)).toBe(true);
-        if (p.met) expect(p.currentHeadroom_A).toBeGreaterThanOrEqual(-1e-9 * INV.Imax);
+        for (const x of [p.torqueAvailable_Nm, p.current_A, p.voltage_V]) expect(Number.isFinite(x)).toBe(true);
+        const meaningful = p.met ? [p.currentHeadroom_A, p.voltageHeadroom_V] : [p.torqueShortfall_Nm];
+        for (const x of meaningful) expect(Number.isFinite(x)).toBe(true);
+        if (p.met) expect(p.currentHeadroom_A!).toBeGreaterThanOrEqual(-1e-9 * INV.Imax);
+        else expect(p.torqueShortfall_Nm!).toBeGreaterThanOrEqual(0);
       }
     }), { numRuns: 40 });
+  });
+});
+
+describe('sizing: duty, effective limits and headroom that means something', () => {
+  const lim = driveLimits(INV);
+  // 'launch' needs about 368 A at 300 rpm (MTPA): between Icont 250 A and Imax 400 A
+  const launch = REQS[0];
+
+  it('a continuous point is checked against the continuous limit and says so', () => {
+    const peakDuty = sizeDrive(IPM, INV, [launch]).points[0];
+    const cont = sizeDrive(IPM, INV, [{ ...launch, duty: 'continuous' }]);
+    const c = cont.points[0];
+    expect(peakDuty.met).toBe(true);
+    expect(peakDuty.duty).toBe('peak');
+    expect(peakDuty.currentLimit_A).toBe(400);
+    expect(c.duty).toBe('continuous');
+    expect(c.currentLimit_A).toBe(250);
+    expect(c.current_A).toBeGreaterThan(250);
+    expect(c.met).toBe(false);
+    expect(c.limitedBy).toBe('current');
+    // the available torque is that of the continuous limit at this speed
+    expect(c.torqueAvailable_Nm).toBeCloseTo(maxTorquePoint(IPM, { Vmax: lim.Vmax, Imax: 250 }, rpmToRadS(300), 'motoring').torque, 9);
+    expect(c.headroomNote).toMatch(/continuous current limit 250 A peak \(inverter's Icont\)/);
+    // least continuous current: the MTPA current of the point (the only continuous one)
+    expect(cont.minIcont).toBeCloseTo(c.current_A, 6);
+    expect(sizeDrive(IPM, INV, [launch]).minIcont).toBeUndefined();
+  });
+
+  it('uses the effective limits (the motor binds) and names the motor', () => {
+    const limits = effectiveCurrentLimits(INV, 200, 280); // invented motor: rated 200 A, peak 280 A peak
+    const r = sizeDrive(IPM, INV, [launch], limits).points[0];
+    expect(r.currentLimit_A).toBe(280);
+    expect(r.currentLimitBinds).toBe('motor');
+    expect(r.met).toBe(false); // 368 A needed > 280 A
+    expect(r.headroomNote).toMatch(/peak current limit 280 A peak \(motor's peak current\)/);
+  });
+
+  it('a point not met gives the torque shortfall, never a current headroom', () => {
+    const s = sizeDrive(IPM, INV, [{ label: 'too much', speed_rpm: 10, torque_Nm: 400 }]).points[0];
+    expect(s.met).toBe(false);
+    expect(s.currentHeadroom_A).toBeNull();
+    expect(s.voltageHeadroom_V).toBeNull();
+    // shortfall = asked - available at Imax (MTPA torque at 400 A at 10 rpm, far below the voltage limit)
+    expect(s.torqueShortfall_Nm!).toBeCloseTo(400 - maxTorquePoint(IPM, lim, rpmToRadS(10), 'motoring').torque, 9);
+    expect(s.torqueShortfall_Nm!).toBeGreaterThan(0);
+    expect(s.headroomNote).toMatch(/^short by [0-9.]+ N·m: [0-9.]+ N·m available, limited by the peak current limit 400 A peak/);
+  });
+
+  it('a point met in field weakening: voltage headroom 0 V by design, current headroom in words', () => {
+    const r = sizeDrive(IPM, INV, REQS);
+    const cruise = r.points[3]; // 'top', 25 N·m at 14 000 rpm: on the voltage limit
+    const op = solveOperatingPoint(IPM, lim, rpmToRadS(14000), 25);
+    expect(op.region).toBe('field-weakening');
+    expect(op.voltage / lim.Vmax).toBeCloseTo(1, 6); // the solver's point does sit on the limit
+    expect(cruise.met).toBe(true);
+    expect(cruise.voltageHeadroom_V).toBe(0);
+    expect(cruise.currentHeadroom_A!).toBeCloseTo(400 - op.current, 9);
+    expect(cruise.headroomNote).toBe(`field weakening, current headroom ${Number((400 - op.current).toPrecision(4))} A peak (peak limit)`);
+    // an MTPA point reports both headrooms
+    expect(r.points[0].headroomNote).toMatch(/^current headroom [0-9.]+ A peak \(peak limit\), voltage headroom [0-9.]+ V peak phase$/);
   });
 });

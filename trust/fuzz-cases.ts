@@ -14,7 +14,7 @@ import { join } from 'node:path';
 import fc from 'fast-check';
 import { loadProjectText, resolveProject, type ResolvedProject } from '../src/core/project';
 import { parseProject } from '../src/core/schema';
-import { InputError } from '../src/core/errors';
+import { InputError, problemLines } from '../src/core/errors';
 import { COMMANDS } from '../src/cli/commands/registry';
 import { parseArgs } from '../src/cli/args';
 import { checkFlags } from '../src/cli/args';
@@ -44,7 +44,7 @@ export interface FuzzCase {
 
 export type Outcome =
   | { kind: 'ok' }
-  | { kind: 'input-error'; field: string; message: string }
+  | { kind: 'input-error'; field: string; message: string; /** every problem, one line each (the CLI prints these) */ lines: string[] }
   | { kind: 'failure'; why: string };
 
 // ---------------------------------------------------------------- values
@@ -318,7 +318,12 @@ export async function runCase(c: FuzzCase): Promise<Outcome> {
       if (/[\r\n]/.test(e.message)) return { kind: 'failure', why: `InputError message spans lines: ${JSON.stringify(e.message.slice(0, 200))}` };
       if (e.message.length > MAX_MESSAGE) return { kind: 'failure', why: `InputError message is ${e.message.length} characters long: ${e.message.slice(0, 120)}...` };
       if (/\bNaN\b/.test(e.message.replace(/'[^']*'/g, '').replace(/"[^"]*"/g, ''))) return { kind: 'failure', why: `InputError message shows NaN: ${e.message.slice(0, 200)}` };
-      return { kind: 'input-error', field: e.field, message: e.message };
+      const lines = problemLines(e);
+      for (const l of lines) {
+        if (/[\r\n]/.test(l) || l.length > MAX_MESSAGE) return { kind: 'failure', why: `InputError problem line spans lines or is too long: ${JSON.stringify(l.slice(0, 200))}` };
+        if (/\bNaN\b/.test(l.replace(/'[^']*'/g, '').replace(/"[^"]*"/g, ''))) return { kind: 'failure', why: `InputError problem shows NaN: ${l.slice(0, 200)}` };
+      }
+      return { kind: 'input-error', field: e.field, message: e.message, lines };
     }
     const what = e instanceof Error ? `${e.name}: ${e.message}\n${(e.stack ?? '').split('\n').slice(1, 4).join('\n')}` : String(e);
     return { kind: 'failure', why: `${c.command} threw ${what.slice(0, 800)}` };

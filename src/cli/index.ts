@@ -1,10 +1,10 @@
 #!/usr/bin/env node
 // Torquewise command line: `npm run -s cli -- <command> <project.json> [options]`.
-// Exit codes: 0 ok, 2 bad input (one line naming the field), 1 internal error.
+// Exit codes: 0 ok, 2 bad input (one line per problem, each naming its field), 1 internal error.
 import { readFileSync, statSync, writeFileSync } from 'node:fs';
 import { parseArgs, checkFlags } from './args';
 import type { Command } from './command';
-import { isInputError, InputError } from '../core/errors';
+import { isInputError, InputError, problemLines } from '../core/errors';
 import { loadProjectText } from '../core/project';
 import { COMMANDS } from './commands/registry';
 
@@ -77,7 +77,8 @@ export async function main(argv: readonly string[], out: TextSink = process.stdo
     return 0;
   } catch (e) {
     if (isInputError(e)) {
-      err.write(`torquewise: ${visible(e.message)}\n`);
+      // every problem of the file at once, one line each naming its field
+      for (const line of problemLines(e)) err.write(`torquewise: ${visible(line)}\n`);
       return 2;
     }
     err.write(`torquewise: internal error: ${visible(e instanceof Error ? e.message : String(e))}\n`);

@@ -22,3 +22,23 @@ export function effectiveCurrentLimits(inv: Pick<InverterSpec, 'Imax' | 'Icont'>
   return { peak, continuous };
 }
 
+const sig4 = (x: number): string => (Number.isFinite(x) ? String(Number(x.toPrecision(4))) : String(x));
+
+/** The rating that sets a limit, by its field: e.g. "inverter.Imax" or "motor.peakCurrent". */
+export function limitField(kind: 'peak' | 'continuous', e: EffectiveCurrent, section: 'motor' | 'nameplate' = 'motor'): string {
+  if (e.binds === 'inverter') return kind === 'peak' ? 'inverter.Imax' : 'inverter.Icont';
+  return kind === 'peak' ? `${section}.peakCurrent` : `${section}.ratedCurrent`;
+}
+
+/**
+ * One limit in words, both as peak and rms, and which rating binds, e.g.
+ * "peak 449.7 A peak (318 A rms): motor" (the motor's peak current is below the inverter's Imax).
+ */
+export function describeLimit(kind: 'peak' | 'continuous', e: EffectiveCurrent): string {
+  return `${kind} ${sig4(e.A)} A peak (${sig4(e.A / Math.SQRT2)} A rms): ${e.binds}`;
+}
+
+/** Both limits in one line, e.g. "current limits: peak 15 A peak (10.61 A rms): inverter; continuous ...". */
+export function describeLimits(l: CurrentLimits): string {
+  return `current limits: ${describeLimit('peak', l.peak)}; ${describeLimit('continuous', l.continuous)}`;
+}

@@ -9,7 +9,7 @@ import { InputError } from './errors';
 import { machineAt } from './thermal';
 import { driveLimits } from './inverter';
 import { fmt, nameplateToModel, type Interpretation, type RatedData } from './nameplate';
-import { parseProject, type ProjectFile } from './schema';
+import { defaultConditions, parseProject, type ProjectFile } from './schema';
 import { solveOperatingPoint } from './operating-point';
 import { mtpaTorque } from './mtpa';
 import { migrateProject } from './migrate';
@@ -118,12 +118,17 @@ export function loadProjectText(source: string): ResolvedProject {
 
 /** The cold corner's temperature when the file gives none, °C (said as a finding). */
 export const DEFAULT_COLD_TEMP_C = 20;
+/** Every temperature when the file gives no conditions (and the winding's when it gives none), °C (said as a finding). */
+export const DEFAULT_TEMP_C = 20;
+/** The modulation when the file gives none (said as a finding). */
+export const DEFAULT_MODULATION = 'svpwm' as const;
 
 /** A validated project file -> machine hot and cold, limits, findings. */
 export function resolveProject(file: ProjectFile): ResolvedProject {
-  const c = file.conditions;
+  // a minimal file may leave out the conditions (every temperature 20 °C) or the winding temperature
+  const c = file.conditions ?? defaultConditions();
   const conditions: Conditions = {
-    windingTemp_C: c.windingTemp_C,
+    windingTemp_C: c.windingTemp_C ?? DEFAULT_TEMP_C,
     magnetTemp_C: c.magnetTemp_C,
     coldTemp_C: c.coldTemp_C ?? DEFAULT_COLD_TEMP_C,
     magnetTempCoeff: c.magnetTempCoeff,
@@ -152,13 +157,31 @@ export function resolveProject(file: ProjectFile): ResolvedProject {
     throw new InputError('motor', 'is required (or a nameplate section)');
   }
 
-  const inverter: InverterSpec = { ...file.inverter };
+  const inverter: InverterSpec = { ...file.inverter, modulation: file.inverter.modulation ?? DEFAULT_MODULATION };
+  if (file.inverter.modulation === undefined) {
+    findings.push({
+      code: 'modulation-assumed', severity: 'info', field: 'inverter.modulation',
+      message: `No modulation given: space-vector PWM ("${DEFAULT_MODULATION}") is assumed, voltage limit Vdc/√3 per phase peak. Give "sinusoidal" (Vdc/2) if the drive uses plain sine-triangle PWM.`,
+    });
+  }
   const currentLimits = effectiveCurrentLimits(inverter, rated.current_A, rated.peakCurrent_A);
   const peak: DriveLimits = { ...driveLimits(inverter, 'peak'), Imax: currentLimits.peak.A };
   const continuous: DriveLimits = { ...driveLimits(inverter, 'continuous'), Imax: currentLimits.continuous.A };
-  const hot = machineAt(machine20, c.windingTemp_C, c.magnetTemp_C, c.magnetTempCoeff);
-  const cold = machineAt(machine20, conditions.coldTemp_C, conditions.coldTemp_C, c.magnetTempCoeff);
-  if (c.coldTemp_C === undefined) {
+  const hot = machineAt(machine20, conditions.windingTemp_C, conditions.magnetTemp_C, conditions.magnetTempCoeff);
+  const cold = machineAt(machine20, conditions.coldTemp_C, conditions.coldTemp_C, conditions.magnetTempCoeff);
+  if (file.conditions === undefined) {
+    findings.push({
+      code: 'conditions-assumed', severity: 'info', field: 'conditions',
+      message: `No conditions given: every temperature (winding, magnet, cold corner) is taken at ${DEFAULT_TEMP_C} °C, so the hot corner is not hot: ` +
+        'a warm winding has more resistance and a warm magnet less flux. Give conditions.windingTemp_C and conditions.magnetTemp_C for the hot corner and conditions.coldTemp_C for the coldest start.',
+    });
+  } else if (c.windingTemp_C === undefined) {
+    findings.push({
+      code: 'winding-temp-assumed', severity: 'info', field: 'conditions.windingTemp_C',
+      message: `No winding temperature given: the hot corner's winding is taken at ${DEFAULT_TEMP_C} °C (resistance at 20 °C). Give the winding temperature the drive must work at.`,
+    });
+  }
+  if (file.conditions !== undefined && c.coldTemp_C === undefined) {
     findings.push({
       code: 'cold-corner-assumed', severity: 'info', field: 'conditions.coldTemp_C',
       message: `No cold-corner temperature given: the cold corner (strongest magnet, highest back-EMF) is taken at ${DEFAULT_COLD_TEMP_C} °C. A colder start raises the back-EMF further; give the coldest ambient the drive must start in.`,
@@ -180,7 +203,7 @@ export function resolveProject(file: ProjectFile): ResolvedProject {
     continuous,
     currentLimits,
     conditions,
-    requirements: file.requirements.map((r) => ({ label: r.label, speed_rpm: r.speed_rpm, torque_Nm: r.torque_Nm })),
+    requirements: file.requirements.map((r) => ({ label: r.label, speed_rpm: r.speed_rpm, torque_Nm: r.torque_Nm, duty: r.duty ?? 'peak' })),
     rated,
     interpretation,
     findings,

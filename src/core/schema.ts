@@ -95,21 +95,22 @@ export const KEYS: Readonly<Record<string, { unit: string; doc: string }>> = {
   'inverter.Vdc': { unit: 'V', doc: 'DC-bus voltage' },
   'inverter.Imax': { unit: 'A', doc: 'peak phase current limit (A peak)' },
   'inverter.Icont': { unit: 'A', doc: 'continuous phase current limit (A peak), <= Imax' },
-  'inverter.modulation': { unit: '', doc: '"sinusoidal", "svpwm" or "six-step"' },
+  'inverter.modulation': { unit: '', doc: '"sinusoidal", "svpwm" or "six-step"; "svpwm" when not given (with a finding)' },
   'inverter.voltageUtilization': { unit: '', doc: 'fraction of the modulation limit, 0.001 to 1, default 1' },
   'inverter.deviceDrop': { unit: 'V', doc: 'on-state drop per device, default 0' },
 
-  conditions: { unit: '', doc: 'temperatures' },
-  'conditions.windingTemp_C': { unit: '°C', doc: 'winding temperature, hot corner' },
+  conditions: { unit: '', doc: 'temperatures; when absent every temperature is 20 °C (with a finding)' },
+  'conditions.windingTemp_C': { unit: '°C', doc: 'winding temperature, hot corner, 20 when not given (with a finding)' },
   'conditions.magnetTemp_C': { unit: '°C', doc: 'magnet temperature, hot corner, default 20' },
   'conditions.coldTemp_C': { unit: '°C', doc: 'winding and magnet temperature, cold corner (highest back-EMF), 20 when not given (with a finding)' },
   'conditions.magnetTempCoeff': { unit: '/K', doc: 'remanence coefficient, -0.003..0.001, default -0.0012 (sintered NdFeB; SmCo about -0.0004)' },
 
   requirements: { unit: '', doc: `operating points to meet, at most ${MAX_LIST_ENTRIES}` },
-  'requirements[]': { unit: '', doc: '{label, speed_rpm, torque_Nm}' },
+  'requirements[]': { unit: '', doc: '{label, speed_rpm, torque_Nm, duty}' },
   'requirements[].label': { unit: '', doc: 'name of the point' },
   'requirements[].speed_rpm': { unit: 'rpm', doc: 'mechanical speed, >= 0' },
   'requirements[].torque_Nm': { unit: 'N·m', doc: 'torque; negative = braking' },
+  'requirements[].duty': { unit: '', doc: '"peak" (default: checked against the peak current limit) or "continuous" (checked against the continuous limit, the lower of inverter.Icont and the motor\'s rated current)' },
 
   control: { unit: '', doc: 'the drive controller' },
   'control.mode': { unit: '', doc: '"speed", "torque" or "current-step", default "speed"' },
@@ -260,7 +261,7 @@ const inverterSchema = z
     Vdc: num('inverter.Vdc', 0, 1e5, { gtMin: true }),
     Imax: num('inverter.Imax', 1e-6, 1e6),
     Icont: num('inverter.Icont', 1e-6, 1e6),
-    modulation: z.enum(['sinusoidal', 'svpwm', 'six-step']),
+    modulation: z.enum(['sinusoidal', 'svpwm', 'six-step']).optional(), // "svpwm" when absent, said as a finding
     voltageUtilization: num('inverter.voltageUtilization', 1e-3, 1).default(1),
     deviceDrop: num('inverter.deviceDrop', 0, 1e3).default(0),
   })
@@ -273,17 +274,24 @@ const inverterSchema = z
 
 const conditionsSchema = z
   .strictObject({
-    windingTemp_C: num('conditions.windingTemp_C', T_MIN, T_MAX),
+    windingTemp_C: num('conditions.windingTemp_C', T_MIN, T_MAX).optional(), // 20 °C when absent, said as a finding
     magnetTemp_C: num('conditions.magnetTemp_C', T_MIN, T_MAX).default(20),
     coldTemp_C: num('conditions.coldTemp_C', T_MIN, T_MAX).optional(), // 20 °C when absent, said as a finding
     magnetTempCoeff: num('conditions.magnetTempCoeff', -0.003, 0.001).default(-0.0012),
   })
   .describe(doc('conditions'));
 
+/** The conditions of a file that gives none, from the schema's own defaults (every temperature 20 °C then). */
+export function defaultConditions(): ProjectConditions {
+  return conditionsSchema.parse({});
+}
+export type ProjectConditions = z.output<typeof conditionsSchema>;
+
 const requirementSchema = z.strictObject({
   label: z.string().min(1).max(200),
   speed_rpm: num('requirements[].speed_rpm', 0, 1e6),
   torque_Nm: num('requirements[].torque_Nm', -1e6, 1e6),
+  duty: z.enum(['peak', 'continuous']).optional(), // 'peak' when absent
 });
 
 const controlSchema = z
@@ -376,15 +384,17 @@ const projectObject = z.strictObject({
   motor: motorSchema.optional(),
   nameplate: nameplateSchema.optional(),
   inverter: inverterSchema,
-  conditions: conditionsSchema,
+  conditions: conditionsSchema.optional(), // every temperature 20 °C when absent, said as a finding
   requirements: z.array(requirementSchema).max(MAX_LIST_ENTRIES).default([]),
   control: controlSchema.optional(),
   scenario: scenarioSchema.optional(),
 });
 
+const CHOOSE_ONE = 'and motor are both given: choose one, motor (the dq model) or nameplate (datasheet terms), and remove the other';
+
 export const projectSchema = projectObject.superRefine((p, ctx) => {
   if (p.motor === undefined && p.nameplate === undefined) ctx.addIssue({ code: 'custom', path: ['motor'], message: 'is required (or a nameplate section)' });
-  if (p.motor !== undefined && p.nameplate !== undefined) ctx.addIssue({ code: 'custom', path: ['nameplate'], message: 'cannot be given beside motor: describe the machine once, either as a dq model (motor) or in datasheet terms (nameplate)' });
+  if (p.motor !== undefined && p.nameplate !== undefined) ctx.addIssue({ code: 'custom', path: ['nameplate'], message: CHOOSE_ONE });
   if (p.control?.mode === 'current-step' && p.scenario !== undefined && p.scenario.currentStep === undefined) {
     ctx.addIssue({ code: 'custom', path: ['scenario', 'currentStep'], message: 'is required by control.mode "current-step"' });
   }
@@ -467,6 +477,7 @@ function phrase(iss: z.core.$ZodIssue, input: unknown): ProjectProblem[] {
         return at(d ? `is required (${withUnit(d.doc, unit ? `in ${unit}` : '').trim()})` : 'is required');
       }
       if (iss.expected === 'number' && typeof value === 'number') return at(withUnit('must be a finite number', unit ? `in ${unit}` : ''));
+      if (iss.expected === 'number' && value !== null && typeof value === 'object' && !Array.isArray(value) && ('value' in value || 'basis' in value)) return at(withBasisMessage(value as Record<string, unknown>, unit));
       return at(`must be ${TYPE_WORD[iss.expected] ?? iss.expected}${unit && iss.expected === 'number' ? ` in ${unit}` : ''}`);
     }
     case 'too_small':
@@ -495,6 +506,16 @@ function phrase(iss: z.core.$ZodIssue, input: unknown): ProjectProblem[] {
     default:
       return at('is not valid here');
   }
+}
+
+/** A {value, basis} object where a plain number belongs: where a basis is accepted, and what the number means here. */
+function withBasisMessage(v: Record<string, unknown>, unit: string): string {
+  if (unit === 'A') {
+    const x = v['value'];
+    const asPeak = typeof x === 'number' && Number.isFinite(x) && v['basis'] === 'rms' ? ` (${x} A rms = ${Number((x * Math.SQRT2).toPrecision(4))} A peak)` : '';
+    return `must be a plain number in A peak${asPeak}: a current with a basis {value, basis} ("rms" or "peak") is accepted only in nameplate.ratedCurrent and nameplate.peakCurrent; everywhere else a current is a number in A peak`;
+  }
+  return `must be a plain number${unit ? ` in ${unit}` : ''}: {value, basis} objects belong to the nameplate section only`;
 }
 
 function lookup(root: unknown, path: readonly PropertyKey[]): unknown {
@@ -533,21 +554,41 @@ export function listCapProblem(json: unknown): ProjectProblem | null {
   return null;
 }
 
+/**
+ * The problems of zod's issues in our words; giving both motor and nameplate leads (zod runs the
+ * file-level check only when the sections themselves are valid, and the rest follows from it).
+ */
+function problemsOf(issues: readonly z.core.$ZodIssue[], json: unknown): ProjectProblem[] {
+  const out = issues.flatMap((iss) => phrase(iss, json));
+  const o = json as Record<string, unknown>;
+  if (o['motor'] !== undefined && o['nameplate'] !== undefined && !out.some((p) => p.path === 'nameplate' && p.message === CHOOSE_ONE)) {
+    out.unshift({ path: 'nameplate', message: CHOOSE_ONE });
+  }
+  return out;
+}
+
 /** Every problem of a project file, in file order (empty = valid). */
 export function checkProject(json: unknown): ProjectProblem[] {
   const h = headerProblem(json) ?? listCapProblem(json);
   if (h) return [h];
   const r = projectSchema.safeParse(json);
   if (r.success) return [];
-  return r.error.issues.flatMap((iss) => phrase(iss, json));
+  return problemsOf(r.error.issues, json);
 }
 
-/** Validate and fill defaults; throws InputError(path, message) for the first problem. */
+/** Most problems one refusal lists (a file with more gets "... and N more"). */
+export const MAX_PROBLEMS = 20;
+
+/**
+ * Validate and fill defaults; throws one InputError carrying every problem (up to MAX_PROBLEMS),
+ * each naming its field: `field`/`message` are the first, `problems` all of them.
+ */
 export function parseProject(json: unknown): ProjectFile {
   const h = headerProblem(json) ?? listCapProblem(json);
   if (h) throw new InputError(h.path, h.message);
   const r = projectSchema.safeParse(json);
   if (r.success) return r.data;
-  const first = phrase(r.error.issues[0], json)[0];
-  throw new InputError(first.path, first.message);
+  const all = problemsOf(r.error.issues, json);
+  const first = all[0] ?? { path: 'file', message: 'is not valid here' };
+  throw new InputError(first.path, first.message, all.slice(0, MAX_PROBLEMS), Math.max(0, all.length - MAX_PROBLEMS));
 }

@@ -18,6 +18,7 @@
  */
 import ode45 from 'ode45-cash-karp';
 import type { DqMachine, DriveLimits, Finding } from './types';
+import { limitField } from './current-limits';
 import { InputError } from './errors';
 import { Plant, STATE_SIZE as STATE_SIZE_, I_D as I_D_, I_Q as I_Q_, OMEGA as OMEGA_, THETA as THETA_, ENERGY as ENERGY_, loadSchedule, loadLevel, nextLoadBreak, coulombWidth } from './plant';
 import type { PlantParams } from './plant';
@@ -99,8 +100,10 @@ export interface SimulationSetup {
   initialSpeed_rad_s: number;
   initialTheta_rad: number;
   solver: SolverOptions;
-  /** peak current limit, A (divergence at 20x) */
+  /** peak current limit, A (divergence at 20x): the effective limit, the weaker of motor and inverter */
   Imax: number;
+  /** the field of the rating that sets Imax, e.g. "inverter.Imax" or "motor.peakCurrent" (default "inverter.Imax") */
+  currentLimitField?: string;
   /**
    * overcurrent trip, A: |i_dq| above it stops the run as a divergence, as a drive's hardware trip
    * would (a saturated unstable loop settles into a bounded limit cycle that 20·Imax never sees)
@@ -188,8 +191,20 @@ export interface LoadStepResult {
 /** A load step is read only from a settled speed: within SETTLED_FRACTION of the reference, and at least this, rpm. */
 const SETTLED_FLOOR_RPM = 1;
 
+/** When the largest current came, and what the controller asked for then. */
+export interface PeakCurrentDetail {
+  /** time of the peak sample, s */
+  t_s: number;
+  /** |i_dq reference| at that sample, A peak */
+  reference_A: number;
+  /** time since the voltage vector was last at the modulation limit, s (Infinity: never before) */
+  sinceVoltageLimit_s: number;
+}
+
 export interface SimulationResult {
   metrics: SimulationMetrics;
+  /** the sample of the largest current (absent when the run recorded none) */
+  peakCurrentAt?: PeakCurrentDetail;
   /** every load step and ramp start, in time order (the metrics' loadStep* keys are the first) */
   loadSteps: LoadStepResult[];
   traces: Traces;
@@ -364,6 +379,7 @@ export function runSimulation(setup: SimulationSetup, opts: RunOptions = {}): Si
   const gap = Math.max(1, Math.floor(o.eventMergeGap));
 
   let peakI2 = 0;
+  let peakT = 0, peakRef2 = 0, peakSinceSat = Infinity, lastSatT = -Infinity;
   let sumI2 = 0;
   let satPeriods = 0;
   let curStart = -1, curOff = 0, satStart = -1, satOff = 0, overStart = -1;
@@ -463,13 +479,19 @@ export function runSimulation(setup: SimulationSetup, opts: RunOptions = {}): Si
     record(k);
     nRec = k + 1;
     const i2 = y[I_D]! * y[I_D]! + y[I_Q]! * y[I_Q]!;
-    if (i2 > peakI2) peakI2 = i2;
     sumI2 += i2;
     // event intervals
     if (ctrl.currentLimited) { if (curStart < 0) curStart = t0; curOff = 0; }
     else if (curStart >= 0 && ++curOff >= gap) { closeInterval('current-limit', curStart, t0 - (gap - 1) * Ts, curCount++); curStart = -1; }
-    if (ctrl.voltageSaturated) { satPeriods++; if (satStart < 0) satStart = t0; satOff = 0; }
+    if (ctrl.voltageSaturated) { satPeriods++; lastSatT = t0; if (satStart < 0) satStart = t0; satOff = 0; }
     else if (satStart >= 0 && ++satOff >= gap) { closeInterval('voltage-saturation', satStart, t0 - (gap - 1) * Ts, satCount++); satStart = -1; }
+    // the peak current, when it came, the reference then and how long after the voltage limit let go
+    if (i2 > peakI2) {
+      peakI2 = i2;
+      peakT = t0;
+      peakRef2 = ctrl.idRef * ctrl.idRef + ctrl.iqRef * ctrl.iqRef;
+      peakSinceSat = t0 - lastSatT;
+    }
     const wabs = Math.abs(y[OMEGA]!);
     if (wabs > wOver) { if (overStart < 0) overStart = t0; }
     else if (overStart >= 0) {
@@ -606,7 +628,12 @@ export function runSimulation(setup: SimulationSetup, opts: RunOptions = {}): Si
 
   // the state the run ended in counts for the peak current (a trip's own current included)
   const iEnd2 = y[I_D]! * y[I_D]! + y[I_Q]! * y[I_Q]!;
-  if (Number.isFinite(iEnd2) && iEnd2 > peakI2) peakI2 = iEnd2;
+  if (Number.isFinite(iEnd2) && iEnd2 > peakI2) {
+    peakI2 = iEnd2;
+    peakT = tLast;
+    peakRef2 = ctrl.idRef * ctrl.idRef + ctrl.iqRef * ctrl.iqRef;
+    peakSinceSat = tLast - lastSatT;
+  }
   // ---- metrics (from the streaming trackers fed at every recorded sample)
   let rise: number | null = null, over: number | null = null, settle: number | null = null;
   let dip: number | null = null, recov: number | null = null, sse: number | null = null;
@@ -661,7 +688,10 @@ export function runSimulation(setup: SimulationSetup, opts: RunOptions = {}): Si
       settled: r.settled,
     };
   });
-  return { metrics, loadSteps, traces, events, stats, ...(diagnostic ? { diagnostic } : {}) };
+  const peakCurrentAt: PeakCurrentDetail | undefined = peakI2 > 0 && Number.isFinite(peakI2)
+    ? { t_s: peakT, reference_A: Math.sqrt(peakRef2), sinceVoltageLimit_s: peakSinceSat }
+    : undefined;
+  return { metrics, loadSteps, traces, events, stats, ...(peakCurrentAt ? { peakCurrentAt } : {}), ...(diagnostic ? { diagnostic } : {}) };
 }
 
 function scheduleBefore(steps: Array<{ t: number; v: number }>, t: number, initial: number): number {
@@ -796,6 +826,7 @@ export function simulationFromProject(p: ResolvedProject, overrides: SimulationO
     initialTheta_rad: 0,
     solver: { ...DEFAULT_SOLVER_OPTIONS, ...(overrides.solver ?? {}) },
     Imax: lim.Imax,
+    currentLimitField: limitField('peak', p.currentLimits.peak, p.file.motor ? 'motor' : 'nameplate'),
     tripCurrent_A: DEFAULT_TRIP_FACTOR * lim.Imax,
     divergenceSpeed_rad_s: mode === 'current-step' ? Infinity : 3 * speedMax,
     overspeed_rad_s: mode === 'current-step' ? Infinity : overspeed,
@@ -885,6 +916,42 @@ function scenarioFindings(p: ResolvedProject, f: ScenarioFacts): Finding[] {
   return out;
 }
 
+/** A peak current above the limit by more than this fraction is a finding (below it: round-off of the loop). */
+export const CURRENT_OVER_LIMIT_TOLERANCE = 1e-3;
+
+/**
+ * The phase current above the peak limit. The controller never asks for more than the limit (its
+ * current reference is clamped there), but the current loop's transient can overshoot the
+ * reference: a reference step to the limit, a rise held back by the voltage limit, the computation
+ * delay (the loop corrects one or more periods late). The finding says so, with when and how much.
+ */
+export function currentAboveLimit(r: SimulationResult, setup?: SimulationSetup): Finding | null {
+  const peak = r.metrics.peakCurrent_A;
+  if (!setup || peak === null || r.diagnostic) return null;
+  const lim = setup.Imax;
+  if (!(peak > lim * (1 + CURRENT_OVER_LIMIT_TOLERANCE))) return null;
+  const field = setup.currentLimitField ?? 'inverter.Imax';
+  const at = r.peakCurrentAt;
+  const a = (x: number): string => `${x.toPrecision(4)} A peak (${(x / Math.SQRT2).toPrecision(4)} A rms)`;
+  const pct = ((peak / lim - 1) * 100).toPrecision(2);
+  const Ts = setup.controller.Ts;
+  const d = setup.controller.delaySamples;
+  const asked = at ? ` (it asked for ${a(at.reference_A)} then)` : '';
+  let why = `The controller clamps its current reference at the limit${asked}; the current overshot that reference in the current loop's step response`;
+  why += d > 0
+    ? `: the loop acts ${d} period${d > 1 ? 's' : ''} late (computation delay), which costs it phase margin at its bandwidth`
+    : ', an overshoot of the loop itself (its gains or the sampled-data loop)';
+  if (at && Number.isFinite(at.sinceVoltageLimit_s) && at.sinceVoltageLimit_s <= 10 * Ts) why += ` (the voltage limit had held the current's rise until ${(at.sinceVoltageLimit_s * 1e3).toPrecision(2)} ms before)`;
+  why += '.';
+  return {
+    code: 'current-above-limit',
+    severity: 'warning',
+    field,
+    message: `the phase current reached ${a(peak)}${at ? ` at ${(at.t_s * 1e3).toPrecision(4)} ms` : ''}, ${pct} % above the peak limit ${a(lim)} (${field}). ${why} ` +
+      'A drive whose overcurrent trip sits at this limit would trip here: leave margin to the trip level, or lower the current-loop bandwidth or the torque step.',
+  };
+}
+
 /** Findings of a run worth showing beside the metrics. */
 export function simulationFindings(r: SimulationResult, setup?: SimulationSetup): Finding[] {
   const out: Finding[] = [...(setup?.findings ?? []), ...(setup?.tuning?.warnings ?? [])];
@@ -904,6 +971,8 @@ export function simulationFindings(r: SimulationResult, setup?: SimulationSetup)
       out.push({ code: 'speed-not-reached', severity: 'warning', field: 'scenario.speedSteps', message: `at the end of the run the speed is ${got.toFixed(0)} rpm against a reference of ${ref.toFixed(0)} rpm: the drive could not reach it within the run (a current or voltage limit, the load, or too short a run)` });
     }
   }
+  const over = currentAboveLimit(r, setup);
+  if (over) out.push(over);
   if ((r.metrics.voltageSaturation_s ?? 0) > 0) out.push({ code: 'voltage-saturation', severity: 'warning', message: `the voltage limit was active for ${r.metrics.voltageSaturation_s!.toPrecision(3)} s` });
   return out;
 }

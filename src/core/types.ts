@@ -103,7 +103,12 @@ export interface Requirement {
   speed_rpm: number;
   /** shaft torque wanted, N·m; negative = generating/braking */
   torque_Nm: number;
+  /** which current limit the point is checked against: the peak (default) or the continuous limit */
+  duty?: Duty;
 }
+
+/** A requirement's duty: short-time (peak current limit) or held (continuous current limit). */
+export type Duty = 'peak' | 'continuous';
 
 /** Who sets an effective current limit: the weaker of the motor's rating and the inverter's. */
 export type LimitSource = 'motor' | 'inverter';

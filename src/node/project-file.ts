@@ -2,7 +2,7 @@
 // the atomic replace, so a failed save leaves the good file as it was. Every outcome is a result
 // object with a sentence for the user; nothing throws out of these functions.
 import { basename } from 'node:path';
-import { isInputError } from '../core/errors';
+import { isInputError, problemLines } from '../core/errors';
 import { loadProjectText } from '../core/project';
 import { MAX_PROJECT_BYTES, PROJECT_FORMAT, PROJECT_VERSION } from '../core/schema';
 import type { OpenResult, SaveResult } from '../types/bridge';
@@ -77,7 +77,7 @@ export async function openProjectFile(path: string, options: ProjectFileOptions 
   try {
     (options.check ?? loadProjectText)(text);
   } catch (e) {
-    if (isInputError(e)) return fail(e.message);
+    if (isInputError(e)) return fail(problemLines(e).join('; '));
     return fail('its content could not be read as a project');
   }
   if (header.kind === 'bad') return fail(header.message);

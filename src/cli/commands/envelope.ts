@@ -5,6 +5,8 @@ import { PLOT_SPEED_MAX_RPM, projectSpeedRange } from '../../core/speed-range';
 import { numberFlag, stringFlag } from '../args';
 import { table, fmt } from '../table';
 import { peakToRms, radSToRpm, rpmToRadS } from '../../core/units';
+import { describeLimit } from '../../core/current-limits';
+import type { CurrentLimits } from '../../core/types';
 
 /** The envelope as the CLI's JSON document (motoring under Imax at the file's temperatures). */
 export function envelopeJson(env: Envelope) {
@@ -37,8 +39,17 @@ export function regionAt(env: Envelope, k: number): string {
   return env.feasible[k] === 1 ? env.region[k]! : 'beyond-max-speed';
 }
 
-export function envelopeCsv(env: Envelope): string {
-  const rows: CsvCell[][] = [['speed_rpm', 'torque_Nm', 'power_W', 'id_A', 'iq_A', 'current_A_peak', 'current_A_rms', 'voltage_V_peak_phase', 'region']];
+/**
+ * The envelope as CSV. With `about`, '#' comment rows first (one quoted cell each): the project, the
+ * voltage limit and the effective current limit the curve is drawn at, and which rating binds it.
+ */
+export function envelopeCsv(env: Envelope, about?: { name: string; Vmax: number; limits: CurrentLimits }): string {
+  const rows: CsvCell[][] = [];
+  if (about) {
+    rows.push([`# torquewise envelope; project: ${about.name || 'unnamed'}; motoring, hot corner`]);
+    rows.push([`# drawn at ${describeLimit('peak', about.limits.peak)}; Vmax ${fmt(about.Vmax)} V peak phase; ${describeLimit('continuous', about.limits.continuous)}`]);
+  }
+  rows.push(['speed_rpm', 'torque_Nm', 'power_W', 'id_A', 'iq_A', 'current_A_peak', 'current_A_rms', 'voltage_V_peak_phase', 'region']);
   for (let k = 0; k < env.speed.length; k++) {
     rows.push([radSToRpm(env.speed[k]!), env.torque[k]!, env.power[k]!, env.id[k]!, env.iq[k]!, env.current[k]!, peakToRms(env.current[k]!), env.voltage[k]!, regionAt(env, k)]);
   }
@@ -58,19 +69,20 @@ export const envelopeCommand: Command = {
       ...(points !== undefined ? { points } : {}),
       speedMax: speedMax !== undefined ? rpmToRadS(speedMax) : projectSpeedRange(p).speedMax,
     });
-    const json = envelopeJson(env);
+    // the effective current limits and which rating binds each (added beside the envelope's own keys)
+    const json = { ...envelopeJson(env), currentLimits: p.currentLimits };
     const csv = stringFlag(args, 'csv');
     const step = Math.max(1, Math.floor(env.speed.length / 25));
     const rows = json.points.filter((_, k) => k % step === 0 || k === json.points.length - 1)
       .map((q) => [q.speed_rpm, q.torque_Nm, q.power_W / 1e3, q.id_A, q.iq_A, q.current_A, peakToRms(q.current_A), q.voltage_V, q.region]);
     const text = [
-      `${p.name}: motoring envelope under Imax ${fmt(p.peak.Imax)} A peak, Vmax ${fmt(p.peak.Vmax)} V peak phase, hot corner`,
+      `${p.name}: motoring envelope at the ${describeLimit('peak', p.currentLimits.peak)}, Vmax ${fmt(p.peak.Vmax)} V peak phase, hot corner`,
       '',
       table(['speed rpm', 'torque N·m', 'power kW', 'id A pk', 'iq A pk', '|i| A pk', '|i| A rms', '|v| V pk', 'region'], rows),
       '',
       `base speed ${fmt(json.baseSpeed_rpm)} rpm, maximum speed ${json.maxSpeed_rpm === null ? 'unbounded (psiM/Ld inside the current limit)' : fmt(json.maxSpeed_rpm) + ' rpm'}, ` +
         `characteristic current ${fmt(json.characteristicCurrent_A)} A peak (${fmt(peakToRms(json.characteristicCurrent_A))} A rms), torque accuracy ${fmt(env.accuracy, 2)} relative`,
     ].join('\n');
-    return { json, text, ...(csv ? { files: [{ path: csv, contents: envelopeCsv(env) }] } : {}) };
+    return { json, text, ...(csv ? { files: [{ path: csv, contents: envelopeCsv(env, { name: p.name, Vmax: p.peak.Vmax, limits: p.currentLimits }) }] } : {}) };
   },
 };

@@ -4,6 +4,7 @@ import { safetyReport } from '../../core/safety';
 import { projectSpeedRange } from '../../core/speed-range';
 import { table, fmt } from '../table';
 import { peakToRms, radSToRpm } from '../../core/units';
+import { describeLimit } from '../../core/current-limits';
 
 export const paramsCommand: Command = {
   name: 'params',
@@ -28,6 +29,8 @@ export const paramsCommand: Command = {
       at20C: jsonCorner('20C'),
       conditions: p.conditions,
       limits: { peak: p.peak, continuous: p.continuous },
+      // the effective current limits (the weaker of motor and inverter) and which rating binds each
+      currentLimits: p.currentLimits,
       interpretation: p.interpretation,
       safety,
       findings,
@@ -55,8 +58,11 @@ export const paramsCommand: Command = {
       '',
       table(['quantity', 'unit', '20 °C', `cold ${p.conditions.coldTemp_C} °C`, `hot ${p.conditions.windingTemp_C}/${p.conditions.magnetTemp_C} °C`], rows),
       '',
-      `limits: Vmax ${fmt(p.peak.Vmax)} V peak phase (${p.inverter.modulation}, Vdc ${fmt(p.inverter.Vdc)} V), ` +
-        `Imax ${fmt(p.peak.Imax)} A peak = ${fmt(peakToRms(p.peak.Imax))} A rms, Icont ${fmt(p.continuous.Imax)} A peak = ${fmt(peakToRms(p.continuous.Imax))} A rms`,
+      `limits: Vmax ${fmt(p.peak.Vmax)} V peak phase (${p.inverter.modulation}, Vdc ${fmt(p.inverter.Vdc)} V); ` +
+        `current ${describeLimit('peak', p.currentLimits.peak)}, ${describeLimit('continuous', p.currentLimits.continuous)}`,
+      `  (inverter Imax ${fmt(p.inverter.Imax)} A peak, Icont ${fmt(p.inverter.Icont)} A peak` +
+        `${p.currentLimits.peak.motor_A !== undefined ? `; motor peak ${fmt(p.currentLimits.peak.motor_A)} A peak` : ''}` +
+        `${p.currentLimits.continuous.motor_A !== undefined ? `; motor rated ${fmt(p.currentLimits.continuous.motor_A)} A peak` : ''})`,
       '',
       'inputs taken to mean:',
       ...(p.interpretation.length ? p.interpretation.map((i) => `  ${i.field}: ${i.given} -> ${i.takenAs}`) : ['  (model terms given directly)']),

@@ -3,7 +3,8 @@ import { csvDocument, type CsvCell } from '../../core/csv';
 import { numberFlag, stringFlag } from '../args';
 import { table, fmt, orDash } from '../table';
 import { runSimulation, simulationFindings, simulationFromProject, TRACE_NAMES } from '../../core/simulate';
-import type { Finding } from '../../core/types';
+import type { CurrentLimits, Finding } from '../../core/types';
+import { describeLimit } from '../../core/current-limits';
 import type { SimulationResult, SimulationSetup } from '../../core/simulate';
 import type { ResolvedProject } from '../../core/project';
 import { peakToRms } from '../../core/units';
@@ -63,7 +64,7 @@ export const simulateCommand: Command = {
 };
 
 /** The simulate command's document and text for a finished run (also what the fuzz checks). */
-export function simulationReport(p: ResolvedProject, setup: SimulationSetup, r: SimulationResult): { json: ReturnType<typeof simulationJson>; text: string } {
+export function simulationReport(p: ResolvedProject, setup: SimulationSetup, r: SimulationResult): { json: ReturnType<typeof simulationJson> & { currentLimits: CurrentLimits }; text: string } {
   const m = r.metrics;
   const c = setup.controller;
   const rows: Array<[string, string, string]> = [
@@ -84,6 +85,7 @@ export function simulationReport(p: ResolvedProject, setup: SimulationSetup, r: 
       `${setup.duration_s} s simulated, hot corner`,
     `current PI d: Kp ${fmt(c.currentD.Kp)} V/A, Ki ${fmt(c.currentD.Ki)} V/(A·s); q: Kp ${fmt(c.currentQ.Kp)} V/A, Ki ${fmt(c.currentQ.Ki)} V/(A·s)` +
       (c.mode === 'speed' ? `; speed PI: Kp ${fmt(c.speed.Kp)} N·m·s/rad, Ki ${fmt(c.speed.Ki)} N·m/rad` : ''),
+    `current reference limited to the ${describeLimit('peak', p.currentLimits.peak)}`,
     '',
     table(['metric', 'value', 'unit'], rows),
     '',
@@ -114,5 +116,5 @@ export function simulationReport(p: ResolvedProject, setup: SimulationSetup, r: 
   if (p.inverter.Vdc > 60) {
     lines.push(`caution: a ${fmt(p.inverter.Vdc)} V DC bus is hazardous; work on it only under local codes, licensed practice and IEC 61800-5-1.`);
   }
-  return { json: simulationJson(r, findings), text: lines.join('\n') };
+  return { json: { ...simulationJson(r, findings), currentLimits: p.currentLimits }, text: lines.join('\n') };
 }

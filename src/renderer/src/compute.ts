@@ -70,8 +70,8 @@ export function pointVerdict(v: Pick<Verdicts, 'sizing' | 'sizingCold'>, i: numb
 
 export function computeVerdicts(p: ResolvedProject, speedMax: number): Verdicts {
   const t0 = performance.now();
-  const sizing = sizeDrive(p.hot, p.inverter, p.requirements);
-  const sizingCold = sizeDrive(p.cold, p.inverter, p.requirements);
+  const sizing = sizeDrive(p.hot, p.inverter, p.requirements, p.currentLimits);
+  const sizingCold = sizeDrive(p.cold, p.inverter, p.requirements, p.currentLimits);
   // the motor's maximum speed when the file gives one, else the plotted top speed
   const safetySpeed = p.rated.maxSpeed_rad_s ?? speedMax;
   const safety = safetyReport(p.cold, p.inverter, safetySpeed, p.rated.maxSpeed_rad_s !== undefined);
