@@ -153,7 +153,7 @@ export function fieldPhrase(path: string): string {
 
 /** A finding for a screen or a text report: "caution, inverter peak current: message". */
 export function findingLine(f: { severity: Severity | string; field?: string; message: string }): string {
-  return `${severityPhrase(f.severity)}${f.field ? `, ${fieldPhrase(f.field)}` : ''}: ${f.message}`;
+  return `${severityPhrase(f.severity)}${f.field ? `, ${fieldPhrase(f.field)}` : ''}: ${plainMessage(f.message)}`;
 }
 
 const PATHS = Object.keys(FIELD)

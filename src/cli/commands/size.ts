@@ -2,6 +2,7 @@ import type { Command } from '../command';
 import { sizeDrive } from '../../core/sizing';
 import { table, fmt } from '../table';
 import { peakToRms } from '../../core/units';
+import { limitPhrase } from '../../core/phrases';
 
 /** A headroom within round-off of zero (the limit binds) printed as 0. */
 const snap = (x: number, scale: number): number => (Math.abs(x) < 1e-9 * scale ? 0 : x);
@@ -27,7 +28,7 @@ export const sizeCommand: Command = {
     const rows = hot.points.map((q, k) => {
       const c = cold.points[k]!;
       // a point out of reach has no operating voltage or headroom: the figures would be what it needs
-      return [q.label, q.speed_rpm, q.torque_Nm, q.met ? 'yes' : 'NO', q.torqueAvailable_Nm, q.current_A, snap(q.currentHeadroom_A, p.peak.Imax), q.met ? q.voltage_V : '-', q.met ? snap(q.voltageHeadroom_V, p.peak.Vmax) : '-', q.limitedBy, c.met ? 'yes' : 'NO'];
+      return [q.label, q.speed_rpm, q.torque_Nm, q.met ? 'yes' : 'NO', q.torqueAvailable_Nm, q.current_A, snap(q.currentHeadroom_A, p.peak.Imax), q.met ? q.voltage_V : '-', q.met ? snap(q.voltageHeadroom_V, p.peak.Vmax) : '-', limitPhrase(q.limitedBy), c.met ? 'yes' : 'NO'];
     });
     const imax = (x: number | null) => (x === null ? 'none (a point lies beyond MTPV)' : `${fmt(x)} A pk = ${fmt(peakToRms(x))} A rms`);
     const text = [
