@@ -113,9 +113,15 @@ describe('cli --json documents', () => {
     expect(Object.keys(sim.traces).sort()).toEqual([...TRACE_NAMES].sort());
     expect(sim.metrics).toHaveProperty('energyFromBus_J');
     expect(sim.metrics).toHaveProperty('steadyStateError_rpm');
-    // 15.75 A against the inverter's 15 A in the speed step; 0.44 ms at the modulation limit
-    expect(sim.findings.map((f: { code: string }) => f.code)).toEqual(['current-above-limit', 'voltage-saturation']);
-    expect(sim.findings[0].field).toBe('inverter.Imax');
+    // 15.75 A against the inverter's 15 A in the speed step; 0.44 ms at the modulation limit in the
+    // speed step; the sampled current loops' margins (PM 39°, GM 4.7 dB, peaking 5.3 dB, see
+    // tuning.test.ts) are cautions on the d and q axes
+    expect(sim.findings.map((f: { code: string }) => f.code)).toEqual([
+      'phase-margin-caution', 'gain-margin-low', 'closed-loop-peaking',
+      'phase-margin-caution', 'gain-margin-low', 'closed-loop-peaking',
+      'current-above-limit', 'voltage-saturation',
+    ]);
+    expect(sim.findings.find((f: { code: string }) => f.code === 'current-above-limit').field).toBe('inverter.Imax');
     expect(sim.currentLimits.peak).toEqual({ A: 15, binds: 'inverter', inverter_A: 15 });
     expect(sim.diagnostic).toBeNull();
     expect(sim.stats.evaluationsPerPeriod).toBe(6);
@@ -174,7 +180,7 @@ describe('cli: which current limit binds', () => {
     }
     const sim = await run('simulate', demo('servo-axis'));
     expect(sim.out).toMatch(/current reference limited to the peak 15 A peak \(10\.61 A rms\): inverter/);
-    expect(sim.out).toMatch(/warning: inverter\.Imax: the phase current reached 15\.75 A peak/);
+    expect(sim.out).toMatch(/caution, inverter peak current: the phase current reached 15\.75 A peak/);
   });
 
   it('size: a continuous point is checked against the continuous limit, and the text says so', async () => {
@@ -225,8 +231,8 @@ describe('cli: a file with several problems', () => {
     }));
     const r = await run('params', f);
     expect(r.code).toBe(0);
-    expect(r.out).toMatch(/\[info\] conditions: No conditions given: every temperature/);
-    expect(r.out).toMatch(/\[info\] inverter\.modulation: No modulation given: space-vector PWM/);
+    expect(r.out).toMatch(/note, temperatures: No conditions given: every temperature/);
+    expect(r.out).toMatch(/note, modulation: No modulation given: space-vector PWM/);
   });
 });
 

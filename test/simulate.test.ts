@@ -194,7 +194,10 @@ describe('cascade simulator behaviour', () => {
     const { speedBandwidth_Hz: _b, speedTuning: _t, ...control } = servo.control;
     const bad = proj({ ...servo, control: { ...control, speedKp: 50, speedKi: 1e6 } });
     const setup = simulationFromProject(bad);
-    expect(setup.tuning!.speed.phaseMargin_deg!).toBeLessThan(0); // common practice (no source): PM < 0 is unstable
+    expect(setup.tuning!.speed.continuous.phaseMargin_deg!).toBeLessThan(0); // common practice (no source): PM < 0 is unstable
+    // the sampled loop's gain is still above one at its Nyquist frequency: flagged as a danger
+    expect(setup.tuning!.speed.gainAtNyquist_dB).toBeGreaterThan(0);
+    expect(setup.tuning!.warnings.some((w) => w.code === 'crossover-above-nyquist' && w.field === 'control.speedTuning')).toBe(true);
     const r = runSimulation(setup);
     expect(r.diagnostic).toMatch(/speed loop oscillates/);
     expect(r.diagnostic).toMatch(/swung between the motoring and the generating limit 8 times/);

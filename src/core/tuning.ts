@@ -12,15 +12,21 @@
  * - 'bandwidth': Kp = J·omega_s, Ki = Kp·omega_s/4 (PI zero a quarter of the crossover; common
  *   practice).
  *
- * The open-loop frequency responses treat the PI as continuous and include the delay exactly as
- * e^{-s·Td}, Td = delaySamples·Ts + Ts/2 (the computation delay plus the half period of the PWM
- * hold). The speed loop sees the exact closed current loop L/(1+L) (q axis) and e^{-s·Ts_speed/2}.
- * Crossover, phase margin, gain margin and the closed-loop -3 dB bandwidth are found by bracketing
- * on a logarithmic frequency grid, then bisection.
+ * The margins, bandwidths, closed-loop peaking and Bode data reported are those of the exact
+ * sampled-data loop (sampled-loop.ts): discrete PI as the controller runs it, z^-d, zero-order hold,
+ * plant discretised, evaluated on z = e^{j omega T} up to Nyquist. Beside them, `continuous` gives the
+ * figures of the continuous approximation: PI continuous, delay e^{-s·Td}, Td = delaySamples·Ts + Ts/2
+ * (the computation delay plus the half period of the PWM hold); its speed loop sees the closed
+ * current loop L/(1+L) (q axis) and e^{-s·Ts_speed/2}. Crossover, phase margin, gain margin and the
+ * closed-loop -3 dB bandwidth are found by bracketing on a logarithmic frequency grid, then bisection.
+ *
+ * Warnings (common practice, no source): phase margin under 45° a caution and under 30° a danger;
+ * gain margin under 6 dB a caution; closed-loop peaking above 3 dB a caution.
  */
 import type { DqMachine, Finding } from './types';
 import { InputError } from './errors';
 import type { ResolvedProject } from './project';
+import { sampledBode, sampledCurrentOpenLoop, sampledMargins, sampledSpeedOpenLoop, UnwrappedResponse, type SampledResponse } from './sampled-loop';
 
 export interface Bode {
   f_Hz: number[];
@@ -31,14 +37,23 @@ export interface Bode {
 export interface LoopReport {
   Kp: number;
   Ki: number;
-  /** closed-loop -3 dB bandwidth, Hz (null if not found in the scanned range) */
+  /** the sampled loop's period, s (the speed loop's is divider·Ts) */
+  samplePeriod_s: number;
+  /** closed-loop -3 dB bandwidth of the sampled loop, Hz (null if not found up to Nyquist) */
   bandwidth_Hz: number | null;
   /** gain crossover of the open loop, Hz */
   crossover_Hz: number | null;
   phaseMargin_deg: number | null;
   gainMargin_dB: number | null;
+  /** largest closed-loop gain |L/(1+L)| up to Nyquist, dB */
+  peaking_dB: number | null;
+  /** open-loop gain of the sampled loop at its Nyquist frequency, dB (above 0: no crossover before Nyquist) */
+  gainAtNyquist_dB: number;
   /** the bandwidth the rule aimed at, Hz */
   design_Hz: number;
+  /** the same loop by the continuous approximation (delay e^{-s Td}), for comparison */
+  continuous: Margins;
+  /** open loop of the sampled loop, up to its Nyquist frequency */
   bode: Bode;
 }
 
@@ -70,6 +85,15 @@ export interface TuningInput {
   current: CurrentTuning;
   speed: SpeedTuning;
 }
+
+/** Phase margin under this is a caution, deg (common practice, no source). */
+export const PHASE_MARGIN_CAUTION_DEG = 45;
+/** Phase margin under this is a danger, deg (common practice, no source). */
+export const PHASE_MARGIN_DANGER_DEG = 30;
+/** Gain margin under this is a caution, dB (common practice, no source). */
+export const GAIN_MARGIN_CAUTION_DB = 6;
+/** Closed-loop peaking above this is a caution, dB (common practice, no source). */
+export const PEAKING_CAUTION_DB = 3;
 
 /** Default current bandwidth when the file gives none: fCtrl/20 (common practice). */
 export const DEFAULT_CURRENT_BANDWIDTH_FRACTION = 1 / 20;
@@ -219,7 +243,6 @@ export function tuneLoops(inp: TuningInput): TuningReport {
   const warnings: Finding[] = [];
   const wLo = 2 * Math.PI * 1e-3;
   const wHi = 2 * Math.PI * inp.fCtrl_Hz * 20;
-  const fNyq = inp.fCtrl_Hz / 2;
 
   // current loops
   let gd: { Kp: number; Ki: number };
@@ -237,17 +260,29 @@ export function tuneLoops(inp: TuningInput): TuningReport {
     designD = inp.current.Kp / m.Ld / (2 * Math.PI);
     designQ = inp.current.Kp / m.Lq / (2 * Math.PI);
   }
-  const loop = (g: { Kp: number; Ki: number }, open: Response, design: number, fLo: number): LoopReport => ({
-    Kp: g.Kp,
-    Ki: g.Ki,
-    ...loopMargins(open, wLo, wHi),
-    design_Hz: design,
-    bode: bodeData(open, fLo, fNyq),
-  });
+  const loop = (g: { Kp: number; Ki: number }, open: Response, sampled: SampledResponse, T: number, design: number, fLo: number): LoopReport => {
+    const anchor = new Float64Array(2);
+    open(wLo, anchor);
+    const u = new UnwrappedResponse(sampled, wLo * T, anchor[1]!);
+    const { peaking_dB, ...margins } = sampledMargins(u, T);
+    return {
+      Kp: g.Kp,
+      Ki: g.Ki,
+      samplePeriod_s: T,
+      ...margins,
+      peaking_dB,
+      gainAtNyquist_dB: 20 * Math.log10(u.mag[u.mag.length - 1]!),
+      design_Hz: design,
+      continuous: loopMargins(open, wLo, wHi),
+      bode: sampledBode(u, T, fLo, BODE_POINTS),
+    };
+  };
   const olD = currentOpenLoop(gd.Kp, gd.Ki, m.Rs, m.Ld, Td);
   const olQ = currentOpenLoop(gq.Kp, gq.Ki, m.Rs, m.Lq, Td);
-  const current = loop(gd, olD, designD, Math.max(designD / 1000, 0.1));
-  const currentQ = m.Ld !== m.Lq ? loop(gq, olQ, designQ, Math.max(designQ / 1000, 0.1)) : undefined;
+  const sD = sampledCurrentOpenLoop(gd.Kp, gd.Ki, m.Rs, m.Ld, Ts, inp.delaySamples);
+  const sQ = sampledCurrentOpenLoop(gq.Kp, gq.Ki, m.Rs, m.Lq, Ts, inp.delaySamples);
+  const current = loop(gd, olD, sD, Ts, designD, Math.max(designD / 1000, 0.1));
+  const currentQ = m.Ld !== m.Lq ? loop(gq, olQ, sQ, Ts, designQ, Math.max(designQ / 1000, 0.1)) : undefined;
 
   // speed loop
   const wcq = 2 * Math.PI * designQ;
@@ -268,7 +303,20 @@ export function tuneLoops(inp: TuningInput): TuningReport {
     designS = sp.Kp / inp.inertia / (2 * Math.PI);
   }
   const olS = speedOpenLoop(gs.Kp, gs.Ki, inp.inertia, inp.viscousFriction, closedLoop(olQ), Tsw / 2);
-  const speed = loop(gs, olS, designS, Math.max(designS / 1000, 1e-3));
+  const sS = sampledSpeedOpenLoop({
+    currentKp: gq.Kp,
+    currentKi: gq.Ki,
+    R: m.Rs,
+    L: m.Lq,
+    J: inp.inertia,
+    B: inp.viscousFriction,
+    T: Ts,
+    delaySamples: inp.delaySamples,
+    divider: inp.speedLoopDivider,
+    speedKp: gs.Kp,
+    speedKi: gs.Ki,
+  });
+  const speed = loop(gs, olS, sS, Tsw, designS, Math.max(designS / 1000, 1e-3));
 
   // warnings
   const fcMax = Math.max(designD, designQ);
@@ -290,23 +338,35 @@ export function tuneLoops(inp: TuningInput): TuningReport {
   }
   const checkMargin = (name: string, field: string, r: LoopReport): void => {
     if (r.phaseMargin_deg === null) return;
+    const pm = r.phaseMargin_deg.toFixed(1);
     if (r.phaseMargin_deg <= 0 || (r.gainMargin_dB !== null && r.gainMargin_dB <= 0)) {
-      warnings.push({ code: 'loop-unstable', severity: 'danger', field, message: `${name} loop is unstable (phase margin ${r.phaseMargin_deg.toFixed(1)} deg${r.gainMargin_dB !== null ? `, gain margin ${r.gainMargin_dB.toFixed(1)} dB` : ''})` });
-    } else if (r.phaseMargin_deg < 30) {
-      warnings.push({ code: 'phase-margin-low', severity: 'warning', field, message: `${name} loop phase margin ${r.phaseMargin_deg.toFixed(1)} deg is under 30 deg` });
+      warnings.push({ code: 'loop-unstable', severity: 'danger', field, message: `${name} loop is unstable (phase margin ${pm} deg${r.gainMargin_dB !== null ? `, gain margin ${r.gainMargin_dB.toFixed(1)} dB` : ''})` });
+      return;
+    }
+    if (r.phaseMargin_deg < PHASE_MARGIN_DANGER_DEG) {
+      warnings.push({ code: 'phase-margin-low', severity: 'danger', field, message: `${name} loop phase margin ${pm} deg is under ${PHASE_MARGIN_DANGER_DEG} deg: expect strong overshoot and ringing (common practice)` });
+    } else if (r.phaseMargin_deg < PHASE_MARGIN_CAUTION_DEG) {
+      warnings.push({ code: 'phase-margin-caution', severity: 'warning', field, message: `${name} loop phase margin ${pm} deg is under ${PHASE_MARGIN_CAUTION_DEG} deg: expect overshoot (common practice)` });
+    }
+    if (r.gainMargin_dB !== null && r.gainMargin_dB < GAIN_MARGIN_CAUTION_DB) {
+      warnings.push({ code: 'gain-margin-low', severity: 'warning', field, message: `${name} loop gain margin ${r.gainMargin_dB.toFixed(1)} dB is under ${GAIN_MARGIN_CAUTION_DB} dB: a gain error of that size makes it unstable (common practice)` });
+    }
+    if (r.peaking_dB !== null && r.peaking_dB > PEAKING_CAUTION_DB) {
+      warnings.push({ code: 'closed-loop-peaking', severity: 'warning', field, message: `${name} loop closed-loop peaking ${r.peaking_dB.toFixed(1)} dB is above ${PEAKING_CAUTION_DB} dB: disturbances near the crossover are amplified (common practice)` });
     }
   };
   checkMargin('d-axis current', 'control.currentBandwidth_Hz', current);
   if (currentQ) checkMargin('q-axis current', 'control.currentBandwidth_Hz', currentQ);
   checkMargin('speed', 'control.speedTuning', speed);
-  // a crossover above half the control rate: the sampled loop cannot act there at all
+  // open-loop gain still above one at half the loop's sample rate: the sampled loop cannot act there
   for (const [name, field, r] of [
     ['d-axis current', 'control.currentBandwidth_Hz', current],
     ['q-axis current', 'control.currentBandwidth_Hz', currentQ],
     ['speed', 'control.speedTuning', speed],
   ] as const) {
-    if (r && r.crossover_Hz !== null && r.crossover_Hz > fNyq) {
-      warnings.push({ code: 'crossover-above-nyquist', severity: 'danger', field, message: `${name} loop crossover ${hz(r.crossover_Hz)} Hz is above half the control rate (${hz(fNyq)} Hz): the sampled loop cannot be designed there; lower the gains or raise control.fCtrl_Hz` });
+    if (r && r.crossover_Hz === null && r.gainAtNyquist_dB > 0) {
+      const fN = 1 / (2 * r.samplePeriod_s);
+      warnings.push({ code: 'crossover-above-nyquist', severity: 'danger', field, message: `${name} loop gain is still above one at half its sample rate (${hz(fN)} Hz): the sampled loop cannot be designed there; lower the gains or raise control.fCtrl_Hz` });
     }
   }
   if (speed.crossover_Hz !== null && speed.crossover_Hz > designQ / 2) {

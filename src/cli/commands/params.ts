@@ -5,6 +5,7 @@ import { projectSpeedRange } from '../../core/speed-range';
 import { table, fmt } from '../table';
 import { peakToRms, radSToRpm } from '../../core/units';
 import { describeLimit } from '../../core/current-limits';
+import { fieldPhrase, findingLine } from '../../core/phrases';
 
 export const paramsCommand: Command = {
   name: 'params',
@@ -65,13 +66,13 @@ export const paramsCommand: Command = {
         `${p.currentLimits.continuous.motor_A !== undefined ? `; motor rated ${fmt(p.currentLimits.continuous.motor_A)} A peak` : ''})`,
       '',
       'inputs taken to mean:',
-      ...(p.interpretation.length ? p.interpretation.map((i) => `  ${i.field}: ${i.given} -> ${i.takenAs}`) : ['  (model terms given directly)']),
+      ...(p.interpretation.length ? p.interpretation.map((i) => `  ${fieldPhrase(i.field)}: ${i.given} -> ${i.takenAs}`) : ['  (model terms given directly)']),
       '',
       `safety: open-circuit back-EMF ${fmt(safety.backEmfLineLinePeak_V)} V LL peak at ${fmt(radSToRpm(safetySpeed))} rpm (cold magnet) vs Vdc ${fmt(p.inverter.Vdc)} V; ` +
         `uncontrolled-generator speed ${safety.uncontrolledGeneratorSpeed_rad_s === null ? 'none (no magnet flux)' : fmt(radSToRpm(safety.uncontrolledGeneratorSpeed_rad_s)) + ' rpm'}`,
       '',
       'findings:',
-      ...(findings.length ? findings.map((f) => `  [${f.severity}] ${f.field ? f.field + ': ' : ''}${f.message}`) : ['  none']),
+      ...(findings.length ? findings.map((f) => `  ${findingLine(f)}`) : ['  none']),
       '',
       safety.caution,
     ].join('\n');

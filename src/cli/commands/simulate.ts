@@ -9,6 +9,7 @@ import type { SimulationResult, SimulationSetup } from '../../core/simulate';
 import type { ResolvedProject } from '../../core/project';
 import { peakToRms } from '../../core/units';
 import { MAX_TRACE_POINTS } from '../../core/decimate';
+import { findingLine } from '../../core/phrases';
 
 /** The metrics of the JSON document: the keys issue 3 names first, then the rest of the engine's. */
 const JSON_METRICS = [
@@ -107,7 +108,7 @@ export function simulationReport(p: ResolvedProject, setup: SimulationSetup, r: 
   const findings = simulationFindings(r, setup).filter((f) => f.code !== 'simulation-stopped');
   if (findings.length > 0) {
     lines.push('', 'findings:');
-    for (const f of findings) lines.push(`  ${f.severity}: ${f.field ? `${f.field}: ` : ''}${f.message}`);
+    for (const f of findings) lines.push(`  ${findingLine(f)}`);
   }
   if (r.diagnostic) lines.push('', `stopped: ${r.diagnostic}`);
   lines.push('', `${r.stats.controlSteps} control periods, ${r.stats.rhsEvaluations} derivative evaluations ` +

@@ -3,6 +3,7 @@ import { sizeDrive, type SizingPoint } from '../../core/sizing';
 import { table, fmt } from '../table';
 import { peakToRms } from '../../core/units';
 import { describeLimit } from '../../core/current-limits';
+import { limitPhrase } from '../../core/phrases';
 
 /** A headroom within round-off of zero (the limit binds) printed as 0. */
 const snap = (x: number, scale: number): number => (Math.abs(x) < 1e-9 * scale ? 0 : x);

@@ -19,6 +19,9 @@ import { DatasheetView } from './DatasheetView';
 import { envelopeCsv, tracesCsv } from './exports';
 import { lastSimulation } from './LoadStepsView';
 import { exportDatasheetHtml, exportVisiblePlot } from './image-export';
+import { defaultedInputFindings } from '../../core/defaulted-inputs';
+import { limitPhrase } from '../../core/phrases';
+import { FieldNotesContext, FindingsStrip, findingsKey, notesByPath } from './field-notes';
 
 type View = 'envelope' | 'loadsteps' | 'tuning' | 'datasheet';
 const VIEWS: Array<[View, string]> = [
@@ -82,6 +85,7 @@ function check(tree: Json): Checked {
   try {
     const rp = resolveProject(file);
     if (migrated.length) rp.findings.unshift(...migrated);
+    rp.findings.push(...defaultedInputFindings(json));
     return { issues: {}, resolved: readOnly ? { ...rp, readOnly: true } : rp };
   } catch (e) {
     return { issues: inputIssue(e), resolved: null };
@@ -366,9 +370,16 @@ export function App() {
   const lateResolved = useAfterPaint(lastGood);
   const lateMarks = useAfterPaint(marks);
   const projectName = lastGood?.name || source.name;
+  // findings about the inputs: beside their fields and in the strip above every view (the context
+  // value changes only when the findings do, so the fields do not re-render on every edit)
+  const inputFindings = lateResolved?.findings ?? [];
+  const fKey = findingsKey(inputFindings);
+  // eslint-disable-next-line react-hooks/exhaustive-deps
+  const notes = useMemo(() => notesByPath(inputFindings), [fKey]);
 
   return (
     <FormContext.Provider value={store}>
+      <FieldNotesContext.Provider value={notes}>
       <div className="app">
         <header className="topbar">
           <span className="brand">
@@ -430,6 +441,7 @@ export function App() {
                 ? `${Object.keys(checked.issues).length} input problem(s): showing the last valid project. ${otherIssues(checked.issues)}`
                 : (notice ?? computeError ?? (results ? `Envelopes in ${results.compute_ms.toFixed(1)} ms (${results.curves.length} × ${results.points} points); sizing verdicts in ${results.verdict_ms.toFixed(1)} ms.` : ''))}
             </div>
+            <FindingsStrip findings={inputFindings.filter((f) => f.code !== 'newer-format')} />
             {readOnly && (
               <div className="finding warning" data-testid="read-only-banner" role="note">
                 <strong>Read-only.</strong> {lastGood?.findings.find((f) => f.code === 'newer-format')?.message ?? 'This file is shown read-only: Save writes a copy (Save As), the file itself is not changed.'}
@@ -452,6 +464,7 @@ export function App() {
           </main>
         </div>
       </div>
+      </FieldNotesContext.Provider>
     </FormContext.Provider>
   );
 }
@@ -466,7 +479,7 @@ function requirementMarks(r: Results | null) {
   if (!r) return [];
   return r.sizing.points.map((pt, i) => {
     const v = pointVerdict(r, i);
-    const why = v.fails === 'cold' ? `not met with the cold magnet (${r.sizingCold.points[i]!.limitedBy})` : `not met (${pt.limitedBy}${v.fails === 'both' ? ', hot and cold' : ', hot magnet'})`;
+    const why = v.fails === 'cold' ? `not met with the cold magnet (${limitPhrase(r.sizingCold.points[i]!.limitedBy)})` : `not met (${limitPhrase(pt.limitedBy)}${v.fails === 'both' ? ', hot and cold' : ', hot magnet'})`;
     return (
       <span key={i} className={v.met ? 'pass' : 'fail'} data-testid={`req-mark-${i}`} title={v.met ? 'met, hot and cold' : why}>
         {v.met ? 'pass' : 'fail'}

@@ -10,6 +10,7 @@ import { envelopeCsv } from './exports';
 import { exportAndTell } from './file-bridge';
 import { amps, fixed, num, rpm } from './format';
 import { exportDatasheetHtml, exportPlotImage } from './image-export';
+import { fieldPhrase, limitPhrase, plainMessage, severityPhrase } from '../../core/phrases';
 
 function peakOf(a: Float64Array, feasible: Uint8Array): number {
   let best = 0;
@@ -32,15 +33,15 @@ export function Cautions({ results, testId, hazardsOnly, compact }: { results: R
     <div data-testid={testId}>
       {hazards.length > 0 && !compact && (
         <div className="caution" role="alert">
-          <strong>Caution.</strong> {hazards.map((h) => h.message).join(' ')} {s.caution}
+          <strong>Caution.</strong> {hazards.map((h) => plainMessage(h.message)).join(' ')} {s.caution}
         </div>
       )}
       {hazards.length > 0 && compact && (
         <details className="caution compact" role="alert">
           <summary>
-            <strong>Caution.</strong> {hazards[0]!.message.split('. ')[0]}. Follow local codes, licensed practice and IEC 61800-5-1 (details).
+            <strong>Caution.</strong> {plainMessage(hazards[0]!.message).split('. ')[0]}. Follow local codes, licensed practice and IEC 61800-5-1 (details).
           </summary>
-          {hazards.map((h) => h.message).join(' ')} {s.caution}
+          {hazards.map((h) => plainMessage(h.message)).join(' ')} {s.caution}
         </details>
       )}
       {!hazardsOnly &&
@@ -48,7 +49,7 @@ export function Cautions({ results, testId, hazardsOnly, compact }: { results: R
         .filter((f) => !isHazard(f))
         .map((f, i) => (
           <div key={i} className={`finding ${f.severity}`}>
-            {f.field ? <code>{f.field}</code> : null} {f.message}
+            <strong>{severityPhrase(f.severity)}</strong>{f.field ? `, ${fieldPhrase(f.field)}` : ''}: {plainMessage(f.message)}
           </div>
         ))}
     </div>
@@ -163,9 +164,9 @@ export const DatasheetView = memo(function DatasheetView({ results, theme }: { r
                     {/* a point out of reach has no operating voltage: what the solver reports there is the need, not a state */}
                     <td className="num" title={pt.met ? undefined : 'not reachable: no operating voltage'}>{pt.met ? `${num(pt.voltage_V)} V pk` : '–'}</td>
                     <td className="num">{pt.met ? `${fixed(pt.voltageHeadroom_V, 1)} V` : '–'}</td>
-                    <td>{pt.limitedBy}</td>
+                    <td>{limitPhrase(pt.limitedBy)}</td>
                     <td className={pt.met ? 'pass' : 'fail'}>{pt.met ? 'met' : 'NOT met'}</td>
-                    <td className={cold?.met ? 'pass' : 'fail'} title={cold && !cold.met ? `cold magnet: ${cold.limitedBy}, ${num(cold.torqueAvailable_Nm)} N·m available` : undefined}>
+                    <td className={cold?.met ? 'pass' : 'fail'} title={cold && !cold.met ? `cold magnet: ${limitPhrase(cold.limitedBy)}, ${num(cold.torqueAvailable_Nm)} N·m available` : undefined}>
                       {cold?.met ? 'met' : 'NOT met'}
                     </td>
                   </tr>

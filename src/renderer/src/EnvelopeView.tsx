@@ -17,6 +17,7 @@ import { plotText } from './plot-text';
 import { Cautions } from './DatasheetView';
 import { useAfterPaint } from './after-paint';
 import { sameRange, withXRange, xRangeFromRelayout, type SpeedRange } from './linked-axes';
+import { notReachablePhrase, regionPhrase } from '../../core/phrases';
 
 const REGION_NAME = { mtpa: 'MTPA', 'field-weakening': 'field weakening', mtpv: 'MTPV' } as const;
 
@@ -516,7 +517,7 @@ export const EnvelopeView = memo(function EnvelopeView({ results, opts, setOpts,
             {op ? (
               <>
                 {Math.round(op.speed * RAD_S_TO_RPM)} rpm, {num(op.torque)} N·m: id {num(op.id)} A, iq {num(op.iq)} A, |i| {num(op.current)} A peak ({num(op.current / SQRT2)} A
-                rms), |v| {num(op.voltage)} V peak, {op.feasible ? op.region : `not reachable (${op.limitedBy})`}
+                rms), |v| {num(op.voltage)} V peak, {op.feasible ? regionPhrase(op.region) : notReachablePhrase(op.limitedBy)}
               </>
             ) : (
               'Move the pointer over the torque-speed plot to place an operating point.'

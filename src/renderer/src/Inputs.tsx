@@ -9,6 +9,7 @@ import { SQRT2 } from '../../core/units';
 import type { Interpretation } from '../../core/nameplate';
 
 import { useFormStore, useFormValue } from './form-store';
+import { FieldNotes } from './field-notes';
 
 /** Messages of one field as one string (stable for useSyncExternalStore), split for display. */
 const useMessages = (path: Path, exact = true): string[] => {
@@ -86,6 +87,7 @@ export const NumField = memo(function NumField(props: NumFieldProps) {
       {msgs.map((m) => (
         <span key={m} className="msg" role="alert" data-msg-for={props.path}>{m}</span>
       ))}
+      <FieldNotes path={props.path} />
     </div>
   );
 }, sameField);
@@ -124,6 +126,7 @@ export const SelectField = memo(function SelectField(props: { path: Path; label:
       {msgs.map((m) => (
         <span key={m} className="msg" role="alert" data-msg-for={props.path}>{m}</span>
       ))}
+      <FieldNotes path={props.path} />
     </div>
   );
 }, (a, b) => a.path === b.path && a.label === b.label && a.optional === b.optional && a.unit === b.unit && a.options.length === b.options.length);

@@ -6,9 +6,12 @@ import type { ResolvedProject } from '../../core/project';
 import type { Finding } from '../../core/types';
 import type { LoadStepResult } from '../../core/simulate';
 import { SQRT2 } from '../../core/units';
-import { axis, baseLayout, CURVE, Plot, readTheme } from './Plot';
-import { ControlFields, ScenarioFields } from './InputPanel';
+import { axis, baseLayout, Plot, readTheme } from './Plot';
 import { Section } from './Inputs';
+import { CONTROL_SUMMARY, InputSummary, ScenarioSummary } from './input-summary';
+import { jumpToField } from './jump-to-field';
+import { rpmText, sig3, speedError, speedErrorRange } from './trace-scales';
+import { fieldPhrase, plainMessage, severityPhrase } from '../../core/phrases';
 import type { SimEvent, SimReply, SimRequest } from './sim-protocol';
 import { exportAndTell } from './file-bridge';
 import { tracesCsv } from './exports';
@@ -34,8 +37,14 @@ let kept: SimDone | null = null;
 /** The last finished simulation (for the Export menu). */
 export const lastSimulation = (): SimDone | null => kept;
 
-const ROWS = 5;
-const GAP = 0.025;
+/** Colours of the traces: distinct within each plot and never one colour for two quantities. */
+const TRACE = {
+  light: { ref: '#555555', speed: '#0b5cad', error: '#00796b', torque: '#6a3d9a', load: '#8d6e00', id: '#e65100', iq: '#00838f', volt: '#c51b7d', a: '#b3261e', b: '#558b2f', c: '#283593' },
+  dark: { ref: '#bbbbbb', speed: '#79c0ff', error: '#4dd0c4', torque: '#d2a8ff', load: '#f2cc60', id: '#ffa657', iq: '#56d4dd', volt: '#ff8ccf', a: '#ff7b72', b: '#aed581', c: '#9fa8ff' },
+} as const;
+
+const ROWS = 6;
+const GAP = 0.03;
 const domain = (i: number): [number, number] => {
   const h = (1 - GAP * (ROWS - 1)) / ROWS;
   const top = 1 - i * (h + GAP);
@@ -44,11 +53,12 @@ const domain = (i: number): [number, number] => {
 
 export function tracesFigure(r: SimDone, theme: 'light' | 'dark'): { data: Data[]; layout: Layout } {
   const t = readTheme();
-  const col = CURVE[theme];
+  const col = TRACE[theme];
   const tr = r.traces;
   const x = tr.t_s!;
   const data: Data[] = [];
-  const line = (y: Float64Array | undefined, name: string, row: number, colour: string, dash = 'solid', width = 1.6) => {
+  const groups = ['speed, rpm', 'speed error, rpm', 'torque, N·m', 'dq currents, A peak', 'voltage', 'phase currents, A peak'];
+  const line = (y: Float64Array | undefined, name: string, row: number, colour: string, dash = 'solid', width = 1.6, digits = '.4g') => {
     if (!y) return;
     data.push({
       type: 'scatter',
@@ -59,30 +69,37 @@ export function tracesFigure(r: SimDone, theme: 'light' | 'dark'): { data: Data[
       xaxis: 'x',
       yaxis: row === 0 ? 'y' : `y${row + 1}`,
       line: { color: colour, width, dash },
-      hovertemplate: `${name}: %{y:.4g}<extra>%{x:.4f} s</extra>`,
-    });
+      legendgroup: `row${row}`,
+      legendgrouptitle: { text: groups[row] },
+      hovertemplate: `${name}: %{y:${digits}}<extra>%{x:.4f} s</extra>`,
+    } as Data);
   };
-  line(tr.speedRef_rpm, 'speed reference', 0, col.ref, 'dash', 1.4);
-  line(tr.speed_rpm, 'speed', 0, col.hot, 'solid', 2);
-  line(tr.torque_Nm, 'motor torque', 1, col.cold, 'solid', 1.6);
-  line(tr.loadTorque_Nm, 'load torque', 1, col.load, 'dash', 1.6);
-  line(tr.idRef_A, 'id reference', 2, col.id, 'dot', 1.3);
-  line(tr.iqRef_A, 'iq reference', 2, col.iq, 'dot', 1.3);
-  line(tr.id_A, 'id', 2, col.id);
-  line(tr.iq_A, 'iq', 2, col.iq);
-  line(tr.vNorm, '|v| / Vmax', 3, col.volt);
-  line(tr.ia_A, 'ia', 4, col.a, 'solid', 1.1);
-  line(tr.ib_A, 'ib', 4, col.b, 'solid', 1.1);
-  line(tr.ic_A, 'ic', 4, col.c, 'solid', 1.1);
-  const titles = ['speed, rpm', 'torque, N·m', 'id, iq, A peak', '|v| / Vmax', 'ia, ib, ic, A'];
+  line(tr.speedRef_rpm, 'reference', 0, col.ref, 'dash', 1.4, '.0f');
+  line(tr.speed_rpm, 'speed', 0, col.speed, 'solid', 2, '.1f');
+  if (tr.speedRef_rpm && tr.speed_rpm) line(speedError(tr.speedRef_rpm, tr.speed_rpm), 'reference − speed', 1, col.error, 'solid', 1.6, '.2f');
+  line(tr.torque_Nm, 'motor torque', 2, col.torque, 'solid', 1.6, '.3g');
+  line(tr.loadTorque_Nm, 'load torque', 2, col.load, 'dash', 1.6, '.3g');
+  line(tr.idRef_A, 'id reference', 3, col.id, 'dot', 1.3, '.3g');
+  line(tr.iqRef_A, 'iq reference', 3, col.iq, 'dot', 1.3, '.3g');
+  line(tr.id_A, 'id', 3, col.id, 'solid', 1.6, '.3g');
+  line(tr.iq_A, 'iq', 3, col.iq, 'solid', 1.6, '.3g');
+  line(tr.vNorm, '|v| / Vmax', 4, col.volt, 'solid', 1.6, '.3f');
+  line(tr.ia_A, 'ia', 5, col.a, 'solid', 1.1, '.3g');
+  line(tr.ib_A, 'ib', 5, col.b, 'solid', 1.1, '.3g');
+  line(tr.ic_A, 'ic', 5, col.c, 'solid', 1.1, '.3g');
+  const zoom = speedErrorRange(r.loadSteps);
+  const titles = ['speed, rpm', zoom ? 'speed error, rpm<br>(zoomed to the load dips)' : 'speed error, rpm', 'torque, N·m', 'id, iq, A peak', '|v| / Vmax', 'ia, ib, ic, A peak'];
   const layout: Record<string, unknown> = baseLayout(t, {
-    margin: { l: 78, r: 130, t: 10, b: 44 },
+    margin: { l: 84, r: 150, t: 10, b: 44 },
     hovermode: 'x',
-    legend: { orientation: 'v', x: 1.01, y: 1, font: { size: 11 } },
+    legend: { orientation: 'v', x: 1.01, y: 1, font: { size: 11 }, tracegroupgap: 14, groupclick: 'toggleitem' },
     xaxis: axis(t, 'time, s', { anchor: `y${ROWS}`, range: [x[0], x[x.length - 1]] }),
   });
   for (let i = 0; i < ROWS; i++) {
-    layout[i === 0 ? 'yaxis' : `yaxis${i + 1}`] = axis(t, titles[i]!, { domain: domain(i), ...(i === 3 ? { range: [0, 1.15] } : {}) });
+    const extra: Record<string, unknown> = { domain: domain(i) };
+    if (i === 4) extra.range = [0, 1.15];
+    if (i === 1 && zoom) extra.range = zoom;
+    layout[i === 0 ? 'yaxis' : `yaxis${i + 1}`] = axis(t, titles[i]!, extra);
   }
   // the x axis ticks appear once at the bottom; every row shares it
   const fill = theme === 'dark' ? 'rgba(255,179,64,0.16)' : 'rgba(224,138,0,0.16)';
@@ -108,18 +125,19 @@ export function tracesFigure(r: SimDone, theme: 'light' | 'dark'): { data: Data[
   return { data, layout };
 }
 
+const ms = (v: number): string => `${sig3(v * 1e3)} ms`;
 const METRICS: Array<[string, string, (v: number) => string]> = [
-  ['finalSpeed_rpm', 'final speed', (v) => `${num(v)} rpm`],
-  ['speedOvershoot_pct', 'speed overshoot', (v) => `${num(v, 3)} %`],
-  ['riseTime_s', 'rise time (10–90 %)', (v) => `${num(v * 1e3)} ms`],
-  ['settlingTime_s', 'settling time (2 % band)', (v) => `${num(v * 1e3)} ms`],
-  ['loadStepDip_rpm', 'speed dip after load step', (v) => `${num(v)} rpm`],
-  ['loadStepRecovery_s', 'recovery after load step', (v) => `${num(v * 1e3)} ms`],
-  ['steadyStateError_rpm', 'steady-state error', (v) => `${num(v)} rpm`],
-  ['peakCurrent_A', 'peak phase current', (v) => `${num(v)} A peak (${num(v / SQRT2)} A rms)`],
-  ['rmsCurrent_A', 'rms phase current', (v) => `${num(v * SQRT2)} A peak (${num(v)} A rms)`],
-  ['voltageSaturation_s', 'time in voltage saturation', (v) => `${num(v * 1e3)} ms`],
-  ['energyFromBus_J', 'energy from the DC link', (v) => `${num(v)} J`],
+  ['finalSpeed_rpm', 'final speed', (v) => `${rpmText(v)} rpm`],
+  ['speedOvershoot_pct', 'speed overshoot (% of the speed step)', (v) => `${sig3(v)} %`],
+  ['riseTime_s', 'rise time (10 % to 90 % of the speed step)', ms],
+  ['settlingTime_s', 'settling time (to within 2 % of the speed step)', ms],
+  ['loadStepDip_rpm', 'speed dip after the load step', (v) => `${rpmText(v)} rpm`],
+  ['loadStepRecovery_s', 'recovery after the load step (error back within 5 % of the dip)', ms],
+  ['steadyStateError_rpm', 'steady-state speed error', (v) => `${rpmText(v)} rpm`],
+  ['peakCurrent_A', 'peak phase current', (v) => `${sig3(v)} A peak (${sig3(v / SQRT2)} A rms)`],
+  ['rmsCurrent_A', 'rms phase current', (v) => `${sig3(v * SQRT2)} A peak (${sig3(v)} A rms)`],
+  ['voltageSaturation_s', 'time in voltage saturation', ms],
+  ['energyFromBus_J', 'energy from the DC link', (v) => `${sig3(v)} J`],
 ];
 
 export const LoadStepsView = memo(function LoadStepsView({ project, theme, stale }: { project: ResolvedProject; theme: 'light' | 'dark'; stale: boolean }) {
@@ -173,11 +191,11 @@ export const LoadStepsView = memo(function LoadStepsView({ project, theme, stale
   return (
     <div data-testid="view-loadsteps" style={{ display: 'grid', gridTemplateColumns: '340px minmax(0, 1fr)', gap: 12 }}>
       <div>
-        <Section title="Scenario">
-          <ScenarioFields />
+        <Section title="Scenario (edit in the side panel)">
+          <ScenarioSummary testId="loadsteps-scenario" />
         </Section>
-        <Section title="Controller">
-          <ControlFields />
+        <Section title="Controller (edit in the side panel)">
+          <InputSummary items={CONTROL_SUMMARY} testId="loadsteps-control" note="Click a name to edit it in the side panel." />
         </Section>
       </div>
       <div>
@@ -194,8 +212,6 @@ export const LoadStepsView = memo(function LoadStepsView({ project, theme, stale
             </>
           )}
           {run.kind === 'cancelled' && <span data-testid="cancelled">Cancelled; the previous result (if any) is shown.</span>}
-          {!hasScenario && <span>Add a scenario on the left to run a test.</span>}
-          {stale && <span className="fail">Correct the marked inputs first.</span>}
           <span style={{ flex: 1 }} />
           {result && (
             <button className="btn small" onClick={() => void exportAndTell('traces-csv', () => tracesCsv(result.traces), 'traces.csv')}>
@@ -211,7 +227,14 @@ export const LoadStepsView = memo(function LoadStepsView({ project, theme, stale
               <div data-testid="sim-findings">
                 {result.findings.map((f, i) => (
                   <div key={i} className={`finding ${f.severity}`}>
-                    {f.field && <code className="finding-field">{f.field}</code>} {f.message}
+                    <strong>{severityPhrase(f.severity)}</strong>
+                    {f.field && (
+                      <>
+                        {', '}
+                        <button className="link" onClick={() => jumpToField(f.field!)}>{fieldPhrase(f.field.replace(/\[(\d+)\]/g, '.$1'))}</button>
+                      </>
+                    )}
+                    : {plainMessage(f.message)}
                   </div>
                 ))}
               </div>
@@ -245,15 +268,15 @@ export const LoadStepsView = memo(function LoadStepsView({ project, theme, stale
                       <tr>
                         <th className="num">load at</th>
                         <th className="num">speed dip</th>
-                        <th className="num">recovery (5 %)</th>
+                        <th className="num">recovery (within 5 % of the dip)</th>
                       </tr>
                     </thead>
                     <tbody>
                       {result.loadSteps.map((l, i) => (
                         <tr key={i}>
-                          <td className="num">{num(l.t_s * 1e3)} ms</td>
-                          <td className="num">{l.settled ? (l.dip_rpm === null ? '–' : `${num(l.dip_rpm)} rpm`) : 'not settled'}</td>
-                          <td className="num">{l.recovery_s === null ? '–' : `${num(l.recovery_s * 1e3)} ms`}</td>
+                          <td className="num">{ms(l.t_s)}</td>
+                          <td className="num">{l.settled ? (l.dip_rpm === null ? '–' : `${rpmText(l.dip_rpm)} rpm`) : 'not settled'}</td>
+                          <td className="num">{l.recovery_s === null ? '–' : ms(l.recovery_s)}</td>
                         </tr>
                       ))}
                     </tbody>
@@ -279,7 +302,18 @@ export const LoadStepsView = memo(function LoadStepsView({ project, theme, stale
             </div>
           </>
         ) : (
-          <div className="empty">No run yet: press “Run load-step test”.</div>
+          <div className="empty" data-testid="loadsteps-empty">
+            {!hasScenario ? (
+              <>
+                No scenario yet:{' '}
+                <button className="link" onClick={() => jumpToField('scenario')}>add one in the side panel</button> to run a load-step test.
+              </>
+            ) : stale ? (
+              'Correct the marked inputs in the side panel, then run the test.'
+            ) : (
+              'No run yet: press “Run load-step test”.'
+            )}
+          </div>
         )}
       </div>
     </div>

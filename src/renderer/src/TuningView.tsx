@@ -5,8 +5,9 @@ import type { ResolvedProject } from '../../core/project';
 import { tuneFromProject, type LoopReport, type TuningReport } from '../../core/tuning';
 import { isInputError } from '../../core/errors';
 import { axis, baseLayout, CURVE, Plot, readTheme } from './Plot';
-import { NumField, SelectField } from './Inputs';
 import { num } from './format';
+import { InputSummary } from './input-summary';
+import { plainMessage, severityPhrase } from '../../core/phrases';
 
 interface Loop {
   key: string;
@@ -90,20 +91,19 @@ export const TuningView = memo(function TuningView({ project, theme }: { project
           <div className="card">
             <h4>Loops in</h4>
             {project.file.control === undefined && <div className="finding">No control section: the defaults are used (current bandwidth fCtrl/20, speed bandwidth a tenth of it).</div>}
-            <NumField path="control.fCtrl_Hz" label="Control rate" unit="Hz" optional placeholder="10000" />
-            <NumField path="control.delaySamples" label="Delay" unit="periods" optional placeholder="1" />
-            <NumField path="control.currentBandwidth_Hz" label="Current bandwidth" unit="Hz" optional />
-            <NumField path="control.speedBandwidth_Hz" label="Speed bandwidth" unit="Hz" optional />
-            <SelectField
-              path="control.speedTuning.method"
-              label="Speed rule"
-              optional
-              options={[
-                ['symmetric-optimum', 'symmetric optimum'],
-                ['bandwidth', 'from bandwidth'],
+            <InputSummary
+              testId="tuning-inputs"
+              items={[
+                { path: 'control.fCtrl_Hz', label: 'Control rate', unit: 'Hz', fallback: '10000 Hz (default)' },
+                { path: 'control.delaySamples', label: 'Delay', unit: 'periods', fallback: '1 period (default)' },
+                { path: 'control.currentBandwidth_Hz', label: 'Current bandwidth', unit: 'Hz', fallback: 'fCtrl/20 (default) or gains' },
+                { path: 'control.speedBandwidth_Hz', label: 'Speed bandwidth', unit: 'Hz', fallback: '– (rule or gains)' },
+                { path: 'control.speedTuning.method', label: 'Speed rule', fallback: 'from bandwidth (default)' },
+                { path: 'control.speedTuning.a', label: 'Spacing a', fallback: '–' },
+                { path: 'control.speedLoopDivider', label: 'Speed loop every', unit: 'periods', fallback: '1 period (default)' },
               ]}
+              note="Edited in the side panel (Control): click a name to go there."
             />
-            <NumField path="control.speedTuning.a" label="  spacing a" unit="–" optional placeholder="2" />
             <div className="hint" style={{ fontSize: 12 }}>
               Current PI by internal model control: Kp = L·ωc, Ki = Rs·ωc (hot winding). Gains can be given instead in the Control section.
             </div>
@@ -130,6 +130,8 @@ export const TuningView = memo(function TuningView({ project, theme }: { project
                       ['gain crossover', (l: Loop) => (l.rep.crossover_Hz === null ? '–' : `${num(l.rep.crossover_Hz)} Hz`)],
                       ['phase margin', (l: Loop) => (l.rep.phaseMargin_deg === null ? '–' : `${num(l.rep.phaseMargin_deg, 3)}°`)],
                       ['gain margin', (l: Loop) => (l.rep.gainMargin_dB === null ? '–' : `${num(l.rep.gainMargin_dB, 3)} dB`)],
+                      ['closed-loop peaking', (l: Loop) => (l.rep.peaking_dB === null ? '–' : `${num(l.rep.peaking_dB, 2)} dB`)],
+                      ['phase margin, continuous approx.', (l: Loop) => (l.rep.continuous.phaseMargin_deg === null ? '–' : `${num(l.rep.continuous.phaseMargin_deg, 3)}°`)],
                     ] as Array<[string, (l: Loop) => string]>
                   ).map(([label, f]) => (
                     <tr key={label}>
@@ -142,18 +144,20 @@ export const TuningView = memo(function TuningView({ project, theme }: { project
                 </tbody>
               </table>
               <div className="hint" style={{ fontSize: 12, marginTop: 6 }}>
-                Margins include the {num(tuned.rep.currentDelay_s * 1e6)} µs delay of the current loop; speed rule uses an equivalent lag of{' '}
-                {num(tuned.rep.speedLagEquivalent_s * 1e3)} ms.
+                Margins of the sampled loops as the controller runs them: discrete PI, zero-order hold, winding (and shaft) discretised,
+                {' '}{num(tuned.rep.current.samplePeriod_s * 1e6)} µs period with {num(tuned.rep.currentDelay_s / tuned.rep.current.samplePeriod_s - 0.5)} period(s) of delay,
+                up to half the sample rate. The continuous approximation (delay e^(−s·{num(tuned.rep.currentDelay_s * 1e6)} µs)) is shown for comparison.
+                Speed rule uses an equivalent lag of {num(tuned.rep.speedLagEquivalent_s * 1e3)} ms.
               </div>
             </div>
           )}
           <div className="card" data-testid="tuning-warnings">
             <h4>Warnings</h4>
             {tuned.error && <div className="finding danger">{tuned.error}</div>}
-            {tuned.rep && tuned.rep.warnings.length === 0 && <div className="finding">None: bandwidths below fCtrl/10 and phase margins at or above 30°.</div>}
+            {tuned.rep && tuned.rep.warnings.length === 0 && <div className="finding">None: bandwidths below fCtrl/10, phase margins at or above 45°, gain margins at or above 6 dB, closed-loop peaking at most 3 dB.</div>}
             {tuned.rep?.warnings.map((w) => (
-              <div key={w.code + w.message} className={`finding ${w.severity}`}>
-                {w.message}
+              <div key={w.code + w.message} className={`finding ${w.severity}`} data-code={w.code}>
+                <strong>{severityPhrase(w.severity)}:</strong> {plainMessage(w.message)}
               </div>
             ))}
           </div>
