@@ -5,13 +5,14 @@
  */
 import { envelopeBench } from './envelope';
 import { simulateBench } from './simulate';
+import { cliStartBench } from './cli-start';
 
 export interface BenchSection {
   name: string;
   run: () => void | Promise<void>;
 }
 
-const sections: BenchSection[] = [envelopeBench, simulateBench];
+const sections: BenchSection[] = [envelopeBench, simulateBench, cliStartBench];
 
 const argv = process.argv.slice(2);
 const onlyAt = argv.indexOf('--only');

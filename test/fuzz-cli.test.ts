@@ -1,21 +1,23 @@
-// A few fuzz cases through the real command line (spawning is slow, so only a few): the exit code
+// A few fuzz cases through the real command line, the built `torquewise` bin (rebuilt first when a
+// source is newer; spawning is slow, so only a few): the exit code
 // and the output agree with the in-process outcome: finite results -> exit 0 and a JSON document
 // with finite numbers; a refusal -> exit 2 and exactly one line `torquewise: <field> <message>`.
-import { describe, expect, it } from 'vitest';
+import { beforeAll, describe, expect, it } from 'vitest';
 import { spawn } from 'node:child_process';
 import { mkdtempSync, writeFileSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
-import { join, resolve } from 'node:path';
+import { join } from 'node:path';
 import fc from 'fast-check';
 import { fuzzCase, runCase, nonFinite, DEMOS, type FuzzCase } from '../trust/fuzz-cases';
+import { CLI_BUNDLE, ensureBundle } from '../scripts/cli-bundle.mjs';
 
-const root = resolve(__dirname, '..');
-const tsx = join(root, 'node_modules', 'tsx', 'dist', 'cli.mjs');
-const cli = join(root, 'src', 'cli', 'index.ts');
+beforeAll(() => {
+  expect(ensureBundle()).toBe('');
+}, 300_000);
 
 function run(args: string[]): Promise<{ code: number | null; stdout: string; stderr: string }> {
   return new Promise((done) => {
-    const p = spawn(process.execPath, [tsx, cli, ...args], { stdio: ['ignore', 'pipe', 'pipe'] });
+    const p = spawn(process.execPath, [CLI_BUNDLE, ...args], { stdio: ['ignore', 'pipe', 'pipe'] });
     let stdout = '';
     let stderr = '';
     p.stdout.on('data', (d) => (stdout += d));

@@ -86,8 +86,8 @@ export async function main(argv: readonly string[], out: TextSink = process.stdo
   }
 }
 
-const isEntry = process.argv[1] !== undefined && /cli[\\/]index\.(ts|js)$/.test(process.argv[1]);
-if (isEntry) {
+/** Runs main on this process's arguments and sets its exit code (the `torquewise` bin and `tsx src/cli/index.ts`). */
+export function runProcess(): void {
   // `... | head` closes the pipe early: that is the reader's choice, not an error.
   process.stdout.on('error', (e: NodeJS.ErrnoException) => {
     if (e.code === 'EPIPE') process.exit(0);
@@ -97,3 +97,5 @@ if (isEntry) {
     process.exitCode = code;
   });
 }
+
+if (process.argv[1] !== undefined && /cli[\\/]index\.(ts|js)$/.test(process.argv[1])) runProcess();
