@@ -1,7 +1,7 @@
 import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
-import { defaultTableStep, envelopeTable } from '../src/core/envelope-table';
+import { defaultTableStep, envelopeTable, parseTableStep } from '../src/core/envelope-table';
 import { computeEnvelope } from '../src/core/envelope';
 import { mtpaTorque } from '../src/core/mtpa';
 import { loadProjectText } from '../src/core/project';
@@ -48,5 +48,12 @@ describe('envelope table at round speeds', () => {
       }
     }
     expect(() => envelopeTable(servo.hot, servo.peak, servo.continuous, 6300, 1, '--step')).toThrow(/--step gives more than 500 rows .* use a step >= 13 rpm/);
+  });
+  it('reads a typed step: blank for the default, a positive number of rpm, else says what is allowed', () => {
+    expect(parseTableStep('  ', 6300)).toEqual({ step: undefined });
+    expect(parseTableStep('250', 6300)).toEqual({ step: 250 });
+    expect(parseTableStep('0', 6300)).toEqual({ message: "must be a speed step > 0 rpm (got '0'), or blank for the default" });
+    expect(parseTableStep('0x10', 6300)).toHaveProperty('message');
+    expect(parseTableStep('10', 6300)).toEqual({ message: 'gives more than 500 rows; use a step >= 13 rpm' });
   });
 });

@@ -53,3 +53,13 @@ export function envelopeTable(m: DqMachine, peak: DriveLimits, continuous: Drive
     };
   });
 }
+
+/** A typed table step (the app's field): blank for the default, or rpm giving at most MAX_TABLE_ROWS rows over the range; else what is allowed. */
+export function parseTableStep(text: string, speedMax_rpm: number): { step: number | undefined } | { message: string } {
+  const t = text.trim();
+  if (t === '') return { step: undefined };
+  const v = /^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/.test(t) ? Number(t) : NaN;
+  if (!(Number.isFinite(v) && v > 0)) return { message: `must be a speed step > 0 rpm (got '${t}'), or blank for the default` };
+  if (speedMax_rpm / v > MAX_TABLE_ROWS) return { message: `gives more than ${MAX_TABLE_ROWS} rows; use a step >= ${Math.ceil(speedMax_rpm / MAX_TABLE_ROWS)} rpm` };
+  return { step: v };
+}
