@@ -5,6 +5,7 @@ import { pointCommand } from './point';
 import { sizeCommand } from './size';
 import { simulateCommand } from './simulate';
 import { tuneCommand } from './tune';
+import { datasheetCommand } from './datasheet';
 
 /** Every command of the CLI, in the order `help` lists them. Add a command by importing it here. */
 export const COMMANDS: Command[] = [
@@ -14,4 +15,5 @@ export const COMMANDS: Command[] = [
   sizeCommand,
   simulateCommand,
   tuneCommand,
+  datasheetCommand,
 ];

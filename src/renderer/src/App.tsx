@@ -355,11 +355,13 @@ export function App() {
       }
       case 'export:plot-png':
       case 'export:plot-svg':
-        void exportVisiblePlot(e.name === 'export:plot-png' ? 'png' : 'svg').then((ok) => ok || setNotice('No plot on this view to export.'));
+        if (!results) setNotice('No plot on this view to export.');
+        else void exportVisiblePlot(e.name === 'export:plot-png' ? 'png' : 'svg', results.project).then((ok) => ok || setNotice('No plot on this view to export.'));
         break;
       case 'export:datasheet':
         setView('datasheet');
-        setTimeout(() => void exportDatasheetHtml().then((ok) => ok || setNotice('The datasheet could not be exported.')), 400);
+        if (results) void exportDatasheetHtml(results).then((ok) => ok || setNotice('The datasheet could not be exported.'));
+        else setNotice('The datasheet could not be exported: the project has no valid results yet.');
         break;
     }
   };

@@ -11,6 +11,8 @@ import { exportAndTell } from './file-bridge';
 import { amps, fixed, num, rpm } from './format';
 import { exportDatasheetHtml, exportPlotImage } from './image-export';
 import { fieldPhrase, limitPhrase, plainMessage, severityPhrase } from '../../core/phrases';
+import { figureConditions, isoDate } from '../../core/figure-conditions';
+import { TableStepField } from './TableStepField';
 
 function peakOf(a: Float64Array, feasible: Uint8Array): number {
   let best = 0;
@@ -67,7 +69,7 @@ export const DatasheetView = memo(function DatasheetView({ results, theme }: { r
   const s = results.safety;
   const exportImage = async (format: 'png' | 'svg') => {
     if (!plotEl.current) return;
-    await exportPlotImage(plotEl.current, format, 'datasheet-envelope');
+    await exportPlotImage(plotEl.current, format, 'datasheet-envelope', p);
   };
   const rows: Array<[string, string]> = [
     ['pole pairs', `${p.hot.polePairs} (${2 * p.hot.polePairs} poles)`],
@@ -92,15 +94,17 @@ export const DatasheetView = memo(function DatasheetView({ results, theme }: { r
   ];
   return (
     <div data-testid="view-datasheet">
-      <div className="print-only" style={{ fontSize: 10, marginBottom: 4 }}>
-        Torquewise datasheet, printed {new Date().toISOString().slice(0, 10)}. Speeds mechanical; currents peak phase with rms beside.
+      <div className="print-only" style={{ fontSize: 10, marginBottom: 4 }} data-testid="print-conditions">
+        {figureConditions(p, { date: isoDate(new Date()) }).map((line) => <div key={line}>{line}</div>)}
+        <div>Speeds mechanical; currents peak phase with rms beside.</div>
       </div>
       <div className="toolbar no-print">
         <button className="btn" onClick={() => window.print()} data-testid="print">Print…</button>
         <button className="btn" onClick={() => void exportImage('png')}>Plot PNG</button>
         <button className="btn" onClick={() => void exportImage('svg')}>Plot SVG</button>
         <button className="btn" onClick={() => void exportAndTell('envelope-csv', () => envelopeCsv(results), 'envelope.csv')}>Envelope CSV</button>
-        <button className="btn" data-testid="export-datasheet" onClick={() => void exportDatasheetHtml()}>Datasheet HTML</button>
+        <button className="btn" data-testid="export-datasheet" onClick={() => void exportDatasheetHtml(results)}>Datasheet HTML</button>
+        <TableStepField speedMax={results.speedMax} />
       </div>
       <div className="sheet-head">
         <h2>{p.name || 'Unnamed project'}</h2>

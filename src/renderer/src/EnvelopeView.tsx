@@ -6,6 +6,7 @@ import { solveOperatingPoint } from '../../core/operating-point';
 import { constantTorqueIq, mtpaCurrentForTorque } from '../../core/mtpa';
 import { RAD_S_TO_RPM, RPM_TO_RAD_S, SQRT2 } from '../../core/units';
 import { parsePlotTop } from '../../core/speed-range';
+import { envelopeBranch } from '../../core/envelope-branch';
 import type { OperatingPoint } from '../../core/types';
 import { axis, baseLayout, CURVE, Plot, readTheme, REGION_FILL } from './Plot';
 import { planeCurves, pointVerdict, type Curve, type EnvelopeOptions, type Results } from './compute';
@@ -52,6 +53,7 @@ export function torqueSpeedFigure(r: Results, theme: 'light' | 'dark', show: Sho
   const t = readTheme();
   const col = CURVE[theme];
   const data: Data[] = [];
+  const endMarks: Data[] = [];
   // one trace per (current, corner): motoring, a gap, then generating (fewer traces draw faster)
   for (const current of ['peak', 'continuous'] as const) {
     for (const corner of ['hot', 'cold'] as const) {
@@ -60,6 +62,7 @@ export function torqueSpeedFigure(r: Results, theme: 'light' | 'dark', show: Sho
       const yT: Array<number | null> = [];
       const yP: Array<number | null> = [];
       let first: Curve | null = null;
+      const ends: Array<{ rpm: number; direction: Curve['direction'] }> = [];
       for (const c of r.curves) {
         if (c.current !== current || c.corner !== corner || (c.direction === 'generating' && !show.generating)) continue;
         first ??= c;
@@ -68,23 +71,49 @@ export function torqueSpeedFigure(r: Results, theme: 'light' | 'dark', show: Sho
           yT.push(null);
           yP.push(null);
         }
-        const e = c.env;
-        for (let k = 0; k < e.speed.length; k++) {
-          if (!e.feasible[k]) continue;
-          x.push(e.speed[k]! * RAD_S_TO_RPM);
-          yT.push(e.torque[k]!);
-          yP.push(e.power[k]! / 1000);
+        // each branch cut where its torque reaches zero, ending on the zero line at that speed
+        const b = envelopeBranch(c.env);
+        for (let k = 0; k < b.speed_rpm.length; k++) {
+          const gap = Number.isNaN(b.speed_rpm[k]!);
+          x.push(gap ? null : b.speed_rpm[k]!);
+          yT.push(gap ? null : b.torque_Nm[k]!);
+          yP.push(gap ? null : b.power_W[k]! / 1000);
         }
+        for (const w of b.ends_rpm) ends.push({ rpm: w, direction: c.direction });
       }
       if (!first) continue;
       const st = curveStyle(first, col);
       const name = curveName(first);
+      // the speeds where the curve stops, labelled once where the motoring and generating ends nearly meet
+      const span = r.speedMax * RAD_S_TO_RPM;
+      const shown = ends.filter((e, i) => !(e.direction === 'generating' && ends.some((m, j) => j < i && m.direction === 'motoring' && Math.abs(m.rpm - e.rpm) < 0.03 * span)));
+      if (shown.length) {
+        const label = (e: { rpm: number; direction: string }) => {
+          const twin = ends.find((g) => g !== e && g.direction !== e.direction && Math.abs(g.rpm - e.rpm) < 0.03 * span);
+          return twin ? `${Math.round(e.rpm)} / ${Math.round(twin.rpm)} rpm` : `${Math.round(e.rpm)} rpm`;
+        };
+        endMarks.push({
+          type: 'scatter',
+          mode: 'markers+text',
+          x: shown.map((e) => e.rpm),
+          y: shown.map(() => 0),
+          text: shown.map(label),
+          textposition: shown.map((e) => (e.direction === 'motoring' ? 'top left' : 'bottom left')),
+          textfont: { size: 11, color: st.color },
+          marker: { size: 7, color: st.color },
+          name: `${name}: end`,
+          legendgroup: name,
+          showlegend: false,
+          hovertemplate: `${name} ends: torque reaches zero at %{x:.0f} rpm<extra></extra>`,
+        });
+      }
       data.push({ type: 'scatter', mode: 'lines', x, y: yT, name, legendgroup: name, line: st, hovertemplate: `${name}<br>%{x:.0f} rpm, %{y:.4g} N·m<extra></extra>` });
       if (withPower) {
         data.push({ type: 'scatter', mode: 'lines', x, y: yP, xaxis: 'x', yaxis: 'y2', name, legendgroup: name, showlegend: false, line: st, hovertemplate: `${name}<br>%{x:.0f} rpm, %{y:.4g} kW<extra></extra>` });
       }
     }
   }
+  data.push(...endMarks);
   // requirement points as pass/fail markers
   const req = r.project.requirements;
   const pts = r.sizing.points;
@@ -436,7 +465,7 @@ export const EnvelopeView = memo(function EnvelopeView({ results, opts, setOpts,
 
   const exportImage = async (format: 'png' | 'svg') => {
     if (!envEl.current) return;
-    await exportPlotImage(envEl.current, format, 'envelope');
+    await exportPlotImage(envEl.current, format, 'envelope', results.project);
   };
 
   const toggle = (k: keyof Show) => setShow((s) => ({ ...s, [k]: !s[k] }));

@@ -104,7 +104,7 @@ export function Plot({ data, layout, height, testId, onHover, onUnhover, onRelay
     const draw = () => {
       if (!live) return;
       performance.mark(`tw-plot:${testId ?? ''}`);
-      void Plotly.react(el, data, { ...layout, height }, { displaylogo: false, responsive: true, modeBarButtonsToRemove: ['select2d', 'lasso2d'] }).then((gd) => {
+      void Plotly.react(el, data, { ...layout, height }, { displaylogo: false, responsive: true, modeBarButtonsToRemove: ['select2d', 'lasso2d', 'toImage'] }).then((gd) => {
         if (!live) return;
         if (!bound.current) {
           bound.current = true;

@@ -1,70 +1,67 @@
-// Plot images through plotly's image API, and the datasheet as one self-contained HTML file.
+// Plot images through plotly's image API, each with a title, its legend and the conditions block,
+// and the datasheet as one self-contained HTML file (the same page the CLI's `datasheet` writes).
 import Plotly from 'plotly.js-dist-min';
-import css from './styles.css?raw';
+import type { Data, Layout } from 'plotly.js-dist-min';
+import type { ResolvedProject } from '../../core/project';
+import type { DatasheetResults } from '../../core/datasheet-results';
+import { datasheetHtml } from '../../core/datasheet-html';
+import { figureConditions, isoDate } from '../../core/figure-conditions';
 import { dataUrlToBytes, exportAndTell, svgDataUrlToText, tell } from './file-bridge';
+import { EXPORT_SIZE, exportLayout } from './figure-export-layout';
 
 const PLOTS = ['envelope-plot', 'datasheet-plot', 'traces-plot', 'bode-plot', 'plane-plot'];
 
-/** The first plot shown on the current view, exported as PNG or SVG. */
-export async function exportVisiblePlot(format: 'png' | 'svg'): Promise<boolean> {
+/** What each plot shows, for the exported image's title. */
+const PLOT_TITLES: Record<string, string> = {
+  envelope: 'torque against speed, hot and cold',
+  datasheet: 'torque against speed, hot and cold',
+  'datasheet-envelope': 'torque against speed, hot and cold',
+  traces: 'load-step response',
+  bode: 'current and speed loops, open-loop frequency response',
+  plane: 'current plane (id, iq): limits, MTPA, MTPV and voltage ellipses',
+};
+
+/** The first plot shown on the current view, exported as PNG or SVG with title and conditions. */
+export async function exportVisiblePlot(format: 'png' | 'svg', project: ResolvedProject): Promise<boolean> {
   const el = PLOTS.map((id) => document.querySelector<HTMLElement>(`[data-testid="${id}"]`)).find((e) => e !== null);
   if (!el) return false;
   const name = (el.dataset.testid ?? 'plot').replace('-plot', '');
-  await exportPlotImage(el, format, name);
+  await exportPlotImage(el, format, name, project);
   return true;
 }
 
-/** A plot element as a PNG or SVG file named `name`, through plotly's image API; says how it went. */
-export function exportPlotImage(el: HTMLElement, format: 'png' | 'svg', name: string): Promise<boolean> {
-  const image = () => Plotly.toImage(el, { format, width: 1200, height: 800, scale: format === 'png' ? 2 : 1 });
+/** The title of an exported figure: the project's name and what the plot shows. */
+export const figureTitle = (project: ResolvedProject, name: string): string =>
+  `${project.name.trim() || 'Unnamed project'}: ${PLOT_TITLES[name] ?? name}`;
+
+/**
+ * A plot element as a PNG or SVG file named `name`, through plotly's image API, drawn with a title,
+ * its legend and the conditions (project, bus, temperatures, current limits, date, version); says how it went.
+ */
+export function exportPlotImage(el: HTMLElement, format: 'png' | 'svg', name: string, project: ResolvedProject): Promise<boolean> {
+  const image = async () => {
+    const gd = el as unknown as { data?: Data[]; layout?: Partial<Layout> };
+    const layout = exportLayout(gd.layout ?? {}, figureTitle(project, name), figureConditions(project, { date: isoDate(new Date()) }));
+    const fig = { data: gd.data ?? [], layout } as unknown as Parameters<typeof Plotly.toImage>[0];
+    return Plotly.toImage(fig, { format, width: EXPORT_SIZE.width, height: EXPORT_SIZE.height, scale: format === 'png' ? 2 : 1 });
+  };
   return format === 'png'
     ? exportAndTell('plot-png', async () => dataUrlToBytes(await image()), `${name}.png`)
     : exportAndTell('plot-svg', async () => svgDataUrlToText(await image()), `${name}.svg`);
 }
 
-const escape = (s: string): string => s.replace(/&/g, '&amp;').replace(/</g, '&lt;').replace(/>/g, '&gt;');
+/** The step of the datasheet's envelope tables the user set (rpm), or undefined for the default. */
+export const datasheetPrefs: { tableStep_rpm: number | undefined } = { tableStep_rpm: undefined };
 
-/**
- * plotly's SVG text as an element, parsed in an inert XML document (never as HTML of the live page):
- * scripts, foreign objects, event-handler attributes and links out of the image are dropped.
- */
-export function svgElement(text: string): SVGSVGElement | null {
-  const doc = new DOMParser().parseFromString(text, 'image/svg+xml');
-  const root = doc.documentElement;
-  if (root.localName !== 'svg' || doc.getElementsByTagName('parsererror').length) return null;
-  for (const n of Array.from(root.querySelectorAll('script, foreignObject'))) n.remove();
-  for (const el of [root, ...Array.from(root.querySelectorAll('*'))]) {
-    for (const a of Array.from(el.attributes)) {
-      const href = a.localName === 'href' && !a.value.startsWith('#') && !a.value.startsWith('data:image/');
-      if (a.name.toLowerCase().startsWith('on') || href) el.removeAttribute(a.name);
-    }
-  }
-  return root as unknown as SVGSVGElement;
-}
-
-/** The Datasheet view as a static HTML page: its tables and cautions, the plot as inline SVG. */
-export async function exportDatasheetHtml(): Promise<boolean> {
-  const view = document.querySelector<HTMLElement>('[data-testid="view-datasheet"]');
-  const plot = document.querySelector<HTMLElement>('[data-testid="datasheet-plot"]');
-  if (!view || !plot) return false;
-  let svg: string;
+/** The datasheet as one self-contained HTML file, built by core from the results on screen. */
+export async function exportDatasheetHtml(results: DatasheetResults): Promise<boolean> {
+  let html: string;
   try {
-    svg = svgDataUrlToText(await Plotly.toImage(plot, { format: 'svg', width: 900, height: 520 }));
+    html = datasheetHtml(results, { date: isoDate(new Date()), tableStep_rpm: datasheetPrefs.tableStep_rpm, stepField: 'table step' });
   } catch (e) {
-    tell(`The datasheet could not be exported: the plot image failed (${e instanceof Error ? e.message : String(e)}). Nothing was written.`);
+    tell(`The datasheet could not be exported: ${e instanceof Error ? e.message : String(e)}. Nothing was written.`);
     return true; // said already
   }
-  const copy = view.cloneNode(true) as HTMLElement;
-  copy.querySelectorAll('.no-print, .toolbar').forEach((n) => n.remove());
-  const slot = copy.querySelector('[data-testid="datasheet-plot"]');
-  const image = svgElement(svg);
-  if (slot && image) {
-    const box = document.createElement('div');
-    box.className = 'plot-image';
-    box.appendChild(document.importNode(image, true));
-    slot.replaceWith(box);
-  }
-  const title = escape(document.querySelector('.sheet-head h2')?.textContent ?? 'Torquewise datasheet');
-  const html = `<!doctype html><html lang="en"><head><meta charset="utf-8"><title>${title}</title><style>${css}</style></head><body data-theme="light"><div class="view">${copy.outerHTML}</div></body></html>`;
-  return exportAndTell('datasheet', () => html, 'datasheet.html');
+  const base = (results.project.name.trim() || 'datasheet').replace(/[^A-Za-z0-9._-]+/g, '-').replace(/^-+|-+$/g, '').slice(0, 60) || 'datasheet';
+  return exportAndTell('datasheet', () => html, `${base}-datasheet.html`);
 }
