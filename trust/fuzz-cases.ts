@@ -293,21 +293,21 @@ export async function runCase(c: FuzzCase): Promise<Outcome> {
     const args = parseArgs([c.command, 'project.json', ...c.flags]);
     checkFlags(args, { ...cmd.flags, json: 'switch' });
     let json: unknown;
-    let text = '';
+    let lines: string[] = [];
     if (c.command === 'simulate') {
       // the simulate command's path with a small step budget (a fuzz case must be short)
       const setup = simulationFromProject(project);
       const rep = simulationReport(project, setup, runSimulation(setup, { maxSteps: FUZZ_SIM_MAX_STEPS }));
       json = rep.json;
-      text = rep.text;
+      lines = rep.lines;
     } else {
       const r = await cmd.run(project, args);
       json = r.json;
-      text = r.text;
+      lines = r.lines;
     }
     const bad = nonFinite(json);
     if (bad) return { kind: 'failure', why: `${c.command}: non-finite number in the document: ${bad}` };
-    let shown = text;
+    let shown = lines.join('\n');
     for (const s of [project.name, ...project.requirements.map((q) => q.label)]) if (s) shown = shown.split(s).join('');
     if (/\bNaN\b|Infinity/.test(shown)) return { kind: 'failure', why: `${c.command}: text shows NaN/Infinity: ${/.{0,60}(NaN|Infinity).{0,20}/.exec(shown)?.[0]}` };
     return { kind: 'ok' };

@@ -1,7 +1,7 @@
 import type { Command } from '../command';
 import { computeEnvelope, type Envelope } from '../../core/envelope';
 import { PLOT_SPEED_MAX_RPM, projectSpeedRange } from '../../core/speed-range';
-import { numberFlag, stringFlag } from '../args';
+import { numberFlag } from '../args';
 import { table, fmt } from '../table';
 import { peakToRms, radSToRpm, rpmToRadS } from '../../core/units';
 
@@ -52,7 +52,7 @@ export const envelopeCommand: Command = {
   name: 'envelope',
   summary: 'maximum motoring torque vs speed under Imax, hot corner',
   usage: 'envelope <project.json> [--speed-max RPM] [--points N] [--csv FILE] [--json]',
-  flags: { 'speed-max': 'number', points: 'number', csv: 'string' },
+  flags: { 'speed-max': 'number', points: 'number', csv: 'output' },
   run(p, args) {
     const speedMax = numberFlag(args, 'speed-max', { min: 1, max: PLOT_SPEED_MAX_RPM, unit: 'rpm' });
     const points = numberFlag(args, 'points', { min: 2, max: 100000, integer: true });
@@ -62,18 +62,17 @@ export const envelopeCommand: Command = {
       speedMax: speedMax !== undefined ? rpmToRadS(speedMax) : projectSpeedRange(p).speedMax,
     });
     const json = envelopeJson(env);
-    const csv = stringFlag(args, 'csv');
     const step = Math.max(1, Math.floor(env.speed.length / 25));
     const rows = json.points.filter((_, k) => k % step === 0 || k === json.points.length - 1)
       .map((q) => [q.speed_rpm, q.torque_Nm, q.power_W / 1e3, q.id_A, q.iq_A, q.current_A, peakToRms(q.current_A), q.voltage_V, q.region]);
-    const text = [
+    const lines = [
       `${p.name}: motoring envelope under Imax ${fmt(p.peak.Imax)} A peak, Vmax ${fmt(p.peak.Vmax)} V peak phase, hot corner`,
       '',
-      table(['speed rpm', 'torque N·m', 'power kW', 'id A pk', 'iq A pk', '|i| A pk', '|i| A rms', '|v| V pk', 'region'], rows),
+      ...table(['speed rpm', 'torque N·m', 'power kW', 'id A pk', 'iq A pk', '|i| A pk', '|i| A rms', '|v| V pk', 'region'], rows),
       '',
       `base speed ${fmt(json.baseSpeed_rpm)} rpm, maximum speed ${json.maxSpeed_rpm === null ? 'unbounded (psiM/Ld inside the current limit)' : fmt(json.maxSpeed_rpm) + ' rpm'}, ` +
         `characteristic current ${fmt(json.characteristicCurrent_A)} A peak (${fmt(peakToRms(json.characteristicCurrent_A))} A rms), torque accuracy ${fmt(env.accuracy, 2)} relative`,
-    ].join('\n');
-    return { json, text, ...(csv ? { files: [{ path: csv, contents: envelopeCsv(env) }] } : {}) };
+    ];
+    return { json, lines, ...(args.flags.has('csv') ? { files: [{ flag: 'csv', contents: envelopeCsv(env) }] } : {}) };
   },
 };

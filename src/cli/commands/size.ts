@@ -30,14 +30,14 @@ export const sizeCommand: Command = {
       return [q.label, q.speed_rpm, q.torque_Nm, q.met ? 'yes' : 'NO', q.torqueAvailable_Nm, q.current_A, snap(q.currentHeadroom_A, p.peak.Imax), q.met ? q.voltage_V : '-', q.met ? snap(q.voltageHeadroom_V, p.peak.Vmax) : '-', q.limitedBy, c.met ? 'yes' : 'NO'];
     });
     const imax = (x: number | null) => (x === null ? 'none (a point lies beyond MTPV)' : `${fmt(x)} A pk = ${fmt(peakToRms(x))} A rms`);
-    const text = [
+    const lines = [
       `${p.name}: sizing at Vdc ${fmt(p.inverter.Vdc)} V, Imax ${fmt(p.peak.Imax)} A pk`,
       '',
-      table(['point', 'speed rpm', 'torque N·m', 'met hot', 'avail. N·m', '|i| A pk', 'i room A', '|v| V pk', 'v room V', 'limited by', 'met cold'], rows),
+      ...table(['point', 'speed rpm', 'torque N·m', 'met hot', 'avail. N·m', '|i| A pk', 'i room A', '|v| V pk', 'v room V', 'limited by', 'met cold'], rows),
       '',
       `least Imax at this bus: hot ${imax(hot.minImax)}; cold ${imax(cold.minImax)}`,
       `least Vdc at this Imax: hot ${hot.minVdc === null ? 'none' : fmt(hot.minVdc) + ' V'}; cold ${cold.minVdc === null ? 'none' : fmt(cold.minVdc) + ' V'}`,
-    ].join('\n');
-    return { json, text };
+    ];
+    return { json, lines };
   },
 };

@@ -39,14 +39,14 @@ export const tuneCommand: Command = {
         `speed loop every ${input.speedLoopDivider} period(s), inertia ${fmt(input.inertia)} kg·m² (motor + load), hot corner`,
       `current loop: ${'bandwidth_Hz' in input.current ? `internal model control at ${fmt(input.current.bandwidth_Hz)} Hz` : 'gains from the file'}; speed loop: ${rule} (equivalent lag ${fmt(r.speedLagEquivalent_s * 1e6)} µs)`,
       '',
-      table(
+      ...table(
         ['loop', 'Kp', 'Kp unit', 'Ki', 'Ki unit', 'design Hz', 'crossover Hz', 'bandwidth -3 dB Hz', 'phase margin deg', 'gain margin dB'],
         loops.map(([name, l, ku, kiu]) => [name, fmt(l.Kp), ku, fmt(l.Ki), kiu, fmt(l.design_Hz), orDash(l.crossover_Hz), l.phaseMargin_deg !== null && l.phaseMargin_deg <= 0 ? '- (unstable)' : orDash(l.bandwidth_Hz), orDash(l.phaseMargin_deg), orDash(l.gainMargin_dB)]),
       ),
       '',
-      r.warnings.length === 0 ? 'warnings: none' : ['warnings:', ...r.warnings.map((w) => `  ${w.severity}: ${w.message}`)].join('\n'),
+      ...(r.warnings.length === 0 ? ['warnings: none'] : ['warnings:', ...r.warnings.map((w) => `  ${w.severity}: ${w.message}`)]),
       'margins from the continuous-time loop with the delay exact (e^{-s Td}); the simulation shows the sampled loop.',
     ];
-    return { json: tuningJson(r, args.flags.has('bode')), text: lines.join('\n') };
+    return { json: tuningJson(r, args.flags.has('bode')), lines };
   },
 };
