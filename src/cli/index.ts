@@ -69,7 +69,9 @@ export async function main(argv: readonly string[], out: TextSink = process.stdo
       err.write(`torquewise: ${visible(e.message)}\n`);
       return 2;
     }
-    err.write(`torquewise: internal error: ${visible(e instanceof Error ? e.message : String(e))}\n`);
+    // a defect, not bad input: its kind only, never the text of whatever threw (a library's or the engine's own words)
+    const kind = e instanceof Error && /^[A-Za-z]{1,40}$/.test(e.name) ? e.name : 'unknown';
+    err.write(`torquewise: internal error (${kind}): a defect of Torquewise, not of the input; please report the command and the project file\n`);
     return 1;
   }
 }
