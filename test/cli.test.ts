@@ -240,7 +240,7 @@ describe('cli bad input: exit 2 and one line naming the field', () => {
   const cases: Array<[string, string[], RegExp]> = [
     ['unknown command', ['spin', 'x.json'], /^torquewise: command 'spin' is unknown/],
     ['missing file', ['envelope'], /^torquewise: project file is missing/],
-    ['unreadable file', ['envelope', join(dir, 'nope.json')], /cannot be read \(ENOENT\)/],
+    ['a file that does not exist', ['envelope', join(dir, 'nope.json')], /^torquewise: project file '.*nope\.json' does not exist$/m],
     ['bad number', ['envelope', demo('spm-48v'), '--points', 'many'], /--points must be a number/],
     ['unknown option', ['envelope', demo('spm-48v'), '--colour', 'red'], /--colour is not an option of 'envelope'/],
     ['absurd point count', ['envelope', demo('spm-48v'), '--points', '1e9'], /--points must be <= /],
@@ -272,6 +272,38 @@ describe('cli bad input: exit 2 and one line naming the field', () => {
     expect(e.code).toBe(2);
     expect(e.err).not.toMatch(/\u001b/);
     expect(e.err.trim().split('\n')).toHaveLength(1);
+  });
+
+  it('invalid UTF-8 is refused naming the byte offset, with the same words as the desktop app', async () => {
+    const good = Buffer.from(JSON.stringify({ format: 'torquewise-project', version: 1, name: 'caf\u00e9' }));
+    const at = good.indexOf(0xc3); // é is C3 A9; cut it to a lone lead byte followed by A9 -> FF
+    const bad = Buffer.from(good);
+    bad[at + 1] = 0xff;
+    const f = join(dir, 'latin.json');
+    writeFileSync(f, bad);
+    const r = await run('params', f);
+    expect(r.code).toBe(2);
+    const why = `is not UTF-8 text (an invalid byte sequence at byte offset ${at}, starting with 0xC3)`;
+    expect(r.err).toBe(`torquewise: project file '${f}' ${why}\n`);
+    const { openProjectFile } = await import('../src/node/project-file');
+    expect(await openProjectFile(f)).toEqual({ ok: false, canceled: false, message: `Could not open "latin.json": it ${why}.` });
+  });
+
+  it('a key given twice in the file is refused naming its path (JSON.parse alone keeps the last)', async () => {
+    const f = join(dir, 'twice.json');
+    writeFileSync(f, readFileSync(demo('spm-48v'), 'utf8').replace('"inverter": {', '"inverter": {\n    "Imax": 1,'));
+    const r = await run('size', f);
+    expect(r.code).toBe(2);
+    expect(r.err).toBe('torquewise: inverter.Imax is given twice in one object; give each key once (which of the values was meant is a guess)\n');
+  });
+
+  it('an option given twice is refused naming it', async () => {
+    for (const argv of [['envelope', demo('spm-48v'), '--points', '10', '--points', '20'], ['envelope', demo('spm-48v'), '--json', '--json'], ['envelope', demo('spm-48v'), '--csv', 'a.csv', '--csv=b.csv']]) {
+      const r = await run(...argv);
+      expect(r.code).toBe(2);
+      expect(r.err).toMatch(/^torquewise: --(points|json|csv) is given more than once; give each option once\n$/);
+      expect(r.out).toBe('');
+    }
   });
 
   it('a negative inductance in the file', async () => {

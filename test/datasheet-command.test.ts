@@ -74,7 +74,7 @@ describe('datasheet command', () => {
       const r = await run('datasheet', input, '--out', out);
       expect(r.code).toBe(2);
       expect(r.err.trim().split('\n')).toHaveLength(1);
-      expect(r.err).toMatch(/^torquewise: --out names the project file itself/);
+      expect(r.err).toMatch(/^torquewise: --out '.*' is the project file itself; it is never written over/);
     }
     expect(readFileSync(input, 'utf8')).toBe(before);
   });
@@ -84,8 +84,8 @@ describe('datasheet command', () => {
       [['--out', join(dir, 'a.html'), '--step', '0'], /^torquewise: --step must be a speed step > 0 rpm/],
       [['--out', join(dir, 'b.html'), '--step', '1'], /^torquewise: --step gives more than 500 rows over 0 to 6300 rpm; use a step >= 13 rpm/],
       [['--out', join(dir, 'c.html'), '--step', 'x'], /^torquewise: --step must be a number rpm/],
-      [['--out', join(dir, 'no-such-folder', 'd.html')], /^torquewise: --out '.*d\.html' cannot be written: /],
-      [['--out', dir], /^torquewise: --out '.*' cannot be written: .*folder/],
+      [['--out', join(dir, 'no-such-folder', 'd.html')], /^torquewise: --out '.*d\.html' was not written: .*; any file there is unchanged/],
+      [['--out', dir], /^torquewise: --out '.*' is not a regular file \(a folder or a device\)/],
     ];
     for (const [flags, msg] of cases) {
       const r = await run('datasheet', servoSrc, ...flags);

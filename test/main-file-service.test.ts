@@ -126,7 +126,7 @@ describe('FileService', () => {
     expect(await s.openRecent(join(dir, 'other.json'))).toEqual({ ok: false, canceled: false, message: 'Not opened: that file is not in the recent list.' });
     expect(await s.openRecent(p)).toMatchObject({ ok: true, path: p });
     rmSync(p);
-    expect(await s.openRecent(p)).toEqual({ ok: false, canceled: false, message: 'Could not open "a.json": the file does not exist.' });
+    expect(await s.openRecent(p)).toEqual({ ok: false, canceled: false, message: 'Could not open "a.json": it does not exist.' });
     expect(await s.recent()).toEqual([]);
   });
 

@@ -63,7 +63,7 @@ describe('openProjectFile', () => {
     ['no version', '{"format":"torquewise-project"}', /: version must be 1\.$/],
     ['a section missing a required key', HEADER_ONLY, /: motor\.Rs is required \(stator resistance per phase .* in ohm\); motor\.Ld is required .*\.$/],
     ['a negative inductance', GOOD.replace('"Ld": { "value": 0.0003', '"Ld": { "value": -0.0003'), /: nameplate\.Ld\.value must be >= 1e-9 H/],
-    ['binary bytes', Buffer.from([0xff, 0xfe, 0x00, 0x81, 0x7b]), /it is not UTF-8 text\.$/],
+    ['binary bytes', Buffer.from([0xff, 0xfe, 0x00, 0x81, 0x7b]), /it is not UTF-8 text \(an invalid byte sequence at byte offset 0, starting with 0xFF\)\.$/],
   ];
   for (const [what, content, re] of broken) {
     it(`a broken file (${what}) opens with a clear message and nothing is written`, async () => {
@@ -115,13 +115,13 @@ describe('openProjectFile', () => {
   });
 
   it('refuses a missing file, a folder and an oversized file', async () => {
-    expect(await openProjectFile(join(dir, 'nope.json'))).toEqual({ ok: false, canceled: false, message: 'Could not open "nope.json": the file does not exist.' });
+    expect(await openProjectFile(join(dir, 'nope.json'))).toEqual({ ok: false, canceled: false, message: 'Could not open "nope.json": it does not exist.' });
     expect((await openProjectFile(dir)).ok).toBe(false);
     const p = join(dir, 'big.json');
     writeFileSync(p, GOOD);
     const r = await openProjectFile(p, { maxBytes: 10 });
     expect(r.ok).toBe(false);
-    if (!r.ok) expect(r.message).toBe(`Could not open "big.json": it is ${Buffer.byteLength(GOOD)} bytes, more than the 10 bytes a project may have.`);
+    if (!r.ok) expect(r.message).toBe(`Could not open "big.json": it is ${Buffer.byteLength(GOOD)} bytes, more than the 10 bytes a project file may have.`);
   });
 
   it('reports a read error by its reason', async () => {
@@ -133,7 +133,7 @@ describe('openProjectFile', () => {
         throw Object.assign(new Error('x'), { code: 'EACCES' });
       },
     };
-    expect(await openProjectFile(p, { fs })).toEqual({ ok: false, canceled: false, message: 'Could not open "p.json": permission denied.' });
+    expect(await openProjectFile(p, { fs })).toEqual({ ok: false, canceled: false, message: 'Could not open "p.json": it cannot be read: permission denied.' });
   });
 });
 

@@ -20,6 +20,7 @@ import { parseArgs } from '../src/cli/args';
 import { checkFlags } from '../src/cli/args';
 import { simulationFromProject, runSimulation } from '../src/core/simulate';
 import { simulationReport } from '../src/cli/commands/simulate';
+import { terminalText } from '../src/cli/terminal';
 
 export const DEMO_NAMES = ['demo-spm-48v', 'demo-ipm-traction', 'demo-servo-axis'] as const;
 
@@ -56,7 +57,7 @@ export const nastyValue: fc.Arbitrary<unknown> = fc.oneof(
   { weight: 6, arbitrary: fc.constantFrom(...NASTY_NUMBERS) },
   { weight: 3, arbitrary: fc.double({ noDefaultInfinity: false, noNaN: false }) },
   { weight: 2, arbitrary: fc.integer({ min: -1000, max: 1000 }) },
-  { weight: 1, arbitrary: fc.constantFrom('', '12', 'NaN', 'phase', 'rms', 'svpwm', 'x'.repeat(100_000), '\u0000', '../../etc/passwd', 'https://example.invalid/a.js') },
+  { weight: 1, arbitrary: fc.constantFrom('', '12', 'NaN', 'phase', 'rms', 'svpwm', 'x'.repeat(100_000), '\u0000', '../../etc/passwd', 'https://example.invalid/a.js', 'line\nfake line', 'a\u2028b\u2029c', '\u202eevil\u202c \u2066x\u2069', '\u001b[2J\r') },
   { weight: 1, arbitrary: fc.string({ maxLength: 40 }) },
   { weight: 1, arbitrary: fc.constantFrom(null, true, false) },
   { weight: 1, arbitrary: fc.constantFrom([], {}, [1, 2, 3], { value: 1 }, { value: 1, basis: 'phase' }) },
@@ -293,21 +294,26 @@ export async function runCase(c: FuzzCase): Promise<Outcome> {
     const args = parseArgs([c.command, 'project.json', ...c.flags]);
     checkFlags(args, { ...cmd.flags, json: 'switch' });
     let json: unknown;
-    let text = '';
+    let lines: string[] = [];
     if (c.command === 'simulate') {
       // the simulate command's path with a small step budget (a fuzz case must be short)
       const setup = simulationFromProject(project);
       const rep = simulationReport(project, setup, runSimulation(setup, { maxSteps: FUZZ_SIM_MAX_STEPS }));
       json = rep.json;
-      text = rep.text;
+      lines = rep.lines;
     } else {
       const r = await cmd.run(project, args);
       json = r.json;
-      text = r.text;
+      lines = r.lines;
     }
     const bad = nonFinite(json);
     if (bad) return { kind: 'failure', why: `${c.command}: non-finite number in the document: ${bad}` };
-    let shown = text;
+    // what the terminal gets: no control, separator or bidirectional character raw, one line per entry
+    const printed = terminalText(lines);
+    const raw = /[\u0000-\u0009\u000b-\u001f\u007f-\u009f\u061c\u200e\u200f\u2028\u2029\u202a-\u202e\u2066-\u2069]/.exec(printed);
+    if (raw) return { kind: 'failure', why: `${c.command}: the text would print U+${raw[0].charCodeAt(0).toString(16).padStart(4, '0')} raw` };
+    if (printed.split('\n').length !== lines.length + 1) return { kind: 'failure', why: `${c.command}: the text would print more lines than it has` };
+    let shown = lines.join('\n');
     for (const s of [project.name, ...project.requirements.map((q) => q.label)]) if (s) shown = shown.split(s).join('');
     if (/\bNaN\b|Infinity/.test(shown)) return { kind: 'failure', why: `${c.command}: text shows NaN/Infinity: ${/.{0,60}(NaN|Infinity).{0,20}/.exec(shown)?.[0]}` };
     return { kind: 'ok' };

@@ -1,6 +1,8 @@
 /**
  * `npm run trust`: the reliability figures.
  *  - fuzz: cases run and passed (fuzzed project files through every command, see fuzz-cases.ts)
+ *  - hostile files: CSV paths aliasing the project and full disks, names with control and bidi
+ *    characters through every command, duplicate keys, invalid UTF-8, repeated options (see hostile-files.ts)
  *  - save faults: scenarios survived (a failing or crashing step of the atomic save, see src/node/save-faults.ts)
  *  - memory: peak resident memory of a 60 s simulation at 20 kHz control, in its own process
  *  - cancel: time from raising the abort signal to runSimulation returning (fresh processes, and back to back)
@@ -13,8 +15,9 @@ import { join } from 'node:path';
 import { spawnSync } from 'node:child_process';
 import { runFuzz } from './fuzz-cases';
 import { runSaveFaultScenarios } from '../src/node/save-faults';
+import { HOSTILE_KINDS, runHostileFiles } from './hostile-files';
 
-export const BOUNDS = { fuzzCases: 10_000, rss_MB: 300, cancel_ms: 100 } as const;
+export const BOUNDS = { fuzzCases: 10_000, hostileCases: 1_000, rss_MB: 300, cancel_ms: 100 } as const;
 
 const root = join(import.meta.dirname, '..');
 const argv = process.argv.slice(2);
@@ -45,6 +48,17 @@ say('');
   say(`      slowest case ${(t.slowest_s * 1e3).toFixed(0)} ms, all ${wall.toFixed(1)} s`);
   for (const f of t.failures.slice(0, 10)) say(`      FAILED #${f.index}: ${f.why.split('\n')[0]}`);
   if (t.failures.length > 0 || t.run < Math.min(cases, BOUNDS.fuzzCases)) ok = false;
+}
+
+// ---- hostile files through the real CLI
+{
+  const n = quick ? 200 : BOUNDS.hostileCases;
+  const t0 = now();
+  const t = await runHostileFiles(seed, n);
+  const kinds = HOSTILE_KINDS.map((k) => `${k} ${t.byKind[k].passed}/${t.byKind[k].run}`).join(', ');
+  say(`hostile files: ${t.run} cases run (seed ${seed}), ${t.passed} passed (${kinds}); ${t.failures.length} failed, all ${(now() - t0).toFixed(1)} s`);
+  for (const f of t.failures.slice(0, 10)) say(`      FAILED ${f.split('\n')[0]}`);
+  if (t.failures.length > 0 || t.run < n) ok = false;
 }
 
 // ---- save faults

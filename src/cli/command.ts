@@ -4,9 +4,17 @@ import type { ResolvedProject } from '../core/project';
 /** What a command gives back: one JSON document for --json, a human text otherwise, and files to write. */
 export interface CommandResult {
   json: unknown;
-  text: string;
-  /** path -> contents, written by the CLI after the command succeeds (e.g. --csv FILE) */
-  files?: Array<{ path: string; contents: string }>;
+  /**
+   * The human text, one entry per line. The CLI makes each entry visible (src/cli/terminal.ts), so
+   * a name from a file that holds a newline or a bidirectional control cannot add or reorder lines.
+   */
+  lines: string[];
+  /**
+   * Files to write after the command succeeds: the contents for the file named by an option of
+   * kind 'output' (e.g. `{ flag: 'csv' }` for --csv FILE). The CLI writes them atomically and has
+   * refused, before running, a path that is the project file itself (src/cli/output-files.ts).
+   */
+  files?: Array<{ flag: string; contents: string }>;
 }
 
 export interface Command {

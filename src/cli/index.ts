@@ -1,12 +1,15 @@
 #!/usr/bin/env node
 // Torquewise command line: `npm run -s cli -- <command> <project.json> [options]`.
 // Exit codes: 0 ok, 2 bad input (one line per problem, each naming its field), 1 internal error.
-import { readFileSync, statSync, writeFileSync } from 'node:fs';
-import { parseArgs, checkFlags } from './args';
+import { parseArgs, checkFlags, type FlagSpec } from './args';
 import type { Command } from './command';
 import { isInputError, InputError, problemLines } from '../core/errors';
 import { loadProjectText } from '../core/project';
 import { COMMANDS } from './commands/registry';
+import { nodeFs, type FsLayer } from '../node/fs-layer';
+import { DEFAULT_PROJECT_FILE_OPTIONS, ProjectReadError, readProjectText } from '../node/project-file';
+import { checkOutputPaths, writeOutputs } from './output-files';
+import { terminalJson, terminalText, visible } from './terminal';
 
 function usage(): string {
   const lines = ['usage: npm run -s cli -- <command> <project.json> [options] [--json]', '', 'commands:'];
@@ -14,35 +17,17 @@ function usage(): string {
   return lines.join('\n');
 }
 
-/** Largest project file read, bytes: a project is a few kilobytes; anything near this is not one. */
-export const MAX_PROJECT_BYTES = 50 * 1024 * 1024;
+/** Largest project file read, bytes: the app's limit (src/node/project-file.ts); a project is a few kilobytes. */
+export const MAX_PROJECT_BYTES = DEFAULT_PROJECT_FILE_OPTIONS.maxBytes;
 
-/** The project file's text: a regular file only (a device or a pipe could block forever), of bounded size. */
-function readProjectFile(path: string): string {
-  let size: number;
+/** The project file's text, read as the app reads it (regular file, bounded size, strict UTF-8). */
+async function readProjectFile(path: string, fs: FsLayer): Promise<string> {
   try {
-    const st = statSync(path);
-    if (!st.isFile()) throw new InputError('project file', `'${visible(path)}' is not a regular file`);
-    size = st.size;
+    return await readProjectText(path, { fs, maxBytes: MAX_PROJECT_BYTES });
   } catch (e) {
-    if (isInputError(e)) throw e;
-    throw new InputError('project file', `'${visible(path)}' cannot be read (${(e as NodeJS.ErrnoException).code ?? 'unreadable'})`);
+    if (e instanceof ProjectReadError) throw new InputError('project file', `'${visible(path)}' ${e.why}`);
+    throw e;
   }
-  if (size > MAX_PROJECT_BYTES) throw new InputError('project file', `'${visible(path)}' is ${(size / 1048576).toFixed(0)} MB; a project file is at most ${MAX_PROJECT_BYTES / 1048576} MB`);
-  try {
-    return readFileSync(path, 'utf8');
-  } catch (e) {
-    throw new InputError('project file', `'${visible(path)}' cannot be read (${(e as NodeJS.ErrnoException).code ?? 'unreadable'})`);
-  }
-}
-
-/**
- * Text for a terminal: control characters other than newline and tab (from names, labels or keys
- * in a file) are written as \u escapes, so a file cannot move the cursor, clear the screen or
- * fake lines of output.
- */
-export function visible(s: string): string {
-  return s.replace(/[\u0000-\u0008\u000b-\u001f\u007f-\u009f]/g, (c) => `\\u${c.charCodeAt(0).toString(16).padStart(4, '0')}`);
 }
 
 /** The sinks main writes to (process.stdout and process.stderr, or a test's collector). */
@@ -50,7 +35,14 @@ export interface TextSink {
   write(s: string): unknown;
 }
 
-export async function main(argv: readonly string[], out: TextSink = process.stdout, err: TextSink = process.stderr): Promise<number> {
+export interface MainOptions {
+  /** the file system (a test injects faults here); node:fs by default */
+  fs?: FsLayer;
+  platform?: string;
+}
+
+export async function main(argv: readonly string[], out: TextSink = process.stdout, err: TextSink = process.stderr, options: MainOptions = {}): Promise<number> {
+  const fs = options.fs ?? nodeFs;
   try {
     const args = parseArgs(argv);
     if (args.command === '' || args.command === 'help' || args.flags.has('help')) {
@@ -59,21 +51,18 @@ export async function main(argv: readonly string[], out: TextSink = process.stdo
     }
     const cmd: Command | undefined = COMMANDS.find((c) => c.name === args.command);
     if (!cmd) throw new InputError('command', `'${args.command}' is unknown; use one of: ${COMMANDS.map((c) => c.name).join(', ')}`);
-    checkFlags(args, { ...cmd.flags, json: 'switch' });
+    const spec: FlagSpec = { ...cmd.flags, json: 'switch' };
+    checkFlags(args, spec);
     if (!args.file) throw new InputError('project file', `is missing: ${cmd.usage}`);
     if (args.extra.length > 0) throw new InputError('arguments', `'${args.extra[0]}' is not expected after the project file: ${cmd.usage}`);
-    const text = readProjectFile(args.file);
+    const text = await readProjectFile(args.file, fs);
+    // output paths are checked before any work: a long run never ends in a refusal to write
+    await checkOutputPaths(args, spec, args.file, fs);
     const project = loadProjectText(text);
-    if (project.readOnly) err.write(`torquewise: note: ${project.findings.find((f) => f.code === 'newer-format')?.message ?? 'the file is of a newer format version and is read here read-only'}\n`);
+    if (project.readOnly) err.write(`torquewise: note: ${visible(project.findings.find((f) => f.code === 'newer-format')?.message ?? 'the file is of a newer format version and is read here read-only')}\n`);
     const result = await cmd.run(project, args);
-    for (const f of result.files ?? []) {
-      try {
-        writeFileSync(f.path, f.contents);
-      } catch (e) {
-        throw new InputError(`output file`, `'${f.path}' cannot be written (${(e as NodeJS.ErrnoException).code ?? 'error'})`);
-      }
-    }
-    out.write(args.flags.has('json') ? JSON.stringify(result.json) + '\n' : visible(result.text).replace(/\n?$/, '\n'));
+    for (const w of await writeOutputs(result.files, args, fs, options.platform)) err.write(`torquewise: note: ${visible(w)}\n`);
+    out.write(args.flags.has('json') ? terminalJson(result.json) : terminalText(result.lines));
     return 0;
   } catch (e) {
     if (isInputError(e)) {
@@ -81,7 +70,9 @@ export async function main(argv: readonly string[], out: TextSink = process.stdo
       for (const line of problemLines(e)) err.write(`torquewise: ${visible(line)}\n`);
       return 2;
     }
-    err.write(`torquewise: internal error: ${visible(e instanceof Error ? e.message : String(e))}\n`);
+    // a defect, not bad input: its kind only, never the text of whatever threw (a library's or the engine's own words)
+    const kind = e instanceof Error && /^[A-Za-z]{1,40}$/.test(e.name) ? e.name : 'unknown';
+    err.write(`torquewise: internal error (${kind}): a defect of Torquewise, not of the input; please report the command and the project file\n`);
     return 1;
   }
 }

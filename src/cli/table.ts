@@ -1,9 +1,14 @@
-/** Plain fixed-width table for terminals: header row with units, right-aligned numbers. */
-export function table(header: readonly string[], rows: ReadonlyArray<ReadonlyArray<string | number>>, digits = 4): string {
-  const cells = rows.map((r) => r.map((c) => (typeof c === 'number' ? fmt(c, digits) : c)));
+import { visible } from './terminal';
+
+/**
+ * Plain fixed-width table for terminals, as lines: header row with units, right-aligned numbers.
+ * Text cells (labels from a file) are made visible before they are measured, so columns stay aligned.
+ */
+export function table(header: readonly string[], rows: ReadonlyArray<ReadonlyArray<string | number>>, digits = 4): string[] {
+  const cells = rows.map((r) => r.map((c) => (typeof c === 'number' ? fmt(c, digits) : visible(c))));
   const width = header.map((h, j) => Math.max(h.length, ...cells.map((r) => (r[j] ?? '').length)));
   const line = (r: readonly string[]) => r.map((c, j) => c.padStart(width[j]!)).join('  ');
-  return [line(header), line(width.map((w) => '-'.repeat(w))), ...cells.map(line)].join('\n');
+  return [line(header), line(width.map((w) => '-'.repeat(w))), ...cells.map(line)];
 }
 
 export function fmt(x: number, digits = 4): string {

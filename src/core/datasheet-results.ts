@@ -63,8 +63,8 @@ export function computeDatasheetResults(p: ResolvedProject, opts: Partial<Datash
     curves,
     constantsHot: deriveConstants(p.hot),
     constantsCold: deriveConstants(p.cold),
-    sizing: sizeDrive(p.hot, p.inverter, p.requirements),
-    sizingCold: sizeDrive(p.cold, p.inverter, p.requirements),
+    sizing: sizeDrive(p.hot, p.inverter, p.requirements, p.currentLimits),
+    sizingCold: sizeDrive(p.cold, p.inverter, p.requirements, p.currentLimits),
     safety: safetyReport(p.cold, p.inverter, safetySpeed, p.rated.maxSpeed_rad_s !== undefined),
     safetySpeed,
   };

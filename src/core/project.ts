@@ -13,6 +13,7 @@ import { defaultConditions, parseProject, type ProjectFile } from './schema';
 import { solveOperatingPoint } from './operating-point';
 import { mtpaTorque } from './mtpa';
 import { migrateProject } from './migrate';
+import { findDuplicateKey } from './json-duplicates';
 import { RPM_TO_RAD_S, SQRT2 } from './units';
 
 export interface ResolvedProject {
@@ -87,8 +88,12 @@ function firstBadOffset(text: string): number {
   return lo;
 }
 
-/** Project text -> resolved project (a leading byte-order mark is ignored). A JSON syntax error is InputError('file', 'is not valid JSON: ...'). */
-export function loadProjectText(source: string): ResolvedProject {
+/**
+ * Project text -> its JSON value, as every reader takes it (app, worker, CLI): a leading byte-order
+ * mark is ignored; a syntax error is InputError('file', 'is not valid JSON: ... at line L column C');
+ * a key given twice in one object is InputError naming its path (JSON.parse would keep the last).
+ */
+export function parseProjectJson(source: string): unknown {
   // a UTF-8 byte-order mark, as some editors write it, is not JSON: drop it
   const text = source.charCodeAt(0) === 0xfeff ? source.slice(1) : source;
   let json: unknown;
@@ -103,6 +108,14 @@ export function loadProjectText(source: string): ResolvedProject {
     const lead = (reason || 'unexpected input').replace(/[\u0000-\u001f\u007f-\u009f\ufeff]/g, (c) => `U+${c.charCodeAt(0).toString(16).toUpperCase().padStart(4, '0')}`);
     throw new InputError('file', `is not valid JSON: ${lead}${where ? ` at line ${where.line} column ${where.column}` : ''}`);
   }
+  const dup = findDuplicateKey(text);
+  if (dup) throw new InputError(dup.path, 'is given twice in one object; give each key once (which of the values was meant is a guess)');
+  return json;
+}
+
+/** Project text -> resolved project (parseProjectJson, then migrate, validate and resolve). */
+export function loadProjectText(source: string): ResolvedProject {
+  const json = parseProjectJson(source);
   const m = migrateProject(json);
   if (!m.readOnly && m.fromVersion === m.json['version']) return resolveProject(parseProject(json));
   let rp: ResolvedProject;

@@ -259,6 +259,9 @@ class Rk4 {
 // The derivative and error-scale callbacks handed to the integrator: module-level functions that
 // read the running simulation's plant and floors (runSimulation is synchronous; it saves and
 // restores them, so a nested run from a progress callback is safe).
+/** Thrown inside a period when the integrator needs more than 2000 steps for it. */
+class StepCollapse extends Error {}
+
 let activePlant: Plant | null = null;
 let activeFloors: Float64Array = new Float64Array(STATE_SIZE_);
 function plantDeriv(dydt: Float64Array, y: Float64Array, t: number): void {
@@ -546,7 +549,7 @@ export function runSimulation(setup: SimulationSetup, opts: RunOptions = {}): Si
           integ.dt = tEnd - tStart < Ts ? tEnd - tStart : Ts;
           let g = 0;
           while (g++ < 2000 && integ.step(tEnd)) { /* steps until the segment end */ }
-          if (g >= 2000) throw new Error('step size collapsed (more than 2000 steps in one control period)');
+          if (g >= 2000) throw new StepCollapse();
           integ.t = tEnd;
           if (tEnd >= t1) break;
           tStart = tEnd;
@@ -566,8 +569,12 @@ export function runSimulation(setup: SimulationSetup, opts: RunOptions = {}): Si
         }
       }
     } catch (err) {
-      const why = err instanceof Error ? err.message : String(err);
-      diagnostic = `diverged at t = ${t0.toPrecision(6)} s: integration failed (${why}); state id = ${y[I_D]} A, iq = ${y[I_Q]} A, speed = ${(y[OMEGA]! * RAD_S_TO_RPM).toPrecision(6)} rpm`;
+      // Our own words, never the integrator library's text: what stopped it, at what time and state.
+      const why = err instanceof StepCollapse
+        ? 'the step size collapsed (more than 2000 integration steps in one control period)'
+        : 'the integrator could not take a step (its error estimate was not finite: a derivative grew without bound)';
+      const st = (x: number): string => (Number.isFinite(x) ? x.toPrecision(6) : 'not finite');
+      diagnostic = `diverged at t = ${t0.toPrecision(6)} s: ${why}; state id = ${st(y[I_D]!)} A, iq = ${st(y[I_Q]!)} A, speed = ${st(y[OMEGA]! * RAD_S_TO_RPM)} rpm (check the gains, the delay and the scenario)`;
       events.push({ kind: 'divergence', t_s: t0, message: diagnostic });
       stopped = true;
       k++;

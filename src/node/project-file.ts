@@ -8,6 +8,7 @@ import { MAX_PROJECT_BYTES, PROJECT_FORMAT, PROJECT_VERSION } from '../core/sche
 import type { OpenResult, SaveResult } from '../types/bridge';
 import { atomicWrite } from './atomic-write';
 import { describeFsError, nodeFs, type FsLayer } from './fs-layer';
+import { firstInvalidUtf8 } from '../core/utf8';
 
 export { PROJECT_FORMAT, PROJECT_VERSION };
 
@@ -46,24 +47,58 @@ export function projectHeader(text: string): HeaderVerdict {
   return { kind: 'ok' };
 }
 
-export async function openProjectFile(path: string, options: ProjectFileOptions = {}): Promise<OpenResult> {
+/**
+ * Why a project file could not be read, as a phrase that follows the file's name: "does not
+ * exist", "is not UTF-8 text (...)". The CLI prints `project file 'NAME' <why>`, the app
+ * `Could not open "NAME": it <why>.`
+ */
+export class ProjectReadError extends Error {
+  constructor(readonly why: string) {
+    super(why);
+    this.name = 'ProjectReadError';
+  }
+}
+
+/** Bytes of a project file -> its text: strict UTF-8 (the first bad byte named by its offset), a leading byte-order mark dropped. */
+export function decodeProjectBytes(bytes: Uint8Array): string {
+  const bad = firstInvalidUtf8(bytes);
+  if (bad >= 0) throw new ProjectReadError(`is not UTF-8 text (an invalid byte sequence at byte offset ${bad}, starting with 0x${bytes[bad]!.toString(16).toUpperCase().padStart(2, '0')})`);
+  const text = new TextDecoder('utf-8', { ignoreBOM: true }).decode(bytes); // valid by now
+  return text.charCodeAt(0) === 0xfeff ? text.slice(1) : text;
+}
+
+/**
+ * The one way a project file is read, by the app and the CLI alike: a regular file only (a device
+ * or a pipe could block forever), at most `maxBytes`, strict UTF-8. Throws ProjectReadError.
+ */
+export async function readProjectText(path: string, options: Pick<ProjectFileOptions, 'fs' | 'maxBytes'> = {}): Promise<string> {
   const fs = options.fs ?? nodeFs;
   const maxBytes = options.maxBytes ?? DEFAULT_PROJECT_FILE_OPTIONS.maxBytes;
+  let buf: Uint8Array;
+  try {
+    const st = await fs.stat(path);
+    if (!st) throw new ProjectReadError('does not exist');
+    if (!st.isFile) throw new ProjectReadError('is not a regular file');
+    if (st.size > maxBytes) throw new ProjectReadError(`is ${st.size} bytes, more than the ${maxBytes} bytes a project file may have`);
+    buf = await fs.readFile(path);
+  } catch (e) {
+    if (e instanceof ProjectReadError) throw e;
+    throw new ProjectReadError(`cannot be read: ${describeFsError(e)}`);
+  }
+  // the file may have grown between the stat and the read
+  if (buf.length > maxBytes) throw new ProjectReadError(`is ${buf.length} bytes, more than the ${maxBytes} bytes a project file may have`);
+  return decodeProjectBytes(buf);
+}
+
+export async function openProjectFile(path: string, options: ProjectFileOptions = {}): Promise<OpenResult> {
   const name = basename(path);
   const fail = (why: string): OpenResult => ({ ok: false, canceled: false, message: `Could not open "${name}": ${why}.` });
   let text: string;
   try {
-    const st = await fs.stat(path);
-    if (!st) return fail('the file does not exist');
-    if (!st.isFile) return fail('it is not a file');
-    if (st.size > maxBytes) return fail(`it is ${st.size} bytes, more than the ${maxBytes} bytes a project may have`);
-    const buf = await fs.readFile(path);
-    text = new TextDecoder('utf-8', { fatal: true }).decode(buf);
+    text = await readProjectText(path, options);
   } catch (e) {
-    if (e instanceof TypeError) return fail('it is not UTF-8 text');
-    return fail(describeFsError(e));
+    return fail(e instanceof ProjectReadError ? `it ${e.why}` : 'it cannot be read');
   }
-  if (text.charCodeAt(0) === 0xfeff) text = text.slice(1);
   const header = projectHeader(text);
   if (header.kind === 'newer') {
     return {

@@ -1,5 +1,3 @@
-import { statSync } from 'node:fs';
-import { resolve } from 'node:path';
 import type { Command } from '../command';
 import { numberFlag, stringFlag } from '../args';
 import { InputError } from '../../core/errors';
@@ -9,19 +7,6 @@ import { isoDate } from '../../core/figure-conditions';
 import { PLOT_SPEED_MAX_RPM } from '../../core/speed-range';
 import { radSToRpm, rpmToRadS } from '../../core/units';
 import { TOOL_VERSION } from '../../core/version';
-import { atomicWrite } from '../../node/atomic-write';
-
-/** True when both paths name the same file (the same path, or one file reached two ways). */
-function sameFile(a: string, b: string): boolean {
-  if (resolve(a) === resolve(b)) return true;
-  try {
-    const sa = statSync(a);
-    const sb = statSync(b);
-    return sa.dev === sb.dev && sa.ino === sb.ino;
-  } catch {
-    return false;
-  }
-}
 
 /**
  * The date printed on the datasheet: today (UTC), or the day of SOURCE_DATE_EPOCH (seconds) when
@@ -37,13 +22,10 @@ export const datasheetCommand: Command = {
   name: 'datasheet',
   summary: 'the datasheet as one self-contained HTML file (the same the app exports)',
   usage: 'datasheet <project.json> --out FILE.html [--step RPM] [--speed-max RPM] [--points N] [--json]',
-  flags: { out: 'string', step: 'number', 'speed-max': 'number', points: 'number' },
-  async run(p, args) {
+  flags: { out: 'output', step: 'number', 'speed-max': 'number', points: 'number' },
+  run(p, args) {
     const out = stringFlag(args, 'out');
     if (out === undefined || out.trim() === '') throw new InputError('--out', 'is required: the HTML file to write, e.g. --out datasheet.html');
-    if (args.file !== undefined && sameFile(out, args.file)) {
-      throw new InputError('--out', `names the project file itself ('${out}'); choose another file for the datasheet`);
-    }
     const speedMax = numberFlag(args, 'speed-max', { min: 1, max: PLOT_SPEED_MAX_RPM, unit: 'rpm' });
     const points = numberFlag(args, 'points', { min: 2, max: 100000, integer: true });
     const step = numberFlag(args, 'step', { unit: 'rpm' });
@@ -53,8 +35,6 @@ export const datasheetCommand: Command = {
     });
     const date = datasheetDate();
     const html = datasheetHtml(r, { date, tableStep_rpm: step, stepField: '--step' });
-    const res = await atomicWrite(out, html);
-    if (!res.ok) throw new InputError('--out', `'${out}' cannot be written: ${res.message}`);
     const bytes = Buffer.byteLength(html, 'utf8');
     const tableStep = datasheetTableStep(r, { tableStep_rpm: step });
     const total = r.sizing.points.length;
@@ -76,11 +56,12 @@ export const datasheetCommand: Command = {
       },
       cautions: r.safety.findings.length + p.findings.filter((f) => f.severity !== 'info').length,
     };
-    const text = [
+    // written by the CLI after this returns, atomically, never over the project file (src/cli/output-files.ts)
+    const lines = [
       `${p.name}: datasheet written to ${out} (${bytes} bytes, ${date}, Torquewise ${TOOL_VERSION})`,
       `curves 0 to ${Math.round(json.speedMax_rpm)} rpm; envelope tables every ${tableStep} rpm (${json.tableRows} rows, hot and cold)`,
       `requirement points met hot and cold: ${metBoth} of ${total}`,
-    ].join('\n');
-    return { json, text };
+    ];
+    return { json, lines, files: [{ flag: 'out', contents: html }] };
   },
 };

@@ -2,7 +2,7 @@ import type { Command } from '../command';
 import { csvDocument, type CsvCell } from '../../core/csv';
 import { computeEnvelope, type Envelope } from '../../core/envelope';
 import { PLOT_SPEED_MAX_RPM, projectSpeedRange } from '../../core/speed-range';
-import { numberFlag, stringFlag } from '../args';
+import { numberFlag } from '../args';
 import { table, fmt } from '../table';
 import { peakToRms, radSToRpm, rpmToRadS } from '../../core/units';
 import { describeLimit } from '../../core/current-limits';
@@ -60,7 +60,7 @@ export const envelopeCommand: Command = {
   name: 'envelope',
   summary: 'maximum motoring torque vs speed under Imax, hot corner',
   usage: 'envelope <project.json> [--speed-max RPM] [--points N] [--csv FILE] [--json]',
-  flags: { 'speed-max': 'number', points: 'number', csv: 'string' },
+  flags: { 'speed-max': 'number', points: 'number', csv: 'output' },
   run(p, args) {
     const speedMax = numberFlag(args, 'speed-max', { min: 1, max: PLOT_SPEED_MAX_RPM, unit: 'rpm' });
     const points = numberFlag(args, 'points', { min: 2, max: 100000, integer: true });
@@ -71,18 +71,17 @@ export const envelopeCommand: Command = {
     });
     // the effective current limits and which rating binds each (added beside the envelope's own keys)
     const json = { ...envelopeJson(env), currentLimits: p.currentLimits };
-    const csv = stringFlag(args, 'csv');
     const step = Math.max(1, Math.floor(env.speed.length / 25));
     const rows = json.points.filter((_, k) => k % step === 0 || k === json.points.length - 1)
       .map((q) => [q.speed_rpm, q.torque_Nm, q.power_W / 1e3, q.id_A, q.iq_A, q.current_A, peakToRms(q.current_A), q.voltage_V, q.region]);
-    const text = [
+    const lines = [
       `${p.name}: motoring envelope at the ${describeLimit('peak', p.currentLimits.peak)}, Vmax ${fmt(p.peak.Vmax)} V peak phase, hot corner`,
       '',
-      table(['speed rpm', 'torque N·m', 'power kW', 'id A pk', 'iq A pk', '|i| A pk', '|i| A rms', '|v| V pk', 'region'], rows),
+      ...table(['speed rpm', 'torque N·m', 'power kW', 'id A pk', 'iq A pk', '|i| A pk', '|i| A rms', '|v| V pk', 'region'], rows),
       '',
       `base speed ${fmt(json.baseSpeed_rpm)} rpm, maximum speed ${json.maxSpeed_rpm === null ? 'unbounded (psiM/Ld inside the current limit)' : fmt(json.maxSpeed_rpm) + ' rpm'}, ` +
         `characteristic current ${fmt(json.characteristicCurrent_A)} A peak (${fmt(peakToRms(json.characteristicCurrent_A))} A rms), torque accuracy ${fmt(env.accuracy, 2)} relative`,
-    ].join('\n');
-    return { json, text, ...(csv ? { files: [{ path: csv, contents: envelopeCsv(env, { name: p.name, Vmax: p.peak.Vmax, limits: p.currentLimits }) }] } : {}) };
+    ];
+    return { json, lines, ...(args.flags.has('csv') ? { files: [{ flag: 'csv', contents: envelopeCsv(env, { name: p.name, Vmax: p.peak.Vmax, limits: p.currentLimits }) }] } : {}) };
   },
 };

@@ -54,10 +54,10 @@ export const paramsCommand: Command = {
     add('saliency Lq/Ld', '-', (x) => x.saliency);
     add('tau_d', 'ms', (x) => x.tauD_s * 1e3);
     add('tau_q', 'ms', (x) => x.tauQ_s * 1e3);
-    const text = [
+    const lines = [
       `${p.name}`,
       '',
-      table(['quantity', 'unit', '20 °C', `cold ${p.conditions.coldTemp_C} °C`, `hot ${p.conditions.windingTemp_C}/${p.conditions.magnetTemp_C} °C`], rows),
+      ...table(['quantity', 'unit', '20 °C', `cold ${p.conditions.coldTemp_C} °C`, `hot ${p.conditions.windingTemp_C}/${p.conditions.magnetTemp_C} °C`], rows),
       '',
       `limits: Vmax ${fmt(p.peak.Vmax)} V peak phase (${p.inverter.modulation}, Vdc ${fmt(p.inverter.Vdc)} V); ` +
         `current ${describeLimit('peak', p.currentLimits.peak)}, ${describeLimit('continuous', p.currentLimits.continuous)}`,
@@ -75,7 +75,7 @@ export const paramsCommand: Command = {
       ...(findings.length ? findings.map((f) => `  ${findingLine(f)}`) : ['  none']),
       '',
       safety.caution,
-    ].join('\n');
-    return { json, text };
+    ];
+    return { json, lines };
   },
 };

@@ -20,11 +20,11 @@ export const pointCommand: Command = {
     const op = solveOperatingPoint(p.hot, p.peak, rpmToRadS(speed), torque);
     const json = { feasible: op.feasible, id_A: op.id, iq_A: op.iq, current_A: op.current, voltage_V: op.voltage, limitedBy: op.limitedBy, region: op.region, currentLimits: p.currentLimits };
     const verdict = op.feasible ? 'feasible' : `NOT feasible: ${notReachablePhrase(op.limitedBy)}`;
-    const text = [
+    const lines = [
       `${p.name}: ${fmt(torque)} N·m at ${fmt(speed)} rpm (hot corner): ${verdict}`,
       `  id ${fmt(op.id)} A pk, iq ${fmt(op.iq)} A pk, |i| ${fmt(op.current)} A pk = ${fmt(peakToRms(op.current))} A rms (limit: ${describeLimit('peak', p.currentLimits.peak)})`,
       `  |v| ${fmt(op.voltage)} V peak phase (limit ${fmt(p.peak.Vmax)} V), region: ${regionPhrase(op.region)}`,
-    ].join('\n');
-    return { json, text };
+    ];
+    return { json, lines };
   },
 };

@@ -1,6 +1,6 @@
 import type { Command } from '../command';
 import { csvDocument, type CsvCell } from '../../core/csv';
-import { numberFlag, stringFlag } from '../args';
+import { numberFlag } from '../args';
 import { table, fmt, orDash } from '../table';
 import { runSimulation, simulationFindings, simulationFromProject, TRACE_NAMES } from '../../core/simulate';
 import type { CurrentLimits, Finding } from '../../core/types';
@@ -51,21 +51,20 @@ export const simulateCommand: Command = {
   name: 'simulate',
   summary: 'cascade simulation of the scenario: metrics, events, traces',
   usage: 'simulate <project.json> [--max-points N] [--csv FILE] [--json]',
-  flags: { csv: 'string', 'max-points': 'number' },
+  flags: { csv: 'output', 'max-points': 'number' },
   run(p, args) {
     const setup = simulationFromProject(p);
     // trace length per channel (min/max decimated; the metrics always use every sample), bounded so
     // that memory stays bounded (MAX_TRACE_POINTS)
     const maxPoints = numberFlag(args, 'max-points', { min: 2, max: MAX_TRACE_POINTS, integer: true });
     const r = runSimulation(setup, maxPoints !== undefined ? { maxPoints } : {});
-    const csv = stringFlag(args, 'csv');
-    const { json, text } = simulationReport(p, setup, r);
-    return { json, text, ...(csv ? { files: [{ path: csv, contents: simulationCsv(r) }] } : {}) };
+    const { json, lines } = simulationReport(p, setup, r);
+    return { json, lines, ...(args.flags.has('csv') ? { files: [{ flag: 'csv', contents: simulationCsv(r) }] } : {}) };
   },
 };
 
-/** The simulate command's document and text for a finished run (also what the fuzz checks). */
-export function simulationReport(p: ResolvedProject, setup: SimulationSetup, r: SimulationResult): { json: ReturnType<typeof simulationJson> & { currentLimits: CurrentLimits }; text: string } {
+/** The simulate command's document and text lines for a finished run (also what the fuzz checks). */
+export function simulationReport(p: ResolvedProject, setup: SimulationSetup, r: SimulationResult): { json: ReturnType<typeof simulationJson> & { currentLimits: CurrentLimits }; lines: string[] } {
   const m = r.metrics;
   const c = setup.controller;
   const rows: Array<[string, string, string]> = [
@@ -88,12 +87,12 @@ export function simulationReport(p: ResolvedProject, setup: SimulationSetup, r: 
       (c.mode === 'speed' ? `; speed PI: Kp ${fmt(c.speed.Kp)} N·m·s/rad, Ki ${fmt(c.speed.Ki)} N·m/rad` : ''),
     `current reference limited to the ${describeLimit('peak', p.currentLimits.peak)}`,
     '',
-    table(['metric', 'value', 'unit'], rows),
+    ...table(['metric', 'value', 'unit'], rows),
     '',
   ];
   if (r.loadSteps.length > 1 || r.loadSteps.some((l) => !l.settled)) {
     lines.push('load steps (each from its time to the next event):');
-    lines.push(table(['at ms', 'dip rpm', 'recovery ms', 'error at step rpm'], r.loadSteps.map((l) => [
+    lines.push(...table(['at ms', 'dip rpm', 'recovery ms', 'error at step rpm'], r.loadSteps.map((l) => [
       fmt(l.t_s * 1e3), l.settled ? orDash(l.dip_rpm) : 'not settled', orDash(l.recovery_s === null ? null : l.recovery_s * 1e3), orDash(l.errorAtStep_rpm),
     ])));
     lines.push('');
@@ -102,7 +101,7 @@ export function simulationReport(p: ResolvedProject, setup: SimulationSetup, r: 
   else {
     lines.push('events:');
     const shown = r.events.slice(0, 30);
-    lines.push(table(['kind', 'from ms', 'to ms', 'what'], shown.map((e) => [e.kind, fmt(e.t_s * 1e3), e.tEnd_s === undefined ? '-' : fmt(e.tEnd_s * 1e3), e.message])));
+    lines.push(...table(['kind', 'from ms', 'to ms', 'what'], shown.map((e) => [e.kind, fmt(e.t_s * 1e3), e.tEnd_s === undefined ? '-' : fmt(e.tEnd_s * 1e3), e.message])));
     if (r.events.length > shown.length) lines.push(`... ${r.events.length - shown.length} more (see --json)`);
   }
   const findings = simulationFindings(r, setup).filter((f) => f.code !== 'simulation-stopped');
@@ -117,5 +116,5 @@ export function simulationReport(p: ResolvedProject, setup: SimulationSetup, r: 
   if (p.inverter.Vdc > 60) {
     lines.push(`caution: a ${fmt(p.inverter.Vdc)} V DC bus is hazardous; work on it only under local codes, licensed practice and IEC 61800-5-1.`);
   }
-  return { json: { ...simulationJson(r, findings), currentLimits: p.currentLimits }, text: lines.join('\n') };
+  return { json: { ...simulationJson(r, findings), currentLimits: p.currentLimits }, lines };
 }

@@ -49,11 +49,11 @@ export const sizeCommand: Command = {
       return `  ${q.label} (${q.duty} duty): ${q.met ? 'met' : 'NOT met'}, ${q.headroomNote}${c.met === q.met ? '' : `; cold corner: ${c.met ? 'met' : 'NOT met'}, ${c.headroomNote}`}`;
     });
     const imax = (x: number | null) => (x === null ? 'none (a point lies beyond MTPV)' : `${fmt(x)} A pk = ${fmt(peakToRms(x))} A rms`);
-    const text = [
+    const lines = [
       `${p.name}: sizing at Vdc ${fmt(p.inverter.Vdc)} V (hot corner figures)`,
       `current limits: ${describeLimit('peak', p.currentLimits.peak)}; ${describeLimit('continuous', p.currentLimits.continuous)}`,
       '',
-      table(['point', 'speed rpm', 'torque N·m', 'duty', 'met hot', 'avail. N·m', '|i| A pk', 'i room A', '|v| V pk', 'v room V', 'short N·m', 'binds (hot)', 'met cold'], rows),
+      ...table(['point', 'speed rpm', 'torque N·m', 'duty', 'met hot', 'avail. N·m', '|i| A pk', 'i room A', '|v| V pk', 'v room V', 'short N·m', 'binds (hot)', 'met cold'], rows),
       '',
       'per point (hot corner):',
       ...notes,
@@ -61,7 +61,7 @@ export const sizeCommand: Command = {
       `least Imax at this bus: hot ${imax(hot.minImax)}; cold ${imax(cold.minImax)}`,
       ...(hot.minIcont !== undefined ? [`least continuous current for the continuous points: hot ${imax(hot.minIcont)}; cold ${imax(cold.minIcont ?? null)}`] : []),
       `least Vdc at these current limits: hot ${hot.minVdc === null ? 'none' : fmt(hot.minVdc) + ' V'}; cold ${cold.minVdc === null ? 'none' : fmt(cold.minVdc) + ' V'}`,
-    ].join('\n');
-    return { json, text };
+    ];
+    return { json, lines };
   },
 };

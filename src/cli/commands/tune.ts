@@ -40,15 +40,15 @@ export const tuneCommand: Command = {
         `speed loop every ${input.speedLoopDivider} period(s), inertia ${fmt(input.inertia)} kg·m² (motor + load), hot corner`,
       `current loop: ${'bandwidth_Hz' in input.current ? `internal model control at ${fmt(input.current.bandwidth_Hz)} Hz` : 'gains from the file'}; speed loop: ${rule} (equivalent lag ${fmt(r.speedLagEquivalent_s * 1e6)} µs)`,
       '',
-      table(
+      ...table(
         ['loop', 'Kp', 'Kp unit', 'Ki', 'Ki unit', 'design Hz', 'crossover Hz', 'bandwidth -3 dB Hz', 'phase margin deg', 'gain margin dB', 'peaking dB', 'PM continuous approx. deg'],
         loops.map(([name, l, ku, kiu]) => [name, fmt(l.Kp), ku, fmt(l.Ki), kiu, fmt(l.design_Hz), orDash(l.crossover_Hz), l.phaseMargin_deg !== null && l.phaseMargin_deg <= 0 ? '- (unstable)' : orDash(l.bandwidth_Hz), orDash(l.phaseMargin_deg), orDash(l.gainMargin_dB), orDash(l.peaking_dB), orDash(l.continuous.phaseMargin_deg)]),
       ),
       '',
-      r.warnings.length === 0 ? 'warnings: none' : ['warnings:', ...r.warnings.map((w) => `  ${findingLine(w)}`)].join('\n'),
+      ...(r.warnings.length === 0 ? ['warnings: none'] : ['warnings:', ...r.warnings.map((w) => `  ${findingLine(w)}`)]),
       'margins of the sampled loop as the controller runs it (discrete PI, zero-order hold, winding discretised, delay of whole periods), up to half the loop\'s sample rate;',
       'the last column is the continuous approximation (delay e^{-s Td}) for comparison. Cautions: phase margin under 45 deg (danger under 30 deg), gain margin under 6 dB, closed-loop peaking above 3 dB.',
     ];
-    return { json: tuningJson(r, args.flags.has('bode')), text: lines.join('\n') };
+    return { json: tuningJson(r, args.flags.has('bode')), lines };
   },
 };

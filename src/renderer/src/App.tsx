@@ -2,7 +2,7 @@
 import { useCallback, useEffect, useMemo, useRef, useState } from 'react';
 import { checkProject, listCapProblem, parseProject } from '../../core/schema';
 import { migrateProject } from '../../core/migrate';
-import { resolveProject, type ResolvedProject } from '../../core/project';
+import { parseProjectJson, resolveProject, type ResolvedProject } from '../../core/project';
 import { isInputError } from '../../core/errors';
 import type { MenuEvent } from '../../types/bridge';
 import { DEMOS, DEFAULT_DEMO } from './demos';
@@ -103,11 +103,12 @@ declare global {
   }
 }
 
-function parseText(text: string): Json | null {
+/** A project text as the CLI and the desktop read it (syntax, duplicate keys), or why it cannot be read. */
+function parseText(text: string): { ok: true; tree: Json } | { ok: false; why: string } {
   try {
-    return JSON.parse(text) as Json;
-  } catch {
-    return null;
+    return { ok: true, tree: parseProjectJson(text) as Json };
+  } catch (e) {
+    return { ok: false, why: isInputError(e) ? e.message : 'is not valid JSON' };
   }
 }
 
@@ -136,7 +137,8 @@ export function App() {
   const [dirty, setDirty] = useState(false);
   const pathRef = useRef<string | null>(null);
   const [store] = useState(() => {
-    const d = newDraft(parseText(demoText(DEFAULT_DEMO)) ?? {});
+    const demo = parseText(demoText(DEFAULT_DEMO));
+    const d = newDraft(demo.ok ? demo.tree : {});
     return new FormStore(d, check(d.tree).issues);
   });
   const [checked, setChecked] = useState<Checked>(() => check(store.getDraft().tree));
@@ -249,17 +251,18 @@ export function App() {
 
 
   const load = useCallback((text: string, src: { name: string; path: string | null; demo: boolean; readOnly: boolean }, message?: string) => {
-    const tree = parseText(text);
-    if (tree === null) {
-      setNotice(`${src.name} is not valid JSON; nothing was changed.`);
+    const parsed = parseText(text);
+    if (!parsed.ok) {
+      setNotice(`${src.name}: ${parsed.why}; nothing was changed.`);
       return false;
     }
     // a list beyond the schema's cap is refused by its length before the form lays it out
-    const tooLong = listCapProblem(tree);
+    const tooLong = listCapProblem(parsed.tree);
     if (tooLong) {
       setNotice(`${src.name} was not opened: ${tooLong.path} ${tooLong.message}; nothing was changed.`);
       return false;
     }
+    const tree = parsed.tree;
     const d = newDraft(tree);
     const c = check(tree);
     store.replace(d, c.issues);
