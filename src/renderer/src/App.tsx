@@ -19,6 +19,7 @@ import { DatasheetView } from './DatasheetView';
 import { envelopeCsv, tracesCsv } from './exports';
 import { lastSimulation } from './LoadStepsView';
 import { exportDatasheetHtml, exportVisiblePlot } from './image-export';
+import { num } from './format';
 
 type View = 'envelope' | 'loadsteps' | 'tuning' | 'datasheet';
 const VIEWS: Array<[View, string]> = [
@@ -445,9 +446,12 @@ function requirementMarks(r: Results | null) {
   if (!r) return [];
   return r.sizing.points.map((pt, i) => {
     const v = pointVerdict(r, i);
-    const why = v.fails === 'cold' ? `not met with the cold magnet (${r.sizingCold.points[i]!.limitedBy})` : `not met (${pt.limitedBy}${v.fails === 'both' ? ', hot and cold' : ', hot magnet'})`;
+    // the verdict says which current limit it was checked against, and the headroom or the shortfall
+    const duty = `${pt.duty} duty, ${pt.duty} current limit ${num(pt.currentLimit_A)} A peak (${pt.currentLimitBinds})`;
+    const cold = r.sizingCold.points[i]!;
+    const why = v.fails === 'cold' ? `not met with the cold magnet (${duty}): ${cold.headroomNote}` : `not met (${duty}${v.fails === 'both' ? ', hot and cold' : ', hot magnet'}): ${pt.headroomNote}`;
     return (
-      <span key={i} className={v.met ? 'pass' : 'fail'} data-testid={`req-mark-${i}`} title={v.met ? 'met, hot and cold' : why}>
+      <span key={i} className={v.met ? 'pass' : 'fail'} data-testid={`req-mark-${i}`} data-duty={pt.duty} title={v.met ? `met, hot and cold (${duty}); hot magnet: ${pt.headroomNote}` : why}>
         {v.met ? 'pass' : 'fail'}
       </span>
     );

@@ -1,5 +1,7 @@
 // Envelope view: torque-speed and power-speed (peak and continuous, motoring and generating, hot and
 // cold), requirement points, region bands, base and maximum speed; beside it the current plane.
+import { describeLimit } from '../../core/current-limits';
+import type { CurrentLimits } from '../../core/types';
 import { memo, useCallback, useMemo, useRef, useState } from 'react';
 import type { Data, Layout } from 'plotly.js-dist-min';
 import { solveOperatingPoint } from '../../core/operating-point';
@@ -26,7 +28,8 @@ function curveStyle(c: Curve, col: (typeof CURVE)['light'] | (typeof CURVE)['dar
   return { color: colour, width: c.current === 'peak' ? 2.4 : 1.6, dash: c.corner === 'hot' ? 'solid' : 'dash' };
 }
 
-const curveName = (c: Curve) => `${c.current === 'peak' ? 'peak' : 'continuous'} current, ${c.corner} magnet`;
+/** A curve's legend name: its effective current limit, which rating binds it, and the magnet corner. */
+const curveName = (c: Curve, limits: CurrentLimits) => `${describeLimit(c.current === 'peak' ? 'peak' : 'continuous', limits[c.current === 'peak' ? 'peak' : 'continuous'])}, ${c.corner} magnet`;
 
 /** Contiguous runs of a region along the reference envelope (feasible points only). */
 export function regionRuns(r: Results): Array<{ region: keyof typeof REGION_NAME; x0: number; x1: number }> {
@@ -76,7 +79,7 @@ export function torqueSpeedFigure(r: Results, theme: 'light' | 'dark', show: Sho
       }
       if (!first) continue;
       const st = curveStyle(first, col);
-      const name = curveName(first);
+      const name = curveName(first, r.project.currentLimits);
       data.push({ type: 'scatter', mode: 'lines', x, y: yT, name, legendgroup: name, line: st, hovertemplate: `${name}<br>%{x:.0f} rpm, %{y:.4g} N·m<extra></extra>` });
       if (withPower) {
         data.push({ type: 'scatter', mode: 'lines', x, y: yP, xaxis: 'x', yaxis: 'y2', name, legendgroup: name, showlegend: false, line: st, hovertemplate: `${name}<br>%{x:.0f} rpm, %{y:.4g} kW<extra></extra>` });
@@ -258,9 +261,9 @@ export function planeFigure(r: Results, theme: 'light' | 'dark', speeds: number[
     return { x, y };
   };
   const ci = circle(Imax);
-  data.push({ type: 'scatter', mode: 'lines', ...ci, name: `|i| = Imax ${num(Imax)} A peak (${num(Imax / SQRT2)} A rms)`, line: { color: t.ink, width: 2 }, hoverinfo: 'skip' });
+  data.push({ type: 'scatter', mode: 'lines', ...ci, name: `|i| = ${describeLimit('peak', p.currentLimits.peak)}`, line: { color: t.ink, width: 2 }, hoverinfo: 'skip' });
   const cc = circle(Icont);
-  data.push({ type: 'scatter', mode: 'lines', ...cc, name: `|i| = Icont ${num(Icont)} A peak (${num(Icont / SQRT2)} A rms)`, line: { color: t.muted, width: 1.4, dash: 'dash' }, hoverinfo: 'skip' });
+  data.push({ type: 'scatter', mode: 'lines', ...cc, name: `|i| = ${describeLimit('continuous', p.currentLimits.continuous)}`, line: { color: t.muted, width: 1.4, dash: 'dash' }, hoverinfo: 'skip' });
   const dashes = ['solid', 'dash', 'dot', 'dashdot', 'longdash', 'longdashdot'];
   const annotations: Record<string, unknown>[] = [];
   const span = 1.2 * Imax;

@@ -286,6 +286,7 @@ export const InputPanel = memo(function InputPanel({ resolved, marks }: { resolv
             { key: 'label', label: 'label', kind: 'text' },
             { key: 'speed_rpm', label: 'speed, rpm' },
             { key: 'torque_Nm', label: 'torque, N·m' },
+            { key: 'duty', label: 'duty', kind: 'select', options: [['peak', 'peak'], ['continuous', 'continuous']] },
           ]}
           blank={{ label: 'new point', speed_rpm: 1000, torque_Nm: 1 }}
           addLabel="requirement point"

@@ -1,4 +1,5 @@
 // Text exports: the envelope and the simulated traces as CSV (numbers straight from the engine).
+import { describeLimits } from '../../core/current-limits';
 import { RAD_S_TO_RPM, SQRT2 } from '../../core/units';
 import type { Results } from './compute';
 
@@ -12,6 +13,7 @@ export function envelopeCsv(r: Results): string {
   const lines: string[] = [];
   lines.push(`# torquewise envelope; project: ${r.project.name || 'unnamed'}`);
   lines.push(`# points=${r.points} speedMax_rad_s=${g(r.speedMax)} curves=${r.curves.map((c) => c.key).join(',')}`);
+  lines.push(`# ${describeLimits(r.project.currentLimits)}; Vmax ${g(r.project.peak.Vmax)} V peak phase`);
   lines.push('# currents in A peak (and rms), voltage in V peak phase, speed mechanical');
   lines.push('curve,speed_rpm,torque_Nm,power_W,id_A,iq_A,current_A_peak,current_A_rms,voltage_V,region');
   for (const c of r.curves) {
