@@ -116,7 +116,7 @@ describe('cli --json documents', () => {
     // 15.75 A against the inverter's 15 A in the speed step; 0.44 ms at the modulation limit
     expect(sim.findings.map((f: { code: string }) => f.code)).toEqual(['current-above-limit', 'voltage-saturation']);
     expect(sim.findings[0].field).toBe('inverter.Imax');
-    expect(sim.currentLimits.peak).toEqual({ A: 15, binds: 'inverter', inverter_A: 15 });
+    expect(sim.currentLimits.peak).toEqual({ A: 15, binds: 'inverter', inverter_A: 15, motor_A: 16 }); // the demo's invented motor peak 16 A
     expect(sim.diagnostic).toBeNull();
     expect(sim.stats.evaluationsPerPeriod).toBe(6);
     // --max-points bounds the trace length; the metrics are the same (they use every sample)
