@@ -1,6 +1,6 @@
 // Envelope view: torque-speed and power-speed (peak and continuous, motoring and generating, hot and
 // cold), requirement points, region bands, base and maximum speed; beside it the current plane.
-import { describeLimit } from '../../core/current-limits';
+import { describeLimit, describeLimits } from '../../core/current-limits';
 import type { CurrentLimits } from '../../core/types';
 import { memo, useCallback, useMemo, useRef, useState } from 'react';
 import type { Data, Layout } from 'plotly.js-dist-min';
@@ -495,6 +495,9 @@ export const EnvelopeView = memo(function EnvelopeView({ results, opts, setOpts,
             <span style={{ color: CURVE[theme].hotCont }}>━ continuous, hot</span>
             <span style={{ color: CURVE[theme].coldCont }}>┅ continuous, cold</span>
             <span>● met ✕ not met</span>
+          </div>
+          <div className="key" aria-label="current limits" data-testid="envelope-limits">
+            <span>{describeLimits(results.project.currentLimits)}</span>
           </div>
           <Plot data={fig.data} layout={fig.layout} height={330} testId="envelope-plot" onHover={onHover} onRelayout={onSpeedZoom} onDrawn={onDrawn} elRef={(el) => (envEl.current = el)} />
           <Plot data={pfig.data} layout={pfig.layout} height={300} testId="power-plot" onRelayout={onSpeedZoom} defer />
