@@ -129,7 +129,7 @@ export const DatasheetView = memo(function DatasheetView({ results, theme }: { r
         </div>
       </div>
       <div className="card">
-        <h4>Sizing verdict per requirement (peak current; figures for the hot magnet, verdicts hot and cold)</h4>
+        <h4>Sizing verdict per requirement (each against the current limit of its duty, peak unless marked continuous; figures for the hot magnet, verdicts hot and cold)</h4>
         <div className="table-scroll">
           <table className="data compact" data-testid="verdicts">
             <thead>
