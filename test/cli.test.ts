@@ -122,7 +122,7 @@ describe('cli --json documents', () => {
       'current-above-limit', 'voltage-saturation',
     ]);
     expect(sim.findings.find((f: { code: string }) => f.code === 'current-above-limit').field).toBe('inverter.Imax');
-    expect(sim.currentLimits.peak).toEqual({ A: 15, binds: 'inverter', inverter_A: 15 });
+    expect(sim.currentLimits.peak).toEqual({ A: 15, binds: 'inverter', inverter_A: 15, motor_A: 16 }); // the demo's invented motor peak 16 A
     expect(sim.diagnostic).toBeNull();
     expect(sim.stats.evaluationsPerPeriod).toBe(6);
     // --max-points bounds the trace length; the metrics are the same (they use every sample)

@@ -1,5 +1,7 @@
 import { describe, expect, it } from 'vitest';
-import { effectiveCurrentLimits } from '../src/core/current-limits';
+import { describeLimit, describeLimits, effectiveCurrentLimits, limitField } from '../src/core/current-limits';
+import { computeEnvelopes, computeVerdicts } from '../src/renderer/src/compute';
+import { envelopeCsv } from '../src/renderer/src/exports';
 import { resolveProject } from '../src/core/project';
 import { parseProject } from '../src/core/schema';
 import { demoJson } from './helpers';
@@ -45,5 +47,29 @@ describe('motor section currents', () => {
     j.motor.peakCurrent = 4;
     j.motor.ratedCurrent = 5;
     expect(() => parseProject(j)).toThrow(/motor\.ratedCurrent.*must be <= motor\.peakCurrent/);
+  });
+});
+
+describe('which limit binds, in words', () => {
+  it('describeLimit gives peak and rms and the binding rating; limitField names its field', () => {
+    const l = effectiveCurrentLimits({ Imax: 450, Icont: 226 }, 160 * Math.SQRT2, 318 * Math.SQRT2);
+    // 318 A rms = 449.7 A peak (a sine's peak is √2 times its rms: common practice (no source))
+    expect(describeLimit('peak', l.peak)).toBe('peak 449.7 A peak (318 A rms): motor');
+    expect(describeLimit('continuous', l.continuous)).toBe('continuous 226 A peak (159.8 A rms): inverter');
+    expect(describeLimits(l)).toBe('current limits: peak 449.7 A peak (318 A rms): motor; continuous 226 A peak (159.8 A rms): inverter');
+    expect(limitField('peak', l.peak)).toBe('motor.peakCurrent');
+    expect(limitField('peak', l.peak, 'nameplate')).toBe('nameplate.peakCurrent');
+    expect(limitField('continuous', l.continuous)).toBe('inverter.Icont');
+  });
+
+  it("the app's envelope CSV states the effective limits and which binds (traction demo: the motor's 318 A rms)", () => {
+    const p = resolveProject(parseProject(demoJson('demo-ipm-traction')));
+    const env = computeEnvelopes(p, { points: 5, speedMax: null });
+    const csv = envelopeCsv({ ...env, ...computeVerdicts(p, env.speedMax) });
+    const head = csv.split('\n').filter((l) => l.startsWith('#'));
+    expect(head).toContain('# current limits: peak 449.7 A peak (318 A rms): motor; continuous 226 A peak (159.8 A rms): inverter; Vmax 190.871999 V peak phase');
+    // the curves are drawn at the effective limit: the standstill current of the peak curve is 449.7 A
+    const first = csv.split('\n').find((l) => l.startsWith('peak-hot-motoring,'))!.split(',');
+    expect(Number(first[6])).toBeCloseTo(318 * Math.SQRT2, 3);
   });
 });

@@ -195,6 +195,26 @@ describe('Torquewise in a browser', () => {
     expect(await page.textContent('[data-testid="taken-as"]')).toMatch(/line-to-line/);
   });
 
+  it('shows every problem beside its field at once, and says which current limit binds', async () => {
+    // traction demo (invented): the motor's peak 318 A rms is below the inverter's 450 A peak
+    expect(await page.textContent('[data-testid="envelope-limits"]')).toBe('current limits: peak 449.7 A peak (318 A rms): motor; continuous 226 A peak (159.8 A rms): inverter');
+    // the rated point is a continuous-duty requirement: its verdict says which limit it was checked against
+    expect(await page.getAttribute('[data-testid="req-mark-1"]', 'data-duty')).toBe('continuous');
+    expect(await page.getAttribute('[data-testid="req-mark-1"]', 'title')).toMatch(/^met, hot and cold \(continuous duty, continuous current limit 226 A peak \(inverter\)\); hot magnet: field weakening, current headroom 48\.16 A peak/);
+    const vdc = await page.inputValue(input('inverter.Vdc'));
+    const icont = await page.inputValue(input('inverter.Icont'));
+    await page.fill(input('inverter.Vdc'), '-1');
+    await page.fill(input('inverter.Icont'), '-5');
+    await page.waitForSelector('.inputs [data-msg-for="inverter.Icont"]');
+    expect(await page.textContent('.inputs [data-msg-for="inverter.Vdc"]')).toContain('must be > 0 V');
+    expect(await page.textContent('.inputs [data-msg-for="inverter.Icont"]')).toContain('must be >=');
+    expect(await page.textContent('[data-testid="status"]')).toContain('2 input problem(s)');
+    await page.fill(input('inverter.Vdc'), vdc);
+    await edit('inverter.Icont', icont);
+    expect(await page.$('.inputs [data-msg-for="inverter.Vdc"]')).toBeNull();
+    expect(await page.$('.inputs [data-msg-for="inverter.Icont"]')).toBeNull();
+  });
+
   it('exports an envelope CSV whose numbers match the engine', async () => {
     const [download] = await Promise.all([page.waitForEvent('download'), page.click('[data-testid="export-csv"]')]);
     // the export says how it went on the status line

@@ -22,6 +22,7 @@ import { exportDatasheetHtml, exportVisiblePlot } from './image-export';
 import { defaultedInputFindings } from '../../core/defaulted-inputs';
 import { limitPhrase } from '../../core/phrases';
 import { FieldNotesContext, FindingsStrip, findingsKey, notesByPath } from './field-notes';
+import { num } from './format';
 
 type View = 'envelope' | 'loadsteps' | 'tuning' | 'datasheet';
 const VIEWS: Array<[View, string]> = [
@@ -484,9 +485,12 @@ function requirementMarks(r: Results | null) {
   if (!r) return [];
   return r.sizing.points.map((pt, i) => {
     const v = pointVerdict(r, i);
-    const why = v.fails === 'cold' ? `not met with the cold magnet (${limitPhrase(r.sizingCold.points[i]!.limitedBy)})` : `not met (${limitPhrase(pt.limitedBy)}${v.fails === 'both' ? ', hot and cold' : ', hot magnet'})`;
+    // the verdict says which current limit it was checked against, and the headroom or the shortfall
+    const duty = `${pt.duty} duty, ${pt.duty} current limit ${num(pt.currentLimit_A)} A peak (${pt.currentLimitBinds === 'motor' ? "motor's rating" : "inverter's rating"})`;
+    const cold = r.sizingCold.points[i]!;
+    const why = v.fails === 'cold' ? `not met with the cold magnet (${duty}): ${cold.headroomNote}` : `not met (${duty}${v.fails === 'both' ? ', hot and cold' : ', hot magnet'}): ${pt.headroomNote}`;
     return (
-      <span key={i} className={v.met ? 'pass' : 'fail'} data-testid={`req-mark-${i}`} title={v.met ? 'met, hot and cold' : why}>
+      <span key={i} className={v.met ? 'pass' : 'fail'} data-testid={`req-mark-${i}`} data-duty={pt.duty} title={v.met ? `met, hot and cold (${duty}); hot magnet: ${pt.headroomNote}` : why}>
         {v.met ? 'pass' : 'fail'}
       </span>
     );

@@ -9,6 +9,7 @@ import { torqueSpeedFigure } from './EnvelopeView';
 import { envelopeCsv } from './exports';
 import { exportAndTell } from './file-bridge';
 import { amps, fixed, num, rpm } from './format';
+import { describeLimits } from '../../core/current-limits';
 import { exportDatasheetHtml, exportPlotImage } from './image-export';
 import { fieldPhrase, limitPhrase, plainMessage, severityPhrase } from '../../core/phrases';
 import { figureConditions, isoDate } from '../../core/figure-conditions';
@@ -81,6 +82,7 @@ export const DatasheetView = memo(function DatasheetView({ results, theme }: { r
     ['electrical time constants', `τd ${tau(c.tauD_s)}, τq ${tau(c.tauQ_s)} (hot)`],
     ['characteristic current ψm/Ld', `${amps(c.characteristicCurrent_A)}, hot; inverter Imax ${amps(p.inverter.Imax)}`],
     ['inverter', `${num(p.inverter.Vdc)} V bus, ${p.inverter.modulation}, Vmax ${num(p.peak.Vmax)} V peak phase; Imax ${amps(p.inverter.Imax)}, Icont ${amps(p.inverter.Icont)}`],
+    ['effective current limits', describeLimits(p.currentLimits).replace(/^current limits: /, '')],
     ['base speed (peak current, hot)', rpm(peakHot.baseSpeed)],
     ['maximum speed (peak current, hot)', peakHot.maxSpeed === null ? 'unbounded (ψm/Ld below Imax)' : rpm(peakHot.maxSpeed)],
     ['peak torque (hot, standstill)', `${num(peakHot.torque[0])} N·m`],
@@ -132,7 +134,7 @@ export const DatasheetView = memo(function DatasheetView({ results, theme }: { r
         </div>
       </div>
       <div className="card">
-        <h4>Sizing verdict per requirement (peak current; figures for the hot magnet, verdicts hot and cold)</h4>
+        <h4>Sizing verdict per requirement (each against the current limit of its duty, peak unless marked continuous; figures for the hot magnet, verdicts hot and cold)</h4>
         <div className="table-scroll">
           <table className="data compact" data-testid="verdicts">
             <thead>
@@ -156,7 +158,7 @@ export const DatasheetView = memo(function DatasheetView({ results, theme }: { r
                 const v = pointVerdict(results, i);
                 return (
                   <tr key={i} data-testid={`verdict-${i}`} data-met={v.met ? 'yes' : 'no'}>
-                    <td>{pt.label}</td>
+                    <td>{pt.label}{pt.duty === 'continuous' ? ' (continuous)' : ''}</td>
                     <td className="num">{num(pt.speed_rpm)} rpm</td>
                     <td className="num">{num(pt.torque_Nm)} N·m</td>
                     <td className="num">{num(pt.torqueAvailable_Nm)} N·m</td>
@@ -164,11 +166,11 @@ export const DatasheetView = memo(function DatasheetView({ results, theme }: { r
                       {num(pt.current_A)} A pk<br />
                       {num(pt.current_A / SQRT2)} A rms
                     </td>
-                    <td className="num">{fixed(pt.currentHeadroom_A, 1)} A pk</td>
+                    <td className="num">{pt.currentHeadroom_A === null ? '–' : `${fixed(pt.currentHeadroom_A, 1)} A pk`}</td>
                     {/* a point out of reach has no operating voltage: what the solver reports there is the need, not a state */}
                     <td className="num" title={pt.met ? undefined : 'not reachable: no operating voltage'}>{pt.met ? `${num(pt.voltage_V)} V pk` : '–'}</td>
                     <td className="num">{pt.met ? `${fixed(pt.voltageHeadroom_V, 1)} V` : '–'}</td>
-                    <td>{limitPhrase(pt.limitedBy)}</td>
+                    <td title={pt.headroomNote}>{pt.met ? (pt.limitedBy === 'none' ? '–' : 'field weakening') : limitPhrase(pt.limitedBy)}</td>
                     <td className={pt.met ? 'pass' : 'fail'}>{pt.met ? 'met' : 'NOT met'}</td>
                     <td className={cold?.met ? 'pass' : 'fail'} title={cold && !cold.met ? `cold magnet: ${limitPhrase(cold.limitedBy)}, ${num(cold.torqueAvailable_Nm)} N·m available` : undefined}>
                       {cold?.met ? 'met' : 'NOT met'}

@@ -1,5 +1,7 @@
 // Envelope view: torque-speed and power-speed (peak and continuous, motoring and generating, hot and
 // cold), requirement points, region bands, base and maximum speed; beside it the current plane.
+import { describeLimit, describeLimits } from '../../core/current-limits';
+import type { CurrentLimits } from '../../core/types';
 import { memo, useCallback, useMemo, useRef, useState } from 'react';
 import type { Data, Layout } from 'plotly.js-dist-min';
 import { solveOperatingPoint } from '../../core/operating-point';
@@ -29,7 +31,8 @@ function curveStyle(c: Curve, col: (typeof CURVE)['light'] | (typeof CURVE)['dar
   return { color: colour, width: c.current === 'peak' ? 2.4 : 1.6, dash: c.corner === 'hot' ? 'solid' : 'dash' };
 }
 
-const curveName = (c: Curve) => `${c.current === 'peak' ? 'peak' : 'continuous'} current, ${c.corner} magnet`;
+/** A curve's legend name: its effective current limit, which rating binds it, and the magnet corner. */
+const curveName = (c: Curve, limits: CurrentLimits) => `${describeLimit(c.current === 'peak' ? 'peak' : 'continuous', limits[c.current === 'peak' ? 'peak' : 'continuous'])}, ${c.corner} magnet`;
 
 /** Contiguous runs of a region along the reference envelope (feasible points only). */
 export function regionRuns(r: Results): Array<{ region: keyof typeof REGION_NAME; x0: number; x1: number }> {
@@ -83,7 +86,7 @@ export function torqueSpeedFigure(r: Results, theme: 'light' | 'dark', show: Sho
       }
       if (!first) continue;
       const st = curveStyle(first, col);
-      const name = curveName(first);
+      const name = curveName(first, r.project.currentLimits);
       // the speeds where the curve stops, labelled once where the motoring and generating ends nearly meet
       const span = r.speedMax * RAD_S_TO_RPM;
       const shown = ends.filter((e, i) => !(e.direction === 'generating' && ends.some((m, j) => j < i && m.direction === 'motoring' && Math.abs(m.rpm - e.rpm) < 0.03 * span)));
@@ -290,9 +293,9 @@ export function planeFigure(r: Results, theme: 'light' | 'dark', speeds: number[
     return { x, y };
   };
   const ci = circle(Imax);
-  data.push({ type: 'scatter', mode: 'lines', ...ci, name: `|i| = Imax ${num(Imax)} A peak (${num(Imax / SQRT2)} A rms)`, line: { color: t.ink, width: 2 }, hoverinfo: 'skip' });
+  data.push({ type: 'scatter', mode: 'lines', ...ci, name: `|i| = ${describeLimit('peak', p.currentLimits.peak)}`, line: { color: t.ink, width: 2 }, hoverinfo: 'skip' });
   const cc = circle(Icont);
-  data.push({ type: 'scatter', mode: 'lines', ...cc, name: `|i| = Icont ${num(Icont)} A peak (${num(Icont / SQRT2)} A rms)`, line: { color: t.muted, width: 1.4, dash: 'dash' }, hoverinfo: 'skip' });
+  data.push({ type: 'scatter', mode: 'lines', ...cc, name: `|i| = ${describeLimit('continuous', p.currentLimits.continuous)}`, line: { color: t.muted, width: 1.4, dash: 'dash' }, hoverinfo: 'skip' });
   const dashes = ['solid', 'dash', 'dot', 'dashdot', 'longdash', 'longdashdot'];
   const annotations: Record<string, unknown>[] = [];
   const span = 1.2 * Imax;
@@ -524,6 +527,9 @@ export const EnvelopeView = memo(function EnvelopeView({ results, opts, setOpts,
             <span style={{ color: CURVE[theme].hotCont }}>━ continuous, hot</span>
             <span style={{ color: CURVE[theme].coldCont }}>┅ continuous, cold</span>
             <span>● met ✕ not met</span>
+          </div>
+          <div className="key" aria-label="current limits" data-testid="envelope-limits">
+            <span>{describeLimits(results.project.currentLimits)}</span>
           </div>
           <Plot data={fig.data} layout={fig.layout} height={330} testId="envelope-plot" onHover={onHover} onRelayout={onSpeedZoom} onDrawn={onDrawn} elRef={(el) => (envEl.current = el)} />
           <Plot data={pfig.data} layout={pfig.layout} height={300} testId="power-plot" onRelayout={onSpeedZoom} defer />

@@ -1,4 +1,5 @@
 // The sections of the input side, laid out from the project schema's keys (units from KEYS).
+import { describeLimits } from '../../core/current-limits';
 import { memo, type ReactNode } from 'react';
 import { KEYS } from '../../core/schema';
 import type { ResolvedProject } from '../../core/project';
@@ -176,6 +177,8 @@ function ModelFields() {
       <NumField path="motor.inertia" label="Rotor inertia" unit="kg·m²" hint={HINTS.kgcm2} />
       <NumField path="motor.viscousFriction" label="Viscous friction" unit="N·m·s/rad" optional />
       <NumField path="motor.coulombFriction" label="Coulomb friction" unit="N·m" optional />
+      <NumField path="motor.ratedCurrent" label="Rated current" unit={unit('motor.ratedCurrent')} optional hint={HINTS.rmsOfPeak} />
+      <NumField path="motor.peakCurrent" label="Peak current" unit={unit('motor.peakCurrent')} optional hint={HINTS.rmsOfPeak} />
     </>
   );
 }
@@ -230,6 +233,7 @@ export const InputPanel = memo(function InputPanel({ resolved, marks }: { resolv
         <SelectField
           path="inverter.modulation"
           label="Modulation"
+          optional
           options={[
             ['sinusoidal', 'sinusoidal PWM (Vdc/2)'],
             ['svpwm', 'SVPWM linear (Vdc/√3)'],
@@ -241,12 +245,14 @@ export const InputPanel = memo(function InputPanel({ resolved, marks }: { resolv
         {resolved && (
           <div className="hint" style={{ fontSize: 12 }}>
             Vmax = {num(resolved.peak.Vmax)} V peak phase ({num(resolved.peak.Vmax * Math.sqrt(1.5))} V line-line rms)
+            <br />
+            <span data-testid="current-limits">{describeLimits(resolved.currentLimits)}</span>
           </div>
         )}
       </Section>
 
       <Section title="Temperatures" testId="sec-temps">
-        <NumField path="conditions.windingTemp_C" label="Winding, hot" unit="°C" />
+        <NumField path="conditions.windingTemp_C" label="Winding, hot" unit="°C" optional placeholder="20" />
         <NumField path="conditions.magnetTemp_C" label="Magnet, hot" unit="°C" optional placeholder="20" />
         <NumField path="conditions.coldTemp_C" label="Cold corner" unit="°C" optional placeholder="20" />
         <NumField path="conditions.magnetTempCoeff" label="Remanence coeff." unit="1/K" optional placeholder="-0.0012" hint={HINTS.perK} />
@@ -286,6 +292,7 @@ export const InputPanel = memo(function InputPanel({ resolved, marks }: { resolv
             { key: 'label', label: 'label', kind: 'text' },
             { key: 'speed_rpm', label: 'speed, rpm' },
             { key: 'torque_Nm', label: 'torque, N·m' },
+            { key: 'duty', label: 'duty', kind: 'select', options: [['peak', 'peak'], ['continuous', 'continuous']] },
           ]}
           blank={{ label: 'new point', speed_rpm: 1000, torque_Nm: 1 }}
           addLabel="requirement point"

@@ -174,7 +174,9 @@ export function Section(props: { title: string; right?: ReactNode; children: Rea
 export interface RowColumn {
   key: string;
   label: string;
-  kind?: 'number' | 'text';
+  kind?: 'number' | 'text' | 'select';
+  /** for kind 'select': [value, label]; the first is what an absent key means */
+  options?: Array<[string, string]>;
 }
 
 /** An editable list of rows (requirement points, steps). */
@@ -204,9 +206,13 @@ export function Rows(props: { path: Path; columns: RowColumn[]; blank: Record<st
         <tbody>
           {Array.from({ length: n }, (_, i) => (
             <tr key={i}>
-              {props.columns.map((c) => (
-                <RowCell key={c.key} path={`${props.path}.${i}.${c.key}`} label={`${c.label}, row ${i + 1}`} text={c.kind === 'text'} />
-              ))}
+              {props.columns.map((c) =>
+                c.kind === 'select' ? (
+                  <RowSelect key={c.key} path={`${props.path}.${i}.${c.key}`} label={`${c.label}, row ${i + 1}`} options={c.options ?? []} />
+                ) : (
+                  <RowCell key={c.key} path={`${props.path}.${i}.${c.key}`} label={`${c.label}, row ${i + 1}`} text={c.kind === 'text'} />
+                ),
+              )}
               {props.marks && <td>{props.marks[i]}</td>}
               <td>
                 <button
@@ -228,6 +234,38 @@ export function Rows(props: { path: Path; columns: RowColumn[]; blank: Record<st
         + {props.addLabel}
       </button>
     </div>
+  );
+}
+
+/** A choice in a row; an absent key shows as the first option (its default). */
+function RowSelect({ path, label, options }: { path: Path; label: string; options: Array<[string, string]> }) {
+  const store = useFormStore();
+  const v = useFormValue((d) => {
+    const x = getAt(d.tree, path);
+    return x === undefined || x === null ? '' : String(x);
+  });
+  const msgs = useMessages(path);
+  return (
+    <td className={msgs.length ? 'invalid' : ''}>
+      <select
+        data-path={path}
+        aria-label={label}
+        value={v || (options[0]?.[0] ?? '')}
+        onChange={(e) => {
+          performance.mark('tw-edit');
+          performance.mark('tw-edit-v');
+          const t = e.target.value;
+          store.update((d) => editValue(d, path, t));
+        }}
+      >
+        {options.map(([value, text]) => (
+          <option key={value} value={value}>{text}</option>
+        ))}
+      </select>
+      {msgs.map((m) => (
+        <div key={m} className="msg" role="alert" data-msg-for={path}>{m}</div>
+      ))}
+    </td>
   );
 }
 

@@ -2,6 +2,7 @@
 // written by the one CSV module the command line uses too (src/core/csv.ts): text quoted, formula
 // starts neutralised, numbers left as numbers.
 import { csvDocument, csvNumber, type CsvCell } from '../../core/csv';
+import { describeLimits } from '../../core/current-limits';
 import { RAD_S_TO_RPM, SQRT2 } from '../../core/units';
 import type { Results } from './compute';
 
@@ -14,6 +15,7 @@ export function envelopeCsv(r: Results): string {
   const rows: CsvCell[][] = [];
   rows.push([`# torquewise envelope; project: ${r.project.name || 'unnamed'}`]);
   rows.push([`# points=${r.points} speedMax_rad_s=${csvNumber(r.speedMax)} curves=${r.curves.map((c) => c.key).join(',')}`]);
+  rows.push([`# ${describeLimits(r.project.currentLimits)}; Vmax ${csvNumber(r.project.peak.Vmax)} V peak phase`]);
   rows.push(['# currents in A peak (and rms), voltage in V peak phase, speed mechanical']);
   rows.push(['curve', 'speed_rpm', 'torque_Nm', 'power_W', 'id_A', 'iq_A', 'current_A_peak', 'current_A_rms', 'voltage_V', 'region']);
   for (const c of r.curves) {
