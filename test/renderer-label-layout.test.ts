@@ -36,3 +36,12 @@ describe('label layout', () => {
     expect(s[2]).toBe(0);
   });
 });
+
+describe('label layout around a curve', () => {
+  it('a label avoids a line drawn through its first choice', () => {
+    // a horizontal line 12 px above the point: "top left" would sit on it, "bottom left" is clear
+    const line = Array.from({ length: 60 }, (_, k) => [k * 8 - 1.5, 88 - 1.5, k * 8 + 1.5, 88 + 1.5] as [number, number, number, number]);
+    const [pos] = chooseTextPositions([{ px: 400, py: 100, text: 'overtake at top speed', candidates: ['top left', 'bottom left', 'middle left'] }], { width: 460, height: 260 }, line);
+    expect(pos).toBe('bottom left');
+  });
+});

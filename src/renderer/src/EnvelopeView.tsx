@@ -162,6 +162,16 @@ export function torqueSpeedFigure(r: Results, theme: 'light' | 'dark', show: Sho
     const [px, py] = toPx(lx[k]!, ly[k]!);
     taken.push(textBox(px, py, lt[k]!, lp[k] as TextPosition));
   }
+  // the drawn curves as obstacles: a label placed on a line is the last resort
+  for (const c of r.curves) {
+    if (!show[c.current] || !show[c.corner] || (c.direction === 'generating' && !show.generating)) continue;
+    const e = c.env;
+    for (let k = 0; k < e.speed.length; k++) {
+      if (!e.feasible[k]) continue;
+      const [px, py] = toPx(e.speed[k]! * RAD_S_TO_RPM, e.torque[k]!);
+      taken.push([px - 1.5, py - 1.5, px + 1.5, py + 1.5]);
+    }
+  }
   const labelOf = (i: number): string => {
     const f = pointVerdict(r, i).fails;
     return f === 'cold' || f === 'hot' ? `${req[i]!.label} (fails ${f})` : req[i]!.label;
