@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { chooseTextPositions, declutterShifts, overlaps, textBox } from '../src/renderer/src/label-layout';
+import { chooseTextPositions, declutterShifts, overlaps, textBox, type TextPosition } from '../src/renderer/src/label-layout';
 
 describe('label layout', () => {
   it('boxes for text positions', () => {
@@ -11,7 +11,7 @@ describe('label layout', () => {
 
   it('two point labels that would run into each other take different positions', () => {
     // "highway" at 300 px and "overtake at top speed" at 420 px, same height: the second cannot sit left on the same line
-    const pos = chooseTextPositions(
+    const pos = chooseTextPositions<TextPosition>(
       [
         { px: 300, py: 120, text: 'highway', candidates: ['middle right', 'middle left', 'top right', 'top left', 'bottom right', 'bottom left'] },
         { px: 420, py: 118, text: 'overtake at top speed', candidates: ['middle left', 'top left', 'bottom left', 'middle right'] },
@@ -41,7 +41,11 @@ describe('label layout around a curve', () => {
   it('a label avoids a line drawn through its first choice', () => {
     // a horizontal line 12 px above the point: "top left" would sit on it, "bottom left" is clear
     const line = Array.from({ length: 60 }, (_, k) => [k * 8 - 1.5, 88 - 1.5, k * 8 + 1.5, 88 + 1.5] as [number, number, number, number]);
-    const [pos] = chooseTextPositions([{ px: 400, py: 100, text: 'overtake at top speed', candidates: ['top left', 'bottom left', 'middle left'] }], { width: 460, height: 260 }, line);
+    const [pos] = chooseTextPositions([{ px: 400, py: 100, text: 'overtake at top speed', candidates: ['top left', 'bottom left', 'middle left'] }], { width: 460, height: 260 }, [], line);
     expect(pos).toBe('bottom left');
+    // a label is never put on another label to keep off a line: the line is the lesser cost
+    const other = textBox(400, 100, 'overtake at top speed', 'bottom left');
+    const [pos2] = chooseTextPositions([{ px: 400, py: 100, text: 'overtake at top speed', candidates: ['top left', 'bottom left'] }], { width: 460, height: 260 }, [other], line);
+    expect(pos2).toBe('top left');
   });
 });

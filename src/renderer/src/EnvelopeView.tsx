@@ -162,53 +162,66 @@ export function torqueSpeedFigure(r: Results, theme: 'light' | 'dark', show: Sho
     const [px, py] = toPx(lx[k]!, ly[k]!);
     taken.push(textBox(px, py, lt[k]!, lp[k] as TextPosition));
   }
-  // the drawn curves as obstacles: a label placed on a line is the last resort
+  // the drawn curves as soft obstacles: a label on a line only when every other place is worse
+  const curvePts: Box[] = [];
   for (const c of r.curves) {
     if (!show[c.current] || !show[c.corner] || (c.direction === 'generating' && !show.generating)) continue;
     const e = c.env;
     for (let k = 0; k < e.speed.length; k++) {
       if (!e.feasible[k]) continue;
       const [px, py] = toPx(e.speed[k]! * RAD_S_TO_RPM, e.torque[k]!);
-      taken.push([px - 1.5, py - 1.5, px + 1.5, py + 1.5]);
+      curvePts.push([px - 1.5, py - 1.5, px + 1.5, py + 1.5]);
     }
   }
   const labelOf = (i: number): string => {
     const f = pointVerdict(r, i).fails;
     return f === 'cold' || f === 'hot' ? `${req[i]!.label} (fails ${f})` : req[i]!.label;
   };
-  const positions = chooseTextPositions(
+  // each label beside its point, or a line or two above or below it where that is clearer
+  const LINE = 15;
+  const perPx = (yRange[1]! - yRange[0]!) / H;
+  type Spot = { line: number; side: 'left' | 'right' };
+  const spots = chooseTextPositions<Spot>(
     req.map((q, i) => {
       const met = pointVerdict(r, i).met;
-      const side = q.speed_rpm > 0.72 * top_rpm ? 'left' : 'right';
-      const other = side === 'left' ? 'right' : 'left';
-      const v = q.torque_Nm >= 0 ? 'top' : 'bottom';
-      const o = v === 'top' ? 'bottom' : 'top';
+      const side: Spot['side'] = q.speed_rpm > 0.72 * top_rpm ? 'left' : 'right';
+      const other: Spot['side'] = side === 'left' ? 'right' : 'left';
+      // a missed point lies outside the envelope: its label prefers the side away from zero torque
+      const away = q.torque_Nm >= 0 ? 1 : -1;
+      const lines = met ? [0, 1, -1, 2, -2] : [away, 0, 2 * away, -away, -2 * away];
       const [px, py] = toPx(q.speed_rpm, q.torque_Nm);
-      // a met point lies inside the envelope (label beside it), a missed one outside (label further out)
-      const candidates = (met
-        ? [`middle ${side}`, `${v} ${side}`, `${o} ${side}`, `middle ${other}`, `${v} ${other}`, `${o} ${other}`]
-        : [`${v} ${side}`, `middle ${side}`, `${o} ${side}`, `${v} ${other}`, `middle ${other}`, `${o} ${other}`]) as TextPosition[];
-      return { px, py, text: labelOf(i), candidates };
+      return { px, py, text: labelOf(i), candidates: [side, other].flatMap((sd) => lines.map((line) => ({ line, side: sd }))) };
     }),
     { width: W, height: H },
     taken,
-  );
+    curvePts,
+    (c, px, py, text) => textBox(px, py - c.line * LINE, text, `middle ${c.side}`),
+  ).map((c) => ({ dy: c.line * LINE * perPx, position: `middle ${c.side}` as TextPosition }));
   for (const met of [true, false]) {
     const idx = req.map((_, i) => i).filter((i) => pointVerdict(r, i).met === met);
     if (!idx.length) continue;
     data.push({
       type: 'scatter',
-      mode: 'markers+text',
+      mode: 'markers',
       x: idx.map((i) => req[i]!.speed_rpm),
       y: idx.map((i) => req[i]!.torque_Nm),
       text: idx.map(labelOf),
-      textposition: idx.map((i) => positions[i]!),
-      textfont: { size: 11, color: met ? t.ok : t.bad },
       name: met ? 'requirement met' : 'requirement not met',
       marker: met
         ? { symbol: 'circle', size: 11, color: t.ok, line: { color: t.panel, width: 1.5 } }
         : { symbol: 'x-thin-open', size: 13, color: t.bad, line: { width: 3, color: t.bad } },
       hovertemplate: `%{text}: %{x:.0f} rpm, %{y:.4g} N·m — ${met ? 'met' : 'NOT met'}<extra></extra>`,
+    });
+    data.push({
+      type: 'scatter',
+      mode: 'text',
+      x: idx.map((i) => req[i]!.speed_rpm),
+      y: idx.map((i) => req[i]!.torque_Nm + spots[i]!.dy),
+      text: idx.map(labelOf),
+      textposition: idx.map((i) => spots[i]!.position),
+      textfont: { size: 11, color: met ? t.ok : t.bad },
+      hoverinfo: 'skip',
+      showlegend: false,
     });
   }
   data.push({

@@ -17,26 +17,34 @@ export function textBox(px: number, py: number, text: string, pos: TextPosition,
 }
 
 /**
- * For each label (in order) the first candidate position whose box stays inside the plot and clear
- * of the boxes already placed (and of `taken`); the first candidate when none is clear.
+ * For each label (in order) the candidate position of least cost: a box over a label already placed
+ * (or over a `taken` box) or outside the plot costs most, each `soft` obstacle it covers (points of
+ * the drawn curves) a little, and a later candidate a very little (the order is the preference).
+ * `boxOf` gives a candidate's box (by default a plotly textposition at the point).
  */
-export function chooseTextPositions(
-  items: Array<{ px: number; py: number; text: string; candidates: TextPosition[] }>,
+export function chooseTextPositions<C extends object | string = TextPosition>(
+  items: Array<{ px: number; py: number; text: string; candidates: C[] }>,
   plot: { width: number; height: number },
   taken: Box[] = [],
-): TextPosition[] {
+  soft: Box[] = [],
+  boxOf: (c: C, px: number, py: number, text: string) => Box = (c, px, py, text) => textBox(px, py, text, c as unknown as TextPosition),
+): C[] {
   const placed = [...taken];
   return items.map((it) => {
     let pick = it.candidates[0]!;
-    for (const c of it.candidates) {
-      const b = textBox(it.px, it.py, it.text, c);
-      const inside = b[0] >= 0 && b[2] <= plot.width && b[1] >= 0 && b[3] <= plot.height;
-      if (inside && !placed.some((p) => overlaps(p, b))) {
+    let best = Infinity;
+    it.candidates.forEach((c, order) => {
+      const b = boxOf(c, it.px, it.py, it.text);
+      const outside = b[0] < 0 || b[2] > plot.width || b[1] < 0 || b[3] > plot.height;
+      let cost = (outside ? 1e4 : 0) + order * 0.01;
+      for (const p of placed) if (overlaps(p, b)) cost += 1e3;
+      for (const p of soft) if (overlaps(p, b)) cost += 1;
+      if (cost < best) {
+        best = cost;
         pick = c;
-        break;
       }
-    }
-    placed.push(textBox(it.px, it.py, it.text, pick));
+    });
+    placed.push(boxOf(pick, it.px, it.py, it.text));
     return pick;
   });
 }
