@@ -90,7 +90,7 @@ export function tracesFigure(r: SimDone, theme: 'light' | 'dark'): { data: Data[
   const zoom = speedErrorRange(r.loadSteps);
   const titles = ['speed, rpm', 'error, rpm', 'torque, N·m', 'id, iq, A peak', '|v| / Vmax', 'ia, ib, ic, A'];
   // the error row is zoomed to the load dips: its legend group says so
-  if (zoom) for (const d of data as Array<{ legendgroup?: string; legendgrouptitle?: { text: string } }>) if (d.legendgroup === 'row1') d.legendgrouptitle = { text: 'speed error, rpm (zoomed to the load dip)' };
+  if (zoom) for (const d of data as Array<{ legendgroup?: string; legendgrouptitle?: { text: string } }>) if (d.legendgroup === 'row1') d.legendgrouptitle = { text: 'speed error (zoomed), rpm' };
   const layout: Record<string, unknown> = baseLayout(t, {
     margin: { l: 84, r: 150, t: 10, b: 44 },
     hovermode: 'x',
