@@ -252,7 +252,8 @@ describe('Torquewise in a browser', () => {
     expect(peak).toMatch(/A peak .* A rms/);
     await page.screenshot({ path: shotPath('05-load-steps') });
     // a long run, cancelled while it runs
-    const dur = '.view [data-path="scenario.duration_s"]';
+    // the scenario is edited in the side panel only (the view shows it read-only)
+    const dur = '.inputs [data-path="scenario.duration_s"]';
     const old = await page.inputValue(dur);
     await page.fill(dur, '30');
     await page.waitForFunction(() => !(document.querySelector('[data-testid="run"]') as HTMLButtonElement).disabled);
@@ -265,14 +266,15 @@ describe('Torquewise in a browser', () => {
     expect(await page.isEnabled('[data-testid="run"]')).toBe(true);
     await page.fill(dur, old);
     // a speed step above the motor's 12 000 rpm: the findings name the field and the back-EMF caution shows
-    const step = '.view [data-path^="scenario.speedSteps"][data-path$="speed_rpm"]';
+    const step = '.inputs [data-path^="scenario.speedSteps"][data-path$="speed_rpm"]';
     const oldStep = await page.inputValue(step);
     await page.fill(step, '20000');
     await page.waitForFunction(() => !(document.querySelector('[data-testid="run"]') as HTMLButtonElement).disabled);
     await page.click('[data-testid="run"]');
     await page.waitForSelector('[data-testid="sim-findings"]', { timeout: 60_000 });
     const said = (await page.textContent('[data-testid="sim-findings"]')) ?? '';
-    expect(said).toMatch(/scenario\.speedSteps\[0\]\.speed_rpm\s*asks for 20000 rpm, above the motor's maximum speed 12000 rpm/);
+    // the input named in words (speed reference step 1), not by its path
+    expect(said).toMatch(/speed reference step 1 speed:\s*asks for 20000 rpm, above the motor's maximum speed 12000 rpm/);
     expect(said).toMatch(/back-EMF is \d+ V line-to-line peak, above the 350 V bus.*IEC 61800-5-1/);
     await page.screenshot({ path: shotPath('05b-load-steps-findings') });
     await page.fill(step, oldStep);
@@ -280,7 +282,8 @@ describe('Torquewise in a browser', () => {
 
   it('stays responsive while a long simulation runs in its worker, and cancel stops it at once', async () => {
     // still on the Load steps view; a 150 s run (1.5 million control periods) takes many seconds of worker time
-    const dur = '.view [data-path="scenario.duration_s"]';
+    // the scenario is edited in the side panel only (the view shows it read-only)
+    const dur = '.inputs [data-path="scenario.duration_s"]';
     const old = await page.inputValue(dur);
     await page.fill(dur, '150');
     await page.waitForFunction(() => !(document.querySelector('[data-testid="run"]') as HTMLButtonElement).disabled);

@@ -21,6 +21,8 @@ import { Cautions } from './DatasheetView';
 import { useAfterPaint } from './after-paint';
 import { sameRange, withXRange, xRangeFromRelayout, type SpeedRange } from './linked-axes';
 import { notReachablePhrase, regionPhrase } from '../../core/phrases';
+import { placeSpeedMarks } from './speed-marks';
+import { chooseTextPositions, declutterShifts, textBox, type Box, type TextPosition } from './label-layout';
 
 const REGION_NAME = { mtpa: 'MTPA', 'field-weakening': 'field weakening', mtpv: 'MTPV' } as const;
 
@@ -117,34 +119,6 @@ export function torqueSpeedFigure(r: Results, theme: 'light' | 'dark', show: Sho
     }
   }
   data.push(...endMarks);
-  // requirement points as pass/fail markers
-  const req = r.project.requirements;
-  const pts = r.sizing.points;
-  for (const met of [true, false]) {
-    const idx = req.map((_, i) => i).filter((i) => pointVerdict(r, i).met === met);
-    if (!idx.length) continue;
-    data.push({
-      type: 'scatter',
-      mode: 'markers+text',
-      x: idx.map((i) => req[i]!.speed_rpm),
-      y: idx.map((i) => req[i]!.torque_Nm),
-      // a label is the file's text: plain text to plotly, never its markup
-      text: idx.map((i) => { const f = pointVerdict(r, i).fails; const label = plotText(req[i]!.label); return f === 'cold' || f === 'hot' ? `${label} (fails ${f})` : label; }),
-      // labels kept off the envelope lines: a met point lies inside the envelope (label beside it,
-      // at its own torque), a missed one outside (label further out, away from zero torque)
-      textposition: idx.map((i) => {
-        const q = req[i]!;
-        const side = q.speed_rpm > 0.72 * r.speedMax * RAD_S_TO_RPM ? 'left' : 'right';
-        return met ? `middle ${side}` : `${q.torque_Nm >= 0 ? 'top' : 'bottom'} ${side}`;
-      }),
-      textfont: { size: 11, color: met ? t.ok : t.bad },
-      name: met ? 'requirement met' : 'requirement not met',
-      marker: met
-        ? { symbol: 'circle', size: 11, color: t.ok, line: { color: t.panel, width: 1.5 } }
-        : { symbol: 'x-thin-open', size: 13, color: t.bad, line: { width: 3, color: t.bad } },
-      hovertemplate: `%{text}: %{x:.0f} rpm, %{y:.4g} N·m — ${met ? 'met' : 'NOT met'}<extra></extra>`,
-    });
-  }
   const runs = regionRuns(r);
   const fill = REGION_FILL[theme];
   const shapes: Record<string, unknown>[] = runs.map((run) => ({
@@ -171,7 +145,7 @@ export function torqueSpeedFigure(r: Results, theme: 'light' | 'dark', show: Sho
       if (v > tMax) tMax = v;
     }
   }
-  for (const q of req) {
+  for (const q of r.project.requirements) {
     tMin = Math.min(tMin, q.torque_Nm);
     tMax = Math.max(tMax, q.torque_Nm);
   }
@@ -192,18 +166,98 @@ export function torqueSpeedFigure(r: Results, theme: 'light' | 'dark', show: Sho
     lt.push(fits ? long : run.region === 'field-weakening' ? 'FW' : long);
     lp.push('bottom center');
   }
-  const marks: Array<[number | null, string]> = [
+  const marks: Array<{ x: number; text: string }> = [];
+  for (const [w, label] of [
     [r.main.baseSpeed, 'base'],
     [r.main.maxSpeed, 'max'],
-  ];
-  for (const [w, label] of marks) {
+  ] as Array<[number | null, string]>) {
     if (w === null || !(w > 0) || w > r.speedMax) continue;
     const x = w * RAD_S_TO_RPM;
     shapes.push({ type: 'line', xref: 'x', yref: 'paper', x0: x, x1: x, y0: 0, y1: 1, line: { color: t.ink, width: 1.2, dash: 'dot' } });
-    lx.push(x);
-    ly.push(yRange[0]!);
-    lt.push(`${label} ${Math.round(x)} rpm`);
-    lp.push(x < 0.5 * top_rpm ? 'top right' : 'top left');
+    marks.push({ x, text: `${label} ${Math.round(x)} rpm` });
+  }
+  // one row of labels is about 16 px of a plot area about 260 px tall
+  const rowH = ((yRange[1]! - yRange[0]!) * 16) / 260;
+  for (const m of placeSpeedMarks(marks, top_rpm, plotWidth_px)) {
+    lx.push(m.x);
+    ly.push(yRange[0]! + m.row * rowH);
+    lt.push(m.text);
+    lp.push(m.position);
+  }
+  // requirement points as pass/fail markers; each label beside its point where it is clear of the
+  // other labels (estimated boxes on a plot area about plotWidth_px x 260 px)
+  const req = r.project.requirements;
+  const W = plotWidth_px;
+  const H = 260;
+  const toPx = (x: number, y: number): [number, number] => [(x / top_rpm) * W, ((yRange[1]! - y) / (yRange[1]! - yRange[0]!)) * H];
+  const taken: Box[] = [];
+  for (let k = 0; k < lx.length; k++) {
+    const [px, py] = toPx(lx[k]!, ly[k]!);
+    taken.push(textBox(px, py, lt[k]!, lp[k] as TextPosition));
+  }
+  // the drawn curves as soft obstacles: a label on a line only when every other place is worse
+  const curvePts: Box[] = [];
+  for (const c of r.curves) {
+    if (!show[c.current] || !show[c.corner] || (c.direction === 'generating' && !show.generating)) continue;
+    const e = c.env;
+    for (let k = 0; k < e.speed.length; k++) {
+      if (!e.feasible[k]) continue;
+      const [px, py] = toPx(e.speed[k]! * RAD_S_TO_RPM, e.torque[k]!);
+      curvePts.push([px - 1.5, py - 1.5, px + 1.5, py + 1.5]);
+    }
+  }
+  // a label is the file's text: plain text to plotly, never its markup
+  const labelOf = (i: number): string => {
+    const f = pointVerdict(r, i).fails;
+    const label = plotText(req[i]!.label);
+    return f === 'cold' || f === 'hot' ? `${label} (fails ${f})` : label;
+  };
+  // each label beside its point, or a line or two above or below it where that is clearer
+  const LINE = 15;
+  const perPx = (yRange[1]! - yRange[0]!) / H;
+  type Spot = { line: number; side: 'left' | 'right' };
+  const spots = chooseTextPositions<Spot>(
+    req.map((q, i) => {
+      const met = pointVerdict(r, i).met;
+      const side: Spot['side'] = q.speed_rpm > 0.72 * top_rpm ? 'left' : 'right';
+      const other: Spot['side'] = side === 'left' ? 'right' : 'left';
+      // a missed point lies outside the envelope: its label prefers the side away from zero torque
+      const away = q.torque_Nm >= 0 ? 1 : -1;
+      const lines = met ? [0, 1, -1, 2, -2] : [away, 0, 2 * away, -away, -2 * away];
+      const [px, py] = toPx(q.speed_rpm, q.torque_Nm);
+      return { px, py, text: labelOf(i), candidates: [side, other].flatMap((sd) => lines.map((line) => ({ line, side: sd }))) };
+    }),
+    { width: W, height: H },
+    taken,
+    curvePts,
+    (c, px, py, text) => textBox(px, py - c.line * LINE, text, `middle ${c.side}`),
+  ).map((c) => ({ dy: c.line * LINE * perPx, position: `middle ${c.side}` as TextPosition }));
+  for (const met of [true, false]) {
+    const idx = req.map((_, i) => i).filter((i) => pointVerdict(r, i).met === met);
+    if (!idx.length) continue;
+    data.push({
+      type: 'scatter',
+      mode: 'markers',
+      x: idx.map((i) => req[i]!.speed_rpm),
+      y: idx.map((i) => req[i]!.torque_Nm),
+      text: idx.map(labelOf),
+      name: met ? 'requirement met' : 'requirement not met',
+      marker: met
+        ? { symbol: 'circle', size: 11, color: t.ok, line: { color: t.panel, width: 1.5 } }
+        : { symbol: 'x-thin-open', size: 13, color: t.bad, line: { width: 3, color: t.bad } },
+      hovertemplate: `%{text}: %{x:.0f} rpm, %{y:.4g} N·m — ${met ? 'met' : 'NOT met'}<extra></extra>`,
+    });
+    data.push({
+      type: 'scatter',
+      mode: 'text',
+      x: idx.map((i) => req[i]!.speed_rpm),
+      y: idx.map((i) => req[i]!.torque_Nm + spots[i]!.dy),
+      text: idx.map(labelOf),
+      textposition: idx.map((i) => spots[i]!.position),
+      textfont: { size: 11, color: met ? t.ok : t.bad },
+      hoverinfo: 'skip',
+      showlegend: false,
+    });
   }
   data.push({
     type: 'scatter',
@@ -238,7 +292,7 @@ export function powerSpeedFigure(r: Results, theme: 'light' | 'dark', show: Show
   const l = both.layout as Record<string, any>;
   const layout: Layout = {
     ...l,
-    margin: { l: 70, r: 16, t: 8, b: 40 },
+    margin: { l: 70, r: 16, t: 30, b: 40 },
     yaxis: { ...l.yaxis2, domain: [0, 1] },
     xaxis: { ...l.xaxis, anchor: 'y' },
     legend: { orientation: 'h', x: 0, y: -0.3, font: { size: 11 } },
@@ -250,7 +304,8 @@ export function powerSpeedFigure(r: Results, theme: 'light' | 'dark', show: Show
 /** The torque-speed plot alone, without a legend (the power plot below carries it). */
 function torqueOnlyFigure(r: Results, theme: 'light' | 'dark', show: Show): { data: Data[]; layout: Layout } {
   const f = torqueSpeedFigure(r, theme, show, false);
-  return { data: f.data, layout: { ...f.layout, showlegend: false, margin: { l: 70, r: 16, t: 8, b: 40 } } };
+  // the top margin holds the plot's toolbar, clear of the region labels along the top edge
+  return { data: f.data, layout: { ...f.layout, showlegend: false, margin: { l: 70, r: 16, t: 30, b: 40 } } };
 }
 
 function parseSpeeds(text: string): number[] {
@@ -383,13 +438,30 @@ export function planeFigure(r: Results, theme: 'light' | 'dark', speeds: number[
       hoverinfo: 'skip',
     });
   }
+  // labels kept off each other: the plot area is about 320 px for the 2.4·Imax of the iq axis, the
+  // same scale on both axes
+  const k = 320 / (2 * span);
+  const shifts = declutterShifts(
+    annotations.map((a) => ({
+      px: ((a.x as number) + span) * k,
+      py: (span - (a.y as number)) * k,
+      text: String(a.text),
+      xanchor: (a.xanchor as 'left' | 'right' | undefined) ?? 'center',
+      yanchor: (a.yanchor as 'top' | 'bottom' | undefined) ?? 'middle',
+      yshift: a.yshift as number | undefined,
+    })),
+  );
+  annotations.forEach((a, i) => {
+    if (shifts[i] !== 0 || a.yshift !== undefined) a.yshift = shifts[i];
+  });
   const layout: Layout = baseLayout(t, {
     margin: { l: 64, r: 16, t: 16, b: 40 },
     showlegend: true,
     legend: { orientation: 'h', x: 0, y: -0.1, font: { size: 10 } },
     hovermode: false,
-    xaxis: axis(t, 'id, A peak', { range: [-span, 0.25 * Imax], constrain: 'domain' }),
-    yaxis: axis(t, 'iq, A peak', { range: [-span, span], scaleanchor: 'x', scaleratio: 1, constrain: 'domain' }),
+    // fixed ranges from the project's current limit (never plotly's autorange memory of an earlier edit)
+    xaxis: axis(t, 'id, A peak', { range: [-span, 0.25 * Imax], autorange: false, constrain: 'domain' }),
+    yaxis: axis(t, 'iq, A peak', { range: [-span, span], autorange: false, scaleanchor: 'x', scaleratio: 1, constrain: 'domain' }),
     annotations,
   });
   return { data, layout };
@@ -530,6 +602,12 @@ export const EnvelopeView = memo(function EnvelopeView({ results, opts, setOpts,
           </div>
           <div className="key" aria-label="current limits" data-testid="envelope-limits">
             <span>{describeLimits(results.project.currentLimits)}</span>
+          </div>
+          <div className="key" aria-label="shading key" data-testid="region-key">
+            <span>Shaded bands: control region along the <strong style={{ color: CURVE[theme].hot }}>peak-current, hot-magnet motoring</strong> curve:</span>
+            <span><span className="swatch" style={{ background: REGION_FILL[theme].mtpa }} /> MTPA</span>
+            <span><span className="swatch" style={{ background: REGION_FILL[theme]['field-weakening'] }} /> field weakening</span>
+            <span><span className="swatch" style={{ background: REGION_FILL[theme].mtpv }} /> MTPV</span>
           </div>
           <Plot data={fig.data} layout={fig.layout} height={330} testId="envelope-plot" onHover={onHover} onRelayout={onSpeedZoom} onDrawn={onDrawn} elRef={(el) => (envEl.current = el)} />
           <Plot data={pfig.data} layout={pfig.layout} height={300} testId="power-plot" onRelayout={onSpeedZoom} defer />

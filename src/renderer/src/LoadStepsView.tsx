@@ -88,7 +88,9 @@ export function tracesFigure(r: SimDone, theme: 'light' | 'dark'): { data: Data[
   line(tr.ib_A, 'ib', 5, col.b, 'solid', 1.1, '.3g');
   line(tr.ic_A, 'ic', 5, col.c, 'solid', 1.1, '.3g');
   const zoom = speedErrorRange(r.loadSteps);
-  const titles = ['speed, rpm', zoom ? 'speed error, rpm<br>(zoomed to the load dips)' : 'speed error, rpm', 'torque, N·m', 'id, iq, A peak', '|v| / Vmax', 'ia, ib, ic, A peak'];
+  const titles = ['speed, rpm', 'error, rpm', 'torque, N·m', 'id, iq, A peak', '|v| / Vmax', 'ia, ib, ic, A'];
+  // the error row is zoomed to the load dips: its legend group says so
+  if (zoom) for (const d of data as Array<{ legendgroup?: string; legendgrouptitle?: { text: string } }>) if (d.legendgroup === 'row1') d.legendgrouptitle = { text: 'speed error (zoomed), rpm' };
   const layout: Record<string, unknown> = baseLayout(t, {
     margin: { l: 84, r: 150, t: 10, b: 44 },
     hovermode: 'x',

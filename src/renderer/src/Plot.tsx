@@ -104,7 +104,9 @@ export function Plot({ data, layout, height, testId, onHover, onUnhover, onRelay
     const draw = () => {
       if (!live) return;
       performance.mark(`tw-plot:${testId ?? ''}`);
-      void Plotly.react(el, data, { ...layout, height }, { displaylogo: false, responsive: true, modeBarButtonsToRemove: ['select2d', 'lasso2d', 'toImage'] }).then((gd) => {
+      // a fresh copy of the layout each draw: plotly writes ranges it computed back into the layout it
+      // is given, and a reused layout would carry one edit's ranges into the next
+      void Plotly.react(el, data, structuredClone({ ...layout, height }), { displaylogo: false, responsive: true, modeBarButtonsToRemove: ['select2d', 'lasso2d', 'toImage'] }).then((gd) => {
         if (!live) return;
         if (!bound.current) {
           bound.current = true;

@@ -95,12 +95,12 @@ export const TuningView = memo(function TuningView({ project, theme }: { project
               testId="tuning-inputs"
               items={[
                 { path: 'control.fCtrl_Hz', label: 'Control rate', unit: 'Hz', fallback: '10000 Hz (default)' },
-                { path: 'control.delaySamples', label: 'Delay', unit: 'periods', fallback: '1 period (default)' },
+                { path: 'control.delaySamples', label: 'Delay', unit: 'period(s)', fallback: '1 period (default)' },
                 { path: 'control.currentBandwidth_Hz', label: 'Current bandwidth', unit: 'Hz', fallback: 'fCtrl/20 (default) or gains' },
                 { path: 'control.speedBandwidth_Hz', label: 'Speed bandwidth', unit: 'Hz', fallback: '– (rule or gains)' },
                 { path: 'control.speedTuning.method', label: 'Speed rule', fallback: 'from bandwidth (default)' },
                 { path: 'control.speedTuning.a', label: 'Spacing a', fallback: '–' },
-                { path: 'control.speedLoopDivider', label: 'Speed loop every', unit: 'periods', fallback: '1 period (default)' },
+                { path: 'control.speedLoopDivider', label: 'Speed loop every', unit: 'period(s)', fallback: '1 period (default)' },
               ]}
               note="Edited in the side panel (Control): click a name to go there."
             />

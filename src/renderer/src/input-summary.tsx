@@ -76,12 +76,12 @@ export function InputSummary({ items, testId, note }: { items: SummaryItem[]; te
 export const CONTROL_SUMMARY: SummaryItem[] = [
   { path: 'control.mode', label: 'Mode', fallback: 'speed (default)' },
   { path: 'control.fCtrl_Hz', label: 'Control rate', unit: 'Hz', fallback: '10000 Hz (default)' },
-  { path: 'control.delaySamples', label: 'Delay', unit: 'periods', fallback: '1 period (default)' },
+  { path: 'control.delaySamples', label: 'Delay', unit: 'period(s)', fallback: '1 period (default)' },
   { path: 'control.currentBandwidth_Hz', label: 'Current bandwidth', unit: 'Hz', fallback: 'fCtrl/20 (default) or gains' },
   { path: 'control.speedBandwidth_Hz', label: 'Speed bandwidth', unit: 'Hz', fallback: '– (rule or gains)' },
   { path: 'control.speedTuning.method', label: 'Speed tuning', fallback: 'from bandwidth (default)' },
   { path: 'control.speedTuning.a', label: 'Spacing a', fallback: '–' },
-  { path: 'control.speedLoopDivider', label: 'Speed loop every', unit: 'periods', fallback: '1 period (default)' },
+  { path: 'control.speedLoopDivider', label: 'Speed loop every', unit: 'period(s)', fallback: '1 period (default)' },
   { path: 'control.antiWindup', label: 'Anti-windup', fallback: 'clamping (default)' },
   { path: 'control.speedRamp_rpm_per_s', label: 'Speed ramp', unit: 'rpm/s', fallback: 'none' },
 ];

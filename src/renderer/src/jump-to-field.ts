@@ -5,13 +5,16 @@ import { normalisePath } from './draft';
 
 export function findInput(path: string, root: ParentNode = document): HTMLElement | null {
   const p = normalisePath(path);
-  const q = (x: string) => root.querySelector<HTMLElement>(`.inputs [data-path="${CSS.escape(x)}"]`);
-  const hit = q(p) ?? q(`${p}.value`) ?? q(`${p}:present`) ?? root.querySelector<HTMLElement>(`.inputs [data-path^="${CSS.escape(p)}."]`);
+  // inputs only (a list's table carries its path too, but cannot take the focus)
+  const F = ':is(input, select)';
+  const q = (x: string) => root.querySelector<HTMLElement>(`.inputs ${F}[data-path="${CSS.escape(x)}"]`);
+  const under = (x: string) => root.querySelector<HTMLElement>(`.inputs ${F}[data-path^="${CSS.escape(x)}."]`);
+  const hit = q(p) ?? q(`${p}.value`) ?? q(`${p}:present`) ?? under(p);
   if (hit) return hit;
   const parts = p.split('.');
   for (let i = parts.length - 1; i > 0; i--) {
     const parent = parts.slice(0, i).join('.');
-    const h = q(`${parent}:present`) ?? root.querySelector<HTMLElement>(`.inputs [data-path^="${CSS.escape(parent)}."]`);
+    const h = q(`${parent}:present`) ?? under(parent);
     if (h) return h;
   }
   // a section left out: its "+ add" button
