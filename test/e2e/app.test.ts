@@ -445,7 +445,9 @@ describe('Torquewise in a browser', () => {
           if (el.closest('svg') && el.tagName.toLowerCase() !== 'svg') continue;
           const r = el.getBoundingClientRect();
           if (r.width > 0 && r.right > w + 0.5) out.push(`<${el.tagName.toLowerCase()} class="${el.getAttribute('class') ?? ''}"> right ${r.right.toFixed(0)}`);
-          if (el instanceof HTMLElement && el.clientWidth > 0 && el.scrollWidth > el.clientWidth + 1 && getComputedStyle(el).overflowX !== 'visible') out.push(`<${el.tagName.toLowerCase()}> scrolls`);
+          // a box that scrolls, or a table cell whose text spills out of it
+          const cell = el.tagName === 'TD' || el.tagName === 'TH';
+          if (el instanceof HTMLElement && el.clientWidth > 0 && el.scrollWidth > el.clientWidth + 1 && (cell || getComputedStyle(el).overflowX !== 'visible')) out.push(`<${el.tagName.toLowerCase()}> "${el.textContent?.slice(0, 30)}" overflows: ${el.scrollWidth} > ${el.clientWidth}`);
         }
         return out;
       }, contentPx);
