@@ -244,10 +244,11 @@ export function datasheetCharts(r: DatasheetResults, o: Pick<DatasheetOptions, '
     yLabel: 'torque, N·m',
     series: torqueLines.series,
     markers: [...torqueLines.ends, ...points],
+    // only what the chart shows
     markerLegend: [
-      { name: 'requirement met (hot and cold)', shape: 'circle', colour: DATASHEET_COLOURS.met },
-      { name: 'requirement not met', shape: 'cross', colour: DATASHEET_COLOURS.notMet },
-      { name: 'curve ends: torque reaches zero', shape: 'dot', colour: '#5a5a60' },
+      ...(points.some((q) => q.shape === 'circle') ? [{ name: 'requirement met (hot and cold)', shape: 'circle' as const, colour: DATASHEET_COLOURS.met }] : []),
+      ...(points.some((q) => q.shape === 'cross') ? [{ name: 'requirement not met', shape: 'cross' as const, colour: DATASHEET_COLOURS.notMet }] : []),
+      ...(torqueLines.ends.length ? [{ name: 'curve ends: torque reaches zero', shape: 'dot' as const, colour: '#5a5a60' }] : []),
     ],
     caption: conditions,
     xMin: 0,
