@@ -98,4 +98,16 @@ describe('datasheet as one self-contained HTML page', () => {
     expect(html).toContain('&lt;img src=x onerror=&quot;alert(1)&quot;&gt; &amp; co');
     expect(html).toContain('&lt;/td&gt;&lt;script&gt;alert(2)&lt;/script&gt;');
   });
+  it('lists in the legend only what the chart shows', () => {
+    const torque = /<svg [^>]*data-testid="chart-torque"[\s\S]*?<\/svg>/.exec(servoHtml)![0];
+    expect(torque).toContain('>requirement met (hot and cold)</text>');
+    expect(torque).toContain('>requirement not met</text>');
+    expect(torque).toContain('>curve ends: torque reaches zero</text>');
+    // the 48 V demo: every point met, no curve ends within its range (maximum speeds beyond 6825 rpm)
+    const spm = datasheetHtml(computeDatasheetResults(loadProjectText(text('demo-spm-48v'))), { date: 'd' });
+    const t2 = /<svg [^>]*data-testid="chart-torque"[\s\S]*?<\/svg>/.exec(spm)![0];
+    expect(t2).toContain('>requirement met (hot and cold)</text>');
+    expect(t2).not.toContain('requirement not met');
+    expect(t2).not.toContain('curve ends');
+  });
 });

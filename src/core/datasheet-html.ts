@@ -227,6 +227,48 @@ export function datasheetTableStep(r: DatasheetResults, o: Pick<DatasheetOptions
   return o.tableStep_rpm ?? defaultTableStep(r.speedMax * RAD_S_TO_RPM);
 }
 
+/** The datasheet's two figures as SVG text: torque and power against speed, each with title, legend and conditions. */
+export function datasheetCharts(r: DatasheetResults, o: Pick<DatasheetOptions, 'date' | 'version'>): { torque: string; power: string } {
+  const p = r.project;
+  const name = p.name.trim() || 'Unnamed project';
+  const conditions = figureConditions(p, { date: o.date, version: o.version ?? TOOL_VERSION });
+  const torqueLines = branches(r, 'torque');
+  const powerLines = branches(r, 'power');
+  const points: ChartMarker[] = p.requirements.map((q, i) => {
+    const met = (r.sizing.points[i]?.met ?? false) && (r.sizingCold.points[i]?.met ?? false);
+    return { x: q.speed_rpm, y: q.torque_Nm, shape: met ? 'circle' : 'cross', colour: met ? DATASHEET_COLOURS.met : DATASHEET_COLOURS.notMet, label: met ? q.label : `${q.label} (not met)` };
+  });
+  const torque = svgChart({
+    title: `${name}: torque against speed`,
+    xLabel: 'speed, rpm (mechanical)',
+    yLabel: 'torque, N·m',
+    series: torqueLines.series,
+    markers: [...torqueLines.ends, ...points],
+    // only what the chart shows
+    markerLegend: [
+      ...(points.some((q) => q.shape === 'circle') ? [{ name: 'requirement met (hot and cold)', shape: 'circle' as const, colour: DATASHEET_COLOURS.met }] : []),
+      ...(points.some((q) => q.shape === 'cross') ? [{ name: 'requirement not met', shape: 'cross' as const, colour: DATASHEET_COLOURS.notMet }] : []),
+      ...(torqueLines.ends.length ? [{ name: 'curve ends: torque reaches zero', shape: 'dot' as const, colour: '#5a5a60' }] : []),
+    ],
+    caption: conditions,
+    xMin: 0,
+    testId: 'chart-torque',
+  });
+  const power = svgChart({
+    title: `${name}: mechanical power against speed`,
+    xLabel: 'speed, rpm (mechanical)',
+    yLabel: 'power, kW (negative: generating)',
+    series: powerLines.series,
+    markers: powerLines.ends,
+    caption: conditions,
+    xMin: 0,
+    plotHeight: 240,
+    testId: 'chart-power',
+  });
+
+  return { torque, power };
+}
+
 export function datasheetHtml(r: DatasheetResults, o: DatasheetOptions): string {
   const p = r.project;
   const name = p.name.trim() || 'Unnamed project';
@@ -237,38 +279,7 @@ export function datasheetHtml(r: DatasheetResults, o: DatasheetOptions): string 
   const hot = envelopeTable(p.hot, p.peak, p.continuous, top_rpm, step, field);
   const cold = envelopeTable(p.cold, p.peak, p.continuous, top_rpm, step, field);
 
-  const torque = branches(r, 'torque');
-  const power = branches(r, 'power');
-  const points: ChartMarker[] = p.requirements.map((q, i) => {
-    const met = (r.sizing.points[i]?.met ?? false) && (r.sizingCold.points[i]?.met ?? false);
-    return { x: q.speed_rpm, y: q.torque_Nm, shape: met ? 'circle' : 'cross', colour: met ? DATASHEET_COLOURS.met : DATASHEET_COLOURS.notMet, label: met ? q.label : `${q.label} (not met)` };
-  });
-  const torqueSvg = svgChart({
-    title: `${name}: torque against speed`,
-    xLabel: 'speed, rpm (mechanical)',
-    yLabel: 'torque, N·m',
-    series: torque.series,
-    markers: [...torque.ends, ...points],
-    markerLegend: [
-      { name: 'requirement met (hot and cold)', shape: 'circle', colour: DATASHEET_COLOURS.met },
-      { name: 'requirement not met', shape: 'cross', colour: DATASHEET_COLOURS.notMet },
-      { name: 'curve ends: torque reaches zero', shape: 'dot', colour: '#5a5a60' },
-    ],
-    caption: conditions,
-    xMin: 0,
-    testId: 'chart-torque',
-  });
-  const powerSvg = svgChart({
-    title: `${name}: mechanical power against speed`,
-    xLabel: 'speed, rpm (mechanical)',
-    yLabel: 'power, kW (negative: generating)',
-    series: power.series,
-    markers: power.ends,
-    caption: conditions,
-    xMin: 0,
-    plotHeight: 240,
-    testId: 'chart-power',
-  });
+  const { torque: torqueSvg, power: powerSvg } = datasheetCharts(r, { date: o.date, version: o.version ?? TOOL_VERSION });
 
   const findings = [...p.findings, ...r.safety.findings];
   const hazards = findings.filter(isHazardFinding);

@@ -431,8 +431,54 @@ describe('Torquewise in a browser', () => {
     expect(html).toContain('<svg');
     expect(html).toContain('IEC 61800-5-1');
     expect(html).toContain('hill start');
+    // core's self-contained page: conditions, both charts, the envelope tables hot and cold, no script
+    expect(html).toMatch(/Vdc 350 V, SVPWM .* hot: winding 140 °C, magnet 120 °C · cold: -20 °C/);
+    expect(html).toContain('data-testid="chart-torque"');
+    expect(html).toContain('data-testid="chart-power"');
+    expect(html).toContain('data-testid="envelope-table-hot"');
+    expect(html).toContain('data-testid="envelope-table-cold"');
+    expect(html).not.toMatch(/<script/i);
+    // plot images carry a title, the legend and the conditions (project, bus, temperatures, limits, date, version)
+    for (const format of ['SVG', 'PNG'] as const) {
+      const [img] = await Promise.all([page.waitForEvent('download'), page.click(`button:has-text("Plot ${format}")`)]);
+      const file = join(SHOTS, `datasheet-plot-export.${format.toLowerCase()}`);
+      await img.saveAs(file);
+      if (format === 'SVG') {
+        const svg = readFileSync(file, 'utf8');
+        expect(svg).toContain('torque against speed, hot and cold');
+        expect(svg).toMatch(/Torquewise \d+\.\d+\.\d+ · \d{4}-\d{2}-\d{2}/);
+        expect(svg).toContain('Vdc 350 V, SVPWM');
+        expect(svg).toMatch(/peak current [\d.]+ A peak \([\d.]+ A rms\), (motor|inverter) binds/);
+        expect(svg).toContain('peak current, hot magnet'); // a legend entry
+      } else expect(readFileSync(file).subarray(1, 4).toString('latin1')).toBe('PNG');
+    }
     await page.emulateMedia({ media: 'print' });
     await page.screenshot({ path: shotPath('view-datasheet-print'), fullPage: true });
+    // printed from the app on A4 and Letter portrait: the figures are the datasheet's SVG charts
+    // (scaled by their viewBox), and nothing is wider than the page's content box
+    for (const [format, paperMm] of [['A4', 210], ['Letter', 215.9]] as const) {
+      const contentPx = Math.floor(((paperMm - 24) * 96) / 25.4); // @page margin 12 mm each side
+      await page.setViewportSize({ width: contentPx, height: 900 });
+      const wide = await page.evaluate((w) => {
+        const view = document.querySelector('[data-testid="view-datasheet"]')!;
+        const out: string[] = [];
+        for (const el of Array.from(view.querySelectorAll<HTMLElement | SVGElement>('*'))) {
+          if (el.closest('svg') && el.tagName.toLowerCase() !== 'svg') continue;
+          const r = el.getBoundingClientRect();
+          if (r.width > 0 && r.right > w + 0.5) out.push(`<${el.tagName.toLowerCase()} class="${el.getAttribute('class') ?? ''}"> right ${r.right.toFixed(0)}`);
+          // a box that scrolls, or a table cell whose text spills out of it
+          const cell = el.tagName === 'TD' || el.tagName === 'TH';
+          if (el instanceof HTMLElement && el.clientWidth > 0 && el.scrollWidth > el.clientWidth + 1 && (cell || getComputedStyle(el).overflowX !== 'visible')) out.push(`<${el.tagName.toLowerCase()}> "${el.textContent?.slice(0, 30)}" overflows: ${el.scrollWidth} > ${el.clientWidth}`);
+        }
+        return out;
+      }, contentPx);
+      expect(wide, format).toEqual([]);
+      const charts = await page.$$eval('[data-testid="print-charts"] svg', (els) => els.map((e) => e.getBoundingClientRect().width));
+      expect(charts).toHaveLength(2);
+      for (const cw of charts) expect(cw).toBeGreaterThan(0.9 * contentPx);
+      writeFileSync(join(SHOTS, `app-datasheet-print-${format}.pdf`), await page.pdf({ format, printBackground: true }));
+    }
+    await page.setViewportSize({ width: 1440, height: 900 });
     await page.emulateMedia({ media: 'screen' });
     expect(await page.textContent('[data-testid="verdicts"]')).toMatch(/met/);
   });

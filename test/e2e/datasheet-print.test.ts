@@ -46,7 +46,9 @@ async function overflows(): Promise<string[]> {
         const r = el.getBoundingClientRect();
         if (r.width === 0) continue;
         if (r.right > box.right + 0.5 || r.left < box.left - 0.5) bad.push(`<${el.tagName.toLowerCase()}> ${r.left.toFixed(1)}..${r.right.toFixed(1)} outside its card ${box.left.toFixed(1)}..${box.right.toFixed(1)}`);
-        if (el instanceof HTMLElement && el.scrollWidth > el.clientWidth + 1 && getComputedStyle(el).overflowX !== 'visible' && el.clientWidth > 0) bad.push(`<${el.tagName.toLowerCase()}> scrolls: ${el.scrollWidth} > ${el.clientWidth}`);
+        // a box that scrolls, or a table cell whose text spills out of it
+        const cell = el.tagName === 'TD' || el.tagName === 'TH';
+        if (el instanceof HTMLElement && el.clientWidth > 0 && el.scrollWidth > el.clientWidth + 1 && (cell || getComputedStyle(el).overflowX !== 'visible')) bad.push(`<${el.tagName.toLowerCase()}> "${el.textContent?.slice(0, 30)}" overflows: ${el.scrollWidth} > ${el.clientWidth}`);
       }
     }
     for (const svg of Array.from(document.querySelectorAll('svg'))) {

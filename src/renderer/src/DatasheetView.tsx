@@ -14,6 +14,7 @@ import { exportDatasheetHtml, exportPlotImage } from './image-export';
 import { fieldPhrase, limitPhrase, plainMessage, severityPhrase } from '../../core/phrases';
 import { figureConditions, isoDate } from '../../core/figure-conditions';
 import { TableStepField } from './TableStepField';
+import { PrintCharts } from './PrintCharts';
 
 function peakOf(a: Float64Array, feasible: Uint8Array): number {
   let best = 0;
@@ -130,7 +131,10 @@ export const DatasheetView = memo(function DatasheetView({ results, theme }: { r
         </div>
         <div className="card">
           <h4>Torque against speed</h4>
-          <Plot data={fig.data} layout={fig.layout} height={420} testId="datasheet-plot" elRef={(el) => (plotEl.current = el)} />
+          <div className="no-print">
+            <Plot data={fig.data} layout={fig.layout} height={420} testId="datasheet-plot" elRef={(el) => (plotEl.current = el)} />
+          </div>
+          <PrintCharts results={results} />
         </div>
       </div>
       <div className="card">

@@ -103,7 +103,12 @@ export function torqueSpeedFigure(r: Results, theme: 'light' | 'dark', show: Sho
           x: shown.map((e) => e.rpm),
           y: shown.map(() => 0),
           text: shown.map(label),
-          textposition: shown.map((e) => (e.direction === 'motoring' ? 'top left' : 'bottom left')),
+          // a shared label sits above the zero line for the hot corner and below it for the cold one (they never cover each other)
+          textposition: shown.map((e) => {
+            const shared = ends.some((g) => g !== e && g.direction !== e.direction && Math.abs(g.rpm - e.rpm) < 0.03 * span);
+            const up = shared ? corner === 'hot' : e.direction === 'motoring';
+            return up ? 'top left' : 'bottom left';
+          }),
           textfont: { size: 11, color: st.color },
           marker: { size: 7, color: st.color },
           name: `${name}: end`,
