@@ -17,13 +17,6 @@ import { Cautions } from './DatasheetView';
 import { useAfterPaint } from './after-paint';
 import { sameRange, withXRange, xRangeFromRelayout, type SpeedRange } from './linked-axes';
 
-/**
- * The power plot and the current plane follow an edit once the input has rested this long after the
- * torque plot was painted, ms: while keys follow each other faster, each key's torque redraw has the
- * processor to itself.
- */
-export const SECONDARY_SETTLE_MS = 120;
-
 const REGION_NAME = { mtpa: 'MTPA', 'field-weakening': 'field weakening', mtpv: 'MTPV' } as const;
 
 type Show = { peak: boolean; continuous: boolean; hot: boolean; cold: boolean; generating: boolean };
@@ -377,7 +370,7 @@ export const EnvelopeView = memo(function EnvelopeView({ results, opts, setOpts,
   const envEl = useRef<HTMLDivElement | null>(null);
   // the torque plot follows each edit at once; the power plot and the current plane are built and
   // drawn after that frame is painted
-  const late = useAfterPaint(results, SECONDARY_SETTLE_MS);
+  const late = useAfterPaint(results);
   // Each plot is rebuilt (and redrawn) only when what it shows changes. `results` changes twice per
   // edit: with the new curves, then again when the sizing verdicts follow a frame later. The curves
   // (`curves` keeps its identity until the envelopes are recomputed) are all the power plot and the
