@@ -28,7 +28,11 @@ function fakeProject(opts: { pathTxt?: string; exe?: string }): string {
   // a stand-in dev server that reports its arguments and exits 3
   const ev = join(dir, 'node_modules', 'electron-vite', 'bin');
   mkdirSync(ev, { recursive: true });
-  writeFileSync(join(dir, 'node_modules', 'electron-vite', 'package.json'), JSON.stringify({ name: 'electron-vite', version: '6.0.0' }));
+  // the real package's exports map exposes only its API and package.json, not the command's file
+  writeFileSync(
+    join(dir, 'node_modules', 'electron-vite', 'package.json'),
+    JSON.stringify({ name: 'electron-vite', version: '6.0.0', exports: { '.': './dist/index.js', './package.json': './package.json' }, bin: { 'electron-vite': 'bin/electron-vite.js' } }),
+  );
   writeFileSync(join(ev, 'electron-vite.js'), "console.log('dev server ' + process.argv.slice(2).join(' ')); process.exit(3);\n");
   return dir;
 }

@@ -37,8 +37,6 @@ const EXPORT_NOTICE_MS = 8000;
 
 /** Wait after the last keystroke of a burst before recomputing, ms. */
 export const EDIT_DEBOUNCE_MS = 25;
-/** A keystroke this long after the previous one starts a new burst and is computed at once, ms. */
-export const EDIT_QUIET_MS = 150;
 
 interface Checked {
   issues: Record<string, string>;
@@ -184,17 +182,19 @@ export function App() {
   useEffect(() => {
     let h: ReturnType<typeof setTimeout> | null = null;
     let save: ReturnType<typeof setTimeout> | null = null;
-    let lastEdit = -Infinity;
+    // true from a check until the task that redraws after it has ended: a keystroke that finds it
+    // true was waiting in the queue behind that redraw (keys arriving faster than the redraws)
+    let busy = false;
     const off = store.onEdit(() => {
       setDirty(true);
       if (h !== null) clearTimeout(h);
-      // leading-edge debounce: an edit after a quiet spell is checked at once, a burst of
-      // keystrokes is coalesced into one check EDIT_DEBOUNCE_MS after its last key
-      const now = performance.now();
-      const quiet = now - lastEdit > EDIT_QUIET_MS;
-      lastEdit = now;
+      // an edit is checked at once while the redraws keep up with the keys; keys that queued up
+      // behind a redraw are coalesced into one check EDIT_DEBOUNCE_MS after the last of them
+      const quiet = !busy;
       const run = () => {
         h = null;
+        busy = true;
+        setTimeout(() => (busy = false), 0);
         performance.mark('tw-check');
         const c = check(store.getDraft().tree);
         store.setIssues(c.issues);

@@ -483,11 +483,19 @@ export const EnvelopeView = memo(function EnvelopeView({ results, opts, setOpts,
   // the torque plot follows each edit at once; the power plot and the current plane are built and
   // drawn after that frame is painted
   const late = useAfterPaint(results);
-  const speeds = useMemo(() => parseSpeeds(speedText ?? defaultSpeeds(late)), [speedText, late]);
+  // Each plot is rebuilt (and redrawn) only when what it shows changes. `results` changes twice per
+  // edit: with the new curves, then again when the sizing verdicts follow a frame later. The curves
+  // (`curves` keeps its identity until the envelopes are recomputed) are all the power plot and the
+  // current plane show; the torque plot also marks each requirement met or not, so it is redrawn for
+  // the verdicts only when a mark changes.
+  const curves = results.curves;
+  const lateCurves = late.curves;
+  const marksKey = results.project.requirements.map((_, i) => pointVerdict(results, i).fails ?? 'met').join();
+  const speeds = useMemo(() => parseSpeeds(speedText ?? defaultSpeeds(late)), [speedText, lateCurves]);
   // one speed range for the torque and the power plot: a zoom or pan on either applies to both
   const [xRange, setXRange] = useState<SpeedRange | null>(null);
-  const fig0 = useMemo(() => torqueOnlyFigure(results, theme, show), [results, theme, show]);
-  const pfig0 = useMemo(() => powerSpeedFigure(late, theme, show), [late, theme, show]);
+  const fig0 = useMemo(() => torqueOnlyFigure(results, theme, show), [curves, marksKey, theme, show]);
+  const pfig0 = useMemo(() => powerSpeedFigure(late, theme, show), [lateCurves, theme, show]);
   const fig = useMemo(() => ({ data: fig0.data, layout: withXRange(fig0.layout, xRange) }), [fig0, xRange]);
   const pfig = useMemo(() => ({ data: pfig0.data, layout: withXRange(pfig0.layout, xRange) }), [pfig0, xRange]);
   const onSpeedZoom = useCallback((ev: Record<string, unknown>) => {
@@ -495,7 +503,7 @@ export const EnvelopeView = memo(function EnvelopeView({ results, opts, setOpts,
     if (r === null) return;
     setXRange((cur) => (r === 'reset' ? null : sameRange(cur, r) ? cur : r));
   }, []);
-  const plane = useMemo(() => planeFigure(late, theme, speeds, op), [late, theme, speeds, op]);
+  const plane = useMemo(() => planeFigure(late, theme, speeds, op), [lateCurves, theme, speeds, op]);
 
   const onHover = useCallback(
     (ev: any) => {
