@@ -70,7 +70,7 @@ describe('every CSV writer goes through it', () => {
       const rows = parseCsv(appEnvelopeCsv(r));
       expect(rows[0]).toEqual([`# torquewise envelope; project: ${name}`]);
       const header = rows.findIndex((row) => row[0] === 'curve');
-      expect(header).toBe(3);
+      expect(header).toBe(4); // three '#' rows before it: project, points, effective limits, units
       for (const row of rows.slice(header)) expect(row).toHaveLength(10);
       for (const row of rows) for (const c of row) expect(readsAsFormula(c)).toBe(false);
     });

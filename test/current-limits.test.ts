@@ -1,4 +1,5 @@
 import { describe, expect, it } from 'vitest';
+import { parseCsv } from '../src/core/csv';
 import { describeLimit, describeLimits, effectiveCurrentLimits, limitField } from '../src/core/current-limits';
 import { computeEnvelopes, computeVerdicts } from '../src/renderer/src/compute';
 import { envelopeCsv } from '../src/renderer/src/exports';
@@ -66,10 +67,10 @@ describe('which limit binds, in words', () => {
     const p = resolveProject(parseProject(demoJson('demo-ipm-traction')));
     const env = computeEnvelopes(p, { points: 5, speedMax: null });
     const csv = envelopeCsv({ ...env, ...computeVerdicts(p, env.speedMax) });
-    const head = csv.split('\n').filter((l) => l.startsWith('#'));
+    const head = parseCsv(csv).map((row) => row[0] ?? '').filter((c) => c.startsWith('#'));
     expect(head).toContain('# current limits: peak 449.7 A peak (318 A rms): motor; continuous 226 A peak (159.8 A rms): inverter; Vmax 190.871999 V peak phase');
     // the curves are drawn at the effective limit: the standstill current of the peak curve is 449.7 A
-    const first = csv.split('\n').find((l) => l.startsWith('peak-hot-motoring,'))!.split(',');
+    const first = parseCsv(csv).find((row) => row[0] === 'peak-hot-motoring')!;
     expect(Number(first[6])).toBeCloseTo(318 * Math.SQRT2, 3);
   });
 });

@@ -11,6 +11,8 @@ describe('defaulted inputs said as findings', () => {
     ]);
     expect(defaultedInputFindings({ conditions: { windingTemp_C: 120, magnetTemp_C: 100, magnetTempCoeff: -0.001 } })).toEqual([]);
     expect(defaultedInputFindings(null)).toEqual([]);
+    // without a conditions section the resolution's own 'conditions-assumed' finding says it all
+    expect(defaultedInputFindings({ motor: {} })).toEqual([]);
     // the defaults these findings speak of are the schema's
     const p = parseProject({
       format: 'torquewise-project', version: 1, name: 'x',

@@ -19,7 +19,7 @@ describe('figure conditions', () => {
     // SVPWM: Vmax = u (Vdc - 2 drop) / sqrt(3) = 0.95 (320 - 3) / sqrt(3) = 173.87 V
     expect(lines[1]).toContain(`Vmax ${Number(((0.95 * 317) / Math.sqrt(3)).toPrecision(4))} V peak phase`);
     // the servo demo gives no motor currents in model terms: the inverter binds, 15 A peak = 10.61 A rms
-    expect(lines[2]).toBe('peak current 15 A peak (10.61 A rms), inverter binds (no motor rating given) · continuous 5.5 A peak (3.889 A rms), inverter binds (no motor rating given)');
+    expect(lines[2]).toBe('peak current 15 A peak (10.61 A rms), inverter binds (motor 16 A peak) · continuous 5.5 A peak (3.889 A rms), inverter binds (motor 5.5 A peak)');
   });
   it('says when the motor binds, and the inverter figure beside it', () => {
     expect(limitWords({ A: 100, binds: 'motor', inverter_A: 150, motor_A: 100 })).toBe('100 A peak (70.71 A rms), motor binds (inverter 150 A peak)');

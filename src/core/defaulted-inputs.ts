@@ -11,7 +11,10 @@ const isObject = (x: unknown): x is Record<string, unknown> => typeof x === 'obj
 export function defaultedInputFindings(json: unknown): Finding[] {
   if (!isObject(json)) return [];
   const c = json['conditions'];
-  const cond = isObject(c) ? c : {};
+  // no conditions at all: one finding of the resolution says every temperature is 20 °C (and the
+  // remanence coefficient then changes nothing)
+  if (!isObject(c)) return [];
+  const cond = c;
   const out: Finding[] = [];
   if (cond['magnetTemp_C'] === undefined) {
     out.push({

@@ -5,6 +5,7 @@
  */
 import type { Conditions, CurrentLimits, DqMachine, DriveLimits, Finding, InverterSpec, Mechanics, Requirement } from './types';
 import { effectiveCurrentLimits } from './current-limits';
+import { defaultedInputFindings } from './defaulted-inputs';
 import { InputError } from './errors';
 import { machineAt } from './thermal';
 import { driveLimits } from './inverter';
@@ -117,7 +118,12 @@ export function parseProjectJson(source: string): unknown {
 export function loadProjectText(source: string): ResolvedProject {
   const json = parseProjectJson(source);
   const m = migrateProject(json);
-  if (!m.readOnly && m.fromVersion === m.json['version']) return resolveProject(parseProject(json));
+  if (!m.readOnly && m.fromVersion === m.json['version']) {
+    const current = resolveProject(parseProject(json));
+    // inputs left to the schema's defaults, said as the app says them
+    current.findings.push(...defaultedInputFindings(json));
+    return current;
+  }
   let rp: ResolvedProject;
   try {
     rp = resolveProject(parseProject(m.json));
@@ -126,6 +132,7 @@ export function loadProjectText(source: string): ResolvedProject {
     throw new InputError('version', `is ${m.fromVersion}: the file was written by a newer Torquewise; this one reads version ${m.json['version']} and cannot read it (${e.message})`);
   }
   rp.findings.unshift(...m.findings);
+  rp.findings.push(...defaultedInputFindings(m.json));
   return m.readOnly ? { ...rp, readOnly: true } : rp;
 }
 
@@ -273,7 +280,7 @@ function ratedFindings(rated: RatedData, hot: DqMachine, inv: InverterSpec, peak
         op.limitedBy === 'current'
           ? `it needs ${amps(op.current)}, above Imax`
           : op.limitedBy === 'beyond-mtpv'
-            ? `no current reaches it within ${fmt(peak.Vmax)} V peak phase (beyond MTPV)`
+            ? `no current reaches it within ${fmt(peak.Vmax)} V peak phase (beyond the maximum-torque-per-volt limit)`
             : `it needs ${amps(op.current)} to stay within ${fmt(peak.Vmax)} V peak phase, above Imax`;
       out.push({
         code: 'rated-point-infeasible',

@@ -200,7 +200,7 @@ describe('Torquewise in a browser', () => {
     expect(await page.textContent('[data-testid="envelope-limits"]')).toBe('current limits: peak 449.7 A peak (318 A rms): motor; continuous 226 A peak (159.8 A rms): inverter');
     // the rated point is a continuous-duty requirement: its verdict says which limit it was checked against
     expect(await page.getAttribute('[data-testid="req-mark-1"]', 'data-duty')).toBe('continuous');
-    expect(await page.getAttribute('[data-testid="req-mark-1"]', 'title')).toMatch(/^met, hot and cold \(continuous duty, continuous current limit 226 A peak \(inverter\)\); hot magnet: field weakening, current headroom 48\.16 A peak/);
+    expect(await page.getAttribute('[data-testid="req-mark-1"]', 'title')).toMatch(/^met, hot and cold \(continuous duty, continuous current limit 226 A peak \(inverter's rating\)\); hot magnet: field weakening, current headroom 48\.16 A peak/);
     const vdc = await page.inputValue(input('inverter.Vdc'));
     const icont = await page.inputValue(input('inverter.Icont'));
     await page.fill(input('inverter.Vdc'), '-1');
@@ -449,7 +449,7 @@ describe('Torquewise in a browser', () => {
         expect(svg).toMatch(/Torquewise \d+\.\d+\.\d+ · \d{4}-\d{2}-\d{2}/);
         expect(svg).toContain('Vdc 350 V, SVPWM');
         expect(svg).toMatch(/peak current [\d.]+ A peak \([\d.]+ A rms\), (motor|inverter) binds/);
-        expect(svg).toContain('peak current, hot magnet'); // a legend entry
+        expect(svg).toMatch(/peak [\d.]+ A peak \([\d.]+ A rms\): (inverter|motor), hot magnet/); // a legend entry
       } else expect(readFileSync(file).subarray(1, 4).toString('latin1')).toBe('PNG');
     }
     await page.emulateMedia({ media: 'print' });
