@@ -297,10 +297,12 @@ export function powerSpeedFigure(r: Results, theme: 'light' | 'dark', show: Show
   const l = both.layout as Record<string, any>;
   const layout: Layout = {
     ...l,
-    margin: { l: 70, r: 16, t: 30, b: 40 },
+    // the legend's entries name the effective limits (long): it starts below the speed axis's title
+    // and wraps onto its own rows in the bottom margin
+    margin: { l: 70, r: 16, t: 30, b: 100 },
     yaxis: { ...l.yaxis2, domain: [0, 1] },
     xaxis: { ...l.xaxis, anchor: 'y' },
-    legend: { orientation: 'h', x: 0, y: -0.3, font: { size: 11 } },
+    legend: { orientation: 'h', x: 0, y: -0.36, yanchor: 'top', font: { size: 11 } },
   };
   delete (layout as Record<string, unknown>).yaxis2;
   return { data, layout };
@@ -623,7 +625,7 @@ export const EnvelopeView = memo(function EnvelopeView({ results, opts, setOpts,
             <span><span className="swatch" style={{ background: REGION_FILL[theme].mtpv }} /> MTPV</span>
           </div>
           <Plot data={fig.data} layout={fig.layout} height={330} testId="envelope-plot" onHover={onHover} onRelayout={onSpeedZoom} onDrawn={onDrawn} elRef={(el) => (envEl.current = el)} />
-          <Plot data={pfig.data} layout={pfig.layout} height={300} testId="power-plot" onRelayout={onSpeedZoom} defer />
+          <Plot data={pfig.data} layout={pfig.layout} height={340} testId="power-plot" onRelayout={onSpeedZoom} defer />
           <div className="readout" data-testid="summary-line">
             base speed {Math.round(results.main.baseSpeed * RAD_S_TO_RPM)} rpm · maximum speed{' '}
             {results.main.maxSpeed === null ? 'unbounded (current limit reaches past the voltage-ellipse centre)' : `${Math.round(results.main.maxSpeed * RAD_S_TO_RPM)} rpm`} · peak current, hot magnet, motoring ·
