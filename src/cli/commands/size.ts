@@ -11,7 +11,7 @@ const snap = (x: number, scale: number): number => (Math.abs(x) < 1e-9 * scale ?
 /** What binds a point, for the table: nothing (MTPA), field weakening (met on the voltage limit by design), or the limit that stops it. */
 function bindsText(q: SizingPoint): string {
   if (q.met) return q.limitedBy === 'none' ? '-' : 'field weakening';
-  return q.limitedBy;
+  return limitPhrase(q.limitedBy);
 }
 
 export const sizeCommand: Command = {
