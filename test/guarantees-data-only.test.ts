@@ -54,7 +54,7 @@ describe('no code runs from a project file', () => {
     }
     expect(hits).toEqual([]);
   });
-  it('the only code loaders are the bundled worker and the development server, each at one known place', () => {
+  it('the only code loaders are the bundled worker, the built page (app scheme) and the development server, each at one known place', () => {
     const loaders: string[] = [];
     for (const f of all) {
       const rel = relative(root, f).split('\\').join('/');

@@ -181,4 +181,17 @@ describe('FileService', () => {
     const third = service();
     expect(await third.s.recoveryCheck()).toMatchObject({ text: 'edits of a', documentPath: a });
   });
+
+  it('after another file was opened, a discard (sent after its save) leaves the recovered document\'s edits alone', async () => {
+    const a = join(dir, 'a.json');
+    const c = join(dir, 'c.json');
+    writeFileSync(c, P1);
+    await service().s.recoveryWrite({ text: 'edits of a', documentPath: a });
+    const next = service({ open: [c] });
+    expect(await next.s.recoveryCheck()).toMatchObject({ text: 'edits of a' });
+    await next.s.open();
+    expect(await next.s.save({ path: c, text: P2 })).toEqual({ ok: true, path: c });
+    await next.s.recoveryDiscard();
+    expect(await service().s.recoveryCheck()).toMatchObject({ text: 'edits of a', documentPath: a });
+  });
 });

@@ -6,6 +6,7 @@
  *  - save faults: scenarios survived (a failing or crashing step of the atomic save, see src/node/save-faults.ts)
  *  - memory: peak resident memory of a 60 s simulation at 20 kHz control, in its own process
  *  - cancel: time from raising the abort signal to runSimulation returning (fresh processes, and back to back)
+ *  - CSV text and plot text: hostile names through every CSV writer and the plot-text escaper (see text-cases.ts)
  * Options: --cases N (default 10000), --seed S (default a new seed each run, printed), --quick
  * (1000 cases, no long simulation). Exit code 1 when a figure misses its bound.
  */
@@ -16,6 +17,7 @@ import { spawnSync } from 'node:child_process';
 import { runFuzz } from './fuzz-cases';
 import { runSaveFaultScenarios } from '../src/node/save-faults';
 import { HOSTILE_KINDS, runHostileFiles } from './hostile-files';
+import { runCsvTextCases, runPlotTextCases } from './text-cases';
 
 export const BOUNDS = { fuzzCases: 10_000, hostileCases: 1_000, rss_MB: 300, cancel_ms: 100 } as const;
 
@@ -71,6 +73,18 @@ say('');
   } finally {
     rmSync(dir, { recursive: true, force: true });
   }
+}
+
+// ---- text from a file: every CSV writer, and the plot-text escaper
+{
+  const n = quick ? 1000 : 10_000;
+  const csv = runCsvTextCases(seed, n);
+  say(`csv text: ${csv.run} hostile names through every CSV writer (app envelope and traces, CLI envelope and simulate), ${csv.passed} passed: every record reads back with its header's cell count, no cell reads as a formula, the name comes back whole`);
+  for (const f of csv.failures.slice(0, 10)) say(`      FAILED ${f}`);
+  const plot = runPlotTextCases(seed, n);
+  say(`plot text: ${plot.run} hostile labels through the plot-text escaper, ${plot.passed} passed: no tag, no %{...} placeholder, shown as written`);
+  for (const f of plot.failures.slice(0, 10)) say(`      FAILED ${f}`);
+  if (csv.passed !== csv.run || plot.passed !== plot.run) ok = false;
 }
 
 // ---- memory of the long simulation (its own process, so the figure is its own)

@@ -71,6 +71,8 @@ export class FileService {
     if (r.ok) {
       if (!r.readOnly) this.grants.grant(path);
       this.known.set(path, { text: r.text, at: this.now(), how: 'opened' });
+      // the window moved on to another document: a later discard must not drop the offered edits
+      this.offered = null;
       await this.remember(path);
     }
     return r;
