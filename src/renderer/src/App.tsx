@@ -107,7 +107,9 @@ function parseText(text: string): { ok: true; tree: Json } | { ok: false; why: s
   try {
     return { ok: true, tree: parseProjectJson(text) as Json };
   } catch (e) {
-    return { ok: false, why: isInputError(e) ? e.message : 'is not valid JSON' };
+    // "x.json is not valid JSON: ..." for the whole file; "x.json: inverter.Imax is given twice ..." for a part of it
+    if (!isInputError(e) || e.field === 'file') return { ok: false, why: ` ${isInputError(e) ? e.message.replace(/^file /, '') : 'is not valid JSON'}` };
+    return { ok: false, why: `: ${e.message}` };
   }
 }
 
@@ -254,7 +256,7 @@ export function App() {
   const load = useCallback((text: string, src: { name: string; path: string | null; demo: boolean; readOnly: boolean }, message?: string) => {
     const parsed = parseText(text);
     if (!parsed.ok) {
-      setNotice(`${src.name}: ${parsed.why}; nothing was changed.`);
+      setNotice(`${src.name}${parsed.why}; nothing was changed.`);
       return false;
     }
     // a list beyond the schema's cap is refused by its length before the form lays it out
