@@ -6,25 +6,12 @@ import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
 import { spawnSync } from 'node:child_process';
 import { describe, expect, it } from 'vitest';
-import { main } from '../src/cli/index';
+import { runCli } from './cli-run';
 
 const root = resolve(__dirname, '..');
 const demo = (name: string) => join(root, 'resources', `demo-${name}.json`);
 
-class Sink {
-  text = '';
-  write(s: string): boolean {
-    this.text += s;
-    return true;
-  }
-}
-
-async function run(...argv: string[]): Promise<{ code: number; out: string; err: string }> {
-  const out = new Sink();
-  const err = new Sink();
-  const code = await main(argv, out, err);
-  return { code, out: out.text, err: err.text };
-}
+const run = runCli;
 
 const dir = mkdtempSync(join(tmpdir(), 'tw-cli-'));
 

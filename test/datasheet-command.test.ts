@@ -3,7 +3,7 @@ import { copyFileSync, mkdtempSync, readFileSync, statSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
 import { afterEach, beforeEach, describe, expect, it } from 'vitest';
-import { main } from '../src/cli/index';
+import { runCli } from './cli-run';
 import { datasheetDate } from '../src/cli/commands/datasheet';
 import { computeDatasheetResults } from '../src/core/datasheet-results';
 import { datasheetHtml } from '../src/core/datasheet-html';
@@ -14,19 +14,7 @@ const root = resolve(__dirname, '..');
 const dir = mkdtempSync(join(tmpdir(), 'tw-datasheet-'));
 const servoSrc = join(root, 'resources', 'demo-servo-axis.json');
 
-class Sink {
-  text = '';
-  write(s: string): boolean {
-    this.text += s;
-    return true;
-  }
-}
-async function run(...argv: string[]): Promise<{ code: number; out: string; err: string }> {
-  const out = new Sink();
-  const err = new Sink();
-  const code = await main(argv, out, err);
-  return { code, out: out.text, err: err.text };
-}
+const run = runCli;
 
 let saved: string | undefined;
 beforeEach(() => {

@@ -1,22 +1,20 @@
 // End-to-end: the built renderer in Debian's headless Chromium, driven by playwright-core.
 import { readFileSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
-import type { Server } from 'node:http';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Browser, Page } from 'playwright-core';
-import { buildRenderer, cleanup, launch, ROOT, serve, shotPath, SHOTS } from './harness';
+import { closeApp, openApp, ROOT, type AppSession, shotPath, SHOTS } from './harness';
 import { parseProject } from '../../src/core/schema';
 import { resolveProject } from '../../src/core/project';
 import { computeEnvelope } from '../../src/core/envelope';
 import { RAD_S_TO_RPM } from '../../src/core/units';
 import { parseCsv } from '../../src/core/csv';
 
-let dir = '';
-let server: Server;
+let app: AppSession | undefined;
 let url = '';
 let browser: Browser;
 let page: Page;
-const consoleErrors: string[] = [];
+let consoleErrors: string[] = [];
 
 const input = (path: string) => `.inputs [data-path="${path}"]`;
 
@@ -44,23 +42,12 @@ async function curvesDrawn(testId: string): Promise<number> {
 }
 
 beforeAll(async () => {
-  dir = await buildRenderer();
-  ({ server, url } = await serve(dir));
-  browser = await launch();
-  const ctx = await browser.newContext({ viewport: { width: 1440, height: 900 }, acceptDownloads: true });
-  page = await ctx.newPage();
-  page.on('console', (m) => {
-    if (m.type() === 'error') consoleErrors.push(m.text());
-  });
-  page.on('pageerror', (e) => consoleErrors.push(`pageerror: ${e.message}`));
-  await page.goto(url);
-  await page.waitForSelector('[data-testid="envelope-plot"] .scatterlayer .trace');
+  app = await openApp({ acceptDownloads: true, consoleErrors: true });
+  ({ url, browser, page, errors: consoleErrors } = app);
 }, 120_000);
 
 afterAll(async () => {
-  await browser?.close();
-  server?.close();
-  if (dir) cleanup(dir);
+  await closeApp(app);
 });
 
 describe('Torquewise in a browser', () => {

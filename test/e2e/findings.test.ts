@@ -1,17 +1,13 @@
 // End-to-end: findings where the eye is. Findings beside their inputs and in one strip on every view,
 // plain words instead of codes, inputs edited in one place, the load-step traces, the envelope labels
 // and the current plane's fixed axes. Screenshots go to test-results/h4-*.png.
-import type { Server } from 'node:http';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Browser, Page } from 'playwright-core';
-import { buildRenderer, cleanup, launch, serve, shotPath } from './harness';
+import type { Page } from 'playwright-core';
+import { closeApp, openApp, type AppSession, shotPath } from './harness';
 
-let dir = '';
-let server: Server;
-let url = '';
-let browser: Browser;
+let app: AppSession | undefined;
 let page: Page;
-const consoleErrors: string[] = [];
+let consoleErrors: string[] = [];
 
 const input = (path: string) => `.inputs [data-path="${path}"]`;
 
@@ -62,23 +58,12 @@ async function expectNoOverlaps(where: string): Promise<number> {
 }
 
 beforeAll(async () => {
-  dir = await buildRenderer();
-  ({ server, url } = await serve(dir));
-  browser = await launch();
-  const ctx = await browser.newContext({ viewport: { width: 1440, height: 900 } });
-  page = await ctx.newPage();
-  page.on('console', (m) => {
-    if (m.type() === 'error') consoleErrors.push(m.text());
-  });
-  page.on('pageerror', (e) => consoleErrors.push(`pageerror: ${e.message}`));
-  await page.goto(url);
-  await page.waitForSelector('[data-testid="envelope-plot"] .scatterlayer .trace');
+  app = await openApp({ consoleErrors: true });
+  ({ page, errors: consoleErrors } = app);
 }, 120_000);
 
 afterAll(async () => {
-  await browser?.close();
-  server?.close();
-  if (dir) cleanup(dir);
+  await closeApp(app);
 });
 
 describe('findings where the eye is', () => {

@@ -6,7 +6,7 @@ import { tmpdir } from 'node:os';
 import { extname, join, normalize, resolve, sep } from 'node:path';
 import type { AddressInfo } from 'node:net';
 import { build } from 'vite';
-import { chromium, type Browser } from 'playwright-core';
+import { chromium, type Browser, type Page } from 'playwright-core';
 
 export const ROOT = resolve(__dirname, '..', '..');
 export const SHOTS = join(ROOT, 'test-results');
@@ -89,4 +89,40 @@ export function shotPath(name: string): string {
 
 export function cleanup(dir: string): void {
   rmSync(dir, { recursive: true, force: true });
+}
+
+/** A built renderer served on 127.0.0.1, a browser and one page on it at 1440 x 900, ready (envelope drawn). */
+export interface AppSession {
+  dir: string;
+  server: Server;
+  url: string;
+  browser: Browser;
+  page: Page;
+  /** the page's errors (and, with `consoleErrors`, its console errors), for a test to assert empty */
+  errors: string[];
+}
+
+export async function openApp(opts: { acceptDownloads?: boolean; consoleErrors?: boolean } = {}): Promise<AppSession> {
+  const dir = await buildRenderer();
+  const { server, url } = await serve(dir);
+  const browser = await launch();
+  const ctx = await browser.newContext({ viewport: { width: 1440, height: 900 }, ...(opts.acceptDownloads ? { acceptDownloads: true } : {}) });
+  const page = await ctx.newPage();
+  const errors: string[] = [];
+  if (opts.consoleErrors) {
+    page.on('console', (m) => {
+      if (m.type() === 'error') errors.push(m.text());
+    });
+  }
+  page.on('pageerror', (e) => errors.push(opts.consoleErrors ? `pageerror: ${e.message}` : e.message));
+  await page.goto(url);
+  await page.waitForSelector('[data-testid="envelope-plot"] .scatterlayer .trace');
+  return { dir, server, url, browser, page, errors };
+}
+
+export async function closeApp(app: AppSession | undefined): Promise<void> {
+  if (!app) return;
+  await app.browser.close();
+  app.server.close();
+  cleanup(app.dir);
 }

@@ -4,18 +4,14 @@
 // once, then kept aside.
 import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
-import type { Server } from 'node:http';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Browser, Page } from 'playwright-core';
-import { buildRenderer, cleanup, launch, ROOT, serve } from './harness';
+import type { Page } from 'playwright-core';
+import { closeApp, openApp, ROOT, type AppSession } from './harness';
 import { MAX_LIST_ENTRIES, MAX_PROJECT_BYTES } from '../../src/core/schema';
 
-let dir = '';
-let server: Server;
-let url = '';
-let browser: Browser;
+let app: AppSession | undefined;
 let page: Page;
-const pageErrors: string[] = [];
+let pageErrors: string[] = [];
 
 const demo = () => JSON.parse(readFileSync(join(ROOT, 'resources', 'demo-ipm-traction.json'), 'utf8')) as { requirements: Array<{ label: string }> } & Record<string, unknown>;
 
@@ -25,19 +21,12 @@ async function openFile(name: string, buffer: Buffer): Promise<void> {
 }
 
 beforeAll(async () => {
-  dir = await buildRenderer();
-  ({ server, url } = await serve(dir));
-  browser = await launch();
-  page = await (await browser.newContext({ viewport: { width: 1440, height: 900 } })).newPage();
-  page.on('pageerror', (e) => pageErrors.push(e.message));
-  await page.goto(url);
-  await page.waitForSelector('[data-testid="envelope-plot"] .scatterlayer .trace');
+  app = await openApp();
+  ({ page, errors: pageErrors } = app);
 }, 120_000);
 
 afterAll(async () => {
-  await browser?.close();
-  server?.close();
-  if (dir) cleanup(dir);
+  await closeApp(app);
 });
 
 describe('text from a file in the page', () => {

@@ -6,7 +6,10 @@ import { tuneFromProject, type LoopReport, type TuningReport } from '../../core/
 import { isInputError } from '../../core/errors';
 import { axis, baseLayout, CURVE, Plot, readTheme } from './Plot';
 import { num } from './format';
-import { InputSummary } from './input-summary';
+import { CONTROL_SUMMARY, InputSummary } from './input-summary';
+
+/** The controller inputs the tuning depends on (shown read-only; edited in the side panel). */
+const TUNING_INPUTS = ['control.fCtrl_Hz', 'control.delaySamples', 'control.currentBandwidth_Hz', 'control.speedBandwidth_Hz', 'control.speedTuning.method', 'control.speedTuning.a', 'control.speedLoopDivider'];
 import { plainMessage, severityPhrase } from '../../core/phrases';
 
 interface Loop {
@@ -93,15 +96,7 @@ export const TuningView = memo(function TuningView({ project, theme }: { project
             {project.file.control === undefined && <div className="finding">No control section: the defaults are used (current bandwidth fCtrl/20, speed bandwidth a tenth of it).</div>}
             <InputSummary
               testId="tuning-inputs"
-              items={[
-                { path: 'control.fCtrl_Hz', label: 'Control rate', unit: 'Hz', fallback: '10000 Hz (default)' },
-                { path: 'control.delaySamples', label: 'Delay', unit: 'period(s)', fallback: '1 period (default)' },
-                { path: 'control.currentBandwidth_Hz', label: 'Current bandwidth', unit: 'Hz', fallback: 'fCtrl/20 (default) or gains' },
-                { path: 'control.speedBandwidth_Hz', label: 'Speed bandwidth', unit: 'Hz', fallback: '– (rule or gains)' },
-                { path: 'control.speedTuning.method', label: 'Speed rule', fallback: 'from bandwidth (default)' },
-                { path: 'control.speedTuning.a', label: 'Spacing a', fallback: '–' },
-                { path: 'control.speedLoopDivider', label: 'Speed loop every', unit: 'period(s)', fallback: '1 period (default)' },
-              ]}
+              items={CONTROL_SUMMARY.filter((i) => TUNING_INPUTS.includes(i.path))}
               note="Edited in the side panel (Control): click a name to go there."
             />
             <div className="hint" style={{ fontSize: 12 }}>
