@@ -6,9 +6,10 @@
  */
 import { readFileSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
-import type { DqMachine, DriveLimits } from '../src/core/types';
-import { computeEnvelope, ENVELOPE_ACCURACY, type Envelope } from '../src/core/envelope';
-import { loadProjectText } from '../src/core/project';
+import type { DqMachine } from '../src/core/machine/dq-machine';
+import type { DriveLimits } from '../src/core/drive/inverter-spec';
+import { computeEnvelope, ENVELOPE_ACCURACY, type Envelope } from '../src/core/steady-state/envelope';
+import { loadProjectText } from '../src/core/project/project';
 import type { BenchSection } from './index';
 
 const POINTS = 400;

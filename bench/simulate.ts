@@ -12,12 +12,12 @@ import { fileURLToPath } from 'node:url';
 import { setFlagsFromString } from 'node:v8';
 import { runInNewContext } from 'node:vm';
 import ode45 from 'ode45-cash-karp';
-import { loadProjectText } from '../src/core/project';
-import { runSimulation, simulationFromProject } from '../src/core/simulate';
-import type { SimulationResult, SimulationSetup } from '../src/core/simulate';
+import { loadProjectText } from '../src/core/project/project';
+import { runSimulation, simulationFromProject } from '../src/core/simulation/simulate';
+import type { SimulationResult, SimulationSetup } from '../src/core/simulation/simulate';
 import type { BenchSection } from './index';
-import { STATE_SIZE } from '../src/core/plant';
-import { MAX_TRACE_POINTS } from '../src/core/decimate';
+import { STATE_SIZE } from '../src/core/simulation/plant';
+import { MAX_TRACE_POINTS } from '../src/core/simulation/decimate';
 
 const REPEATS = 9;
 /** full-rate traces, for the accuracy comparison */

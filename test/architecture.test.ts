@@ -65,3 +65,45 @@ describe('source layering by runtime', () => {
     expect(offenders).toEqual([]);
   });
 });
+
+// Inside src/core, areas in import order: a file may import its own area and the areas before it,
+// never one after it (the machine model knows nothing of drives, a solver nothing of the project
+// file, the project nothing of reports).
+//   base <- mathematics <- machine <- drive <- steady-state, control <- simulation <- project <- reports
+// steady-state and control stand side by side: control may use steady-state (its reference table
+// is built from the operating-point solver), steady-state never control.
+const AREAS = ['base', 'mathematics', 'machine', 'drive', 'steady-state', 'control', 'simulation', 'project', 'reports'] as const;
+function areaOf(abs: string): string | null {
+  const rel = relative(join(root, 'src', 'core'), abs).split(sep);
+  return rel.length >= 2 && !rel[0]!.startsWith('..') ? rel[0]! : null;
+}
+/** The project file's modules: no solver (machine to simulation) may import them. */
+const PROJECT_MODULES = /[\\/]core[\\/]project[\\/]/;
+
+describe('core areas in import order', () => {
+  const coreFiles = files(join(root, 'src', 'core'));
+  it('every core file sits in a known area', () => {
+    const stray = coreFiles.filter((f) => !AREAS.includes(areaOf(f) as (typeof AREAS)[number])).map((f) => relative(root, f));
+    expect(stray).toEqual([]);
+  });
+  for (const file of coreFiles) {
+    const area = areaOf(file);
+    const rank = AREAS.indexOf(area as (typeof AREAS)[number]);
+    if (rank < 0) continue;
+    it(`${relative(root, file)} imports only its own and earlier areas`, () => {
+      for (const spec of imports(file)) {
+        if (!spec.startsWith('.')) continue;
+        const target = resolve(dirname(file), spec);
+        const ta = areaOf(target);
+        expect(ta, `${spec} leaves src/core`).not.toBeNull();
+        const tr = AREAS.indexOf(ta as (typeof AREAS)[number]);
+        expect(tr <= rank, `${area} must not import ${ta} (${spec})`).toBe(true);
+        if (area !== 'project' && area !== 'reports') expect(PROJECT_MODULES.test(target), `a solver must not import the project (${spec})`).toBe(false);
+      }
+    });
+  }
+  it('no file in src/core is longer than 400 lines', () => {
+    const long = coreFiles.map((f) => [relative(root, f), readFileSync(f, 'utf8').split('\n').length] as const).filter(([, n]) => n > 400);
+    expect(long).toEqual([]);
+  });
+});

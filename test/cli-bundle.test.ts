@@ -38,7 +38,7 @@ describe('when the bundle is rebuilt', () => {
   it('the inputs are every file under src, the build config and the dependency pins', () => {
     const rel = bundleInputs().map((f) => relative(ROOT, f).split('\\').join('/'));
     expect(rel).toContain('src/cli/index.ts');
-    expect(rel).toContain('src/core/envelope.ts');
+    expect(rel).toContain('src/core/steady-state/envelope.ts');
     expect(rel).toContain('vite.cli.config.ts');
     expect(rel).toContain('package-lock.json');
   });

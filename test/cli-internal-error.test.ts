@@ -3,8 +3,8 @@
 import { describe, expect, it, vi } from 'vitest';
 import { resolve } from 'node:path';
 
-vi.mock('../src/core/project', async (importOriginal) => {
-  const real = await importOriginal<typeof import('../src/core/project')>();
+vi.mock('../src/core/project/project', async (importOriginal) => {
+  const real = await importOriginal<typeof import('../src/core/project/project')>();
   return {
     ...real,
     loadProjectText: () => {

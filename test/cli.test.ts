@@ -1,7 +1,7 @@
 // The command line as a user meets it: one JSON document with --json, exit codes 0/2/1,
 // one line naming the field for bad input, files written by --csv.
 import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
-import { TRACE_NAMES } from '../src/core/simulate';
+import { TRACE_NAMES } from '../src/core/simulation/simulate';
 import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
 import { spawnSync } from 'node:child_process';

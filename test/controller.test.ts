@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
-import { CascadeController, limitVoltageDq, stepSchedule, scheduleValue, voltageLimitAt, DEFAULT_CONTROLLER_OPTIONS } from '../src/core/controller';
-import type { ControllerConfig, VoltageLimitSpec } from '../src/core/controller';
-import { hexagonVertex } from '../src/core/inverter';
+import { CascadeController, limitVoltageDq, stepSchedule, scheduleValue, voltageLimitAt, DEFAULT_CONTROLLER_OPTIONS } from '../src/core/control/controller';
+import type { ControllerConfig, VoltageLimitSpec } from '../src/core/control/controller';
+import { hexagonVertex } from '../src/core/drive/inverter';
 
 const machine = { polePairs: 3, Rs: 0.1, Ld: 1e-3, Lq: 1e-3, psiM: 0.05 };
 const circle: VoltageLimitSpec = { shape: 'circle', radius: 100, Vdc: 173.2 };

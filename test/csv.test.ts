@@ -4,14 +4,14 @@
 import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
-import { csvDocument, csvNumber, csvRow, csvText, parseCsv, readsAsFormula } from '../src/core/csv';
-import { computeEnvelope } from '../src/core/envelope';
-import { loadProjectText } from '../src/core/project';
-import { runSimulation, simulationFromProject } from '../src/core/simulate';
+import { csvDocument, csvNumber, csvRow, csvText, parseCsv, readsAsFormula } from '../src/core/reports/csv';
+import { computeEnvelope } from '../src/core/steady-state/envelope';
+import { loadProjectText } from '../src/core/project/project';
+import { runSimulation, simulationFromProject } from '../src/core/simulation/simulate';
 import { envelopeCsv as cliEnvelopeCsv } from '../src/cli/commands/envelope';
 import { simulationCsv } from '../src/cli/commands/simulate';
-import { computeEnvelopes, type Results } from '../src/renderer/src/compute';
-import { envelopeCsv as appEnvelopeCsv, tracesCsv } from '../src/renderer/src/exports';
+import { computeEnvelopes, type Results } from '../src/renderer/src/state/compute';
+import { envelopeCsv as appEnvelopeCsv, tracesCsv } from '../src/renderer/src/components/exports';
 
 const demo = (name: string) => readFileSync(join(__dirname, `../resources/demo-${name}.json`), 'utf8');
 const HOSTILE = ['=HYPERLINK("http://x","y")', '+1+2', '-2+3', '@SUM(A1)', '\tx', '\rx', 'a,b', 'line1\nline2', 'say "hi"', 'plain'];

@@ -1,10 +1,10 @@
 import { describe, expect, it } from 'vitest';
-import { parseCsv } from '../src/core/csv';
-import { describeLimit, describeLimits, effectiveCurrentLimits, limitField } from '../src/core/current-limits';
-import { computeEnvelopes, computeVerdicts } from '../src/renderer/src/compute';
-import { envelopeCsv } from '../src/renderer/src/exports';
-import { resolveProject } from '../src/core/project';
-import { parseProject } from '../src/core/schema';
+import { parseCsv } from '../src/core/reports/csv';
+import { describeLimit, describeLimits, effectiveCurrentLimits, limitField } from '../src/core/drive/current-limits';
+import { computeEnvelopes, computeVerdicts } from '../src/renderer/src/state/compute';
+import { envelopeCsv } from '../src/renderer/src/components/exports';
+import { resolveProject } from '../src/core/project/project';
+import { parseProject } from '../src/core/project/schema';
 import { demoJson } from './helpers';
 
 // The drive's current is limited by the weaker of motor and inverter: common practice (no source).

@@ -5,10 +5,10 @@ import { join, resolve } from 'node:path';
 import { afterEach, beforeEach, describe, expect, it } from 'vitest';
 import { runCli } from './cli-run';
 import { datasheetDate } from '../src/cli/commands/datasheet';
-import { computeDatasheetResults } from '../src/core/datasheet-results';
-import { datasheetHtml } from '../src/core/datasheet-html';
-import { loadProjectText } from '../src/core/project';
-import { TOOL_VERSION } from '../src/core/version';
+import { computeDatasheetResults } from '../src/core/reports/datasheet-results';
+import { datasheetHtml } from '../src/core/reports/datasheet-html';
+import { loadProjectText } from '../src/core/project/project';
+import { TOOL_VERSION } from '../src/core/base/version';
 
 const root = resolve(__dirname, '..');
 const dir = mkdtempSync(join(tmpdir(), 'tw-datasheet-'));

@@ -1,13 +1,13 @@
 import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
-import { computeDatasheetResults } from '../src/core/datasheet-results';
-import { datasheetHtml, datasheetTableStep } from '../src/core/datasheet-html';
-import { figureConditions } from '../src/core/figure-conditions';
-import { loadProjectText } from '../src/core/project';
-import { SAFETY_CAUTION } from '../src/core/safety';
-import { RAD_S_TO_RPM } from '../src/core/units';
-import { TOOL_VERSION } from '../src/core/version';
+import { computeDatasheetResults } from '../src/core/reports/datasheet-results';
+import { datasheetHtml, datasheetTableStep } from '../src/core/reports/datasheet-html';
+import { figureConditions } from '../src/core/reports/figure-conditions';
+import { loadProjectText } from '../src/core/project/project';
+import { SAFETY_CAUTION } from '../src/core/steady-state/safety';
+import { RAD_S_TO_RPM } from '../src/core/base/units';
+import { TOOL_VERSION } from '../src/core/base/version';
 
 const text = (n: string) => readFileSync(join(__dirname, '..', 'resources', `${n}.json`), 'utf8');
 const servo = loadProjectText(text('demo-servo-axis'));

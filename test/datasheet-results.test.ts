@@ -1,9 +1,9 @@
 import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
-import { computeDatasheetResults, type DatasheetResults } from '../src/core/datasheet-results';
-import { loadProjectText } from '../src/core/project';
-import { computeResults, DEFAULT_ENVELOPE_OPTIONS } from '../src/renderer/src/compute';
+import { computeDatasheetResults, type DatasheetResults } from '../src/core/reports/datasheet-results';
+import { loadProjectText } from '../src/core/project/project';
+import { computeResults, DEFAULT_ENVELOPE_OPTIONS } from '../src/renderer/src/state/compute';
 
 const traction = loadProjectText(readFileSync(join(__dirname, '..', 'resources', 'demo-ipm-traction.json'), 'utf8'));
 

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { decimateMinMax, StreamingMinMax } from '../src/core/decimate';
+import { decimateMinMax, StreamingMinMax } from '../src/core/simulation/decimate';
 
 describe('min/max decimation', () => {
   it('keeps every channel\'s extremes and the shared length', () => {

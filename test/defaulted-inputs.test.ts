@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import { defaultedInputFindings } from '../src/core/defaulted-inputs';
-import { parseProject } from '../src/core/schema';
+import { defaultedInputFindings } from '../src/core/project/defaulted-inputs';
+import { parseProject } from '../src/core/project/schema';
 
 describe('defaulted inputs said as findings', () => {
   it('a missing magnet temperature and remanence coefficient are named by field; given ones are not', () => {

@@ -1,10 +1,10 @@
 import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
-import { computeEnvelope, type Envelope } from '../src/core/envelope';
-import { envelopeBranch, zeroCrossing } from '../src/core/envelope-branch';
-import { loadProjectText } from '../src/core/project';
-import { RAD_S_TO_RPM } from '../src/core/units';
+import { computeEnvelope, type Envelope } from '../src/core/steady-state/envelope';
+import { envelopeBranch, zeroCrossing } from '../src/core/steady-state/envelope-branch';
+import { loadProjectText } from '../src/core/project/project';
+import { RAD_S_TO_RPM } from '../src/core/base/units';
 
 const servo = loadProjectText(readFileSync(join(__dirname, '..', 'resources', 'demo-servo-axis.json'), 'utf8'));
 const speedMax = (6300 * Math.PI) / 30;

@@ -1,11 +1,11 @@
 import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
-import { defaultTableStep, envelopeTable, parseTableStep } from '../src/core/envelope-table';
-import { computeEnvelope } from '../src/core/envelope';
-import { mtpaTorque } from '../src/core/mtpa';
-import { loadProjectText } from '../src/core/project';
-import { isInputError } from '../src/core/errors';
+import { defaultTableStep, envelopeTable, parseTableStep } from '../src/core/steady-state/envelope-table';
+import { computeEnvelope } from '../src/core/steady-state/envelope';
+import { mtpaTorque } from '../src/core/steady-state/mtpa';
+import { loadProjectText } from '../src/core/project/project';
+import { isInputError } from '../src/core/base/errors';
 
 const servo = loadProjectText(readFileSync(join(__dirname, '..', 'resources', 'demo-servo-axis.json'), 'utf8'));
 

@@ -1,10 +1,11 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
-import type { DqMachine, DriveLimits } from '../src/core/types';
+import type { DqMachine } from '../src/core/machine/dq-machine';
+import type { DriveLimits } from '../src/core/drive/inverter-spec';
 import {
   DEFAULT_ENVELOPE_OPTIONS, ENVELOPE_ACCURACY, baseSpeed, computeEnvelope, maxTorquePoint, maximumSpeed,
-} from '../src/core/envelope';
-import { InputError } from '../src/core/errors';
+} from '../src/core/steady-state/envelope';
+import { InputError } from '../src/core/base/errors';
 
 // Invented test machines (not product data).
 const IPM: DqMachine = { polePairs: 4, Rs: 0.02, Ld: 0.12e-3, Lq: 0.3e-3, psiM: 0.045 };

@@ -1,6 +1,6 @@
 // Bad input carries the field's path and what is allowed; everything facing a user shows the message alone.
 import { describe, expect, it } from 'vitest';
-import { InputError, isInputError } from '../src/core/errors';
+import { InputError, isInputError } from '../src/core/base/errors';
 
 describe('InputError', () => {
   it('reads as "<field> <what is allowed>" and keeps the field apart', () => {

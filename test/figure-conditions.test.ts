@@ -1,9 +1,9 @@
 import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
-import { figureConditions, limitWords } from '../src/core/figure-conditions';
-import { loadProjectText } from '../src/core/project';
-import { TOOL_VERSION } from '../src/core/version';
+import { figureConditions, limitWords } from '../src/core/reports/figure-conditions';
+import { loadProjectText } from '../src/core/project/project';
+import { TOOL_VERSION } from '../src/core/base/version';
 
 const demo = (n: string) => loadProjectText(readFileSync(join(__dirname, '..', 'resources', `${n}.json`), 'utf8'));
 

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { EXPORT_SIZE, exportLayout } from '../src/renderer/src/figure-export-layout';
+import { EXPORT_SIZE, exportLayout } from '../src/renderer/src/components/figure-export-layout';
 
 const conditions = [
   'Servo <demo> · Torquewise 0.1.0 · 2026-12-03',

@@ -5,9 +5,9 @@
 // `npm run trust` runs the same generator with 10 000+ cases.
 import { describe, expect, it } from 'vitest';
 import { runFuzz, runCase } from '../trust/fuzz-cases';
-import { loadProjectText } from '../src/core/project';
+import { loadProjectText } from '../src/core/project/project';
 import { DEMOS } from '../trust/fuzz-cases';
-import { InputError } from '../src/core/errors';
+import { InputError } from '../src/core/base/errors';
 
 const N = 1200;
 

@@ -2,12 +2,12 @@
 // says what is odd as a finding (not a crash, not a refusal).
 import { describe, expect, it } from 'vitest';
 import { runCase, DEMOS, COMMAND_NAMES, type Outcome } from '../trust/fuzz-cases';
-import { resolveProject } from '../src/core/project';
-import { parseProject } from '../src/core/schema';
-import { tuneFromProject } from '../src/core/tuning';
-import { simulationFromProject, runSimulation } from '../src/core/simulate';
-import { computeEnvelope } from '../src/core/envelope';
-import { InputError } from '../src/core/errors';
+import { resolveProject } from '../src/core/project/project';
+import { parseProject } from '../src/core/project/schema';
+import { tuneFromProject } from '../src/core/control/tuning';
+import { simulationFromProject, runSimulation } from '../src/core/simulation/simulate';
+import { computeEnvelope } from '../src/core/steady-state/envelope';
+import { InputError } from '../src/core/base/errors';
 
 type Json = Record<string, any>;
 const spm = (): Json => structuredClone(DEMOS['demo-spm-48v']) as Json;

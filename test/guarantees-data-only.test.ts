@@ -6,8 +6,8 @@ import { describe, expect, it, afterEach } from 'vitest';
 import { readFileSync } from 'node:fs';
 import { join, relative, resolve } from 'node:path';
 import { runCase, DEMOS, COMMAND_NAMES } from '../trust/fuzz-cases';
-import { loadProjectText } from '../src/core/project';
-import { InputError } from '../src/core/errors';
+import { loadProjectText } from '../src/core/project/project';
+import { InputError } from '../src/core/base/errors';
 
 const root = resolve(__dirname, '..');
 const files = sourceFiles;
@@ -28,13 +28,13 @@ const FORBIDDEN: Array<[string, RegExp]> = [
 ];
 // the places that load code, none from a project file:
 const ALLOWED: Array<[string, RegExp]> = [
-  ['src/renderer/src/LoadStepsView.tsx', /new Worker\(new URL\('\.\/sim-worker\.ts', import\.meta\.url\)/], // the bundled simulation worker
+  ['src/renderer/src/views/load-steps/LoadStepsView.tsx', /new Worker\(new URL\('\.\.\/\.\.\/workers\/sim-worker\.ts', import\.meta\.url\)/], // the bundled simulation worker
   ['src/main/index.ts', /\.loadURL\(devServerUrl\)/], // the loopback dev server, development builds only
   ['src/main/index.ts', /\.loadURL\(APP_PAGE_URL\)/], // the built page, app://torquewise/index.html (src/main/app-protocol.ts)
 ];
 // HTML built from text this program made, never from a file: plotly's own SVG of a plot, placed in a
 // detached copy of the Datasheet view for the HTML export (the CSP forbids inline script anyway)
-const HTML_ALLOWED: Array<[string, RegExp]> = [['src/renderer/src/image-export.ts', /slot\.outerHTML = `<div class="plot-image">\$\{svg\}<\/div>`/]];
+const HTML_ALLOWED: Array<[string, RegExp]> = [['src/renderer/src/components/image-export.ts', /slot\.outerHTML = `<div class="plot-image">\$\{svg\}<\/div>`/]];
 
 describe('no code runs from a project file', () => {
   const all = files(join(root, 'src'));

@@ -7,9 +7,10 @@
 //     from an independent search of the two boundary curves (below).
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
-import { maxTorquePoint, computeEnvelope, baseSpeed, maximumSpeed, ENVELOPE_ACCURACY } from '../src/core/envelope';
-import { mtpaTorque } from '../src/core/mtpa';
-import type { DqMachine, DriveLimits } from '../src/core/types';
+import { maxTorquePoint, computeEnvelope, baseSpeed, maximumSpeed, ENVELOPE_ACCURACY } from '../src/core/steady-state/envelope';
+import { mtpaTorque } from '../src/core/steady-state/mtpa';
+import type { DqMachine } from '../src/core/machine/dq-machine';
+import type { DriveLimits } from '../src/core/drive/inverter-spec';
 
 const torque = (m: DqMachine, id: number, iq: number): number => 1.5 * m.polePairs * iq * (m.psiM + (m.Ld - m.Lq) * id);
 function volt(m: DqMachine, we: number, id: number, iq: number): number {

@@ -2,9 +2,9 @@
 // early with a diagnostic naming the time and the state; nothing non-finite reaches the results.
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
-import { resolveProject } from '../src/core/project';
-import { parseProject } from '../src/core/schema';
-import { simulationFromProject, runSimulation, type SimulationResult, type SimulationSetup } from '../src/core/simulate';
+import { resolveProject } from '../src/core/project/project';
+import { parseProject } from '../src/core/project/schema';
+import { simulationFromProject, runSimulation, type SimulationResult, type SimulationSetup } from '../src/core/simulation/simulate';
 import { DEMOS, DEMO_NAMES, nonFinite } from '../trust/fuzz-cases';
 
 type Json = Record<string, any>;

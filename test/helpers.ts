@@ -2,7 +2,7 @@
 import { readFileSync, readdirSync, statSync } from 'node:fs';
 import { join } from 'node:path';
 import { expect } from 'vitest';
-import { InputError } from '../src/core/errors';
+import { InputError } from '../src/core/base/errors';
 
 /** Every .ts/.tsx file below dir. */
 export function sourceFiles(dir: string): string[] {

@@ -7,9 +7,9 @@ import {
   hexagonRadius,
   hexagonVertex,
   voltageLimit,
-} from '../src/core/inverter';
-import type { InverterSpec } from '../src/core/types';
-import { InputError } from '../src/core/errors';
+} from '../src/core/drive/inverter';
+import type { InverterSpec } from '../src/core/drive/inverter-spec';
+import { InputError } from '../src/core/base/errors';
 
 const spec = (over: Partial<InverterSpec> = {}): InverterSpec => ({
   Vdc: 600,

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import { findDuplicateKey } from '../src/core/json-duplicates';
-import { loadProjectText, parseProjectJson } from '../src/core/project';
+import { findDuplicateKey } from '../src/core/project/json-duplicates';
+import { loadProjectText, parseProjectJson } from '../src/core/project/project';
 import { DEMOS } from '../trust/fuzz-cases';
 import { refusal } from './helpers';
 

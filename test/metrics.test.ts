@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { stepResponse, loadStepResponse, steadyStateError, finiteOrNull, StepResponseTracker, LoadStepTracker, SteadyStateTracker } from '../src/core/metrics';
+import { stepResponse, loadStepResponse, steadyStateError, finiteOrNull, StepResponseTracker, LoadStepTracker, SteadyStateTracker } from '../src/core/simulation/metrics';
 
 const grid = (n: number, dt: number): Float64Array => Float64Array.from({ length: n }, (_, i) => i * dt);
 

@@ -1,8 +1,8 @@
 // Format versions: older files migrate step by step, newer files open read-only with a message.
 import { describe, expect, it } from 'vitest';
-import { migrateProject, MIGRATIONS, DEFAULT_MIGRATE_OPTIONS, type MigrationStep } from '../src/core/migrate';
-import { loadProjectText } from '../src/core/project';
-import { PROJECT_VERSION } from '../src/core/schema';
+import { migrateProject, MIGRATIONS, DEFAULT_MIGRATE_OPTIONS, type MigrationStep } from '../src/core/project/migrate';
+import { loadProjectText } from '../src/core/project/project';
+import { PROJECT_VERSION } from '../src/core/project/schema';
 import { DEMOS } from '../trust/fuzz-cases';
 import { refusal } from './helpers';
 

@@ -1,10 +1,10 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
-import type { DqMachine } from '../src/core/types';
+import type { DqMachine } from '../src/core/machine/dq-machine';
 import {
   assertMachine, mtpaAngle, mtpaCurrentForTorque, mtpaCurrents, mtpaTorque, mtpvLossless, mtpvPoint, torqueOf, constantTorqueIq,
-} from '../src/core/mtpa';
-import { InputError } from '../src/core/errors';
+} from '../src/core/steady-state/mtpa';
+import { InputError } from '../src/core/base/errors';
 
 // Invented test machines.
 const IPM: DqMachine = { polePairs: 4, Rs: 0.02, Ld: 0.12e-3, Lq: 0.3e-3, psiM: 0.045 };

@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
-import { deriveConstants, ktToPeak, nameplateToModel, psiMFromKe, type Nameplate } from '../src/core/nameplate';
-import { InputError } from '../src/core/errors';
+import { deriveConstants, ktToPeak, nameplateToModel, psiMFromKe, type Nameplate } from '../src/core/machine/nameplate';
+import { InputError } from '../src/core/base/errors';
 
 const base = (over: Partial<Nameplate> = {}): Nameplate => ({
   poles: 8,

@@ -2,7 +2,7 @@ import { mkdtempSync, readFileSync, readdirSync, rmSync, statSync, writeFileSync
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterEach, beforeEach, describe, expect, it } from 'vitest';
-import { InputError } from '../src/core/errors';
+import { InputError } from '../src/core/base/errors';
 import { nodeFs, type FsLayer } from '../src/node/fs-layer';
 import { openProjectFile, projectHeader, PROJECT_VERSION, saveProjectFile } from '../src/node/project-file';
 

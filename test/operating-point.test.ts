@@ -1,10 +1,11 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
-import type { DqMachine, DriveLimits } from '../src/core/types';
-import { canHoldTorque, solveOperatingPoint, solveOperatingPointUnlimitedCurrent } from '../src/core/operating-point';
-import { baseSpeed, maxTorquePoint } from '../src/core/envelope';
-import { mtpaCurrentForTorque, mtpvPoint } from '../src/core/mtpa';
-import { InputError } from '../src/core/errors';
+import type { DqMachine } from '../src/core/machine/dq-machine';
+import type { DriveLimits } from '../src/core/drive/inverter-spec';
+import { canHoldTorque, solveOperatingPoint, solveOperatingPointUnlimitedCurrent } from '../src/core/steady-state/operating-point';
+import { baseSpeed, maxTorquePoint } from '../src/core/steady-state/envelope';
+import { mtpaCurrentForTorque, mtpvPoint } from '../src/core/steady-state/mtpa';
+import { InputError } from '../src/core/base/errors';
 
 // Invented test machines.
 const IPM: DqMachine = { polePairs: 4, Rs: 0.02, Ld: 0.12e-3, Lq: 0.3e-3, psiM: 0.045 };

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import { fieldPhrase, findingLine, limitPhrase, notReachablePhrase, plainMessage, regionPhrase, severityPhrase } from '../src/core/phrases';
-import { KEYS } from '../src/core/schema';
+import { fieldPhrase, findingLine, limitPhrase, notReachablePhrase, plainMessage, regionPhrase, severityPhrase } from '../src/core/reports/phrases';
+import { KEYS } from '../src/core/project/schema';
 
 describe('plain phrases for codes and paths', () => {
   it('limits and regions in words, never the code', () => {

@@ -1,11 +1,11 @@
 import { describe, expect, it } from 'vitest';
 import ode45 from 'ode45-cash-karp';
 import { createRequire } from 'node:module';
-import { Plant, STATE_SIZE, loadSchedule, loadLevel, nextLoadBreak, coulombWidth } from '../src/core/plant';
-import type { PlantParams } from '../src/core/plant';
-import type { DqMachine } from '../src/core/types';
-import { solveOperatingPoint } from '../src/core/operating-point';
-import { InputError } from '../src/core/errors';
+import { Plant, STATE_SIZE, loadSchedule, loadLevel, nextLoadBreak, coulombWidth } from '../src/core/simulation/plant';
+import type { PlantParams } from '../src/core/simulation/plant';
+import type { DqMachine } from '../src/core/machine/dq-machine';
+import { solveOperatingPoint } from '../src/core/steady-state/operating-point';
+import { InputError } from '../src/core/base/errors';
 
 // odex ships its TypeScript source, which the project's strict type-check would then compile;
 // load it at run time with a local type instead

@@ -2,10 +2,10 @@ import { messageOf } from './helpers';
 import { describe, expect, it } from 'vitest';
 import { readFileSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
-import { loadProjectText, resolveProject } from '../src/core/project';
-import { parseProject } from '../src/core/schema';
-import { solveOperatingPoint } from '../src/core/operating-point';
-import { InputError } from '../src/core/errors';
+import { loadProjectText, resolveProject } from '../src/core/project/project';
+import { parseProject } from '../src/core/project/schema';
+import { solveOperatingPoint } from '../src/core/steady-state/operating-point';
+import { InputError } from '../src/core/base/errors';
 import fc from 'fast-check';
 
 const demoText = (name: string): string => readFileSync(fileURLToPath(new URL(`../resources/${name}.json`, import.meta.url)), 'utf8');

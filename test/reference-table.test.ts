@@ -1,8 +1,9 @@
 import { describe, expect, it } from 'vitest';
-import { buildReferenceTable, lookupCurrents, torqueLimitsAt } from '../src/core/reference-table';
-import { solveOperatingPoint } from '../src/core/operating-point';
-import { maxTorquePoint } from '../src/core/envelope';
-import type { DqMachine, DriveLimits } from '../src/core/types';
+import { buildReferenceTable, lookupCurrents, torqueLimitsAt } from '../src/core/control/reference-table';
+import { solveOperatingPoint } from '../src/core/steady-state/operating-point';
+import { maxTorquePoint } from '../src/core/steady-state/envelope';
+import type { DqMachine } from '../src/core/machine/dq-machine';
+import type { DriveLimits } from '../src/core/drive/inverter-spec';
 
 const ipm: DqMachine = { polePairs: 4, Rs: 0.02, Ld: 0.3e-3, Lq: 0.75e-3, psiM: 0.07 };
 const lim: DriveLimits = { Vmax: 190, Imax: 450 };

@@ -1,8 +1,8 @@
 // The web page's upload: a file above the project size limit is refused before it is read.
 import { describe, expect, it } from 'vitest';
-import { MAX_PROJECT_BYTES } from '../src/core/schema';
+import { MAX_PROJECT_BYTES } from '../src/core/project/schema';
 import { DEFAULT_PROJECT_FILE_OPTIONS } from '../src/node/project-file';
-import { readUpload } from '../src/renderer/src/file-bridge';
+import { readUpload } from '../src/renderer/src/state/file-bridge';
 
 function upload(name: string, size: number, text: string) {
   const calls = { text: 0 };

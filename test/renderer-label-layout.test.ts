@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { chooseTextPositions, declutterShifts, overlaps, textBox, type TextPosition } from '../src/renderer/src/label-layout';
+import { chooseTextPositions, declutterShifts, overlaps, textBox, type TextPosition } from '../src/renderer/src/components/label-layout';
 
 describe('label layout', () => {
   it('boxes for text positions', () => {

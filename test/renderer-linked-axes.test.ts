@@ -2,7 +2,7 @@
 // and the layouts that result. Plotly's relayout event keys: common practice (no source).
 import { describe, expect, it } from 'vitest';
 import type { Layout } from 'plotly.js-dist-min';
-import { sameRange, withXRange, xRangeFromRelayout } from '../src/renderer/src/linked-axes';
+import { sameRange, withXRange, xRangeFromRelayout } from '../src/renderer/src/components/linked-axes';
 
 describe('linked speed axes', () => {
   it('reads a box or x zoom, a pan given as a pair, and a reset', () => {

@@ -3,7 +3,7 @@
 // utilities): it splits the text at tags first, then turns entities (&lt; &#37; ...) back into
 // characters in the text between them.
 import { describe, expect, it } from 'vitest';
-import { plotText } from '../src/renderer/src/plot-text';
+import { plotText } from '../src/renderer/src/components/plot-text';
 
 const TAG = /(<[^<>]*>)/;
 const NAMED: Record<string, string> = { lt: '<', gt: '>', amp: '&', nbsp: '\u00a0', mu: 'μ', times: '×', plusmn: '±', deg: '°' };

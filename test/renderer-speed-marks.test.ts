@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { placeSpeedMarks } from '../src/renderer/src/speed-marks';
+import { placeSpeedMarks } from '../src/renderer/src/components/speed-marks';
 
 describe('base and maximum speed labels', () => {
   it('sit beside their lines on the side with room', () => {

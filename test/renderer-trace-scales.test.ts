@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { rpmText, sig3, speedError, speedErrorRange } from '../src/renderer/src/trace-scales';
+import { rpmText, sig3, speedError, speedErrorRange } from '../src/renderer/src/components/trace-scales';
 
 describe('load-step trace scales', () => {
   it('speed error is reference minus speed', () => {

@@ -1,7 +1,7 @@
 // The web page's autosave: an entry that cannot be restored is offered once, then kept aside.
 import { afterEach, describe, expect, it } from 'vitest';
-import { browserRecovery } from '../src/renderer/src/file-bridge';
-import { RECOVERY_KEY, SET_ASIDE_PREFIX, webRecovery, type StorageLike } from '../src/renderer/src/web-recovery';
+import { browserRecovery } from '../src/renderer/src/state/file-bridge';
+import { RECOVERY_KEY, SET_ASIDE_PREFIX, webRecovery, type StorageLike } from '../src/renderer/src/state/web-recovery';
 
 class MemoryStorage implements StorageLike {
   readonly map = new Map<string, string>();

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { roundStep, roundTicks, stepsWithin } from '../src/core/round-steps';
+import { roundStep, roundTicks, stepsWithin } from '../src/core/mathematics/round-steps';
 
 describe('round 1-2-5 steps', () => {
   it('gives the smallest 1-2-5 step that keeps the count within the bound', () => {

@@ -1,8 +1,9 @@
 import { describe, expect, it } from 'vitest';
-import type { DqMachine, InverterSpec } from '../src/core/types';
-import { SAFETY_CAUTION, safetyReport } from '../src/core/safety';
-import { rpmToRadS } from '../src/core/units';
-import { InputError } from '../src/core/errors';
+import type { DqMachine } from '../src/core/machine/dq-machine';
+import type { InverterSpec } from '../src/core/drive/inverter-spec';
+import { SAFETY_CAUTION, safetyReport } from '../src/core/steady-state/safety';
+import { rpmToRadS } from '../src/core/base/units';
+import { InputError } from '../src/core/base/errors';
 
 // Invented test machine and inverter.
 const COLD: DqMachine = { polePairs: 4, Rs: 0.015, Ld: 0.12e-3, Lq: 0.3e-3, psiM: 0.05 };

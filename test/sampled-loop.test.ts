@@ -1,9 +1,9 @@
 import { describe, expect, it } from 'vitest';
 import { readFileSync } from 'node:fs';
 import { resolve } from 'node:path';
-import { sampledCurrentOpenLoop, sampledMargins, sampledSpeedOpenLoop, UnwrappedResponse, zohFirstOrder, zohStateSpace, type SampledSpeedLoopSpec } from '../src/core/sampled-loop';
-import { tuneFromProject } from '../src/core/tuning';
-import { loadProjectText } from '../src/core/project';
+import { sampledCurrentOpenLoop, sampledMargins, sampledSpeedOpenLoop, UnwrappedResponse, zohFirstOrder, zohStateSpace, type SampledSpeedLoopSpec } from '../src/core/control/sampled-loop';
+import { tuneFromProject } from '../src/core/control/tuning';
+import { loadProjectText } from '../src/core/project/project';
 
 // ---------------------------------------------------------------- an independent route
 // The loops are rebuilt here by time stepping: the winding (and shaft) integrated by classical RK4

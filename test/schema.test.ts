@@ -1,8 +1,8 @@
 import { messageOf } from './helpers';
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
-import { CAPPED_LISTS, KEYS, MAX_LIST_ENTRIES, checkProject, listCapProblem, parseProject, projectSchema } from '../src/core/schema';
-import { InputError } from '../src/core/errors';
+import { CAPPED_LISTS, KEYS, MAX_LIST_ENTRIES, checkProject, listCapProblem, parseProject, projectSchema } from '../src/core/project/schema';
+import { InputError } from '../src/core/base/errors';
 
 const minimal = (): Record<string, any> => ({
   format: 'torquewise-project',

@@ -20,9 +20,9 @@ vi.mock('ode45-cash-karp', async (importOriginal) => {
   };
 });
 
-const { resolveProject } = await import('../src/core/project');
-const { parseProject } = await import('../src/core/schema');
-const { runSimulation, simulationFromProject } = await import('../src/core/simulate');
+const { resolveProject } = await import('../src/core/project/project');
+const { parseProject } = await import('../src/core/project/schema');
+const { runSimulation, simulationFromProject } = await import('../src/core/simulation/simulate');
 const { simulationReport } = await import('../src/cli/commands/simulate');
 const { DEMOS } = await import('../trust/fuzz-cases');
 

@@ -1,12 +1,12 @@
 import { describe, expect, it } from 'vitest';
 import { readFileSync } from 'node:fs';
 import { resolve } from 'node:path';
-import { loadProjectText } from '../src/core/project';
-import type { ResolvedProject } from '../src/core/project';
-import { simulationFromProject, simulationFindings, rampedReference, runSimulation, TRACE_NAMES } from '../src/core/simulate';
-import type { SimulationResult } from '../src/core/simulate';
-import { stepResponse, loadStepResponse, steadyStateError } from '../src/core/metrics';
-import { MAX_TRACE_POINTS } from '../src/core/decimate';
+import { loadProjectText } from '../src/core/project/project';
+import type { ResolvedProject } from '../src/core/project/project';
+import { simulationFromProject, simulationFindings, rampedReference, runSimulation, TRACE_NAMES } from '../src/core/simulation/simulate';
+import type { SimulationResult } from '../src/core/simulation/simulate';
+import { stepResponse, loadStepResponse, steadyStateError } from '../src/core/simulation/metrics';
+import { MAX_TRACE_POINTS } from '../src/core/simulation/decimate';
 
 const demo = (f: string): any => JSON.parse(readFileSync(resolve(__dirname, '..', 'resources', `${f}.json`), 'utf8'));
 const proj = (o: unknown): ResolvedProject => loadProjectText(JSON.stringify(o));

@@ -1,13 +1,15 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
-import type { DqMachine, InverterSpec, Requirement } from '../src/core/types';
-import { leastVoltageLimit, sizeDrive } from '../src/core/sizing';
-import { driveLimits, voltageLimit } from '../src/core/inverter';
-import { solveOperatingPoint } from '../src/core/operating-point';
-import { maxTorquePoint } from '../src/core/envelope';
-import { rpmToRadS } from '../src/core/units';
-import { InputError } from '../src/core/errors';
-import { effectiveCurrentLimits } from '../src/core/current-limits';
+import type { DqMachine } from '../src/core/machine/dq-machine';
+import type { InverterSpec } from '../src/core/drive/inverter-spec';
+import type { Requirement } from '../src/core/steady-state/operating-point-types';
+import { leastVoltageLimit, sizeDrive } from '../src/core/steady-state/sizing';
+import { driveLimits, voltageLimit } from '../src/core/drive/inverter';
+import { solveOperatingPoint } from '../src/core/steady-state/operating-point';
+import { maxTorquePoint } from '../src/core/steady-state/envelope';
+import { rpmToRadS } from '../src/core/base/units';
+import { InputError } from '../src/core/base/errors';
+import { effectiveCurrentLimits } from '../src/core/drive/current-limits';
 
 // Invented test machine and inverter.
 const IPM: DqMachine = { polePairs: 4, Rs: 0.02, Ld: 0.12e-3, Lq: 0.3e-3, psiM: 0.045 };

@@ -2,10 +2,10 @@
 import { describe, expect, it } from 'vitest';
 import { readFileSync } from 'node:fs';
 import { resolve } from 'node:path';
-import { loadProjectText } from '../src/core/project';
-import { parsePlotTop, PLOT_SPEED_MAX_RPM, projectSpeedRange } from '../src/core/speed-range';
-import { baseSpeed } from '../src/core/envelope';
-import { RPM_TO_RAD_S } from '../src/core/units';
+import { loadProjectText } from '../src/core/project/project';
+import { parsePlotTop, PLOT_SPEED_MAX_RPM, projectSpeedRange } from '../src/core/reports/speed-range';
+import { baseSpeed } from '../src/core/steady-state/envelope';
+import { RPM_TO_RAD_S } from '../src/core/base/units';
 
 const demo = (f: string) => loadProjectText(readFileSync(resolve(__dirname, '..', 'resources', `${f}.json`), 'utf8'));
 

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { escapeXml, svgChart, wrapText } from '../src/core/svg-chart';
+import { escapeXml, svgChart, wrapText } from '../src/core/reports/svg-chart';
 
 const spec = () => ({
   title: 'Motor <A> & "B": torque',

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { COPPER_ALPHA_20, NDFEB_ALPHA_BR, SMCO_ALPHA_BR, fluxAt, machineAt, resistanceAt } from '../src/core/thermal';
+import { COPPER_ALPHA_20, NDFEB_ALPHA_BR, SMCO_ALPHA_BR, fluxAt, machineAt, resistanceAt } from '../src/core/machine/thermal';
 
 describe('copper resistance', () => {
   it('uses 0.00393 /K at 20 °C', () => {

@@ -20,7 +20,7 @@ import {
   parkInto,
   powerDq0AmplitudeInvariant,
   powerDq0PowerInvariant,
-} from '../src/core/transforms';
+} from '../src/core/mathematics/transforms';
 
 const TAU = 2 * Math.PI;
 const balanced = (A: number, phi: number): [number, number, number] => [

@@ -1,9 +1,9 @@
 import { describe, expect, it } from 'vitest';
 import { readFileSync } from 'node:fs';
 import { resolve } from 'node:path';
-import { tuneLoops, tuneFromProject, imcCurrentGains, symmetricOptimumGains } from '../src/core/tuning';
-import type { TuningInput } from '../src/core/tuning';
-import { loadProjectText } from '../src/core/project';
+import { tuneLoops, tuneFromProject, imcCurrentGains, symmetricOptimumGains } from '../src/core/control/tuning';
+import type { TuningInput } from '../src/core/control/tuning';
+import { loadProjectText } from '../src/core/project/project';
 
 const base: TuningInput = {
   machine: { polePairs: 4, Rs: 0.2, Ld: 1e-3, Lq: 2.5e-3, psiM: 0.08 },

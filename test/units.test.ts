@@ -1,6 +1,6 @@
 // Unit conversions of the engine: speeds and sinusoidal amplitudes.
 import { describe, expect, it } from 'vitest';
-import { peakToRms, radSToRpm, RAD_S_TO_RPM, rmsToPeak, rpmToRadS, RPM_TO_RAD_S, SQRT2, SQRT3 } from '../src/core/units';
+import { peakToRms, radSToRpm, RAD_S_TO_RPM, rmsToPeak, rpmToRadS, RPM_TO_RAD_S, SQRT2, SQRT3 } from '../src/core/base/units';
 
 describe('units', () => {
   it('rpm and rad/s: 60 rpm is one revolution per second, 2 pi rad/s (common practice (no source))', () => {

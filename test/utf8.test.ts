@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { firstInvalidUtf8 } from '../src/core/utf8';
+import { firstInvalidUtf8 } from '../src/core/project/utf8';
 
 const bytes = (...x: number[]): Uint8Array => Uint8Array.from(x);
 

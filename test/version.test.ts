@@ -1,7 +1,7 @@
 import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
-import { TOOL_VERSION } from '../src/core/version';
+import { TOOL_VERSION } from '../src/core/base/version';
 
 describe('tool version', () => {
   it('is package.json version (printed on every exported figure)', () => {

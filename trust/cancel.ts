@@ -10,9 +10,9 @@
  */
 import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
-import { resolveProject } from '../src/core/project';
-import { parseProject } from '../src/core/schema';
-import { simulationFromProject, runSimulation, MAX_CONTROL_PERIODS } from '../src/core/simulate';
+import { resolveProject } from '../src/core/project/project';
+import { parseProject } from '../src/core/project/schema';
+import { simulationFromProject, runSimulation, MAX_CONTROL_PERIODS } from '../src/core/simulation/simulate';
 
 const root = join(import.meta.dirname, '..');
 const now = (): number => performance.now();

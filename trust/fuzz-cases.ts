@@ -12,13 +12,13 @@
 import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import fc from 'fast-check';
-import { loadProjectText, resolveProject, type ResolvedProject } from '../src/core/project';
-import { parseProject } from '../src/core/schema';
-import { InputError, problemLines } from '../src/core/errors';
+import { loadProjectText, resolveProject, type ResolvedProject } from '../src/core/project/project';
+import { parseProject } from '../src/core/project/schema';
+import { InputError, problemLines } from '../src/core/base/errors';
 import { COMMANDS } from '../src/cli/commands/registry';
 import { parseArgs } from '../src/cli/args';
 import { checkFlags } from '../src/cli/args';
-import { simulationFromProject, runSimulation } from '../src/core/simulate';
+import { simulationFromProject, runSimulation } from '../src/core/simulation/simulate';
 import { simulationReport } from '../src/cli/commands/simulate';
 import { terminalText } from '../src/cli/terminal';
 

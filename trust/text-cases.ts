@@ -10,15 +10,15 @@
 import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import fc from 'fast-check';
-import { parseCsv, readsAsFormula } from '../src/core/csv';
-import { computeEnvelope } from '../src/core/envelope';
-import { loadProjectText } from '../src/core/project';
-import { runSimulation, simulationFromProject } from '../src/core/simulate';
+import { parseCsv, readsAsFormula } from '../src/core/reports/csv';
+import { computeEnvelope } from '../src/core/steady-state/envelope';
+import { loadProjectText } from '../src/core/project/project';
+import { runSimulation, simulationFromProject } from '../src/core/simulation/simulate';
 import { envelopeCsv as cliEnvelopeCsv } from '../src/cli/commands/envelope';
 import { simulationCsv } from '../src/cli/commands/simulate';
-import { computeEnvelopes, type Results } from '../src/renderer/src/compute';
-import { envelopeCsv as appEnvelopeCsv, tracesCsv } from '../src/renderer/src/exports';
-import { plotText } from '../src/renderer/src/plot-text';
+import { computeEnvelopes, type Results } from '../src/renderer/src/state/compute';
+import { envelopeCsv as appEnvelopeCsv, tracesCsv } from '../src/renderer/src/components/exports';
+import { plotText } from '../src/renderer/src/components/plot-text';
 
 const root = join(import.meta.dirname ?? __dirname, '..');
 

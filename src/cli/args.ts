@@ -1,4 +1,4 @@
-import { InputError } from '../core/errors';
+import { InputError } from '../core/base/errors';
 
 /** Parsed command line: `<command> <project.json> [--flag value | --switch]...` */
 export interface ParsedArgs {

@@ -1,5 +1,5 @@
 import type { ParsedArgs, FlagSpec } from './args';
-import type { ResolvedProject } from '../core/project';
+import type { ResolvedProject } from '../core/project/project';
 
 /** What a command gives back: one JSON document for --json, a human text otherwise, and files to write. */
 export interface CommandResult {

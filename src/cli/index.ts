@@ -3,8 +3,8 @@
 // Exit codes: 0 ok, 2 bad input (one line per problem, each naming its field), 1 internal error.
 import { parseArgs, checkFlags, type FlagSpec } from './args';
 import type { Command } from './command';
-import { isInputError, InputError, problemLines } from '../core/errors';
-import { loadProjectText } from '../core/project';
+import { isInputError, InputError, problemLines } from '../core/base/errors';
+import { loadProjectText } from '../core/project/project';
 import { COMMANDS } from './commands/registry';
 import { nodeFs, type FsLayer } from '../node/fs-layer';
 import { DEFAULT_PROJECT_FILE_OPTIONS, ProjectReadError, readProjectText } from '../node/project-file';

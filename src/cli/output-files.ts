@@ -3,7 +3,7 @@
 // succeeded. A full disk or a file-size limit leaves the old file as it was; the project file is
 // never written over, whatever path names it (a symbolic link, `..`, a hard link).
 import { resolve } from 'node:path';
-import { InputError } from '../core/errors';
+import { InputError } from '../core/base/errors';
 import { atomicWrite } from '../node/atomic-write';
 import type { FileStat, FsLayer } from '../node/fs-layer';
 import type { FlagSpec, ParsedArgs } from './args';

@@ -2,13 +2,13 @@
 // the atomic replace, so a failed save leaves the good file as it was. Every outcome is a result
 // object with a sentence for the user; nothing throws out of these functions.
 import { basename } from 'node:path';
-import { isInputError, problemLines } from '../core/errors';
-import { loadProjectText } from '../core/project';
-import { MAX_PROJECT_BYTES, PROJECT_FORMAT, PROJECT_VERSION } from '../core/schema';
+import { isInputError, problemLines } from '../core/base/errors';
+import { loadProjectText } from '../core/project/project';
+import { MAX_PROJECT_BYTES, PROJECT_FORMAT, PROJECT_VERSION } from '../core/project/schema';
 import type { OpenResult, SaveResult } from '../types/bridge';
 import { atomicWrite } from './atomic-write';
 import { describeFsError, nodeFs, type FsLayer } from './fs-layer';
-import { firstInvalidUtf8 } from '../core/utf8';
+import { firstInvalidUtf8 } from '../core/project/utf8';
 
 export { PROJECT_FORMAT, PROJECT_VERSION };
 

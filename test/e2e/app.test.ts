@@ -4,11 +4,11 @@ import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Browser, Page } from 'playwright-core';
 import { closeApp, openApp, ROOT, type AppSession, shotPath, SHOTS } from './harness';
-import { parseProject } from '../../src/core/schema';
-import { resolveProject } from '../../src/core/project';
-import { computeEnvelope } from '../../src/core/envelope';
-import { RAD_S_TO_RPM } from '../../src/core/units';
-import { parseCsv } from '../../src/core/csv';
+import { parseProject } from '../../src/core/project/schema';
+import { resolveProject } from '../../src/core/project/project';
+import { computeEnvelope } from '../../src/core/steady-state/envelope';
+import { RAD_S_TO_RPM } from '../../src/core/base/units';
+import { parseCsv } from '../../src/core/reports/csv';
 
 let app: AppSession | undefined;
 let url = '';

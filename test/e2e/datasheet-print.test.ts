@@ -5,9 +5,9 @@ import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Browser, Page } from 'playwright-core';
 import { launch, ROOT, shotPath, SHOTS } from './harness';
-import { loadProjectText } from '../../src/core/project';
-import { computeDatasheetResults } from '../../src/core/datasheet-results';
-import { datasheetHtml } from '../../src/core/datasheet-html';
+import { loadProjectText } from '../../src/core/project/project';
+import { computeDatasheetResults } from '../../src/core/reports/datasheet-results';
+import { datasheetHtml } from '../../src/core/reports/datasheet-html';
 
 const DEMOS = ['demo-ipm-traction', 'demo-servo-axis', 'demo-spm-48v'] as const;
 const sheet = (demo: string): string =>

@@ -7,7 +7,7 @@ import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Page } from 'playwright-core';
 import { closeApp, openApp, ROOT, type AppSession } from './harness';
-import { MAX_LIST_ENTRIES, MAX_PROJECT_BYTES } from '../../src/core/schema';
+import { MAX_LIST_ENTRIES, MAX_PROJECT_BYTES } from '../../src/core/project/schema';
 
 let app: AppSession | undefined;
 let page: Page;

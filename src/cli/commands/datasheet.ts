@@ -1,12 +1,12 @@
 import type { Command } from '../command';
 import { numberFlag, stringFlag } from '../args';
-import { InputError } from '../../core/errors';
-import { computeDatasheetResults } from '../../core/datasheet-results';
-import { datasheetHtml, datasheetTableStep } from '../../core/datasheet-html';
-import { isoDate } from '../../core/figure-conditions';
-import { PLOT_SPEED_MAX_RPM } from '../../core/speed-range';
-import { radSToRpm, rpmToRadS } from '../../core/units';
-import { TOOL_VERSION } from '../../core/version';
+import { InputError } from '../../core/base/errors';
+import { computeDatasheetResults } from '../../core/reports/datasheet-results';
+import { datasheetHtml, datasheetTableStep } from '../../core/reports/datasheet-html';
+import { isoDate } from '../../core/reports/figure-conditions';
+import { PLOT_SPEED_MAX_RPM } from '../../core/reports/speed-range';
+import { radSToRpm, rpmToRadS } from '../../core/base/units';
+import { TOOL_VERSION } from '../../core/base/version';
 
 /**
  * The date printed on the datasheet: today (UTC), or the day of SOURCE_DATE_EPOCH (seconds) when

@@ -1,12 +1,12 @@
 import type { Command } from '../command';
-import { csvDocument, type CsvCell } from '../../core/csv';
-import { computeEnvelope, type Envelope } from '../../core/envelope';
-import { PLOT_SPEED_MAX_RPM, projectSpeedRange } from '../../core/speed-range';
+import { csvDocument, type CsvCell } from '../../core/reports/csv';
+import { computeEnvelope, type Envelope } from '../../core/steady-state/envelope';
+import { PLOT_SPEED_MAX_RPM, projectSpeedRange } from '../../core/reports/speed-range';
 import { numberFlag } from '../args';
 import { table, fmt } from '../table';
-import { peakToRms, radSToRpm, rpmToRadS } from '../../core/units';
-import { describeLimit } from '../../core/current-limits';
-import type { CurrentLimits } from '../../core/types';
+import { peakToRms, radSToRpm, rpmToRadS } from '../../core/base/units';
+import { describeLimit } from '../../core/drive/current-limits';
+import type { CurrentLimits } from '../../core/drive/current-limit-types';
 
 /** The envelope as the CLI's JSON document (motoring under Imax at the file's temperatures). */
 export function envelopeJson(env: Envelope) {

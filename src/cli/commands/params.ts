@@ -1,11 +1,11 @@
 import type { Command } from '../command';
-import { deriveConstants } from '../../core/nameplate';
-import { safetyReport } from '../../core/safety';
-import { projectSpeedRange } from '../../core/speed-range';
+import { deriveConstants } from '../../core/machine/nameplate';
+import { safetyReport } from '../../core/steady-state/safety';
+import { projectSpeedRange } from '../../core/reports/speed-range';
 import { table, fmt } from '../table';
-import { peakToRms, radSToRpm } from '../../core/units';
-import { describeLimit } from '../../core/current-limits';
-import { fieldPhrase, findingLine } from '../../core/phrases';
+import { peakToRms, radSToRpm } from '../../core/base/units';
+import { describeLimit } from '../../core/drive/current-limits';
+import { fieldPhrase, findingLine } from '../../core/reports/phrases';
 
 export const paramsCommand: Command = {
   name: 'params',

@@ -1,11 +1,11 @@
 import type { Command } from '../command';
-import { solveOperatingPoint } from '../../core/operating-point';
+import { solveOperatingPoint } from '../../core/steady-state/operating-point';
 import { numberFlag } from '../args';
-import { InputError } from '../../core/errors';
+import { InputError } from '../../core/base/errors';
 import { fmt } from '../table';
-import { peakToRms, rpmToRadS } from '../../core/units';
-import { describeLimit } from '../../core/current-limits';
-import { notReachablePhrase, regionPhrase } from '../../core/phrases';
+import { peakToRms, rpmToRadS } from '../../core/base/units';
+import { describeLimit } from '../../core/drive/current-limits';
+import { notReachablePhrase, regionPhrase } from '../../core/reports/phrases';
 
 export const pointCommand: Command = {
   name: 'point',

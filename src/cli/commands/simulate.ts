@@ -1,15 +1,16 @@
 import type { Command } from '../command';
-import { csvDocument, type CsvCell } from '../../core/csv';
+import { csvDocument, type CsvCell } from '../../core/reports/csv';
 import { numberFlag } from '../args';
 import { table, fmt, orDash } from '../table';
-import { runSimulation, simulationFindings, simulationFromProject, TRACE_NAMES } from '../../core/simulate';
-import type { CurrentLimits, Finding } from '../../core/types';
-import { describeLimit } from '../../core/current-limits';
-import type { SimulationResult, SimulationSetup } from '../../core/simulate';
-import type { ResolvedProject } from '../../core/project';
-import { peakToRms } from '../../core/units';
-import { MAX_TRACE_POINTS } from '../../core/decimate';
-import { findingLine } from '../../core/phrases';
+import { runSimulation, simulationFindings, simulationFromProject, TRACE_NAMES } from '../../core/simulation/simulate';
+import type { CurrentLimits } from '../../core/drive/current-limit-types';
+import type { Finding } from '../../core/base/finding';
+import { describeLimit } from '../../core/drive/current-limits';
+import type { SimulationResult, SimulationSetup } from '../../core/simulation/simulate';
+import type { ResolvedProject } from '../../core/project/project';
+import { peakToRms } from '../../core/base/units';
+import { MAX_TRACE_POINTS } from '../../core/simulation/decimate';
+import { findingLine } from '../../core/reports/phrases';
 
 /** The metrics of the JSON document: the keys issue 3 names first, then the rest of the engine's. */
 const JSON_METRICS = [

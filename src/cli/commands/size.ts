@@ -1,9 +1,9 @@
 import type { Command } from '../command';
-import { sizeDrive, type SizingPoint } from '../../core/sizing';
+import { sizeDrive, type SizingPoint } from '../../core/steady-state/sizing';
 import { table, fmt } from '../table';
-import { peakToRms } from '../../core/units';
-import { describeLimit } from '../../core/current-limits';
-import { limitPhrase } from '../../core/phrases';
+import { peakToRms } from '../../core/base/units';
+import { describeLimit } from '../../core/drive/current-limits';
+import { limitPhrase } from '../../core/reports/phrases';
 
 /** A headroom within round-off of zero (the limit binds) printed as 0. */
 const snap = (x: number, scale: number): number => (Math.abs(x) < 1e-9 * scale ? 0 : x);

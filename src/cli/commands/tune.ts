@@ -1,8 +1,8 @@
 import type { Command } from '../command';
 import { table, fmt, orDash } from '../table';
-import { tuneFromProject, tuningInputFromProject } from '../../core/tuning';
-import type { LoopReport, TuningReport } from '../../core/tuning';
-import { findingLine } from '../../core/phrases';
+import { tuneFromProject, tuningInputFromProject } from '../../core/control/tuning';
+import type { LoopReport, TuningReport } from '../../core/control/tuning';
+import { findingLine } from '../../core/reports/phrases';
 
 function loopJson(l: LoopReport, withBode: boolean) {
   const { bode, ...rest } = l;

@@ -1,0 +1,438 @@
+/**
+ * The digital cascade controller, as a drive's processor runs it once per control period Ts:
+ *
+ * 1. At the period start it samples i_d, i_q (from the phase currents and the rotor angle), the
+ *    mechanical speed and the electrical angle theta_e.
+ * 2. Speed mode: every `speedLoopDivider` periods the speed PI turns the (ramp-limited, optionally
+ *    prefiltered) speed error into a torque reference, clamped to the drive's torque limit at that
+ *    speed; torque mode takes the torque reference from its schedule. The reference table turns the
+ *    torque into (i_d, i_q) references (least current, MTPA or field weakening). Current-step mode
+ *    takes (i_d, i_q) references directly. The current reference is limited to Imax, d axis first.
+ * 3. The dq current PIs (with optional decoupling and back-EMF feed-forward) give the voltage, which
+ *    is limited to the modulation's limit with d-axis priority: a circle |v| <= Vmax (sinusoidal PWM,
+ *    SVPWM) or the hexagon of the bridge (six-step / overmodulation).
+ * 4. The voltage goes through the inverse Park transform at the sampled angle, advanced by
+ *    (delaySamples + 0.5)·omega_e·Ts when `delayAngleCompensation` is on (the rotor turns while the
+ *    command waits and while it is applied), and is applied `delaySamples` periods later, held
+ *    constant in the stationary frame over one period (the PWM average).
+ *
+ * Anti-windup, per PI: 'clamping' = conditional integration (the integrator stops while the output
+ * is limited and the error pushes further into the limit); 'back-calculation' = the integrator is
+ * driven by (limited - unlimited output) with tracking time equal to the integral time Kp/Ki.
+ *
+ * All state is preallocated; `step` allocates nothing.
+ */
+import type { DqMachine } from '../machine/dq-machine';
+import type { ReferenceTable } from './reference-table';
+import { lookupCurrents, torqueLimitsAt } from './reference-table';
+import { hexagonRadius } from '../drive/inverter';
+
+// module-local references to the imported functions called every period (a CommonJS build turns
+// an imported binding into a property getter called at each use)
+const lookupCurrentsL = lookupCurrents;
+const torqueLimitsAtL = torqueLimitsAt;
+
+export type ControlMode = 'speed' | 'torque' | 'current-step';
+export type AntiWindup = 'clamping' | 'back-calculation';
+
+export interface PiGains {
+  /** proportional gain (V/A for current loops, N·m/(rad/s) for the speed loop) */
+  Kp: number;
+  /** integral gain (V/(A·s), N·m/rad) */
+  Ki: number;
+}
+
+/** A piecewise-constant schedule: value `initial` before times[0], values[k] from times[k] on. */
+export interface StepSchedule {
+  initial: number;
+  times: Float64Array;
+  values: Float64Array;
+}
+
+export function stepSchedule(initial: number, steps: ReadonlyArray<{ t: number; v: number }>): StepSchedule {
+  const s = [...steps].sort((a, b) => a.t - b.t);
+  return { initial, times: Float64Array.from(s.map((x) => x.t)), values: Float64Array.from(s.map((x) => x.v)) };
+}
+
+export interface VoltageLimitSpec {
+  /** 'circle': |v| <= radius; 'hexagon': the bridge's hexagon for the bus `Vdc` */
+  shape: 'circle' | 'hexagon';
+  /** circle radius (peak phase V); for the hexagon the inscribed radius Vdc/sqrt(3) */
+  radius: number;
+  /** effective bus voltage (hexagon only), V */
+  Vdc: number;
+}
+
+export interface ControllerConfig {
+  mode: ControlMode;
+  /** control period, s */
+  Ts: number;
+  /** whole periods between sampling and applying the voltage (0 = ideal) */
+  delaySamples: number;
+  machine: DqMachine;
+  currentD: PiGains;
+  currentQ: PiGains;
+  speed: PiGains;
+  /** the speed loop runs every this many current periods (>= 1) */
+  speedLoopDivider: number;
+  antiWindup: AntiWindup;
+  /** cross-coupling feed-forward -omega_e L_q i_q (d) and omega_e L_d i_d (q) */
+  decoupling: boolean;
+  /** back-EMF feed-forward omega_e psi_m on the q axis */
+  backEmfFeedForward: boolean;
+  /** advance the inverse-Park angle by (delaySamples + 0.5)·omega_e·Ts */
+  delayAngleCompensation: boolean;
+  /** slew limit of the speed reference, rad/s² (Infinity = none) */
+  speedRamp_rad_s2: number;
+  /** time constant of a first-order speed-reference prefilter, s (0 = none) */
+  speedRefPrefilter_s: number;
+  /** peak current limit of the references, A */
+  Imax: number;
+  voltage: VoltageLimitSpec;
+  /** torque -> currents (speed and torque modes) */
+  table: ReferenceTable | null;
+  /** speed reference, rad/s (speed mode) */
+  speedRef: StepSchedule;
+  /** torque reference, N·m (torque mode) */
+  torqueRef: StepSchedule;
+  /** current references, A (current-step mode) */
+  idRef: StepSchedule;
+  iqRef: StepSchedule;
+  /** torque the speed integrator starts at (bumpless start against the initial load), N·m */
+  initialTorque: number;
+}
+
+export const DEFAULT_CONTROLLER_OPTIONS = {
+  delaySamples: 1,
+  speedLoopDivider: 1,
+  antiWindup: 'clamping' as AntiWindup,
+  decoupling: true,
+  backEmfFeedForward: true,
+  delayAngleCompensation: true,
+  speedRamp_rad_s2: Infinity,
+  speedRefPrefilter_s: 0,
+};
+
+const MAX_DELAY = 16;
+
+export function scheduleValue(s: StepSchedule, t: number): number {
+  let v = s.initial;
+  const n = s.times.length;
+  for (let k = 0; k < n; k++) {
+    if (s.times[k]! <= t) v = s.values[k]!; else break;
+  }
+  return v;
+}
+
+/**
+ * Limit (vd, vq) to the modulation limit with d-axis priority. `theta` is the electrical angle at
+ * which the vector will be applied (its d axis direction in the alpha-beta plane). Writes out[0..1];
+ * returns true when the vector was changed.
+ */
+export function limitVoltageDq(spec: VoltageLimitSpec, vd: number, vq: number, theta: number, out: Float64Array): boolean {
+  if (spec.shape === 'circle') {
+    const R = spec.radius;
+    if (vd * vd + vq * vq <= R * R) {
+      out[0] = vd; out[1] = vq;
+      return false;
+    }
+    const d = vd > R ? R : vd < -R ? -R : vd;
+    const qm = Math.sqrt(Math.max(0, R * R - d * d));
+    out[0] = d;
+    out[1] = vq > qm ? qm : vq < -qm ? -qm : vq;
+    return true;
+  }
+  // hexagon: |n_k · v| <= h for the edge normals n_k at 30°, 90°, 150° (alpha-beta), h = Vdc/sqrt(3)
+  const h = spec.radius;
+  const rd = hexagonRadius(spec.Vdc, theta);
+  const d = vd > rd ? rd : vd < -rd ? -rd : vd;
+  let qLo = -Infinity;
+  let qHi = Infinity;
+  for (let k = 0; k < 3; k++) {
+    const phi = Math.PI / 6 + (k * Math.PI) / 3 - theta;
+    const c = Math.cos(phi);
+    const s = Math.sin(phi);
+    // h >= |d c + q s|
+    if (Math.abs(s) < 1e-12) continue;
+    const a = (-h - d * c) / s;
+    const b = (h - d * c) / s;
+    const lo = a < b ? a : b;
+    const hi = a < b ? b : a;
+    if (lo > qLo) qLo = lo;
+    if (hi < qHi) qHi = hi;
+  }
+  if (qLo > qHi) qLo = qHi = 0.5 * (qLo + qHi);
+  const q = vq > qHi ? qHi : vq < qLo ? qLo : vq;
+  out[0] = d;
+  out[1] = q;
+  return d !== vd || q !== vq;
+}
+
+/** Largest length of an alpha-beta vector at this angle, V. */
+export function voltageLimitAt(spec: VoltageLimitSpec, angle: number): number {
+  return spec.shape === 'circle' ? spec.radius : hexagonRadius(spec.Vdc, angle);
+}
+
+export class CascadeController {
+  readonly cfg: ControllerConfig;
+  // integrators
+  xd = 0;
+  xq = 0;
+  xw = 0;
+  // speed reference chain
+  wRefRamp = 0;
+  wRefFilt = 0;
+  // outputs of the last step, for traces
+  speedRefOut = 0;
+  torqueRef = 0;
+  idRef = 0;
+  iqRef = 0;
+  /** commanded (limited) dq voltage of this period, V */
+  vdCmd = 0;
+  vqCmd = 0;
+  currentLimited = false;
+  voltageSaturated = false;
+  private k = 0;
+  private readonly bufA = new Float64Array(MAX_DELAY);
+  private readonly bufB = new Float64Array(MAX_DELAY);
+  private readonly tmp = new Float64Array(2);
+  /**
+   * The sample of `stepSampled`: [t, i_d, i_q, omega_m, theta_e, cos theta_e, sin theta_e].
+   * Passing the sample through this array instead of arguments keeps the engine from boxing
+   * doubles per call; the caller that has cos and sin of the angle already (the simulator's plant)
+   * passes them, so the inverse Park needs no transcendental call.
+   */
+  readonly sample = new Float64Array(7);
+  private speedCounter = 0;
+  /** the torque reference was clamped to a drive limit this period (speed and torque modes) */
+  torqueClamped = false;
+  // the configuration's hot numbers as plain fields (read once per period)
+  private readonly modeN: number;
+  private readonly Ts: number;
+  private readonly D: number;
+  private readonly p: number;
+  private readonly Ld: number;
+  private readonly Lq: number;
+  private readonly psiM: number;
+  private readonly Imax: number;
+  private readonly kpD: number;
+  private readonly kpQ: number;
+  private readonly kiTsD: number;
+  private readonly kiTsQ: number;
+  private readonly kbD: number;
+  private readonly kbQ: number;
+  private readonly clamping: boolean;
+  private readonly decoup: boolean;
+  private readonly bemf: boolean;
+  /** inverse-Park advance per rad/s of electrical speed, s */
+  private readonly advance: number;
+  private readonly circle: boolean;
+  private readonly radius: number;
+
+  constructor(cfg: ControllerConfig) {
+    if (!(Number.isInteger(cfg.delaySamples) && cfg.delaySamples >= 0 && cfg.delaySamples < MAX_DELAY)) {
+      throw new RangeError(`delaySamples must be a whole number 0..${MAX_DELAY - 1}`);
+    }
+    this.cfg = cfg;
+    this.modeN = cfg.mode === 'speed' ? 0 : cfg.mode === 'torque' ? 1 : 2;
+    this.Ts = cfg.Ts;
+    this.D = cfg.delaySamples;
+    this.p = cfg.machine.polePairs;
+    this.Ld = cfg.machine.Ld;
+    this.Lq = cfg.machine.Lq;
+    this.psiM = cfg.machine.psiM;
+    this.Imax = cfg.Imax;
+    this.kpD = cfg.currentD.Kp;
+    this.kpQ = cfg.currentQ.Kp;
+    this.kiTsD = cfg.Ts * cfg.currentD.Ki;
+    this.kiTsQ = cfg.Ts * cfg.currentQ.Ki;
+    this.kbD = cfg.currentD.Kp > 0 ? Math.min(1, (cfg.Ts * cfg.currentD.Ki) / cfg.currentD.Kp) : 0;
+    this.kbQ = cfg.currentQ.Kp > 0 ? Math.min(1, (cfg.Ts * cfg.currentQ.Ki) / cfg.currentQ.Kp) : 0;
+    this.clamping = cfg.antiWindup === 'clamping';
+    this.decoup = cfg.decoupling;
+    this.bemf = cfg.backEmfFeedForward;
+    this.advance = cfg.delayAngleCompensation ? (cfg.delaySamples + 0.5) * cfg.Ts : 0;
+    this.circle = cfg.voltage.shape === 'circle';
+    this.radius = cfg.voltage.radius;
+  }
+
+  /**
+   * Start from rest currents at speed w0 and angle theta0: the voltages already in the delay line
+   * are the back-EMF (so the first periods do not short the motor), the integrators start where the
+   * steady state needs them.
+   */
+  reset(w0: number, theta0: number): void {
+    const c = this.cfg;
+    const we = c.machine.polePairs * w0;
+    this.k = 0;
+    this.speedCounter = 0;
+    this.wRefRamp = w0;
+    this.wRefFilt = w0;
+    this.xd = 0;
+    this.xq = c.backEmfFeedForward ? 0 : we * c.machine.psiM;
+    this.xw = c.initialTorque;
+    this.torqueRef = c.mode === 'speed' ? c.initialTorque : 0;
+    this.bufA.fill(0);
+    this.bufB.fill(0);
+    for (let j = 0; j < c.delaySamples; j++) {
+      const th = theta0 + (j + 0.5) * we * c.Ts;
+      const vq = we * c.machine.psiM;
+      this.bufA[j] = -vq * Math.sin(th);
+      this.bufB[j] = vq * Math.cos(th);
+    }
+  }
+
+  /**
+   * One control period starting at time t with the sampled state. Writes the alpha-beta voltage to
+   * apply over this period into out[0..1].
+   */
+  step(t: number, id: number, iq: number, w: number, theta: number, out: Float64Array): void {
+    const x = this.sample;
+    x[0] = t; x[1] = id; x[2] = iq; x[3] = w; x[4] = theta; x[5] = Math.cos(theta); x[6] = Math.sin(theta);
+    this.stepSampled(out);
+  }
+
+  /** `step` with the sample (cos and sin of the angle included) already written into `this.sample`. */
+  stepSampled(out: Float64Array): void {
+    const x = this.sample;
+    const t = x[0]!;
+    const id = x[1]!;
+    const iq = x[2]!;
+    const w = x[3]!;
+    const theta = x[4]!;
+    const c = this.cfg;
+    const mode = this.modeN;
+    const we = this.p * w;
+    const tmp = this.tmp;
+
+    // ---- references
+    if (mode === 0) {
+      if (this.speedCounter === 0) this.speedLoop();
+      if (++this.speedCounter >= c.speedLoopDivider) this.speedCounter = 0;
+    } else if (mode === 1) {
+      this.speedRefOut = w;
+      const T = scheduleValue(c.torqueRef, t);
+      torqueLimitsAtL(c.table!, w, tmp);
+      const Tc = T > tmp[0]! ? tmp[0]! : T < tmp[1]! ? tmp[1]! : T;
+      this.torqueClamped = Tc !== T;
+      this.torqueRef = Tc;
+    } else {
+      this.speedRefOut = w;
+      this.torqueClamped = false;
+    }
+    let idr: number;
+    let iqr: number;
+    if (mode === 2) {
+      idr = scheduleValue(c.idRef, t);
+      iqr = scheduleValue(c.iqRef, t);
+    } else {
+      lookupCurrentsL(c.table!, w, this.torqueRef, tmp);
+      idr = tmp[0]!;
+      iqr = tmp[1]!;
+    }
+    // current reference limit, d axis first
+    const I = this.Imax;
+    let limited = this.torqueClamped;
+    if (idr > I) { idr = I; limited = true; } else if (idr < -I) { idr = -I; limited = true; }
+    const qm = Math.sqrt(Math.max(0, I * I - idr * idr));
+    if (iqr > qm) { iqr = qm; limited = true; } else if (iqr < -qm) { iqr = -qm; limited = true; }
+    this.idRef = idr;
+    this.iqRef = iqr;
+    this.currentLimited = limited;
+
+    // ---- current PIs
+    const ed = idr - id;
+    const eq = iqr - iq;
+    const decoup = this.decoup;
+    const ffd = decoup ? -we * this.Lq * iq : 0;
+    const ffq = (decoup ? we * this.Ld * id : 0) + (this.bemf ? we * this.psiM : 0);
+    const ud = this.kpD * ed + this.xd + ffd;
+    const uq = this.kpQ * eq + this.xq + ffq;
+    const dth = this.advance * we;
+    const thApply = theta + dth;
+    let vd: number;
+    let vq: number;
+    let sat: boolean;
+    const R = this.radius;
+    if (this.circle && ud * ud + uq * uq <= R * R) {
+      vd = ud; vq = uq; sat = false;
+    } else {
+      sat = limitVoltageDq(c.voltage, ud, uq, thApply, tmp);
+      vd = tmp[0]!;
+      vq = tmp[1]!;
+    }
+    this.voltageSaturated = sat;
+    this.vdCmd = vd;
+    this.vqCmd = vq;
+    if (this.clamping) {
+      if (!(sat && (vd !== ud) && ed * (ud - vd) > 0)) this.xd += this.kiTsD * ed;
+      if (!(sat && (vq !== uq) && eq * (uq - vq) > 0)) this.xq += this.kiTsQ * eq;
+    } else {
+      this.xd += this.kiTsD * ed + this.kbD * (vd - ud);
+      this.xq += this.kiTsQ * eq + this.kbQ * (vq - uq);
+    }
+
+    // ---- inverse Park at theta + dth: cos and sin from those of the sampled angle, rotated by dth
+    // with a short series (truncation below 2e-14 for |dth| < 0.5), else computed directly
+    let cs: number;
+    let sn: number;
+    if (dth > -0.5 && dth < 0.5) {
+      // the plant's polynomials for sin and cos (see Plant.derivAt), written out
+      const d2 = dth * dth;
+      const sd = dth * (1 + d2 * (-1 / 6 + d2 * (1 / 120 + d2 * (-1 / 5040 + d2 * (1 / 362880 + d2 * (-1 / 39916800))))));
+      const cd = 1 + d2 * (-1 / 2 + d2 * (1 / 24 + d2 * (-1 / 720 + d2 * (1 / 40320 + d2 * (-1 / 3628800 + d2 * (1 / 479001600))))));
+      const c0 = x[5]!;
+      const s0 = x[6]!;
+      cs = c0 * cd - s0 * sd;
+      sn = s0 * cd + c0 * sd;
+    } else {
+      cs = Math.cos(thApply);
+      sn = Math.sin(thApply);
+    }
+    const va = vd * cs - vq * sn;
+    const vb = vd * sn + vq * cs;
+    const D = this.D;
+    if (D === 0) {
+      out[0] = va;
+      out[1] = vb;
+    } else {
+      const slot = this.k % D;
+      out[0] = this.bufA[slot]!;
+      out[1] = this.bufB[slot]!;
+      this.bufA[slot] = va;
+      this.bufB[slot] = vb;
+    }
+    this.k++;
+  }
+
+  private speedLoop(): void {
+    const t = this.sample[0]!;
+    const w = this.sample[3]!;
+    const c = this.cfg;
+    const Tsw = c.Ts * c.speedLoopDivider;
+    const target = scheduleValue(c.speedRef, t);
+    // ramp limit
+    const dmax = c.speedRamp_rad_s2 * Tsw;
+    const dr = target - this.wRefRamp;
+    this.wRefRamp += dr > dmax ? dmax : dr < -dmax ? -dmax : dr;
+    // first-order prefilter, exact discretisation
+    if (c.speedRefPrefilter_s > 0) this.wRefFilt += (1 - Math.exp(-Tsw / c.speedRefPrefilter_s)) * (this.wRefRamp - this.wRefFilt);
+    else this.wRefFilt = this.wRefRamp;
+    this.speedRefOut = this.wRefRamp;
+    const e = this.wRefFilt - w;
+    const Tu = c.speed.Kp * e + this.xw;
+    const lim = this.tmp;
+    torqueLimitsAtL(c.table!, w, lim);
+    const Tmax = lim[0]!;
+    const Tmin = lim[1]!;
+    const T = Tu > Tmax ? Tmax : Tu < Tmin ? Tmin : Tu;
+    this.torqueClamped = T !== Tu;
+    if (c.antiWindup === 'clamping') {
+      if (!(T !== Tu && e * (Tu - T) > 0)) this.xw += Tsw * c.speed.Ki * e;
+    } else {
+      const kw = c.speed.Kp > 0 ? Math.min(1, (Tsw * c.speed.Ki) / c.speed.Kp) : 0;
+      this.xw += Tsw * c.speed.Ki * e + kw * (T - Tu);
+    }
+    this.torqueRef = T;
+  }
+}

@@ -1,0 +1,158 @@
+/**
+ * Torque reference -> (i_d, i_q) references for the simulator's speed and torque modes, taken
+ * from the engine's least-current operating-point solver (MTPA where the voltage allows it, field
+ * weakening otherwise) and precomputed as a table, so the control loop only interpolates.
+ *
+ * Grid: mechanical speed 0..speedMax (uniform), and a normalised torque u in [-1, 1] (uniform),
+ * where u = +1 is the largest motoring torque that both limits allow at that speed and u = -1 the
+ * largest generating torque. The limits per speed row are found by bisection on the solver's
+ * feasibility. Negative speeds use the machine's symmetry: the point at (-omega, -T) has the same
+ * i_d and the opposite i_q as the point at (omega, T) (exact for the dq model, Rs included).
+ * Lookup is bilinear in (speed, u) and allocates nothing.
+ */
+import type { DqMachine } from '../machine/dq-machine';
+import type { DriveLimits } from '../drive/inverter-spec';
+import type { OperatingPoint } from '../steady-state/operating-point-types';
+import { InputError } from '../base/errors';
+import { solveOperatingPoint } from '../steady-state/operating-point';
+
+export type OperatingPointSolver = (m: DqMachine, lim: DriveLimits, speed_rad_s: number, torque_Nm: number) => OperatingPoint;
+
+export interface ReferenceTableOptions {
+  /** highest mechanical speed of the grid, rad/s (beyond it the last row is used) */
+  speedMax_rad_s: number;
+  /** grid nodes along speed (>= 2) */
+  speedNodes: number;
+  /** grid nodes along the normalised torque (>= 3, odd keeps u = 0 on a node) */
+  torqueNodes: number;
+  /** bisection steps for the torque limit of each speed row */
+  limitIterations: number;
+}
+
+export const DEFAULT_REFERENCE_TABLE_OPTIONS: Omit<ReferenceTableOptions, 'speedMax_rad_s'> = {
+  speedNodes: 33,
+  torqueNodes: 25,
+  limitIterations: 30,
+};
+
+export interface ReferenceTable {
+  speedMax: number;
+  nS: number;
+  nU: number;
+  /** largest motoring torque per speed row, N·m (>= 0) */
+  tMot: Float64Array;
+  /** largest generating torque magnitude per speed row, N·m (>= 0) */
+  tGen: Float64Array;
+  /** i_d at [row * nU + col], A */
+  id: Float64Array;
+  /** i_q at [row * nU + col], A */
+  iq: Float64Array;
+}
+
+function feasible(solve: OperatingPointSolver, m: DqMachine, lim: DriveLimits, w: number, T: number): OperatingPoint | null {
+  try {
+    const op = solve(m, lim, w, T);
+    return op.feasible && Number.isFinite(op.id) && Number.isFinite(op.iq) ? op : null;
+  } catch {
+    return null;
+  }
+}
+
+/** Largest |T| with sign `dir` that the solver reaches at speed w (bisection, bounded). */
+function torqueLimit(solve: OperatingPointSolver, m: DqMachine, lim: DriveLimits, w: number, dir: 1 | -1, iters: number): number {
+  // no torque exceeds 1.5 p (psiM + |Ld - Lq| Imax) Imax within |i| <= Imax
+  const hi0 = 1.5 * m.polePairs * (m.psiM + Math.abs(m.Ld - m.Lq) * lim.Imax) * lim.Imax;
+  if (feasible(solve, m, lim, w, dir * hi0)) return hi0;
+  let lo = 0;
+  let hi = hi0;
+  if (!feasible(solve, m, lim, w, 0)) return 0;
+  for (let k = 0; k < iters; k++) {
+    const mid = 0.5 * (lo + hi);
+    if (feasible(solve, m, lim, w, dir * mid)) lo = mid; else hi = mid;
+  }
+  return lo;
+}
+
+export function buildReferenceTable(
+  m: DqMachine,
+  lim: DriveLimits,
+  options: Partial<ReferenceTableOptions> & { speedMax_rad_s: number },
+  solve: OperatingPointSolver = solveOperatingPoint,
+): ReferenceTable {
+  const o = { ...DEFAULT_REFERENCE_TABLE_OPTIONS, ...options };
+  if (!(o.speedMax_rad_s > 0 && Number.isFinite(o.speedMax_rad_s))) throw new InputError('reference table speedMax', 'must be > 0 rad/s');
+  if (!(Number.isInteger(o.speedNodes) && o.speedNodes >= 2)) throw new InputError('reference table speedNodes', 'must be a whole number >= 2');
+  if (!(Number.isInteger(o.torqueNodes) && o.torqueNodes >= 3)) throw new InputError('reference table torqueNodes', 'must be a whole number >= 3');
+  const nS = o.speedNodes;
+  const nU = o.torqueNodes;
+  const tMot = new Float64Array(nS);
+  const tGen = new Float64Array(nS);
+  const id = new Float64Array(nS * nU);
+  const iq = new Float64Array(nS * nU);
+  for (let r = 0; r < nS; r++) {
+    const w = (o.speedMax_rad_s * r) / (nS - 1);
+    tMot[r] = torqueLimit(solve, m, lim, w, 1, o.limitIterations);
+    tGen[r] = torqueLimit(solve, m, lim, w, -1, o.limitIterations);
+    let lastId = 0;
+    let lastIq = 0;
+    for (let c = 0; c < nU; c++) {
+      const u = -1 + (2 * c) / (nU - 1);
+      const T = u >= 0 ? u * tMot[r]! : u * tGen[r]!;
+      // pull the end nodes a hair inside the limit so that bisection round-off never lands outside
+      const Tq = Math.abs(u) === 1 ? T * (1 - 1e-9) : T;
+      const op = feasible(solve, m, lim, w, Tq);
+      if (op) {
+        lastId = op.id;
+        lastIq = op.iq;
+      }
+      id[r * nU + c] = op ? op.id : lastId;
+      iq[r * nU + c] = op ? op.iq : lastIq;
+    }
+  }
+  return { speedMax: o.speedMax_rad_s, nS, nU, tMot, tGen, id, iq };
+}
+
+/** Torque limits (motoring >= 0, generating <= 0) at mechanical speed w, N·m; writes out[0], out[1]. */
+export function torqueLimitsAt(tab: ReferenceTable, w: number, out: Float64Array): void {
+  const neg = w < 0;
+  const x = Math.min(Math.abs(w), tab.speedMax) / tab.speedMax * (tab.nS - 1);
+  const r = Math.min(Math.floor(x), tab.nS - 2);
+  const f = x - r;
+  const mot = tab.tMot[r]! + f * (tab.tMot[r + 1]! - tab.tMot[r]!);
+  const gen = tab.tGen[r]! + f * (tab.tGen[r + 1]! - tab.tGen[r]!);
+  // at negative speed, motoring is negative torque: the roles swap
+  out[0] = neg ? gen : mot;
+  out[1] = neg ? -mot : -gen;
+}
+
+/**
+ * (i_d, i_q) references for torque T at mechanical speed w: out[0] = i_d, out[1] = i_q.
+ * T beyond the limits is clamped to them. Returns the torque actually asked (after the clamp).
+ */
+export function lookupCurrents(tab: ReferenceTable, w: number, T: number, out: Float64Array): number {
+  const neg = w < 0;
+  const Tp = neg ? -T : T;
+  const x = (Math.min(Math.abs(w), tab.speedMax) / tab.speedMax) * (tab.nS - 1);
+  const r = Math.min(Math.floor(x), tab.nS - 2);
+  const f = x - r;
+  const mot = tab.tMot[r]! + f * (tab.tMot[r + 1]! - tab.tMot[r]!);
+  const gen = tab.tGen[r]! + f * (tab.tGen[r + 1]! - tab.tGen[r]!);
+  let u: number;
+  if (Tp >= 0) u = mot > 0 ? Math.min(Tp / mot, 1) : 0;
+  else u = gen > 0 ? Math.max(Tp / gen, -1) : 0;
+  const y = ((u + 1) / 2) * (tab.nU - 1);
+  const c = Math.min(Math.floor(y), tab.nU - 2);
+  const g = y - c;
+  const nU = tab.nU;
+  const i00 = r * nU + c;
+  const i10 = i00 + nU;
+  const a = (1 - f) * (1 - g);
+  const b = f * (1 - g);
+  const cc = (1 - f) * g;
+  const d = f * g;
+  out[0] = a * tab.id[i00]! + b * tab.id[i10]! + cc * tab.id[i00 + 1]! + d * tab.id[i10 + 1]!;
+  const iqv = a * tab.iq[i00]! + b * tab.iq[i10]! + cc * tab.iq[i00 + 1]! + d * tab.iq[i10 + 1]!;
+  out[1] = neg ? -iqv : iqv;
+  const Tasked = u >= 0 ? u * mot : u * gen;
+  return neg ? -Tasked : Tasked;
+}

@@ -1,0 +1,51 @@
+import type { DriveLimits, InverterSpec, Modulation } from './inverter-spec';
+import { InputError } from '../base/errors';
+
+/**
+ * Largest peak phase voltage (length of v_dq) per volt of effective bus, by modulation:
+ * sinusoidal PWM 1/2; SVPWM or min-max injection, linear range 1/sqrt(3) (inscribed circle of
+ * the hexagon); six-step fundamental 2/pi. Hexagon vertices reach 2/3 (see `hexagonVertex`).
+ */
+export const MODULATION_GAIN: Readonly<Record<Modulation, number>> = {
+  sinusoidal: 0.5,
+  svpwm: 1 / Math.sqrt(3),
+  'six-step': 2 / Math.PI,
+};
+
+/** Hexagon vertex = 2 Vdc / 3 (the largest instantaneous v_alpha-beta length). */
+export const hexagonVertex = (Vdc: number): number => (2 * Vdc) / 3;
+
+/** Effective bus after the drop of the two conducting devices in series. */
+export function effectiveBus(spec: Pick<InverterSpec, 'Vdc' | 'deviceDrop'>): number {
+  return Math.max(0, spec.Vdc - 2 * spec.deviceDrop);
+}
+
+/** Peak phase voltage available to the steady state, V. */
+export function voltageLimit(spec: Pick<InverterSpec, 'Vdc' | 'deviceDrop' | 'modulation' | 'voltageUtilization'>): number {
+  return MODULATION_GAIN[spec.modulation] * spec.voltageUtilization * effectiveBus(spec);
+}
+
+/** The DC-bus voltage that gives `Vmax` peak phase with this modulation, utilisation and drop. */
+export function busForVoltageLimit(Vmax: number, spec: Pick<InverterSpec, 'deviceDrop' | 'modulation' | 'voltageUtilization'>): number {
+  return Vmax / (MODULATION_GAIN[spec.modulation] * spec.voltageUtilization) + 2 * spec.deviceDrop;
+}
+
+/** Limits for the steady-state solvers: peak or continuous current. */
+export function driveLimits(spec: InverterSpec, current: 'peak' | 'continuous' = 'peak'): DriveLimits {
+  if (!(spec.voltageUtilization > 0 && spec.voltageUtilization <= 1)) {
+    throw new InputError('inverter.voltageUtilization', 'must be in (0, 1]');
+  }
+  return { Vmax: voltageLimit(spec), Imax: current === 'peak' ? spec.Imax : spec.Icont };
+}
+
+/**
+ * Hexagon limit in the alpha-beta plane: the largest length of a voltage vector at angle `angle`
+ * (rad, from the alpha axis) that the bridge can produce on average over a period.
+ * Inscribed circle Vdc/sqrt(3) at the edge midpoints, 2 Vdc/3 at the vertices.
+ */
+export function hexagonRadius(Vdc: number, angle: number): number {
+  const sector = Math.PI / 3;
+  let a = angle % sector;
+  if (a < 0) a += sector;
+  return Vdc / Math.sqrt(3) / Math.cos(a - sector / 2);
+}

@@ -1,0 +1,357 @@
+/**
+ * Parse + validate + resolve a project: the dq machine at 20 °C, hot and cold, the inverter's
+ * limits (peak and continuous current), the conditions, the requirements, what each nameplate
+ * input was taken to mean, and consistency findings.
+ */
+import type { Conditions, DqMachine, Mechanics } from '../machine/dq-machine';
+import type { CurrentLimits } from '../drive/current-limit-types';
+import type { DriveLimits, InverterSpec } from '../drive/inverter-spec';
+import type { Finding } from '../base/finding';
+import type { Requirement } from '../steady-state/operating-point-types';
+import { effectiveCurrentLimits } from '../drive/current-limits';
+import { defaultedInputFindings } from './defaulted-inputs';
+import { InputError } from '../base/errors';
+import { machineAt } from '../machine/thermal';
+import { driveLimits } from '../drive/inverter';
+import { fmt, nameplateToModel, type Interpretation, type RatedData } from '../machine/nameplate';
+import { defaultConditions, parseProject, type ProjectFile } from './schema';
+import { solveOperatingPoint } from '../steady-state/operating-point';
+import { mtpaTorque } from '../steady-state/mtpa';
+import { migrateProject } from './migrate';
+import { findDuplicateKey } from './json-duplicates';
+import { RPM_TO_RAD_S, SQRT2 } from '../base/units';
+
+export interface ResolvedProject {
+  /** the validated file with its defaults filled in */
+  file: ProjectFile;
+  name: string;
+  /** dq model at 20 °C */
+  machine20: DqMachine;
+  /** Rs at the winding temperature, psiM at the magnet temperature */
+  hot: DqMachine;
+  /** Rs and psiM at the cold temperature (highest back-EMF) */
+  cold: DqMachine;
+  mechanics: Mechanics;
+  inverter: InverterSpec;
+  /** voltage limit and the effective peak current (the weaker of inverter Imax and motor peak current) */
+  peak: DriveLimits;
+  /** voltage limit and the effective continuous current (the weaker of inverter Icont and motor rated current) */
+  continuous: DriveLimits;
+  /** the effective current limits and which rating binds each */
+  currentLimits: CurrentLimits;
+  conditions: Conditions;
+  requirements: Requirement[];
+  /** rated data from a nameplate section (SI, A peak), empty for a motor section */
+  rated: RatedData;
+  interpretation: Interpretation[];
+  findings: Finding[];
+  /** true for a file of a newer format version: show it, never save it over itself */
+  readOnly?: boolean;
+}
+
+/** Where a JSON.parse message puts the error: "at position N" (V8) or "line L column C". */
+function lineColumn(text: string, message: string): { line: number; column: number } | null {
+  const lc = /line (\d+) column (\d+)/.exec(message);
+  if (lc) return { line: Number(lc[1]), column: Number(lc[2]) };
+  const pos = /position (\d+)/.exec(message);
+  const at = pos ? Math.min(Number(pos[1]), text.length) : /end of JSON input/.test(message) ? text.length : firstBadOffset(text);
+  let line = 1;
+  let col = 1;
+  for (let i = 0; i < at; i++) {
+    if (text.charCodeAt(i) === 10) {
+      line++;
+      col = 1;
+    } else col++;
+  }
+  return { line, column: col };
+}
+
+/**
+ * Where a text stops being a valid JSON prefix, when the parser does not say: the longest prefix
+ * whose only fault is that it ends early (the parser ran off its end). Bisection, at most ~log2(length) parses.
+ */
+function firstBadOffset(text: string): number {
+  const endsEarly = (n: number): boolean => {
+    try {
+      JSON.parse(text.slice(0, n));
+      return true;
+    } catch (e) {
+      if (!(e instanceof Error)) return false;
+      if (/end of JSON input/.test(e.message)) return true;
+      const at = /position (\d+)/.exec(e.message);
+      return at !== null && Number(at[1]) >= n; // ran off the end of the prefix
+
+    }
+  };
+  let lo = 0;
+  let hi = text.length;
+  for (let k = 0; k < 64 && hi - lo > 1; k++) {
+    const mid = (lo + hi) >> 1;
+    if (endsEarly(mid)) lo = mid;
+    else hi = mid;
+  }
+  return lo;
+}
+
+/**
+ * Project text -> its JSON value, as every reader takes it (app, worker, CLI): a leading byte-order
+ * mark is ignored; a syntax error is InputError('file', 'is not valid JSON: ... at line L column C');
+ * a key given twice in one object is InputError naming its path (JSON.parse would keep the last).
+ */
+export function parseProjectJson(source: string): unknown {
+  // a UTF-8 byte-order mark, as some editors write it, is not JSON: drop it
+  const text = source.charCodeAt(0) === 0xfeff ? source.slice(1) : source;
+  let json: unknown;
+  try {
+    json = JSON.parse(text);
+  } catch (e) {
+    const raw = e instanceof Error ? e.message : String(e);
+    const where = lineColumn(text, raw);
+    // keep the engine's reason, drop its own position wording and any echo of the text
+    const reason = raw.replace(/\s*\(line \d+ column \d+\)/, '').replace(/\s*(at|in JSON at) position \d+.*$/, '').replace(/,\s*(\.\.\.)?"[\s\S]*$/, '').replace(/\r?\n/g, '\\n').trim();
+    // an invisible character (NUL, a second byte-order mark) shown by its code point
+    const lead = (reason || 'unexpected input').replace(/[\u0000-\u001f\u007f-\u009f\ufeff]/g, (c) => `U+${c.charCodeAt(0).toString(16).toUpperCase().padStart(4, '0')}`);
+    throw new InputError('file', `is not valid JSON: ${lead}${where ? ` at line ${where.line} column ${where.column}` : ''}`);
+  }
+  const dup = findDuplicateKey(text);
+  if (dup) throw new InputError(dup.path, 'is given twice in one object; give each key once (which of the values was meant is a guess)');
+  return json;
+}
+
+/** Project text -> resolved project (parseProjectJson, then migrate, validate and resolve). */
+export function loadProjectText(source: string): ResolvedProject {
+  const json = parseProjectJson(source);
+  const m = migrateProject(json);
+  if (!m.readOnly && m.fromVersion === m.json['version']) {
+    const current = resolveProject(parseProject(json));
+    // inputs left to the schema's defaults, said as the app says them
+    current.findings.push(...defaultedInputFindings(json));
+    return current;
+  }
+  let rp: ResolvedProject;
+  try {
+    rp = resolveProject(parseProject(m.json));
+  } catch (e) {
+    if (!m.readOnly || !(e instanceof InputError)) throw e;
+    throw new InputError('version', `is ${m.fromVersion}: the file was written by a newer Torquewise; this one reads version ${m.json['version']} and cannot read it (${e.message})`);
+  }
+  rp.findings.unshift(...m.findings);
+  rp.findings.push(...defaultedInputFindings(m.json));
+  return m.readOnly ? { ...rp, readOnly: true } : rp;
+}
+
+/** The cold corner's temperature when the file gives none, °C (said as a finding). */
+export const DEFAULT_COLD_TEMP_C = 20;
+/** Every temperature when the file gives no conditions (and the winding's when it gives none), °C (said as a finding). */
+export const DEFAULT_TEMP_C = 20;
+/** The modulation when the file gives none (said as a finding). */
+export const DEFAULT_MODULATION = 'svpwm' as const;
+
+/** A validated project file -> machine hot and cold, limits, findings. */
+export function resolveProject(file: ProjectFile): ResolvedProject {
+  // a minimal file may leave out the conditions (every temperature 20 °C) or the winding temperature
+  const c = file.conditions ?? defaultConditions();
+  const conditions: Conditions = {
+    windingTemp_C: c.windingTemp_C ?? DEFAULT_TEMP_C,
+    magnetTemp_C: c.magnetTemp_C,
+    coldTemp_C: c.coldTemp_C ?? DEFAULT_COLD_TEMP_C,
+    magnetTempCoeff: c.magnetTempCoeff,
+  };
+  let machine20: DqMachine;
+  let mechanics: Mechanics;
+  let interpretation: Interpretation[] = [];
+  const findings: Finding[] = [];
+  let rated: RatedData = {};
+  if (file.motor) {
+    const m = file.motor;
+    machine20 = { polePairs: m.polePairs, Rs: m.Rs, Ld: m.Ld, Lq: m.Lq, psiM: m.psiM };
+    mechanics = { inertia: m.inertia, viscousFriction: m.viscousFriction, coulombFriction: m.coulombFriction };
+    if (m.maxSpeed_rpm !== undefined) rated.maxSpeed_rad_s = m.maxSpeed_rpm * RPM_TO_RAD_S;
+    if (m.ratedCurrent !== undefined) rated.current_A = m.ratedCurrent;
+    if (m.peakCurrent !== undefined) rated.peakCurrent_A = m.peakCurrent;
+    if (m.psiM === 0 && m.Ld === m.Lq) throw new InputError('motor.psiM', 'must be > 0 Wb when Ld = Lq (with neither magnet nor saliency the machine makes no torque)');
+  } else if (file.nameplate) {
+    const r = nameplateToModel(file.nameplate, { magnetTempCoeff: c.magnetTempCoeff, path: 'nameplate' });
+    machine20 = r.model;
+    mechanics = r.mechanics;
+    interpretation = r.interpretation;
+    findings.push(...r.findings);
+    rated = r.rated;
+  } else {
+    throw new InputError('motor', 'is required (or a nameplate section)');
+  }
+
+  const inverter: InverterSpec = { ...file.inverter, modulation: file.inverter.modulation ?? DEFAULT_MODULATION };
+  if (file.inverter.modulation === undefined) {
+    findings.push({
+      code: 'modulation-assumed', severity: 'info', field: 'inverter.modulation',
+      message: `No modulation given: space-vector PWM ("${DEFAULT_MODULATION}") is assumed, voltage limit Vdc/√3 per phase peak. Give "sinusoidal" (Vdc/2) if the drive uses plain sine-triangle PWM.`,
+    });
+  }
+  const currentLimits = effectiveCurrentLimits(inverter, rated.current_A, rated.peakCurrent_A);
+  const peak: DriveLimits = { ...driveLimits(inverter, 'peak'), Imax: currentLimits.peak.A };
+  const continuous: DriveLimits = { ...driveLimits(inverter, 'continuous'), Imax: currentLimits.continuous.A };
+  const hot = machineAt(machine20, conditions.windingTemp_C, conditions.magnetTemp_C, conditions.magnetTempCoeff);
+  const cold = machineAt(machine20, conditions.coldTemp_C, conditions.coldTemp_C, conditions.magnetTempCoeff);
+  if (file.conditions === undefined) {
+    findings.push({
+      code: 'conditions-assumed', severity: 'info', field: 'conditions',
+      message: `No conditions given: every temperature (winding, magnet, cold corner) is taken at ${DEFAULT_TEMP_C} °C, so the hot corner is not hot: ` +
+        'a warm winding has more resistance and a warm magnet less flux. Give conditions.windingTemp_C and conditions.magnetTemp_C for the hot corner and conditions.coldTemp_C for the coldest start.',
+    });
+  } else if (c.windingTemp_C === undefined) {
+    findings.push({
+      code: 'winding-temp-assumed', severity: 'info', field: 'conditions.windingTemp_C',
+      message: `No winding temperature given: the hot corner's winding is taken at ${DEFAULT_TEMP_C} °C (resistance at 20 °C). Give the winding temperature the drive must work at.`,
+    });
+  }
+  if (file.conditions !== undefined && c.coldTemp_C === undefined) {
+    findings.push({
+      code: 'cold-corner-assumed', severity: 'info', field: 'conditions.coldTemp_C',
+      message: `No cold-corner temperature given: the cold corner (strongest magnet, highest back-EMF) is taken at ${DEFAULT_COLD_TEMP_C} °C. A colder start raises the back-EMF further; give the coldest ambient the drive must start in.`,
+    });
+  }
+
+  findings.push(...ratedFindings(rated, hot, inverter, peak, file.motor ? 'motor' : 'nameplate'));
+  findings.push(...oddMachineFindings(file.motor ? 'motor' : 'nameplate', machine20, hot, mechanics, peak, file.requirements));
+
+  return {
+    file,
+    name: file.name,
+    machine20,
+    hot,
+    cold,
+    mechanics,
+    inverter,
+    peak,
+    continuous,
+    currentLimits,
+    conditions,
+    requirements: file.requirements.map((r) => ({ label: r.label, speed_rpm: r.speed_rpm, torque_Nm: r.torque_Nm, duty: r.duty ?? 'peak' })),
+    rated,
+    interpretation,
+    findings,
+  };
+}
+
+/** The motor's rated point against this inverter: current limits, and voltage at the hot corner. */
+function ratedFindings(rated: RatedData, hot: DqMachine, inv: InverterSpec, peak: DriveLimits, section: 'motor' | 'nameplate'): Finding[] {
+  const out: Finding[] = [];
+  const amps = (x: number): string => `${fmt(x)} A peak (${fmt(x / SQRT2)} A rms)`;
+  if (rated.current_A !== undefined) {
+    if (rated.current_A > inv.Imax) {
+      out.push({
+        code: 'rated-current-above-imax',
+        severity: 'warning',
+        field: `${section}.ratedCurrent`,
+        message: `The motor's rated current ${amps(rated.current_A)} is above the inverter's peak current ${amps(inv.Imax)}: the motor cannot reach its rated torque on this inverter.`,
+      });
+    } else if (rated.current_A > 1.01 * inv.Icont) {
+      out.push({
+        code: 'rated-current-above-icont',
+        severity: 'warning',
+        field: `${section}.ratedCurrent`,
+        message: `The motor's rated current ${amps(rated.current_A)} is above the inverter's continuous current ${amps(inv.Icont)}: rated torque is available only for short periods.`,
+      });
+    }
+  }
+  // the inverter can drive more current than the motor is rated for: a demagnetisation risk
+  // (allowing 1 % for rounding between an rms datasheet figure and a peak inverter rating)
+  if (rated.peakCurrent_A !== undefined && inv.Imax > 1.01 * rated.peakCurrent_A) {
+    out.push({
+      code: 'imax-above-motor-peak',
+      severity: 'danger',
+      field: 'inverter.Imax',
+      message: `The inverter's peak current ${amps(inv.Imax)} is above the motor's peak current ${amps(rated.peakCurrent_A)}: ` +
+        'current beyond the motor rating, above all negative d-axis current in field weakening at a hot magnet, risks demagnetising the magnets for good. ' +
+        `Torquewise limits every result to the motor's ${amps(rated.peakCurrent_A)}; set the drive's own current limit there too, or confirm the magnets' demagnetisation limit with the motor's maker.`,
+    });
+  }
+  // a drive that may hold more current than the motor is rated for overheats the winding
+  if (rated.current_A !== undefined && inv.Icont > 1.01 * rated.current_A) {
+    out.push({
+      code: 'icont-above-motor-rated',
+      severity: 'warning',
+      field: 'inverter.Icont',
+      message: `The inverter's continuous current ${amps(inv.Icont)} is above the motor's rated current ${amps(rated.current_A)}: ` +
+        "held for long, it overheats the winding. Continuous results here use the motor's rated current; set the drive's continuous limit (or its overload protection) to it.",
+    });
+  }
+  if (rated.speed_rad_s !== undefined && rated.torque_Nm !== undefined) {
+    const op = solveOperatingPoint(hot, peak, rated.speed_rad_s, rated.torque_Nm);
+    if (!op.feasible) {
+      const why =
+        op.limitedBy === 'current'
+          ? `it needs ${amps(op.current)}, above Imax`
+          : op.limitedBy === 'beyond-mtpv'
+            ? `no current reaches it within ${fmt(peak.Vmax)} V peak phase (beyond the maximum-torque-per-volt limit)`
+            : `it needs ${amps(op.current)} to stay within ${fmt(peak.Vmax)} V peak phase, above Imax`;
+      out.push({
+        code: 'rated-point-infeasible',
+        severity: 'warning',
+        field: 'nameplate.ratedTorque_Nm',
+        message: `The rated point (${fmt(rated.torque_Nm)} N·m at ${fmt((rated.speed_rad_s * 60) / (2 * Math.PI))} rpm) is outside this inverter at the hot corner: ${why}.`,
+      });
+    }
+  }
+  return out;
+}
+
+/**
+ * Legal but unusual inputs, said plainly: a lossless winding, a reluctance machine, inverse
+ * saliency, a bus that reaches no requirement, a current limit that cannot overcome friction.
+ */
+function oddMachineFindings(section: string, m20: DqMachine, hot: DqMachine, mech: Mechanics, peak: DriveLimits, reqs: ProjectFile['requirements']): Finding[] {
+  const out: Finding[] = [];
+  if (m20.Rs === 0) {
+    out.push({
+      code: 'lossless-winding',
+      severity: 'info',
+      field: `${section}.Rs`,
+      message: 'Rs = 0: lossless winding assumed (no copper loss, no resistive drop); the internal-model current PI then has Ki = Rs·bandwidth = 0 (proportional only).',
+    });
+  }
+  if (m20.psiM === 0) {
+    out.push({
+      code: 'reluctance-machine',
+      severity: 'info',
+      field: `${section}.psiM`,
+      message: 'psiM = 0: reluctance machine: no magnet torque, torque from (Ld - Lq)·id·iq only; back-EMF checks do not apply.',
+    });
+  } else if (m20.Ld > m20.Lq) {
+    out.push({
+      code: 'inverse-saliency',
+      severity: 'info',
+      field: `${section}.Ld`,
+      message: `Ld > Lq (inverse saliency, Lq/Ld = ${fmt(m20.Lq / m20.Ld)}): reluctance torque needs positive (magnetising) id, which raises the flux and the voltage at speed.`,
+    });
+  }
+  const tStall = mtpaTorque(hot, peak.Imax);
+  if (mech.coulombFriction > 0 && tStall < mech.coulombFriction) {
+    out.push({
+      code: 'imax-below-friction',
+      severity: 'warning',
+      field: 'inverter.Imax',
+      message: `At Imax ${fmt(peak.Imax)} A peak the motor makes at most ${fmt(tStall)} N·m (hot corner), below its Coulomb friction ${fmt(mech.coulombFriction)} N·m: it cannot start even without load.`,
+    });
+  }
+  if (reqs.length > 0) {
+    let reached = false;
+    let byVoltage = 0;
+    for (let k = 0; k < reqs.length && !reached; k++) {
+      const q = reqs[k]!;
+      const op = solveOperatingPoint(hot, peak, q.speed_rpm * RPM_TO_RAD_S, q.torque_Nm);
+      if (op.feasible) reached = true;
+      else if (op.limitedBy !== 'current') byVoltage++;
+    }
+    if (!reached && byVoltage > 0) {
+      out.push({
+        code: 'bus-reaches-no-requirement',
+        severity: 'warning',
+        field: 'inverter.Vdc',
+        message: `No requirement is reachable at the hot corner (${byVoltage} of ${reqs.length} fail on the voltage limit ${fmt(peak.Vmax)} V peak phase): the bus is too low for this motor at these speeds.`,
+      });
+    }
+  }
+  return out;
+}

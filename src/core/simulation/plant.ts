@@ -1,0 +1,312 @@
+/**
+ * The PMSM plant for the cascade simulator: the dq model of ../shared/conventions.md (motor
+ * reference direction, amplitude-invariant scaling, peak values) plus the mechanical equation
+ *
+ *   v_d = R_s i_d + L_d di_d/dt - omega_e L_q i_q
+ *   v_q = R_s i_q + L_q di_q/dt + omega_e (L_d i_d + psi_m)
+ *   T_e = 1.5 p (psi_m i_q + (L_d - L_q) i_d i_q)
+ *   J domega_m/dt = T_e - B omega_m - T_c sgn(omega_m) - T_load(t, omega_m)
+ *
+ * State vector (Float64Array, index constants below): i_d, i_q, omega_m, theta_e, and the energy
+ * drawn from the DC link (the integral of p = 1.5 (v_d i_d + v_q i_q); the inverter is lossless).
+ *
+ * The input is the inverter's average voltage over a control period. By default it is given in
+ * the stationary (alpha, beta) frame, as PWM averaging holds it, and the derivative rotates it into
+ * dq with the rotor angle of the state; `inputFrame: 'dq'` holds it constant in dq instead (used
+ * for open-loop steady-state checks).
+ *
+ * The sign of the Coulomb friction is smoothed as x / sqrt(1 + x²), x = omega / w, with a width w
+ * chosen so that the friction term is not stiff at the control period (see `coulombWidth`).
+ */
+import type { DqMachine } from '../machine/dq-machine';
+import { InputError } from '../base/errors';
+
+export const I_D = 0;
+export const I_Q = 1;
+export const OMEGA = 2;
+export const THETA = 3;
+export const ENERGY = 4;
+export const STATE_SIZE = 5;
+
+/** Load torque: a level schedule (steps and ramps) plus a speed-dependent term k·omega·|omega|. */
+export interface LoadSchedule {
+  /** breakpoint times, s, ascending */
+  times: Float64Array;
+  /** load level at each breakpoint, N·m; linear in between, held after the last */
+  levels: Float64Array;
+  /** coefficient of the fan/pump load k·omega_m·|omega_m|, N·m·s²/rad² (0 = none) */
+  quadraticK: number;
+}
+
+export interface LoadStepSpec { t_s: number; torque_Nm: number }
+export interface LoadRampSpec { t_s: number; duration_s: number; torque_Nm: number }
+
+/** Build a level schedule: a step jumps to `torque_Nm` at `t_s`; a ramp goes linearly from the level then in force to `torque_Nm` over `duration_s`. */
+export function loadSchedule(steps: readonly LoadStepSpec[] = [], ramps: readonly LoadRampSpec[] = [], quadraticK = 0): LoadSchedule {
+  type Ev = { t: number; kind: 'step' | 'ramp'; T: number; d: number };
+  const evs: Ev[] = [];
+  steps.forEach((s, i) => {
+    if (!(s.t_s >= 0) || !Number.isFinite(s.torque_Nm)) throw new InputError(`scenario.loadSteps[${i}]`, 'needs t_s >= 0 s and a finite torque_Nm');
+    evs.push({ t: s.t_s, kind: 'step', T: s.torque_Nm, d: 0 });
+  });
+  ramps.forEach((r, i) => {
+    if (!(r.t_s >= 0) || !(r.duration_s > 0) || !Number.isFinite(r.torque_Nm)) {
+      throw new InputError(`scenario.loadRamps[${i}]`, 'needs t_s >= 0 s, duration_s > 0 s and a finite torque_Nm');
+    }
+    evs.push({ t: r.t_s, kind: 'ramp', T: r.torque_Nm, d: r.duration_s });
+  });
+  if (!(quadraticK >= 0)) throw new InputError('scenario.loadModel.k', 'must be >= 0 N·m·s²/rad²');
+  evs.sort((a, b) => a.t - b.t);
+  const t: number[] = [0];
+  const v: number[] = [0];
+  const levelAt = (x: number): number => {
+    // level of the piecewise-linear schedule built so far
+    let i = t.length - 1;
+    while (i > 0 && t[i]! > x) i--;
+    if (i === t.length - 1 || t[i + 1]! === t[i]!) return v[i]!;
+    const f = (x - t[i]!) / (t[i + 1]! - t[i]!);
+    return v[i]! + f * (v[i + 1]! - v[i]!);
+  };
+  for (const e of evs) {
+    // drop breakpoints after e.t (a later event overrides a ramp still running)
+    const now = levelAt(e.t);
+    while (t.length > 1 && t[t.length - 1]! > e.t) { t.pop(); v.pop(); }
+    if (e.kind === 'step') {
+      t.push(e.t, e.t); v.push(now, e.T);
+    } else {
+      t.push(e.t, e.t + e.d); v.push(now, e.T);
+    }
+  }
+  return { times: Float64Array.from(t), levels: Float64Array.from(v), quadraticK };
+}
+
+/** Load level of the schedule at time t (without the speed-dependent term). */
+export function loadLevel(s: LoadSchedule, t: number): number {
+  const n = s.times.length;
+  if (t >= s.times[n - 1]!) return s.levels[n - 1]!;
+  let lo = 0;
+  let hi = n - 1;
+  while (hi - lo > 1) {
+    const mid = (lo + hi) >> 1;
+    if (s.times[mid]! <= t) lo = mid; else hi = mid;
+  }
+  const t0 = s.times[lo]!;
+  const t1 = s.times[hi]!;
+  if (t1 <= t0) return s.levels[hi]!;
+  return s.levels[lo]! + ((t - t0) / (t1 - t0)) * (s.levels[hi]! - s.levels[lo]!);
+}
+
+/** The first breakpoint strictly after t (Infinity when none): the simulator splits its integration there. */
+export function nextLoadBreak(s: LoadSchedule, t: number): number {
+  const n = s.times.length;
+  for (let i = 0; i < n; i++) if (s.times[i]! > t) return s.times[i]!;
+  return Infinity;
+}
+
+export interface PlantParams {
+  machine: DqMachine;
+  /** total inertia, motor plus load, kg·m² */
+  inertia: number;
+  /** viscous friction B, N·m·s/rad */
+  viscousFriction: number;
+  /** Coulomb friction, N·m */
+  coulombFriction: number;
+  load: LoadSchedule;
+  /** 'free': the speed follows the mechanical equation; 'locked': omega_m stays at its initial value */
+  mechanics: 'free' | 'locked';
+  /** frame in which the input voltage is held over a period (default 'alpha-beta') */
+  inputFrame: 'alpha-beta' | 'dq';
+  /** width of the smoothed Coulomb sign, rad/s (see `coulombWidth`) */
+  coulombWidth_rad_s: number;
+}
+
+/**
+ * Width w of the smoothed sign x/sqrt(1 + x²), x = omega/w, replacing sgn(omega): the larger of 1e-3 rad/s and 2·T_c·Ts/J, so that
+ * the friction's slope T_c/(J w) times the period stays at or below 0.5 (not stiff for an explicit
+ * Runge-Kutta step of one period).
+ */
+export function coulombWidth(coulombFriction: number, inertia: number, Ts: number): number {
+  return Math.max(1e-3, (2 * coulombFriction * Ts) / inertia);
+}
+
+export function validatePlant(p: PlantParams): void {
+  const m = p.machine;
+  if (!(Number.isInteger(m.polePairs) && m.polePairs >= 1)) throw new InputError('motor.polePairs', 'must be a whole number >= 1');
+  if (!(m.Rs >= 0)) throw new InputError('motor.Rs', 'must be >= 0 ohm');
+  if (!(m.Ld > 0)) throw new InputError('motor.Ld', 'must be > 0 H');
+  if (!(m.Lq > 0)) throw new InputError('motor.Lq', 'must be > 0 H');
+  if (!(m.psiM >= 0)) throw new InputError('motor.psiM', 'must be >= 0 Wb');
+  if (!(p.inertia > 0)) throw new InputError('motor.inertia', 'must be > 0 kg·m² (motor plus scenario.loadInertia)');
+  if (!(p.viscousFriction >= 0)) throw new InputError('motor.viscousFriction', 'must be >= 0 N·m·s/rad');
+  if (!(p.coulombFriction >= 0)) throw new InputError('motor.coulombFriction', 'must be >= 0 N·m');
+}
+
+/**
+ * The plant as an object with a derivative function created once. `input` holds the voltage
+ * (v_alpha, v_beta) or (v_d, v_q); the derivative reads it, so the caller changes it in place
+ * between periods. `evaluations` counts derivative calls.
+ */
+export class Plant {
+  readonly params: PlantParams;
+  /** held input voltage: [v_alpha, v_beta] (or [v_d, v_q] with inputFrame 'dq'), V */
+  readonly input = new Float64Array(2);
+  evaluations = 0;
+  /**
+   * Load level as loadA + loadB·t over the current integration segment (see `setLoadSegment`);
+   * while `segmented` is false the derivative looks the schedule up at each call instead.
+   */
+  loadA = 0.5;
+  loadB = 0.5;
+  segmented = false;
+  /** angle origin of the current period and its cosine and sine (see `setAngleOrigin`) */
+  th0 = 0.5;
+  c0 = Math.cos(0.5);
+  s0 = Math.sin(0.5);
+  /** the derivative as a function value (dydt, y, t), for integrators that take one */
+  readonly deriv: (dydt: Float64Array, y: Float64Array, t: number) => void;
+  // constants of the derivative, as plain double fields
+  private readonly p: number;
+  private readonly Rs: number;
+  private readonly Ld: number;
+  private readonly Lq: number;
+  private readonly psiM: number;
+  private readonly invLd: number;
+  private readonly invLq: number;
+  private readonly invJ: number;
+  private readonly B: number;
+  private readonly Tc: number;
+  private readonly invW: number;
+  private readonly k2: number;
+  private readonly free: boolean;
+  private readonly ab: boolean;
+
+  constructor(params: PlantParams) {
+    validatePlant(params);
+    this.params = params;
+    const m = params.machine;
+    this.p = m.polePairs;
+    this.Rs = m.Rs;
+    this.Ld = m.Ld;
+    this.Lq = m.Lq;
+    this.psiM = m.psiM;
+    this.invLd = 1 / m.Ld;
+    this.invLq = 1 / m.Lq;
+    this.invJ = 1 / params.inertia;
+    this.B = params.viscousFriction;
+    this.Tc = params.coulombFriction;
+    this.invW = 1 / params.coulombWidth_rad_s;
+    this.k2 = params.load.quadraticK;
+    this.free = params.mechanics === 'free';
+    this.ab = params.inputFrame === 'alpha-beta';
+    this.deriv = (dydt, y, t) => this.derivInto(dydt, y, t);
+  }
+
+  /**
+   * The time of `derivAt`, s. An integrator's callback writes it here and calls `derivAt`, so that
+   * the time crosses the (not inlined) call as an unboxed double instead of a boxed argument.
+   */
+  readonly time = new Float64Array(1);
+
+  /** dy/dt of the state y at time t into dydt (a prototype method: one call target for every plant). */
+  derivInto(dydt: Float64Array, y: Float64Array, t: number): void {
+    this.time[0] = t;
+    this.derivAt(dydt, y);
+  }
+
+  /** dy/dt of the state y at time `this.time[0]` into dydt. */
+  derivAt(dydt: Float64Array, y: Float64Array): void {
+    const t = this.time[0]!;
+    this.evaluations++;
+    const u = this.input;
+    const id = y[0]!;
+    const iq = y[1]!;
+    const w = y[2]!;
+    let vd: number;
+    let vq: number;
+    if (this.ab) {
+      // cos/sin of the angle from those of the angle origin (see setAngleOrigin) and a short series
+      const d = y[3]! - this.th0;
+      let c: number;
+      let s: number;
+      if (d > -0.5 && d < 0.5) {
+        // Taylor polynomials of sin (through d^11) and cos (through d^12) in Horner form with constant
+        // coefficients, written out (a call would box its result at every evaluation); truncation
+        // below 2e-14 at |d| = 0.5. Common practice (no source).
+        const x = d * d;
+        const sd = d * (1 + x * (-1 / 6 + x * (1 / 120 + x * (-1 / 5040 + x * (1 / 362880 + x * (-1 / 39916800))))));
+        const cd = 1 + x * (-1 / 2 + x * (1 / 24 + x * (-1 / 720 + x * (1 / 40320 + x * (-1 / 3628800 + x * (1 / 479001600))))));
+        c = this.c0 * cd - this.s0 * sd;
+        s = this.s0 * cd + this.c0 * sd;
+      } else {
+        c = Math.cos(y[3]!);
+        s = Math.sin(y[3]!);
+      }
+      vd = u[0]! * c + u[1]! * s;
+      vq = -u[0]! * s + u[1]! * c;
+    } else {
+      vd = u[0]!;
+      vq = u[1]!;
+    }
+    const we = this.p * w;
+    const Ld = this.Ld;
+    const Lq = this.Lq;
+    dydt[0] = (vd - this.Rs * id + we * Lq * iq) * this.invLd;
+    dydt[1] = (vq - this.Rs * iq - we * (Ld * id + this.psiM)) * this.invLq;
+    if (this.free) {
+      const Te = 1.5 * this.p * (this.psiM * iq + (Ld - Lq) * id * iq);
+      const TL = (this.segmented ? this.loadA + this.loadB * t : loadLevel(this.params.load, t)) + this.k2 * w * Math.abs(w);
+      const Tc = this.Tc;
+      const x = w * this.invW;
+      dydt[2] = (Te - this.B * w - (Tc > 0 ? (Tc * x) / Math.sqrt(1 + x * x) : 0) - TL) * this.invJ;
+    } else {
+      dydt[2] = 0;
+    }
+    dydt[3] = we;
+    dydt[4] = 1.5 * (vd * id + vq * iq);
+  }
+
+  /**
+   * Set the angle near which the next derivative calls evaluate the rotation: within ±0.5 rad of it
+   * cos and sin come from (cos, sin)(th0) and a series in the difference (truncation below 2e-14),
+   * farther away from Math.cos / Math.sin. Saves two transcendental calls per evaluation.
+   */
+  setAngleOrigin(theta: number): void {
+    this.th0 = theta;
+    this.c0 = Math.cos(theta);
+    this.s0 = Math.sin(theta);
+  }
+
+  /**
+   * Fix the load level for an integration segment [t0, t1] that contains no breakpoint of the
+   * schedule inside it: the level is linear there, taken from the segment's middle, so a step at
+   * t1 does not leak into the last stage of the step that ends on it.
+   */
+  setLoadSegment(t0: number, t1: number): void {
+    const s = this.params.load;
+    const tm = 0.5 * (t0 + t1);
+    const n = s.times.length;
+    let slope = 0;
+    if (tm < s.times[n - 1]!) {
+      let i = 0;
+      while (i < n - 2 && s.times[i + 1]! <= tm) i++;
+      const dt = s.times[i + 1]! - s.times[i]!;
+      slope = dt > 0 ? (s.levels[i + 1]! - s.levels[i]!) / dt : 0;
+    }
+    this.loadB = slope;
+    this.loadA = loadLevel(s, tm) - slope * tm;
+    this.segmented = true;
+  }
+
+  /** Electromagnetic torque of a state, N·m. */
+  torque(y: Float64Array): number {
+    const { polePairs: p, Ld, Lq, psiM } = this.params.machine;
+    return 1.5 * p * (psiM * y[1]! + (Ld - Lq) * y[0]! * y[1]!);
+  }
+
+  /** Load torque at time t and speed omega_m, N·m. */
+  loadTorque(t: number, w: number): number {
+    return loadLevel(this.params.load, t) + this.params.load.quadraticK * w * Math.abs(w);
+  }
+}
+
+export const DEFAULT_PLANT_OPTIONS = { mechanics: 'free', inputFrame: 'alpha-beta' } as const;

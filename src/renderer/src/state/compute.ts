@@ -1,0 +1,159 @@
+// Everything the views show, computed by src/core from one valid resolved project.
+// No physics here: this module calls the engine and arranges its answers for plotting.
+import type { ResolvedProject } from '../../../core/project/project';
+import { computeEnvelope, type Envelope } from '../../../core/steady-state/envelope';
+import { mtpaCurrents, mtpvPoint, currentOnVoltageBoundary } from '../../../core/steady-state/mtpa';
+import { sizeDrive, type SizingResult } from '../../../core/steady-state/sizing';
+import { safetyReport, type SafetyReport } from '../../../core/steady-state/safety';
+import { deriveConstants } from '../../../core/machine/nameplate';
+import { projectSpeedRange } from '../../../core/reports/speed-range';
+import { RPM_TO_RAD_S } from '../../../core/base/units';
+import type { DqMachine } from '../../../core/machine/dq-machine';
+
+export type Corner = 'hot' | 'cold';
+export type CurrentKind = 'peak' | 'continuous';
+export type Direction = 'motoring' | 'generating';
+
+export interface Curve {
+  key: string;
+  corner: Corner;
+  current: CurrentKind;
+  direction: Direction;
+  env: Envelope;
+}
+
+export interface EnvelopeOptions {
+  points: number;
+  /** rad/s; null = the engine's default range (to just past the maximum speed) of the hot, peak, motoring envelope */
+  speedMax: number | null;
+}
+
+export const DEFAULT_ENVELOPE_OPTIONS: EnvelopeOptions = { points: 200, speedMax: null };
+
+/** The curves: recomputed on every edit. */
+export interface EnvelopeResults {
+  project: ResolvedProject;
+  speedMax: number;
+  points: number;
+  curves: Curve[];
+  /** the reference curve: hot magnet, peak current, motoring */
+  main: Envelope;
+  constantsHot: ReturnType<typeof deriveConstants>;
+  constantsCold: ReturnType<typeof deriveConstants>;
+  compute_ms: number;
+}
+
+export const curveKey = (c: Corner, i: CurrentKind, d: Direction): string => `${i}-${c}-${d}`;
+
+/** The verdicts (sizing searches are slower): computed right after the curves are drawn. */
+export interface Verdicts {
+  /** the project these verdicts belong to (may lag the curves by one redraw) */
+  verdictsFor: ResolvedProject;
+  /** hot corner (least torque per ampere) */
+  sizing: SizingResult;
+  /** cold corner (most back-EMF: voltage-limited points fail here first) */
+  sizingCold: SizingResult;
+  safety: SafetyReport;
+  /** the speed the safety figures are for: the motor's rated maximum speed, else the plotted top speed, rad/s */
+  safetySpeed: number;
+  verdict_ms: number;
+}
+
+export type Results = EnvelopeResults & Verdicts;
+
+/** A requirement point met in both corners (hot and cold), and which corner fails it otherwise. */
+export function pointVerdict(v: Pick<Verdicts, 'sizing' | 'sizingCold'>, i: number): { met: boolean; fails: 'hot' | 'cold' | 'both' | null } {
+  const hot = v.sizing.points[i]?.met ?? false;
+  const cold = v.sizingCold.points[i]?.met ?? false;
+  return { met: hot && cold, fails: hot && cold ? null : !hot && !cold ? 'both' : hot ? 'cold' : 'hot' };
+}
+
+export function computeVerdicts(p: ResolvedProject, speedMax: number): Verdicts {
+  const t0 = performance.now();
+  const sizing = sizeDrive(p.hot, p.inverter, p.requirements, p.currentLimits);
+  const sizingCold = sizeDrive(p.cold, p.inverter, p.requirements, p.currentLimits);
+  // the motor's maximum speed when the file gives one, else the plotted top speed
+  const safetySpeed = p.rated.maxSpeed_rad_s ?? speedMax;
+  const safety = safetyReport(p.cold, p.inverter, safetySpeed, p.rated.maxSpeed_rad_s !== undefined);
+  return { verdictsFor: p, sizing, sizingCold, safety, safetySpeed, verdict_ms: performance.now() - t0 };
+}
+
+export function computeResults(p: ResolvedProject, opts: EnvelopeOptions): Results {
+  const e = computeEnvelopes(p, opts);
+  return { ...e, ...computeVerdicts(p, e.speedMax) };
+}
+
+export function computeEnvelopes(p: ResolvedProject, opts: EnvelopeOptions): EnvelopeResults {
+  const t0 = performance.now();
+  // the project's range (one rule with the CLI) unless the user typed a top speed
+  const speedMax = opts.speedMax ?? projectSpeedRange(p).speedMax;
+  const curves: Curve[] = [];
+  for (const current of ['peak', 'continuous'] as const) {
+    const lim = current === 'peak' ? p.peak : p.continuous;
+    for (const corner of ['hot', 'cold'] as const) {
+      const m = corner === 'hot' ? p.hot : p.cold;
+      for (const direction of ['motoring', 'generating'] as const) {
+        const env = computeEnvelope(m, lim, { points: opts.points, speedMax, direction });
+        curves.push({ key: curveKey(corner, current, direction), corner, current, direction, env });
+      }
+    }
+  }
+  const main = curves.find((c) => c.key === curveKey('hot', 'peak', 'motoring'))!.env;
+  return {
+    project: p,
+    speedMax,
+    points: opts.points,
+    curves,
+    main,
+    constantsHot: deriveConstants(p.hot),
+    constantsCold: deriveConstants(p.cold),
+    compute_ms: performance.now() - t0,
+  };
+}
+
+export interface PlaneCurves {
+  mtpa: { id: number[]; iq: number[] };
+  mtpv: { id: number[]; iq: number[] };
+  ellipses: Array<{ speed_rpm: number; id: number[]; iq: number[] }>;
+}
+
+/** Geometry of the current plane for one machine and voltage limit (engine functions only). */
+export function planeCurves(m: DqMachine, Vmax: number, Imax: number, speeds_rpm: number[], mtpvSpeeds: number[]): PlaneCurves {
+  const n = 60;
+  const mtpa = { id: [] as number[], iq: [] as number[] };
+  for (let k = -n; k <= n; k++) {
+    const I = (Math.abs(k) / n) * Imax * 1.25;
+    const c = mtpaCurrents(m, I);
+    mtpa.id.push(c.id);
+    mtpa.iq.push(k < 0 ? -Math.abs(c.iq) : Math.abs(c.iq));
+  }
+  const mtpv = { id: [] as number[], iq: [] as number[] };
+  const upper: Array<{ id: number; iq: number }> = [];
+  for (const w of mtpvSpeeds) {
+    const pt = mtpvPoint(m, Vmax, w, 1);
+    if (pt && pt.current <= 1.6 * Imax) upper.push({ id: pt.id, iq: pt.iq });
+  }
+  for (let i = upper.length - 1; i >= 0; i--) {
+    mtpv.id.push(upper[i]!.id);
+    mtpv.iq.push(-upper[i]!.iq);
+  }
+  for (const u of upper) {
+    mtpv.id.push(u.id);
+    mtpv.iq.push(u.iq);
+  }
+  const buf = new Float64Array(2);
+  const ellipses = speeds_rpm
+    .filter((s) => Number.isFinite(s) && s > 0)
+    .map((speed_rpm) => {
+      const we = m.polePairs * speed_rpm * RPM_TO_RAD_S;
+      const id: number[] = [];
+      const iq: number[] = [];
+      for (let k = 0; k <= 180; k++) {
+        currentOnVoltageBoundary(m, Vmax, we, (k / 180) * 2 * Math.PI, buf);
+        id.push(buf[0]!);
+        iq.push(buf[1]!);
+      }
+      return { speed_rpm, id, iq };
+    });
+  return { mtpa, mtpv, ellipses };
+}

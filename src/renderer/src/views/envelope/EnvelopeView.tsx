@@ -1,0 +1,658 @@
+// Envelope view: torque-speed and power-speed (peak and continuous, motoring and generating, hot and
+// cold), requirement points, region bands, base and maximum speed; beside it the current plane.
+import { describeLimit, describeLimits } from '../../../../core/drive/current-limits';
+import type { CurrentLimits } from '../../../../core/drive/current-limit-types';
+import { memo, useCallback, useMemo, useRef, useState } from 'react';
+import type { Data, Layout } from 'plotly.js-dist-min';
+import { solveOperatingPoint } from '../../../../core/steady-state/operating-point';
+import { constantTorqueIq, mtpaCurrentForTorque } from '../../../../core/steady-state/mtpa';
+import { RAD_S_TO_RPM, RPM_TO_RAD_S, SQRT2 } from '../../../../core/base/units';
+import { parsePlotTop } from '../../../../core/reports/speed-range';
+import { envelopeBranch } from '../../../../core/steady-state/envelope-branch';
+import type { OperatingPoint } from '../../../../core/steady-state/operating-point-types';
+import { axis, baseLayout, CURVE, Plot, readTheme, REGION_FILL } from '../../components/Plot';
+import { planeCurves, pointVerdict, type Curve, type EnvelopeOptions, type Results } from '../../state/compute';
+import { envelopeCsv } from '../../components/exports';
+import { exportAndTell } from '../../state/file-bridge';
+import { exportPlotImage } from '../../components/image-export';
+import { num } from '../../components/format';
+import { plotText } from '../../components/plot-text';
+import { Cautions } from '../datasheet/DatasheetView';
+import { useAfterPaint } from '../../app/after-paint';
+import { sameRange, withXRange, xRangeFromRelayout, type SpeedRange } from '../../components/linked-axes';
+import { notReachablePhrase, regionPhrase } from '../../../../core/reports/phrases';
+import { placeSpeedMarks } from '../../components/speed-marks';
+import { chooseTextPositions, declutterShifts, textBox, type Box, type TextPosition } from '../../components/label-layout';
+
+const REGION_NAME = { mtpa: 'MTPA', 'field-weakening': 'field weakening', mtpv: 'MTPV' } as const;
+
+type Show = { peak: boolean; continuous: boolean; hot: boolean; cold: boolean; generating: boolean };
+
+function curveStyle(c: Curve, col: (typeof CURVE)['light'] | (typeof CURVE)['dark']) {
+  const colour = c.current === 'peak' ? (c.corner === 'hot' ? col.hot : col.cold) : c.corner === 'hot' ? col.hotCont : col.coldCont;
+  return { color: colour, width: c.current === 'peak' ? 2.4 : 1.6, dash: c.corner === 'hot' ? 'solid' : 'dash' };
+}
+
+/** A curve's legend name: its effective current limit, which rating binds it, and the magnet corner. */
+const curveName = (c: Curve, limits: CurrentLimits) => `${describeLimit(c.current === 'peak' ? 'peak' : 'continuous', limits[c.current === 'peak' ? 'peak' : 'continuous'])}, ${c.corner} magnet`;
+
+/** Contiguous runs of a region along the reference envelope (feasible points only). */
+export function regionRuns(r: Results): Array<{ region: keyof typeof REGION_NAME; x0: number; x1: number }> {
+  const e = r.main;
+  const runs: Array<{ region: keyof typeof REGION_NAME; x0: number; x1: number }> = [];
+  for (let k = 0; k < e.speed.length; k++) {
+    if (!e.feasible[k]) continue;
+    const x = e.speed[k]! * RAD_S_TO_RPM;
+    const reg = e.region[k]!;
+    const last = runs[runs.length - 1];
+    if (last && last.region === reg) last.x1 = x;
+    else {
+      if (last) last.x1 = (last.x1 + x) / 2;
+      runs.push({ region: reg, x0: last ? last.x1 : x, x1: x });
+    }
+  }
+  return runs;
+}
+
+export function torqueSpeedFigure(r: Results, theme: 'light' | 'dark', show: Show, withPower: boolean, plotWidth_px = 460): { data: Data[]; layout: Layout } {
+  const t = readTheme();
+  const col = CURVE[theme];
+  const data: Data[] = [];
+  const endMarks: Data[] = [];
+  // one trace per (current, corner): motoring, a gap, then generating (fewer traces draw faster)
+  for (const current of ['peak', 'continuous'] as const) {
+    for (const corner of ['hot', 'cold'] as const) {
+      if (!show[current] || !show[corner]) continue;
+      const x: Array<number | null> = [];
+      const yT: Array<number | null> = [];
+      const yP: Array<number | null> = [];
+      let first: Curve | null = null;
+      const ends: Array<{ rpm: number; direction: Curve['direction'] }> = [];
+      for (const c of r.curves) {
+        if (c.current !== current || c.corner !== corner || (c.direction === 'generating' && !show.generating)) continue;
+        first ??= c;
+        if (x.length) {
+          x.push(null);
+          yT.push(null);
+          yP.push(null);
+        }
+        // each branch cut where its torque reaches zero, ending on the zero line at that speed
+        const b = envelopeBranch(c.env);
+        for (let k = 0; k < b.speed_rpm.length; k++) {
+          const gap = Number.isNaN(b.speed_rpm[k]!);
+          x.push(gap ? null : b.speed_rpm[k]!);
+          yT.push(gap ? null : b.torque_Nm[k]!);
+          yP.push(gap ? null : b.power_W[k]! / 1000);
+        }
+        for (const w of b.ends_rpm) ends.push({ rpm: w, direction: c.direction });
+      }
+      if (!first) continue;
+      const st = curveStyle(first, col);
+      const name = curveName(first, r.project.currentLimits);
+      // the speeds where the curve stops, labelled once where the motoring and generating ends nearly meet
+      const span = r.speedMax * RAD_S_TO_RPM;
+      const shown = ends.filter((e, i) => !(e.direction === 'generating' && ends.some((m, j) => j < i && m.direction === 'motoring' && Math.abs(m.rpm - e.rpm) < 0.03 * span)));
+      if (shown.length) {
+        const label = (e: { rpm: number; direction: string }) => {
+          const twin = ends.find((g) => g !== e && g.direction !== e.direction && Math.abs(g.rpm - e.rpm) < 0.03 * span);
+          return twin ? `${Math.round(e.rpm)} / ${Math.round(twin.rpm)} rpm` : `${Math.round(e.rpm)} rpm`;
+        };
+        endMarks.push({
+          type: 'scatter',
+          mode: 'markers+text',
+          x: shown.map((e) => e.rpm),
+          y: shown.map(() => 0),
+          text: shown.map(label),
+          // a shared label sits above the zero line for the hot corner and below it for the cold one (they never cover each other)
+          textposition: shown.map((e) => {
+            const shared = ends.some((g) => g !== e && g.direction !== e.direction && Math.abs(g.rpm - e.rpm) < 0.03 * span);
+            const up = shared ? corner === 'hot' : e.direction === 'motoring';
+            return up ? 'top left' : 'bottom left';
+          }),
+          textfont: { size: 11, color: st.color },
+          marker: { size: 7, color: st.color },
+          name: `${name}: end`,
+          legendgroup: name,
+          showlegend: false,
+          hovertemplate: `${name} ends: torque reaches zero at %{x:.0f} rpm<extra></extra>`,
+        });
+      }
+      data.push({ type: 'scatter', mode: 'lines', x, y: yT, name, legendgroup: name, line: st, hovertemplate: `${name}<br>%{x:.0f} rpm, %{y:.4g} N·m<extra></extra>` });
+      if (withPower) {
+        data.push({ type: 'scatter', mode: 'lines', x, y: yP, xaxis: 'x', yaxis: 'y2', name, legendgroup: name, showlegend: false, line: st, hovertemplate: `${name}<br>%{x:.0f} rpm, %{y:.4g} kW<extra></extra>` });
+      }
+    }
+  }
+  data.push(...endMarks);
+  const runs = regionRuns(r);
+  const fill = REGION_FILL[theme];
+  const shapes: Record<string, unknown>[] = runs.map((run) => ({
+    type: 'rect',
+    xref: 'x',
+    yref: 'paper',
+    x0: run.x0,
+    x1: run.x1,
+    y0: 0,
+    y1: 1,
+    fillcolor: fill[run.region],
+    line: { width: 0 },
+    layer: 'below',
+  }));
+  const top_rpm = r.speedMax * RAD_S_TO_RPM;
+  // torque axis range from the drawn data (a fixed range lets labels sit in data coordinates)
+  let tMin = 0;
+  let tMax = 0;
+  for (const c of r.curves) {
+    if (!show[c.current] || !show[c.corner] || (c.direction === 'generating' && !show.generating)) continue;
+    for (let k = 0; k < c.env.torque.length; k++) {
+      const v = c.env.torque[k]!;
+      if (v < tMin) tMin = v;
+      if (v > tMax) tMax = v;
+    }
+  }
+  for (const q of r.project.requirements) {
+    tMin = Math.min(tMin, q.torque_Nm);
+    tMax = Math.max(tMax, q.torque_Nm);
+  }
+  const pad = 0.08 * (tMax - tMin || 1);
+  const yRange = [tMin - pad, tMax + 1.6 * pad];
+  // region names and base/maximum speed as one text trace (cheaper to draw than annotations);
+  // a name that does not fit across its band (about 6.5 px a character) is shortened
+  const lx: number[] = [];
+  const ly: number[] = [];
+  const lt: string[] = [];
+  const lp: string[] = [];
+  for (const run of runs) {
+    if (run.x1 - run.x0 < 0.025 * top_rpm) continue;
+    const long = REGION_NAME[run.region];
+    const fits = (run.x1 - run.x0) / top_rpm > (long.length * 6.5 + 8) / plotWidth_px;
+    lx.push((run.x0 + run.x1) / 2);
+    ly.push(yRange[1]!);
+    lt.push(fits ? long : run.region === 'field-weakening' ? 'FW' : long);
+    lp.push('bottom center');
+  }
+  const marks: Array<{ x: number; text: string }> = [];
+  for (const [w, label] of [
+    [r.main.baseSpeed, 'base'],
+    [r.main.maxSpeed, 'max'],
+  ] as Array<[number | null, string]>) {
+    if (w === null || !(w > 0) || w > r.speedMax) continue;
+    const x = w * RAD_S_TO_RPM;
+    shapes.push({ type: 'line', xref: 'x', yref: 'paper', x0: x, x1: x, y0: 0, y1: 1, line: { color: t.ink, width: 1.2, dash: 'dot' } });
+    marks.push({ x, text: `${label} ${Math.round(x)} rpm` });
+  }
+  // one row of labels is about 16 px of a plot area about 260 px tall
+  const rowH = ((yRange[1]! - yRange[0]!) * 16) / 260;
+  for (const m of placeSpeedMarks(marks, top_rpm, plotWidth_px)) {
+    lx.push(m.x);
+    ly.push(yRange[0]! + m.row * rowH);
+    lt.push(m.text);
+    lp.push(m.position);
+  }
+  // requirement points as pass/fail markers; each label beside its point where it is clear of the
+  // other labels (estimated boxes on a plot area about plotWidth_px x 260 px)
+  const req = r.project.requirements;
+  const W = plotWidth_px;
+  const H = 260;
+  const toPx = (x: number, y: number): [number, number] => [(x / top_rpm) * W, ((yRange[1]! - y) / (yRange[1]! - yRange[0]!)) * H];
+  const taken: Box[] = [];
+  for (let k = 0; k < lx.length; k++) {
+    const [px, py] = toPx(lx[k]!, ly[k]!);
+    taken.push(textBox(px, py, lt[k]!, lp[k] as TextPosition));
+  }
+  // the drawn curves as soft obstacles: a label on a line only when every other place is worse
+  const curvePts: Box[] = [];
+  for (const c of r.curves) {
+    if (!show[c.current] || !show[c.corner] || (c.direction === 'generating' && !show.generating)) continue;
+    const e = c.env;
+    for (let k = 0; k < e.speed.length; k++) {
+      if (!e.feasible[k]) continue;
+      const [px, py] = toPx(e.speed[k]! * RAD_S_TO_RPM, e.torque[k]!);
+      curvePts.push([px - 1.5, py - 1.5, px + 1.5, py + 1.5]);
+    }
+  }
+  // a label is the file's text: plain text to plotly, never its markup
+  const labelOf = (i: number): string => {
+    const f = pointVerdict(r, i).fails;
+    const label = plotText(req[i]!.label);
+    return f === 'cold' || f === 'hot' ? `${label} (fails ${f})` : label;
+  };
+  // each label beside its point, or a line or two above or below it where that is clearer
+  const LINE = 15;
+  const perPx = (yRange[1]! - yRange[0]!) / H;
+  type Spot = { line: number; side: 'left' | 'right' };
+  const spots = chooseTextPositions<Spot>(
+    req.map((q, i) => {
+      const met = pointVerdict(r, i).met;
+      const side: Spot['side'] = q.speed_rpm > 0.72 * top_rpm ? 'left' : 'right';
+      const other: Spot['side'] = side === 'left' ? 'right' : 'left';
+      // a missed point lies outside the envelope: its label prefers the side away from zero torque
+      const away = q.torque_Nm >= 0 ? 1 : -1;
+      const lines = met ? [0, 1, -1, 2, -2] : [away, 0, 2 * away, -away, -2 * away];
+      const [px, py] = toPx(q.speed_rpm, q.torque_Nm);
+      return { px, py, text: labelOf(i), candidates: [side, other].flatMap((sd) => lines.map((line) => ({ line, side: sd }))) };
+    }),
+    { width: W, height: H },
+    taken,
+    curvePts,
+    (c, px, py, text) => textBox(px, py - c.line * LINE, text, `middle ${c.side}`),
+  ).map((c) => ({ dy: c.line * LINE * perPx, position: `middle ${c.side}` as TextPosition }));
+  for (const met of [true, false]) {
+    const idx = req.map((_, i) => i).filter((i) => pointVerdict(r, i).met === met);
+    if (!idx.length) continue;
+    data.push({
+      type: 'scatter',
+      mode: 'markers',
+      x: idx.map((i) => req[i]!.speed_rpm),
+      y: idx.map((i) => req[i]!.torque_Nm),
+      text: idx.map(labelOf),
+      name: met ? 'requirement met' : 'requirement not met',
+      marker: met
+        ? { symbol: 'circle', size: 11, color: t.ok, line: { color: t.panel, width: 1.5 } }
+        : { symbol: 'x-thin-open', size: 13, color: t.bad, line: { width: 3, color: t.bad } },
+      hovertemplate: `%{text}: %{x:.0f} rpm, %{y:.4g} N·m — ${met ? 'met' : 'NOT met'}<extra></extra>`,
+    });
+    data.push({
+      type: 'scatter',
+      mode: 'text',
+      x: idx.map((i) => req[i]!.speed_rpm),
+      y: idx.map((i) => req[i]!.torque_Nm + spots[i]!.dy),
+      text: idx.map(labelOf),
+      textposition: idx.map((i) => spots[i]!.position),
+      textfont: { size: 11, color: met ? t.ok : t.bad },
+      hoverinfo: 'skip',
+      showlegend: false,
+    });
+  }
+  data.push({
+    type: 'scatter',
+    mode: 'text',
+    x: lx,
+    y: ly,
+    text: lt,
+    textposition: lp,
+    textfont: { size: 11, color: t.ink },
+    hoverinfo: 'skip',
+    showlegend: false,
+  });
+  const xTitle = 'speed, rpm (mechanical)';
+  const layout: Layout = baseLayout(t, {
+    margin: { l: 70, r: 16, t: 12, b: 40 },
+    hovermode: 'closest',
+    showlegend: true,
+    legend: { orientation: 'h', x: 0, y: withPower ? -0.1 : -0.3, font: { size: 11 } },
+    xaxis: axis(t, withPower ? '' : xTitle, { range: [0, r.speedMax * RAD_S_TO_RPM], anchor: withPower ? 'y2' : 'y', showticklabels: true }),
+    yaxis: axis(t, 'torque, N·m', withPower ? { domain: [0.45, 1], range: yRange } : { range: yRange }),
+    ...(withPower ? { yaxis2: axis(t, 'mechanical power, kW', { domain: [0, 0.37] }) } : {}),
+    shapes,
+  });
+  if (withPower) (layout.xaxis as Record<string, unknown>).title = { text: xTitle, font: { size: 12 } };
+  return { data, layout };
+}
+
+/** The power-speed plot: the power traces of the combined figure on their own axes, with the legend. */
+export function powerSpeedFigure(r: Results, theme: 'light' | 'dark', show: Show): { data: Data[]; layout: Layout } {
+  const both = torqueSpeedFigure(r, theme, show, true);
+  const data = both.data.filter((d) => d.yaxis === 'y2').map((d) => ({ ...d, yaxis: 'y', showlegend: true }));
+  const l = both.layout as Record<string, any>;
+  const layout: Layout = {
+    ...l,
+    // the legend's entries name the effective limits (long): it starts below the speed axis's title
+    // and wraps onto its own rows in the bottom margin
+    margin: { l: 70, r: 16, t: 30, b: 100 },
+    yaxis: { ...l.yaxis2, domain: [0, 1] },
+    xaxis: { ...l.xaxis, anchor: 'y' },
+    legend: { orientation: 'h', x: 0, y: -0.36, yanchor: 'top', font: { size: 11 } },
+  };
+  delete (layout as Record<string, unknown>).yaxis2;
+  return { data, layout };
+}
+
+/** The torque-speed plot alone, without a legend (the power plot below carries it). */
+function torqueOnlyFigure(r: Results, theme: 'light' | 'dark', show: Show): { data: Data[]; layout: Layout } {
+  const f = torqueSpeedFigure(r, theme, show, false);
+  // the top margin holds the plot's toolbar, clear of the region labels along the top edge
+  return { data: f.data, layout: { ...f.layout, showlegend: false, margin: { l: 70, r: 16, t: 30, b: 40 } } };
+}
+
+function parseSpeeds(text: string): number[] {
+  return text
+    .split(/[,;\s]+/)
+    .map(Number)
+    .filter((v) => Number.isFinite(v) && v > 0)
+    .slice(0, 6);
+}
+
+function defaultSpeeds(r: Results): string {
+  const wb = r.main.baseSpeed * RAD_S_TO_RPM;
+  const top = r.speedMax * RAD_S_TO_RPM;
+  const round = (x: number) => Math.round(x / 100) * 100 || Math.round(x);
+  return [wb, 2 * wb, 3.5 * wb]
+    .filter((x) => x > 0 && x <= top)
+    .map(round)
+    .join(', ');
+}
+
+export function planeFigure(r: Results, theme: 'light' | 'dark', speeds: number[], op: OperatingPoint | null): { data: Data[]; layout: Layout } {
+  const t = readTheme();
+  const col = CURVE[theme];
+  const p = r.project;
+  const m = p.hot;
+  const Imax = p.peak.Imax;
+  const Icont = p.continuous.Imax;
+  const mtpvSpeeds: number[] = [];
+  const w0 = Math.max(r.main.baseSpeed, 1e-3);
+  for (let k = 0; k <= 80; k++) mtpvSpeeds.push(w0 * Math.pow(40, k / 80));
+  const pc = planeCurves(m, p.peak.Vmax, Imax, speeds, mtpvSpeeds);
+  const data: Data[] = [];
+  const circle = (R: number) => {
+    const x: number[] = [];
+    const y: number[] = [];
+    for (let k = 0; k <= 180; k++) {
+      x.push(R * Math.cos((k / 180) * 2 * Math.PI));
+      y.push(R * Math.sin((k / 180) * 2 * Math.PI));
+    }
+    return { x, y };
+  };
+  const ci = circle(Imax);
+  data.push({ type: 'scatter', mode: 'lines', ...ci, name: `|i| = ${describeLimit('peak', p.currentLimits.peak)}`, line: { color: t.ink, width: 2 }, hoverinfo: 'skip' });
+  const cc = circle(Icont);
+  data.push({ type: 'scatter', mode: 'lines', ...cc, name: `|i| = ${describeLimit('continuous', p.currentLimits.continuous)}`, line: { color: t.muted, width: 1.4, dash: 'dash' }, hoverinfo: 'skip' });
+  const dashes = ['solid', 'dash', 'dot', 'dashdot', 'longdash', 'longdashdot'];
+  const annotations: Record<string, unknown>[] = [];
+  const span = 1.2 * Imax;
+  pc.ellipses.forEach((el, i) => {
+    data.push({
+      type: 'scatter',
+      mode: 'lines',
+      x: el.id,
+      y: el.iq,
+      name: i === 0 ? '|v| = Vmax at the speeds marked' : `${Math.round(el.speed_rpm)} rpm`,
+      legendgroup: 'volt',
+      showlegend: i === 0,
+      line: { color: col.volt, width: 1.6, dash: dashes[i % dashes.length] },
+      hoverinfo: 'skip',
+    });
+    // label where the ellipse crosses the positive iq half-axis nearest the top of the view
+    let best = -1;
+    for (let k = 0; k < el.id.length; k++) {
+      const x = el.id[k]!;
+      const y = el.iq[k]!;
+      if (y > 0 && y < span * 0.97 && x > -span && x < 0.25 * Imax && (best < 0 || y > el.iq[best]!)) best = k;
+    }
+    if (best >= 0) {
+      annotations.push({ x: el.id[best], y: el.iq[best], text: `${Math.round(el.speed_rpm)} rpm`, showarrow: false, yanchor: 'bottom', font: { size: 10, color: col.volt }, bgcolor: t.panel });
+    }
+  });
+  data.push({ type: 'scatter', mode: 'lines', x: pc.mtpa.id, y: pc.mtpa.iq, name: 'MTPA', line: { color: col.mtpa, width: 2 }, hoverinfo: 'skip' });
+  if (pc.mtpv.id.length > 1) data.push({ type: 'scatter', mode: 'lines', x: pc.mtpv.id, y: pc.mtpv.iq, name: 'MTPV', line: { color: col.mtpv, width: 2, dash: 'dashdot' }, hoverinfo: 'skip' });
+  // constant-torque lines from the engine's locus
+  const T0 = r.main.torque[0]!;
+  [0.25, 0.5, 0.75, 1].forEach((f, i) => {
+    const T = f * T0;
+    const x: Array<number | null> = [];
+    const y: Array<number | null> = [];
+    for (let k = 0; k <= 120; k++) {
+      const id = -span + (k / 120) * (span + 0.25 * Imax);
+      const iq = constantTorqueIq(m, T, id);
+      const ok = Number.isFinite(iq) && Math.abs(iq) <= span;
+      x.push(ok ? id : null);
+      y.push(ok ? iq : null);
+    }
+    data.push({
+      type: 'scatter',
+      mode: 'lines',
+      x,
+      y,
+      name: i === 0 ? 'constant torque' : '',
+      showlegend: i === 0,
+      legendgroup: 'ct',
+      line: { color: t.muted, width: 1, dash: 'dot' },
+      hoverinfo: 'skip',
+    });
+    // label near where the line leaves the view (top edge or right end), away from the MTPA
+    // corner where the voltage-ellipse labels sit
+    // (each a little lower than the one before, so that neighbours do not cover each other)
+    const top = (0.9 - 0.14 * i) * span;
+    let last = -1;
+    for (let k = 0; k < x.length; k++) if (x[k] !== null && y[k]! > 0 && y[k]! <= top) last = k;
+    const at = last >= 0 ? { id: x[last]!, iq: y[last]! } : mtpaCurrentForTorque(m, T);
+    annotations.push({ x: at.id, y: at.iq, text: `${num(T, 3)} N·m`, showarrow: false, xanchor: 'right', yanchor: 'bottom', font: { size: 10, color: t.muted }, bgcolor: t.panel });
+  });
+  // the path of the reference envelope through the plane
+  const e = r.main;
+  const px: number[] = [];
+  const py: number[] = [];
+  for (let k = 0; k < e.speed.length; k++) if (e.feasible[k]) {
+    px.push(e.id[k]!);
+    py.push(e.iq[k]!);
+  }
+  data.push({ type: 'scatter', mode: 'lines', x: px, y: py, name: 'envelope path', line: { color: col.hot, width: 3 }, opacity: 0.5, hoverinfo: 'skip' });
+  const ch = -m.psiM / m.Ld;
+  if (ch > -span) {
+    // the voltage ellipses are centred here: the label sits below on the panel colour, readable over them
+    data.push({ type: 'scatter', mode: 'markers', x: [ch], y: [0], showlegend: false, marker: { symbol: 'x', size: 9, color: col.volt }, hoverinfo: 'skip' });
+    annotations.push({ x: ch, y: 0, text: '−ψm/Ld', showarrow: false, yanchor: 'top', yshift: -6, font: { size: 10, color: col.volt }, bgcolor: t.panel });
+  }
+  if (op) {
+    data.push({
+      type: 'scatter',
+      mode: 'markers',
+      x: [op.id],
+      y: [op.iq],
+      name: op.feasible ? 'operating point' : 'operating point (not reachable)',
+      marker: { symbol: op.feasible ? 'circle' : 'circle-open', size: 13, color: op.feasible ? t.ok : t.bad, line: { width: 2, color: op.feasible ? t.ink : t.bad } },
+      hoverinfo: 'skip',
+    });
+  }
+  // labels kept off each other: the plot area is about 320 px for the 2.4·Imax of the iq axis, the
+  // same scale on both axes
+  const k = 320 / (2 * span);
+  const shifts = declutterShifts(
+    annotations.map((a) => ({
+      px: ((a.x as number) + span) * k,
+      py: (span - (a.y as number)) * k,
+      text: String(a.text),
+      xanchor: (a.xanchor as 'left' | 'right' | undefined) ?? 'center',
+      yanchor: (a.yanchor as 'top' | 'bottom' | undefined) ?? 'middle',
+      yshift: a.yshift as number | undefined,
+    })),
+  );
+  annotations.forEach((a, i) => {
+    if (shifts[i] !== 0 || a.yshift !== undefined) a.yshift = shifts[i];
+  });
+  const layout: Layout = baseLayout(t, {
+    margin: { l: 64, r: 16, t: 16, b: 40 },
+    showlegend: true,
+    legend: { orientation: 'h', x: 0, y: -0.1, font: { size: 10 } },
+    hovermode: false,
+    // fixed ranges from the project's current limit (never plotly's autorange memory of an earlier edit)
+    xaxis: axis(t, 'id, A peak', { range: [-span, 0.25 * Imax], autorange: false, constrain: 'domain' }),
+    yaxis: axis(t, 'iq, A peak', { range: [-span, span], autorange: false, scaleanchor: 'x', scaleratio: 1, constrain: 'domain' }),
+    annotations,
+  });
+  return { data, layout };
+}
+
+export const EnvelopeView = memo(function EnvelopeView({ results, opts, setOpts, theme }: { results: Results; opts: EnvelopeOptions; setOpts: (o: EnvelopeOptions) => void; theme: 'light' | 'dark' }) {
+  const [show, setShow] = useState<Show>({ peak: true, continuous: true, hot: true, cold: true, generating: true });
+  const [speedText, setSpeedText] = useState<string | null>(null);
+  const [op, setOp] = useState<OperatingPoint | null>(null);
+  const [topText, setTopText] = useState('');
+  const topParsed = parsePlotTop(topText);
+  const topMsg = 'message' in topParsed ? topParsed.message : null;
+  const envEl = useRef<HTMLDivElement | null>(null);
+  // the torque plot follows each edit at once; the power plot and the current plane are built and
+  // drawn after that frame is painted
+  const late = useAfterPaint(results);
+  // Each plot is rebuilt (and redrawn) only when what it shows changes. `results` changes twice per
+  // edit: with the new curves, then again when the sizing verdicts follow a frame later. The curves
+  // (`curves` keeps its identity until the envelopes are recomputed) are all the power plot and the
+  // current plane show; the torque plot also marks each requirement met or not, so it is redrawn for
+  // the verdicts only when a mark changes.
+  const curves = results.curves;
+  const lateCurves = late.curves;
+  const marksKey = results.project.requirements.map((_, i) => pointVerdict(results, i).fails ?? 'met').join();
+  const speeds = useMemo(() => parseSpeeds(speedText ?? defaultSpeeds(late)), [speedText, lateCurves]);
+  // one speed range for the torque and the power plot: a zoom or pan on either applies to both
+  const [xRange, setXRange] = useState<SpeedRange | null>(null);
+  const fig0 = useMemo(() => torqueOnlyFigure(results, theme, show), [curves, marksKey, theme, show]);
+  const pfig0 = useMemo(() => powerSpeedFigure(late, theme, show), [lateCurves, theme, show]);
+  const fig = useMemo(() => ({ data: fig0.data, layout: withXRange(fig0.layout, xRange) }), [fig0, xRange]);
+  const pfig = useMemo(() => ({ data: pfig0.data, layout: withXRange(pfig0.layout, xRange) }), [pfig0, xRange]);
+  const onSpeedZoom = useCallback((ev: Record<string, unknown>) => {
+    const r = xRangeFromRelayout(ev);
+    if (r === null) return;
+    setXRange((cur) => (r === 'reset' ? null : sameRange(cur, r) ? cur : r));
+  }, []);
+  const plane = useMemo(() => planeFigure(late, theme, speeds, op), [lateCurves, theme, speeds, op]);
+
+  const onHover = useCallback(
+    (ev: any) => {
+      const pt = ev?.points?.[0];
+      if (!pt) return;
+      const onPower = pt.data?.yaxis === 'y2';
+      let speed_rpm: number = Array.isArray(ev.xvals) && Number.isFinite(ev.xvals[0]) ? ev.xvals[0] : pt.x;
+      let y: number = Array.isArray(ev.yvals) && Number.isFinite(ev.yvals[0]) ? ev.yvals[0] : pt.y;
+      if (!Number.isFinite(speed_rpm) || !Number.isFinite(y)) return;
+      speed_rpm = Math.max(0, speed_rpm);
+      const w = speed_rpm * RPM_TO_RAD_S;
+      const torque = onPower ? (w > 0 ? (y * 1000) / w : 0) : y;
+      y = torque;
+      try {
+        setOp(solveOperatingPoint(results.project.hot, results.project.peak, w, torque));
+      } catch {
+        setOp(null);
+      }
+    },
+    [results],
+  );
+
+  const onDrawn = useCallback(() => {
+    const marks = performance.getEntriesByName('tw-edit', 'mark');
+    if (!marks.length) return;
+    const start = marks[marks.length - 1]!.startTime;
+    const drawn = performance.now();
+    requestAnimationFrame(() => {
+      const ms = performance.now() - start;
+      (window.__twPerf ??= []).push(ms);
+      const at = (name: string): number => {
+        const m = performance.getEntriesByName(name, 'mark');
+        const t = m.length ? m[m.length - 1]!.startTime - start : NaN;
+        return t >= 0 ? t : NaN;
+      };
+      (window.__twPerfPhases ??= []).push({
+        check: at('tw-check'),
+        compute: at('tw-compute'),
+        computed: at('tw-computed'),
+        plot: at('tw-plot:envelope-plot'),
+        plotted: drawn - start,
+        frame: ms,
+      });
+      performance.clearMarks('tw-edit');
+    });
+  }, []);
+
+  const exportImage = async (format: 'png' | 'svg') => {
+    if (!envEl.current) return;
+    await exportPlotImage(envEl.current, format, 'envelope', results.project);
+  };
+
+  const toggle = (k: keyof Show) => setShow((s) => ({ ...s, [k]: !s[k] }));
+  return (
+    <div data-testid="view-envelope">
+      <Cautions results={results} hazardsOnly compact testId="envelope-cautions" />
+      <div className="toolbar no-print">
+        <span>Show:</span>
+        {(
+          [
+            ['peak', 'peak current'],
+            ['continuous', 'continuous current'],
+            ['hot', 'hot magnet'],
+            ['cold', 'cold magnet'],
+            ['generating', 'generating'],
+          ] as Array<[keyof Show, string]>
+        ).map(([k, label]) => (
+          <label key={k}>
+            <input type="checkbox" checked={show[k]} onChange={() => toggle(k)} /> {label}
+          </label>
+        ))}
+        <label>
+          plot to{' '}
+          <input
+            type="text"
+            size={7}
+            data-testid="speed-max"
+            value={topText}
+            className={topMsg ? 'invalid' : undefined}
+            aria-invalid={topMsg ? true : undefined}
+            placeholder={String(Math.round(results.speedMax * RAD_S_TO_RPM))}
+            onChange={(e) => {
+              setTopText(e.target.value);
+              const r = parsePlotTop(e.target.value);
+              if ('message' in r) return; // the typed text stays, the plot keeps its last valid top
+              setXRange(null); // a new top speed shows the whole range again
+              setOpts({ ...opts, speedMax: r.rpm === null ? null : r.rpm * RPM_TO_RAD_S });
+            }}
+          />{' '}
+          rpm
+          {topMsg && <span className="msg" data-testid="speed-max-msg">plot to {topMsg}</span>}
+        </label>
+        <span className="spacer" style={{ flex: 1 }} />
+        <button className="btn small" onClick={() => void exportImage('png')} data-testid="export-png">PNG</button>
+        <button className="btn small" onClick={() => void exportImage('svg')} data-testid="export-svg">SVG</button>
+        <button className="btn small" data-testid="export-csv" onClick={() => void exportAndTell('envelope-csv', () => envelopeCsv(results), 'envelope.csv')}>
+          CSV
+        </button>
+      </div>
+      <div className="cols">
+        <div className="card">
+          <h4>Torque and power against speed</h4>
+          <div className="key" aria-label="line key">
+            <span style={{ color: CURVE[theme].hot }}>━ peak current, hot magnet</span>
+            <span style={{ color: CURVE[theme].cold }}>┅ peak, cold</span>
+            <span style={{ color: CURVE[theme].hotCont }}>━ continuous, hot</span>
+            <span style={{ color: CURVE[theme].coldCont }}>┅ continuous, cold</span>
+            <span>● met ✕ not met</span>
+          </div>
+          <div className="key" aria-label="current limits" data-testid="envelope-limits">
+            <span>{describeLimits(results.project.currentLimits)}</span>
+          </div>
+          <div className="key" aria-label="shading key" data-testid="region-key">
+            <span>Shaded bands: control region along the <strong style={{ color: CURVE[theme].hot }}>peak-current, hot-magnet motoring</strong> curve:</span>
+            <span><span className="swatch" style={{ background: REGION_FILL[theme].mtpa }} /> MTPA</span>
+            <span><span className="swatch" style={{ background: REGION_FILL[theme]['field-weakening'] }} /> field weakening</span>
+            <span><span className="swatch" style={{ background: REGION_FILL[theme].mtpv }} /> MTPV</span>
+          </div>
+          <Plot data={fig.data} layout={fig.layout} height={330} testId="envelope-plot" onHover={onHover} onRelayout={onSpeedZoom} onDrawn={onDrawn} elRef={(el) => (envEl.current = el)} />
+          <Plot data={pfig.data} layout={pfig.layout} height={340} testId="power-plot" onRelayout={onSpeedZoom} defer />
+          <div className="readout" data-testid="summary-line">
+            base speed {Math.round(results.main.baseSpeed * RAD_S_TO_RPM)} rpm · maximum speed{' '}
+            {results.main.maxSpeed === null ? 'unbounded (current limit reaches past the voltage-ellipse centre)' : `${Math.round(results.main.maxSpeed * RAD_S_TO_RPM)} rpm`} · peak current, hot magnet, motoring ·
+            characteristic current ψm/Ld = {num(results.main.characteristicCurrent)} A peak
+          </div>
+        </div>
+        <div className="card">
+          <h4>Current plane (hot magnet, peak limits)</h4>
+          <div className="toolbar">
+            <label>
+              voltage limits at{' '}
+              <input type="text" size={22} data-testid="ellipse-speeds" value={speedText ?? defaultSpeeds(results)} onChange={(e) => setSpeedText(e.target.value)} /> rpm
+            </label>
+          </div>
+          <Plot data={plane.data} layout={plane.layout} height={560} testId="plane-plot" defer />
+          <div className="readout" data-testid="op-readout">
+            {op ? (
+              <>
+                {Math.round(op.speed * RAD_S_TO_RPM)} rpm, {num(op.torque)} N·m: id {num(op.id)} A, iq {num(op.iq)} A, |i| {num(op.current)} A peak ({num(op.current / SQRT2)} A
+                rms), |v| {num(op.voltage)} V peak, {op.feasible ? regionPhrase(op.region) : notReachablePhrase(op.limitedBy)}
+              </>
+            ) : (
+              'Move the pointer over the torque-speed plot to place an operating point.'
+            )}
+          </div>
+        </div>
+      </div>
+    </div>
+  );
+});
