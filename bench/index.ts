@@ -1,11 +1,13 @@
 /**
  * `npm run bench`: speed figures as ratios against baselines computed in the same run.
  * Each section is a module with a name and a run(); add a section by adding it to the list.
+ * `--against DIR` times this tree's envelope and simulation against another checkout (see against-checkout.ts).
  * `--only WORD` runs only the sections whose name contains WORD (e.g. `npm run bench -- --only simulation`).
  */
 import { envelopeBench } from './envelope';
 import { simulateBench } from './simulate';
 import { cliStartBench } from './cli-start';
+import { againstCheckout } from './against-checkout';
 
 export interface BenchSection {
   name: string;
@@ -17,7 +19,9 @@ const sections: BenchSection[] = [envelopeBench, simulateBench, cliStartBench];
 const argv = process.argv.slice(2);
 const onlyAt = argv.indexOf('--only');
 const only = onlyAt >= 0 ? (argv[onlyAt + 1] ?? '').toLowerCase() : '';
-const chosen = only ? sections.filter((s) => s.name.toLowerCase().includes(only)) : sections;
+const againstAt = argv.indexOf('--against');
+const against = againstAt >= 0 ? argv[againstAt + 1] : undefined;
+const chosen = against ? [againstCheckout(against)] : only ? sections.filter((s) => s.name.toLowerCase().includes(only)) : sections;
 if (chosen.length === 0) console.log(`no bench section matches "${only}": ${sections.map((s) => s.name).join('; ')}`);
 
 for (const s of chosen) {
