@@ -32,6 +32,15 @@ const J_MIN = 1e-9;
 const K_MIN = 1e-6;
 const T_MAX = 250;
 
+/**
+ * What a file that leaves them out is taken to have, each said as a finding when it is assumed:
+ * every temperature of a file without conditions, the hot winding's and the cold corner's when
+ * absent, and the hot magnet's (the conditions' default), °C; the modulation when absent.
+ */
+export const DEFAULT_TEMP_C = 20;
+export const DEFAULT_COLD_TEMP_C = 20;
+export const DEFAULT_MODULATION = 'svpwm' as const;
+
 const motorSchema = z
   .strictObject({
     polePairs: num('motor.polePairs', 1, 200, { int: true }),
@@ -122,7 +131,7 @@ const inverterSchema = z
 const conditionsSchema = z
   .strictObject({
     windingTemp_C: num('conditions.windingTemp_C', T_MIN, T_MAX).optional(), // 20 °C when absent, said as a finding
-    magnetTemp_C: num('conditions.magnetTemp_C', T_MIN, T_MAX).default(20),
+    magnetTemp_C: num('conditions.magnetTemp_C', T_MIN, T_MAX).default(DEFAULT_TEMP_C),
     coldTemp_C: num('conditions.coldTemp_C', T_MIN, T_MAX).optional(), // 20 °C when absent, said as a finding
     magnetTempCoeff: num('conditions.magnetTempCoeff', -0.003, 0.001).default(-0.0012),
   })
