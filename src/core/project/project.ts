@@ -14,7 +14,7 @@ import { InputError } from '../base/errors';
 import { machineAt } from '../machine/thermal';
 import { driveLimits } from '../drive/inverter';
 import { fmt, nameplateToModel, type Interpretation, type RatedData } from '../machine/nameplate';
-import { DEFAULT_COLD_TEMP_C, DEFAULT_MODULATION, DEFAULT_TEMP_C, defaultConditions, parseProject, type ProjectFile } from './schema';
+import { DEFAULT_COLD_TEMP_C, DEFAULT_DUTY, DEFAULT_MODULATION, DEFAULT_TEMP_C, defaultConditions, parseProject, type ProjectFile } from './schema';
 import { solveOperatingPoint } from '../steady-state/operating-point';
 import { mtpaTorque } from '../steady-state/mtpa';
 import { migrateProject } from './migrate';
@@ -174,7 +174,7 @@ export function resolveProject(file: ProjectFile): ResolvedProject {
     continuous,
     currentLimits,
     conditions,
-    requirements: file.requirements.map((r) => ({ label: r.label, speed_rpm: r.speed_rpm, torque_Nm: r.torque_Nm, duty: r.duty ?? 'peak' })),
+    requirements: file.requirements.map((r) => ({ label: r.label, speed_rpm: r.speed_rpm, torque_Nm: r.torque_Nm, duty: r.duty ?? DEFAULT_DUTY })),
     rated,
     interpretation,
     findings,

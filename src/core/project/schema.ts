@@ -40,6 +40,8 @@ const T_MAX = 250;
 export const DEFAULT_TEMP_C = 20;
 export const DEFAULT_COLD_TEMP_C = 20;
 export const DEFAULT_MODULATION = 'svpwm' as const;
+/** The duty of a requirement that gives none: checked against the peak current limit. */
+export const DEFAULT_DUTY = 'peak' as const;
 
 const motorSchema = z
   .strictObject({
@@ -147,7 +149,7 @@ const requirementSchema = z.strictObject({
   label: z.string().min(1).max(200),
   speed_rpm: num('requirements[].speed_rpm', 0, 1e6),
   torque_Nm: num('requirements[].torque_Nm', -1e6, 1e6),
-  duty: z.enum(['peak', 'continuous']).optional(), // 'peak' when absent
+  duty: z.enum(['peak', 'continuous']).optional(), // DEFAULT_DUTY when absent
 });
 
 const controlSchema = z
