@@ -1,7 +1,9 @@
 /**
- * Parse + validate + resolve a project: the dq machine at 20 °C, hot and cold, the inverter's
- * limits (peak and continuous current), the conditions, the requirements, what each nameplate
- * input was taken to mean, and consistency findings.
+ * Load a project, the one pipeline of the app, its worker and the CLI (loadProject): JSON with the
+ * duplicate-key check (project-json.ts), the format migration (migrate.ts), the schema (schema.ts),
+ * then the resolution: the dq machine at 20 °C, hot and cold, the inverter's limits (peak and
+ * continuous current), the conditions, the requirements, what each nameplate input was taken to
+ * mean, and consistency findings.
  */
 import type { Conditions, DqMachine, Mechanics } from '../machine/dq-machine';
 import type { CurrentLimits } from '../drive/current-limit-types';
@@ -22,6 +24,7 @@ import { parseProjectJson } from './project-json';
 import { RPM_TO_RAD_S, SQRT2 } from '../base/units';
 
 export { parseProjectJson };
+export { DEFAULT_COLD_TEMP_C, DEFAULT_MODULATION, DEFAULT_TEMP_C } from './schema';
 
 export interface ResolvedProject {
   /** the validated file with its defaults filled in */
