@@ -126,6 +126,14 @@ describe('changedOnDisk and the question', () => {
     expect(await changedOnDisk(p, { text: 'x', at: OPENED, how: 'opened' })).toBeNull();
   });
 
+  it('bytes that are not UTF-8 are a change; a byte-order mark alone is not', async () => {
+    const p = join(dir, 'a.json');
+    writeFileSync(p, Buffer.from([0x7b, 0xe9, 0x7d]));
+    expect((await changedOnDisk(p, { text: '{\u00e9}', at: OPENED, how: 'opened' }))?.name).toBe('a.json');
+    writeFileSync(p, '\ufeff{}');
+    expect(await changedOnDisk(p, { text: '{}', at: OPENED, how: 'opened' })).toBeNull();
+  });
+
   it('the prompt shows both times and defaults to keeping the file', () => {
     const c: ChangedOnDisk = { path: join(dir, 'a.json'), name: 'a.json', ours: OPENED, how: 'saved', disk: CHANGED_AT };
     const p = changedOnDiskPrompt(c);

@@ -3,6 +3,7 @@ import { describe, expect, it } from 'vitest';
 import { projectPathFromArgv } from '../src/main/argv';
 import { checkExportRequest, checkRecoveryWrite, checkSaveAsRequest, checkSaveRequest, CHANNELS, MAX_TEXT_CHARS } from '../src/main/ipc';
 import { PathGrants } from '../src/main/path-grants';
+import { MAX_PROJECT_BYTES } from '../src/core/project/schema';
 import { CHANNELS as PRELOAD_CHANNELS } from '../src/preload/bridge';
 import { shapeError } from '../src/preload/validate';
 
@@ -48,6 +49,10 @@ describe('IPC argument checks (main)', () => {
   it('refuses an oversized text', () => {
     const r = checkSaveRequest({ path: '/a.json', text: 'x'.repeat(MAX_TEXT_CHARS + 1) });
     expect(r).toEqual({ ok: false, message: `save.text must be at most ${MAX_TEXT_CHARS} characters` });
+  });
+  it('the text limit is the project file limit, 16 MiB (the schema\'s MAX_PROJECT_BYTES)', () => {
+    expect(MAX_TEXT_CHARS).toBe(16_777_216);
+    expect(MAX_TEXT_CHARS).toBe(MAX_PROJECT_BYTES);
   });
   it('main and preload use the same channel names', () => {
     expect(PRELOAD_CHANNELS).toEqual(CHANNELS);

@@ -4,7 +4,8 @@ import { join } from 'node:path';
 import { afterEach, beforeEach, describe, expect, it } from 'vitest';
 import { InputError } from '../src/core/base/errors';
 import { nodeFs, type FsLayer } from '../src/node/fs-layer';
-import { openProjectFile, projectHeader, PROJECT_VERSION, saveProjectFile } from '../src/node/project-file';
+import { openProjectFile, ProjectReadError, projectHeader, PROJECT_VERSION, readProjectText, saveProjectFile } from '../src/node/project-file';
+import { MAX_PROJECT_BYTES } from '../src/core/project/schema';
 
 let dir: string;
 beforeEach(() => {
@@ -134,6 +135,38 @@ describe('openProjectFile', () => {
       },
     };
     expect(await openProjectFile(p, { fs })).toEqual({ ok: false, canceled: false, message: 'Could not open "p.json": it cannot be read: permission denied.' });
+  });
+});
+
+describe('readProjectText (the one reader of a project file: app and CLI)', () => {
+  const fault = async (path: string, options: Parameters<typeof readProjectText>[1] = {}): Promise<ProjectReadError> => {
+    try {
+      await readProjectText(path, options);
+    } catch (e) {
+      expect(e).toBeInstanceOf(ProjectReadError);
+      return e as ProjectReadError;
+    }
+    throw new Error('read');
+  };
+
+  it('the limit is the schema\'s MAX_PROJECT_BYTES, 16 MiB: a file one byte above it is refused unread', async () => {
+    const p = join(dir, 'huge.json');
+    writeFileSync(p, '');
+    const fs: FsLayer = { ...nodeFs, stat: async (q) => ({ ...(await nodeFs.stat(q))!, size: MAX_PROJECT_BYTES + 1 }), readFile: async () => { throw new Error('read'); } };
+    const e = await fault(p, { fs });
+    expect([e.kind, e.why]).toEqual(['too-large', 'is 16777217 bytes, more than the 16777216 bytes a project file may have']);
+  });
+
+  it('names each fault by its kind, with the phrase that follows the file name', async () => {
+    const missing = await fault(join(dir, 'nope.json'));
+    expect([missing.kind, missing.why]).toEqual(['missing', 'does not exist']);
+    const folder = await fault(dir);
+    expect([folder.kind, folder.why]).toEqual(['not-a-file', 'is not a regular file']);
+    const p = join(dir, 'latin1.json');
+    writeFileSync(p, Buffer.from([0x7b, 0x22, 0xe9, 0x22, 0x7d])); // {"é"} in Latin-1
+    const bad = await fault(p);
+    expect([bad.kind, bad.why]).toEqual(['not-utf8', 'is not UTF-8 text (an invalid byte sequence at byte offset 2, starting with 0xE9)']);
+    expect(await readProjectText(join(__dirname, '../resources/demo-ipm-traction.json'))).toBe(GOOD);
   });
 });
 

@@ -1,8 +1,8 @@
-import { messageOf } from './helpers';
+import { messageOf, refusal } from './helpers';
 import { describe, expect, it } from 'vitest';
 import { readFileSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
-import { loadProjectText, resolveProject } from '../src/core/project/project';
+import { loadProject, loadProjectJson, loadProjectText, resolveProject } from '../src/core/project/project';
 import { parseProject } from '../src/core/project/schema';
 import { solveOperatingPoint } from '../src/core/steady-state/operating-point';
 import { InputError } from '../src/core/base/errors';
@@ -203,6 +203,45 @@ describe('loadProjectText', () => {
     const j = demoJson('demo-servo-axis');
     j.motor.Ld = 0;
     expect(messageOf(() => loadProjectText(JSON.stringify(j)))).toBe('motor.Ld must be >= 1e-9 H');
+  });
+});
+
+describe('loadProject (the one pipeline: JSON with the duplicate-key check, migrate, schema, resolve)', () => {
+  it('gives the file as written at the current version and what it resolves to', () => {
+    const text = demoText('demo-servo-axis');
+    const { file, resolved } = loadProject(text);
+    expect(file).toEqual(JSON.parse(text));
+    expect(resolved.machine20.Rs).toBe(1.1);
+    expect(resolved).toEqual(loadProjectText(text));
+    expect(loadProjectJson(JSON.parse(text)).resolved).toEqual(resolved);
+  });
+
+  it('a newer file is brought to the current version (read-only, said first)', () => {
+    const j = { ...demoJson('demo-spm-48v'), version: 7 };
+    const { file, resolved } = loadProject(JSON.stringify(j));
+    expect(file['version']).toBe(1);
+    expect(j.version).toBe(7); // the input is not changed
+    expect(resolved.readOnly).toBe(true);
+    expect(resolved.findings[0]!.code).toBe('newer-format');
+    expect(resolved.inverter.Vdc).toBe(48);
+  });
+
+  it('lists every problem of the file, each naming its path', () => {
+    const j = demoJson('demo-servo-axis');
+    j.motor.Ld = 0;
+    j.inverter.Vdc = -1;
+    const e = refusal(() => loadProject(JSON.stringify(j)));
+    expect(e.problems).toEqual([
+      { path: 'motor.Ld', message: 'must be >= 1e-9 H' },
+      { path: 'inverter.Vdc', message: 'must be > 0 V' },
+    ]);
+  });
+
+  it('refuses a key given twice, by its path', () => {
+    const text = demoText('demo-servo-axis').replace('"Vdc": ', '"Vdc": 1, "Vdc": ');
+    const e = refusal(() => loadProject(text));
+    expect(e.field).toBe('inverter.Vdc');
+    expect(e.message).toBe('inverter.Vdc is given twice in one object; give each key once (which of the values was meant is a guess)');
   });
 });
 

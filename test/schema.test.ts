@@ -3,6 +3,8 @@ import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
 import { CAPPED_LISTS, KEYS, MAX_LIST_ENTRIES, checkProject, listCapProblem, parseProject, projectSchema } from '../src/core/project/schema';
 import { InputError } from '../src/core/base/errors';
+import { DEFAULT_COLD_TEMP_C, DEFAULT_DUTY, DEFAULT_MODULATION, DEFAULT_TEMP_C, defaultConditions } from '../src/core/project/schema';
+import { resolveProject } from '../src/core/project/project';
 
 const minimal = (): Record<string, any> => ({
   format: 'torquewise-project',
@@ -349,5 +351,20 @@ describe('every problem at once, each naming its field', () => {
     j.requirements[0].duty = 'short';
     expect(messageOf(() => parseProject(j))).toBe('requirements[0].duty must be one of "peak", "continuous"');
     expect(KEYS['requirements[].duty']).toBeDefined();
+  });
+});
+
+describe('the values a file leaves out, once, in the schema', () => {
+  it('20 °C everywhere, space-vector PWM, peak duty; the resolution takes them from here', () => {
+    expect([DEFAULT_TEMP_C, DEFAULT_COLD_TEMP_C, DEFAULT_MODULATION, DEFAULT_DUTY]).toEqual([20, 20, 'svpwm', 'peak']);
+    expect(defaultConditions()).toEqual({ magnetTemp_C: DEFAULT_TEMP_C, magnetTempCoeff: -0.0012 });
+    const j = minimal();
+    delete j['conditions'];
+    delete j['inverter'].modulation;
+    const rp = resolveProject(parseProject(j));
+    expect(rp.conditions).toEqual({ windingTemp_C: 20, magnetTemp_C: 20, coldTemp_C: 20, magnetTempCoeff: -0.0012 });
+    expect(rp.inverter.modulation).toBe('svpwm');
+    expect(rp.requirements[0]!.duty).toBe('peak');
+    expect(rp.findings.map((f) => f.code)).toEqual(expect.arrayContaining(['conditions-assumed', 'modulation-assumed']));
   });
 });

@@ -7,7 +7,7 @@ import { isInputError, InputError, problemLines } from '../core/base/errors';
 import { loadProjectText } from '../core/project/project';
 import { COMMANDS } from './commands/registry';
 import { nodeFs, type FsLayer } from '../node/fs-layer';
-import { DEFAULT_PROJECT_FILE_OPTIONS, ProjectReadError, readProjectText } from '../node/project-file';
+import { ProjectReadError, readProjectText } from '../node/project-file';
 import { checkOutputPaths, writeOutputs } from './output-files';
 import { terminalJson, terminalText, visible } from './terminal';
 
@@ -17,13 +17,13 @@ function usage(): string {
   return lines.join('\n');
 }
 
-/** Largest project file read, bytes: the app's limit (src/node/project-file.ts); a project is a few kilobytes. */
-export const MAX_PROJECT_BYTES = DEFAULT_PROJECT_FILE_OPTIONS.maxBytes;
-
-/** The project file's text, read as the app reads it (regular file, bounded size, strict UTF-8). */
+/**
+ * The project file's text, read as the app reads it (src/node/project-file.ts: a regular file, at
+ * most the schema's MAX_PROJECT_BYTES, strict UTF-8), its reason for a refusal after the file's name.
+ */
 async function readProjectFile(path: string, fs: FsLayer): Promise<string> {
   try {
-    return await readProjectText(path, { fs, maxBytes: MAX_PROJECT_BYTES });
+    return await readProjectText(path, { fs });
   } catch (e) {
     if (e instanceof ProjectReadError) throw new InputError('project file', `'${visible(path)}' ${e.why}`);
     throw e;

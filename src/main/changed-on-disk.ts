@@ -3,6 +3,7 @@
 // is data, like the unsaved-changes prompt, so both are tested under Node.
 import { basename } from 'node:path';
 import { nodeFs, type FsLayer } from '../node/fs-layer';
+import { decodeProjectBytes, ProjectReadError } from '../node/project-file';
 
 /** What this session last knew of a file: the text it read or wrote, and when. */
 export interface KnownVersion {
@@ -41,12 +42,19 @@ export async function changedOnDisk(path: string, known: KnownVersion | undefine
   const disk = new Date(st.mtimeMs ?? Number.NaN);
   let changed: boolean;
   if (known.text !== null) {
+    let bytes: Uint8Array;
     try {
-      let text = new TextDecoder('utf-8').decode(await fs.readFile(path));
-      if (text.charCodeAt(0) === 0xfeff) text = text.slice(1);
-      changed = text !== known.text;
+      bytes = await fs.readFile(path);
     } catch {
       return null;
+    }
+    // decoded as a project file is read (src/node/project-file.ts); bytes that are not UTF-8 are
+    // not the text read or written here
+    try {
+      changed = decodeProjectBytes(bytes) !== known.text;
+    } catch (e) {
+      if (!(e instanceof ProjectReadError)) throw e;
+      changed = true;
     }
   } else {
     changed = Number.isFinite(disk.getTime()) && disk.getTime() > known.at.getTime();

@@ -2,11 +2,15 @@
 // touches a file. A wrong shape gets a sentence naming the field; paths are judged separately
 // (see path-grants.ts).
 import { CHANNELS, type ExportKind, type ExportRequest, type RecoveryWriteRequest, type SaveAsRequest, type SaveRequest } from '../types/bridge';
+import { MAX_PROJECT_BYTES } from '../core/project/schema-keys';
 
 export { CHANNELS };
 
-/** Largest project text or export accepted over IPC, in characters or bytes. */
-export const MAX_TEXT_CHARS = 16 * 1024 * 1024;
+/**
+ * Largest project text or export accepted over IPC, in characters or bytes: a project text as long
+ * as a project file may be (the schema's MAX_PROJECT_BYTES, 16 MiB).
+ */
+export const MAX_TEXT_CHARS = MAX_PROJECT_BYTES;
 export const MAX_EXPORT_BYTES = 64 * 1024 * 1024;
 /** Longest path accepted. */
 export const MAX_PATH_CHARS = 4096;

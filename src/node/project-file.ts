@@ -17,9 +17,9 @@ export type ProjectChecker = (text: string) => unknown;
 
 export interface ProjectFileOptions {
   fs?: FsLayer;
-  /** Largest project file read, in bytes. Default 16 MiB: a project is a few kB. */
+  /** Largest project file read, in bytes. Default the schema's MAX_PROJECT_BYTES (16 MiB): a project is a few kB. */
   maxBytes?: number;
-  /** The full check after the header. Default: src/core/project.ts loadProjectText (schema and resolve). */
+  /** The full check after the header. Default: src/core/project/project.ts loadProjectText (the one load pipeline). */
   check?: ProjectChecker;
 }
 
@@ -53,16 +53,25 @@ export function projectHeader(text: string): HeaderVerdict {
  * `Could not open "NAME": it <why>.`
  */
 export class ProjectReadError extends Error {
-  constructor(readonly why: string) {
+  constructor(
+    readonly why: string,
+    /** which of the reasons: no file, not a regular file, above the size limit, an error of the read, not UTF-8 */
+    readonly kind: ProjectReadFault,
+  ) {
     super(why);
     this.name = 'ProjectReadError';
   }
 }
 
+export type ProjectReadFault = 'missing' | 'not-a-file' | 'too-large' | 'unreadable' | 'not-utf8';
+
+const tooLarge = (bytes: number, maxBytes: number): ProjectReadError =>
+  new ProjectReadError(`is ${bytes} bytes, more than the ${maxBytes} bytes a project file may have`, 'too-large');
+
 /** Bytes of a project file -> its text: strict UTF-8 (the first bad byte named by its offset), a leading byte-order mark dropped. */
 export function decodeProjectBytes(bytes: Uint8Array): string {
   const bad = firstInvalidUtf8(bytes);
-  if (bad >= 0) throw new ProjectReadError(`is not UTF-8 text (an invalid byte sequence at byte offset ${bad}, starting with 0x${bytes[bad]!.toString(16).toUpperCase().padStart(2, '0')})`);
+  if (bad >= 0) throw new ProjectReadError(`is not UTF-8 text (an invalid byte sequence at byte offset ${bad}, starting with 0x${bytes[bad]!.toString(16).toUpperCase().padStart(2, '0')})`, 'not-utf8');
   const text = new TextDecoder('utf-8', { ignoreBOM: true }).decode(bytes); // valid by now
   return text.charCodeAt(0) === 0xfeff ? text.slice(1) : text;
 }
@@ -77,16 +86,16 @@ export async function readProjectText(path: string, options: Pick<ProjectFileOpt
   let buf: Uint8Array;
   try {
     const st = await fs.stat(path);
-    if (!st) throw new ProjectReadError('does not exist');
-    if (!st.isFile) throw new ProjectReadError('is not a regular file');
-    if (st.size > maxBytes) throw new ProjectReadError(`is ${st.size} bytes, more than the ${maxBytes} bytes a project file may have`);
+    if (!st) throw new ProjectReadError('does not exist', 'missing');
+    if (!st.isFile) throw new ProjectReadError('is not a regular file', 'not-a-file');
+    if (st.size > maxBytes) throw tooLarge(st.size, maxBytes);
     buf = await fs.readFile(path);
   } catch (e) {
     if (e instanceof ProjectReadError) throw e;
-    throw new ProjectReadError(`cannot be read: ${describeFsError(e)}`);
+    throw new ProjectReadError(`cannot be read: ${describeFsError(e)}`, 'unreadable');
   }
   // the file may have grown between the stat and the read
-  if (buf.length > maxBytes) throw new ProjectReadError(`is ${buf.length} bytes, more than the ${maxBytes} bytes a project file may have`);
+  if (buf.length > maxBytes) throw tooLarge(buf.length, maxBytes);
   return decodeProjectBytes(buf);
 }
 

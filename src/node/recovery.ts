@@ -7,13 +7,14 @@ import { join } from 'node:path';
 import type { RecoveryOffer, SaveResult } from '../types/bridge';
 import { atomicWrite } from './atomic-write';
 import { nodeFs, type FsLayer } from './fs-layer';
+import { MAX_PROJECT_BYTES } from '../core/project/schema-keys';
 
 /** The single recovery file of earlier versions: still read (and removed with its document). */
 export const LEGACY_RECOVERY_FILE_NAME = 'recovery.json';
 const RECOVERY_FORMAT = 'torquewise-recovery';
 const RECOVERY_FILE = /^recovery(-(untitled|[0-9a-f]{16}))?\.json$/;
-/** Largest project text kept for recovery, in characters (a project is a few kB). */
-export const MAX_RECOVERY_CHARS = 16 * 1024 * 1024;
+/** Largest project text kept for recovery, in characters: as long as a project file may be (the schema's MAX_PROJECT_BYTES; a project is a few kB). */
+export const MAX_RECOVERY_CHARS = MAX_PROJECT_BYTES;
 
 export interface RecoveryOptions {
   fs?: FsLayer;

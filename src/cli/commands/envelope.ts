@@ -1,5 +1,5 @@
 import type { Command } from '../command';
-import { csvDocument, type CsvCell } from '../../core/reports/csv';
+import { envelopeCsv as envelopeCsvDocument, envelopeRegionAt } from '../../core/reports/envelope-csv';
 import { computeEnvelope, type Envelope } from '../../core/steady-state/envelope';
 import { PLOT_SPEED_MAX_RPM, projectSpeedRange } from '../../core/reports/speed-range';
 import { numberFlag } from '../args';
@@ -22,7 +22,7 @@ export function envelopeJson(env: Envelope) {
       voltage_V: env.voltage[k]!,
       // past the maximum speed no current gives motoring torque within the bus: no region then
       feasible: env.feasible[k] === 1,
-      region: regionAt(env, k),
+      region: envelopeRegionAt(env, k),
     });
   }
   return {
@@ -34,26 +34,19 @@ export function envelopeJson(env: Envelope) {
   };
 }
 
-/** The region of point k, or 'beyond-max-speed' where no motoring torque exists (open circuit shown). */
-export function regionAt(env: Envelope, k: number): string {
-  return env.feasible[k] === 1 ? env.region[k]! : 'beyond-max-speed';
-}
-
 /**
- * The envelope as CSV. With `about`, '#' comment rows first (one quoted cell each): the project, the
- * voltage limit and the effective current limit the curve is drawn at, and which rating binds it.
+ * The envelope as CSV (src/core/reports/envelope-csv.ts, the command line's columns). With `about`,
+ * '#' comment rows first: the project, the voltage limit and the effective current limit the curve
+ * is drawn at, and which rating binds it.
  */
 export function envelopeCsv(env: Envelope, about?: { name: string; Vmax: number; limits: CurrentLimits }): string {
-  const rows: CsvCell[][] = [];
-  if (about) {
-    rows.push([`# torquewise envelope; project: ${about.name || 'unnamed'}; motoring, hot corner`]);
-    rows.push([`# drawn at ${describeLimit('peak', about.limits.peak)}; Vmax ${fmt(about.Vmax)} V peak phase; ${describeLimit('continuous', about.limits.continuous)}`]);
-  }
-  rows.push(['speed_rpm', 'torque_Nm', 'power_W', 'id_A', 'iq_A', 'current_A_peak', 'current_A_rms', 'voltage_V_peak_phase', 'region']);
-  for (let k = 0; k < env.speed.length; k++) {
-    rows.push([radSToRpm(env.speed[k]!), env.torque[k]!, env.power[k]!, env.id[k]!, env.iq[k]!, env.current[k]!, peakToRms(env.current[k]!), env.voltage[k]!, regionAt(env, k)]);
-  }
-  return csvDocument(rows);
+  const comments = about
+    ? [
+        `# torquewise envelope; project: ${about.name || 'unnamed'}; motoring, hot corner`,
+        `# drawn at ${describeLimit('peak', about.limits.peak)}; Vmax ${fmt(about.Vmax)} V peak phase; ${describeLimit('continuous', about.limits.continuous)}`,
+      ]
+    : [];
+  return envelopeCsvDocument([{ key: 'motoring', env }], { comments, naming: 'cli' });
 }
 
 export const envelopeCommand: Command = {

@@ -5,6 +5,7 @@
  * as written (before the schema fills the defaults).
  */
 import type { Finding } from '../base/finding';
+import { defaultConditions } from './schema';
 
 const isObject = (x: unknown): x is Record<string, unknown> => typeof x === 'object' && x !== null && !Array.isArray(x);
 
@@ -16,12 +17,13 @@ export function defaultedInputFindings(json: unknown): Finding[] {
   if (!isObject(c)) return [];
   const cond = c;
   const out: Finding[] = [];
+  const d = defaultConditions();
   if (cond['magnetTemp_C'] === undefined) {
     out.push({
       code: 'magnet-temp-assumed',
       severity: 'info',
       field: 'conditions.magnetTemp_C',
-      message: 'No hot magnet temperature given: the hot corner takes the magnet at 20 °C, the strongest magnet of a warm machine, so torque per ampere is overstated. Give the magnet temperature at the duty you check.',
+      message: `No hot magnet temperature given: the hot corner takes the magnet at ${d.magnetTemp_C} °C, the strongest magnet of a warm machine, so torque per ampere is overstated. Give the magnet temperature at the duty you check.`,
     });
   }
   if (cond['magnetTempCoeff'] === undefined) {
@@ -29,7 +31,7 @@ export function defaultedInputFindings(json: unknown): Finding[] {
       code: 'magnet-coeff-assumed',
       severity: 'info',
       field: 'conditions.magnetTempCoeff',
-      message: 'No remanence coefficient given: -0.0012 /K (sintered NdFeB) is assumed; a bonded or SmCo magnet differs (SmCo about -0.0004 /K). Take it from the magnet grade.',
+      message: `No remanence coefficient given: ${d.magnetTempCoeff} /K (sintered NdFeB) is assumed; a bonded or SmCo magnet differs (SmCo about -0.0004 /K). Take it from the magnet grade.`,
     });
   }
   return out;

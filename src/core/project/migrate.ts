@@ -3,11 +3,11 @@
  * step (each step a pure function of the parsed JSON, version n -> n + 1, with a note for the
  * user); a file of a newer version is read as far as this version understands it, read-only, with
  * a message. Version 1 is the first format, so there are no steps yet: the next format change adds
- * one to MIGRATIONS and raises PROJECT_VERSION in schema.ts.
+ * one to MIGRATIONS and raises PROJECT_VERSION in schema-keys.ts.
  */
 import type { Finding } from '../base/finding';
 import { InputError } from '../base/errors';
-import { PROJECT_FORMAT, PROJECT_VERSION } from './schema';
+import { PROJECT_FORMAT, PROJECT_VERSION } from './schema-keys';
 
 export interface MigrationStep {
   from: number;

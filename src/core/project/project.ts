@@ -1,7 +1,9 @@
 /**
- * Parse + validate + resolve a project: the dq machine at 20 °C, hot and cold, the inverter's
- * limits (peak and continuous current), the conditions, the requirements, what each nameplate
- * input was taken to mean, and consistency findings.
+ * Load a project, the one pipeline of the app, its worker and the CLI (loadProject): JSON with the
+ * duplicate-key check (project-json.ts), the format migration (migrate.ts), the schema (schema.ts),
+ * then the resolution: the dq machine at 20 °C, hot and cold, the inverter's limits (peak and
+ * continuous current), the conditions, the requirements, what each nameplate input was taken to
+ * mean, and consistency findings.
  */
 import type { Conditions, DqMachine, Mechanics } from '../machine/dq-machine';
 import type { CurrentLimits } from '../drive/current-limit-types';
@@ -13,13 +15,15 @@ import { defaultedInputFindings } from './defaulted-inputs';
 import { InputError } from '../base/errors';
 import { machineAt } from '../machine/thermal';
 import { driveLimits } from '../drive/inverter';
-import { fmt, nameplateToModel, type Interpretation, type RatedData } from '../machine/nameplate';
-import { defaultConditions, parseProject, type ProjectFile } from './schema';
-import { solveOperatingPoint } from '../steady-state/operating-point';
-import { mtpaTorque } from '../steady-state/mtpa';
+import { nameplateToModel, type Interpretation, type RatedData } from '../machine/nameplate';
+import { DEFAULT_COLD_TEMP_C, DEFAULT_DUTY, DEFAULT_MODULATION, DEFAULT_TEMP_C, defaultConditions, parseProject, type ProjectFile } from './schema';
 import { migrateProject } from './migrate';
-import { findDuplicateKey } from './json-duplicates';
-import { RPM_TO_RAD_S, SQRT2 } from '../base/units';
+import { oddMachineFindings, ratedFindings } from './resolve-findings';
+import { parseProjectJson } from './project-json';
+import { RPM_TO_RAD_S } from '../base/units';
+
+export { parseProjectJson };
+export { DEFAULT_COLD_TEMP_C, DEFAULT_MODULATION, DEFAULT_TEMP_C } from './schema';
 
 export interface ResolvedProject {
   /** the validated file with its defaults filled in */
@@ -49,84 +53,26 @@ export interface ResolvedProject {
   readOnly?: boolean;
 }
 
-/** Where a JSON.parse message puts the error: "at position N" (V8) or "line L column C". */
-function lineColumn(text: string, message: string): { line: number; column: number } | null {
-  const lc = /line (\d+) column (\d+)/.exec(message);
-  if (lc) return { line: Number(lc[1]), column: Number(lc[2]) };
-  const pos = /position (\d+)/.exec(message);
-  const at = pos ? Math.min(Number(pos[1]), text.length) : /end of JSON input/.test(message) ? text.length : firstBadOffset(text);
-  let line = 1;
-  let col = 1;
-  for (let i = 0; i < at; i++) {
-    if (text.charCodeAt(i) === 10) {
-      line++;
-      col = 1;
-    } else col++;
-  }
-  return { line, column: col };
+
+/** A project as the app and the CLI load it: the file as written, at the current format version, and what it resolves to. */
+export interface LoadedProject {
+  /** the parsed file brought to the current format version (before the schema fills its defaults): what the app's form shows */
+  file: Record<string, unknown>;
+  /** the validated file resolved: machine hot and cold, limits, findings (readOnly for a file of a newer version) */
+  resolved: ResolvedProject;
 }
 
 /**
- * Where a text stops being a valid JSON prefix, when the parser does not say: the longest prefix
- * whose only fault is that it ends early (the parser ran off its end). Bisection, at most ~log2(length) parses.
+ * A parsed project file -> migrated file and resolved project: migrate, validate, resolve. Throws
+ * InputError carrying every problem of the file (up to MAX_PROBLEMS), each naming its path.
  */
-function firstBadOffset(text: string): number {
-  const endsEarly = (n: number): boolean => {
-    try {
-      JSON.parse(text.slice(0, n));
-      return true;
-    } catch (e) {
-      if (!(e instanceof Error)) return false;
-      if (/end of JSON input/.test(e.message)) return true;
-      const at = /position (\d+)/.exec(e.message);
-      return at !== null && Number(at[1]) >= n; // ran off the end of the prefix
-
-    }
-  };
-  let lo = 0;
-  let hi = text.length;
-  for (let k = 0; k < 64 && hi - lo > 1; k++) {
-    const mid = (lo + hi) >> 1;
-    if (endsEarly(mid)) lo = mid;
-    else hi = mid;
-  }
-  return lo;
-}
-
-/**
- * Project text -> its JSON value, as every reader takes it (app, worker, CLI): a leading byte-order
- * mark is ignored; a syntax error is InputError('file', 'is not valid JSON: ... at line L column C');
- * a key given twice in one object is InputError naming its path (JSON.parse would keep the last).
- */
-export function parseProjectJson(source: string): unknown {
-  // a UTF-8 byte-order mark, as some editors write it, is not JSON: drop it
-  const text = source.charCodeAt(0) === 0xfeff ? source.slice(1) : source;
-  let json: unknown;
-  try {
-    json = JSON.parse(text);
-  } catch (e) {
-    const raw = e instanceof Error ? e.message : String(e);
-    const where = lineColumn(text, raw);
-    // keep the engine's reason, drop its own position wording and any echo of the text
-    const reason = raw.replace(/\s*\(line \d+ column \d+\)/, '').replace(/\s*(at|in JSON at) position \d+.*$/, '').replace(/,\s*(\.\.\.)?"[\s\S]*$/, '').replace(/\r?\n/g, '\\n').trim();
-    // an invisible character (NUL, a second byte-order mark) shown by its code point
-    const lead = (reason || 'unexpected input').replace(/[\u0000-\u001f\u007f-\u009f\ufeff]/g, (c) => `U+${c.charCodeAt(0).toString(16).toUpperCase().padStart(4, '0')}`);
-    throw new InputError('file', `is not valid JSON: ${lead}${where ? ` at line ${where.line} column ${where.column}` : ''}`);
-  }
-  const dup = findDuplicateKey(text);
-  if (dup) throw new InputError(dup.path, 'is given twice in one object; give each key once (which of the values was meant is a guess)');
-  return json;
-}
-
-/** Project text -> resolved project (parseProjectJson, then migrate, validate and resolve). */
-export function loadProjectText(source: string): ResolvedProject {
-  const json = parseProjectJson(source);
+export function loadProjectJson(json: unknown): LoadedProject {
   const m = migrateProject(json);
   if (!m.readOnly && m.fromVersion === m.json['version']) {
     const current = resolveProject(parseProject(json));
     // inputs left to the schema's defaults, said as the app says them
     current.findings.push(...defaultedInputFindings(json));
-    return current;
+    return { file: m.json, resolved: current };
   }
   let rp: ResolvedProject;
   try {
@@ -137,15 +83,18 @@ export function loadProjectText(source: string): ResolvedProject {
   }
   rp.findings.unshift(...m.findings);
   rp.findings.push(...defaultedInputFindings(m.json));
-  return m.readOnly ? { ...rp, readOnly: true } : rp;
+  return { file: m.json, resolved: m.readOnly ? { ...rp, readOnly: true } : rp };
 }
 
-/** The cold corner's temperature when the file gives none, °C (said as a finding). */
-export const DEFAULT_COLD_TEMP_C = 20;
-/** Every temperature when the file gives no conditions (and the winding's when it gives none), °C (said as a finding). */
-export const DEFAULT_TEMP_C = 20;
-/** The modulation when the file gives none (said as a finding). */
-export const DEFAULT_MODULATION = 'svpwm' as const;
+/** The one way a project text is loaded (app, worker, CLI): parseProjectJson, then loadProjectJson. */
+export function loadProject(text: string): LoadedProject {
+  return loadProjectJson(parseProjectJson(text));
+}
+
+/** Project text -> resolved project (loadProject's resolved project). */
+export function loadProjectText(source: string): ResolvedProject {
+  return loadProject(source).resolved;
+}
 
 /** A validated project file -> machine hot and cold, limits, findings. */
 export function resolveProject(file: ProjectFile): ResolvedProject {
@@ -227,131 +176,9 @@ export function resolveProject(file: ProjectFile): ResolvedProject {
     continuous,
     currentLimits,
     conditions,
-    requirements: file.requirements.map((r) => ({ label: r.label, speed_rpm: r.speed_rpm, torque_Nm: r.torque_Nm, duty: r.duty ?? 'peak' })),
+    requirements: file.requirements.map((r) => ({ label: r.label, speed_rpm: r.speed_rpm, torque_Nm: r.torque_Nm, duty: r.duty ?? DEFAULT_DUTY })),
     rated,
     interpretation,
     findings,
   };
-}
-
-/** The motor's rated point against this inverter: current limits, and voltage at the hot corner. */
-function ratedFindings(rated: RatedData, hot: DqMachine, inv: InverterSpec, peak: DriveLimits, section: 'motor' | 'nameplate'): Finding[] {
-  const out: Finding[] = [];
-  const amps = (x: number): string => `${fmt(x)} A peak (${fmt(x / SQRT2)} A rms)`;
-  if (rated.current_A !== undefined) {
-    if (rated.current_A > inv.Imax) {
-      out.push({
-        code: 'rated-current-above-imax',
-        severity: 'warning',
-        field: `${section}.ratedCurrent`,
-        message: `The motor's rated current ${amps(rated.current_A)} is above the inverter's peak current ${amps(inv.Imax)}: the motor cannot reach its rated torque on this inverter.`,
-      });
-    } else if (rated.current_A > 1.01 * inv.Icont) {
-      out.push({
-        code: 'rated-current-above-icont',
-        severity: 'warning',
-        field: `${section}.ratedCurrent`,
-        message: `The motor's rated current ${amps(rated.current_A)} is above the inverter's continuous current ${amps(inv.Icont)}: rated torque is available only for short periods.`,
-      });
-    }
-  }
-  // the inverter can drive more current than the motor is rated for: a demagnetisation risk
-  // (allowing 1 % for rounding between an rms datasheet figure and a peak inverter rating)
-  if (rated.peakCurrent_A !== undefined && inv.Imax > 1.01 * rated.peakCurrent_A) {
-    out.push({
-      code: 'imax-above-motor-peak',
-      severity: 'danger',
-      field: 'inverter.Imax',
-      message: `The inverter's peak current ${amps(inv.Imax)} is above the motor's peak current ${amps(rated.peakCurrent_A)}: ` +
-        'current beyond the motor rating, above all negative d-axis current in field weakening at a hot magnet, risks demagnetising the magnets for good. ' +
-        `Torquewise limits every result to the motor's ${amps(rated.peakCurrent_A)}; set the drive's own current limit there too, or confirm the magnets' demagnetisation limit with the motor's maker.`,
-    });
-  }
-  // a drive that may hold more current than the motor is rated for overheats the winding
-  if (rated.current_A !== undefined && inv.Icont > 1.01 * rated.current_A) {
-    out.push({
-      code: 'icont-above-motor-rated',
-      severity: 'warning',
-      field: 'inverter.Icont',
-      message: `The inverter's continuous current ${amps(inv.Icont)} is above the motor's rated current ${amps(rated.current_A)}: ` +
-        "held for long, it overheats the winding. Continuous results here use the motor's rated current; set the drive's continuous limit (or its overload protection) to it.",
-    });
-  }
-  if (rated.speed_rad_s !== undefined && rated.torque_Nm !== undefined) {
-    const op = solveOperatingPoint(hot, peak, rated.speed_rad_s, rated.torque_Nm);
-    if (!op.feasible) {
-      const why =
-        op.limitedBy === 'current'
-          ? `it needs ${amps(op.current)}, above Imax`
-          : op.limitedBy === 'beyond-mtpv'
-            ? `no current reaches it within ${fmt(peak.Vmax)} V peak phase (beyond the maximum-torque-per-volt limit)`
-            : `it needs ${amps(op.current)} to stay within ${fmt(peak.Vmax)} V peak phase, above Imax`;
-      out.push({
-        code: 'rated-point-infeasible',
-        severity: 'warning',
-        field: 'nameplate.ratedTorque_Nm',
-        message: `The rated point (${fmt(rated.torque_Nm)} N·m at ${fmt((rated.speed_rad_s * 60) / (2 * Math.PI))} rpm) is outside this inverter at the hot corner: ${why}.`,
-      });
-    }
-  }
-  return out;
-}
-
-/**
- * Legal but unusual inputs, said plainly: a lossless winding, a reluctance machine, inverse
- * saliency, a bus that reaches no requirement, a current limit that cannot overcome friction.
- */
-function oddMachineFindings(section: string, m20: DqMachine, hot: DqMachine, mech: Mechanics, peak: DriveLimits, reqs: ProjectFile['requirements']): Finding[] {
-  const out: Finding[] = [];
-  if (m20.Rs === 0) {
-    out.push({
-      code: 'lossless-winding',
-      severity: 'info',
-      field: `${section}.Rs`,
-      message: 'Rs = 0: lossless winding assumed (no copper loss, no resistive drop); the internal-model current PI then has Ki = Rs·bandwidth = 0 (proportional only).',
-    });
-  }
-  if (m20.psiM === 0) {
-    out.push({
-      code: 'reluctance-machine',
-      severity: 'info',
-      field: `${section}.psiM`,
-      message: 'psiM = 0: reluctance machine: no magnet torque, torque from (Ld - Lq)·id·iq only; back-EMF checks do not apply.',
-    });
-  } else if (m20.Ld > m20.Lq) {
-    out.push({
-      code: 'inverse-saliency',
-      severity: 'info',
-      field: `${section}.Ld`,
-      message: `Ld > Lq (inverse saliency, Lq/Ld = ${fmt(m20.Lq / m20.Ld)}): reluctance torque needs positive (magnetising) id, which raises the flux and the voltage at speed.`,
-    });
-  }
-  const tStall = mtpaTorque(hot, peak.Imax);
-  if (mech.coulombFriction > 0 && tStall < mech.coulombFriction) {
-    out.push({
-      code: 'imax-below-friction',
-      severity: 'warning',
-      field: 'inverter.Imax',
-      message: `At Imax ${fmt(peak.Imax)} A peak the motor makes at most ${fmt(tStall)} N·m (hot corner), below its Coulomb friction ${fmt(mech.coulombFriction)} N·m: it cannot start even without load.`,
-    });
-  }
-  if (reqs.length > 0) {
-    let reached = false;
-    let byVoltage = 0;
-    for (let k = 0; k < reqs.length && !reached; k++) {
-      const q = reqs[k]!;
-      const op = solveOperatingPoint(hot, peak, q.speed_rpm * RPM_TO_RAD_S, q.torque_Nm);
-      if (op.feasible) reached = true;
-      else if (op.limitedBy !== 'current') byVoltage++;
-    }
-    if (!reached && byVoltage > 0) {
-      out.push({
-        code: 'bus-reaches-no-requirement',
-        severity: 'warning',
-        field: 'inverter.Vdc',
-        message: `No requirement is reachable at the hot corner (${byVoltage} of ${reqs.length} fail on the voltage limit ${fmt(peak.Vmax)} V peak phase): the bus is too low for this motor at these speeds.`,
-      });
-    }
-  }
-  return out;
 }

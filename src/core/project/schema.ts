@@ -1,170 +1,17 @@
 /**
- * The project file: `{"format": "torquewise-project", "version": 1, ...}`.
- *
- * KEYS below is the documentation of every key (unit and meaning) and the source of the unit in
- * every message. Paths use `[]` for array elements. Messages are our own phrasing, e.g.
- * `motor.Ld must be > 0 H`.
+ * The project file: `{"format": "torquewise-project", "version": 1, ...}`, as zod sections with
+ * their bounds and defaults (every default of a project lives here, once). The key documentation is
+ * in schema-keys.ts, the phrasing of problems in schema-problems.ts; both are re-exported here.
+ * Messages are our own phrasing, e.g. `motor.Ld must be > 0 H`.
  */
 import { z } from 'zod';
 import { InputError } from '../base/errors';
 import type { Nameplate } from '../machine/nameplate';
+import { keyDoc as doc, MAX_LIST_ENTRIES, PROJECT_FORMAT, PROJECT_VERSION } from './schema-keys';
+import { CHOOSE_ONE, headerProblem, listCapProblem, problemsOf, type ProjectProblem } from './schema-problems';
 
-export const PROJECT_FORMAT = 'torquewise-project';
-export const PROJECT_VERSION = 1;
-
-/**
- * Largest project file read, in bytes, by the desktop app and the web page alike (a project is a
- * few kB); the web page checks a picked file's size against it before reading it.
- */
-export const MAX_PROJECT_BYTES = 16 * 1024 * 1024;
-
-/**
- * Most entries in any one list of a project: requirements, scenario.speedSteps, torqueSteps,
- * loadSteps and loadRamps (a project has a handful of each). A longer list is refused by its
- * length, before any entry is looked at, so a file with a million entries is answered at once.
- */
-export const MAX_LIST_ENTRIES = 1000;
-
-/** The lists MAX_LIST_ENTRIES applies to, as paths from the project root. */
-export const CAPPED_LISTS: readonly (readonly string[])[] = [
-  ['requirements'],
-  ['scenario', 'speedSteps'],
-  ['scenario', 'torqueSteps'],
-  ['scenario', 'loadSteps'],
-  ['scenario', 'loadRamps'],
-];
-
-/** unit ('' = dimensionless or text) and meaning of every key of the project file */
-export const KEYS: Readonly<Record<string, { unit: string; doc: string }>> = {
-  format: { unit: '', doc: `always "${PROJECT_FORMAT}"` },
-  version: { unit: '', doc: `file format version, ${PROJECT_VERSION}` },
-  name: { unit: '', doc: 'project name' },
-  note: { unit: '', doc: 'free text' },
-
-  motor: { unit: '', doc: 'dq model at 20 °C (give this or nameplate)' },
-  'motor.polePairs': { unit: '', doc: 'pole pairs p (not poles)' },
-  'motor.Rs': { unit: 'ohm', doc: 'stator resistance per phase (star equivalent) at 20 °C' },
-  'motor.Ld': { unit: 'H', doc: 'd-axis inductance per phase' },
-  'motor.Lq': { unit: 'H', doc: 'q-axis inductance per phase' },
-  'motor.psiM': { unit: 'Wb', doc: 'peak magnet flux linkage per phase at 20 °C' },
-  'motor.inertia': { unit: 'kg·m²', doc: 'rotor inertia' },
-  'motor.viscousFriction': { unit: 'N·m·s/rad', doc: 'viscous friction B, default 0' },
-  'motor.coulombFriction': { unit: 'N·m', doc: 'Coulomb friction, default 0' },
-  'motor.maxSpeed_rpm': { unit: 'rpm', doc: 'maximum mechanical speed (safety checks and plot range)' },
-  'motor.ratedCurrent': { unit: 'A', doc: "the motor's rated (continuous) phase current, A peak; the continuous limit is the lower of this and inverter.Icont" },
-  'motor.peakCurrent': { unit: 'A', doc: "the motor's peak phase current (demagnetisation and heat), A peak; the peak limit is the lower of this and inverter.Imax" },
-
-  nameplate: { unit: '', doc: 'motor in datasheet terms (give this or motor)' },
-  'nameplate.poles': { unit: '', doc: 'number of magnet poles (even); or polePairs' },
-  'nameplate.polePairs': { unit: '', doc: 'pole pairs; or poles' },
-  'nameplate.R': { unit: '', doc: 'winding resistance {value, basis, temp_C}' },
-  'nameplate.R.value': { unit: 'ohm', doc: 'resistance' },
-  'nameplate.R.basis': { unit: '', doc: '"phase" or "line-to-line" (star equivalent = half)' },
-  'nameplate.R.temp_C': { unit: '°C', doc: 'temperature of the measurement, default 20' },
-  'nameplate.L': { unit: '', doc: 'synchronous inductance of a surface-magnet motor {value, basis}' },
-  'nameplate.L.value': { unit: 'H', doc: 'inductance' },
-  'nameplate.L.basis': { unit: '', doc: '"phase" or "line-to-line"' },
-  'nameplate.Ld': { unit: '', doc: 'd-axis inductance {value, basis}' },
-  'nameplate.Ld.value': { unit: 'H', doc: 'inductance' },
-  'nameplate.Ld.basis': { unit: '', doc: '"phase" or "line-to-line"' },
-  'nameplate.Lq': { unit: '', doc: 'q-axis inductance {value, basis}; missing = surface magnet' },
-  'nameplate.Lq.value': { unit: 'H', doc: 'inductance' },
-  'nameplate.Lq.basis': { unit: '', doc: '"phase" or "line-to-line"' },
-  'nameplate.Ke': { unit: '', doc: 'back-EMF constant {value, unit, temp_C}' },
-  'nameplate.Ke.value': { unit: '', doc: 'in the stated unit' },
-  'nameplate.Ke.unit': { unit: '', doc: '"V_LL_rms/krpm", "V_LL_peak/krpm" or "V_ph_peak*s/rad" (per electrical rad/s)' },
-  'nameplate.Ke.temp_C': { unit: '°C', doc: 'magnet temperature of the measurement, default 20' },
-  'nameplate.Kt': { unit: '', doc: 'torque constant {value, unit, temp_C}' },
-  'nameplate.Kt.value': { unit: '', doc: 'in the stated unit' },
-  'nameplate.Kt.unit': { unit: '', doc: '"Nm/A_rms" or "Nm/A_peak"' },
-  'nameplate.Kt.temp_C': { unit: '°C', doc: 'magnet temperature, default that of Ke' },
-  'nameplate.ratedCurrent': { unit: '', doc: 'rated phase current {value, basis}' },
-  'nameplate.ratedCurrent.value': { unit: 'A', doc: 'current' },
-  'nameplate.ratedCurrent.basis': { unit: '', doc: '"rms" or "peak"' },
-  'nameplate.peakCurrent': { unit: '', doc: 'peak phase current {value, basis}' },
-  'nameplate.peakCurrent.value': { unit: 'A', doc: 'current' },
-  'nameplate.peakCurrent.basis': { unit: '', doc: '"rms" or "peak"' },
-  'nameplate.ratedSpeed_rpm': { unit: 'rpm', doc: 'rated speed' },
-  'nameplate.ratedTorque_Nm': { unit: 'N·m', doc: 'rated torque' },
-  'nameplate.maxSpeed_rpm': { unit: 'rpm', doc: 'maximum mechanical speed' },
-  'nameplate.inertia': { unit: 'kg·m²', doc: 'rotor inertia' },
-  'nameplate.viscousFriction': { unit: 'N·m·s/rad', doc: 'viscous friction, default 0' },
-  'nameplate.coulombFriction': { unit: 'N·m', doc: 'Coulomb friction, default 0' },
-
-  inverter: { unit: '', doc: 'the drive' },
-  'inverter.Vdc': { unit: 'V', doc: 'DC-bus voltage' },
-  'inverter.Imax': { unit: 'A', doc: 'peak phase current limit (A peak)' },
-  'inverter.Icont': { unit: 'A', doc: 'continuous phase current limit (A peak), <= Imax' },
-  'inverter.modulation': { unit: '', doc: '"sinusoidal", "svpwm" or "six-step"; "svpwm" when not given (with a finding)' },
-  'inverter.voltageUtilization': { unit: '', doc: 'fraction of the modulation limit, 0.001 to 1, default 1' },
-  'inverter.deviceDrop': { unit: 'V', doc: 'on-state drop per device, default 0' },
-
-  conditions: { unit: '', doc: 'temperatures; when absent every temperature is 20 °C (with a finding)' },
-  'conditions.windingTemp_C': { unit: '°C', doc: 'winding temperature, hot corner, 20 when not given (with a finding)' },
-  'conditions.magnetTemp_C': { unit: '°C', doc: 'magnet temperature, hot corner, default 20' },
-  'conditions.coldTemp_C': { unit: '°C', doc: 'winding and magnet temperature, cold corner (highest back-EMF), 20 when not given (with a finding)' },
-  'conditions.magnetTempCoeff': { unit: '/K', doc: 'remanence coefficient, -0.003..0.001, default -0.0012 (sintered NdFeB; SmCo about -0.0004)' },
-
-  requirements: { unit: '', doc: `operating points to meet, at most ${MAX_LIST_ENTRIES}` },
-  'requirements[]': { unit: '', doc: '{label, speed_rpm, torque_Nm, duty}' },
-  'requirements[].label': { unit: '', doc: 'name of the point' },
-  'requirements[].speed_rpm': { unit: 'rpm', doc: 'mechanical speed, >= 0' },
-  'requirements[].torque_Nm': { unit: 'N·m', doc: 'torque; negative = braking' },
-  'requirements[].duty': { unit: '', doc: '"peak" (default: checked against the peak current limit) or "continuous" (checked against the continuous limit, the lower of inverter.Icont and the motor\'s rated current)' },
-
-  control: { unit: '', doc: 'the drive controller' },
-  'control.mode': { unit: '', doc: '"speed", "torque" or "current-step", default "speed"' },
-  'control.fCtrl_Hz': { unit: 'Hz', doc: 'control (current-loop) rate, default 10000' },
-  'control.delaySamples': { unit: '', doc: 'periods between sampling and applying the voltage, default 1' },
-  'control.currentBandwidth_Hz': { unit: 'Hz', doc: 'current-loop bandwidth (or currentKp/currentKi)' },
-  'control.currentKp': { unit: 'V/A', doc: 'current PI proportional gain' },
-  'control.currentKi': { unit: 'V/(A·s)', doc: 'current PI integral gain' },
-  'control.speedBandwidth_Hz': { unit: 'Hz', doc: 'speed-loop bandwidth (or speedKp/speedKi or speedTuning)' },
-  'control.speedKp': { unit: 'N·m·s/rad', doc: 'speed PI proportional gain' },
-  'control.speedKi': { unit: 'N·m/rad', doc: 'speed PI integral gain' },
-  'control.speedTuning': { unit: '', doc: '{method, a}' },
-  'control.speedTuning.method': { unit: '', doc: '"symmetric-optimum" or "bandwidth" (bandwidth needs speedBandwidth_Hz)' },
-  'control.speedTuning.a': { unit: '', doc: 'symmetric-optimum spacing a > 1, default 2' },
-  'control.antiWindup': { unit: '', doc: '"clamping" or "back-calculation", default "clamping"' },
-  'control.decoupling': { unit: '', doc: 'dq decoupling and back-EMF feed-forward, default true' },
-  'control.speedPrefilter': { unit: '', doc: 'first-order filter on the speed reference with the speed PI time constant Kp/Ki (tames the symmetric optimum overshoot), default false' },
-  'control.speedRamp_rpm_per_s': { unit: 'rpm/s', doc: 'speed reference ramp limit; absent = none' },
-  'control.speedLoopDivider': { unit: '', doc: 'speed loop runs every N current periods, default 1' },
-
-  scenario: { unit: '', doc: 'what the simulation does' },
-  'scenario.duration_s': { unit: 's', doc: 'simulated time' },
-  'scenario.initialSpeed_rpm': { unit: 'rpm', doc: 'speed at t = 0, default 0' },
-  'scenario.speedSteps': { unit: '', doc: `speed reference steps [{t_s, speed_rpm}], at most ${MAX_LIST_ENTRIES}` },
-  'scenario.speedSteps[]': { unit: '', doc: '{t_s, speed_rpm}' },
-  'scenario.speedSteps[].t_s': { unit: 's', doc: 'time of the step' },
-  'scenario.speedSteps[].speed_rpm': { unit: 'rpm', doc: 'new speed reference' },
-  'scenario.torqueSteps': { unit: '', doc: `torque reference steps (torque mode) [{t_s, torque_Nm}], at most ${MAX_LIST_ENTRIES}` },
-  'scenario.torqueSteps[]': { unit: '', doc: '{t_s, torque_Nm}' },
-  'scenario.torqueSteps[].t_s': { unit: 's', doc: 'time of the step' },
-  'scenario.torqueSteps[].torque_Nm': { unit: 'N·m', doc: 'new torque reference' },
-  'scenario.loadSteps': { unit: '', doc: `load torque steps [{t_s, torque_Nm}], at most ${MAX_LIST_ENTRIES}` },
-  'scenario.loadSteps[]': { unit: '', doc: '{t_s, torque_Nm}' },
-  'scenario.loadSteps[].t_s': { unit: 's', doc: 'time of the step' },
-  'scenario.loadSteps[].torque_Nm': { unit: 'N·m', doc: 'new load torque (opposes motoring)' },
-  'scenario.loadRamps': { unit: '', doc: `load torque ramps [{t_s, duration_s, torque_Nm}], at most ${MAX_LIST_ENTRIES}` },
-  'scenario.loadRamps[]': { unit: '', doc: 'from the load at t_s, linearly to torque_Nm over duration_s' },
-  'scenario.loadRamps[].t_s': { unit: 's', doc: 'start of the ramp' },
-  'scenario.loadRamps[].duration_s': { unit: 's', doc: 'length of the ramp' },
-  'scenario.loadRamps[].torque_Nm': { unit: 'N·m', doc: 'load torque at the end of the ramp' },
-  'scenario.loadModel': { unit: '', doc: 'speed-dependent load {kind: "quadratic", k}, T = k omega_m²' },
-  'scenario.loadModel.kind': { unit: '', doc: '"quadratic"' },
-  'scenario.loadModel.k': { unit: 'N·m·s²/rad²', doc: 'fan or pump coefficient' },
-  'scenario.loadInertia': { unit: 'kg·m²', doc: 'inertia of the load, default 0' },
-  'scenario.currentStep': { unit: '', doc: 'locked-rotor current step {id_A, iq_A, t_s} (current-step mode)' },
-  'scenario.currentStep.id_A': { unit: 'A', doc: 'd-axis current reference after the step (A peak)' },
-  'scenario.currentStep.iq_A': { unit: 'A', doc: 'q-axis current reference after the step (A peak)' },
-  'scenario.currentStep.t_s': { unit: 's', doc: 'time of the step' },
-};
-
-const doc = (path: string): string => {
-  const k = KEYS[path];
-  return k.unit ? `${k.doc} [${k.unit}]` : k.doc;
-};
+export { CAPPED_LISTS, KEYS, MAX_LIST_ENTRIES, MAX_PROJECT_BYTES, PROJECT_FORMAT, PROJECT_VERSION } from './schema-keys';
+export { listCapProblem, type ProjectProblem } from './schema-problems';
 
 /** A finite number in [min, max] (or (min, max] with gtMin), documented from KEYS. */
 function num(path: string, min: number, max: number, opts: { gtMin?: boolean; int?: boolean } = {}) {
@@ -184,6 +31,17 @@ const PSI_MIN = 1e-6;
 const J_MIN = 1e-9;
 const K_MIN = 1e-6;
 const T_MAX = 250;
+
+/**
+ * What a file that leaves them out is taken to have, each said as a finding when it is assumed:
+ * every temperature of a file without conditions, the hot winding's and the cold corner's when
+ * absent, and the hot magnet's (the conditions' default), °C; the modulation when absent.
+ */
+export const DEFAULT_TEMP_C = 20;
+export const DEFAULT_COLD_TEMP_C = 20;
+export const DEFAULT_MODULATION = 'svpwm' as const;
+/** The duty of a requirement that gives none: checked against the peak current limit. */
+export const DEFAULT_DUTY = 'peak' as const;
 
 const motorSchema = z
   .strictObject({
@@ -275,7 +133,7 @@ const inverterSchema = z
 const conditionsSchema = z
   .strictObject({
     windingTemp_C: num('conditions.windingTemp_C', T_MIN, T_MAX).optional(), // 20 °C when absent, said as a finding
-    magnetTemp_C: num('conditions.magnetTemp_C', T_MIN, T_MAX).default(20),
+    magnetTemp_C: num('conditions.magnetTemp_C', T_MIN, T_MAX).default(DEFAULT_TEMP_C),
     coldTemp_C: num('conditions.coldTemp_C', T_MIN, T_MAX).optional(), // 20 °C when absent, said as a finding
     magnetTempCoeff: num('conditions.magnetTempCoeff', -0.003, 0.001).default(-0.0012),
   })
@@ -291,7 +149,7 @@ const requirementSchema = z.strictObject({
   label: z.string().min(1).max(200),
   speed_rpm: num('requirements[].speed_rpm', 0, 1e6),
   torque_Nm: num('requirements[].torque_Nm', -1e6, 1e6),
-  duty: z.enum(['peak', 'continuous']).optional(), // 'peak' when absent
+  duty: z.enum(['peak', 'continuous']).optional(), // DEFAULT_DUTY when absent
 });
 
 const controlSchema = z
@@ -390,8 +248,6 @@ const projectObject = z.strictObject({
   scenario: scenarioSchema.optional(),
 });
 
-const CHOOSE_ONE = 'and motor are both given: choose one, motor (the dq model) or nameplate (datasheet terms), and remove the other';
-
 export const projectSchema = projectObject.superRefine((p, ctx) => {
   if (p.motor === undefined && p.nameplate === undefined) ctx.addIssue({ code: 'custom', path: ['motor'], message: 'is required (or a nameplate section)' });
   if (p.motor !== undefined && p.nameplate !== undefined) ctx.addIssue({ code: 'custom', path: ['nameplate'], message: CHOOSE_ONE });
@@ -415,157 +271,6 @@ export type ScenarioSection = z.output<typeof scenarioSchema>;
 // The nameplate section must be usable as a Nameplate as it is.
 const _nameplateFits = (x: NameplateSection): Nameplate => x;
 void _nameplateFits;
-
-export interface ProjectProblem {
-  /** project path, e.g. "motor.Ld" or "requirements[2].speed_rpm" ("file" for the whole file) */
-  path: string;
-  /** what is wrong, without the path, e.g. "must be > 0 H" */
-  message: string;
-}
-
-/** "requirements.2.speed_rpm" style zod path -> "requirements[2].speed_rpm" and its KEYS pattern */
-function pathOf(segments: readonly PropertyKey[]): { shown: string; pattern: string } {
-  let shown = '';
-  let pattern = '';
-  for (const s of segments) {
-    if (typeof s === 'number') {
-      shown += `[${s}]`;
-      pattern += '[]';
-    } else {
-      const k = String(s);
-      shown += shown ? `.${k}` : k;
-      pattern += pattern ? `.${k}` : k;
-    }
-  }
-  return { shown, pattern };
-}
-
-const unitOf = (pattern: string): string => KEYS[pattern]?.unit ?? '';
-const withUnit = (text: string, unit: string): string => (unit ? `${text} ${unit}` : text);
-const fmtLimit = (x: number | bigint): string => String(x);
-
-function known(prefix: string): string[] {
-  const out: string[] = [];
-  for (const k of Object.keys(KEYS)) {
-    if (prefix === '' ? !k.includes('.') && !k.includes('[') : k.startsWith(`${prefix}.`) && !k.slice(prefix.length + 1).includes('.') && !k.slice(prefix.length + 1).includes('[')) {
-      out.push(prefix === '' ? k : k.slice(prefix.length + 1));
-    }
-  }
-  return out;
-}
-
-const TYPE_WORD: Record<string, string> = {
-  number: 'a number',
-  int: 'a whole number',
-  string: 'text',
-  boolean: 'true or false',
-  object: 'an object { ... }',
-  array: 'a list [ ... ]',
-};
-
-/** Our own phrasing of one zod issue. */
-function phrase(iss: z.core.$ZodIssue, input: unknown): ProjectProblem[] {
-  const { shown, pattern } = pathOf(iss.path);
-  const unit = unitOf(pattern);
-  const at = (m: string): ProjectProblem[] => [{ path: shown || 'file', message: m }];
-  switch (iss.code) {
-    case 'invalid_type': {
-      if (iss.expected === 'int') return at('must be a whole number');
-      const value = lookup(input, iss.path);
-      if (value === undefined) {
-        const d = KEYS[pattern];
-        return at(d ? `is required (${withUnit(d.doc, unit ? `in ${unit}` : '').trim()})` : 'is required');
-      }
-      if (iss.expected === 'number' && typeof value === 'number') return at(withUnit('must be a finite number', unit ? `in ${unit}` : ''));
-      if (iss.expected === 'number' && value !== null && typeof value === 'object' && !Array.isArray(value) && ('value' in value || 'basis' in value)) return at(withBasisMessage(value as Record<string, unknown>, unit));
-      return at(`must be ${TYPE_WORD[iss.expected] ?? iss.expected}${unit && iss.expected === 'number' ? ` in ${unit}` : ''}`);
-    }
-    case 'too_small':
-      if (iss.origin === 'string') return at('must not be empty');
-      if (iss.origin === 'array') return at(`must have at least ${fmtLimit(iss.minimum)} entries`);
-      return at(withUnit(`must be ${iss.inclusive ? '>=' : '>'} ${fmtLimit(iss.minimum)}`, unit));
-    case 'too_big':
-      if (iss.origin === 'string') return at(`must be at most ${fmtLimit(iss.maximum)} characters`);
-      if (iss.origin === 'array') return at(`must have at most ${fmtLimit(iss.maximum)} entries`);
-      return at(withUnit(`must be ${iss.inclusive ? '<=' : '<'} ${fmtLimit(iss.maximum)}`, unit));
-    case 'unrecognized_keys':
-      return iss.keys.map((key) => {
-        const allowed = known(pattern);
-        // a runaway key (pasted text) is shown by its start and length, so the message stays one short line
-        const k = key.length > 60 ? `${key.slice(0, 40)}… (${key.length} characters)` : key;
-        return {
-          path: shown ? `${shown}.${k}` : k,
-          message: `is not a known key${allowed.length ? ` (known here: ${allowed.join(', ')})` : ''}`,
-        };
-      });
-    case 'invalid_value':
-      if (iss.values.length === 1) return at(`must be ${JSON.stringify(iss.values[0])}`);
-      return at(`must be one of ${iss.values.map((v) => JSON.stringify(v)).join(', ')}`);
-    case 'custom':
-      return at(iss.message);
-    default:
-      return at('is not valid here');
-  }
-}
-
-/** A {value, basis} object where a plain number belongs: where a basis is accepted, and what the number means here. */
-function withBasisMessage(v: Record<string, unknown>, unit: string): string {
-  if (unit === 'A') {
-    const x = v['value'];
-    const asPeak = typeof x === 'number' && Number.isFinite(x) && v['basis'] === 'rms' ? ` (${x} A rms = ${Number((x * Math.SQRT2).toPrecision(4))} A peak)` : '';
-    return `must be a plain number in A peak${asPeak}: a current with a basis {value, basis} ("rms" or "peak") is accepted only in nameplate.ratedCurrent and nameplate.peakCurrent; everywhere else a current is a number in A peak`;
-  }
-  return `must be a plain number${unit ? ` in ${unit}` : ''}: {value, basis} objects belong to the nameplate section only`;
-}
-
-function lookup(root: unknown, path: readonly PropertyKey[]): unknown {
-  let x: unknown = root;
-  for (const s of path) {
-    if (x === null || typeof x !== 'object') return undefined;
-    x = (x as Record<PropertyKey, unknown>)[s as string];
-  }
-  return x;
-}
-
-/** A version or format check before the schema, so a newer file gets a plain message. */
-function headerProblem(json: unknown): ProjectProblem | null {
-  if (json === null || typeof json !== 'object' || Array.isArray(json)) return { path: 'file', message: 'must be a JSON object { ... }' };
-  const o = json as Record<string, unknown>;
-  if (o.format !== PROJECT_FORMAT) {
-    return { path: 'format', message: `must be "${PROJECT_FORMAT}" (this is not a Torquewise project file)` };
-  }
-  if (typeof o.version === 'number' && Number.isInteger(o.version) && o.version > PROJECT_VERSION) {
-    return { path: 'version', message: `is ${o.version}: the file was written by a newer Torquewise (version ${o.version}); this one reads version ${PROJECT_VERSION}` };
-  }
-  if (o.version !== PROJECT_VERSION) return { path: 'version', message: `must be ${PROJECT_VERSION}` };
-  return null;
-}
-
-/**
- * A list longer than MAX_LIST_ENTRIES, found by its length alone (no entry is read): checked
- * before the schema looks at any entry, and by the app before it lays a file out in its form.
- */
-export function listCapProblem(json: unknown): ProjectProblem | null {
-  for (const path of CAPPED_LISTS) {
-    let x: unknown = json;
-    for (const k of path) x = x !== null && typeof x === 'object' && !Array.isArray(x) ? (x as Record<string, unknown>)[k] : undefined;
-    if (Array.isArray(x) && x.length > MAX_LIST_ENTRIES) return { path: path.join('.'), message: `must have at most ${MAX_LIST_ENTRIES} entries (it has ${x.length})` };
-  }
-  return null;
-}
-
-/**
- * The problems of zod's issues in our words; giving both motor and nameplate leads (zod runs the
- * file-level check only when the sections themselves are valid, and the rest follows from it).
- */
-function problemsOf(issues: readonly z.core.$ZodIssue[], json: unknown): ProjectProblem[] {
-  const out = issues.flatMap((iss) => phrase(iss, json));
-  const o = json as Record<string, unknown>;
-  if (o['motor'] !== undefined && o['nameplate'] !== undefined && !out.some((p) => p.path === 'nameplate' && p.message === CHOOSE_ONE)) {
-    out.unshift({ path: 'nameplate', message: CHOOSE_ONE });
-  }
-  return out;
-}
 
 /** Every problem of a project file, in file order (empty = valid). */
 export function checkProject(json: unknown): ProjectProblem[] {

@@ -1,0 +1,163 @@
+/**
+ * The project file's format constants and KEYS, the documentation of every key (unit and meaning):
+ * the schema describes each number from it and every message takes its unit from it. Paths use
+ * `[]` for array elements.
+ */
+export const PROJECT_FORMAT = 'torquewise-project';
+export const PROJECT_VERSION = 1;
+
+/**
+ * Largest project file read, in bytes, by the desktop app and the web page alike (a project is a
+ * few kB); the web page checks a picked file's size against it before reading it.
+ */
+export const MAX_PROJECT_BYTES = 16 * 1024 * 1024;
+
+/**
+ * Most entries in any one list of a project: requirements, scenario.speedSteps, torqueSteps,
+ * loadSteps and loadRamps (a project has a handful of each). A longer list is refused by its
+ * length, before any entry is looked at, so a file with a million entries is answered at once.
+ */
+export const MAX_LIST_ENTRIES = 1000;
+
+/** The lists MAX_LIST_ENTRIES applies to, as paths from the project root. */
+export const CAPPED_LISTS: readonly (readonly string[])[] = [
+  ['requirements'],
+  ['scenario', 'speedSteps'],
+  ['scenario', 'torqueSteps'],
+  ['scenario', 'loadSteps'],
+  ['scenario', 'loadRamps'],
+];
+
+/** unit ('' = dimensionless or text) and meaning of every key of the project file */
+export const KEYS: Readonly<Record<string, { unit: string; doc: string }>> = {
+  format: { unit: '', doc: `always "${PROJECT_FORMAT}"` },
+  version: { unit: '', doc: `file format version, ${PROJECT_VERSION}` },
+  name: { unit: '', doc: 'project name' },
+  note: { unit: '', doc: 'free text' },
+
+  motor: { unit: '', doc: 'dq model at 20 °C (give this or nameplate)' },
+  'motor.polePairs': { unit: '', doc: 'pole pairs p (not poles)' },
+  'motor.Rs': { unit: 'ohm', doc: 'stator resistance per phase (star equivalent) at 20 °C' },
+  'motor.Ld': { unit: 'H', doc: 'd-axis inductance per phase' },
+  'motor.Lq': { unit: 'H', doc: 'q-axis inductance per phase' },
+  'motor.psiM': { unit: 'Wb', doc: 'peak magnet flux linkage per phase at 20 °C' },
+  'motor.inertia': { unit: 'kg·m²', doc: 'rotor inertia' },
+  'motor.viscousFriction': { unit: 'N·m·s/rad', doc: 'viscous friction B, default 0' },
+  'motor.coulombFriction': { unit: 'N·m', doc: 'Coulomb friction, default 0' },
+  'motor.maxSpeed_rpm': { unit: 'rpm', doc: 'maximum mechanical speed (safety checks and plot range)' },
+  'motor.ratedCurrent': { unit: 'A', doc: "the motor's rated (continuous) phase current, A peak; the continuous limit is the lower of this and inverter.Icont" },
+  'motor.peakCurrent': { unit: 'A', doc: "the motor's peak phase current (demagnetisation and heat), A peak; the peak limit is the lower of this and inverter.Imax" },
+
+  nameplate: { unit: '', doc: 'motor in datasheet terms (give this or motor)' },
+  'nameplate.poles': { unit: '', doc: 'number of magnet poles (even); or polePairs' },
+  'nameplate.polePairs': { unit: '', doc: 'pole pairs; or poles' },
+  'nameplate.R': { unit: '', doc: 'winding resistance {value, basis, temp_C}' },
+  'nameplate.R.value': { unit: 'ohm', doc: 'resistance' },
+  'nameplate.R.basis': { unit: '', doc: '"phase" or "line-to-line" (star equivalent = half)' },
+  'nameplate.R.temp_C': { unit: '°C', doc: 'temperature of the measurement, default 20' },
+  'nameplate.L': { unit: '', doc: 'synchronous inductance of a surface-magnet motor {value, basis}' },
+  'nameplate.L.value': { unit: 'H', doc: 'inductance' },
+  'nameplate.L.basis': { unit: '', doc: '"phase" or "line-to-line"' },
+  'nameplate.Ld': { unit: '', doc: 'd-axis inductance {value, basis}' },
+  'nameplate.Ld.value': { unit: 'H', doc: 'inductance' },
+  'nameplate.Ld.basis': { unit: '', doc: '"phase" or "line-to-line"' },
+  'nameplate.Lq': { unit: '', doc: 'q-axis inductance {value, basis}; missing = surface magnet' },
+  'nameplate.Lq.value': { unit: 'H', doc: 'inductance' },
+  'nameplate.Lq.basis': { unit: '', doc: '"phase" or "line-to-line"' },
+  'nameplate.Ke': { unit: '', doc: 'back-EMF constant {value, unit, temp_C}' },
+  'nameplate.Ke.value': { unit: '', doc: 'in the stated unit' },
+  'nameplate.Ke.unit': { unit: '', doc: '"V_LL_rms/krpm", "V_LL_peak/krpm" or "V_ph_peak*s/rad" (per electrical rad/s)' },
+  'nameplate.Ke.temp_C': { unit: '°C', doc: 'magnet temperature of the measurement, default 20' },
+  'nameplate.Kt': { unit: '', doc: 'torque constant {value, unit, temp_C}' },
+  'nameplate.Kt.value': { unit: '', doc: 'in the stated unit' },
+  'nameplate.Kt.unit': { unit: '', doc: '"Nm/A_rms" or "Nm/A_peak"' },
+  'nameplate.Kt.temp_C': { unit: '°C', doc: 'magnet temperature, default that of Ke' },
+  'nameplate.ratedCurrent': { unit: '', doc: 'rated phase current {value, basis}' },
+  'nameplate.ratedCurrent.value': { unit: 'A', doc: 'current' },
+  'nameplate.ratedCurrent.basis': { unit: '', doc: '"rms" or "peak"' },
+  'nameplate.peakCurrent': { unit: '', doc: 'peak phase current {value, basis}' },
+  'nameplate.peakCurrent.value': { unit: 'A', doc: 'current' },
+  'nameplate.peakCurrent.basis': { unit: '', doc: '"rms" or "peak"' },
+  'nameplate.ratedSpeed_rpm': { unit: 'rpm', doc: 'rated speed' },
+  'nameplate.ratedTorque_Nm': { unit: 'N·m', doc: 'rated torque' },
+  'nameplate.maxSpeed_rpm': { unit: 'rpm', doc: 'maximum mechanical speed' },
+  'nameplate.inertia': { unit: 'kg·m²', doc: 'rotor inertia' },
+  'nameplate.viscousFriction': { unit: 'N·m·s/rad', doc: 'viscous friction, default 0' },
+  'nameplate.coulombFriction': { unit: 'N·m', doc: 'Coulomb friction, default 0' },
+
+  inverter: { unit: '', doc: 'the drive' },
+  'inverter.Vdc': { unit: 'V', doc: 'DC-bus voltage' },
+  'inverter.Imax': { unit: 'A', doc: 'peak phase current limit (A peak)' },
+  'inverter.Icont': { unit: 'A', doc: 'continuous phase current limit (A peak), <= Imax' },
+  'inverter.modulation': { unit: '', doc: '"sinusoidal", "svpwm" or "six-step"; "svpwm" when not given (with a finding)' },
+  'inverter.voltageUtilization': { unit: '', doc: 'fraction of the modulation limit, 0.001 to 1, default 1' },
+  'inverter.deviceDrop': { unit: 'V', doc: 'on-state drop per device, default 0' },
+
+  conditions: { unit: '', doc: 'temperatures; when absent every temperature is 20 °C (with a finding)' },
+  'conditions.windingTemp_C': { unit: '°C', doc: 'winding temperature, hot corner, 20 when not given (with a finding)' },
+  'conditions.magnetTemp_C': { unit: '°C', doc: 'magnet temperature, hot corner, default 20' },
+  'conditions.coldTemp_C': { unit: '°C', doc: 'winding and magnet temperature, cold corner (highest back-EMF), 20 when not given (with a finding)' },
+  'conditions.magnetTempCoeff': { unit: '/K', doc: 'remanence coefficient, -0.003..0.001, default -0.0012 (sintered NdFeB; SmCo about -0.0004)' },
+
+  requirements: { unit: '', doc: `operating points to meet, at most ${MAX_LIST_ENTRIES}` },
+  'requirements[]': { unit: '', doc: '{label, speed_rpm, torque_Nm, duty}' },
+  'requirements[].label': { unit: '', doc: 'name of the point' },
+  'requirements[].speed_rpm': { unit: 'rpm', doc: 'mechanical speed, >= 0' },
+  'requirements[].torque_Nm': { unit: 'N·m', doc: 'torque; negative = braking' },
+  'requirements[].duty': { unit: '', doc: '"peak" (default: checked against the peak current limit) or "continuous" (checked against the continuous limit, the lower of inverter.Icont and the motor\'s rated current)' },
+
+  control: { unit: '', doc: 'the drive controller' },
+  'control.mode': { unit: '', doc: '"speed", "torque" or "current-step", default "speed"' },
+  'control.fCtrl_Hz': { unit: 'Hz', doc: 'control (current-loop) rate, default 10000' },
+  'control.delaySamples': { unit: '', doc: 'periods between sampling and applying the voltage, default 1' },
+  'control.currentBandwidth_Hz': { unit: 'Hz', doc: 'current-loop bandwidth (or currentKp/currentKi)' },
+  'control.currentKp': { unit: 'V/A', doc: 'current PI proportional gain' },
+  'control.currentKi': { unit: 'V/(A·s)', doc: 'current PI integral gain' },
+  'control.speedBandwidth_Hz': { unit: 'Hz', doc: 'speed-loop bandwidth (or speedKp/speedKi or speedTuning)' },
+  'control.speedKp': { unit: 'N·m·s/rad', doc: 'speed PI proportional gain' },
+  'control.speedKi': { unit: 'N·m/rad', doc: 'speed PI integral gain' },
+  'control.speedTuning': { unit: '', doc: '{method, a}' },
+  'control.speedTuning.method': { unit: '', doc: '"symmetric-optimum" or "bandwidth" (bandwidth needs speedBandwidth_Hz)' },
+  'control.speedTuning.a': { unit: '', doc: 'symmetric-optimum spacing a > 1, default 2' },
+  'control.antiWindup': { unit: '', doc: '"clamping" or "back-calculation", default "clamping"' },
+  'control.decoupling': { unit: '', doc: 'dq decoupling and back-EMF feed-forward, default true' },
+  'control.speedPrefilter': { unit: '', doc: 'first-order filter on the speed reference with the speed PI time constant Kp/Ki (tames the symmetric optimum overshoot), default false' },
+  'control.speedRamp_rpm_per_s': { unit: 'rpm/s', doc: 'speed reference ramp limit; absent = none' },
+  'control.speedLoopDivider': { unit: '', doc: 'speed loop runs every N current periods, default 1' },
+
+  scenario: { unit: '', doc: 'what the simulation does' },
+  'scenario.duration_s': { unit: 's', doc: 'simulated time' },
+  'scenario.initialSpeed_rpm': { unit: 'rpm', doc: 'speed at t = 0, default 0' },
+  'scenario.speedSteps': { unit: '', doc: `speed reference steps [{t_s, speed_rpm}], at most ${MAX_LIST_ENTRIES}` },
+  'scenario.speedSteps[]': { unit: '', doc: '{t_s, speed_rpm}' },
+  'scenario.speedSteps[].t_s': { unit: 's', doc: 'time of the step' },
+  'scenario.speedSteps[].speed_rpm': { unit: 'rpm', doc: 'new speed reference' },
+  'scenario.torqueSteps': { unit: '', doc: `torque reference steps (torque mode) [{t_s, torque_Nm}], at most ${MAX_LIST_ENTRIES}` },
+  'scenario.torqueSteps[]': { unit: '', doc: '{t_s, torque_Nm}' },
+  'scenario.torqueSteps[].t_s': { unit: 's', doc: 'time of the step' },
+  'scenario.torqueSteps[].torque_Nm': { unit: 'N·m', doc: 'new torque reference' },
+  'scenario.loadSteps': { unit: '', doc: `load torque steps [{t_s, torque_Nm}], at most ${MAX_LIST_ENTRIES}` },
+  'scenario.loadSteps[]': { unit: '', doc: '{t_s, torque_Nm}' },
+  'scenario.loadSteps[].t_s': { unit: 's', doc: 'time of the step' },
+  'scenario.loadSteps[].torque_Nm': { unit: 'N·m', doc: 'new load torque (opposes motoring)' },
+  'scenario.loadRamps': { unit: '', doc: `load torque ramps [{t_s, duration_s, torque_Nm}], at most ${MAX_LIST_ENTRIES}` },
+  'scenario.loadRamps[]': { unit: '', doc: 'from the load at t_s, linearly to torque_Nm over duration_s' },
+  'scenario.loadRamps[].t_s': { unit: 's', doc: 'start of the ramp' },
+  'scenario.loadRamps[].duration_s': { unit: 's', doc: 'length of the ramp' },
+  'scenario.loadRamps[].torque_Nm': { unit: 'N·m', doc: 'load torque at the end of the ramp' },
+  'scenario.loadModel': { unit: '', doc: 'speed-dependent load {kind: "quadratic", k}, T = k omega_m²' },
+  'scenario.loadModel.kind': { unit: '', doc: '"quadratic"' },
+  'scenario.loadModel.k': { unit: 'N·m·s²/rad²', doc: 'fan or pump coefficient' },
+  'scenario.loadInertia': { unit: 'kg·m²', doc: 'inertia of the load, default 0' },
+  'scenario.currentStep': { unit: '', doc: 'locked-rotor current step {id_A, iq_A, t_s} (current-step mode)' },
+  'scenario.currentStep.id_A': { unit: 'A', doc: 'd-axis current reference after the step (A peak)' },
+  'scenario.currentStep.iq_A': { unit: 'A', doc: 'q-axis current reference after the step (A peak)' },
+  'scenario.currentStep.t_s': { unit: 's', doc: 'time of the step' },
+};
+
+/** A key's documentation as the schema describes it: "meaning [unit]", or the meaning alone. */
+export function keyDoc(path: string): string {
+  const k = KEYS[path];
+  if (!k) throw new Error(`no KEYS entry for ${path}`);
+  return k.unit ? `${k.doc} [${k.unit}]` : k.doc;
+}
