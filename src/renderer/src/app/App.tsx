@@ -8,7 +8,7 @@ import type { MenuEvent } from '../../../types/bridge';
 import { DEMOS, DEFAULT_DEMO } from './demos';
 import { newDraft, normalisePath, type Json } from '../state/draft';
 import { FormContext, FormStore } from '../state/form-store';
-import { useAfterPaint } from './after-paint';
+import { useAfterPaint } from '../state/after-paint';
 import { InputPanel } from '../views/inputs/InputPanel';
 import { computeEnvelopes, computeVerdicts, pointVerdict, DEFAULT_ENVELOPE_OPTIONS, type EnvelopeOptions, type EnvelopeResults, type Results, type Verdicts } from '../state/compute';
 import { exportAndTell, fileBridge, setExportNotifier } from '../state/file-bridge';

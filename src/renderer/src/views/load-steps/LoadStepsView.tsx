@@ -7,7 +7,7 @@ import type { Finding } from '../../../../core/base/finding';
 import type { LoadStepResult } from '../../../../core/simulation/simulate';
 import { SQRT2 } from '../../../../core/base/units';
 import { axis, baseLayout, Plot, readTheme } from '../../components/Plot';
-import { Section } from '../inputs/Inputs';
+import { Section } from '../../components/Section';
 import { CONTROL_SUMMARY, InputSummary, ScenarioSummary } from '../../components/input-summary';
 import { jumpToField } from '../../components/jump-to-field';
 import { rpmText, sig3, speedError, speedErrorRange } from '../../components/trace-scales';
