@@ -160,7 +160,6 @@ export function App() {
       if (timer) clearTimeout(timer);
     };
   }, []);
-  const [computeError, setComputeError] = useState<string | null>(null);
 
   // the window title names the file and marks unsaved edits; leaving with unsaved edits asks first
   // (the browser's own question; on the desktop main asks, see src/main/unsaved-prompt.ts)
@@ -219,19 +218,20 @@ export function App() {
     };
   }, [store]);
 
-  const envelopes: EnvelopeResults | null = useMemo(() => {
-    if (!lastGood) return null;
+  // the curves, or why the engine could not compute them (derived here, never set as state)
+  const computed = useMemo((): { envelopes: EnvelopeResults | null; error: string | null } => {
+    if (!lastGood) return { envelopes: null, error: null };
     try {
       performance.mark('tw-compute');
       const r = computeEnvelopes(lastGood, envOpts);
       performance.mark('tw-computed');
-      setComputeError(null);
-      return r;
+      return { envelopes: r, error: null };
     } catch (e) {
-      setComputeError(isInputError(e) ? e.message : `The engine could not compute this project: ${e instanceof Error ? e.message : String(e)}`);
-      return null;
+      return { envelopes: null, error: isInputError(e) ? e.message : `The engine could not compute this project: ${e instanceof Error ? e.message : String(e)}` };
     }
   }, [lastGood, envOpts]);
+  const envelopes = computed.envelopes;
+  const computeError = computed.error;
 
   // verdicts (sizing searches) follow the curves: computed after the redraw, so typing stays quick
   const [verdicts, setVerdicts] = useState<Verdicts | null>(() => (envelopes ? safeVerdicts(envelopes) : null));
