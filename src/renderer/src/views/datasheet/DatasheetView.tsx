@@ -7,7 +7,7 @@ import { pointVerdict, type Results } from '../../state/compute';
 import { torqueSpeedFigure } from '../../components/torque-speed-figure';
 import { Cautions, isHazard } from '../../components/cautions';
 import { envelopeCsv } from '../../components/exports';
-import { exportAndTell } from '../../state/file-bridge';
+import { useExporter } from '../../state/exporter';
 import { amps, fixed, num, rpm } from '../../components/format';
 import { describeLimits } from '../../../../core/drive/current-limits';
 import { exportDatasheetHtml, exportPlotImage } from '../../components/image-export';
@@ -25,7 +25,9 @@ function peakOf(a: Float64Array, feasible: Uint8Array): number {
 /** An electrical time constant L/Rs, ms; with Rs = 0 it has no bound. */
 export const tau = (s: number): string => (Number.isFinite(s) && s >= 0 ? `${num(s * 1e3)} ms` : 'unbounded (Rs = 0)');
 
-export const DatasheetView = memo(function DatasheetView({ results, theme }: { results: Results; theme: 'light' | 'dark' }) {
+/** `tableStep`: the step of the envelope tables (rpm; undefined: the default), kept by the app across views. */
+export const DatasheetView = memo(function DatasheetView({ results, theme, tableStep, setTableStep }: { results: Results; theme: 'light' | 'dark'; tableStep: number | undefined; setTableStep: (step_rpm: number | undefined) => void }) {
+  const exporter = useExporter();
   const plotEl = useRef<HTMLDivElement | null>(null);
   const p = results.project;
   const fig = useMemo(() => torqueSpeedFigure(results, theme, { peak: true, continuous: true, hot: true, cold: true, generating: true }, false, 330), [results, theme]);
@@ -36,7 +38,7 @@ export const DatasheetView = memo(function DatasheetView({ results, theme }: { r
   const s = results.safety;
   const exportImage = async (format: 'png' | 'svg') => {
     if (!plotEl.current) return;
-    await exportPlotImage(plotEl.current, format, 'datasheet-envelope', p);
+    await exportPlotImage(plotEl.current, format, 'datasheet-envelope', p, exporter);
   };
   const rows: Array<[string, string]> = [
     ['pole pairs', `${p.hot.polePairs} (${2 * p.hot.polePairs} poles)`],
@@ -70,9 +72,9 @@ export const DatasheetView = memo(function DatasheetView({ results, theme }: { r
         <button className="btn" onClick={() => window.print()} data-testid="print">Print…</button>
         <button className="btn" onClick={() => void exportImage('png')}>Plot PNG</button>
         <button className="btn" onClick={() => void exportImage('svg')}>Plot SVG</button>
-        <button className="btn" onClick={() => void exportAndTell('envelope-csv', () => envelopeCsv(results), 'envelope.csv')}>Envelope CSV</button>
-        <button className="btn" data-testid="export-datasheet" onClick={() => void exportDatasheetHtml(results)}>Datasheet HTML</button>
-        <TableStepField speedMax={results.speedMax} />
+        <button className="btn" onClick={() => void exporter.exportAndTell('envelope-csv', () => envelopeCsv(results), 'envelope.csv')}>Envelope CSV</button>
+        <button className="btn" data-testid="export-datasheet" onClick={() => void exportDatasheetHtml(results, tableStep, exporter)}>Datasheet HTML</button>
+        <TableStepField speedMax={results.speedMax} step={tableStep} onStep={setTableStep} />
       </div>
       <div className="sheet-head">
         <h2>{p.name || 'Unnamed project'}</h2>

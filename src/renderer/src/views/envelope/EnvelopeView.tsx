@@ -11,7 +11,7 @@ import type { OperatingPoint } from '../../../../core/steady-state/operating-poi
 import { axis, baseLayout, CURVE, Plot, readTheme, REGION_FILL } from '../../components/Plot';
 import { planeCurves, pointVerdict, type EnvelopeOptions, type Results } from '../../state/compute';
 import { envelopeCsv } from '../../components/exports';
-import { exportAndTell } from '../../state/file-bridge';
+import { useExporter } from '../../state/exporter';
 import { exportPlotImage } from '../../components/image-export';
 import { num } from '../../components/format';
 import { Cautions } from '../../components/cautions';
@@ -182,6 +182,7 @@ export function planeFigure(r: Results, theme: 'light' | 'dark', speeds: number[
 }
 
 export const EnvelopeView = memo(function EnvelopeView({ results, opts, setOpts, theme }: { results: Results; opts: EnvelopeOptions; setOpts: (o: EnvelopeOptions) => void; theme: 'light' | 'dark' }) {
+  const exporter = useExporter();
   const [show, setShow] = useState<Show>({ peak: true, continuous: true, hot: true, cold: true, generating: true });
   const [speedText, setSpeedText] = useState<string | null>(null);
   const [op, setOp] = useState<OperatingPoint | null>(null);
@@ -262,7 +263,7 @@ export const EnvelopeView = memo(function EnvelopeView({ results, opts, setOpts,
 
   const exportImage = async (format: 'png' | 'svg') => {
     if (!envEl.current) return;
-    await exportPlotImage(envEl.current, format, 'envelope', results.project);
+    await exportPlotImage(envEl.current, format, 'envelope', results.project, exporter);
   };
 
   const toggle = (k: keyof Show) => setShow((s) => ({ ...s, [k]: !s[k] }));
@@ -308,7 +309,7 @@ export const EnvelopeView = memo(function EnvelopeView({ results, opts, setOpts,
         <span className="spacer" style={{ flex: 1 }} />
         <button className="btn small" onClick={() => void exportImage('png')} data-testid="export-png">PNG</button>
         <button className="btn small" onClick={() => void exportImage('svg')} data-testid="export-svg">SVG</button>
-        <button className="btn small" data-testid="export-csv" onClick={() => void exportAndTell('envelope-csv', () => envelopeCsv(results), 'envelope.csv')}>
+        <button className="btn small" data-testid="export-csv" onClick={() => void exporter.exportAndTell('envelope-csv', () => envelopeCsv(results), 'envelope.csv')}>
           CSV
         </button>
       </div>
