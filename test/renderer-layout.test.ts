@@ -97,6 +97,13 @@ describe('renderer layout', () => {
     expect(findCycle(new Map([['a', ['b']], ['b', ['c']], ['c', []]]))).toBeNull();
   });
 
+  it('every relative import names a file that exists', () => {
+    // common practice (no source): an import the checks cannot follow would escape them
+    const missing: string[] = [];
+    for (const [f, deps] of graph) for (const d of deps) if (!existsSync(d) || !statSync(d).isFile()) missing.push(`${rel(f)} -> ${rel(d)}`);
+    expect(missing).toEqual([]);
+  });
+
   it('no import cycles between files', () => {
     // common practice (no source): an acyclic module graph loads in one order
     const c = findCycle(graph);
