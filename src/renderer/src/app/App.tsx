@@ -1,25 +1,25 @@
 // Torquewise main window: the input side on the left, four views on the right.
 import { useCallback, useEffect, useMemo, useRef, useState } from 'react';
-import { checkProject, listCapProblem, parseProject } from '../../../core/project/schema';
+import { checkProject, listCapProblem } from '../../../core/project/schema';
 import { migrateProject } from '../../../core/project/migrate';
-import { parseProjectJson, resolveProject, type ResolvedProject } from '../../../core/project/project';
+import { loadProjectText, parseProjectJson, type ResolvedProject } from '../../../core/project/project';
 import { isInputError } from '../../../core/base/errors';
 import type { MenuEvent } from '../../../types/bridge';
 import { DEMOS, DEFAULT_DEMO } from './demos';
 import { newDraft, normalisePath, type Json } from '../state/draft';
 import { FormContext, FormStore } from '../state/form-store';
-import { useAfterPaint } from './after-paint';
+import { useAfterPaint } from '../state/after-paint';
 import { InputPanel } from '../views/inputs/InputPanel';
 import { computeEnvelopes, computeVerdicts, pointVerdict, DEFAULT_ENVELOPE_OPTIONS, type EnvelopeOptions, type EnvelopeResults, type Results, type Verdicts } from '../state/compute';
-import { exportAndTell, fileBridge, setExportNotifier } from '../state/file-bridge';
+import { createFileBridge } from '../state/file-bridge';
+import { createExporter, ExporterContext } from '../state/exporter';
+import type { SimDone } from '../state/simulation-run';
 import { EnvelopeView } from '../views/envelope/EnvelopeView';
 import { LoadStepsView } from '../views/load-steps/LoadStepsView';
 import { TuningView } from '../views/tuning/TuningView';
 import { DatasheetView } from '../views/datasheet/DatasheetView';
 import { envelopeCsv, tracesCsv } from '../components/exports';
-import { lastSimulation } from '../views/load-steps/LoadStepsView';
 import { exportDatasheetHtml, exportVisiblePlot } from '../components/image-export';
-import { defaultedInputFindings } from '../../../core/project/defaulted-inputs';
 import { limitPhrase } from '../../../core/reports/phrases';
 import { FieldNotesContext, FindingsStrip, findingsKey, notesByPath } from '../components/field-notes';
 import { num } from '../components/format';
@@ -53,42 +53,33 @@ function inputIssue(e: unknown): Record<string, string> {
 }
 
 /**
- * Validate and resolve the form's tree, once per edit: one schema pass when the tree is valid (the
- * full list of problems is gathered only when it is not). A file from a newer format version is
- * read as far as this version understands it and marked read-only.
+ * Validate and resolve the form's tree, once per edit, as every reader loads a project (core
+ * loadProjectText: JSON, migration, schema, resolution; a file from a newer format version is read
+ * as far as this version understands it and marked read-only). When it cannot be loaded, the
+ * problems are gathered field by field: the schema's full list on the migrated tree, else the one
+ * problem the loading named.
  */
 function check(tree: Json): Checked {
-  let json: unknown = tree;
-  let readOnly = false;
-  let migrated: ResolvedProject['findings'] = [];
   try {
-    const m = migrateProject(tree);
-    json = m.json;
-    readOnly = m.readOnly;
-    migrated = m.findings;
+    return { issues: {}, resolved: loadProjectText(JSON.stringify(tree)) };
+  } catch (e) {
+    return { issues: fieldProblems(tree, e), resolved: null };
+  }
+}
+
+function fieldProblems(tree: Json, e: unknown): Record<string, string> {
+  let json: unknown = tree;
+  try {
+    json = migrateProject(tree).json;
   } catch {
     // not an object, or a version with no path: the schema names the problem below
   }
-  let file: ReturnType<typeof parseProject>;
-  try {
-    file = parseProject(json);
-  } catch {
-    const issues: Record<string, string> = {};
-    for (const pr of checkProject(json)) {
-      const p = normalisePath(pr.path);
-      if (!issues[p]) issues[p] = pr.message;
-    }
-    if (Object.keys(issues).length) return { issues, resolved: null };
-    return { issues: { file: 'could not be read' }, resolved: null };
+  const issues: Record<string, string> = {};
+  for (const pr of checkProject(json)) {
+    const p = normalisePath(pr.path);
+    if (!issues[p]) issues[p] = pr.message;
   }
-  try {
-    const rp = resolveProject(file);
-    if (migrated.length) rp.findings.unshift(...migrated);
-    rp.findings.push(...defaultedInputFindings(json));
-    return { issues: {}, resolved: readOnly ? { ...rp, readOnly: true } : rp };
-  } catch (e) {
-    return { issues: inputIssue(e), resolved: null };
-  }
+  return Object.keys(issues).length ? issues : inputIssue(e);
 }
 
 declare global {
@@ -147,20 +138,24 @@ export function App() {
   const [envOpts, setEnvOpts] = useState<EnvelopeOptions>(DEFAULT_ENVELOPE_OPTIONS);
   const [view, setView] = useState<View>('envelope');
   const [notice, setNotice] = useState<string | null>(null);
-  // every export says on the status line how it went
-  useEffect(() => {
-    let timer: ReturnType<typeof setTimeout> | null = null;
-    setExportNotifier((message, done) => {
+  // this window's file bridge (Electron's or the browser's), and its exports, each of which says on
+  // the status line how it went (a success for a while, a failure until replaced)
+  const [bridge] = useState(createFileBridge);
+  const noticeTimer = useRef<ReturnType<typeof setTimeout> | null>(null);
+  const [exporter] = useState(() =>
+    createExporter(bridge, (message, done) => {
       setNotice(message);
-      if (timer) clearTimeout(timer);
-      timer = done ? setTimeout(() => setNotice((cur) => (cur === message ? null : cur)), EXPORT_NOTICE_MS) : null;
-    });
-    return () => {
-      setExportNotifier(null);
-      if (timer) clearTimeout(timer);
-    };
+      if (noticeTimer.current) clearTimeout(noticeTimer.current);
+      noticeTimer.current = done ? setTimeout(() => setNotice((cur) => (cur === message ? null : cur)), EXPORT_NOTICE_MS) : null;
+    }),
+  );
+  useEffect(() => () => {
+    if (noticeTimer.current) clearTimeout(noticeTimer.current);
   }, []);
-  const [computeError, setComputeError] = useState<string | null>(null);
+  // the last finished load-step run and the datasheet's table step: kept here, so they survive
+  // switching views and the Export menu reaches them
+  const [simulation, setSimulation] = useState<SimDone | null>(null);
+  const [tableStep, setTableStep] = useState<number | undefined>(undefined);
 
   // the window title names the file and marks unsaved edits; leaving with unsaved edits asks first
   // (the browser's own question; on the desktop main asks, see src/main/unsaved-prompt.ts)
@@ -210,28 +205,29 @@ export function App() {
       // autosave of the edits for recovery after a crash or a closed tab (a file beside the user
       // data on the desktop, local storage in a browser)
       if (save !== null) clearTimeout(save);
-      save = setTimeout(() => void fileBridge().recoveryWrite(JSON.stringify(store.getDraft().tree, null, 2), pathRef.current), 1500);
+      save = setTimeout(() => void bridge.recoveryWrite(JSON.stringify(store.getDraft().tree, null, 2), pathRef.current), 1500);
     });
     return () => {
       off();
       if (h !== null) clearTimeout(h);
       if (save !== null) clearTimeout(save);
     };
-  }, [store]);
+  }, [store, bridge]);
 
-  const envelopes: EnvelopeResults | null = useMemo(() => {
-    if (!lastGood) return null;
+  // the curves, or why the engine could not compute them (derived here, never set as state)
+  const computed = useMemo((): { envelopes: EnvelopeResults | null; error: string | null } => {
+    if (!lastGood) return { envelopes: null, error: null };
     try {
       performance.mark('tw-compute');
       const r = computeEnvelopes(lastGood, envOpts);
       performance.mark('tw-computed');
-      setComputeError(null);
-      return r;
+      return { envelopes: r, error: null };
     } catch (e) {
-      setComputeError(isInputError(e) ? e.message : `The engine could not compute this project: ${e instanceof Error ? e.message : String(e)}`);
-      return null;
+      return { envelopes: null, error: isInputError(e) ? e.message : `The engine could not compute this project: ${e instanceof Error ? e.message : String(e)}` };
     }
   }, [lastGood, envOpts]);
+  const envelopes = computed.envelopes;
+  const computeError = computed.error;
 
   // verdicts (sizing searches) follow the curves: computed after the redraw, so typing stays quick
   const [verdicts, setVerdicts] = useState<Verdicts | null>(() => (envelopes ? safeVerdicts(envelopes) : null));
@@ -277,7 +273,6 @@ export function App() {
     return true;
   }, [store]);
 
-  const bridge = fileBridge();
   pathRef.current = source.path;
   const readOnly = source.readOnly || lastGood?.readOnly === true;
   const projectText = () => JSON.stringify(store.getDraft().tree, null, 2) + '\n';
@@ -351,22 +346,22 @@ export function App() {
         void doSave(true);
         break;
       case 'export:envelope-csv':
-        if (results) void exportAndTell('envelope-csv', () => envelopeCsv(results), 'envelope.csv');
+        if (results) void exporter.exportAndTell('envelope-csv', () => envelopeCsv(results), 'envelope.csv');
         break;
       case 'export:traces-csv': {
-        const sim = lastSimulation();
-        if (sim) void exportAndTell('traces-csv', () => tracesCsv(sim.traces), 'traces.csv');
+        const sim = simulation;
+        if (sim) void exporter.exportAndTell('traces-csv', () => tracesCsv(sim.traces), 'traces.csv');
         else setNotice('Run a load-step test first: there are no traces to export.');
         break;
       }
       case 'export:plot-png':
       case 'export:plot-svg':
         if (!results) setNotice('No plot on this view to export.');
-        else void exportVisiblePlot(e.name === 'export:plot-png' ? 'png' : 'svg', results.project).then((ok) => ok || setNotice('No plot on this view to export.'));
+        else void exportVisiblePlot(e.name === 'export:plot-png' ? 'png' : 'svg', results.project, exporter).then((ok) => ok || setNotice('No plot on this view to export.'));
         break;
       case 'export:datasheet':
         setView('datasheet');
-        if (results) void exportDatasheetHtml(results).then((ok) => ok || setNotice('The datasheet could not be exported.'));
+        if (results) void exportDatasheetHtml(results, tableStep, exporter).then((ok) => ok || setNotice('The datasheet could not be exported.'));
         else setNotice('The datasheet could not be exported: the project has no valid results yet.');
         break;
     }
@@ -386,6 +381,7 @@ export function App() {
   const notes = useMemo(() => notesByPath(inputFindings), [fKey]);
 
   return (
+    <ExporterContext.Provider value={exporter}>
     <FormContext.Provider value={store}>
       <FieldNotesContext.Provider value={notes}>
       <div className="app">
@@ -462,11 +458,11 @@ export function App() {
               ) : view === 'envelope' ? (
                 <EnvelopeView results={results} opts={envOpts} setOpts={setEnvOpts} theme={theme} />
               ) : view === 'loadsteps' ? (
-                <LoadStepsView project={results.project} theme={theme} stale={stale} />
+                <LoadStepsView project={results.project} theme={theme} stale={stale} result={simulation} setResult={setSimulation} />
               ) : view === 'tuning' ? (
                 <TuningView project={results.project} theme={theme} />
               ) : (
-                <DatasheetView results={results} theme={theme} />
+                <DatasheetView results={results} theme={theme} tableStep={tableStep} setTableStep={setTableStep} />
               )}
             </div>
           </main>
@@ -474,6 +470,7 @@ export function App() {
       </div>
       </FieldNotesContext.Provider>
     </FormContext.Provider>
+    </ExporterContext.Provider>
   );
 }
 

@@ -2,10 +2,10 @@
 import { useState } from 'react';
 import { defaultTableStep, parseTableStep } from '../../../core/steady-state/envelope-table';
 import { RAD_S_TO_RPM } from '../../../core/base/units';
-import { datasheetPrefs } from './image-export';
 
-export function TableStepField({ speedMax }: { speedMax: number }) {
-  const [text, setText] = useState(datasheetPrefs.tableStep_rpm === undefined ? '' : String(datasheetPrefs.tableStep_rpm));
+/** `step`: the step the app keeps (rpm; undefined: the default), `onStep` sets it. */
+export function TableStepField({ speedMax, step, onStep }: { speedMax: number; step: number | undefined; onStep: (step_rpm: number | undefined) => void }) {
+  const [text, setText] = useState(step === undefined ? '' : String(step));
   const top = speedMax * RAD_S_TO_RPM;
   const parsed = parseTableStep(text, top);
   const message = 'message' in parsed ? parsed.message : null;
@@ -22,7 +22,7 @@ export function TableStepField({ speedMax }: { speedMax: number }) {
           setText(e.target.value);
           const r = parseTableStep(e.target.value, top);
           // a bad step is kept as typed: the export then refuses it with the same message
-          datasheetPrefs.tableStep_rpm = 'step' in r ? r.step : Number(e.target.value);
+          onStep('step' in r ? r.step : Number(e.target.value));
         }}
       />{' '}
       rpm{message ? <span className="fail"> {message}</span> : null}

@@ -6,7 +6,8 @@ import type { ResolvedProject } from '../../../core/project/project';
 import type { DatasheetResults } from '../../../core/reports/datasheet-results';
 import { datasheetHtml } from '../../../core/reports/datasheet-html';
 import { figureConditions, isoDate } from '../../../core/reports/figure-conditions';
-import { dataUrlToBytes, exportAndTell, svgDataUrlToText, tell } from '../state/file-bridge';
+import { dataUrlToBytes, svgDataUrlToText } from '../state/file-bridge';
+import type { Exporter } from '../state/exporter';
 import { EXPORT_SIZE, exportLayout } from './figure-export-layout';
 
 const PLOTS = ['envelope-plot', 'datasheet-plot', 'traces-plot', 'bode-plot', 'plane-plot'];
@@ -22,11 +23,11 @@ const PLOT_TITLES: Record<string, string> = {
 };
 
 /** The first plot shown on the current view, exported as PNG or SVG with title and conditions. */
-export async function exportVisiblePlot(format: 'png' | 'svg', project: ResolvedProject): Promise<boolean> {
+export async function exportVisiblePlot(format: 'png' | 'svg', project: ResolvedProject, exporter: Exporter): Promise<boolean> {
   const el = PLOTS.map((id) => document.querySelector<HTMLElement>(`[data-testid="${id}"]`)).find((e) => e !== null);
   if (!el) return false;
   const name = (el.dataset.testid ?? 'plot').replace('-plot', '');
-  await exportPlotImage(el, format, name, project);
+  await exportPlotImage(el, format, name, project, exporter);
   return true;
 }
 
@@ -38,7 +39,7 @@ export const figureTitle = (project: ResolvedProject, name: string): string =>
  * A plot element as a PNG or SVG file named `name`, through plotly's image API, drawn with a title,
  * its legend and the conditions (project, bus, temperatures, current limits, date, version); says how it went.
  */
-export function exportPlotImage(el: HTMLElement, format: 'png' | 'svg', name: string, project: ResolvedProject): Promise<boolean> {
+export function exportPlotImage(el: HTMLElement, format: 'png' | 'svg', name: string, project: ResolvedProject, exporter: Exporter): Promise<boolean> {
   const image = async () => {
     const gd = el as unknown as { data?: Data[]; layout?: Partial<Layout> };
     const layout = exportLayout(gd.layout ?? {}, figureTitle(project, name), figureConditions(project, { date: isoDate(new Date()) }));
@@ -46,22 +47,22 @@ export function exportPlotImage(el: HTMLElement, format: 'png' | 'svg', name: st
     return Plotly.toImage(fig, { format, width: EXPORT_SIZE.width, height: EXPORT_SIZE.height, scale: format === 'png' ? 2 : 1 });
   };
   return format === 'png'
-    ? exportAndTell('plot-png', async () => dataUrlToBytes(await image()), `${name}.png`)
-    : exportAndTell('plot-svg', async () => svgDataUrlToText(await image()), `${name}.svg`);
+    ? exporter.exportAndTell('plot-png', async () => dataUrlToBytes(await image()), `${name}.png`)
+    : exporter.exportAndTell('plot-svg', async () => svgDataUrlToText(await image()), `${name}.svg`);
 }
 
-/** The step of the datasheet's envelope tables the user set (rpm), or undefined for the default. */
-export const datasheetPrefs: { tableStep_rpm: number | undefined } = { tableStep_rpm: undefined };
-
-/** The datasheet as one self-contained HTML file, built by core from the results on screen. */
-export async function exportDatasheetHtml(results: DatasheetResults): Promise<boolean> {
+/**
+ * The datasheet as one self-contained HTML file, built by core from the results on screen, with the
+ * step of its envelope tables the user set (rpm; undefined: the default round step).
+ */
+export async function exportDatasheetHtml(results: DatasheetResults, tableStep_rpm: number | undefined, exporter: Exporter): Promise<boolean> {
   let html: string;
   try {
-    html = datasheetHtml(results, { date: isoDate(new Date()), tableStep_rpm: datasheetPrefs.tableStep_rpm, stepField: 'table step' });
+    html = datasheetHtml(results, { date: isoDate(new Date()), tableStep_rpm, stepField: 'table step' });
   } catch (e) {
-    tell(`The datasheet could not be exported: ${e instanceof Error ? e.message : String(e)}. Nothing was written.`);
+    exporter.tell(`The datasheet could not be exported: ${e instanceof Error ? e.message : String(e)}. Nothing was written.`);
     return true; // said already
   }
   const base = (results.project.name.trim() || 'datasheet').replace(/[^A-Za-z0-9._-]+/g, '-').replace(/^-+|-+$/g, '').slice(0, 60) || 'datasheet';
-  return exportAndTell('datasheet', () => html, `${base}-datasheet.html`);
+  return exporter.exportAndTell('datasheet', () => html, `${base}-datasheet.html`);
 }

@@ -1,12 +1,12 @@
 // Everything the views show, computed by src/core from one valid resolved project.
 // No physics here: this module calls the engine and arranges its answers for plotting.
 import type { ResolvedProject } from '../../../core/project/project';
-import { computeEnvelope, type Envelope } from '../../../core/steady-state/envelope';
+import type { Envelope } from '../../../core/steady-state/envelope';
 import { mtpaCurrents, mtpvPoint, currentOnVoltageBoundary } from '../../../core/steady-state/mtpa';
-import { sizeDrive, type SizingResult } from '../../../core/steady-state/sizing';
-import { safetyReport, type SafetyReport } from '../../../core/steady-state/safety';
-import { deriveConstants } from '../../../core/machine/nameplate';
-import { projectSpeedRange } from '../../../core/reports/speed-range';
+import type { SizingResult } from '../../../core/steady-state/sizing';
+import type { SafetyReport } from '../../../core/steady-state/safety';
+import type { DerivedConstants } from '../../../core/machine/nameplate';
+import { datasheetCurves, datasheetVerdicts } from '../../../core/reports/datasheet-parts';
 import { RPM_TO_RAD_S } from '../../../core/base/units';
 import type { DqMachine } from '../../../core/machine/dq-machine';
 
@@ -38,8 +38,8 @@ export interface EnvelopeResults {
   curves: Curve[];
   /** the reference curve: hot magnet, peak current, motoring */
   main: Envelope;
-  constantsHot: ReturnType<typeof deriveConstants>;
-  constantsCold: ReturnType<typeof deriveConstants>;
+  constantsHot: DerivedConstants;
+  constantsCold: DerivedConstants;
   compute_ms: number;
 }
 
@@ -68,14 +68,12 @@ export function pointVerdict(v: Pick<Verdicts, 'sizing' | 'sizingCold'>, i: numb
   return { met: hot && cold, fails: hot && cold ? null : !hot && !cold ? 'both' : hot ? 'cold' : 'hot' };
 }
 
+/** The sizing verdicts and the safety figures, by the core's own rule (the CLI's datasheet computes them the same way). */
 export function computeVerdicts(p: ResolvedProject, speedMax: number): Verdicts {
   const t0 = performance.now();
-  const sizing = sizeDrive(p.hot, p.inverter, p.requirements, p.currentLimits);
-  const sizingCold = sizeDrive(p.cold, p.inverter, p.requirements, p.currentLimits);
-  // the motor's maximum speed when the file gives one, else the plotted top speed
-  const safetySpeed = p.rated.maxSpeed_rad_s ?? speedMax;
-  const safety = safetyReport(p.cold, p.inverter, safetySpeed, p.rated.maxSpeed_rad_s !== undefined);
-  return { verdictsFor: p, sizing, sizingCold, safety, safetySpeed, verdict_ms: performance.now() - t0 };
+  // safety at the motor's maximum speed when the file gives one, else at the plotted top speed
+  const v = datasheetVerdicts(p, speedMax);
+  return { verdictsFor: p, ...v, verdict_ms: performance.now() - t0 };
 }
 
 export function computeResults(p: ResolvedProject, opts: EnvelopeOptions): Results {
@@ -85,28 +83,19 @@ export function computeResults(p: ResolvedProject, opts: EnvelopeOptions): Resul
 
 export function computeEnvelopes(p: ResolvedProject, opts: EnvelopeOptions): EnvelopeResults {
   const t0 = performance.now();
-  // the project's range (one rule with the CLI) unless the user typed a top speed
-  const speedMax = opts.speedMax ?? projectSpeedRange(p).speedMax;
-  const curves: Curve[] = [];
-  for (const current of ['peak', 'continuous'] as const) {
-    const lim = current === 'peak' ? p.peak : p.continuous;
-    for (const corner of ['hot', 'cold'] as const) {
-      const m = corner === 'hot' ? p.hot : p.cold;
-      for (const direction of ['motoring', 'generating'] as const) {
-        const env = computeEnvelope(m, lim, { points: opts.points, speedMax, direction });
-        curves.push({ key: curveKey(corner, current, direction), corner, current, direction, env });
-      }
-    }
-  }
+  // the core's curves (the CLI's datasheet computes the same): the project's range (one rule with
+  // the CLI) unless the user typed a top speed
+  const d = datasheetCurves(p, { points: opts.points, speedMax: opts.speedMax ?? undefined });
+  const curves: Curve[] = d.curves.map((c) => ({ key: curveKey(c.corner, c.current, c.direction), ...c }));
   const main = curves.find((c) => c.key === curveKey('hot', 'peak', 'motoring'))!.env;
   return {
     project: p,
-    speedMax,
+    speedMax: d.speedMax,
     points: opts.points,
     curves,
     main,
-    constantsHot: deriveConstants(p.hot),
-    constantsCold: deriveConstants(p.cold),
+    constantsHot: d.constantsHot,
+    constantsCold: d.constantsCold,
     compute_ms: performance.now() - t0,
   };
 }

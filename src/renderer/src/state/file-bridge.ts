@@ -143,15 +143,10 @@ function electronBridge(b: TorquewiseBridge): FileBridge {
   };
 }
 
-let bridge: FileBridge | null = null;
-
-/** The bridge for this window: Electron's when the preload exposed it, the browser's otherwise. */
-export function fileBridge(): FileBridge {
-  if (!bridge) {
-    const b = typeof window !== 'undefined' ? window.torquewise : undefined;
-    bridge = b ? electronBridge(b) : browserBridge();
-  }
-  return bridge;
+/** A bridge for this window: Electron's when the preload exposed it, the browser's otherwise (the app makes one and keeps it). */
+export function createFileBridge(): FileBridge {
+  const b = typeof window !== 'undefined' ? window.torquewise : undefined;
+  return b ? electronBridge(b) : browserBridge();
 }
 
 /** PNG data URL (from plotly's image API) to bytes. */
@@ -170,38 +165,3 @@ export function svgDataUrlToText(url: string): string {
   const body = url.slice(comma + 1);
   return head.includes('base64') ? atob(body) : decodeURIComponent(body);
 }
-
-// ---- exports that say how they went
-
-/** `done`: a success (a passing notice); otherwise a failure that stays until replaced */
-type Notifier = (message: string, done: boolean) => void;
-let notifier: Notifier | null = null;
-
-/** Say something on the window's status line (no-op before the app has set a notifier). */
-export function tell(message: string): void {
-  notifier?.(message, false);
-}
-
-/** The window's status line, where every export says how it went (set once by the app). */
-export function setExportNotifier(n: Notifier | null): void {
-  notifier = n;
-}
-
-/**
- * Export through the bridge and say how it went: the file written, the reason it was not (a
- * folder that refuses, a full disk), or why the image or text could not be made. A cancelled save
- * dialog says nothing. `make` builds the data; its failure is reported the same way.
- */
-export async function exportAndTell(kind: ExportKind, make: () => string | Uint8Array | Promise<string | Uint8Array>, suggestedName: string): Promise<boolean> {
-  try {
-    const data = await make();
-    const r = await fileBridge().export(kind, data, suggestedName);
-    if (r.ok) notifier?.(r.warning ?? `Exported ${r.path.replace(/^.*[\\/]/, '')}.`, true);
-    else if (!r.canceled) notifier?.(r.message, false);
-    return r.ok;
-  } catch (e) {
-    notifier?.(`The export of ${suggestedName} failed: ${e instanceof Error ? e.message : String(e)}. Nothing was written.`, false);
-    return false;
-  }
-}
-

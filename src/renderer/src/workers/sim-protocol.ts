@@ -1,30 +1,23 @@
-// Messages between the window and the simulation worker.
+// Messages between the window and the simulation worker, typed by the engine's own results: the
+// window sends the project text, the worker loads it as every reader does (src/core/project
+// loadProjectText: JSON with the duplicate-key check, migration, schema, resolution) and answers
+// with progress, the core's SimulationResult and findings, or the reason it could not run.
 import type { Finding } from '../../../core/base/finding';
-import type { LoadStepResult } from '../../../core/simulation/simulate';
+import type { SimulationResult } from '../../../core/simulation/simulate';
 
-export interface SimRequest {
-  /** the project file (already valid) */
-  file: unknown;
+export type SimRequest = {
+  kind: 'run';
+  /** the project as JSON text (the project shown, already valid) */
+  projectText: string;
+  /** samples kept per trace */
   maxPoints: number;
-}
-
-export interface SimEvent {
-  kind: string;
-  t_s: number;
-  tEnd_s?: number;
-  message: string;
-}
+};
 
 export type SimReply =
   | { kind: 'progress'; fraction: number }
   | {
       kind: 'done';
-      metrics: Record<string, unknown>;
-      loadSteps: LoadStepResult[];
-      traces: Record<string, Float64Array>;
-      events: SimEvent[];
-      stats: Record<string, unknown>;
-      diagnostic: unknown;
+      result: SimulationResult;
       /** before and after the run: the scenario beyond the motor or drive, tuning warnings, limits met */
       findings: Finding[];
     }

@@ -1,7 +1,6 @@
 // The simulation runs here, off the window's thread. Cancel = the window terminates this worker.
 /// <reference lib="webworker" />
-import { resolveProject } from '../../../core/project/project';
-import { parseProject } from '../../../core/project/schema';
+import { loadProjectText } from '../../../core/project/project';
 import { runSimulation, simulationFindings, simulationFromProject } from '../../../core/simulation/simulate';
 import { isInputError } from '../../../core/base/errors';
 import type { SimRequest, SimReply } from './sim-protocol';
@@ -9,13 +8,15 @@ import type { SimRequest, SimReply } from './sim-protocol';
 const post = (msg: SimReply, transfer: Transferable[] = []) => (self as unknown as DedicatedWorkerGlobalScope).postMessage(msg, transfer);
 
 self.onmessage = (ev: MessageEvent<SimRequest>) => {
-  const { file, maxPoints } = ev.data;
+  const req = ev.data;
+  if (req.kind !== 'run') return;
   try {
-    const p = resolveProject(parseProject(file));
+    // the project read as the app and the command line read it
+    const p = loadProjectText(req.projectText);
     const setup = simulationFromProject(p);
     let last = 0;
     const result = runSimulation(setup, {
-      maxPoints,
+      maxPoints: req.maxPoints,
       onProgress: (f: number) => {
         const now = performance.now();
         if (now - last > 50) {
@@ -24,27 +25,9 @@ self.onmessage = (ev: MessageEvent<SimRequest>) => {
         }
       },
     });
-    const traces: Record<string, Float64Array> = {};
-    const transfer: Transferable[] = [];
-    for (const [k, v] of Object.entries(result.traces)) {
-      if (v instanceof Float64Array) {
-        traces[k] = v;
-        transfer.push(v.buffer);
-      }
-    }
-    post(
-      {
-        kind: 'done',
-        metrics: { ...result.metrics },
-        loadSteps: result.loadSteps,
-        traces,
-        events: result.events,
-        stats: { ...result.stats },
-        diagnostic: result.diagnostic ?? null,
-        findings: simulationFindings(result, setup).filter((f) => f.code !== 'simulation-stopped'),
-      },
-      transfer,
-    );
+    // the traces' memory moves to the window instead of being copied (each buffer once)
+    const transfer = [...new Set(Object.values(result.traces).map((v) => v.buffer))];
+    post({ kind: 'done', result, findings: simulationFindings(result, setup).filter((f) => f.code !== 'simulation-stopped') }, transfer);
   } catch (e) {
     post({ kind: 'error', message: isInputError(e) ? e.message : `The simulation stopped: ${e instanceof Error ? e.message : String(e)}` });
   }

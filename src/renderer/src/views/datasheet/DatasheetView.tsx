@@ -2,16 +2,16 @@
 // export PNG/SVG/CSV and a print layout.
 import { memo, useMemo, useRef } from 'react';
 import { RAD_S_TO_RPM, SQRT2 } from '../../../../core/base/units';
-import type { Finding } from '../../../../core/base/finding';
 import { Plot } from '../../components/Plot';
 import { pointVerdict, type Results } from '../../state/compute';
-import { torqueSpeedFigure } from '../envelope/EnvelopeView';
+import { torqueSpeedFigure } from '../../components/torque-speed-figure';
+import { Cautions, isHazard } from '../../components/cautions';
 import { envelopeCsv } from '../../components/exports';
-import { exportAndTell } from '../../state/file-bridge';
+import { useExporter } from '../../state/exporter';
 import { amps, fixed, num, rpm } from '../../components/format';
 import { describeLimits } from '../../../../core/drive/current-limits';
 import { exportDatasheetHtml, exportPlotImage } from '../../components/image-export';
-import { fieldPhrase, limitPhrase, plainMessage, severityPhrase } from '../../../../core/reports/phrases';
+import { limitPhrase } from '../../../../core/reports/phrases';
 import { figureConditions, isoDate } from '../../../../core/reports/figure-conditions';
 import { TableStepField } from '../../components/TableStepField';
 import { PrintCharts } from '../../components/PrintCharts';
@@ -25,42 +25,9 @@ function peakOf(a: Float64Array, feasible: Uint8Array): number {
 /** An electrical time constant L/Rs, ms; with Rs = 0 it has no bound. */
 export const tau = (s: number): string => (Number.isFinite(s) && s >= 0 ? `${num(s * 1e3)} ms` : 'unbounded (Rs = 0)');
 
-/** Findings that must carry the safety caution wherever they are shown. */
-export const isHazard = (f: Finding): boolean =>
-  f.severity === 'danger' || (f.severity === 'warning' && /demagnet|uncontrolled|braking|back-emf/i.test(f.code));
-
-export function Cautions({ results, testId, hazardsOnly, compact }: { results: Results; testId?: string; hazardsOnly?: boolean; compact?: boolean }) {
-  const s = results.safety;
-  const findings = [...results.project.findings, ...s.findings];
-  const hazards = findings.filter(isHazard);
-  return (
-    <div data-testid={testId}>
-      {hazards.length > 0 && !compact && (
-        <div className="caution" role="alert">
-          <strong>Caution.</strong> {hazards.map((h) => plainMessage(h.message)).join(' ')} {s.caution}
-        </div>
-      )}
-      {hazards.length > 0 && compact && (
-        <details className="caution compact" role="alert">
-          <summary>
-            <strong>Caution.</strong> {plainMessage(hazards[0]!.message).split('. ')[0]}. Follow local codes, licensed practice and IEC 61800-5-1 (details).
-          </summary>
-          {hazards.map((h) => plainMessage(h.message)).join(' ')} {s.caution}
-        </details>
-      )}
-      {!hazardsOnly &&
-        findings
-        .filter((f) => !isHazard(f))
-        .map((f, i) => (
-          <div key={i} className={`finding ${f.severity}`}>
-            <strong>{severityPhrase(f.severity)}</strong>{f.field ? `, ${fieldPhrase(f.field)}` : ''}: {plainMessage(f.message)}
-          </div>
-        ))}
-    </div>
-  );
-}
-
-export const DatasheetView = memo(function DatasheetView({ results, theme }: { results: Results; theme: 'light' | 'dark' }) {
+/** `tableStep`: the step of the envelope tables (rpm; undefined: the default), kept by the app across views. */
+export const DatasheetView = memo(function DatasheetView({ results, theme, tableStep, setTableStep }: { results: Results; theme: 'light' | 'dark'; tableStep: number | undefined; setTableStep: (step_rpm: number | undefined) => void }) {
+  const exporter = useExporter();
   const plotEl = useRef<HTMLDivElement | null>(null);
   const p = results.project;
   const fig = useMemo(() => torqueSpeedFigure(results, theme, { peak: true, continuous: true, hot: true, cold: true, generating: true }, false, 330), [results, theme]);
@@ -71,7 +38,7 @@ export const DatasheetView = memo(function DatasheetView({ results, theme }: { r
   const s = results.safety;
   const exportImage = async (format: 'png' | 'svg') => {
     if (!plotEl.current) return;
-    await exportPlotImage(plotEl.current, format, 'datasheet-envelope', p);
+    await exportPlotImage(plotEl.current, format, 'datasheet-envelope', p, exporter);
   };
   const rows: Array<[string, string]> = [
     ['pole pairs', `${p.hot.polePairs} (${2 * p.hot.polePairs} poles)`],
@@ -105,9 +72,9 @@ export const DatasheetView = memo(function DatasheetView({ results, theme }: { r
         <button className="btn" onClick={() => window.print()} data-testid="print">Print…</button>
         <button className="btn" onClick={() => void exportImage('png')}>Plot PNG</button>
         <button className="btn" onClick={() => void exportImage('svg')}>Plot SVG</button>
-        <button className="btn" onClick={() => void exportAndTell('envelope-csv', () => envelopeCsv(results), 'envelope.csv')}>Envelope CSV</button>
-        <button className="btn" data-testid="export-datasheet" onClick={() => void exportDatasheetHtml(results)}>Datasheet HTML</button>
-        <TableStepField speedMax={results.speedMax} />
+        <button className="btn" onClick={() => void exporter.exportAndTell('envelope-csv', () => envelopeCsv(results), 'envelope.csv')}>Envelope CSV</button>
+        <button className="btn" data-testid="export-datasheet" onClick={() => void exportDatasheetHtml(results, tableStep, exporter)}>Datasheet HTML</button>
+        <TableStepField speedMax={results.speedMax} step={tableStep} onStep={setTableStep} />
       </div>
       <div className="sheet-head">
         <h2>{p.name || 'Unnamed project'}</h2>

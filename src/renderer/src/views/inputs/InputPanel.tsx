@@ -6,7 +6,8 @@ import type { ResolvedProject } from '../../../../core/project/project';
 import { deriveConstants } from '../../../../core/machine/nameplate';
 import type { Draft, Json } from '../../state/draft';
 import { editSubtree, getAt } from '../../state/draft';
-import { BoolField, HINTS, NumField, Rows, Section, SelectField, TakenAs } from './Inputs';
+import { BoolField, HINTS, NumField, Rows, SelectField, TakenAs } from './Inputs';
+import { Section } from '../../components/Section';
 import { useFormStore, useFormValue } from '../../state/form-store';
 import { num } from '../../components/format';
 

@@ -159,18 +159,6 @@ export function BoolField(props: { path: Path; label: string }) {
   );
 }
 
-export function Section(props: { title: string; right?: ReactNode; children: ReactNode; testId?: string }) {
-  return (
-    <section className="section" data-testid={props.testId}>
-      <h3>
-        {props.title}
-        {props.right && <span className="right">{props.right}</span>}
-      </h3>
-      <div className="content">{props.children}</div>
-    </section>
-  );
-}
-
 export interface RowColumn {
   key: string;
   label: string;

@@ -3,39 +3,20 @@
 import { memo, useEffect, useMemo, useRef, useState } from 'react';
 import type { Data, Layout } from 'plotly.js-dist-min';
 import type { ResolvedProject } from '../../../../core/project/project';
-import type { Finding } from '../../../../core/base/finding';
-import type { LoadStepResult } from '../../../../core/simulation/simulate';
 import { SQRT2 } from '../../../../core/base/units';
 import { axis, baseLayout, Plot, readTheme } from '../../components/Plot';
-import { Section } from '../inputs/Inputs';
+import { Section } from '../../components/Section';
 import { CONTROL_SUMMARY, InputSummary, ScenarioSummary } from '../../components/input-summary';
 import { jumpToField } from '../../components/jump-to-field';
 import { rpmText, sig3, speedError, speedErrorRange } from '../../components/trace-scales';
 import { fieldPhrase, plainMessage, severityPhrase } from '../../../../core/reports/phrases';
-import type { SimEvent, SimReply, SimRequest } from '../../workers/sim-protocol';
-import { exportAndTell } from '../../state/file-bridge';
+import type { SimReply, SimRequest } from '../../workers/sim-protocol';
+import type { SimDone } from '../../state/simulation-run';
+import { useExporter } from '../../state/exporter';
 import { tracesCsv } from '../../components/exports';
 import { num } from '../../components/format';
 
-export interface SimDone {
-  metrics: Record<string, unknown>;
-  traces: Record<string, Float64Array>;
-  events: SimEvent[];
-  stats: Record<string, unknown>;
-  diagnostic: unknown;
-  findings: Finding[];
-  loadSteps: LoadStepResult[];
-  /** project name the run belongs to */
-  project: string;
-}
-
 type RunState = { kind: 'idle' } | { kind: 'running'; fraction: number; started: number } | { kind: 'cancelled' } | { kind: 'error'; message: string };
-
-// The last result survives switching views.
-let kept: SimDone | null = null;
-
-/** The last finished simulation (for the Export menu). */
-export const lastSimulation = (): SimDone | null => kept;
 
 /** Colours of the traces: distinct within each plot and never one colour for two quantities. */
 const TRACE = {
@@ -128,7 +109,7 @@ export function tracesFigure(r: SimDone, theme: 'light' | 'dark'): { data: Data[
 }
 
 const ms = (v: number): string => `${sig3(v * 1e3)} ms`;
-const METRICS: Array<[string, string, (v: number) => string]> = [
+const METRICS: Array<[keyof SimDone['metrics'], string, (v: number) => string]> = [
   ['finalSpeed_rpm', 'final speed', (v) => `${rpmText(v)} rpm`],
   ['speedOvershoot_pct', 'speed overshoot (% of the speed step)', (v) => `${sig3(v)} %`],
   ['riseTime_s', 'rise time (10 % to 90 % of the speed step)', ms],
@@ -142,9 +123,13 @@ const METRICS: Array<[string, string, (v: number) => string]> = [
   ['energyFromBus_J', 'energy from the DC link', (v) => `${sig3(v)} J`],
 ];
 
-export const LoadStepsView = memo(function LoadStepsView({ project, theme, stale }: { project: ResolvedProject; theme: 'light' | 'dark'; stale: boolean }) {
+/**
+ * `result`: the last finished run, kept by the app (it survives switching views); `setResult` keeps
+ * a new one.
+ */
+export const LoadStepsView = memo(function LoadStepsView({ project, theme, stale, result, setResult }: { project: ResolvedProject; theme: 'light' | 'dark'; stale: boolean; result: SimDone | null; setResult: (r: SimDone) => void }) {
+  const exporter = useExporter();
   const [run, setRun] = useState<RunState>({ kind: 'idle' });
-  const [result, setResult] = useState<SimDone | null>(kept);
   const worker = useRef<Worker | null>(null);
 
   const stop = () => {
@@ -162,9 +147,7 @@ export const LoadStepsView = memo(function LoadStepsView({ project, theme, stale
       const m = ev.data;
       if (m.kind === 'progress') setRun((r) => (r.kind === 'running' ? { ...r, fraction: m.fraction } : r));
       else if (m.kind === 'done') {
-        const done: SimDone = { metrics: m.metrics, traces: m.traces, events: m.events, stats: m.stats, diagnostic: m.diagnostic, findings: m.findings ?? [], loadSteps: m.loadSteps ?? [], project: project.name };
-        kept = done;
-        setResult(done);
+        setResult({ ...m.result, findings: m.findings, project: project.name });
         setRun({ kind: 'idle' });
         stop();
       } else {
@@ -177,7 +160,7 @@ export const LoadStepsView = memo(function LoadStepsView({ project, theme, stale
       setRun({ kind: 'error', message: `The simulation worker failed: ${ev.message || 'unknown error'}` });
       stop();
     };
-    const req: SimRequest = { file: project.file, maxPoints: 4000 };
+    const req: SimRequest = { kind: 'run', projectText: JSON.stringify(project.file), maxPoints: 4000 };
     w.postMessage(req);
   };
   const cancel = () => {
@@ -216,7 +199,7 @@ export const LoadStepsView = memo(function LoadStepsView({ project, theme, stale
           {run.kind === 'cancelled' && <span data-testid="cancelled">Cancelled; the previous result (if any) is shown.</span>}
           <span style={{ flex: 1 }} />
           {result && (
-            <button className="btn small" onClick={() => void exportAndTell('traces-csv', () => tracesCsv(result.traces), 'traces.csv')}>
+            <button className="btn small" onClick={() => void exporter.exportAndTell('traces-csv', () => tracesCsv(result.traces), 'traces.csv')}>
               Traces CSV
             </button>
           )}
@@ -297,8 +280,8 @@ export const LoadStepsView = memo(function LoadStepsView({ project, theme, stale
                 {sat.length + other.length > 12 && <div className="hint">… and {sat.length + other.length - 12} more.</div>}
                 <div className="hint" style={{ fontSize: 12, marginTop: 6 }}>
                   {typeof result.stats.controlSteps === 'number' && `${result.stats.controlSteps} control periods, `}
-                  {typeof result.stats.evaluationsPerPeriod === 'number' && `${num(result.stats.evaluationsPerPeriod as number)} derivative evaluations per period (median), `}
-                  {typeof result.stats.wall_s === 'number' && `${num((result.stats.wall_s as number) * 1e3)} ms wall time`}
+                  {typeof result.stats.evaluationsPerPeriod === 'number' && `${num(result.stats.evaluationsPerPeriod)} derivative evaluations per period (median), `}
+                  {typeof result.stats.wall_s === 'number' && `${num(result.stats.wall_s * 1e3)} ms wall time`}
                 </div>
               </div>
             </div>

@@ -1,0 +1,50 @@
+/**
+ * The datasheet's results in the two parts the app shows one after the other: the curves (the
+ * eight envelopes: peak and continuous current, hot and cold corner, motoring and generating; the
+ * speed range and the derived constants), quick, redrawn on every edit; and the verdicts (the
+ * sizing of every requirement point hot and cold, the safety figures), slower searches, shown a
+ * frame later. computeDatasheetResults (the CLI's datasheet) is the two together, so the app and
+ * the CLI compute the sizing one way.
+ */
+import type { ResolvedProject } from '../project/project';
+import { computeEnvelope } from '../steady-state/envelope';
+import { deriveConstants } from '../machine/nameplate';
+import { sizeDrive } from '../steady-state/sizing';
+import { safetyReport } from '../steady-state/safety';
+import { projectSpeedRange } from './speed-range';
+import type { DatasheetCurve, DatasheetResults, DatasheetResultsOptions } from './datasheet-results';
+
+export type DatasheetCurves = Pick<DatasheetResults, 'project' | 'speedMax' | 'curves' | 'constantsHot' | 'constantsCold'>;
+export type DatasheetVerdicts = Pick<DatasheetResults, 'sizing' | 'sizingCold' | 'safety' | 'safetySpeed'>;
+
+/** The eight envelopes (peak, then continuous; hot, then cold; motoring, then generating) over the speed range, and the constants. */
+export function datasheetCurves(p: ResolvedProject, o: DatasheetResultsOptions): DatasheetCurves {
+  // the project's range (one rule with the CLI) unless a top speed is given
+  const speedMax = o.speedMax ?? projectSpeedRange(p).speedMax;
+  const curves: DatasheetCurve[] = [];
+  for (const current of ['peak', 'continuous'] as const) {
+    const lim = current === 'peak' ? p.peak : p.continuous;
+    for (const corner of ['hot', 'cold'] as const) {
+      const m = corner === 'hot' ? p.hot : p.cold;
+      for (const direction of ['motoring', 'generating'] as const) {
+        curves.push({ corner, current, direction, env: computeEnvelope(m, lim, { points: o.points, speedMax, direction }) });
+      }
+    }
+  }
+  return { project: p, speedMax, curves, constantsHot: deriveConstants(p.hot), constantsCold: deriveConstants(p.cold) };
+}
+
+/**
+ * The sizing verdicts, hot corner (least torque per ampere) and cold corner (most back-EMF), and the
+ * safety figures at the motor's maximum speed when the file gives one, else at `speedMax` (rad/s,
+ * the top of the plotted range).
+ */
+export function datasheetVerdicts(p: ResolvedProject, speedMax: number): DatasheetVerdicts {
+  const safetySpeed = p.rated.maxSpeed_rad_s ?? speedMax;
+  return {
+    sizing: sizeDrive(p.hot, p.inverter, p.requirements, p.currentLimits),
+    sizingCold: sizeDrive(p.cold, p.inverter, p.requirements, p.currentLimits),
+    safety: safetyReport(p.cold, p.inverter, safetySpeed, p.rated.maxSpeed_rad_s !== undefined),
+    safetySpeed,
+  };
+}
