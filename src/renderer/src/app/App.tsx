@@ -2,7 +2,7 @@
 import { useCallback, useEffect, useMemo, useRef, useState } from 'react';
 import { checkProject, listCapProblem } from '../../../core/project/schema';
 import { migrateProject } from '../../../core/project/migrate';
-import { loadProjectText, parseProjectJson, type ResolvedProject } from '../../../core/project/project';
+import { loadProjectJson, parseProjectJson, type ResolvedProject } from '../../../core/project/project';
 import { isInputError } from '../../../core/base/errors';
 import type { MenuEvent } from '../../../types/bridge';
 import { DEMOS, DEFAULT_DEMO } from './demos';
@@ -54,14 +54,14 @@ function inputIssue(e: unknown): Record<string, string> {
 
 /**
  * Validate and resolve the form's tree, once per edit, as every reader loads a project (core
- * loadProjectText: JSON, migration, schema, resolution; a file from a newer format version is read
+ * loadProjectJson: migration, schema, resolution, the same steps loadProjectText takes after the JSON; a file from a newer format version is read
  * as far as this version understands it and marked read-only). When it cannot be loaded, the
  * problems are gathered field by field: the schema's full list on the migrated tree, else the one
  * problem the loading named.
  */
 function check(tree: Json): Checked {
   try {
-    return { issues: {}, resolved: loadProjectText(JSON.stringify(tree)) };
+    return { issues: {}, resolved: loadProjectJson(tree).resolved };
   } catch (e) {
     return { issues: fieldProblems(tree, e), resolved: null };
   }
