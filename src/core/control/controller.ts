@@ -25,12 +25,20 @@
 import type { DqMachine } from '../machine/dq-machine';
 import type { ReferenceTable } from './reference-table';
 import { lookupCurrents, torqueLimitsAt } from './reference-table';
-import { hexagonRadius } from '../drive/inverter';
+import { scheduleValue, type StepSchedule } from './step-schedule';
+import { limitVoltageDq, type VoltageLimitSpec } from './voltage-limit';
+import { cosSinNear } from '../mathematics/rotation';
+
+export { stepSchedule, scheduleValue, type StepSchedule } from './step-schedule';
+export { limitVoltageDq, voltageLimitAt, type VoltageLimitSpec } from './voltage-limit';
 
 // module-local references to the imported functions called every period (a CommonJS build turns
 // an imported binding into a property getter called at each use)
 const lookupCurrentsL = lookupCurrents;
 const torqueLimitsAtL = torqueLimitsAt;
+const scheduleValueL = scheduleValue;
+const limitVoltageDqL = limitVoltageDq;
+const cosSinNearL = cosSinNear;
 
 export type ControlMode = 'speed' | 'torque' | 'current-step';
 export type AntiWindup = 'clamping' | 'back-calculation';
@@ -40,27 +48,6 @@ export interface PiGains {
   Kp: number;
   /** integral gain (V/(A·s), N·m/rad) */
   Ki: number;
-}
-
-/** A piecewise-constant schedule: value `initial` before times[0], values[k] from times[k] on. */
-export interface StepSchedule {
-  initial: number;
-  times: Float64Array;
-  values: Float64Array;
-}
-
-export function stepSchedule(initial: number, steps: ReadonlyArray<{ t: number; v: number }>): StepSchedule {
-  const s = [...steps].sort((a, b) => a.t - b.t);
-  return { initial, times: Float64Array.from(s.map((x) => x.t)), values: Float64Array.from(s.map((x) => x.v)) };
-}
-
-export interface VoltageLimitSpec {
-  /** 'circle': |v| <= radius; 'hexagon': the bridge's hexagon for the bus `Vdc` */
-  shape: 'circle' | 'hexagon';
-  /** circle radius (peak phase V); for the hexagon the inscribed radius Vdc/sqrt(3) */
-  radius: number;
-  /** effective bus voltage (hexagon only), V */
-  Vdc: number;
 }
 
 export interface ControllerConfig {
@@ -115,64 +102,6 @@ export const DEFAULT_CONTROLLER_OPTIONS = {
 
 const MAX_DELAY = 16;
 
-export function scheduleValue(s: StepSchedule, t: number): number {
-  let v = s.initial;
-  const n = s.times.length;
-  for (let k = 0; k < n; k++) {
-    if (s.times[k]! <= t) v = s.values[k]!; else break;
-  }
-  return v;
-}
-
-/**
- * Limit (vd, vq) to the modulation limit with d-axis priority. `theta` is the electrical angle at
- * which the vector will be applied (its d axis direction in the alpha-beta plane). Writes out[0..1];
- * returns true when the vector was changed.
- */
-export function limitVoltageDq(spec: VoltageLimitSpec, vd: number, vq: number, theta: number, out: Float64Array): boolean {
-  if (spec.shape === 'circle') {
-    const R = spec.radius;
-    if (vd * vd + vq * vq <= R * R) {
-      out[0] = vd; out[1] = vq;
-      return false;
-    }
-    const d = vd > R ? R : vd < -R ? -R : vd;
-    const qm = Math.sqrt(Math.max(0, R * R - d * d));
-    out[0] = d;
-    out[1] = vq > qm ? qm : vq < -qm ? -qm : vq;
-    return true;
-  }
-  // hexagon: |n_k · v| <= h for the edge normals n_k at 30°, 90°, 150° (alpha-beta), h = Vdc/sqrt(3)
-  const h = spec.radius;
-  const rd = hexagonRadius(spec.Vdc, theta);
-  const d = vd > rd ? rd : vd < -rd ? -rd : vd;
-  let qLo = -Infinity;
-  let qHi = Infinity;
-  for (let k = 0; k < 3; k++) {
-    const phi = Math.PI / 6 + (k * Math.PI) / 3 - theta;
-    const c = Math.cos(phi);
-    const s = Math.sin(phi);
-    // h >= |d c + q s|
-    if (Math.abs(s) < 1e-12) continue;
-    const a = (-h - d * c) / s;
-    const b = (h - d * c) / s;
-    const lo = a < b ? a : b;
-    const hi = a < b ? b : a;
-    if (lo > qLo) qLo = lo;
-    if (hi < qHi) qHi = hi;
-  }
-  if (qLo > qHi) qLo = qHi = 0.5 * (qLo + qHi);
-  const q = vq > qHi ? qHi : vq < qLo ? qLo : vq;
-  out[0] = d;
-  out[1] = q;
-  return d !== vd || q !== vq;
-}
-
-/** Largest length of an alpha-beta vector at this angle, V. */
-export function voltageLimitAt(spec: VoltageLimitSpec, angle: number): number {
-  return spec.shape === 'circle' ? spec.radius : hexagonRadius(spec.Vdc, angle);
-}
-
 export class CascadeController {
   readonly cfg: ControllerConfig;
   // integrators
@@ -196,6 +125,8 @@ export class CascadeController {
   private readonly bufA = new Float64Array(MAX_DELAY);
   private readonly bufB = new Float64Array(MAX_DELAY);
   private readonly tmp = new Float64Array(2);
+  /** cos and sin of the inverse-Park angle */
+  private readonly cs = new Float64Array(2);
   /**
    * The sample of `stepSampled`: [t, i_d, i_q, omega_m, theta_e, cos theta_e, sin theta_e].
    * Passing the sample through this array instead of arguments keeps the engine from boxing
@@ -311,7 +242,7 @@ export class CascadeController {
       if (++this.speedCounter >= c.speedLoopDivider) this.speedCounter = 0;
     } else if (mode === 1) {
       this.speedRefOut = w;
-      const T = scheduleValue(c.torqueRef, t);
+      const T = scheduleValueL(c.torqueRef, t);
       torqueLimitsAtL(c.table!, w, tmp);
       const Tc = T > tmp[0]! ? tmp[0]! : T < tmp[1]! ? tmp[1]! : T;
       this.torqueClamped = Tc !== T;
@@ -323,8 +254,8 @@ export class CascadeController {
     let idr: number;
     let iqr: number;
     if (mode === 2) {
-      idr = scheduleValue(c.idRef, t);
-      iqr = scheduleValue(c.iqRef, t);
+      idr = scheduleValueL(c.idRef, t);
+      iqr = scheduleValueL(c.iqRef, t);
     } else {
       lookupCurrentsL(c.table!, w, this.torqueRef, tmp);
       idr = tmp[0]!;
@@ -357,7 +288,7 @@ export class CascadeController {
     if (this.circle && ud * ud + uq * uq <= R * R) {
       vd = ud; vq = uq; sat = false;
     } else {
-      sat = limitVoltageDq(c.voltage, ud, uq, thApply, tmp);
+      sat = limitVoltageDqL(c.voltage, ud, uq, thApply, tmp);
       vd = tmp[0]!;
       vq = tmp[1]!;
     }
@@ -374,21 +305,10 @@ export class CascadeController {
 
     // ---- inverse Park at theta + dth: cos and sin from those of the sampled angle, rotated by dth
     // with a short series (truncation below 2e-14 for |dth| < 0.5), else computed directly
-    let cs: number;
-    let sn: number;
-    if (dth > -0.5 && dth < 0.5) {
-      // the plant's polynomials for sin and cos (see Plant.derivAt), written out
-      const d2 = dth * dth;
-      const sd = dth * (1 + d2 * (-1 / 6 + d2 * (1 / 120 + d2 * (-1 / 5040 + d2 * (1 / 362880 + d2 * (-1 / 39916800))))));
-      const cd = 1 + d2 * (-1 / 2 + d2 * (1 / 24 + d2 * (-1 / 720 + d2 * (1 / 40320 + d2 * (-1 / 3628800 + d2 * (1 / 479001600))))));
-      const c0 = x[5]!;
-      const s0 = x[6]!;
-      cs = c0 * cd - s0 * sd;
-      sn = s0 * cd + c0 * sd;
-    } else {
-      cs = Math.cos(thApply);
-      sn = Math.sin(thApply);
-    }
+    const cs2 = this.cs;
+    cosSinNearL(x[5]!, x[6]!, dth, thApply, cs2);
+    const cs = cs2[0]!;
+    const sn = cs2[1]!;
     const va = vd * cs - vq * sn;
     const vb = vd * sn + vq * cs;
     const D = this.D;
@@ -410,7 +330,7 @@ export class CascadeController {
     const w = this.sample[3]!;
     const c = this.cfg;
     const Tsw = c.Ts * c.speedLoopDivider;
-    const target = scheduleValue(c.speedRef, t);
+    const target = scheduleValueL(c.speedRef, t);
     // ramp limit
     const dmax = c.speedRamp_rad_s2 * Tsw;
     const dr = target - this.wRefRamp;

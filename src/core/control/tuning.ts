@@ -26,7 +26,6 @@
 import type { DqMachine } from '../machine/dq-machine';
 import type { Finding } from '../base/finding';
 import { InputError } from '../base/errors';
-import type { ResolvedProject } from '../project/project';
 import { sampledBode, sampledCurrentOpenLoop, sampledMargins, sampledSpeedOpenLoop, UnwrappedResponse, type SampledResponse } from './sampled-loop';
 
 export interface Bode {
@@ -379,33 +378,4 @@ export function tuneLoops(inp: TuningInput): TuningReport {
     });
   }
   return { current, ...(currentQ ? { currentQ } : {}), speed, speedLagEquivalent_s: Tsigma, currentDelay_s: Td, warnings };
-}
-
-/** The tuning input of a project: hot machine, motor plus load inertia, the file's control section. */
-export function tuningInputFromProject(p: ResolvedProject): TuningInput {
-  const c = p.file.control;
-  const fCtrl_Hz = c?.fCtrl_Hz ?? 10000;
-  const current: CurrentTuning =
-    c?.currentKp !== undefined && c.currentKi !== undefined
-      ? { Kp: c.currentKp, Ki: c.currentKi }
-      : { bandwidth_Hz: c?.currentBandwidth_Hz ?? fCtrl_Hz * DEFAULT_CURRENT_BANDWIDTH_FRACTION };
-  const fc = 'bandwidth_Hz' in current ? current.bandwidth_Hz : current.Kp / p.hot.Lq / (2 * Math.PI);
-  let speed: SpeedTuning;
-  if (c?.speedKp !== undefined && c.speedKi !== undefined) speed = { Kp: c.speedKp, Ki: c.speedKi };
-  else if (c?.speedTuning?.method === 'symmetric-optimum') speed = { method: 'symmetric-optimum', a: c.speedTuning.a };
-  else speed = { method: 'bandwidth', bandwidth_Hz: c?.speedBandwidth_Hz ?? fc * DEFAULT_SPEED_BANDWIDTH_FRACTION };
-  return {
-    machine: p.hot,
-    inertia: p.mechanics.inertia + (p.file.scenario?.loadInertia ?? 0),
-    viscousFriction: p.mechanics.viscousFriction,
-    fCtrl_Hz,
-    delaySamples: c?.delaySamples ?? 1,
-    speedLoopDivider: c?.speedLoopDivider ?? 1,
-    current,
-    speed,
-  };
-}
-
-export function tuneFromProject(p: ResolvedProject): TuningReport {
-  return tuneLoops(tuningInputFromProject(p));
 }

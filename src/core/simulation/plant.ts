@@ -20,6 +20,10 @@
  */
 import type { DqMachine } from '../machine/dq-machine';
 import { InputError } from '../base/errors';
+import { cosSinNear } from '../mathematics/rotation';
+
+// a module-local reference (a CommonJS build turns an imported binding into a property getter)
+const cosSinNearL = cosSinNear;
 
 export const I_D = 0;
 export const I_Q = 1;
@@ -206,6 +210,8 @@ export class Plant {
    * the time crosses the (not inlined) call as an unboxed double instead of a boxed argument.
    */
   readonly time = new Float64Array(1);
+  /** cos and sin of the rotor angle of the derivative being evaluated */
+  private readonly rot = new Float64Array(2);
 
   /** dy/dt of the state y at time t into dydt (a prototype method: one call target for every plant). */
   derivInto(dydt: Float64Array, y: Float64Array, t: number): void {
@@ -225,22 +231,10 @@ export class Plant {
     let vq: number;
     if (this.ab) {
       // cos/sin of the angle from those of the angle origin (see setAngleOrigin) and a short series
-      const d = y[3]! - this.th0;
-      let c: number;
-      let s: number;
-      if (d > -0.5 && d < 0.5) {
-        // Taylor polynomials of sin (through d^11) and cos (through d^12) in Horner form with constant
-        // coefficients, written out (a call would box its result at every evaluation); truncation
-        // below 2e-14 at |d| = 0.5. Common practice (no source).
-        const x = d * d;
-        const sd = d * (1 + x * (-1 / 6 + x * (1 / 120 + x * (-1 / 5040 + x * (1 / 362880 + x * (-1 / 39916800))))));
-        const cd = 1 + x * (-1 / 2 + x * (1 / 24 + x * (-1 / 720 + x * (1 / 40320 + x * (-1 / 3628800 + x * (1 / 479001600))))));
-        c = this.c0 * cd - this.s0 * sd;
-        s = this.s0 * cd + this.c0 * sd;
-      } else {
-        c = Math.cos(y[3]!);
-        s = Math.sin(y[3]!);
-      }
+      const r = this.rot;
+      cosSinNearL(this.c0, this.s0, y[3]! - this.th0, y[3]!, r);
+      const c = r[0]!;
+      const s = r[1]!;
       vd = u[0]! * c + u[1]! * s;
       vq = -u[0]! * s + u[1]! * c;
     } else {

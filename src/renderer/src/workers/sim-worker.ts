@@ -2,7 +2,8 @@
 /// <reference lib="webworker" />
 import { resolveProject } from '../../../core/project/project';
 import { parseProject } from '../../../core/project/schema';
-import { runSimulation, simulationFindings, simulationFromProject } from '../../../core/simulation/simulate';
+import { runSimulation, simulationFindings } from '../../../core/simulation/simulate';
+import { simulationFromProject } from '../../../core/project/simulation-from-project';
 import { isInputError } from '../../../core/base/errors';
 import type { SimRequest, SimReply } from './sim-protocol';
 
