@@ -132,19 +132,21 @@ export class Rk4Stepper extends Stepper {
   run(y: Float64Array, t0: number, t1: number, n: number): void {
     const h = (t1 - t0) / n;
     const { k1, k2, k3, k4, w, plant } = this;
-    const f = (d: Float64Array, s: Float64Array, t: number): void => {
-      plant.time[0] = t;
-      plant.derivAt(d, s);
-    };
+    // the time goes through the plant's typed array (see Plant.time): no boxed argument
+    const time = plant.time;
     for (let s = 0; s < n; s++) {
       const t = t0 + s * h;
-      f(k1, y, t);
+      time[0] = t;
+      plant.derivAt(k1, y);
       for (let i = 0; i < STATE_SIZE; i++) w[i] = y[i]! + 0.5 * h * k1[i]!;
-      f(k2, w, t + 0.5 * h);
+      time[0] = t + 0.5 * h;
+      plant.derivAt(k2, w);
       for (let i = 0; i < STATE_SIZE; i++) w[i] = y[i]! + 0.5 * h * k2[i]!;
-      f(k3, w, t + 0.5 * h);
+      time[0] = t + 0.5 * h;
+      plant.derivAt(k3, w);
       for (let i = 0; i < STATE_SIZE; i++) w[i] = y[i]! + h * k3[i]!;
-      f(k4, w, t + h);
+      time[0] = t + h;
+      plant.derivAt(k4, w);
       for (let i = 0; i < STATE_SIZE; i++) y[i] = y[i]! + (h / 6) * (k1[i]! + 2 * k2[i]! + 2 * k3[i]! + k4[i]!);
     }
   }
