@@ -22,7 +22,8 @@
  *
  * All state is preallocated; `step` allocates nothing.
  */
-import type { DqMachine } from '../machine/dq-machine';
+import type { MachineInput, MachineModel } from '../machine/machine-model';
+import { machineModel } from '../machine/linear-dq';
 import type { ReferenceTable } from './reference-table';
 import { lookupCurrents, torqueLimitsAt } from './reference-table';
 import { scheduleValue, type StepSchedule } from './step-schedule';
@@ -56,7 +57,8 @@ export interface ControllerConfig {
   Ts: number;
   /** whole periods between sampling and applying the voltage (0 = ideal) */
   delaySamples: number;
-  machine: DqMachine;
+  /** the machine model (or the constant dq terms it wraps): the feed-forward terms ask it */
+  machine: MachineInput;
   currentD: PiGains;
   currentQ: PiGains;
   speed: PiGains;
@@ -137,6 +139,12 @@ export class CascadeController {
   private speedCounter = 0;
   /** the torque reference was clamped to a drive limit this period (speed and torque modes) */
   torqueClamped = false;
+  /** the machine model; its closed form (the feed-forward with Ld, Lq, psiM) taken when `model.linear` is non-null */
+  readonly model: MachineModel;
+  private readonly lin: boolean;
+  /** flux at zero current (the back-EMF feed-forward's), and the flux of the sampled current */
+  private readonly psi0 = new Float64Array(2);
+  private readonly psi = new Float64Array(2);
   // the configuration's hot numbers as plain fields (read once per period)
   private readonly modeN: number;
   private readonly Ts: number;
@@ -168,10 +176,16 @@ export class CascadeController {
     this.modeN = cfg.mode === 'speed' ? 0 : cfg.mode === 'torque' ? 1 : 2;
     this.Ts = cfg.Ts;
     this.D = cfg.delaySamples;
-    this.p = cfg.machine.polePairs;
-    this.Ld = cfg.machine.Ld;
-    this.Lq = cfg.machine.Lq;
-    this.psiM = cfg.machine.psiM;
+    const model = machineModel(cfg.machine);
+    this.model = model;
+    const lin = model.linear;
+    this.lin = lin !== null;
+    this.p = model.polePairs;
+    this.Ld = lin ? lin.Ld : NaN;
+    this.Lq = lin ? lin.Lq : NaN;
+    // the flux at zero current: the magnet's (psiM, 0) for the linear model
+    model.flux(0, 0, this.psi0);
+    this.psiM = lin ? lin.psiM : this.psi0[0]!;
     this.Imax = cfg.Imax;
     this.kpD = cfg.currentD.Kp;
     this.kpQ = cfg.currentQ.Kp;
@@ -194,22 +208,29 @@ export class CascadeController {
    */
   reset(w0: number, theta0: number): void {
     const c = this.cfg;
-    const we = c.machine.polePairs * w0;
+    const we = this.p * w0;
     this.k = 0;
     this.speedCounter = 0;
     this.wRefRamp = w0;
     this.wRefFilt = w0;
     this.xd = 0;
-    this.xq = c.backEmfFeedForward ? 0 : we * c.machine.psiM;
+    this.xq = c.backEmfFeedForward ? 0 : we * this.psiM;
     this.xw = c.initialTorque;
     this.torqueRef = c.mode === 'speed' ? c.initialTorque : 0;
     this.bufA.fill(0);
     this.bufB.fill(0);
     for (let j = 0; j < c.delaySamples; j++) {
       const th = theta0 + (j + 0.5) * we * c.Ts;
-      const vq = we * c.machine.psiM;
-      this.bufA[j] = -vq * Math.sin(th);
-      this.bufB[j] = vq * Math.cos(th);
+      const vq = we * this.psiM;
+      if (this.lin) {
+        this.bufA[j] = -vq * Math.sin(th);
+        this.bufB[j] = vq * Math.cos(th);
+      } else {
+        // the back-EMF of the flux at zero current, (vd, vq) = we (-psi0_q, psi0_d), rotated to alpha-beta
+        const vd = -we * this.psi0[1]!;
+        this.bufA[j] = vd * Math.cos(th) - vq * Math.sin(th);
+        this.bufB[j] = vd * Math.sin(th) + vq * Math.cos(th);
+      }
     }
   }
 
@@ -275,8 +296,19 @@ export class CascadeController {
     const ed = idr - id;
     const eq = iqr - iq;
     const decoup = this.decoup;
-    const ffd = decoup ? -we * this.Lq * iq : 0;
-    const ffq = (decoup ? we * this.Ld * id : 0) + (this.bemf ? we * this.psiM : 0);
+    let ffd: number;
+    let ffq: number;
+    if (this.lin) {
+      ffd = decoup ? -we * this.Lq * iq : 0;
+      ffq = (decoup ? we * this.Ld * id : 0) + (this.bemf ? we * this.psiM : 0);
+    } else {
+      // generic: cross-coupling we·J·(psi(i) - psi(0)), back-EMF we·J·psi(0), J·psi = (-psi_q, psi_d)
+      const psi = this.psi;
+      const psi0 = this.psi0;
+      this.model.flux(id, iq, psi);
+      ffd = (decoup ? -we * (psi[1]! - psi0[1]!) : 0) + (this.bemf ? -we * psi0[1]! : 0);
+      ffq = (decoup ? we * (psi[0]! - psi0[0]!) : 0) + (this.bemf ? we * psi0[0]! : 0);
+    }
     const ud = this.kpD * ed + this.xd + ffd;
     const uq = this.kpQ * eq + this.xq + ffq;
     const dth = this.advance * we;

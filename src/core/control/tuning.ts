@@ -23,7 +23,8 @@
  * Warnings (common practice, no source): phase margin under 45° a caution and under 30° a danger;
  * gain margin under 6 dB a caution; closed-loop peaking above 3 dB a caution.
  */
-import type { DqMachine } from '../machine/dq-machine';
+import type { MachineInput } from '../machine/machine-model';
+import { currentLoopPlant } from './current-loop-plant';
 import type { Finding } from '../base/finding';
 import { InputError } from '../base/errors';
 import { sampledBode, sampledCurrentOpenLoop, sampledMargins, sampledSpeedOpenLoop, UnwrappedResponse, type SampledResponse } from './sampled-loop';
@@ -75,7 +76,8 @@ export type SpeedTuning =
   | { Kp: number; Ki: number };
 
 export interface TuningInput {
-  machine: DqMachine;
+  /** the machine model (or the constant dq terms it wraps); the current loops' R and L come from it at zero current */
+  machine: MachineInput;
   /** total inertia, kg·m² */
   inertia: number;
   viscousFriction: number;
@@ -233,7 +235,7 @@ export function bandwidthSpeedGains(J: number, omega_s: number): { Kp: number; K
 const hz = (f: number): string => (Math.abs(f) >= 100 ? f.toFixed(0) : f.toPrecision(3));
 
 export function tuneLoops(inp: TuningInput): TuningReport {
-  const m = inp.machine;
+  const m = currentLoopPlant(inp.machine);
   if (!(inp.fCtrl_Hz > 0)) throw new InputError('control.fCtrl_Hz', 'must be > 0 Hz');
   if (!(inp.inertia > 0)) throw new InputError('motor.inertia', 'must be > 0 kg·m²');
   if (!(m.Ld > 0 && m.Lq > 0)) throw new InputError('motor.Ld', 'must be > 0 H');

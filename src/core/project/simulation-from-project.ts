@@ -85,7 +85,7 @@ export function simulationFromProject(p: ResolvedProject, overrides: SimulationO
   const k2 = mode === 'current-step' ? 0 : scenario.loadModel?.k ?? 0;
   const load = loadSchedule(loadSteps, loadRamps, k2);
   const TL0 = loadLevel(load, 0);
-  const plant: PlantParams = {
+  const plant: PlantParams<DqMachine> = {
     machine,
     inertia: J,
     viscousFriction: p.mechanics.viscousFriction,

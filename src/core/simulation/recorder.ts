@@ -15,7 +15,7 @@ import { inverseClarkeAmplitudeInvariantInto } from '../mathematics/transforms';
 import { StreamingMinMax } from './decimate';
 import { StepResponseTracker, LoadStepTracker, SteadyStateTracker, finiteOrNull } from './metrics';
 import { RAD_S_TO_RPM } from '../base/units';
-import type { SimulationSetup } from './simulation-setup';
+import type { AnySetup } from './simulation-setup';
 import { TRACE_NAMES, type LoadStepResult, type TraceName, type Traces } from './simulation-result';
 
 /** A load step is read only from a settled speed: within SETTLED_FRACTION of the reference, and at least this, rpm. */
@@ -80,7 +80,7 @@ export class TraceRecorder {
   private readonly linear: boolean;
   private readonly locked: boolean;
 
-  constructor(private readonly setup: SimulationSetup, private readonly model: MachineModel, private readonly plant: Plant, private readonly ctrl: CascadeController, periods: number, maxPoints: number) {
+  constructor(private readonly setup: AnySetup, private readonly model: MachineModel, private readonly plant: Plant, private readonly ctrl: CascadeController, periods: number, maxPoints: number) {
     this.cap = periods + 1;
     this.Ts = setup.controller.Ts;
     const nch = TRACE_NAMES.length - 1;

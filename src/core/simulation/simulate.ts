@@ -17,14 +17,13 @@
 import { InputError } from '../base/errors';
 import { Plant, STATE_SIZE, I_D, I_Q, OMEGA, THETA, ENERGY } from './plant';
 import { CascadeController } from '../control/controller';
-import { machineModel } from '../machine/linear-dq';
 import { MAX_TRACE_POINTS } from './decimate';
 import { finiteOrNull } from './metrics';
 import { makeStepper } from './stepper';
 import { TraceRecorder } from './recorder';
 import { RunLog } from './run-log';
 import { BudgetWatch, CHECK_EVERY, CurrentOscillationWatch, SpeedSwingWatch, divergence, integratorFailure } from './watchdogs';
-import { DEFAULT_RUN_OPTIONS, type EventKind, type RunOptions, type SimulationSetup } from './simulation-setup';
+import { DEFAULT_RUN_OPTIONS, type EventKind, type RunOptions, type AnySetup } from './simulation-setup';
 import type { SimulationMetrics, SimulationResult, SimulationStats } from './simulation-result';
 
 export * from './simulation-setup';
@@ -60,7 +59,7 @@ interface Stop {
   message: string;
 }
 
-export function runSimulation(setup: SimulationSetup, opts: RunOptions = {}): SimulationResult {
+export function runSimulation(setup: AnySetup, opts: RunOptions = {}): SimulationResult {
   const o = { ...DEFAULT_RUN_OPTIONS, ...opts };
   const budget = new BudgetWatch(opts.clock ?? defaultClock(), o.wallBudget_s, opts.signal);
   const Ts = setup.controller.Ts;
@@ -85,7 +84,7 @@ export function runSimulation(setup: SimulationSetup, opts: RunOptions = {}): Si
   y[THETA] = setup.initialTheta_rad;
   ctrl.reset(y[OMEGA]!, y[THETA]!);
   const stepper = makeStepper(setup, plant, y);
-  const rec = new TraceRecorder(setup, machineModel(setup.plant.machine), plant, ctrl, N, o.maxPoints);
+  const rec = new TraceRecorder(setup, plant.model, plant, ctrl, N, o.maxPoints);
   const hist = new Uint32Array(1025);
   const vab = plant.input;
   const bounds = { trip_A: Math.min(20 * setup.Imax, setup.tripCurrent_A), Imax: setup.Imax, speed_rad_s: setup.divergenceSpeed_rad_s };

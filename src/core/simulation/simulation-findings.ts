@@ -1,6 +1,6 @@
 /** Findings of a simulation run worth showing beside its metrics (stops, unsettled load steps, an unreached speed, a current above the limit, voltage saturation). */
 import type { Finding } from '../base/finding';
-import type { SimulationSetup } from './simulation-setup';
+import type { AnySetup } from './simulation-setup';
 import type { SimulationResult } from './simulation-result';
 
 /** A peak current above the limit by more than this fraction is a finding (below it: round-off of the loop). */
@@ -12,7 +12,7 @@ export const CURRENT_OVER_LIMIT_TOLERANCE = 1e-3;
  * reference: a reference step to the limit, a rise held back by the voltage limit, the computation
  * delay (the loop corrects one or more periods late). The finding says so, with when and how much.
  */
-export function currentAboveLimit(r: SimulationResult, setup?: SimulationSetup): Finding | null {
+export function currentAboveLimit(r: SimulationResult, setup?: AnySetup): Finding | null {
   const peak = r.metrics.peakCurrent_A;
   if (!setup || peak === null || r.diagnostic) return null;
   const lim = setup.Imax;
@@ -40,7 +40,7 @@ export function currentAboveLimit(r: SimulationResult, setup?: SimulationSetup):
 }
 
 /** Findings of a run worth showing beside the metrics. */
-export function simulationFindings(r: SimulationResult, setup?: SimulationSetup): Finding[] {
+export function simulationFindings(r: SimulationResult, setup?: AnySetup): Finding[] {
   const out: Finding[] = [...(setup?.findings ?? []), ...(setup?.tuning?.warnings ?? [])];
   if (r.diagnostic) out.push({ code: 'simulation-stopped', severity: 'danger', message: r.diagnostic });
   // load steps the loop met before it had settled: not measured, said why

@@ -4,6 +4,8 @@
  */
 import type { Finding } from '../base/finding';
 import type { PlantParams } from './plant';
+import type { DqMachine } from '../machine/dq-machine';
+import type { MachineInput } from '../machine/machine-model';
 import type { ControllerConfig } from '../control/controller';
 import type { TuningReport } from '../control/tuning';
 import { DEFAULT_MAX_POINTS } from './decimate';
@@ -42,8 +44,9 @@ export interface ScenarioMarks {
   loadEvents: number[];
 }
 
-export interface SimulationSetup {
-  plant: PlantParams;
+/** A run's setup; M is the plant's machine (a project's setup carries the constant dq terms). */
+export interface SimulationSetup<M extends MachineInput = DqMachine> {
+  plant: PlantParams<M>;
   controller: ControllerConfig;
   duration_s: number;
   initialSpeed_rad_s: number;
@@ -98,3 +101,6 @@ export interface SimulationEvent {
 
 /** Largest number of control periods a project scenario may ask for (duration_s x fCtrl_Hz): the default step budget. */
 export const MAX_CONTROL_PERIODS = DEFAULT_RUN_OPTIONS.maxSteps;
+
+/** A setup with any machine input (what the run itself accepts). */
+export type AnySetup = SimulationSetup<MachineInput>;

@@ -17,7 +17,7 @@
 import ode45 from 'ode45-cash-karp';
 import { STATE_SIZE as STATE_SIZE_, I_D, I_Q, OMEGA, THETA, ENERGY, nextLoadBreak } from './plant';
 import type { Plant } from './plant';
-import type { SimulationSetup } from './simulation-setup';
+import type { AnySetup } from './simulation-setup';
 
 // a module-local constant stays a plain number in every build
 const STATE_SIZE: number = STATE_SIZE_;
@@ -28,7 +28,7 @@ export const MAX_STEPS_PER_PIECE = 2000;
 export class StepCollapse extends Error {}
 
 /** Absolute error floors per state (see DEFAULT_SOLVER_OPTIONS); Infinity = excluded from step control. */
-export function errorFloors(setup: SimulationSetup): Float64Array {
+export function errorFloors(setup: AnySetup): Float64Array {
   const f = new Float64Array(STATE_SIZE);
   const s = setup.solver;
   f[I_D] = s.currentFloor * setup.Imax;
@@ -153,7 +153,7 @@ export class Rk4Stepper extends Stepper {
 }
 
 /** The stepper of a setup's solver options, integrating `y` (the run's state array). */
-export function makeStepper(setup: SimulationSetup, plant: Plant, y: Float64Array): Stepper {
+export function makeStepper(setup: AnySetup, plant: Plant, y: Float64Array): Stepper {
   const Ts = setup.controller.Ts;
   return setup.solver.method === 'cash-karp'
     ? new CashKarpStepper(plant, Ts, y, setup.solver.tol, errorFloors(setup))
