@@ -13,7 +13,6 @@ import { loadSchedule, loadLevel, coulombWidth } from '../simulation/plant';
 import type { PlantParams } from '../simulation/plant';
 import { stepSchedule } from '../control/controller';
 import type { ControllerConfig, ControlMode } from '../control/controller';
-import { DEFAULT_CONTROLLER_OPTIONS } from '../control/controller';
 import { buildReferenceTable, torqueLimitsAt } from '../control/reference-table';
 import type { ReferenceTable } from '../control/reference-table';
 import { safetyReport } from '../steady-state/safety';
@@ -99,7 +98,6 @@ export function simulationFromProject(p: ResolvedProject, overrides: SimulationO
   const cs = scenario.currentStep;
   const Ti = sp.Ki > 0 ? sp.Kp / sp.Ki : 0;
   const cfg: ControllerConfig = {
-    ...DEFAULT_CONTROLLER_OPTIONS,
     mode,
     Ts,
     delaySamples,
