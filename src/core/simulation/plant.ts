@@ -21,10 +21,11 @@
 import type { MachineInput, MachineModel } from '../machine/machine-model';
 import { machineModel } from '../machine/linear-dq';
 import { InputError } from '../base/errors';
-import { cosSinNear } from '../mathematics/rotation';
+import { cosSmall, sinSmall } from '../mathematics/rotation';
 
 // a module-local reference (a CommonJS build turns an imported binding into a property getter)
-const cosSinNearL = cosSinNear;
+const sinSmallL = sinSmall;
+const cosSmallL = cosSmall;
 
 export const I_D = 0;
 export const I_Q = 1;
@@ -225,8 +226,6 @@ export class Plant {
    * the time crosses the (not inlined) call as an unboxed double instead of a boxed argument.
    */
   readonly time = new Float64Array(1);
-  /** cos and sin of the rotor angle of the derivative being evaluated */
-  private readonly rot = new Float64Array(2);
 
   /** dy/dt of the state y at time t into dydt (a prototype method: one call target for every plant). */
   derivInto(dydt: Float64Array, y: Float64Array, t: number): void {
@@ -246,10 +245,19 @@ export class Plant {
     let vq: number;
     if (this.ab) {
       // cos/sin of the angle from those of the angle origin (see setAngleOrigin) and a short series
-      const r = this.rot;
-      cosSinNearL(this.c0, this.s0, y[3]! - this.th0, y[3]!, r);
-      const c = r[0]!;
-      const s = r[1]!;
+      // (inlined by the engine: the values stay in registers, nothing is boxed)
+      const d = y[3]! - this.th0;
+      let c: number;
+      let s: number;
+      if (d > -0.5 && d < 0.5) {
+        const sd = sinSmallL(d);
+        const cd = cosSmallL(d);
+        c = this.c0 * cd - this.s0 * sd;
+        s = this.s0 * cd + this.c0 * sd;
+      } else {
+        c = Math.cos(y[3]!);
+        s = Math.sin(y[3]!);
+      }
       vd = u[0]! * c + u[1]! * s;
       vq = -u[0]! * s + u[1]! * c;
     } else {
@@ -259,14 +267,17 @@ export class Plant {
     const we = this.p * w;
     const Ld = this.Ld;
     const Lq = this.Lq;
+    let Te: number;
     if (this.lin) {
+      // the constant-parameter closed form (fast path)
       dydt[0] = (vd - this.Rs * id + we * Lq * iq) * this.invLd;
       dydt[1] = (vq - this.Rs * iq - we * (Ld * id + this.psiM)) * this.invLq;
+      Te = 1.5 * this.p * (this.psiM * iq + (Ld - Lq) * id * iq);
     } else {
       this.currentDerivative(dydt, id, iq, we, vd, vq);
+      Te = this.model.torque(id, iq);
     }
     if (this.free) {
-      const Te = this.lin ? 1.5 * this.p * (this.psiM * iq + (Ld - Lq) * id * iq) : this.model.torque(id, iq);
       const TL = (this.segmented ? this.loadA + this.loadB * t : loadLevel(this.params.load, t)) + this.k2 * w * Math.abs(w);
       const Tc = this.Tc;
       const x = w * this.invW;

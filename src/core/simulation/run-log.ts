@@ -7,6 +7,7 @@
 import { RAD_S_TO_RPM } from '../base/units';
 import type { EventKind, SimulationEvent } from './simulation-setup';
 import type { PeakCurrentDetail } from './simulation-result';
+import { S_T, S_ID, S_IQ, S_W, S_ID_REF, S_IQ_REF } from './period-sample';
 
 export const MAX_INTERVALS = 200;
 
@@ -46,17 +47,17 @@ export class RunLog {
     this.events.push({ kind: 'overspeed', t_s: t0, tEnd_s: t1, message: `speed above ${(this.wOver * RAD_S_TO_RPM).toPrecision(4)} rpm` });
   }
 
-  /**
-   * The period starting at t0: the sampled |i|², the controller's flags and reference |i_ref|², the speed (rad/s).
-   */
-  observe(t0: number, i2: number, currentLimited: boolean, voltageSaturated: boolean, ref2: number, w: number): void {
+  /** The period's sample (see period-sample.ts) and the controller's flags. */
+  observe(x: Float64Array, currentLimited: boolean, voltageSaturated: boolean): void {
+    const t0 = x[S_T]!, id = x[S_ID]!, iq = x[S_IQ]!, w = x[S_W]!;
+    const i2 = id * id + iq * iq;
     const { gap, Ts } = this;
     this.sumI2 += i2;
     if (currentLimited) { if (this.curStart < 0) this.curStart = t0; this.curOff = 0; }
     else if (this.curStart >= 0 && ++this.curOff >= gap) { this.closeInterval('current-limit', this.curStart, t0 - (gap - 1) * Ts, this.curCount++); this.curStart = -1; }
     if (voltageSaturated) { this.satPeriods++; this.lastSatT = t0; if (this.satStart < 0) this.satStart = t0; this.satOff = 0; }
     else if (this.satStart >= 0 && ++this.satOff >= gap) { this.closeInterval('voltage-saturation', this.satStart, t0 - (gap - 1) * Ts, this.satCount++); this.satStart = -1; }
-    this.peak(i2, t0, ref2);
+    if (i2 > this.peakI2) this.peak(i2, t0, x[S_ID_REF]! * x[S_ID_REF]! + x[S_IQ_REF]! * x[S_IQ_REF]!);
     if (Math.abs(w) > this.wOver) { if (this.overStart < 0) this.overStart = t0; }
     else if (this.overStart >= 0) { this.overspeedEvent(this.overStart, t0); this.overStart = -1; }
   }

@@ -22,6 +22,7 @@ import { finiteOrNull } from './metrics';
 import { makeStepper } from './stepper';
 import { TraceRecorder } from './recorder';
 import { RunLog } from './run-log';
+import { PERIOD_SAMPLE_SIZE, S_T, S_ID, S_IQ, S_W, S_ID_REF, S_IQ_REF, S_TORQUE_REF, S_SPEED_REF } from './period-sample';
 import { BudgetWatch, CHECK_EVERY, CurrentOscillationWatch, SpeedSwingWatch, divergence, integratorFailure } from './watchdogs';
 import { DEFAULT_RUN_OPTIONS, type EventKind, type RunOptions, type AnySetup } from './simulation-setup';
 import type { SimulationMetrics, SimulationResult, SimulationStats } from './simulation-result';
@@ -87,10 +88,11 @@ export function runSimulation(setup: AnySetup, opts: RunOptions = {}): Simulatio
   const rec = new TraceRecorder(setup, plant.model, plant, ctrl, N, o.maxPoints);
   const hist = new Uint32Array(1025);
   const vab = plant.input;
-  const bounds = { trip_A: Math.min(20 * setup.Imax, setup.tripCurrent_A), Imax: setup.Imax, speed_rad_s: setup.divergenceSpeed_rad_s };
+  const bounds = { trip_A: Math.min(20 * setup.Imax, setup.tripCurrent_A), Imax: setup.Imax, speed_rad_s: setup.divergenceSpeed_rad_s, Ts };
   const osc = new CurrentOscillationWatch(setup.Imax);
   const swing = setup.controller.mode === 'speed' ? new SpeedSwingWatch() : null;
   const smp = ctrl.sample;
+  const x = new Float64Array(PERIOD_SAMPLE_SIZE);
 
   let stop: Stop | null = null;
   let k = 0;
@@ -104,10 +106,10 @@ export function runSimulation(setup: AnySetup, opts: RunOptions = {}): Simulatio
     smp[0] = t0; smp[1] = y[I_D]!; smp[2] = y[I_Q]!; smp[3] = y[OMEGA]!; smp[4] = th0; smp[5] = plant.c0; smp[6] = plant.s0;
     ctrl.stepSampled(vab);
     rec.record(k, y);
-    const id0 = y[I_D]!, iq0 = y[I_Q]!, w0 = y[OMEGA]!;
-    log.observe(t0, id0 * id0 + iq0 * iq0, ctrl.currentLimited, ctrl.voltageSaturated, ctrl.idRef * ctrl.idRef + ctrl.iqRef * ctrl.iqRef, w0);
-    const why = osc.check(k, t0, ctrl.idRef - id0, ctrl.iqRef - iq0, id0, iq0, w0)
-      ?? (swing ? swing.check(t0, ctrl.torqueClamped, ctrl.torqueRef, id0, iq0, w0, ctrl.speedRefOut) : null);
+    x[S_T] = t0; x[S_ID] = y[I_D]!; x[S_IQ] = y[I_Q]!; x[S_W] = y[OMEGA]!;
+    x[S_ID_REF] = ctrl.idRef; x[S_IQ_REF] = ctrl.iqRef; x[S_TORQUE_REF] = ctrl.torqueRef; x[S_SPEED_REF] = ctrl.speedRefOut;
+    log.observe(x, ctrl.currentLimited, ctrl.voltageSaturated);
+    const why = osc.check(k, x) ?? (swing ? swing.check(x, ctrl.torqueClamped) : null);
     if (why !== null) { stop = { kind: 'divergence', t: t0, message: why }; break; }
 
     const e0 = plant.evaluations;
@@ -123,7 +125,7 @@ export function runSimulation(setup: AnySetup, opts: RunOptions = {}): Simulatio
     let th = y[THETA]! % TWO_PI;
     if (th < 0) th += TWO_PI;
     y[THETA] = th;
-    const gone = divergence(bounds, t0, t1, y[I_D]!, y[I_Q]!, y[OMEGA]!, th, rec.last);
+    const gone = divergence(bounds, k, y, rec.last);
     if (gone !== null) { stop = { kind: 'divergence', t: t1, message: gone }; break; }
     if ((k & (CHECK_EVERY - 1)) === CHECK_EVERY - 1) {
       const b = budget.check(t1);

@@ -71,28 +71,41 @@ export abstract class Stepper {
   protected abstract piece(y: Float64Array, tStart: number, tEnd: number): void;
 }
 
-type Integrator = ReturnType<typeof ode45>;
+/**
+ * The integrator with the run's plant and error floors attached: the library calls the derivative
+ * and the error scale as its own methods, so the functions below (one for every run, so the engine
+ * can inline them) read the run's state through `this`, and nothing is shared between runs.
+ */
+type Integrator = ReturnType<typeof ode45> & { plant: Plant; floors: Float64Array };
+
+function plantDeriv(this: Integrator, dydt: Float64Array, y: Float64Array, t: number): void {
+  const pl = this.plant;
+  pl.time[0] = t; // through a typed array: t would be boxed as an argument of the call below
+  pl.derivAt(dydt, y);
+}
+
+/** error scale |y| + |dt·dy/dt| plus an absolute floor per state (ode45-cash-karp's default has none) */
+function floorErrorScale(this: Integrator, i: number, dt: number, y: number, dydt: number): number {
+  return this.floors[i]! + Math.abs(y) + Math.abs(dt * dydt);
+}
 
 export class CashKarpStepper extends Stepper {
   private readonly integ: Integrator;
   constructor(plant: Plant, Ts: number, y: Float64Array, tol: number, floors: Float64Array) {
     super(plant, Ts);
-    const deriv = (dydt: Float64Array, s: Float64Array, t: number): void => {
-      plant.time[0] = t; // through a typed array: t would be boxed as an argument of the call below
-      plant.derivAt(dydt, s);
-    };
-    // error scale |y| + |dt·dy/dt| plus an absolute floor per state (ode45-cash-karp's default has none)
-    const errorScale = (i: number, dt: number, x: number, dxdt: number): number => floors[i]! + Math.abs(x) + Math.abs(dt * dxdt);
-    this.integ = ode45(y, deriv as never, 0, Ts, {
+    const integ = ode45(y, plantDeriv as never, 0, Ts, {
       tol,
       dtMaxMag: Ts,
       // a floor on the step: the library's rejection loop shrinks the step by at least 0.9 per try,
       // so it ends within ~260 tries even if the error never falls (then the period diverges)
       dtMinMag: Ts * 1e-12,
-      errorScaleFunction: errorScale,
+      errorScaleFunction: floorErrorScale as never,
       errorReduceFunction: maxReduce,
       verbose: false,
-    });
+    }) as Integrator;
+    integ.plant = plant;
+    integ.floors = floors;
+    this.integ = integ;
   }
 
   /** The integrator works on the array it was created with: `y` must be that array. */

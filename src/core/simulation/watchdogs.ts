@@ -17,6 +17,7 @@
  */
 import { RAD_S_TO_RPM } from '../base/units';
 import { StepCollapse } from './stepper';
+import { S_T, S_ID, S_IQ, S_W, S_ID_REF, S_IQ_REF, S_TORQUE_REF, S_SPEED_REF } from './period-sample';
 
 export const OSC_WINDOW = 64;
 export const OSC_LIMIT = 16;
@@ -37,8 +38,10 @@ export class CurrentOscillationWatch {
     this.eMin = 0.05 * Imax;
   }
 
-  /** Period k starting at t0 with current errors (ed, eq) and the state's id, iq, speed (rad/s). */
-  check(k: number, t0: number, ed: number, eq: number, id: number, iq: number, w: number): string | null {
+  /** Period k with its sample (see period-sample.ts): the current errors are reference - state. */
+  check(k: number, x: Float64Array): string | null {
+    const t0 = x[S_T]!, id = x[S_ID]!, iq = x[S_IQ]!, w = x[S_W]!;
+    const ed = x[S_ID_REF]! - id, eq = x[S_IQ_REF]! - iq;
     const eMin = this.eMin;
     const prevEd = this.prevEd;
     const prevEq = this.prevEq;
@@ -58,15 +61,17 @@ export class SpeedSwingWatch {
   private at = -Infinity;
   private swings = 0;
 
-  /** Period starting at t0: the torque reference (N·m) and whether it was clamped at a limit. */
-  check(t0: number, clamped: boolean, torqueRef: number, id: number, iq: number, w: number, wRef: number): string | null {
+  /** The period's sample (see period-sample.ts) and whether the torque reference was clamped at a limit. */
+  check(x: Float64Array, clamped: boolean): string | null {
     if (!clamped) return null;
+    const t0 = x[S_T]!, torqueRef = x[S_TORQUE_REF]!;
     const side = torqueRef > 0 ? 1 : -1;
     if (side === this.side) return null;
     this.swings = this.side !== 0 && t0 - this.at <= SWING_GAP_S ? this.swings + 1 : 0;
     this.side = side;
     this.at = t0;
     if (this.swings < SWING_LIMIT) return null;
+    const id = x[S_ID]!, iq = x[S_IQ]!, w = x[S_W]!, wRef = x[S_SPEED_REF]!;
     return `diverged at t = ${t0.toPrecision(6)} s: the speed loop oscillates (the torque reference swung between the motoring and the generating limit ${this.swings} times, each within ${SWING_GAP_S} s of the last); state id = ${id.toPrecision(6)} A, iq = ${iq.toPrecision(6)} A, speed = ${(w * RAD_S_TO_RPM).toPrecision(6)} rpm, reference ${(wRef * RAD_S_TO_RPM).toPrecision(6)} rpm (lower the speed gains, or check the inertia)`;
   }
 }
@@ -77,13 +82,18 @@ export interface DivergenceBounds {
   trip_A: number;
   Imax: number;
   speed_rad_s: number;
+  /** control period, s */
+  Ts: number;
 }
 
 /**
- * The state (id, iq, w, th) at the end of the period [t0, t1], or null when it is finite and
- * within the bounds. `last` is the last recorded sample [t, speed rpm, id, iq] (what it was before).
+ * The state y at the end of period k, [t0, t1] = [k, k + 1]·Ts, or null when it is finite and within
+ * the bounds. `last` is the last recorded sample [t, speed rpm, id, iq] (what it was before).
  */
-export function divergence(b: DivergenceBounds, t0: number, t1: number, id: number, iq: number, w: number, th: number, last: Float64Array): string | null {
+export function divergence(b: DivergenceBounds, k: number, y: Float64Array, last: Float64Array): string | null {
+  const id = y[0]!, iq = y[1]!, w = y[2]!, th = y[3]!;
+  const t0 = k * b.Ts;
+  const t1 = (k + 1) * b.Ts;
   const bad = !(Number.isFinite(id) && Number.isFinite(iq) && Number.isFinite(w) && Number.isFinite(th));
   const trip2 = b.trip_A * b.trip_A;
   if (!(bad || id * id + iq * iq > trip2 || Math.abs(w) > b.speed_rad_s)) return null;
