@@ -28,7 +28,7 @@ import type { ReferenceTable } from './reference-table';
 import { lookupCurrents, torqueLimitsAt } from './reference-table';
 import { scheduleValue, type StepSchedule } from './step-schedule';
 import { limitVoltageDq, type VoltageLimitSpec } from './voltage-limit';
-import { cosSinNear } from '../mathematics/rotation';
+import { cosSmall, sinSmall } from '../mathematics/rotation';
 
 export { stepSchedule, scheduleValue, type StepSchedule } from './step-schedule';
 export { limitVoltageDq, voltageLimitAt, type VoltageLimitSpec } from './voltage-limit';
@@ -39,7 +39,8 @@ const lookupCurrentsL = lookupCurrents;
 const torqueLimitsAtL = torqueLimitsAt;
 const scheduleValueL = scheduleValue;
 const limitVoltageDqL = limitVoltageDq;
-const cosSinNearL = cosSinNear;
+const sinSmallL = sinSmall;
+const cosSmallL = cosSmall;
 
 export type ControlMode = 'speed' | 'torque' | 'current-step';
 export type AntiWindup = 'clamping' | 'back-calculation';
@@ -127,8 +128,6 @@ export class CascadeController {
   private readonly bufA = new Float64Array(MAX_DELAY);
   private readonly bufB = new Float64Array(MAX_DELAY);
   private readonly tmp = new Float64Array(2);
-  /** cos and sin of the inverse-Park angle */
-  private readonly cs = new Float64Array(2);
   /**
    * The sample of `stepSampled`: [t, i_d, i_q, omega_m, theta_e, cos theta_e, sin theta_e].
    * Passing the sample through this array instead of arguments keeps the engine from boxing
@@ -302,12 +301,9 @@ export class CascadeController {
       ffd = decoup ? -we * this.Lq * iq : 0;
       ffq = (decoup ? we * this.Ld * id : 0) + (this.bemf ? we * this.psiM : 0);
     } else {
-      // generic: cross-coupling we·J·(psi(i) - psi(0)), back-EMF we·J·psi(0), J·psi = (-psi_q, psi_d)
-      const psi = this.psi;
-      const psi0 = this.psi0;
-      this.model.flux(id, iq, psi);
-      ffd = (decoup ? -we * (psi[1]! - psi0[1]!) : 0) + (this.bemf ? -we * psi0[1]! : 0);
-      ffq = (decoup ? we * (psi[0]! - psi0[0]!) : 0) + (this.bemf ? we * psi0[0]! : 0);
+      const ff = this.feedForwardFromFlux(id, iq, we);
+      ffd = ff[0]!;
+      ffq = ff[1]!;
     }
     const ud = this.kpD * ed + this.xd + ffd;
     const uq = this.kpQ * eq + this.xq + ffq;
@@ -337,10 +333,19 @@ export class CascadeController {
 
     // ---- inverse Park at theta + dth: cos and sin from those of the sampled angle, rotated by dth
     // with a short series (truncation below 2e-14 for |dth| < 0.5), else computed directly
-    const cs2 = this.cs;
-    cosSinNearL(x[5]!, x[6]!, dth, thApply, cs2);
-    const cs = cs2[0]!;
-    const sn = cs2[1]!;
+    let cs: number;
+    let sn: number;
+    if (dth > -0.5 && dth < 0.5) {
+      const sd = sinSmallL(dth);
+      const cd = cosSmallL(dth);
+      const c0 = x[5]!;
+      const s0 = x[6]!;
+      cs = c0 * cd - s0 * sd;
+      sn = s0 * cd + c0 * sd;
+    } else {
+      cs = Math.cos(thApply);
+      sn = Math.sin(thApply);
+    }
     const va = vd * cs - vq * sn;
     const vb = vd * sn + vq * cs;
     const D = this.D;
@@ -355,6 +360,23 @@ export class CascadeController {
       this.bufB[slot] = vb;
     }
     this.k++;
+  }
+
+  /**
+   * The generic feed-forward (dq voltages, into the returned scratch): cross-coupling
+   * we·J·(psi(i) - psi(0)) and back-EMF we·J·psi(0), J·psi = (-psi_q, psi_d). Apart from
+   * `stepSampled` so that the period step stays small enough for the engine to inline.
+   */
+  private feedForwardFromFlux(id: number, iq: number, we: number): Float64Array {
+    const psi = this.psi;
+    const psi0 = this.psi0;
+    const decoup = this.decoup;
+    this.model.flux(id, iq, psi);
+    const d = (decoup ? -we * (psi[1]! - psi0[1]!) : 0) + (this.bemf ? -we * psi0[1]! : 0);
+    const q = (decoup ? we * (psi[0]! - psi0[0]!) : 0) + (this.bemf ? we * psi0[0]! : 0);
+    psi[0] = d;
+    psi[1] = q;
+    return psi;
   }
 
   private speedLoop(): void {

@@ -92,11 +92,18 @@ export interface DivergenceBounds {
  */
 export function divergence(b: DivergenceBounds, k: number, y: Float64Array, last: Float64Array): string | null {
   const id = y[0]!, iq = y[1]!, w = y[2]!, th = y[3]!;
+  const bad = !(Number.isFinite(id) && Number.isFinite(iq) && Number.isFinite(w) && Number.isFinite(th));
+  if (!(bad || id * id + iq * iq > b.trip_A * b.trip_A || Math.abs(w) > b.speed_rad_s)) return null;
+  return divergenceMessage(b, k, y, last);
+}
+
+/** The words of `divergence` (apart, so that the check itself stays small enough to inline). */
+function divergenceMessage(b: DivergenceBounds, k: number, y: Float64Array, last: Float64Array): string {
+  const id = y[0]!, iq = y[1]!, w = y[2]!, th = y[3]!;
   const t0 = k * b.Ts;
   const t1 = (k + 1) * b.Ts;
   const bad = !(Number.isFinite(id) && Number.isFinite(iq) && Number.isFinite(w) && Number.isFinite(th));
   const trip2 = b.trip_A * b.trip_A;
-  if (!(bad || id * id + iq * iq > trip2 || Math.abs(w) > b.speed_rad_s)) return null;
   const nonFinite = [['id', id], ['iq', iq], ['speed', w], ['angle', th]].filter(([, x]) => !Number.isFinite(x as number)).map(([n]) => n).join(', ');
   const what = bad
     ? `a state became non-finite (${nonFinite}); at t = ${t0.toPrecision(6)} s it was id = ${st(last[2]!)} A, iq = ${st(last[3]!)} A, speed = ${st(last[1]!)} rpm`
