@@ -15,6 +15,11 @@
  * dq with the rotor angle of the state; `inputFrame: 'dq'` holds it constant in dq instead (used
  * for open-loop steady-state checks).
  *
+ * The machine is a machine model (../machine/machine-model.ts): with constant Ld, Lq, psiM
+ * (`model.linear`) the equations above are evaluated as written (the fast path); any other model
+ * goes through its flux and incremental inductance, L_inc di/dt = v - Rs i - we J psi (see
+ * `currentDerivative`), and its torque. Both agree on the linear model (test/machine-paths.test.ts).
+ *
  * The sign of the Coulomb friction is smoothed as x / sqrt(1 + x²), x = omega / w, with a width w
  * chosen so that the friction term is not stiff at the control period (see `coulombWidth`).
  */
