@@ -4,8 +4,9 @@ import { describe, expect, it } from 'vitest';
 import { runCase, DEMOS, COMMAND_NAMES, type Outcome } from '../trust/fuzz-cases';
 import { resolveProject } from '../src/core/project/project';
 import { parseProject } from '../src/core/project/schema';
-import { tuneFromProject } from '../src/core/control/tuning';
-import { simulationFromProject, runSimulation } from '../src/core/simulation/simulate';
+import { tuneFromProject } from '../src/core/project/tuning-from-project';
+import { runSimulation } from '../src/core/simulation/simulate';
+import { simulationFromProject } from '../src/core/project/simulation-from-project';
 import { computeEnvelope } from '../src/core/steady-state/envelope';
 import { InputError } from '../src/core/base/errors';
 

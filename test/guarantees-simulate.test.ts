@@ -4,7 +4,8 @@ import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
 import { resolveProject } from '../src/core/project/project';
 import { parseProject } from '../src/core/project/schema';
-import { simulationFromProject, runSimulation, type SimulationResult, type SimulationSetup } from '../src/core/simulation/simulate';
+import { runSimulation, type SimulationResult, type SimulationSetup } from '../src/core/simulation/simulate';
+import { simulationFromProject } from '../src/core/project/simulation-from-project';
 import { DEMOS, DEMO_NAMES, nonFinite } from '../trust/fuzz-cases';
 
 type Json = Record<string, any>;

@@ -6,6 +6,8 @@ import {
   effectiveBus,
   hexagonRadius,
   hexagonVertex,
+  inscribedRadius,
+  modulationLimit,
   voltageLimit,
 } from '../src/core/drive/inverter';
 import type { InverterSpec } from '../src/core/drive/inverter-spec';
@@ -87,5 +89,24 @@ describe('hexagon', () => {
     for (let a = 0; a < Math.PI / 3; a += 0.05) {
       expect(hexagonRadius(600, a) * Math.cos(a - Math.PI / 6)).toBeCloseTo(600 / Math.sqrt(3), 10);
     }
+  });
+});
+
+describe('controller voltage limit per modulation (whole effective bus)', () => {
+  // Holmes and Lipo, 2003, Pulse Width Modulation for Power Converters: sine-triangle range Vdc/2,
+  // space-vector inscribed circle Vdc/sqrt(3), six-step hexagon with vertices at 2 Vdc/3
+  it('sinusoidal: circle of Vdc/2 on the bus after the device drops', () => {
+    expect(modulationLimit(spec({ modulation: 'sinusoidal', deviceDrop: 1 }))).toEqual({ shape: 'circle', radius: 299, Vdc: 598 });
+  });
+  it('SVPWM: the inscribed circle Vdc/sqrt(3)', () => {
+    const l = modulationLimit(spec());
+    expect(l.shape).toBe('circle');
+    expect(l.radius).toBeCloseTo(346.41016, 4);
+  });
+  it('six-step: the hexagon, inscribed radius Vdc/sqrt(3), 2 Vdc/3 at a vertex', () => {
+    const l = modulationLimit(spec({ modulation: 'six-step' }));
+    expect(l.shape).toBe('hexagon');
+    expect(l.radius).toBe(inscribedRadius(600));
+    expect(hexagonRadius(l.Vdc, 0)).toBeCloseTo(400, 10);
   });
 });

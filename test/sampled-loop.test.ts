@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { readFileSync } from 'node:fs';
 import { resolve } from 'node:path';
 import { sampledCurrentOpenLoop, sampledMargins, sampledSpeedOpenLoop, UnwrappedResponse, zohFirstOrder, zohStateSpace, type SampledSpeedLoopSpec } from '../src/core/control/sampled-loop';
-import { tuneFromProject } from '../src/core/control/tuning';
+import { tuneFromProject } from '../src/core/project/tuning-from-project';
 import { loadProjectText } from '../src/core/project/project';
 
 // ---------------------------------------------------------------- an independent route

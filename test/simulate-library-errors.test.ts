@@ -22,7 +22,8 @@ vi.mock('ode45-cash-karp', async (importOriginal) => {
 
 const { resolveProject } = await import('../src/core/project/project');
 const { parseProject } = await import('../src/core/project/schema');
-const { runSimulation, simulationFromProject } = await import('../src/core/simulation/simulate');
+const { runSimulation } = await import('../src/core/simulation/simulate');
+const { simulationFromProject } = await import('../src/core/project/simulation-from-project');
 const { simulationReport } = await import('../src/cli/commands/simulate');
 const { DEMOS } = await import('../trust/fuzz-cases');
 

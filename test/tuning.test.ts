@@ -1,7 +1,8 @@
 import { describe, expect, it } from 'vitest';
 import { readFileSync } from 'node:fs';
 import { resolve } from 'node:path';
-import { tuneLoops, tuneFromProject, imcCurrentGains, symmetricOptimumGains } from '../src/core/control/tuning';
+import { tuneLoops, imcCurrentGains, symmetricOptimumGains } from '../src/core/control/tuning';
+import { tuneFromProject } from '../src/core/project/tuning-from-project';
 import type { TuningInput } from '../src/core/control/tuning';
 import { loadProjectText } from '../src/core/project/project';
 

@@ -12,7 +12,8 @@ import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { resolveProject } from '../src/core/project/project';
 import { parseProject } from '../src/core/project/schema';
-import { simulationFromProject, runSimulation, MAX_CONTROL_PERIODS } from '../src/core/simulation/simulate';
+import { runSimulation, MAX_CONTROL_PERIODS } from '../src/core/simulation/simulate';
+import { simulationFromProject } from '../src/core/project/simulation-from-project';
 
 const root = join(import.meta.dirname, '..');
 const now = (): number => performance.now();

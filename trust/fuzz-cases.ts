@@ -18,7 +18,8 @@ import { InputError, problemLines } from '../src/core/base/errors';
 import { COMMANDS } from '../src/cli/commands/registry';
 import { parseArgs } from '../src/cli/args';
 import { checkFlags } from '../src/cli/args';
-import { simulationFromProject, runSimulation } from '../src/core/simulation/simulate';
+import { runSimulation } from '../src/core/simulation/simulate';
+import { simulationFromProject } from '../src/core/project/simulation-from-project';
 import { simulationReport } from '../src/cli/commands/simulate';
 import { terminalText } from '../src/cli/terminal';
 

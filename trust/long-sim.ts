@@ -8,7 +8,8 @@ import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { resolveProject } from '../src/core/project/project';
 import { parseProject } from '../src/core/project/schema';
-import { simulationFromProject, runSimulation } from '../src/core/simulation/simulate';
+import { runSimulation } from '../src/core/simulation/simulate';
+import { simulationFromProject } from '../src/core/project/simulation-from-project';
 import { DEFAULT_MAX_POINTS } from '../src/core/simulation/decimate';
 
 export const LONG_SIM = { duration_s: 60, fCtrl_Hz: 20000 } as const;

@@ -1,6 +1,6 @@
 import type { Command } from '../command';
 import { table, fmt, orDash } from '../table';
-import { tuneFromProject, tuningInputFromProject } from '../../core/control/tuning';
+import { tuneFromProject, tuningInputFromProject } from '../../core/project/tuning-from-project';
 import type { LoopReport, TuningReport } from '../../core/control/tuning';
 import { findingLine } from '../../core/reports/phrases';
 

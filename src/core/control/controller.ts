@@ -22,156 +22,28 @@
  *
  * All state is preallocated; `step` allocates nothing.
  */
-import type { DqMachine } from '../machine/dq-machine';
-import type { ReferenceTable } from './reference-table';
+import type { MachineModel } from '../machine/machine-model';
+import { machineModel } from '../machine/linear-dq';
 import { lookupCurrents, torqueLimitsAt } from './reference-table';
-import { hexagonRadius } from '../drive/inverter';
+import { scheduleValue } from './step-schedule';
+import { limitVoltageDq } from './voltage-limit';
+import { cosSmall, sinSmall } from '../mathematics/rotation';
+
+export { stepSchedule, scheduleValue, type StepSchedule } from './step-schedule';
+export { limitVoltageDq, voltageLimitAt, type VoltageLimitSpec } from './voltage-limit';
+export { DEFAULT_CONTROLLER_OPTIONS, type AntiWindup, type ControlMode, type ControllerConfig, type PiGains } from './controller-config';
+import type { ControllerConfig } from './controller-config';
 
 // module-local references to the imported functions called every period (a CommonJS build turns
 // an imported binding into a property getter called at each use)
 const lookupCurrentsL = lookupCurrents;
 const torqueLimitsAtL = torqueLimitsAt;
-
-export type ControlMode = 'speed' | 'torque' | 'current-step';
-export type AntiWindup = 'clamping' | 'back-calculation';
-
-export interface PiGains {
-  /** proportional gain (V/A for current loops, N·m/(rad/s) for the speed loop) */
-  Kp: number;
-  /** integral gain (V/(A·s), N·m/rad) */
-  Ki: number;
-}
-
-/** A piecewise-constant schedule: value `initial` before times[0], values[k] from times[k] on. */
-export interface StepSchedule {
-  initial: number;
-  times: Float64Array;
-  values: Float64Array;
-}
-
-export function stepSchedule(initial: number, steps: ReadonlyArray<{ t: number; v: number }>): StepSchedule {
-  const s = [...steps].sort((a, b) => a.t - b.t);
-  return { initial, times: Float64Array.from(s.map((x) => x.t)), values: Float64Array.from(s.map((x) => x.v)) };
-}
-
-export interface VoltageLimitSpec {
-  /** 'circle': |v| <= radius; 'hexagon': the bridge's hexagon for the bus `Vdc` */
-  shape: 'circle' | 'hexagon';
-  /** circle radius (peak phase V); for the hexagon the inscribed radius Vdc/sqrt(3) */
-  radius: number;
-  /** effective bus voltage (hexagon only), V */
-  Vdc: number;
-}
-
-export interface ControllerConfig {
-  mode: ControlMode;
-  /** control period, s */
-  Ts: number;
-  /** whole periods between sampling and applying the voltage (0 = ideal) */
-  delaySamples: number;
-  machine: DqMachine;
-  currentD: PiGains;
-  currentQ: PiGains;
-  speed: PiGains;
-  /** the speed loop runs every this many current periods (>= 1) */
-  speedLoopDivider: number;
-  antiWindup: AntiWindup;
-  /** cross-coupling feed-forward -omega_e L_q i_q (d) and omega_e L_d i_d (q) */
-  decoupling: boolean;
-  /** back-EMF feed-forward omega_e psi_m on the q axis */
-  backEmfFeedForward: boolean;
-  /** advance the inverse-Park angle by (delaySamples + 0.5)·omega_e·Ts */
-  delayAngleCompensation: boolean;
-  /** slew limit of the speed reference, rad/s² (Infinity = none) */
-  speedRamp_rad_s2: number;
-  /** time constant of a first-order speed-reference prefilter, s (0 = none) */
-  speedRefPrefilter_s: number;
-  /** peak current limit of the references, A */
-  Imax: number;
-  voltage: VoltageLimitSpec;
-  /** torque -> currents (speed and torque modes) */
-  table: ReferenceTable | null;
-  /** speed reference, rad/s (speed mode) */
-  speedRef: StepSchedule;
-  /** torque reference, N·m (torque mode) */
-  torqueRef: StepSchedule;
-  /** current references, A (current-step mode) */
-  idRef: StepSchedule;
-  iqRef: StepSchedule;
-  /** torque the speed integrator starts at (bumpless start against the initial load), N·m */
-  initialTorque: number;
-}
-
-export const DEFAULT_CONTROLLER_OPTIONS = {
-  delaySamples: 1,
-  speedLoopDivider: 1,
-  antiWindup: 'clamping' as AntiWindup,
-  decoupling: true,
-  backEmfFeedForward: true,
-  delayAngleCompensation: true,
-  speedRamp_rad_s2: Infinity,
-  speedRefPrefilter_s: 0,
-};
+const scheduleValueL = scheduleValue;
+const limitVoltageDqL = limitVoltageDq;
+const sinSmallL = sinSmall;
+const cosSmallL = cosSmall;
 
 const MAX_DELAY = 16;
-
-export function scheduleValue(s: StepSchedule, t: number): number {
-  let v = s.initial;
-  const n = s.times.length;
-  for (let k = 0; k < n; k++) {
-    if (s.times[k]! <= t) v = s.values[k]!; else break;
-  }
-  return v;
-}
-
-/**
- * Limit (vd, vq) to the modulation limit with d-axis priority. `theta` is the electrical angle at
- * which the vector will be applied (its d axis direction in the alpha-beta plane). Writes out[0..1];
- * returns true when the vector was changed.
- */
-export function limitVoltageDq(spec: VoltageLimitSpec, vd: number, vq: number, theta: number, out: Float64Array): boolean {
-  if (spec.shape === 'circle') {
-    const R = spec.radius;
-    if (vd * vd + vq * vq <= R * R) {
-      out[0] = vd; out[1] = vq;
-      return false;
-    }
-    const d = vd > R ? R : vd < -R ? -R : vd;
-    const qm = Math.sqrt(Math.max(0, R * R - d * d));
-    out[0] = d;
-    out[1] = vq > qm ? qm : vq < -qm ? -qm : vq;
-    return true;
-  }
-  // hexagon: |n_k · v| <= h for the edge normals n_k at 30°, 90°, 150° (alpha-beta), h = Vdc/sqrt(3)
-  const h = spec.radius;
-  const rd = hexagonRadius(spec.Vdc, theta);
-  const d = vd > rd ? rd : vd < -rd ? -rd : vd;
-  let qLo = -Infinity;
-  let qHi = Infinity;
-  for (let k = 0; k < 3; k++) {
-    const phi = Math.PI / 6 + (k * Math.PI) / 3 - theta;
-    const c = Math.cos(phi);
-    const s = Math.sin(phi);
-    // h >= |d c + q s|
-    if (Math.abs(s) < 1e-12) continue;
-    const a = (-h - d * c) / s;
-    const b = (h - d * c) / s;
-    const lo = a < b ? a : b;
-    const hi = a < b ? b : a;
-    if (lo > qLo) qLo = lo;
-    if (hi < qHi) qHi = hi;
-  }
-  if (qLo > qHi) qLo = qHi = 0.5 * (qLo + qHi);
-  const q = vq > qHi ? qHi : vq < qLo ? qLo : vq;
-  out[0] = d;
-  out[1] = q;
-  return d !== vd || q !== vq;
-}
-
-/** Largest length of an alpha-beta vector at this angle, V. */
-export function voltageLimitAt(spec: VoltageLimitSpec, angle: number): number {
-  return spec.shape === 'circle' ? spec.radius : hexagonRadius(spec.Vdc, angle);
-}
 
 export class CascadeController {
   readonly cfg: ControllerConfig;
@@ -206,6 +78,12 @@ export class CascadeController {
   private speedCounter = 0;
   /** the torque reference was clamped to a drive limit this period (speed and torque modes) */
   torqueClamped = false;
+  /** the machine model; its closed form (the feed-forward with Ld, Lq, psiM) taken when `model.linear` is non-null */
+  readonly model: MachineModel;
+  private readonly lin: boolean;
+  /** flux at zero current (the back-EMF feed-forward's), and the flux of the sampled current */
+  private readonly psi0 = new Float64Array(2);
+  private readonly psi = new Float64Array(2);
   // the configuration's hot numbers as plain fields (read once per period)
   private readonly modeN: number;
   private readonly Ts: number;
@@ -237,10 +115,16 @@ export class CascadeController {
     this.modeN = cfg.mode === 'speed' ? 0 : cfg.mode === 'torque' ? 1 : 2;
     this.Ts = cfg.Ts;
     this.D = cfg.delaySamples;
-    this.p = cfg.machine.polePairs;
-    this.Ld = cfg.machine.Ld;
-    this.Lq = cfg.machine.Lq;
-    this.psiM = cfg.machine.psiM;
+    const model = machineModel(cfg.machine);
+    this.model = model;
+    const lin = model.linear;
+    this.lin = lin !== null;
+    this.p = model.polePairs;
+    this.Ld = lin ? lin.Ld : NaN;
+    this.Lq = lin ? lin.Lq : NaN;
+    // the flux at zero current: the magnet's (psiM, 0) for the linear model
+    model.flux(0, 0, this.psi0);
+    this.psiM = lin ? lin.psiM : this.psi0[0]!;
     this.Imax = cfg.Imax;
     this.kpD = cfg.currentD.Kp;
     this.kpQ = cfg.currentQ.Kp;
@@ -263,22 +147,29 @@ export class CascadeController {
    */
   reset(w0: number, theta0: number): void {
     const c = this.cfg;
-    const we = c.machine.polePairs * w0;
+    const we = this.p * w0;
     this.k = 0;
     this.speedCounter = 0;
     this.wRefRamp = w0;
     this.wRefFilt = w0;
     this.xd = 0;
-    this.xq = c.backEmfFeedForward ? 0 : we * c.machine.psiM;
+    this.xq = c.backEmfFeedForward ? 0 : we * this.psiM;
     this.xw = c.initialTorque;
     this.torqueRef = c.mode === 'speed' ? c.initialTorque : 0;
     this.bufA.fill(0);
     this.bufB.fill(0);
     for (let j = 0; j < c.delaySamples; j++) {
       const th = theta0 + (j + 0.5) * we * c.Ts;
-      const vq = we * c.machine.psiM;
-      this.bufA[j] = -vq * Math.sin(th);
-      this.bufB[j] = vq * Math.cos(th);
+      const vq = we * this.psiM;
+      if (this.lin) {
+        this.bufA[j] = -vq * Math.sin(th);
+        this.bufB[j] = vq * Math.cos(th);
+      } else {
+        // the back-EMF of the flux at zero current, (vd, vq) = we (-psi0_q, psi0_d), rotated to alpha-beta
+        const vd = -we * this.psi0[1]!;
+        this.bufA[j] = vd * Math.cos(th) - vq * Math.sin(th);
+        this.bufB[j] = vd * Math.sin(th) + vq * Math.cos(th);
+      }
     }
   }
 
@@ -311,7 +202,7 @@ export class CascadeController {
       if (++this.speedCounter >= c.speedLoopDivider) this.speedCounter = 0;
     } else if (mode === 1) {
       this.speedRefOut = w;
-      const T = scheduleValue(c.torqueRef, t);
+      const T = scheduleValueL(c.torqueRef, t);
       torqueLimitsAtL(c.table!, w, tmp);
       const Tc = T > tmp[0]! ? tmp[0]! : T < tmp[1]! ? tmp[1]! : T;
       this.torqueClamped = Tc !== T;
@@ -323,8 +214,8 @@ export class CascadeController {
     let idr: number;
     let iqr: number;
     if (mode === 2) {
-      idr = scheduleValue(c.idRef, t);
-      iqr = scheduleValue(c.iqRef, t);
+      idr = scheduleValueL(c.idRef, t);
+      iqr = scheduleValueL(c.iqRef, t);
     } else {
       lookupCurrentsL(c.table!, w, this.torqueRef, tmp);
       idr = tmp[0]!;
@@ -344,8 +235,16 @@ export class CascadeController {
     const ed = idr - id;
     const eq = iqr - iq;
     const decoup = this.decoup;
-    const ffd = decoup ? -we * this.Lq * iq : 0;
-    const ffq = (decoup ? we * this.Ld * id : 0) + (this.bemf ? we * this.psiM : 0);
+    let ffd: number;
+    let ffq: number;
+    if (this.lin) {
+      ffd = decoup ? -we * this.Lq * iq : 0;
+      ffq = (decoup ? we * this.Ld * id : 0) + (this.bemf ? we * this.psiM : 0);
+    } else {
+      const ff = this.feedForwardFromFlux(id, iq, we);
+      ffd = ff[0]!;
+      ffq = ff[1]!;
+    }
     const ud = this.kpD * ed + this.xd + ffd;
     const uq = this.kpQ * eq + this.xq + ffq;
     const dth = this.advance * we;
@@ -357,7 +256,7 @@ export class CascadeController {
     if (this.circle && ud * ud + uq * uq <= R * R) {
       vd = ud; vq = uq; sat = false;
     } else {
-      sat = limitVoltageDq(c.voltage, ud, uq, thApply, tmp);
+      sat = limitVoltageDqL(c.voltage, ud, uq, thApply, tmp);
       vd = tmp[0]!;
       vq = tmp[1]!;
     }
@@ -377,10 +276,8 @@ export class CascadeController {
     let cs: number;
     let sn: number;
     if (dth > -0.5 && dth < 0.5) {
-      // the plant's polynomials for sin and cos (see Plant.derivAt), written out
-      const d2 = dth * dth;
-      const sd = dth * (1 + d2 * (-1 / 6 + d2 * (1 / 120 + d2 * (-1 / 5040 + d2 * (1 / 362880 + d2 * (-1 / 39916800))))));
-      const cd = 1 + d2 * (-1 / 2 + d2 * (1 / 24 + d2 * (-1 / 720 + d2 * (1 / 40320 + d2 * (-1 / 3628800 + d2 * (1 / 479001600))))));
+      const sd = sinSmallL(dth);
+      const cd = cosSmallL(dth);
       const c0 = x[5]!;
       const s0 = x[6]!;
       cs = c0 * cd - s0 * sd;
@@ -405,12 +302,29 @@ export class CascadeController {
     this.k++;
   }
 
+  /**
+   * The generic feed-forward (dq voltages, into the returned scratch): cross-coupling
+   * we·J·(psi(i) - psi(0)) and back-EMF we·J·psi(0), J·psi = (-psi_q, psi_d). Apart from
+   * `stepSampled` so that the period step stays small enough for the engine to inline.
+   */
+  private feedForwardFromFlux(id: number, iq: number, we: number): Float64Array {
+    const psi = this.psi;
+    const psi0 = this.psi0;
+    const decoup = this.decoup;
+    this.model.flux(id, iq, psi);
+    const d = (decoup ? -we * (psi[1]! - psi0[1]!) : 0) + (this.bemf ? -we * psi0[1]! : 0);
+    const q = (decoup ? we * (psi[0]! - psi0[0]!) : 0) + (this.bemf ? we * psi0[0]! : 0);
+    psi[0] = d;
+    psi[1] = q;
+    return psi;
+  }
+
   private speedLoop(): void {
     const t = this.sample[0]!;
     const w = this.sample[3]!;
     const c = this.cfg;
     const Tsw = c.Ts * c.speedLoopDivider;
-    const target = scheduleValue(c.speedRef, t);
+    const target = scheduleValueL(c.speedRef, t);
     // ramp limit
     const dmax = c.speedRamp_rad_s2 * Tsw;
     const dr = target - this.wRefRamp;

@@ -23,10 +23,10 @@
  * Warnings (common practice, no source): phase margin under 45° a caution and under 30° a danger;
  * gain margin under 6 dB a caution; closed-loop peaking above 3 dB a caution.
  */
-import type { DqMachine } from '../machine/dq-machine';
+import type { MachineInput } from '../machine/machine-model';
+import { currentLoopPlant } from './current-loop-plant';
 import type { Finding } from '../base/finding';
 import { InputError } from '../base/errors';
-import type { ResolvedProject } from '../project/project';
 import { sampledBode, sampledCurrentOpenLoop, sampledMargins, sampledSpeedOpenLoop, UnwrappedResponse, type SampledResponse } from './sampled-loop';
 
 export interface Bode {
@@ -76,7 +76,8 @@ export type SpeedTuning =
   | { Kp: number; Ki: number };
 
 export interface TuningInput {
-  machine: DqMachine;
+  /** the machine model (or the constant dq terms it wraps); the current loops' R and L come from it at zero current */
+  machine: MachineInput;
   /** total inertia, kg·m² */
   inertia: number;
   viscousFriction: number;
@@ -234,7 +235,7 @@ export function bandwidthSpeedGains(J: number, omega_s: number): { Kp: number; K
 const hz = (f: number): string => (Math.abs(f) >= 100 ? f.toFixed(0) : f.toPrecision(3));
 
 export function tuneLoops(inp: TuningInput): TuningReport {
-  const m = inp.machine;
+  const m = currentLoopPlant(inp.machine);
   if (!(inp.fCtrl_Hz > 0)) throw new InputError('control.fCtrl_Hz', 'must be > 0 Hz');
   if (!(inp.inertia > 0)) throw new InputError('motor.inertia', 'must be > 0 kg·m²');
   if (!(m.Ld > 0 && m.Lq > 0)) throw new InputError('motor.Ld', 'must be > 0 H');
@@ -379,33 +380,4 @@ export function tuneLoops(inp: TuningInput): TuningReport {
     });
   }
   return { current, ...(currentQ ? { currentQ } : {}), speed, speedLagEquivalent_s: Tsigma, currentDelay_s: Td, warnings };
-}
-
-/** The tuning input of a project: hot machine, motor plus load inertia, the file's control section. */
-export function tuningInputFromProject(p: ResolvedProject): TuningInput {
-  const c = p.file.control;
-  const fCtrl_Hz = c?.fCtrl_Hz ?? 10000;
-  const current: CurrentTuning =
-    c?.currentKp !== undefined && c.currentKi !== undefined
-      ? { Kp: c.currentKp, Ki: c.currentKi }
-      : { bandwidth_Hz: c?.currentBandwidth_Hz ?? fCtrl_Hz * DEFAULT_CURRENT_BANDWIDTH_FRACTION };
-  const fc = 'bandwidth_Hz' in current ? current.bandwidth_Hz : current.Kp / p.hot.Lq / (2 * Math.PI);
-  let speed: SpeedTuning;
-  if (c?.speedKp !== undefined && c.speedKi !== undefined) speed = { Kp: c.speedKp, Ki: c.speedKi };
-  else if (c?.speedTuning?.method === 'symmetric-optimum') speed = { method: 'symmetric-optimum', a: c.speedTuning.a };
-  else speed = { method: 'bandwidth', bandwidth_Hz: c?.speedBandwidth_Hz ?? fc * DEFAULT_SPEED_BANDWIDTH_FRACTION };
-  return {
-    machine: p.hot,
-    inertia: p.mechanics.inertia + (p.file.scenario?.loadInertia ?? 0),
-    viscousFriction: p.mechanics.viscousFriction,
-    fCtrl_Hz,
-    delaySamples: c?.delaySamples ?? 1,
-    speedLoopDivider: c?.speedLoopDivider ?? 1,
-    current,
-    speed,
-  };
-}
-
-export function tuneFromProject(p: ResolvedProject): TuningReport {
-  return tuneLoops(tuningInputFromProject(p));
 }

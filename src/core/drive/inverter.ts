@@ -47,5 +47,29 @@ export function hexagonRadius(Vdc: number, angle: number): number {
   const sector = Math.PI / 3;
   let a = angle % sector;
   if (a < 0) a += sector;
-  return Vdc / Math.sqrt(3) / Math.cos(a - sector / 2);
+  return inscribedRadius(Vdc) / Math.cos(a - sector / 2);
+}
+
+/** Radius of the circle inscribed in the hexagon, Vdc/sqrt(3) (the SVPWM linear range). */
+export const inscribedRadius = (Vdc: number): number => Vdc / Math.sqrt(3);
+
+/** The voltage limit a controller holds its command to: a circle, or the bridge's hexagon for the bus `Vdc`. */
+export interface ModulationLimit {
+  /** 'circle': |v| <= radius; 'hexagon': the bridge's hexagon for the bus `Vdc` */
+  shape: 'circle' | 'hexagon';
+  /** circle radius (peak phase V); for the hexagon the inscribed radius Vdc/sqrt(3) */
+  radius: number;
+  /** effective bus voltage (hexagon only), V */
+  Vdc: number;
+}
+
+/**
+ * The whole modulation range of the effective bus (the utilisation headroom is the controller's):
+ * sinusoidal PWM a circle of MODULATION_GAIN.sinusoidal·Vdc, SVPWM the inscribed circle, six-step
+ * the hexagon itself.
+ */
+export function modulationLimit(inv: Pick<InverterSpec, 'Vdc' | 'deviceDrop' | 'modulation'>): ModulationLimit {
+  const Vdc = effectiveBus(inv);
+  if (inv.modulation === 'six-step') return { shape: 'hexagon', radius: inscribedRadius(Vdc), Vdc };
+  return { shape: 'circle', radius: inv.modulation === 'svpwm' ? inscribedRadius(Vdc) : MODULATION_GAIN.sinusoidal * Vdc, Vdc };
 }

@@ -297,3 +297,8 @@ export function parseProject(json: unknown): ProjectFile {
   const first = all[0] ?? { path: 'file', message: 'is not valid here' };
   throw new InputError(first.path, first.message, all.slice(0, MAX_PROBLEMS), Math.max(0, all.length - MAX_PROBLEMS));
 }
+
+/** The control section of a file that gives none, from the schema's own defaults. */
+export function defaultControl(): ControlSection {
+  return controlSchema.parse({});
+}

@@ -15,11 +15,22 @@
  * dq with the rotor angle of the state; `inputFrame: 'dq'` holds it constant in dq instead (used
  * for open-loop steady-state checks).
  *
+ * The machine is a machine model (../machine/machine-model.ts): with constant Ld, Lq, psiM
+ * (`model.linear`) the equations above are evaluated as written (the fast path); any other model
+ * goes through its flux and incremental inductance, L_inc di/dt = v - Rs i - we J psi (see
+ * `currentDerivative`), and its torque. Both agree on the linear model (test/machine-paths.test.ts).
+ *
  * The sign of the Coulomb friction is smoothed as x / sqrt(1 + x²), x = omega / w, with a width w
  * chosen so that the friction term is not stiff at the control period (see `coulombWidth`).
  */
-import type { DqMachine } from '../machine/dq-machine';
+import type { MachineInput, MachineModel } from '../machine/machine-model';
+import { machineModel } from '../machine/linear-dq';
 import { InputError } from '../base/errors';
+import { cosSmall, sinSmall } from '../mathematics/rotation';
+
+// a module-local reference (a CommonJS build turns an imported binding into a property getter)
+const sinSmallL = sinSmall;
+const cosSmallL = cosSmall;
 
 export const I_D = 0;
 export const I_Q = 1;
@@ -103,8 +114,9 @@ export function nextLoadBreak(s: LoadSchedule, t: number): number {
   return Infinity;
 }
 
-export interface PlantParams {
-  machine: DqMachine;
+export interface PlantParams<M extends MachineInput = MachineInput> {
+  /** the machine model, or the constant dq terms it wraps */
+  machine: M;
   /** total inertia, motor plus load, kg·m² */
   inertia: number;
   /** viscous friction B, N·m·s/rad */
@@ -130,12 +142,15 @@ export function coulombWidth(coulombFriction: number, inertia: number, Ts: numbe
 }
 
 export function validatePlant(p: PlantParams): void {
-  const m = p.machine;
-  if (!(Number.isInteger(m.polePairs) && m.polePairs >= 1)) throw new InputError('motor.polePairs', 'must be a whole number >= 1');
-  if (!(m.Rs >= 0)) throw new InputError('motor.Rs', 'must be >= 0 ohm');
-  if (!(m.Ld > 0)) throw new InputError('motor.Ld', 'must be > 0 H');
-  if (!(m.Lq > 0)) throw new InputError('motor.Lq', 'must be > 0 H');
-  if (!(m.psiM >= 0)) throw new InputError('motor.psiM', 'must be >= 0 Wb');
+  const model = machineModel(p.machine);
+  if (!(Number.isInteger(model.polePairs) && model.polePairs >= 1)) throw new InputError('motor.polePairs', 'must be a whole number >= 1');
+  if (!(model.Rs >= 0)) throw new InputError('motor.Rs', 'must be >= 0 ohm');
+  const m = model.linear;
+  if (m) {
+    if (!(m.Ld > 0)) throw new InputError('motor.Ld', 'must be > 0 H');
+    if (!(m.Lq > 0)) throw new InputError('motor.Lq', 'must be > 0 H');
+    if (!(m.psiM >= 0)) throw new InputError('motor.psiM', 'must be >= 0 Wb');
+  }
   if (!(p.inertia > 0)) throw new InputError('motor.inertia', 'must be > 0 kg·m² (motor plus scenario.loadInertia)');
   if (!(p.viscousFriction >= 0)) throw new InputError('motor.viscousFriction', 'must be >= 0 N·m·s/rad');
   if (!(p.coulombFriction >= 0)) throw new InputError('motor.coulombFriction', 'must be >= 0 N·m');
@@ -164,6 +179,13 @@ export class Plant {
   s0 = Math.sin(0.5);
   /** the derivative as a function value (dydt, y, t), for integrators that take one */
   readonly deriv: (dydt: Float64Array, y: Float64Array, t: number) => void;
+  /** the machine model the derivative asks (its closed form taken when `model.linear` is non-null) */
+  readonly model: MachineModel;
+  /** the model is linear: the constant-parameter fast path */
+  private readonly lin: boolean;
+  /** flux and incremental inductances of the generic path */
+  private readonly psi = new Float64Array(2);
+  private readonly Linc = new Float64Array(4);
   // constants of the derivative, as plain double fields
   private readonly p: number;
   private readonly Rs: number;
@@ -183,14 +205,17 @@ export class Plant {
   constructor(params: PlantParams) {
     validatePlant(params);
     this.params = params;
-    const m = params.machine;
-    this.p = m.polePairs;
-    this.Rs = m.Rs;
-    this.Ld = m.Ld;
-    this.Lq = m.Lq;
-    this.psiM = m.psiM;
-    this.invLd = 1 / m.Ld;
-    this.invLq = 1 / m.Lq;
+    const model = machineModel(params.machine);
+    this.model = model;
+    const m = model.linear;
+    this.lin = m !== null;
+    this.p = model.polePairs;
+    this.Rs = model.Rs;
+    this.Ld = m ? m.Ld : NaN;
+    this.Lq = m ? m.Lq : NaN;
+    this.psiM = m ? m.psiM : NaN;
+    this.invLd = m ? 1 / m.Ld : NaN;
+    this.invLq = m ? 1 / m.Lq : NaN;
     this.invJ = 1 / params.inertia;
     this.B = params.viscousFriction;
     this.Tc = params.coulombFriction;
@@ -225,16 +250,13 @@ export class Plant {
     let vq: number;
     if (this.ab) {
       // cos/sin of the angle from those of the angle origin (see setAngleOrigin) and a short series
+      // (inlined by the engine: the values stay in registers, nothing is boxed)
       const d = y[3]! - this.th0;
       let c: number;
       let s: number;
       if (d > -0.5 && d < 0.5) {
-        // Taylor polynomials of sin (through d^11) and cos (through d^12) in Horner form with constant
-        // coefficients, written out (a call would box its result at every evaluation); truncation
-        // below 2e-14 at |d| = 0.5. Common practice (no source).
-        const x = d * d;
-        const sd = d * (1 + x * (-1 / 6 + x * (1 / 120 + x * (-1 / 5040 + x * (1 / 362880 + x * (-1 / 39916800))))));
-        const cd = 1 + x * (-1 / 2 + x * (1 / 24 + x * (-1 / 720 + x * (1 / 40320 + x * (-1 / 3628800 + x * (1 / 479001600))))));
+        const sd = sinSmallL(d);
+        const cd = cosSmallL(d);
         c = this.c0 * cd - this.s0 * sd;
         s = this.s0 * cd + this.c0 * sd;
       } else {
@@ -250,10 +272,17 @@ export class Plant {
     const we = this.p * w;
     const Ld = this.Ld;
     const Lq = this.Lq;
-    dydt[0] = (vd - this.Rs * id + we * Lq * iq) * this.invLd;
-    dydt[1] = (vq - this.Rs * iq - we * (Ld * id + this.psiM)) * this.invLq;
+    let Te: number;
+    if (this.lin) {
+      // the constant-parameter closed form (fast path)
+      dydt[0] = (vd - this.Rs * id + we * Lq * iq) * this.invLd;
+      dydt[1] = (vq - this.Rs * iq - we * (Ld * id + this.psiM)) * this.invLq;
+      Te = 1.5 * this.p * (this.psiM * iq + (Ld - Lq) * id * iq);
+    } else {
+      this.currentDerivative(dydt, id, iq, we, vd, vq);
+      Te = this.model.torque(id, iq);
+    }
     if (this.free) {
-      const Te = 1.5 * this.p * (this.psiM * iq + (Ld - Lq) * id * iq);
       const TL = (this.segmented ? this.loadA + this.loadB * t : loadLevel(this.params.load, t)) + this.k2 * w * Math.abs(w);
       const Tc = this.Tc;
       const x = w * this.invW;
@@ -263,6 +292,24 @@ export class Plant {
     }
     dydt[3] = we;
     dydt[4] = 1.5 * (vd * id + vq * iq);
+  }
+
+  /**
+   * The generic path of di/dt for any machine model: the flux linkage psi(i) and its incremental
+   * inductance L_inc = d psi / d i give  L_inc di/dt = v - Rs i - we J psi,  J psi = (-psi_q, psi_d)
+   * (the rotor-frame voltage equation, Krause, Wasynczuk and Sudhoff (2002), Analysis of Electric
+   * Machinery and Drive Systems, ch. 5); solved here by the 2x2 inverse. Writes dydt[0], dydt[1].
+   */
+  currentDerivative(dydt: Float64Array, id: number, iq: number, we: number, vd: number, vq: number): void {
+    const psi = this.psi;
+    const L = this.Linc;
+    this.model.flux(id, iq, psi);
+    this.model.incrementalInductance(id, iq, L);
+    const rd = vd - this.Rs * id + we * psi[1]!;
+    const rq = vq - this.Rs * iq - we * psi[0]!;
+    const det = L[0]! * L[3]! - L[1]! * L[2]!;
+    dydt[0] = (L[3]! * rd - L[1]! * rq) / det;
+    dydt[1] = (L[0]! * rq - L[2]! * rd) / det;
   }
 
   /**
@@ -299,8 +346,9 @@ export class Plant {
 
   /** Electromagnetic torque of a state, N·m. */
   torque(y: Float64Array): number {
-    const { polePairs: p, Ld, Lq, psiM } = this.params.machine;
-    return 1.5 * p * (psiM * y[1]! + (Ld - Lq) * y[0]! * y[1]!);
+    const m = this.model.linear;
+    if (!m) return this.model.torque(y[0]!, y[1]!);
+    return 1.5 * this.p * (m.psiM * y[1]! + (m.Ld - m.Lq) * y[0]! * y[1]!);
   }
 
   /** Load torque at time t and speed omega_m, N·m. */

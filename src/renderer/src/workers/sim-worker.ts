@@ -1,7 +1,8 @@
 // The simulation runs here, off the window's thread. Cancel = the window terminates this worker.
 /// <reference lib="webworker" />
 import { loadProjectText } from '../../../core/project/project';
-import { runSimulation, simulationFindings, simulationFromProject } from '../../../core/simulation/simulate';
+import { runSimulation, simulationFindings } from '../../../core/simulation/simulate';
+import { simulationFromProject } from '../../../core/project/simulation-from-project';
 import { isInputError } from '../../../core/base/errors';
 import type { SimRequest, SimReply } from './sim-protocol';
 

@@ -2,7 +2,8 @@
 import { memo, useMemo } from 'react';
 import type { Data, Layout } from 'plotly.js-dist-min';
 import type { ResolvedProject } from '../../../../core/project/project';
-import { tuneFromProject, type LoopReport, type TuningReport } from '../../../../core/control/tuning';
+import { type LoopReport, type TuningReport } from '../../../../core/control/tuning';
+import { tuneFromProject } from '../../../../core/project/tuning-from-project';
 import { isInputError } from '../../../../core/base/errors';
 import { axis, baseLayout, CURVE, Plot, readTheme } from '../../components/Plot';
 import { num } from '../../components/format';

@@ -1,0 +1,192 @@
+/**
+ * The trace recorder of a run: one sample of every channel of TRACE_NAMES at every period start
+ * (and at the end), fed at once to a streaming min/max decimator sized from the number of periods
+ * and `maxPoints`, and to the streaming trackers of the speed metrics that need full-rate samples
+ * (step response, load steps, steady-state error), so the memory of a run does not grow with its
+ * length. The row layout follows TRACE_NAMES (channel c at row index c - 1; t_s is the time axis).
+ */
+import { I_D, I_Q, OMEGA, THETA } from './plant';
+import type { Plant } from './plant';
+import type { CascadeController } from '../control/controller';
+import { voltageLimitAt } from '../control/voltage-limit';
+import type { MachineModel } from '../machine/machine-model';
+import { cosSinNear } from '../mathematics/rotation';
+import { inverseClarkeAmplitudeInvariantInto } from '../mathematics/transforms';
+import { StreamingMinMax } from './decimate';
+import { StepResponseTracker, LoadStepTracker, SteadyStateTracker, finiteOrNull } from './metrics';
+import { RAD_S_TO_RPM } from '../base/units';
+import type { AnySetup } from './simulation-setup';
+import { TRACE_NAMES, type LoadStepResult, type TraceName, type Traces } from './simulation-result';
+
+/** A load step is read only from a settled speed: within SETTLED_FRACTION of the reference, and at least this, rpm. */
+const SETTLED_FLOOR_RPM = 1;
+// module-local constants and references (a CommonJS build turns an imported binding into a getter)
+const W_TO_RPM: number = RAD_S_TO_RPM;
+const cosSinNearL = cosSinNear;
+const clarkeInvL = inverseClarkeAmplitudeInvariantInto;
+
+/** Row index of a channel (the time axis is kept apart). */
+export const channel = (name: Exclude<TraceName, 't_s'>): number => TRACE_NAMES.indexOf(name) - 1;
+const SPEED_REF = channel('speedRef_rpm');
+const SPEED = channel('speed_rpm');
+const TORQUE = channel('torque_Nm');
+const LOAD = channel('loadTorque_Nm');
+const ID_REF = channel('idRef_A');
+const IQ_REF = channel('iqRef_A');
+const ID = channel('id_A');
+const IQ = channel('iq_A');
+const VD = channel('vd_V');
+const VQ = channel('vq_V');
+const VNORM = channel('vNorm');
+const IA = channel('ia_A'); // ib_A and ic_A follow
+const PDC = channel('pDc_W');
+
+export function scheduleBefore(steps: ReadonlyArray<{ t: number; v: number }>, t: number, initial: number): number {
+  let v = initial;
+  for (const s of steps) if (s.t < t) v = s.v;
+  return v;
+}
+
+/** The speed metrics of a run's recorded samples. */
+export interface SpeedMetrics {
+  rise: number | null;
+  over: number | null;
+  settle: number | null;
+  dip: number | null;
+  recov: number | null;
+  sse: number | null;
+}
+
+export class TraceRecorder {
+  /** the last recorded sample [t, speed rpm, id, iq] */
+  readonly last = new Float64Array(4);
+  /** samples recorded */
+  count = 0;
+  /** the largest number of samples: periods + 1 */
+  readonly cap: number;
+  private readonly dec: StreamingMinMax;
+  private readonly row: Float64Array;
+  private readonly msmp = new Float64Array(3);
+  private readonly rot = new Float64Array(2);
+  private readonly stepTrk: StepResponseTracker | null;
+  /** one tracker per load event; their windows [t, next event) do not overlap, so only the current one is fed */
+  private readonly loadTrks: LoadStepTracker[];
+  private loadAt = 0;
+  private readonly sseTrk: SteadyStateTracker | null;
+  private readonly Ts: number;
+  private readonly p: number;
+  private readonly psiM: number;
+  private readonly dLdq: number;
+  private readonly linear: boolean;
+  private readonly locked: boolean;
+
+  constructor(private readonly setup: AnySetup, private readonly model: MachineModel, private readonly plant: Plant, private readonly ctrl: CascadeController, periods: number, maxPoints: number) {
+    this.cap = periods + 1;
+    this.Ts = setup.controller.Ts;
+    const nch = TRACE_NAMES.length - 1;
+    this.dec = new StreamingMinMax(nch, this.cap, maxPoints);
+    this.row = new Float64Array(nch);
+    const marks = setup.marks;
+    const allEvents = [...marks.speedSteps.map((s) => s.t), ...marks.loadEvents].sort((a, b) => a - b);
+    const nextAfter = (t: number): number => {
+      for (const x of allEvents) if (x > t + 1e-12) return x;
+      return Infinity;
+    };
+    const speedMode = setup.controller.mode === 'speed';
+    const s0 = marks.speedSteps[0];
+    this.stepTrk = speedMode && s0
+      ? new StepResponseTracker(s0.t, nextAfter(s0.t), scheduleBefore(marks.speedSteps, s0.t, setup.initialSpeed_rad_s) * RAD_S_TO_RPM, s0.v * RAD_S_TO_RPM)
+      : null;
+    this.loadTrks = speedMode ? marks.loadEvents.map((t) => new LoadStepTracker(t, nextAfter(t), undefined, 64, SETTLED_FLOOR_RPM)) : [];
+    // the steady-state window is 5 % of the run (or 2 periods): the ring holds a little more
+    this.sseTrk = speedMode ? new SteadyStateTracker(Math.ceil(0.05 * this.cap) + 8) : null;
+    this.p = model.polePairs;
+    const lin = model.linear;
+    this.linear = lin !== null;
+    this.psiM = lin ? lin.psiM : 0;
+    this.dLdq = lin ? lin.Ld - lin.Lq : 0;
+    this.locked = setup.plant.mechanics !== 'free';
+  }
+
+  /**
+   * Record the sample of period `idx` from the state y. The plant's angle origin must be the
+   * state's angle (plant.setAngleOrigin): its cos and sin serve the phase currents and the voltage.
+   */
+  record(idx: number, y: Float64Array): void {
+    const t = idx * this.Ts;
+    const { row, plant, ctrl, p } = this;
+    const id = y[I_D]!, iq = y[I_Q]!, w = y[OMEGA]!, th = y[THETA]!;
+    const c = plant.c0, s = plant.s0;
+    const ia = id * c - iq * s;
+    const ib = id * s + iq * c;
+    const wr = ctrl.speedRefOut * W_TO_RPM;
+    const wRpm = w * W_TO_RPM;
+    row[SPEED_REF] = wr;
+    row[SPEED] = wRpm;
+    row[TORQUE] = this.linear ? 1.5 * p * (this.psiM * iq + this.dLdq * id * iq) : this.model.torque(id, iq);
+    row[LOAD] = this.locked ? 0 : plant.loadTorque(t, w);
+    row[ID_REF] = ctrl.idRef;
+    row[IQ_REF] = ctrl.iqRef;
+    row[ID] = id;
+    row[IQ] = iq;
+    // applied voltage in dq at the mid-period angle
+    const dm = 0.5 * p * w * this.Ts;
+    const r = this.rot;
+    cosSinNearL(c, s, dm, th + dm, r);
+    const cm = r[0]!, sm = r[1]!;
+    const vab = plant.input;
+    const va = vab[0]!, vb = vab[1]!;
+    row[VD] = va * cm + vb * sm;
+    row[VQ] = -va * sm + vb * cm;
+    const vlen = Math.sqrt(va * va + vb * vb);
+    const vspec = this.setup.controller.voltage;
+    row[VNORM] = vlen / (vspec.shape === 'circle' ? vspec.radius : voltageLimitAt(vspec, Math.atan2(vb, va)));
+    clarkeInvL(ia, ib, 0, row, IA);
+    row[PDC] = 1.5 * (va * ia + vb * ib);
+    this.dec.push(t, row);
+    const m = this.msmp;
+    m[0] = t; m[1] = wr; m[2] = wRpm;
+    if (this.stepTrk) this.stepTrk.take(m);
+    const lt = this.loadTrks;
+    while (this.loadAt < lt.length && !(t < lt[this.loadAt]!.tEnd)) this.loadAt++;
+    if (this.loadAt < lt.length) lt[this.loadAt]!.take(m);
+    if (this.sseTrk) this.sseTrk.take(m);
+    const last = this.last;
+    last[0] = t; last[1] = wRpm; last[2] = id; last[3] = iq;
+    this.count++;
+  }
+
+  /** The speed metrics (speed mode, more than two samples; else all null) at the last sample time tLast. */
+  speedMetrics(tLast: number): SpeedMetrics {
+    const out: SpeedMetrics = { rise: null, over: null, settle: null, dip: null, recov: null, sse: null };
+    if (this.setup.controller.mode !== 'speed' || this.count <= 2) return out;
+    if (this.stepTrk) {
+      const r = this.stepTrk.result();
+      out.rise = r.riseTime_s; out.over = r.overshoot_pct; out.settle = r.settlingTime_s;
+    }
+    const r0 = this.loadTrks[0]?.result();
+    if (r0) { out.dip = r0.dip; out.recov = r0.recovery_s; }
+    out.sse = this.sseTrk!.result(Math.max(0.05 * tLast, 2 * this.Ts));
+    return out;
+  }
+
+  /** Every load event's response, in time order. */
+  loadSteps(): LoadStepResult[] {
+    return this.loadTrks.map((tr) => {
+      const r = tr.result();
+      return { t_s: tr.tStep, dip_rpm: finiteOrNull(r.dip), recovery_s: finiteOrNull(r.recovery_s), errorAtStep_rpm: finiteOrNull(r.errorAtStep), settled: r.settled };
+    });
+  }
+
+  /** The decimated traces; non-finite samples (a divergence) become 0 so no NaN escapes. */
+  traces(): Traces {
+    const decd = this.dec.finish();
+    const traces = { t_s: decd.t } as Traces;
+    TRACE_NAMES.slice(1).forEach((n, i) => {
+      const a = decd.channels[i]!;
+      for (let j = 0; j < a.length; j++) if (!Number.isFinite(a[j]!)) a[j] = 0;
+      traces[n] = a;
+    });
+    return traces;
+  }
+}
