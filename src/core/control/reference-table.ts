@@ -15,6 +15,7 @@ import type { DriveLimits } from '../drive/inverter-spec';
 import type { OperatingPoint } from '../steady-state/operating-point-types';
 import { InputError } from '../base/errors';
 import { solveOperatingPoint } from '../steady-state/operating-point';
+import { bilinear, cellOf, gridPosition, lerp } from '../mathematics/interpolation';
 
 export type OperatingPointSolver = (m: DqMachine, lim: DriveLimits, speed_rad_s: number, torque_Nm: number) => OperatingPoint;
 
@@ -115,11 +116,11 @@ export function buildReferenceTable(
 /** Torque limits (motoring >= 0, generating <= 0) at mechanical speed w, N·m; writes out[0], out[1]. */
 export function torqueLimitsAt(tab: ReferenceTable, w: number, out: Float64Array): void {
   const neg = w < 0;
-  const x = Math.min(Math.abs(w), tab.speedMax) / tab.speedMax * (tab.nS - 1);
-  const r = Math.min(Math.floor(x), tab.nS - 2);
+  const x = gridPosition(Math.abs(w), tab.speedMax, tab.nS);
+  const r = cellOf(x, tab.nS);
   const f = x - r;
-  const mot = tab.tMot[r]! + f * (tab.tMot[r + 1]! - tab.tMot[r]!);
-  const gen = tab.tGen[r]! + f * (tab.tGen[r + 1]! - tab.tGen[r]!);
+  const mot = lerp(tab.tMot[r]!, tab.tMot[r + 1]!, f);
+  const gen = lerp(tab.tGen[r]!, tab.tGen[r + 1]!, f);
   // at negative speed, motoring is negative torque: the roles swap
   out[0] = neg ? gen : mot;
   out[1] = neg ? -mot : -gen;
@@ -132,26 +133,19 @@ export function torqueLimitsAt(tab: ReferenceTable, w: number, out: Float64Array
 export function lookupCurrents(tab: ReferenceTable, w: number, T: number, out: Float64Array): number {
   const neg = w < 0;
   const Tp = neg ? -T : T;
-  const x = (Math.min(Math.abs(w), tab.speedMax) / tab.speedMax) * (tab.nS - 1);
-  const r = Math.min(Math.floor(x), tab.nS - 2);
+  const x = gridPosition(Math.abs(w), tab.speedMax, tab.nS);
+  const r = cellOf(x, tab.nS);
   const f = x - r;
-  const mot = tab.tMot[r]! + f * (tab.tMot[r + 1]! - tab.tMot[r]!);
-  const gen = tab.tGen[r]! + f * (tab.tGen[r + 1]! - tab.tGen[r]!);
+  const mot = lerp(tab.tMot[r]!, tab.tMot[r + 1]!, f);
+  const gen = lerp(tab.tGen[r]!, tab.tGen[r + 1]!, f);
   let u: number;
   if (Tp >= 0) u = mot > 0 ? Math.min(Tp / mot, 1) : 0;
   else u = gen > 0 ? Math.max(Tp / gen, -1) : 0;
   const y = ((u + 1) / 2) * (tab.nU - 1);
-  const c = Math.min(Math.floor(y), tab.nU - 2);
+  const c = cellOf(y, tab.nU);
   const g = y - c;
-  const nU = tab.nU;
-  const i00 = r * nU + c;
-  const i10 = i00 + nU;
-  const a = (1 - f) * (1 - g);
-  const b = f * (1 - g);
-  const cc = (1 - f) * g;
-  const d = f * g;
-  out[0] = a * tab.id[i00]! + b * tab.id[i10]! + cc * tab.id[i00 + 1]! + d * tab.id[i10 + 1]!;
-  const iqv = a * tab.iq[i00]! + b * tab.iq[i10]! + cc * tab.iq[i00 + 1]! + d * tab.iq[i10 + 1]!;
+  out[0] = bilinear(tab.id, tab.nU, r, f, c, g);
+  const iqv = bilinear(tab.iq, tab.nU, r, f, c, g);
   out[1] = neg ? -iqv : iqv;
   const Tasked = u >= 0 ? u * mot : u * gen;
   return neg ? -Tasked : Tasked;
