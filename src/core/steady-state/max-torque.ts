@@ -37,17 +37,15 @@ const ROOT_STEPS = 100;
 const COS: ArrayLike<number> = Float64Array.from({ length: NS }, (_, k) => Math.cos(k * STEP));
 const SIN: ArrayLike<number> = Float64Array.from({ length: NS }, (_, k) => Math.sin(k * STEP));
 
-type LinearSolver = (L: LinearTerms, p: number, Rs: number, Vmax: number, Imax: number, we: number, sign: 1 | -1, out: MaxTorqueResult, floor: number) => void;
-
 /** Result and work of the max-torque search, owned by one run (never shared between runs). */
 export interface MaxTorqueScratch extends MaxTorqueResult {
   /** the linear fast path with its own work arrays and machine terms */
-  readonly linear: LinearSolver;
+  readonly linear: LinearMaxTorque;
   /** the numeric path's work */
   readonly numeric: NumericMaxTorqueWork;
 }
 
-export const newScratch = (): MaxTorqueScratch => ({ ok: false, id: 0, iq: 0, J: 0, region: 0, linear: linearSolver(), numeric: numericMaxTorqueWork() });
+export const newScratch = (): MaxTorqueScratch => ({ ok: false, id: 0, iq: 0, J: 0, region: 0, linear: new LinearMaxTorque(), numeric: numericMaxTorqueWork() });
 
 /**
  * Core: the largest sign*torque at electrical speed we under Imax (may be Infinity) and Vmax.
@@ -57,60 +55,63 @@ export const newScratch = (): MaxTorqueScratch => ({ ok: false, id: 0, iq: 0, J:
  */
 export function maxTorqueCore(m: MachineModel, Vmax: number, Imax: number, we: number, sign: 1 | -1, out: MaxTorqueScratch, floor = 0): void {
   const L = m.linear;
-  if (L !== null) out.linear(L, m.polePairs, m.Rs, Vmax, Imax, we, sign, out, floor);
+  if (L !== null) out.linear.solve(L, m.polePairs, m.Rs, Vmax, Imax, we, sign, out, floor);
   else maxTorqueNumeric(m, Vmax, Imax, we, sign, out, out.numeric, floor);
 }
 
-/** A linear fast-path solver with its own work arrays and terms (one per scratch). */
-function linearSolver(): LinearSolver {
-  const gS = new Float64Array(NS);
-  const jS = new Float64Array(NS);
-  const rS = new Float64Array(NS);
-  const jC = new Float64Array(NS);
-  // machine terms, set once per call (avoids passing them through the inner helpers)
-  let P = 1, RS = 0, LD = 1, LQ = 1, PSI = 0, WE = 0, VM = 1, IM = 1, SG = 1;
-  function vCircle2(theta: number): number {
-    return vCircleCS(Math.cos(theta), Math.sin(theta));
+/** The linear fast path: the machine terms of the current call and the work arrays (one per scratch, never shared). */
+class LinearMaxTorque {
+  readonly gS = new Float64Array(NS);
+  readonly jS = new Float64Array(NS);
+  readonly rS = new Float64Array(NS);
+  readonly jC = new Float64Array(NS);
+  P = 1; RS = 0; LD = 1; LQ = 1; PSI = 0; WE = 0; VM = 1; IM = 1; SG = 1;
+  eId = 0; eIq = 0;
+  bestJ = -Infinity; bestId = 0; bestIq = 0; bestRegion: 0 | 1 | 2 = 0;
+
+  vCircle2(theta: number): number {
+    return this.vCircleCS(Math.cos(theta), Math.sin(theta));
   }
-  function vCircleCS(c: number, s: number): number {
-    const id = IM * c;
-    const iq = IM * s;
-    const vd = RS * id - WE * LQ * iq;
-    const vq = RS * iq + WE * (LD * id + PSI);
-    return vd * vd + vq * vq - VM * VM;
+  vCircleCS(c: number, s: number): number {
+    const id = this.IM * c;
+    const iq = this.IM * s;
+    const vd = this.RS * id - this.WE * this.LQ * iq;
+    const vq = this.RS * iq + this.WE * (this.LD * id + this.PSI);
+    return vd * vd + vq * vq - this.VM * this.VM;
   }
 
-  let eId = 0, eIq = 0;
-  function onEllipse(phi: number): void {
-    onEllipseCS(Math.cos(phi), Math.sin(phi));
+  onEllipse(phi: number): void {
+    this.onEllipseCS(Math.cos(phi), Math.sin(phi));
   }
-  function onEllipseCS(c: number, s: number): void {
-    const Xd = WE * LD;
-    const Xq = WE * LQ;
-    const D = RS * RS + Xd * Xq;
-    const ud = VM * c;
-    const uq = VM * s - WE * PSI;
-    eId = (RS * ud + Xq * uq) / D;
-    eIq = (-Xd * ud + RS * uq) / D;
+  onEllipseCS(c: number, s: number): void {
+    const Xd = this.WE * this.LD;
+    const Xq = this.WE * this.LQ;
+    const D = this.RS * this.RS + Xd * Xq;
+    const ud = this.VM * c;
+    const uq = this.VM * s - this.WE * this.PSI;
+    this.eId = (this.RS * ud + Xq * uq) / D;
+    this.eIq = (-Xd * ud + this.RS * uq) / D;
   }
-  function jEllipse(phi: number): number {
-    onEllipse(phi);
-    return SG * 1.5 * P * eIq * (PSI + (LD - LQ) * eId);
+  jEllipse(phi: number): number {
+    this.onEllipse(phi);
+    return this.SG * 1.5 * this.P * this.eIq * (this.PSI + (this.LD - this.LQ) * this.eId);
   }
-  const jOf = (id: number, iq: number): number => SG * 1.5 * P * iq * (PSI + (LD - LQ) * id);
-  const v2Of = (id: number, iq: number): number => {
-    const vd = RS * id - WE * LQ * iq;
-    const vq = RS * iq + WE * (LD * id + PSI);
+  jOf(id: number, iq: number): number {
+    return this.SG * 1.5 * this.P * iq * (this.PSI + (this.LD - this.LQ) * id);
+  }
+  v2Of(id: number, iq: number): number {
+    const vd = this.RS * id - this.WE * this.LQ * iq;
+    const vq = this.RS * iq + this.WE * (this.LD * id + this.PSI);
     return vd * vd + vq * vq;
-  };
+  }
 
   /**
    * Root of |v(theta)|² - Vmax² on the circle in [a, b] (values of opposite sign at the ends):
    * Newton with the analytic derivative, safeguarded by bisection inside the bracket. Stops when
    * -1e-13 Vmax² <= g <= 0 or the bracket is below 1e-15 rad; always returns a point with g <= 0.
    */
-  function circleRoot(a: number, b: number, ga: number, gb: number): number {
-    const tol = 1e-13 * VM * VM;
+  circleRoot(a: number, b: number, ga: number, gb: number): number {
+    const tol = 1e-13 * this.VM * this.VM;
     // lo: the end with g <= 0 (feasible), hi: the other
     let lo = ga <= 0 ? a : b;
     let hi = ga <= 0 ? b : a;
@@ -118,16 +119,16 @@ function linearSolver(): LinearSolver {
     if (!(x > Math.min(a, b) && x < Math.max(a, b))) x = 0.5 * (a + b);
     for (let it = 0; it < ROOT_STEPS; it++) {
       const c = Math.cos(x), sn = Math.sin(x);
-      const id = IM * c, iq = IM * sn;
-      const vd = RS * id - WE * LQ * iq;
-      const vq = RS * iq + WE * (LD * id + PSI);
-      const g = vd * vd + vq * vq - VM * VM;
+      const id = this.IM * c, iq = this.IM * sn;
+      const vd = this.RS * id - this.WE * this.LQ * iq;
+      const vq = this.RS * iq + this.WE * (this.LD * id + this.PSI);
+      const g = vd * vd + vq * vq - this.VM * this.VM;
       if (g <= 0) {
         if (g >= -tol) return x;
         lo = x;
       } else hi = x;
-      const dvd = IM * (-RS * sn - WE * LQ * c);
-      const dvq = IM * (-WE * LD * sn + RS * c);
+      const dvd = this.IM * (-this.RS * sn - this.WE * this.LQ * c);
+      const dvq = this.IM * (-this.WE * this.LD * sn + this.RS * c);
       const dg = 2 * (vd * dvd + vq * dvq);
       const step = g / dg;
       if (Math.abs(step) <= 1e-15 * (1 + Math.abs(x))) {
@@ -150,18 +151,18 @@ function linearSolver(): LinearSolver {
    * point found with |v| <= Vmax: Newton on dg/dtheta with the analytic second derivative
    * (d²v/dtheta² = -(v - b) on the circle), safeguarded by bisection on the sign of dg/dtheta.
    */
-  function circleMin(lo: number, hi: number, x0: number): number {
+  circleMin(lo: number, hi: number, x0: number): number {
     let x = x0;
     for (let it = 0; it < ROOT_STEPS; it++) {
       const c = Math.cos(x), sn = Math.sin(x);
-      const id = IM * c, iq = IM * sn;
-      const vd = RS * id - WE * LQ * iq;
-      const vq = RS * iq + WE * (LD * id + PSI);
-      if (vd * vd + vq * vq <= VM * VM) return x;
-      const dvd = IM * (-RS * sn - WE * LQ * c);
-      const dvq = IM * (-WE * LD * sn + RS * c);
+      const id = this.IM * c, iq = this.IM * sn;
+      const vd = this.RS * id - this.WE * this.LQ * iq;
+      const vq = this.RS * iq + this.WE * (this.LD * id + this.PSI);
+      if (vd * vd + vq * vq <= this.VM * this.VM) return x;
+      const dvd = this.IM * (-this.RS * sn - this.WE * this.LQ * c);
+      const dvq = this.IM * (-this.WE * this.LD * sn + this.RS * c);
       const d1 = 2 * (vd * dvd + vq * dvq);
-      const d2 = 2 * (dvd * dvd + dvq * dvq - vd * vd - vq * (vq - WE * PSI));
+      const d2 = 2 * (dvd * dvd + dvq * dvq - vd * vd - vq * (vq - this.WE * this.PSI));
       if (d1 > 0) hi = x;
       else lo = x;
       const step = d1 / d2;
@@ -180,20 +181,20 @@ function linearSolver(): LinearSolver {
    * of dJ/dphi; golden section when the derivative does not change sign across the window.
    * Leaves the point in eId, eIq.
    */
-  function ellipseMax(k: number): void {
+  ellipseMax(k: number): void {
     let lo = (k - 1) * STEP;
     let hi = (k + 1) * STEP;
-    const D = RS * RS + WE * WE * LD * LQ;
-    const kv = VM / D;
-    const K = SG * 1.5 * P;
-    const dl = LD - LQ;
+    const D = this.RS * this.RS + this.WE * this.WE * this.LD * this.LQ;
+    const kv = this.VM / D;
+    const K = this.SG * 1.5 * this.P;
+    const dl = this.LD - this.LQ;
     // dJ/dphi at a sample angle, from the cos/sin tables
     const dJ = (j: number): number => {
       const c = COS[j], sn = SIN[j];
-      onEllipseCS(c, sn);
-      const did = kv * (WE * LQ * c - RS * sn);
-      const diq = kv * (WE * LD * sn + RS * c);
-      return K * (diq * (PSI + dl * eId) + eIq * dl * did);
+      this.onEllipseCS(c, sn);
+      const did = kv * (this.WE * this.LQ * c - this.RS * sn);
+      const diq = kv * (this.WE * this.LD * sn + this.RS * c);
+      return K * (diq * (this.PSI + dl * this.eId) + this.eIq * dl * did);
     };
     const hl = dJ(k === 0 ? NS - 1 : k - 1);
     const hh = dJ(k + 1 === NS ? 0 : k + 1);
@@ -205,13 +206,13 @@ function linearSolver(): LinearSolver {
       let x = x0;
       for (let it = 0; it < ROOT_STEPS; it++) {
         const c = Math.cos(x), sn = Math.sin(x);
-        onEllipseCS(c, sn);
-        const did = kv * (WE * LQ * c - RS * sn);
-        const diq = kv * (WE * LD * sn + RS * c);
-        const d2id = kv * (-WE * LQ * sn - RS * c);
-        const d2iq = kv * (WE * LD * c - RS * sn);
-        const h = K * (diq * (PSI + dl * eId) + eIq * dl * did);
-        const h2 = K * (d2iq * (PSI + dl * eId) + 2 * dl * did * diq + eIq * dl * d2id);
+        this.onEllipseCS(c, sn);
+        const did = kv * (this.WE * this.LQ * c - this.RS * sn);
+        const diq = kv * (this.WE * this.LD * sn + this.RS * c);
+        const d2id = kv * (-this.WE * this.LQ * sn - this.RS * c);
+        const d2iq = kv * (this.WE * this.LD * c - this.RS * sn);
+        const h = K * (diq * (this.PSI + dl * this.eId) + this.eIq * dl * did);
+        const h2 = K * (d2iq * (this.PSI + dl * this.eId) + 2 * dl * did * diq + this.eIq * dl * d2id);
         if (h > 0) lo = x;
         else hi = x;
         const step = h / h2;
@@ -221,31 +222,31 @@ function linearSolver(): LinearSolver {
         if (hi - lo <= 1e-14) { x = xn; break; }
         x = xn;
       }
-      onEllipse(x);
+      this.onEllipse(x);
       return;
     }
     let x1 = hi - GOLD * (hi - lo);
     let x2 = lo + GOLD * (hi - lo);
-    let f1 = jEllipse(x1);
-    let f2 = jEllipse(x2);
+    let f1 = this.jEllipse(x1);
+    let f2 = this.jEllipse(x2);
     for (let it = 0; it < GOLDEN_STEPS; it++) {
-      if (f1 < f2) { lo = x1; x1 = x2; f1 = f2; x2 = lo + GOLD * (hi - lo); f2 = jEllipse(x2); }
-      else { hi = x2; x2 = x1; f2 = f1; x1 = hi - GOLD * (hi - lo); f1 = jEllipse(x1); }
+      if (f1 < f2) { lo = x1; x1 = x2; f1 = f2; x2 = lo + GOLD * (hi - lo); f2 = this.jEllipse(x2); }
+      else { hi = x2; x2 = x1; f2 = f1; x1 = hi - GOLD * (hi - lo); f1 = this.jEllipse(x1); }
     }
-    onEllipse(f1 >= f2 ? x1 : x2);
+    this.onEllipse(f1 >= f2 ? x1 : x2);
   }
 
-  let bestJ = -Infinity, bestId = 0, bestIq = 0, bestRegion: 0 | 1 | 2 = 0;
-  function offer(id: number, iq: number, region: 0 | 1 | 2): void {
-    const j = jOf(id, iq);
-    if (j > bestJ) { bestJ = j; bestId = id; bestIq = iq; bestRegion = region; }
+  offer(id: number, iq: number, region: 0 | 1 | 2): void {
+    const j = this.jOf(id, iq);
+    if (j > this.bestJ) { this.bestJ = j; this.bestId = id; this.bestIq = iq; this.bestRegion = region; }
   }
-  function offerCircle(theta: number): void {
-    offer(IM * Math.cos(theta), IM * Math.sin(theta), 1);
+  offerCircle(theta: number): void {
+    this.offer(this.IM * Math.cos(theta), this.IM * Math.sin(theta), 1);
   }
 
-  return function maxTorqueLinear(L: LinearTerms, p: number, rs0: number, Vmax: number, Imax: number, we: number, sign: 1 | -1, out: MaxTorqueResult, floor: number): void {
-    P = p; RS = rs0; LD = L.Ld; LQ = L.Lq; PSI = L.psiM; WE = we; VM = Vmax; IM = Imax; SG = sign;
+  solve(L: LinearTerms, p: number, rs0: number, Vmax: number, Imax: number, we: number, sign: 1 | -1, out: MaxTorqueResult, floor: number): void {
+    const gS = this.gS, jS = this.jS, rS = this.rS, jC = this.jC;
+    this.P = p; this.RS = rs0; this.LD = L.Ld; this.LQ = L.Lq; this.PSI = L.psiM; this.WE = we; this.VM = Vmax; this.IM = Imax; this.SG = sign;
     const vm2 = Vmax * Vmax;
     const finiteI = Number.isFinite(Imax);
     out.ok = false;
@@ -253,30 +254,30 @@ function linearSolver(): LinearSolver {
     if (finiteI) {
       const id = Imax * mtpaCosLinear(L, Imax);
       const iq = sign * Math.sqrt(Math.max(0, Imax * Imax - id * id));
-      if (v2Of(id, iq) <= vm2) {
-        out.ok = true; out.id = id; out.iq = iq; out.J = jOf(id, iq); out.region = 0;
+      if (this.v2Of(id, iq) <= vm2) {
+        out.ok = true; out.id = id; out.iq = iq; out.J = this.jOf(id, iq); out.region = 0;
         return;
       }
     }
-    bestJ = -Infinity;
-    const D = RS * RS + WE * WE * LD * LQ;
+    this.bestJ = -Infinity;
+    const D = this.RS * this.RS + this.WE * this.WE * this.LD * this.LQ;
     if (finiteI) {
       // local maxima of torque along the circle: 2 (Ld-Lq) I c² + psiM c - (Ld-Lq) I = 0, c = cos(theta)
-      const a2 = 2 * (LD - LQ) * Imax;
+      const a2 = 2 * (this.LD - this.LQ) * Imax;
       const roots = a2 === 0 ? 1 : 2;
       for (let r = 0; r < roots; r++) {
         let c: number;
         if (a2 === 0) c = 0;
         else {
-          const disc = Math.sqrt(PSI * PSI + 8 * (LD - LQ) * (LD - LQ) * Imax * Imax);
-          c = r === 0 ? (-PSI + disc) / (2 * a2) : (-PSI - disc) / (2 * a2);
+          const disc = Math.sqrt(this.PSI * this.PSI + 8 * (this.LD - this.LQ) * (this.LD - this.LQ) * Imax * Imax);
+          c = r === 0 ? (-this.PSI + disc) / (2 * a2) : (-this.PSI - disc) / (2 * a2);
         }
         if (!(c >= -1 && c <= 1)) continue;
         const s = Math.sqrt(1 - c * c);
         for (let q = -1; q <= 1; q += 2) {
           const id = Imax * c;
           const iq = q * Imax * s;
-          if (v2Of(id, iq) <= vm2) offer(id, iq, 0);
+          if (this.v2Of(id, iq) <= vm2) this.offer(id, iq, 0);
         }
       }
     }
@@ -284,7 +285,7 @@ function linearSolver(): LinearSolver {
     if (D > 0) {
       const im2 = Imax * Imax;
       {
-        const rs = RS, xd = we * LD, xq = we * LQ, e = we * PSI, psi = PSI, dl = LD - LQ, kt = sign * 1.5 * P;
+        const rs = this.RS, xd = we * this.LD, xq = we * this.LQ, e = we * this.PSI, psi = this.PSI, dl = this.LD - this.LQ, kt = sign * 1.5 * this.P;
         const invD = 1 / D;
         for (let k = 0; k < NS; k++) {
           const ud = Vmax * COS[k];
@@ -296,7 +297,7 @@ function linearSolver(): LinearSolver {
         }
       }
       // |i(phi) - i(phi_k)| <= ||A^-1|| Vmax |phi - phi_k|: a window that stays outside the circle is skipped
-      const reach = ((Math.sqrt(2 * RS * RS + WE * WE * (LD * LD + LQ * LQ)) / D) * Vmax * STEP) * (1 + 1e-9);
+      const reach = ((Math.sqrt(2 * this.RS * this.RS + this.WE * this.WE * (this.LD * this.LD + this.LQ * this.LQ)) / D) * Vmax * STEP) * (1 + 1e-9);
       let outside = -Infinity;
       for (let k = 0; k < NS; k++) {
         const a = jS[k === 0 ? NS - 1 : k - 1];
@@ -305,25 +306,25 @@ function linearSolver(): LinearSolver {
         if (!(b >= a && b >= c)) continue;
         // |dJ/dphi| <= 1.5 p (psiM + sqrt(2) |Ld-Lq| r) ||A^-1|| Vmax: a bound on J in the window
         const rw = Math.sqrt(rS[k]) + reach;
-        const lj = 1.5 * P * (PSI + Math.SQRT2 * Math.abs(LD - LQ) * rw) * (reach / STEP);
+        const lj = 1.5 * this.P * (this.PSI + Math.SQRT2 * Math.abs(this.LD - this.LQ) * rw) * (reach / STEP);
         const bound = Math.max(a, b, c) + 0.5 * lj * STEP;
         if (rS[k] > (Imax + reach) * (Imax + reach)) {
           if (bound > outside) outside = bound;
           continue;
         }
-        if (bound < Math.max(bestJ, floor)) continue;
-        ellipseMax(k);
-        if (eId * eId + eIq * eIq <= im2) offer(eId, eIq, 2);
+        if (bound < Math.max(this.bestJ, floor)) continue;
+        this.ellipseMax(k);
+        if (this.eId * this.eId + this.eIq * this.eIq <= im2) this.offer(this.eId, this.eIq, 2);
         else {
-          const jo = SG * 1.5 * P * eIq * (PSI + (LD - LQ) * eId);
+          const jo = this.SG * 1.5 * this.P * this.eIq * (this.PSI + (this.LD - this.LQ) * this.eId);
           if (jo > outside) outside = jo;
         }
       }
       // When the best candidate is the largest torque on the whole voltage boundary, it is the answer
       // (the feasible set lies inside the voltage region, whose torque maximum is on its boundary):
       // every local maximum outside the circle, refined or skipped, must stay below it.
-      if (bestRegion === 2 && bestJ > -Infinity && outside < bestJ) {
-        out.ok = bestJ >= floor; out.id = bestId; out.iq = bestIq; out.J = bestJ; out.region = 2;
+      if (this.bestRegion === 2 && this.bestJ > -Infinity && outside < this.bestJ) {
+        out.ok = this.bestJ >= floor; out.id = this.bestId; out.iq = this.bestIq; out.J = this.bestJ; out.region = 2;
         return;
       }
     }
@@ -332,9 +333,9 @@ function linearSolver(): LinearSolver {
       // a window whose torque bound cannot beat the best so far (or the floor) is skipped:
       // T = 1.5 p (psiM I sin(theta) + (Ld-Lq) I² sin(2 theta)/2), so |d²T/dtheta²| <= gc and the largest
       // value between two samples is at most the larger sample + gc h²/8
-      const gc = 1.5 * P * (PSI * Imax + 2 * Math.abs(LD - LQ) * Imax * Imax);
+      const gc = 1.5 * this.P * (this.PSI * Imax + 2 * Math.abs(this.LD - this.LQ) * Imax * Imax);
       {
-        const rs = RS, xd = we * LD, xq = we * LQ, e = we * PSI, psi = PSI, dl = LD - LQ, kt = sign * 1.5 * P;
+        const rs = this.RS, xd = we * this.LD, xq = we * this.LQ, e = we * this.PSI, psi = this.PSI, dl = this.LD - this.LQ, kt = sign * 1.5 * this.P;
         for (let k = 0; k < NS; k++) {
           const id = Imax * COS[k];
           const iq = Imax * SIN[k];
@@ -351,8 +352,8 @@ function linearSolver(): LinearSolver {
         const a = k * STEP;
         const b = (k + 1) * STEP;
         if ((ga <= 0) !== (gb <= 0)) {
-          if (Math.max(jC[k], jC[k1]) + 0.125 * gc * STEP * STEP < Math.max(bestJ, floor)) continue;
-          offerCircle(circleRoot(a, b, ga, gb));
+          if (Math.max(jC[k], jC[k1]) + 0.125 * gc * STEP * STEP < Math.max(this.bestJ, floor)) continue;
+          this.offerCircle(this.circleRoot(a, b, ga, gb));
         }
       }
       for (let k = 0; k < NS; k++) {
@@ -366,32 +367,32 @@ function linearSolver(): LinearSolver {
           const k0 = k === 0 ? NS - 1 : k - 1;
           const g0 = gS[k0];
           if (ga <= g0 && ga <= gb) {
-            if (Math.max(jC[k0], jC[k], jC[k1]) + 0.125 * gc * STEP * STEP < Math.max(bestJ, floor)) continue;
+            if (Math.max(jC[k0], jC[k], jC[k1]) + 0.125 * gc * STEP * STEP < Math.max(this.bestJ, floor)) continue;
             // Taylor bound: g >= g_k - |g'_k| h - G2 h²/2 on |theta - theta_k| <= h = STEP, with
             // |g''| <= G2 = |first harmonic| + 4 |second harmonic| of the degree-2 trigonometric polynomial
             {
               const c = COS[k], sn = SIN[k];
-              const vd = RS * IM * c - WE * LQ * IM * sn;
-              const vq = RS * IM * sn + WE * (LD * IM * c + PSI);
-              const dvd = IM * (-RS * sn - WE * LQ * c);
-              const dvq = IM * (-WE * LD * sn + RS * c);
+              const vd = this.RS * this.IM * c - this.WE * this.LQ * this.IM * sn;
+              const vq = this.RS * this.IM * sn + this.WE * (this.LD * this.IM * c + this.PSI);
+              const dvd = this.IM * (-this.RS * sn - this.WE * this.LQ * c);
+              const dvq = this.IM * (-this.WE * this.LD * sn + this.RS * c);
               const dg = 2 * Math.abs(vd * dvd + vq * dvq);
-              const e = WE * PSI, xd = WE * LD, xq = WE * LQ;
-              const g2 = 2 * Math.abs(e) * IM * Math.sqrt(xd * xd + RS * RS) + 4 * IM * IM * Math.sqrt(0.25 * (xd * xd - xq * xq) ** 2 + (RS * (xd - xq)) ** 2);
+              const e = this.WE * this.PSI, xd = this.WE * this.LD, xq = this.WE * this.LQ;
+              const g2 = 2 * Math.abs(e) * this.IM * Math.sqrt(xd * xd + this.RS * this.RS) + 4 * this.IM * this.IM * Math.sqrt(0.25 * (xd * xd - xq * xq) ** 2 + (this.RS * (xd - xq)) ** 2);
               if (ga - dg * STEP - 0.5 * g2 * STEP * STEP > 0) continue;
             }
-            const xm = circleMin(a - STEP, b, a);
-            const fm = vCircle2(xm);
+            const xm = this.circleMin(a - STEP, b, a);
+            const fm = this.vCircle2(xm);
             if (fm <= 0) {
-              offerCircle(circleRoot(a - STEP, xm, g0, fm));
-              offerCircle(circleRoot(xm, b, fm, gb));
+              this.offerCircle(this.circleRoot(a - STEP, xm, g0, fm));
+              this.offerCircle(this.circleRoot(xm, b, fm, gb));
             }
           }
         }
       }
     }
-    if (bestJ >= floor) {
-      out.ok = true; out.id = bestId; out.iq = bestIq; out.J = bestJ; out.region = bestRegion;
+    if (this.bestJ >= floor) {
+      out.ok = true; out.id = this.bestId; out.iq = this.bestIq; out.J = this.bestJ; out.region = this.bestRegion;
     }
-  };
+  }
 }
