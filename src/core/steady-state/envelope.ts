@@ -10,6 +10,7 @@ import { InputError } from '../base/errors';
 import { machineModel } from '../machine/linear-dq';
 import { bisectPredicate } from '../mathematics/root-finding';
 import { assertFinite, assertLimits, assertMachine, mtpaId } from './mtpa';
+import { point } from './point-of-current';
 import { ENVELOPE_ACCURACY, type MaxTorqueScratch, maxTorqueCore, newScratch } from './max-torque';
 
 export { ENVELOPE_ACCURACY } from './max-torque';
@@ -25,19 +26,9 @@ export function directionSign(speed: number, direction: Direction): 1 | -1 {
   return (direction === 'motoring' ? s : -s) as 1 | -1;
 }
 
-function pointFrom(m: MachineModel, speed: number, id: number, iq: number): OperatingPoint {
-  const v = new Float64Array(2);
-  m.steadyVoltage(id, iq, m.polePairs * speed, v);
-  const vd = v[0]!, vq = v[1]!;
-  return {
-    feasible: true, speed, torque: m.torque(id, iq), id, iq, current: Math.hypot(id, iq),
-    vd, vq, voltage: Math.hypot(vd, vq), region: 'mtpa', limitedBy: 'none',
-  };
-}
-
 /** The operating point at zero current (open circuit), used when no torque of the wanted sign exists. */
 export function openCircuitPoint(m: MachineInput, speed: number): OperatingPoint {
-  const p = pointFrom(machineModel(m), speed, 0, 0);
+  const p = point(machineModel(m), speed, 0, 0, 'mtpa');
   p.feasible = false; p.region = 'mtpv'; p.limitedBy = 'voltage';
   return p;
 }
@@ -56,7 +47,7 @@ export function maxTorquePoint(input: MachineInput, lim: DriveLimits, speed_rad_
   const s = directionSign(speed_rad_s, direction);
   maxTorqueCore(m, lim.Vmax, lim.Imax, m.polePairs * speed_rad_s, s, sc);
   if (!sc.ok || !(sc.J > 0)) return openCircuitPoint(m, speed_rad_s);
-  const p = pointFrom(m, speed_rad_s, sc.id, sc.iq);
+  const p = point(m, speed_rad_s, sc.id, sc.iq, 'mtpa');
   p.region = REGIONS[sc.region]!;
   p.limitedBy = LIMITS[sc.region]!;
   return p;

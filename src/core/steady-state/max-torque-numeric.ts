@@ -76,7 +76,7 @@ export function maxTorqueNumeric(m: MachineModel, Vmax: number, Imax: number, we
       const a = w.samples[(k + NC - 1) % NC]!, b = w.samples[k]!, c = w.samples[(k + 1) % NC]!;
       if (!(b >= a && b >= c)) continue;
       goldenSectionMax(jc, (k - 1) * h, (k + 1) * h, GOLDEN_STEPS, w.g);
-      const t = polishMax(jc, w.g[0]!, (k - 1) * h, (k + 1) * h, 1e-4);
+      const t = polishMax(jc, w.g[0]!, (k - 1) * h, (k + 1) * h, 1e-3);
       const j = jc(t);
       if (j > mtpaJ) { mtpaJ = j; mtpaT = t; }
       if (v2(Imax * Math.cos(t), Imax * Math.sin(t)) <= vm2) offer(Imax * Math.cos(t), Imax * Math.sin(t), 0);
@@ -104,7 +104,7 @@ export function maxTorqueNumeric(m: MachineModel, Vmax: number, Imax: number, we
       const a = w.samples[(k + NV - 1) % NV]!, b = w.samples[k]!, c = w.samples[(k + 1) % NV]!;
       if (!(b >= a && b >= c)) continue;
       goldenSectionMax(jv, (k - 1) * h, (k + 1) * h, GOLDEN_STEPS, w.g);
-      const phi = polishMax(jv, w.g[0]!, (k - 1) * h, (k + 1) * h, 1e-5);
+      const phi = polishMax(jv, w.g[0]!, (k - 1) * h, (k + 1) * h, 1e-3);
       jv(phi);
       const id = w.c[0]!, iq = w.c[1]!;
       if (id * id + iq * iq <= Imax * Imax) offer(id, iq, 2);

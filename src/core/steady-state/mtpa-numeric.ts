@@ -30,7 +30,7 @@ export function mtpaCurrentsNumeric(m: MachineModel, I: number, out: Float64Arra
   const lo = Math.max(0, (kBest - 1) * step), hi = Math.min(Math.PI, (kBest + 1) * step);
   const g = new Float64Array(2);
   goldenSectionMax(f, lo, hi, GOLDEN_STEPS, g);
-  const t = polishMax(f, g[0]!, lo, hi, 1e-4);
+  const t = polishMax(f, g[0]!, lo, hi, 1e-3);
   out[0] = Ia * Math.cos(t);
   out[1] = Ia * Math.sin(t);
 }

@@ -175,7 +175,7 @@ export function mtpvPoint(input: MachineInput, Vmax: number, speed_rad_s: number
     goldenSectionMax(J, (k - 1) * step, (k + 1) * step, 60, g);
     let x = g[0]!, f = g[1]!;
     if (lin === null) {
-      x = polishMax(J, x, (k - 1) * step, (k + 1) * step, 1e-5);
+      x = polishMax(J, x, (k - 1) * step, (k + 1) * step, 1e-3);
       f = J(x);
     }
     if (f > best) { best = f; bestPhi = x; }
