@@ -3,11 +3,12 @@
  * Linear model (closed form): T = 0 on iq = 0, or on id = -psiM/(Ld-Lq) (any iq); on each line |v|² is a
  * quadratic and the least current is the root nearest zero. Any model (numeric path): the line iq = 0
  * (zero torque for a machine symmetric in q), |v(id, 0)| = Vmax bisected from id = 0 towards the side
- * where the voltage falls, within the voltage region's bound.
+ * where the voltage falls, between 0 and the lowest voltage on that side (golden section) within the
+ * voltage region's bound.
  */
 import type { LinearTerms, MachineModel } from '../machine/machine-model';
 import type { OperatingPoint } from './operating-point-types';
-import { bisectPredicate } from '../mathematics/root-finding';
+import { bisectPredicate, goldenSectionMax } from '../mathematics/root-finding';
 import { point } from './point-of-current';
 
 /** Smallest |x| with a x² + b x + c <= 0 (a > 0), or NaN when there is none. */
@@ -59,10 +60,13 @@ export function zeroTorqueNumeric(m: MachineModel, Vmax: number, speed: number, 
     if (Ib === null) return null;
     const h = 1e-6 * Ib;
     const dir = g(-h) <= g(h) ? -1 : 1;
-    if (!(g(dir * Ib) <= 0)) return null;
+    // the lowest voltage on that side (golden section over the distance), then the crossing nearest 0
     const b = new Float64Array(2);
-    // predicate over the distance x from 0: feasible at x (true at Ib, false at 0)
-    bisectPredicate((x) => g(dir * x) <= 0, 0, Ib, 1e-15, b);
+    goldenSectionMax((x) => -g(dir * x), 0, Ib, 100, b);
+    const xm = b[0]!;
+    if (!(g(dir * xm) <= 0)) return null;
+    // predicate over the distance x from 0: feasible at x (true at xm, false at 0)
+    bisectPredicate((x) => g(dir * x) <= 0, 0, xm, 1e-15, b);
     id = dir * b[1]!;
   }
   const p = point(m, speed, id, 0, id === 0 ? 'mtpa' : 'field-weakening');
