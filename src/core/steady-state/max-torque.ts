@@ -15,8 +15,8 @@
  *     - the local maxima of torque along the current circle (closed form), kept when the voltage fits.
  *     The best candidate wins. No candidate: the two sets do not meet (beyond the maximum speed).
  * Any other model: the same candidates found through the model's methods (max-torque-numeric.ts).
- * Every loop has a fixed bound. Relative torque accuracy: better than ENVELOPE_ACCURACY. Morimoto, Takeda, Hirasa, Taniguchi (1990), Expansion of operating limits for permanent magnet
- * motor by current vector control considering inverter capacity, IEEE Trans. Ind. Appl. 26(5).
+ * Every loop has a fixed bound. Relative torque accuracy: better than ENVELOPE_ACCURACY. Morimoto, Takeda,
+ * Hirasa, Taniguchi (1990), Expansion of operating limits ..., IEEE Trans. Ind. Appl. 26(5).
  */
 import type { LinearTerms, MachineModel } from '../machine/machine-model';
 import { GOLD, parabolaZero } from '../mathematics/root-finding';
@@ -24,7 +24,6 @@ import { mtpaCosLinear } from './mtpa';
 import { type MaxTorqueResult, type NumericMaxTorqueWork, maxTorqueNumeric, numericMaxTorqueWork } from './max-torque-numeric';
 
 export type { MaxTorqueResult } from './max-torque-numeric';
-
 /** Relative torque tolerance the envelope solver achieves (checked against a dense search in the tests). */
 export const ENVELOPE_ACCURACY = 1e-9;
 
@@ -32,7 +31,6 @@ const NS = 32;
 const STEP = (2 * Math.PI) / NS;
 const GOLDEN_STEPS = 40;
 const ROOT_STEPS = 100;
-
 /** cos and sin of the NS sample angles: constant tables, filled here once and never written again. */
 const COS: ArrayLike<number> = Float64Array.from({ length: NS }, (_, k) => Math.cos(k * STEP));
 const SIN: ArrayLike<number> = Float64Array.from({ length: NS }, (_, k) => Math.sin(k * STEP));
@@ -41,11 +39,11 @@ const SIN: ArrayLike<number> = Float64Array.from({ length: NS }, (_, k) => Math.
 export interface MaxTorqueScratch extends MaxTorqueResult {
   /** the linear fast path with its own work arrays and machine terms */
   readonly linear: LinearMaxTorque;
-  /** the numeric path's work */
-  readonly numeric: NumericMaxTorqueWork;
+  /** the numeric path's work, made on first use (a linear model never needs it) */
+  numeric: NumericMaxTorqueWork | null;
 }
 
-export const newScratch = (): MaxTorqueScratch => ({ ok: false, id: 0, iq: 0, J: 0, region: 0, linear: new LinearMaxTorque(), numeric: numericMaxTorqueWork() });
+export const newScratch = (): MaxTorqueScratch => ({ ok: false, id: 0, iq: 0, J: 0, region: 0, linear: new LinearMaxTorque(), numeric: null });
 
 /**
  * Core: the largest sign*torque at electrical speed we under Imax (may be Infinity) and Vmax.
@@ -56,18 +54,20 @@ export const newScratch = (): MaxTorqueScratch => ({ ok: false, id: 0, iq: 0, J:
 export function maxTorqueCore(m: MachineModel, Vmax: number, Imax: number, we: number, sign: 1 | -1, out: MaxTorqueScratch, floor = 0): void {
   const L = m.linear;
   if (L !== null) out.linear.solve(L, m.polePairs, m.Rs, Vmax, Imax, we, sign, out, floor);
-  else maxTorqueNumeric(m, Vmax, Imax, we, sign, out, out.numeric, floor);
+  else maxTorqueNumeric(m, Vmax, Imax, we, sign, out, (out.numeric ??= numericMaxTorqueWork()), floor);
 }
 
 /** The linear fast path: the machine terms of the current call and the work arrays (one per scratch, never shared). */
 class LinearMaxTorque {
-  readonly gS = new Float64Array(NS);
-  readonly jS = new Float64Array(NS);
-  readonly rS = new Float64Array(NS);
-  readonly jC = new Float64Array(NS);
+  // four sample arrays on one buffer (one allocation per scratch)
+  readonly gS: Float64Array; readonly jS: Float64Array; readonly rS: Float64Array; readonly jC: Float64Array;
   P = 1; RS = 0; LD = 1; LQ = 1; PSI = 0; WE = 0; VM = 1; IM = 1; SG = 1;
   eId = 0; eIq = 0;
   bestJ = -Infinity; bestId = 0; bestIq = 0; bestRegion: 0 | 1 | 2 = 0;
+  constructor() {
+    const b = new ArrayBuffer(32 * NS);
+    this.gS = new Float64Array(b, 0, NS); this.jS = new Float64Array(b, 8 * NS, NS); this.rS = new Float64Array(b, 16 * NS, NS); this.jC = new Float64Array(b, 24 * NS, NS);
+  }
 
   vCircle2(theta: number): number {
     return this.vCircleCS(Math.cos(theta), Math.sin(theta));

@@ -10,7 +10,7 @@ import { isMachineModel } from '../machine/machine-model';
 import { machineModel } from '../machine/linear-dq';
 import { numericScratch } from '../machine/model-numeric';
 import { InputError } from '../base/errors';
-import { bisectPredicate, goldenSectionMax, polishMax } from '../mathematics/root-finding';
+import { goldenSectionMax, polishMax } from '../mathematics/root-finding';
 import { constantTorqueIqNumeric, mtpaCurrentsNumeric } from './mtpa-numeric';
 import { currentOnVoltageBoundaryLinear, currentOnVoltageBoundaryNumeric } from './voltage-boundary';
 
@@ -109,19 +109,30 @@ export function mtpaCurrentForTorque(input: MachineInput, T: number): { id: numb
   const p = m.polePairs;
   // first guess: the magnet-only or reluctance-only current (flux and inductances at zero current),
   // then double until the torque is reached
-  const f0 = new Float64Array(2), L0 = new Float64Array(4);
-  m.flux(0, 0, f0);
-  m.incrementalInductance(0, 0, L0);
-  const psi0 = f0[0]!;
-  let hi = psi0 > 0 ? Ta / (1.5 * p * psi0) : Math.sqrt((2 * Ta) / (1.5 * p * Math.abs(L0[0]! - L0[3]!)));
+  const lin = m.linear;
+  let psi0: number, dL0: number;
+  if (lin !== null) { psi0 = lin.psiM; dL0 = lin.Ld - lin.Lq; }
+  else {
+    const f0 = new Float64Array(2), L0 = new Float64Array(4);
+    m.flux(0, 0, f0);
+    m.incrementalInductance(0, 0, L0);
+    psi0 = f0[0]!; dL0 = L0[0]! - L0[3]!;
+  }
+  // MTPA torque at current I: the closed form without allocation on a linear model
+  const tq = lin !== null
+    ? (I: number): number => { const x = mtpaCosLinear(lin, I); return m.torque(I * x, I * Math.sqrt(1 - x * x)); }
+    : (I: number): number => mtpaTorque(m, I);
+  let hi = psi0 > 0 ? Ta / (1.5 * p * psi0) : Math.sqrt((2 * Ta) / (1.5 * p * Math.abs(dL0)));
   let lo = 0;
-  for (let k = 0; k < 200 && mtpaTorque(m, hi) < Ta; k++) {
+  for (let k = 0; k < 200 && tq(hi) < Ta; k++) {
     lo = hi;
     hi *= 2;
   }
-  const b = new Float64Array(2);
-  bisectPredicate((I) => mtpaTorque(m, I) >= Ta, lo, hi, 1e-14, b);
-  hi = b[1]!;
+  for (let k = 0; k < 200 && hi - lo > 1e-14 * hi; k++) {
+    const mid = 0.5 * (lo + hi);
+    if (tq(mid) >= Ta) hi = mid;
+    else lo = mid;
+  }
   const c = mtpaCurrents(m, hi);
   return { id: c.id, iq: T < 0 ? -c.iq : c.iq, current: hi };
 }

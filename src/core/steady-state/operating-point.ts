@@ -1,14 +1,16 @@
 /**
  * Least-current operating point for a (speed, torque) under |i_dq| <= Imax and |v_dq| <= Vmax,
- * Rs included in the steady-state voltage, motoring and generating, either sign of speed.
+ * Rs included in the steady-state voltage, motoring and generating, either sign of speed, for any
+ * machine model (a MachineInput is wrapped once at the entry; each solve owns its scratch).
  *
  * Method: the torques reachable within a current I (and Vmax) form an interval [Tmin(I), Tmax(I)] that
  * widens with I. The least current for torque T is the larger of the roots of Tmax(I) = T and
  * Tmin(I) = T (the second matters with Rs, where the voltage limit can force torque of one sign),
- * each bracketed in I and bisected to relative 1e-13 with the max-torque solver of envelope.ts.
+ * each bracketed in I and bisected to relative 1e-13 with the max-torque search of max-torque.ts.
  * At that current the extreme point is the wanted one: MTPA when its voltage fits, else the
- * field-weakening point where the constant-torque curve meets the voltage boundary (polished onto the
- * exact torque). Zero torque is solved in closed form. Beyond MTPV: no current at all reaches T
+ * field-weakening point where the constant-torque curve meets the voltage boundary (on a linear model
+ * polished onto the exact torque in closed form; the numeric path keeps the bisected point, within
+ * 1e-13 of the current). Zero torque: zero-torque.ts. Beyond MTPV: no current at all reaches T
  * within Vmax at that speed.
  */
 import type { DriveLimits } from '../drive/inverter-spec';
@@ -27,7 +29,7 @@ const REGIONS: readonly Region[] = ['mtpa', 'field-weakening', 'mtpv'];
  * 'too-much' when the torque is beyond MTPV at that speed, or 'too-little' when the voltage limit
  * forces more torque of that sign than T at any current (with Rs; or zero torque cannot be held).
  */
-function leastCurrent(m: MachineModel, Vmax: number, speed: number, T: number, sc: MaxTorqueScratch): OperatingPoint | 'too-much' | 'too-little' {
+function leastCurrent(m: MachineModel, Vmax: number, speed: number, T: number): OperatingPoint | 'too-much' | 'too-little' {
   const we = m.polePairs * speed;
   const sign: 1 | -1 = T < 0 ? -1 : 1;
   const Ta = Math.abs(T);
@@ -39,6 +41,7 @@ function leastCurrent(m: MachineModel, Vmax: number, speed: number, T: number, s
   const Ib = voltageRegionBound(m, Vmax, we);
   if (Ib === null) return pm; // no voltage drop at all (Rs = 0 at standstill)
   const top = Math.max(Ib, mt.current) * (1 + 1e-9);
+  const sc = newScratch(); // this solve's own (only a voltage-bound point needs it)
   // least current whose largest torque reaches |T| ...
   const a = leastReaching(m, Vmax, we, sign, Ta, 0, top, sc);
   if (!a) return 'too-much';
@@ -65,10 +68,14 @@ function leastCurrent(m: MachineModel, Vmax: number, speed: number, T: number, s
  * the current (Rs = 0 at standstill).
  */
 function voltageRegionBound(m: MachineModel, Vmax: number, we: number): number | null {
-  const f = new Float64Array(2), L = new Float64Array(4);
-  m.flux(0, 0, f);
-  m.incrementalInductance(0, 0, L);
-  const Ld = L[0]!, Lq = L[3]!, psiM = Math.hypot(f[0]!, f[1]!);
+  let Ld: number, Lq: number, psiM: number;
+  if (m.linear !== null) ({ Ld, Lq, psiM } = m.linear);
+  else {
+    const f = new Float64Array(2), L = new Float64Array(4);
+    m.flux(0, 0, f);
+    m.incrementalInductance(0, 0, L);
+    Ld = L[0]!; Lq = L[3]!; psiM = Math.hypot(f[0]!, f[1]!);
+  }
   const D = m.Rs * m.Rs + we * we * Ld * Lq;
   if (!(D > 0)) return null;
   return (Math.sqrt(2 * m.Rs * m.Rs + we * we * (Ld * Ld + Lq * Lq)) / D) * (Vmax + Math.abs(we) * psiM);
@@ -140,7 +147,7 @@ export function solveOperatingPointUnlimitedCurrent(input: MachineInput, Vmax: n
   assertFinite('speed', speed_rad_s, 'rad/s');
   assertFinite('torque', torque_Nm, 'N·m');
   const m = machineModel(input);
-  const p = leastCurrent(m, Vmax, speed_rad_s, torque_Nm, newScratch());
+  const p = leastCurrent(m, Vmax, speed_rad_s, torque_Nm);
   if (typeof p === 'object') {
     p.limitedBy = p.region === 'mtpa' ? 'none' : 'voltage';
     return p;
