@@ -30,6 +30,7 @@ describe('root finding', () => {
     expect(Math.abs(parabolaZero(0.75, -0.25, 0.75))).toBeCloseTo(0.5, 15);
     // p(x) = 2x + 1 (A = 0): zero at -0.5
     expect(parabolaZero(-1, 1, 3)).toBeCloseTo(-0.5, 15);
-    expect(parabolaZero(1, 2, 3 + 2)).toBeNaN(); // x²/2 + 2x... no: 1.5x² + 2x + 2 has no real zero
+    // p(x) = x² + 2x + 2 through (-1, 1), (0, 2), (1, 5): no real zero
+    expect(parabolaZero(1, 2, 5)).toBeNaN();
   });
 });
