@@ -4,6 +4,7 @@ import type { InverterSpec } from '../src/core/drive/inverter-spec';
 import { SAFETY_CAUTION, safetyReport } from '../src/core/steady-state/safety';
 import { rpmToRadS } from '../src/core/base/units';
 import { InputError } from '../src/core/base/errors';
+import { numericOnly } from './model-paths';
 
 // Invented test machine and inverter.
 const COLD: DqMachine = { polePairs: 4, Rs: 0.015, Ld: 0.12e-3, Lq: 0.3e-3, psiM: 0.05 };
@@ -55,5 +56,17 @@ describe('safety report', () => {
   it('rejects bad input', () => {
     expect(() => safetyReport(COLD, INV, -1)).toThrow(InputError);
     expect(() => safetyReport(COLD, { ...INV, Vdc: 0 }, 1)).toThrow(/inverter.Vdc/);
+  });
+});
+
+describe('safety figures from the machine model', () => {
+  it('back-EMF and characteristic current come from the flux at zero current: a model hiding its constant terms gives the same report (common practice (no source): open-circuit back-EMF = we psi(0))', () => {
+    const w = rpmToRadS(12000);
+    const a = safetyReport(COLD, INV, w);
+    const b = safetyReport(numericOnly(COLD), INV, w);
+    expect(b).toEqual(a);
+    // by hand: sqrt(3) · 4 · 1256.6 rad/s · 0.05 Wb = 435.3 V line-to-line peak; psiM/Ld = 416.7 A peak
+    expect(b.backEmfLineLinePeak_V).toBeCloseTo(Math.sqrt(3) * 4 * w * 0.05, 9);
+    expect(b.characteristicCurrent_A).toBeCloseTo(0.05 / 0.12e-3, 9);
   });
 });

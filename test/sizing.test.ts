@@ -10,6 +10,7 @@ import { maxTorquePoint } from '../src/core/steady-state/envelope';
 import { rpmToRadS } from '../src/core/base/units';
 import { InputError } from '../src/core/base/errors';
 import { effectiveCurrentLimits } from '../src/core/drive/current-limits';
+import { expectClose, numericOnly } from './model-paths';
 
 // Invented test machine and inverter.
 const IPM: DqMachine = { polePairs: 4, Rs: 0.02, Ld: 0.12e-3, Lq: 0.3e-3, psiM: 0.045 };
@@ -180,5 +181,23 @@ describe('sizing: duty, effective limits and headroom that means something', () 
     expect(cruise.headroomNote).toBe(`field weakening, current headroom ${Number((400 - op.current).toPrecision(4))} A peak (peak limit)`);
     // an MTPA point reports both headrooms
     expect(r.points[0].headroomNote).toMatch(/^current headroom [0-9.]+ A peak \(peak limit\), voltage headroom [0-9.]+ V peak phase$/);
+  });
+});
+
+describe('sizing through the numeric paths of the machine model', () => {
+  it('a model that hides its constant terms sizes the same to 1e-9 (Morimoto et al. (1990), IEEE Trans. Ind. Appl. 26(5): the limits of the current vector)', () => {
+    const a = sizeDrive(IPM, INV, REQS);
+    const b = sizeDrive(numericOnly(IPM), INV, REQS);
+    expect(b.minImax === null).toBe(a.minImax === null);
+    if (a.minImax !== null) expectClose(b.minImax!, a.minImax, a.minImax);
+    expect(b.minVdc === null).toBe(a.minVdc === null);
+    if (a.minVdc !== null) expectClose(b.minVdc!, a.minVdc, a.minVdc);
+    a.points.forEach((p, i) => {
+      const q = b.points[i]!;
+      expect(q.met).toBe(p.met);
+      expect(q.limitedBy).toBe(p.limitedBy);
+      expectClose(q.current_A, p.current_A, INV.Imax);
+      expectClose(q.torqueAvailable_Nm, p.torqueAvailable_Nm, Math.abs(p.torqueAvailable_Nm));
+    });
   });
 });

@@ -3,9 +3,10 @@
  * torque under the peak and under the continuous current, and the power, at 0, step, 2 step, ...
  * up to the top of the range. Each value is solved at its speed by the engine (not read off a curve).
  */
-import type { DqMachine } from '../machine/dq-machine';
+import type { MachineInput } from '../machine/machine-model';
 import type { DriveLimits } from '../drive/inverter-spec';
 import { maxTorquePoint } from './envelope';
+import { machineModel } from '../machine/linear-dq';
 import { InputError } from '../base/errors';
 import { roundStep, stepsWithin } from '../mathematics/round-steps';
 import { rpmToRadS } from '../base/units';
@@ -30,11 +31,12 @@ export const defaultTableStep = (speedMax_rpm: number): number => roundStep(spee
 /**
  * @param field the name a bad step is reported under (the CLI's flag or the app's field)
  */
-export function envelopeTable(m: DqMachine, peak: DriveLimits, continuous: DriveLimits, speedMax_rpm: number, step_rpm: number, field = 'table step'): EnvelopeTableRow[] {
+export function envelopeTable(input: MachineInput, peak: DriveLimits, continuous: DriveLimits, speedMax_rpm: number, step_rpm: number, field = 'table step'): EnvelopeTableRow[] {
   if (!(Number.isFinite(step_rpm) && step_rpm > 0)) throw new InputError(field, `must be a speed step > 0 rpm (got ${step_rpm})`);
   if (speedMax_rpm / step_rpm > MAX_TABLE_ROWS) {
     throw new InputError(field, `gives more than ${MAX_TABLE_ROWS} rows over 0 to ${Math.round(speedMax_rpm)} rpm; use a step >= ${Math.ceil(speedMax_rpm / MAX_TABLE_ROWS)} rpm`);
   }
+  const m = machineModel(input);
   const torque = (lim: DriveLimits, w: number, dir: 'motoring' | 'generating'): number | null => {
     const op = maxTorquePoint(m, lim, w, dir);
     return op.feasible ? op.torque : null;

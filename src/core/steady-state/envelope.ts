@@ -1,409 +1,19 @@
 /**
- * Maximum torque under both limits (|i_dq| <= Imax, |v_dq| <= Vmax) at a speed, Rs included, and the
- * torque-speed envelope motoring or generating.
- *
- * Method (no grids): the torque has no interior maximum, so the best feasible point lies on a boundary.
- *  1. MTPA at Imax (closed form); if its voltage fits, it is the answer (region 'mtpa').
- *  2. Otherwise the candidates are
- *     - the crossings of the current circle with the voltage boundary: |v(theta)|² - Vmax² along
- *       i = Imax (cos theta, sin theta) is a trigonometric polynomial of degree 2 (at most 4 roots),
- *       bracketed by 32 samples (and by a golden-section minimum where a pair of roots hides between
- *       samples) and refined by Newton's method safeguarded by bisection to 1e-15 rad, keeping the feasible end
- *       (region 'field-weakening');
- *     - the local maxima of torque along the voltage boundary (parametrised by the voltage angle),
- *       bracketed by 32 samples and refined by golden section, kept when inside the current circle
- *       (region 'mtpv');
- *     - the local maxima of torque along the current circle (closed form), kept when the voltage fits.
- *     The best candidate wins. No candidate: the two sets do not meet (beyond the maximum speed).
- * Every loop has a fixed bound. Relative torque accuracy: better than ENVELOPE_ACCURACY.
+ * The torque-speed envelope motoring or generating: the largest torque under both limits at each
+ * speed (the per-speed search is max-torque.ts), the base speed and the maximum speed. Every function
+ * accepts a MachineInput and goes through the machine model; a run owns its scratch.
  */
-import type { DqMachine } from '../machine/dq-machine';
 import type { DriveLimits } from '../drive/inverter-spec';
+import type { MachineInput, MachineModel } from '../machine/machine-model';
 import type { OperatingPoint, Region, LimitedBy } from './operating-point-types';
 import { InputError } from '../base/errors';
-import { assertFinite, assertLimits, assertMachine, mtpaId, torqueOf } from './mtpa';
+import { machineModel } from '../machine/linear-dq';
+import { bisectPredicate } from '../mathematics/root-finding';
+import { assertFinite, assertLimits, assertMachine, mtpaId } from './mtpa';
+import { point } from './point-of-current';
+import { ENVELOPE_ACCURACY, type MaxTorqueScratch, maxTorqueCore, newScratch } from './max-torque';
 
-/** Relative torque tolerance the envelope solver achieves (checked against a dense search in the tests). */
-export const ENVELOPE_ACCURACY = 1e-9;
-
-const NS = 32;
-const STEP = (2 * Math.PI) / NS;
-const GOLD = (Math.sqrt(5) - 1) / 2;
-const GOLDEN_STEPS = 40;
-const ROOT_STEPS = 100;
-
-/** Scratch result of the core solver (reused, never allocated per point). */
-export interface MaxTorqueScratch {
-  ok: boolean;
-  id: number;
-  iq: number;
-  /** objective sign * torque */
-  J: number;
-  /** 0 mtpa, 1 field-weakening, 2 mtpv */
-  region: 0 | 1 | 2;
-}
-
-export const newScratch = (): MaxTorqueScratch => ({ ok: false, id: 0, iq: 0, J: 0, region: 0 });
-
-// Module-level work arrays: the solver runs synchronously, so they are safe to share.
-const gS = new Float64Array(NS);
-const jS = new Float64Array(NS);
-const rS = new Float64Array(NS);
-const jC = new Float64Array(NS);
-const COS = new Float64Array(NS);
-const SIN = new Float64Array(NS);
-for (let k = 0; k < NS; k++) { COS[k] = Math.cos(k * STEP); SIN[k] = Math.sin(k * STEP); }
-
-// machine terms, set once per call of maxTorqueCore (avoids closures in the hot loop)
-let P = 1, RS = 0, LD = 1, LQ = 1, PSI = 0, WE = 0, VM = 1, IM = 1, SG = 1;
-
-function vCircle2(theta: number): number {
-  return vCircleCS(Math.cos(theta), Math.sin(theta));
-}
-function vCircleCS(c: number, s: number): number {
-  const id = IM * c;
-  const iq = IM * s;
-  const vd = RS * id - WE * LQ * iq;
-  const vq = RS * iq + WE * (LD * id + PSI);
-  return vd * vd + vq * vq - VM * VM;
-}
-
-let eId = 0, eIq = 0;
-function onEllipse(phi: number): void {
-  onEllipseCS(Math.cos(phi), Math.sin(phi));
-}
-function onEllipseCS(c: number, s: number): void {
-  const Xd = WE * LD;
-  const Xq = WE * LQ;
-  const D = RS * RS + Xd * Xq;
-  const ud = VM * c;
-  const uq = VM * s - WE * PSI;
-  eId = (RS * ud + Xq * uq) / D;
-  eIq = (-Xd * ud + RS * uq) / D;
-}
-function jEllipse(phi: number): number {
-  onEllipse(phi);
-  return SG * 1.5 * P * eIq * (PSI + (LD - LQ) * eId);
-}
-const jOf = (id: number, iq: number): number => SG * 1.5 * P * iq * (PSI + (LD - LQ) * id);
-const v2Of = (id: number, iq: number): number => {
-  const vd = RS * id - WE * LQ * iq;
-  const vq = RS * iq + WE * (LD * id + PSI);
-  return vd * vd + vq * vq;
-};
-
-/**
- * Root of |v(theta)|² - Vmax² on the circle in [a, b] (values of opposite sign at the ends):
- * Newton with the analytic derivative, safeguarded by bisection inside the bracket. Stops when
- * -1e-13 Vmax² <= g <= 0 or the bracket is below 1e-15 rad; always returns a point with g <= 0.
- */
-function circleRoot(a: number, b: number, ga: number, gb: number): number {
-  const tol = 1e-13 * VM * VM;
-  // lo: the end with g <= 0 (feasible), hi: the other
-  let lo = ga <= 0 ? a : b;
-  let hi = ga <= 0 ? b : a;
-  let x = (a * gb - b * ga) / (gb - ga);
-  if (!(x > Math.min(a, b) && x < Math.max(a, b))) x = 0.5 * (a + b);
-  for (let it = 0; it < ROOT_STEPS; it++) {
-    const c = Math.cos(x), sn = Math.sin(x);
-    const id = IM * c, iq = IM * sn;
-    const vd = RS * id - WE * LQ * iq;
-    const vq = RS * iq + WE * (LD * id + PSI);
-    const g = vd * vd + vq * vq - VM * VM;
-    if (g <= 0) {
-      if (g >= -tol) return x;
-      lo = x;
-    } else hi = x;
-    const dvd = IM * (-RS * sn - WE * LQ * c);
-    const dvq = IM * (-WE * LD * sn + RS * c);
-    const dg = 2 * (vd * dvd + vq * dvq);
-    const step = g / dg;
-    if (Math.abs(step) <= 1e-15 * (1 + Math.abs(x))) {
-      if (g <= 0) return x;
-      // converged from the infeasible side: step over onto the feasible side
-      const xs = x + Math.sign(lo - x) * Math.max(2 * Math.abs(step), 4e-16 * (1 + Math.abs(x)));
-      if (xs > Math.min(lo, hi) && xs < Math.max(lo, hi)) { x = xs; continue; }
-      return lo;
-    }
-    let xn = x - step;
-    if (!(xn > Math.min(lo, hi) && xn < Math.max(lo, hi))) xn = 0.5 * (lo + hi);
-    if (Math.abs(hi - lo) <= 1e-15) break;
-    x = xn;
-  }
-  return lo;
-}
-
-/**
- * Zero in (-1, 1) of the parabola through (-1, a), (0, b), (1, c), in units of the sample step, nearest
- * to 0; NaN when there is none (used only as a Newton start).
- */
-function parabolaZero(a: number, b: number, c: number): number {
-  const A = 0.5 * (a + c) - b;
-  const B = 0.5 * (c - a);
-  if (A === 0) return B === 0 ? Number.NaN : -b / B;
-  const disc = B * B - 4 * A * b;
-  if (disc < 0) return Number.NaN;
-  const q = -0.5 * (B + (B >= 0 ? 1 : -1) * Math.sqrt(disc));
-  const r1 = q / A;
-  const r2 = q !== 0 ? b / q : r1;
-  return Math.abs(r1) < Math.abs(r2) ? r1 : r2;
-}
-
-/**
- * Where |v(theta)|² dips lowest on the circle in [lo, hi] around a sampled minimum x0, or the first
- * point found with |v| <= Vmax: Newton on dg/dtheta with the analytic second derivative
- * (d²v/dtheta² = -(v - b) on the circle), safeguarded by bisection on the sign of dg/dtheta.
- */
-function circleMin(lo: number, hi: number, x0: number): number {
-  let x = x0;
-  for (let it = 0; it < ROOT_STEPS; it++) {
-    const c = Math.cos(x), sn = Math.sin(x);
-    const id = IM * c, iq = IM * sn;
-    const vd = RS * id - WE * LQ * iq;
-    const vq = RS * iq + WE * (LD * id + PSI);
-    if (vd * vd + vq * vq <= VM * VM) return x;
-    const dvd = IM * (-RS * sn - WE * LQ * c);
-    const dvq = IM * (-WE * LD * sn + RS * c);
-    const d1 = 2 * (vd * dvd + vq * dvq);
-    const d2 = 2 * (dvd * dvd + dvq * dvq - vd * vd - vq * (vq - WE * PSI));
-    if (d1 > 0) hi = x;
-    else lo = x;
-    const step = d1 / d2;
-    if (d2 > 0 && Math.abs(step) <= 1e-14) return x;
-    let xn = x - step;
-    if (!(d2 > 0) || !(xn > lo && xn < hi)) xn = 0.5 * (lo + hi);
-    if (hi - lo <= 1e-14) return xn;
-    x = xn;
-  }
-  return x;
-}
-
-/**
- * Local maximum of the objective along the voltage boundary in [lo, hi] around a sampled maximum:
- * Newton on dJ/dphi with analytic first and second derivatives, safeguarded by bisection on the sign
- * of dJ/dphi; golden section when the derivative does not change sign across the window.
- * Leaves the point in eId, eIq.
- */
-function ellipseMax(k: number): void {
-  let lo = (k - 1) * STEP;
-  let hi = (k + 1) * STEP;
-  const D = RS * RS + WE * WE * LD * LQ;
-  const kv = VM / D;
-  const K = SG * 1.5 * P;
-  const dl = LD - LQ;
-  // dJ/dphi at a sample angle, from the cos/sin tables
-  const dJ = (j: number): number => {
-    const c = COS[j], sn = SIN[j];
-    onEllipseCS(c, sn);
-    const did = kv * (WE * LQ * c - RS * sn);
-    const diq = kv * (WE * LD * sn + RS * c);
-    return K * (diq * (PSI + dl * eId) + eIq * dl * did);
-  };
-  const hl = dJ(k === 0 ? NS - 1 : k - 1);
-  const hh = dJ(k + 1 === NS ? 0 : k + 1);
-  const hm = dJ(k);
-  // start from the zero of the parabola through the three derivative samples (clamped into the window)
-  const x0s = parabolaZero(hl, hm, hh);
-  const x0 = k * STEP + (Number.isFinite(x0s) && Math.abs(x0s) < 1 ? x0s : 0) * STEP;
-  if (hl > 0 && hh < 0) {
-    let x = x0;
-    for (let it = 0; it < ROOT_STEPS; it++) {
-      const c = Math.cos(x), sn = Math.sin(x);
-      onEllipseCS(c, sn);
-      const did = kv * (WE * LQ * c - RS * sn);
-      const diq = kv * (WE * LD * sn + RS * c);
-      const d2id = kv * (-WE * LQ * sn - RS * c);
-      const d2iq = kv * (WE * LD * c - RS * sn);
-      const h = K * (diq * (PSI + dl * eId) + eIq * dl * did);
-      const h2 = K * (d2iq * (PSI + dl * eId) + 2 * dl * did * diq + eIq * dl * d2id);
-      if (h > 0) lo = x;
-      else hi = x;
-      const step = h / h2;
-      if (h2 < 0 && Math.abs(step) <= 1e-14) break;
-      let xn = x - step;
-      if (!(h2 < 0) || !(xn > lo && xn < hi)) xn = 0.5 * (lo + hi);
-      if (hi - lo <= 1e-14) { x = xn; break; }
-      x = xn;
-    }
-    onEllipse(x);
-    return;
-  }
-  let x1 = hi - GOLD * (hi - lo);
-  let x2 = lo + GOLD * (hi - lo);
-  let f1 = jEllipse(x1);
-  let f2 = jEllipse(x2);
-  for (let it = 0; it < GOLDEN_STEPS; it++) {
-    if (f1 < f2) { lo = x1; x1 = x2; f1 = f2; x2 = lo + GOLD * (hi - lo); f2 = jEllipse(x2); }
-    else { hi = x2; x2 = x1; f2 = f1; x1 = hi - GOLD * (hi - lo); f1 = jEllipse(x1); }
-  }
-  onEllipse(f1 >= f2 ? x1 : x2);
-}
-
-let bestJ = -Infinity, bestId = 0, bestIq = 0, bestRegion: 0 | 1 | 2 = 0;
-function offer(id: number, iq: number, region: 0 | 1 | 2): void {
-  const j = jOf(id, iq);
-  if (j > bestJ) { bestJ = j; bestId = id; bestIq = iq; bestRegion = region; }
-}
-function offerCircle(theta: number): void {
-  offer(IM * Math.cos(theta), IM * Math.sin(theta), 1);
-}
-
-/**
- * Core: the largest sign*torque at electrical speed we under Imax (may be Infinity) and Vmax.
- * No validation (callers validate). Writes the answer into `out`; out.ok is false when no point within
- * both limits gives sign*torque >= floor (candidates below the floor are not refined).
- */
-export function maxTorqueCore(m: DqMachine, Vmax: number, Imax: number, we: number, sign: 1 | -1, out: MaxTorqueScratch, floor = 0): void {
-  P = m.polePairs; RS = m.Rs; LD = m.Ld; LQ = m.Lq; PSI = m.psiM; WE = we; VM = Vmax; IM = Imax; SG = sign;
-  const vm2 = Vmax * Vmax;
-  const finiteI = Number.isFinite(Imax);
-  out.ok = false;
-  // 1. MTPA at Imax
-  if (finiteI) {
-    const id = mtpaId(m, Imax);
-    const iq = sign * Math.sqrt(Math.max(0, Imax * Imax - id * id));
-    if (v2Of(id, iq) <= vm2) {
-      out.ok = true; out.id = id; out.iq = iq; out.J = jOf(id, iq); out.region = 0;
-      return;
-    }
-  }
-  bestJ = -Infinity;
-  const D = RS * RS + WE * WE * LD * LQ;
-  if (finiteI) {
-    // local maxima of torque along the circle: 2 (Ld-Lq) I c² + psiM c - (Ld-Lq) I = 0, c = cos(theta)
-    const a2 = 2 * (LD - LQ) * Imax;
-    const roots = a2 === 0 ? 1 : 2;
-    for (let r = 0; r < roots; r++) {
-      let c: number;
-      if (a2 === 0) c = 0;
-      else {
-        const disc = Math.sqrt(PSI * PSI + 8 * (LD - LQ) * (LD - LQ) * Imax * Imax);
-        c = r === 0 ? (-PSI + disc) / (2 * a2) : (-PSI - disc) / (2 * a2);
-      }
-      if (!(c >= -1 && c <= 1)) continue;
-      const s = Math.sqrt(1 - c * c);
-      for (let q = -1; q <= 1; q += 2) {
-        const id = Imax * c;
-        const iq = q * Imax * s;
-        if (v2Of(id, iq) <= vm2) offer(id, iq, 0);
-      }
-    }
-  }
-  // local maxima of torque along the voltage boundary, inside the circle
-  if (D > 0) {
-    const im2 = Imax * Imax;
-    {
-      const rs = m.Rs, xd = we * m.Ld, xq = we * m.Lq, e = we * m.psiM, psi = m.psiM, dl = m.Ld - m.Lq, kt = sign * 1.5 * m.polePairs;
-      const invD = 1 / D;
-      for (let k = 0; k < NS; k++) {
-        const ud = Vmax * COS[k];
-        const uq = Vmax * SIN[k] - e;
-        const id = (rs * ud + xq * uq) * invD;
-        const iq = (rs * uq - xd * ud) * invD;
-        jS[k] = kt * iq * (psi + dl * id);
-        rS[k] = id * id + iq * iq;
-      }
-    }
-    // |i(phi) - i(phi_k)| <= ||A^-1|| Vmax |phi - phi_k|: a window that stays outside the circle is skipped
-    const reach = ((Math.sqrt(2 * RS * RS + WE * WE * (LD * LD + LQ * LQ)) / D) * Vmax * STEP) * (1 + 1e-9);
-    let outside = -Infinity;
-    for (let k = 0; k < NS; k++) {
-      const a = jS[k === 0 ? NS - 1 : k - 1];
-      const b = jS[k];
-      const c = jS[k + 1 === NS ? 0 : k + 1];
-      if (!(b >= a && b >= c)) continue;
-      // |dJ/dphi| <= 1.5 p (psiM + sqrt(2) |Ld-Lq| r) ||A^-1|| Vmax: a bound on J in the window
-      const rw = Math.sqrt(rS[k]) + reach;
-      const lj = 1.5 * P * (PSI + Math.SQRT2 * Math.abs(LD - LQ) * rw) * (reach / STEP);
-      const bound = Math.max(a, b, c) + 0.5 * lj * STEP;
-      if (rS[k] > (Imax + reach) * (Imax + reach)) {
-        if (bound > outside) outside = bound;
-        continue;
-      }
-      if (bound < Math.max(bestJ, floor)) continue;
-      ellipseMax(k);
-      if (eId * eId + eIq * eIq <= im2) offer(eId, eIq, 2);
-      else {
-        const jo = SG * 1.5 * P * eIq * (PSI + (LD - LQ) * eId);
-        if (jo > outside) outside = jo;
-      }
-    }
-    // When the best candidate is the largest torque on the whole voltage boundary, it is the answer
-    // (the feasible set lies inside the voltage region, whose torque maximum is on its boundary):
-    // every local maximum outside the circle, refined or skipped, must stay below it.
-    if (bestRegion === 2 && bestJ > -Infinity && outside < bestJ) {
-      out.ok = bestJ >= floor; out.id = bestId; out.iq = bestIq; out.J = bestJ; out.region = 2;
-      return;
-    }
-  }
-  if (finiteI) {
-    // crossings of the circle with the voltage boundary
-    // a window whose torque bound cannot beat the best so far (or the floor) is skipped:
-    // T = 1.5 p (psiM I sin(theta) + (Ld-Lq) I² sin(2 theta)/2), so |d²T/dtheta²| <= gc and the largest
-    // value between two samples is at most the larger sample + gc h²/8
-    const gc = 1.5 * P * (PSI * Imax + 2 * Math.abs(LD - LQ) * Imax * Imax);
-    {
-      const rs = m.Rs, xd = we * m.Ld, xq = we * m.Lq, e = we * m.psiM, psi = m.psiM, dl = m.Ld - m.Lq, kt = sign * 1.5 * m.polePairs;
-      for (let k = 0; k < NS; k++) {
-        const id = Imax * COS[k];
-        const iq = Imax * SIN[k];
-        const vd = rs * id - xq * iq;
-        const vq = rs * iq + xd * id + e;
-        gS[k] = vd * vd + vq * vq - vm2;
-        jC[k] = kt * iq * (psi + dl * id);
-      }
-    }
-    for (let k = 0; k < NS; k++) {
-      const k1 = k + 1 === NS ? 0 : k + 1;
-      const ga = gS[k];
-      const gb = gS[k1];
-      const a = k * STEP;
-      const b = (k + 1) * STEP;
-      if ((ga <= 0) !== (gb <= 0)) {
-        if (Math.max(jC[k], jC[k1]) + 0.125 * gc * STEP * STEP < Math.max(bestJ, floor)) continue;
-        offerCircle(circleRoot(a, b, ga, gb));
-      }
-    }
-    for (let k = 0; k < NS; k++) {
-      const k1 = k + 1 === NS ? 0 : k + 1;
-      const ga = gS[k];
-      const gb = gS[k1];
-      const a = k * STEP;
-      const b = (k + 1) * STEP;
-      if (ga > 0 && gb > 0) {
-        // a pair of roots between samples: look at the sampled local minimum
-        const k0 = k === 0 ? NS - 1 : k - 1;
-        const g0 = gS[k0];
-        if (ga <= g0 && ga <= gb) {
-          if (Math.max(jC[k0], jC[k], jC[k1]) + 0.125 * gc * STEP * STEP < Math.max(bestJ, floor)) continue;
-          // Taylor bound: g >= g_k - |g'_k| h - G2 h²/2 on |theta - theta_k| <= h = STEP, with
-          // |g''| <= G2 = |first harmonic| + 4 |second harmonic| of the degree-2 trigonometric polynomial
-          {
-            const c = COS[k], sn = SIN[k];
-            const vd = RS * IM * c - WE * LQ * IM * sn;
-            const vq = RS * IM * sn + WE * (LD * IM * c + PSI);
-            const dvd = IM * (-RS * sn - WE * LQ * c);
-            const dvq = IM * (-WE * LD * sn + RS * c);
-            const dg = 2 * Math.abs(vd * dvd + vq * dvq);
-            const e = WE * PSI, xd = WE * LD, xq = WE * LQ;
-            const g2 = 2 * Math.abs(e) * IM * Math.sqrt(xd * xd + RS * RS) + 4 * IM * IM * Math.sqrt(0.25 * (xd * xd - xq * xq) ** 2 + (RS * (xd - xq)) ** 2);
-            if (ga - dg * STEP - 0.5 * g2 * STEP * STEP > 0) continue;
-          }
-          const r = circleMin(a - STEP, b, a);
-          const xm = r;
-          const fm = vCircle2(xm);
-          if (fm <= 0) {
-            offerCircle(circleRoot(a - STEP, xm, g0, fm));
-            offerCircle(circleRoot(xm, b, fm, gb));
-          }
-        }
-      }
-    }
-    }
-  if (bestJ >= floor) {
-    out.ok = true; out.id = bestId; out.iq = bestIq; out.J = bestJ; out.region = bestRegion;
-  }
-}
+export { ENVELOPE_ACCURACY } from './max-torque';
 
 const REGIONS: readonly Region[] = ['mtpa', 'field-weakening', 'mtpv'];
 const LIMITS: readonly LimitedBy[] = ['current', 'current-and-voltage', 'voltage'];
@@ -416,19 +26,9 @@ export function directionSign(speed: number, direction: Direction): 1 | -1 {
   return (direction === 'motoring' ? s : -s) as 1 | -1;
 }
 
-function pointFrom(m: DqMachine, speed: number, id: number, iq: number): OperatingPoint {
-  const we = m.polePairs * speed;
-  const vd = m.Rs * id - we * m.Lq * iq;
-  const vq = m.Rs * iq + we * (m.Ld * id + m.psiM);
-  return {
-    feasible: true, speed, torque: torqueOf(m, id, iq), id, iq, current: Math.hypot(id, iq),
-    vd, vq, voltage: Math.hypot(vd, vq), region: 'mtpa', limitedBy: 'none',
-  };
-}
-
 /** The operating point at zero current (open circuit), used when no torque of the wanted sign exists. */
-export function openCircuitPoint(m: DqMachine, speed: number): OperatingPoint {
-  const p = pointFrom(m, speed, 0, 0);
+export function openCircuitPoint(m: MachineInput, speed: number): OperatingPoint {
+  const p = point(machineModel(m), speed, 0, 0, 'mtpa');
   p.feasible = false; p.region = 'mtpv'; p.limitedBy = 'voltage';
   return p;
 }
@@ -438,17 +38,18 @@ export function openCircuitPoint(m: DqMachine, speed: number): OperatingPoint {
  * Infeasible (feasible=false, torque 0, open-circuit voltage) when no point within both limits gives
  * torque of that direction: the speed is beyond the maximum speed.
  */
-export function maxTorquePoint(m: DqMachine, lim: DriveLimits, speed_rad_s: number, direction: Direction): OperatingPoint {
-  assertMachine(m);
+export function maxTorquePoint(input: MachineInput, lim: DriveLimits, speed_rad_s: number, direction: Direction): OperatingPoint {
+  assertMachine(input);
   assertLimits(lim);
   assertFinite('speed', speed_rad_s, 'rad/s');
+  const m = machineModel(input);
   const sc = newScratch();
   const s = directionSign(speed_rad_s, direction);
   maxTorqueCore(m, lim.Vmax, lim.Imax, m.polePairs * speed_rad_s, s, sc);
   if (!sc.ok || !(sc.J > 0)) return openCircuitPoint(m, speed_rad_s);
-  const p = pointFrom(m, speed_rad_s, sc.id, sc.iq);
-  p.region = REGIONS[sc.region];
-  p.limitedBy = LIMITS[sc.region];
+  const p = point(m, speed_rad_s, sc.id, sc.iq, 'mtpa');
+  p.region = REGIONS[sc.region]!;
+  p.limitedBy = LIMITS[sc.region]!;
   return p;
 }
 
@@ -489,20 +90,33 @@ export interface Envelope {
   accuracy: number;
 }
 
+/** Flux psi_d and incremental d inductance at zero current (psiM and Ld of a linear model). */
+function atZeroCurrent(m: MachineModel): { psi0: number; Ld0: number } {
+  const f = new Float64Array(2), L = new Float64Array(4);
+  m.flux(0, 0, f);
+  m.incrementalInductance(0, 0, L);
+  return { psi0: f[0]!, Ld0: L[0]! };
+}
+
 /**
- * Base speed in closed form: the speed where the MTPA point at Imax reaches |v| = Vmax,
- * the positive root of we²(a² + b²) + 2 we Rs (iq b - id a) + Rs² I² - Vmax² = 0 with a = Lq iq,
- * b = Ld id + psiM. 0 when even standstill exceeds Vmax (Rs Imax > Vmax).
+ * Base speed in closed form: the speed where the MTPA point at Imax reaches |v| = Vmax. At a fixed
+ * current the steady voltage is affine in speed, v = Rs i + we (-psi_q, psi_d), so |v|² = Vmax² is
+ * the quadratic we²(a² + b²) + 2 we Rs (iq b - id a) + Rs² I² - Vmax² = 0 with a = psi_q, b = psi_d
+ * (the model's flux; Lq iq and Ld id + psiM for a linear model); its positive root. 0 when even
+ * standstill exceeds Vmax (Rs Imax > Vmax).
  */
-export function baseSpeed(m: DqMachine, lim: DriveLimits, direction: Direction = 'motoring'): number {
-  assertMachine(m);
+export function baseSpeed(input: MachineInput, lim: DriveLimits, direction: Direction = 'motoring'): number {
+  assertMachine(input);
   assertLimits(lim);
   const I = lim.Imax;
   if (!Number.isFinite(I)) return 0;
+  const m = machineModel(input);
   const id = mtpaId(m, I);
   const iq = (direction === 'motoring' ? 1 : -1) * Math.sqrt(Math.max(0, I * I - id * id));
-  const a = m.Lq * iq;
-  const b = m.Ld * id + m.psiM;
+  const f = new Float64Array(2);
+  m.flux(id, iq, f);
+  const a = f[1]!;
+  const b = f[0]!;
   const A = a * a + b * b;
   const B = 2 * m.Rs * (iq * b - id * a);
   const C = m.Rs * m.Rs * I * I - lim.Vmax * lim.Vmax;
@@ -512,59 +126,63 @@ export function baseSpeed(m: DqMachine, lim: DriveLimits, direction: Direction =
   return we / m.polePairs;
 }
 
-const torqueAt = (m: DqMachine, lim: DriveLimits, w: number, sign: 1 | -1, sc: MaxTorqueScratch): number => {
+const torqueAt = (m: MachineModel, lim: DriveLimits, w: number, sign: 1 | -1, sc: MaxTorqueScratch): number => {
   maxTorqueCore(m, lim.Vmax, lim.Imax, m.polePairs * w, sign, sc);
   return sc.ok ? sc.J : -Infinity;
 };
 
 /** Speed (rad/s, > 0) where the largest torque of the direction reaches zero; null when unbounded. */
-export function maximumSpeed(m: DqMachine, lim: DriveLimits, direction: Direction = 'motoring'): number | null {
-  assertMachine(m);
+export function maximumSpeed(input: MachineInput, lim: DriveLimits, direction: Direction = 'motoring'): number | null {
+  assertMachine(input);
   assertLimits(lim);
+  const m = machineModel(input);
   const sc = newScratch();
   const s: 1 | -1 = direction === 'motoring' ? 1 : -1;
+  const z = atZeroCurrent(m);
   let lo = 0;
-  let hi = Math.max(baseSpeed(m, lim, direction), lim.Vmax / (m.polePairs * Math.max(m.psiM, m.Ld * lim.Imax)));
+  let hi = Math.max(baseSpeed(m, lim, direction), lim.Vmax / (m.polePairs * Math.max(z.psi0, z.Ld0 * lim.Imax)));
   if (!(hi > 0) || !Number.isFinite(hi)) hi = 1;
   // bracket: up to 2^20 times the first guess; torque still there means unbounded
   let k = 0;
   for (; k <= 20 && torqueAt(m, lim, hi, s, sc) > 0; k++) { lo = hi; hi *= 2; }
   if (k > 20) return null;
-  for (let it = 0; it < 200 && hi - lo > 1e-13 * hi; it++) {
-    const mid = 0.5 * (lo + hi);
-    if (torqueAt(m, lim, mid, s, sc) > 0) lo = mid;
-    else hi = mid;
-  }
-  return lo;
+  const b = new Float64Array(2);
+  bisectPredicate((w) => !(torqueAt(m, lim, w, s, sc) > 0), lo, hi, 1e-13, b);
+  return b[0]!;
 }
 
 /** Torque-speed envelope from 0 to speedMax. Output arrays are allocated once. */
-export function computeEnvelope(m: DqMachine, lim: DriveLimits, opts: Partial<EnvelopeOptions> = {}): Envelope {
-  assertMachine(m);
+export function computeEnvelope(input: MachineInput, lim: DriveLimits, opts: Partial<EnvelopeOptions> = {}): Envelope {
+  assertMachine(input);
   assertLimits(lim);
   if (!Number.isFinite(lim.Imax)) throw new InputError('inverter.Imax', 'must be finite for an envelope');
   const o: EnvelopeOptions = { ...DEFAULT_ENVELOPE_OPTIONS, ...opts };
   if (!(Number.isInteger(o.points) && o.points >= 2 && o.points <= 1_000_000)) throw new InputError('envelope.points', 'must be an integer in 2..1000000');
   if (o.direction !== 'motoring' && o.direction !== 'generating') throw new InputError('envelope.direction', "must be 'motoring' or 'generating'");
   if (o.speedMax !== undefined && !(Number.isFinite(o.speedMax) && o.speedMax > 0)) throw new InputError('envelope.speedMax', 'must be > 0 rad/s');
+  const m = machineModel(input);
   const wb = baseSpeed(m, lim, o.direction);
   const wmax = maximumSpeed(m, lim, o.direction);
+  const z = atZeroCurrent(m);
   let top = o.speedMax;
   if (top === undefined) {
     if (wmax !== null) top = 1.05 * wmax;
     else if (wb > 0) top = 4 * wb;
-    else top = (4 * lim.Vmax) / (m.polePairs * Math.max(m.psiM, m.Ld * lim.Imax));
+    else top = (4 * lim.Vmax) / (m.polePairs * Math.max(z.psi0, z.Ld0 * lim.Imax));
   }
   const n = o.points;
   const env: Envelope = {
     speed: new Float64Array(n), torque: new Float64Array(n), power: new Float64Array(n),
     id: new Float64Array(n), iq: new Float64Array(n), current: new Float64Array(n), voltage: new Float64Array(n),
     region: new Array<Region>(n), feasible: new Uint8Array(n), direction: o.direction,
-    baseSpeed: wb, maxSpeed: wmax, characteristicCurrent: m.psiM / m.Ld, accuracy: ENVELOPE_ACCURACY,
+    baseSpeed: wb, maxSpeed: wmax, characteristicCurrent: z.psi0 / z.Ld0, accuracy: ENVELOPE_ACCURACY,
   };
   const s: 1 | -1 = o.direction === 'motoring' ? 1 : -1;
   const sc = newScratch();
-  const p = m.polePairs, Rs = m.Rs, Ld = m.Ld, Lq = m.Lq, psi = m.psiM;
+  const v = new Float64Array(2);
+  // the linear model's terms, read once (the closed-form fast path below)
+  const lin = m.linear;
+  const p = m.polePairs, Rs = m.Rs, Ld = lin ? lin.Ld : 0, Lq = lin ? lin.Lq : 0, psi = lin ? lin.psiM : 0;
   for (let k = 0; k < n; k++) {
     const w = (top * k) / (n - 1);
     const we = p * w;
@@ -572,11 +190,18 @@ export function computeEnvelope(m: DqMachine, lim: DriveLimits, opts: Partial<En
     maxTorqueCore(m, lim.Vmax, lim.Imax, we, s, sc);
     let id = 0, iq = 0, region: Region = 'mtpv';
     if (sc.ok && sc.J > 0) {
-      id = sc.id; iq = sc.iq; region = REGIONS[sc.region]; env.feasible[k] = 1;
+      id = sc.id; iq = sc.iq; region = REGIONS[sc.region]!; env.feasible[k] = 1;
     }
-    const T = 1.5 * p * iq * (psi + (Ld - Lq) * id);
-    const vd = Rs * id - we * Lq * iq;
-    const vq = Rs * iq + we * (Ld * id + psi);
+    let T: number, vd: number, vq: number;
+    if (lin !== null) {
+      T = 1.5 * p * iq * (psi + (Ld - Lq) * id);
+      vd = Rs * id - we * Lq * iq;
+      vq = Rs * iq + we * (Ld * id + psi);
+    } else {
+      T = m.torque(id, iq);
+      m.steadyVoltage(id, iq, we, v);
+      vd = v[0]!; vq = v[1]!;
+    }
     env.torque[k] = T;
     env.power[k] = T * w;
     env.id[k] = id;

@@ -1,113 +1,88 @@
 /**
  * Least-current operating point for a (speed, torque) under |i_dq| <= Imax and |v_dq| <= Vmax,
- * Rs included in the steady-state voltage, motoring and generating, either sign of speed.
+ * Rs included in the steady-state voltage, motoring and generating, either sign of speed, for any
+ * machine model (a MachineInput is wrapped once at the entry; each solve owns its scratch).
  *
  * Method: the torques reachable within a current I (and Vmax) form an interval [Tmin(I), Tmax(I)] that
  * widens with I. The least current for torque T is the larger of the roots of Tmax(I) = T and
  * Tmin(I) = T (the second matters with Rs, where the voltage limit can force torque of one sign),
- * each bracketed in I and bisected to relative 1e-13 with the max-torque solver of envelope.ts.
+ * each bracketed in I and bisected to relative 1e-13 with the max-torque search of max-torque.ts.
  * At that current the extreme point is the wanted one: MTPA when its voltage fits, else the
- * field-weakening point where the constant-torque curve meets the voltage boundary (polished onto the
- * exact torque). Zero torque is solved in closed form. Beyond MTPV: no current at all reaches T
+ * field-weakening point where the constant-torque curve meets the voltage boundary (on a linear model
+ * polished onto the exact torque in closed form; the numeric path keeps the bisected point, within
+ * 1e-13 of the current). Zero torque: zero-torque.ts. Beyond MTPV: no current at all reaches T
  * within Vmax at that speed.
  */
-import type { DqMachine } from '../machine/dq-machine';
 import type { DriveLimits } from '../drive/inverter-spec';
+import type { LinearTerms, MachineInput, MachineModel } from '../machine/machine-model';
 import type { OperatingPoint, Region } from './operating-point-types';
-import { assertFinite, assertLimits, assertMachine, mtpaCurrentForTorque, torqueOf } from './mtpa';
-import { maxTorqueCore, newScratch } from './envelope';
+import { machineModel } from '../machine/linear-dq';
+import { assertFinite, assertLimits, assertMachine, mtpaCurrentForTorque } from './mtpa';
+import { type MaxTorqueScratch, maxTorqueCore, newScratch } from './max-torque';
+import { zeroTorque } from './zero-torque';
+import { point } from './point-of-current';
 
 const REGIONS: readonly Region[] = ['mtpa', 'field-weakening', 'mtpv'];
-
-function point(m: DqMachine, speed: number, id: number, iq: number, region: Region): OperatingPoint {
-  const we = m.polePairs * speed;
-  const vd = m.Rs * id - we * m.Lq * iq;
-  const vq = m.Rs * iq + we * (m.Ld * id + m.psiM);
-  return {
-    feasible: true, speed, torque: torqueOf(m, id, iq), id, iq, current: Math.hypot(id, iq),
-    vd, vq, voltage: Math.hypot(vd, vq), region, limitedBy: 'none',
-  };
-}
-
-const sc = newScratch();
-
-/** Smallest |x| with a x² + b x + c <= 0 (a > 0), or NaN when there is none. */
-function nearestToZero(a: number, b: number, c: number): number {
-  if (c <= 0) return 0;
-  const disc = b * b - 4 * a * c;
-  if (disc < 0) return Number.NaN;
-  const q = -0.5 * (b + (b >= 0 ? 1 : -1) * Math.sqrt(disc));
-  const r1 = q / a;
-  const r2 = q !== 0 ? c / q : r1;
-  return Math.abs(r1) < Math.abs(r2) ? r1 : r2;
-}
-
-/**
- * Zero torque in closed form: T = 0 on iq = 0, or on id = -psiM/(Ld-Lq) (any iq). On each line |v|² is
- * a quadratic; the least current is the root nearest zero. Null when neither line meets |v| <= Vmax.
- */
-function zeroTorque(m: DqMachine, Vmax: number, speed: number): OperatingPoint | null {
-  const we = m.polePairs * speed;
-  let best: OperatingPoint | null = null;
-  // iq = 0: |v|² = Rs² id² + we² (Ld id + psiM)²
-  const id1 = nearestToZero(m.Rs * m.Rs + we * we * m.Ld * m.Ld, 2 * we * we * m.Ld * m.psiM, we * we * m.psiM * m.psiM - Vmax * Vmax);
-  if (!Number.isNaN(id1)) best = point(m, speed, id1, 0, id1 === 0 ? 'mtpa' : 'field-weakening');
-  const dl = m.Ld - m.Lq;
-  if (dl !== 0 && m.psiM > 0) {
-    // id = id0: vd = Rs id0 - we Lq iq, vq = Rs iq + we Ld id0 + we psiM
-    const id0 = -m.psiM / dl;
-    const e = we * (m.Ld * id0 + m.psiM);
-    const a = m.Rs * m.Rs + we * we * m.Lq * m.Lq;
-    const iq = a > 0 ? nearestToZero(a, 2 * (-m.Rs * id0 * we * m.Lq + m.Rs * e), m.Rs * m.Rs * id0 * id0 + e * e - Vmax * Vmax) : (e * e <= Vmax * Vmax ? 0 : Number.NaN);
-    if (!Number.isNaN(iq)) {
-      const q = point(m, speed, id0, iq, 'field-weakening');
-      if (!best || q.current < best.current) best = q;
-    }
-  }
-  if (best) best.torque = 0;
-  return best;
-}
 
 /**
  * Least current for torque T at speed, voltage limit Vmax, current unlimited. Returns the point, or
  * 'too-much' when the torque is beyond MTPV at that speed, or 'too-little' when the voltage limit
  * forces more torque of that sign than T at any current (with Rs; or zero torque cannot be held).
  */
-function leastCurrent(m: DqMachine, Vmax: number, speed: number, T: number): OperatingPoint | 'too-much' | 'too-little' {
+function leastCurrent(m: MachineModel, Vmax: number, speed: number, T: number): OperatingPoint | 'too-much' | 'too-little' {
   const we = m.polePairs * speed;
   const sign: 1 | -1 = T < 0 ? -1 : 1;
   const Ta = Math.abs(T);
-  if (Ta === 0) return zeroTorque(m, Vmax, speed) ?? 'too-little';
+  if (Ta === 0) return zeroTorque(m, Vmax, speed, voltageRegionBound(m, Vmax, we)) ?? 'too-little';
   // MTPA for T: when its voltage fits it is the least current
   const mt = mtpaCurrentForTorque(m, T);
   const pm = point(m, speed, mt.id, mt.iq, 'mtpa');
   if (pm.voltage <= Vmax) return pm;
-  const D = m.Rs * m.Rs + we * we * m.Ld * m.Lq;
-  if (!(D > 0)) return pm; // no voltage drop at all (Rs = 0 at standstill)
-  // every point of the voltage region lies within Ib: |i| <= ||A^-1|| (Vmax + |b|)
-  const Ib = (Math.sqrt(2 * m.Rs * m.Rs + we * we * (m.Ld * m.Ld + m.Lq * m.Lq)) / D) * (Vmax + Math.abs(we) * m.psiM);
+  const Ib = voltageRegionBound(m, Vmax, we);
+  if (Ib === null) return pm; // no voltage drop at all (Rs = 0 at standstill)
   const top = Math.max(Ib, mt.current) * (1 + 1e-9);
+  const sc = newScratch(); // this solve's own (only a voltage-bound point needs it)
   // least current whose largest torque reaches |T| ...
-  const a = leastReaching(m, Vmax, we, sign, Ta, 0, top);
+  const a = leastReaching(m, Vmax, we, sign, Ta, 0, top, sc);
   if (!a) return 'too-much';
   // ... and whose smallest torque is not above it (with Rs the voltage limit can force torque of one sign)
   maxTorqueCore(m, Vmax, a.I, we, -sign as 1 | -1, sc, -Ta);
   let r = a;
   if (!(sc.ok && sc.J >= -Ta)) {
-    const b = leastReaching(m, Vmax, we, -sign as 1 | -1, -Ta, a.I, top);
+    const b = leastReaching(m, Vmax, we, -sign as 1 | -1, -Ta, a.I, top, sc);
     if (!b) return 'too-little';
     r = b;
   }
   let id = r.id, iq = r.iq;
-  if (r.region !== 0) {
-    const pol = polish(m, Vmax, we, T, id, r.I);
+  if (r.region !== 0 && m.linear !== null) {
+    const pol = polish(m.linear, m.polePairs, m.Rs, Vmax, we, T, id, r.I);
     if (pol) { id = pol[0]; iq = pol[1]; }
   }
   return point(m, speed, id, iq, REGIONS[r.region]);
 }
 
+/**
+ * A bound on the current of every point of the voltage region |v| <= Vmax at we, |i| <= ||A^-1|| (Vmax + |b|),
+ * A = [[Rs, -we Lq], [we Ld, Rs]], b = (0, we psiM), with the flux and incremental inductances at zero
+ * current (exact for a linear model, a bracket end otherwise); null when the voltage does not depend on
+ * the current (Rs = 0 at standstill).
+ */
+function voltageRegionBound(m: MachineModel, Vmax: number, we: number): number | null {
+  let Ld: number, Lq: number, psiM: number;
+  if (m.linear !== null) ({ Ld, Lq, psiM } = m.linear);
+  else {
+    const f = new Float64Array(2), L = new Float64Array(4);
+    m.flux(0, 0, f);
+    m.incrementalInductance(0, 0, L);
+    Ld = L[0]!; Lq = L[3]!; psiM = Math.hypot(f[0]!, f[1]!);
+  }
+  const D = m.Rs * m.Rs + we * we * Ld * Lq;
+  if (!(D > 0)) return null;
+  return (Math.sqrt(2 * m.Rs * m.Rs + we * we * (Ld * Ld + Lq * Lq)) / D) * (Vmax + Math.abs(we) * psiM);
+}
+
 /** Least current in [lo, hi] at which the largest sign*torque is >= thr (bisection to 1e-13 relative). */
-function leastReaching(m: DqMachine, Vmax: number, we: number, sign: 1 | -1, thr: number, lo: number, hi: number): { I: number; id: number; iq: number; region: 0 | 1 | 2 } | null {
+function leastReaching(m: MachineModel, Vmax: number, we: number, sign: 1 | -1, thr: number, lo: number, hi: number, sc: MaxTorqueScratch): { I: number; id: number; iq: number; region: 0 | 1 | 2 } | null {
   maxTorqueCore(m, Vmax, hi, we, sign, sc, thr);
   if (!sc.ok || sc.J < thr) return null;
   let id = sc.id, iq = sc.iq, region = sc.region;
@@ -125,16 +100,16 @@ function leastReaching(m: DqMachine, Vmax: number, we: number, sign: 1 | -1, thr
  * at the same id, and if that breaks |v| <= Vmax, bracket the nearby crossing of the voltage boundary
  * along the curve (bisection, feasible end kept). Null when it would not improve (kept as found).
  */
-function polish(m: DqMachine, Vmax: number, we: number, T: number, id0: number, Ihi: number): [number, number] | null {
-  const k = 1.5 * m.polePairs;
+function polish(m: LinearTerms, p: number, Rs: number, Vmax: number, we: number, T: number, id0: number, Ihi: number): [number, number] | null {
+  const k = 1.5 * p;
   const dl = m.Ld - m.Lq;
   const den0 = m.psiM + dl * id0;
   if (den0 === 0) return null;
   const iqOf = (id: number) => T / (k * (m.psiM + dl * id));
   const f = (id: number) => {
     const iq = iqOf(id);
-    const vd = m.Rs * id - we * m.Lq * iq;
-    const vq = m.Rs * iq + we * (m.Ld * id + m.psiM);
+    const vd = Rs * id - we * m.Lq * iq;
+    const vq = Rs * iq + we * (m.Ld * id + m.psiM);
     return vd * vd + vq * vq - Vmax * Vmax;
   };
   const ok = (id: number) => (m.psiM + dl * id) * den0 > 0;
@@ -166,11 +141,12 @@ function polish(m: DqMachine, Vmax: number, we: number, T: number, id0: number, 
  * voltage-limited maximum) or 'voltage' (with Rs the voltage limit forces more torque of that sign
  * than asked, or zero torque cannot be held at that speed).
  */
-export function solveOperatingPointUnlimitedCurrent(m: DqMachine, Vmax: number, speed_rad_s: number, torque_Nm: number): OperatingPoint {
-  assertMachine(m);
+export function solveOperatingPointUnlimitedCurrent(input: MachineInput, Vmax: number, speed_rad_s: number, torque_Nm: number): OperatingPoint {
+  assertMachine(input);
   assertLimits({ Vmax, Imax: Infinity });
   assertFinite('speed', speed_rad_s, 'rad/s');
   assertFinite('torque', torque_Nm, 'N·m');
+  const m = machineModel(input);
   const p = leastCurrent(m, Vmax, speed_rad_s, torque_Nm);
   if (typeof p === 'object') {
     p.limitedBy = p.region === 'mtpa' ? 'none' : 'voltage';
@@ -192,8 +168,9 @@ export function solveOperatingPointUnlimitedCurrent(m: DqMachine, Vmax: number, 
  * Imax), 'voltage' (with Rs the voltage limit forces more torque of that sign than asked at any current) or
  * 'beyond-mtpv' (more torque than any current reaches at that speed within Vmax).
  */
-export function solveOperatingPoint(m: DqMachine, lim: DriveLimits, speed_rad_s: number, torque_Nm: number): OperatingPoint {
+export function solveOperatingPoint(input: MachineInput, lim: DriveLimits, speed_rad_s: number, torque_Nm: number): OperatingPoint {
   assertLimits(lim);
+  const m = machineModel(input);
   const p = solveOperatingPointUnlimitedCurrent(m, lim.Vmax, speed_rad_s, torque_Nm);
   if (!p.feasible) return p;
   if (p.current <= lim.Imax) return p;
@@ -208,8 +185,9 @@ export function solveOperatingPoint(m: DqMachine, lim: DriveLimits, speed_rad_s:
  * cut a convex set from the (id, iq) plane, so the reachable torques form the interval
  * [Tmin, Tmax] and two max-torque solves decide it. Inputs are validated.
  */
-export function canHoldTorque(m: DqMachine, lim: DriveLimits, speed_rad_s: number, torque_Nm: number): boolean {
-  assertMachine(m);
+export function canHoldTorque(input: MachineInput, lim: DriveLimits, speed_rad_s: number, torque_Nm: number, sc: MaxTorqueScratch = newScratch()): boolean {
+  assertMachine(input);
+  const m = machineModel(input);
   assertLimits(lim);
   assertFinite('speed', speed_rad_s, 'rad/s');
   assertFinite('torque', torque_Nm, 'N·m');

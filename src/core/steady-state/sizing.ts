@@ -6,7 +6,7 @@
  * The caller runs it for the hot and for the cold machine.
  */
 import type { CurrentLimits, Duty, LimitSource } from '../drive/current-limit-types';
-import type { DqMachine } from '../machine/dq-machine';
+import type { MachineInput } from '../machine/machine-model';
 import type { InverterSpec } from '../drive/inverter-spec';
 import type { LimitedBy, Requirement } from './operating-point-types';
 import { effectiveCurrentLimits } from '../drive/current-limits';
@@ -16,6 +16,8 @@ import { rpmToRadS } from '../base/units';
 import { assertMachine, mtpaCurrentForTorque } from './mtpa';
 import { maxTorquePoint, directionSign } from './envelope';
 import { canHoldTorque, solveOperatingPoint, solveOperatingPointUnlimitedCurrent } from './operating-point';
+import { machineModel } from '../machine/linear-dq';
+import { newScratch } from './max-torque';
 
 export interface SizingPoint {
   label: string;
@@ -69,19 +71,20 @@ function assertRequirements(reqs: Requirement[]): void {
  * between 0 and the voltage of the MTPA point (which meets it), 200 steps at most, to 1e-12 relative.
  * Null when even MTPA needs more than Imax.
  */
-export function leastVoltageLimit(m: DqMachine, Imax: number, speed_rad_s: number, torque_Nm: number): number | null {
+export function leastVoltageLimit(input: MachineInput, Imax: number, speed_rad_s: number, torque_Nm: number): number | null {
+  const m = machineModel(input);
   const mt = mtpaCurrentForTorque(m, torque_Nm);
   if (mt.current > Imax) return null;
-  const we = m.polePairs * speed_rad_s;
-  const vd = m.Rs * mt.id - we * m.Lq * mt.iq;
-  const vq = m.Rs * mt.iq + we * (m.Ld * mt.id + m.psiM);
-  let hi = Math.hypot(vd, vq);
+  const v = new Float64Array(2);
+  m.steadyVoltage(mt.id, mt.iq, m.polePairs * speed_rad_s, v);
+  let hi = Math.hypot(v[0]!, v[1]!);
+  const sc = newScratch();
   if (!(hi > 0)) return 0;
   let lo = 0;
   for (let it = 0; it < 200 && hi - lo > 1e-12 * hi; it++) {
     const mid = 0.5 * (lo + hi);
     if (!(mid > 0)) break;
-    if (canHoldTorque(m, { Vmax: mid, Imax }, speed_rad_s, torque_Nm)) hi = mid;
+    if (canHoldTorque(m, { Vmax: mid, Imax }, speed_rad_s, torque_Nm, sc)) hi = mid;
     else lo = mid;
   }
   return hi;
@@ -107,8 +110,9 @@ function bindingWords(by: LimitedBy, duty: Duty, I: number, binds: LimitSource, 
  * Verdict per requirement, least Imax for the bus, least bus for Imax. `limits` are the effective
  * current limits (the weaker of motor and inverter); without them, the inverter's Imax and Icont.
  */
-export function sizeDrive(m: DqMachine, inverter: InverterSpec, requirements: Requirement[], limits?: CurrentLimits): SizingResult {
-  assertMachine(m);
+export function sizeDrive(input: MachineInput, inverter: InverterSpec, requirements: Requirement[], limits?: CurrentLimits): SizingResult {
+  assertMachine(input);
+  const m = machineModel(input);
   assertRequirements(requirements);
   const lim = driveLimits(inverter, 'peak');
   const cl = limits ?? effectiveCurrentLimits(inverter);
