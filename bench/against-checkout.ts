@@ -29,8 +29,9 @@ async function pick(root: string, candidates: string[], name: string): Promise<F
 
 const median = (xs: number[]): number => [...xs].sort((a, b) => a - b)[Math.floor(xs.length / 2)]!;
 
-function timeIt(f: () => void, reps: number, rounds: number): number {
-  f(); f();
+/** median ms per call over `rounds` rounds of `reps` calls, after `warm` calls (the optimising compiler settles) */
+function timeIt(f: () => void, reps: number, rounds: number, warm: number): number {
+  for (let i = 0; i < warm; i++) f();
   const t: number[] = [];
   for (let r = 0; r < rounds; r++) {
     const t0 = performance.now();
@@ -49,8 +50,8 @@ async function child(root: string, demo: string): Promise<void> {
   const run = (await pick(root, ['src/core/simulation/simulate.ts', 'src/core/simulate.ts'], 'runSimulation')) as unknown as (s: unknown, o: unknown) => void;
   const p = load(readFileSync(join(root, 'resources', `${demo}.json`), 'utf8'));
   const s = setup(p);
-  const envelope_ms = timeIt(() => envelope(p.hot, p.peak, { points: 400 }), 20, 15);
-  const simulation_ms = timeIt(() => run(s, { wallBudget_s: 600 }), 1, 9);
+  const envelope_ms = timeIt(() => envelope(p.hot, p.peak, { points: 400 }), 20, 15, 40);
+  const simulation_ms = timeIt(() => run(s, { wallBudget_s: 600 }), 1, 15, 8);
   process.stdout.write(JSON.stringify({ envelope_ms, simulation_ms }));
 }
 
