@@ -81,3 +81,11 @@ describe('the linear dq machine model', () => {
     expect(isMachineModel(ipm)).toBe(false);
   });
 });
+
+describe('the magnet terms at zero current', () => {
+  it('are psiM and Ld for the linear model', async () => {
+    const { zeroCurrentTerms } = await import('../src/core/machine/model-numeric');
+    // Krause, Wasynczuk and Sudhoff (2002): psi_d = Ld id + psiM is psiM at id = 0, d psi_d / d id = Ld
+    expect(zeroCurrentTerms(new LinearDqModel(ipm))).toEqual({ psi0: ipm.psiM, Ld0: ipm.Ld });
+  });
+});

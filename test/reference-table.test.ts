@@ -72,3 +72,30 @@ describe('torque -> current reference table', () => {
     expect(lookupCurrents(tab, 300, 10 * tHi, out)).toBeCloseTo(tHi, 9);
   });
 });
+
+describe('the reference table of a model that is not linear', () => {
+  it('a model that hides its constant terms gives the linear table within the limit bisection (30 halvings)', async () => {
+    const { numericOnly } = await import('./model-paths');
+    const nodes = { speedMax_rad_s: wMax, speedNodes: 9, torqueNodes: 7 };
+    const a = buildReferenceTable(ipm, lim, nodes);
+    const b = buildReferenceTable(numericOnly(ipm), lim, nodes);
+    // common practice (no source): both bisect the same torque limit from different upper bounds
+    // (the linear bound 1.5 p (psiM + |Ld - Lq| Imax) Imax, or 1.05 x the MTPA torque at Imax), so
+    // they agree to the bisection's resolution, 2^-30 of the bound, about 3e-7 N·m here
+    const bound = 1.5 * ipm.polePairs * (ipm.psiM + Math.abs(ipm.Ld - ipm.Lq) * lim.Imax) * lim.Imax;
+    for (let r = 0; r < 9; r++) {
+      expect(Math.abs(a.tMot[r]! - b.tMot[r]!)).toBeLessThan(2 * bound * 2 ** -30);
+      expect(Math.abs(a.tGen[r]! - b.tGen[r]!)).toBeLessThan(2 * bound * 2 ** -30);
+    }
+    // the currents of the inner nodes solve the same torque: equal to 1e-8 of Imax; the end nodes
+    // sit at the torque limit, where the torque is at its maximum along the limit boundary and so
+    // flat in the current's direction: the 2^-30 difference of the limits moves their current by
+    // up to a few 1e-5 of Imax (common practice (no source): sensitivity at a maximum)
+    for (let k = 0; k < a.id.length; k++) {
+      const end = k % 7 === 0 || k % 7 === 6;
+      const tol = (end ? 1e-4 : 1e-8) * lim.Imax;
+      expect(Math.abs(a.id[k]! - b.id[k]!)).toBeLessThan(tol);
+      expect(Math.abs(a.iq[k]! - b.iq[k]!)).toBeLessThan(tol);
+    }
+  });
+});

@@ -10,14 +10,16 @@
  * i_d and the opposite i_q as the point at (omega, T) (exact for the dq model, Rs included).
  * Lookup is bilinear in (speed, u) and allocates nothing.
  */
-import type { DqMachine } from '../machine/dq-machine';
+import type { MachineInput, MachineModel } from '../machine/machine-model';
+import { machineModel } from '../machine/linear-dq';
+import { mtpaTorque } from '../steady-state/mtpa';
 import type { DriveLimits } from '../drive/inverter-spec';
 import type { OperatingPoint } from '../steady-state/operating-point-types';
 import { InputError } from '../base/errors';
 import { solveOperatingPoint } from '../steady-state/operating-point';
 import { bilinear, cellOf, gridPosition, lerp } from '../mathematics/interpolation';
 
-export type OperatingPointSolver = (m: DqMachine, lim: DriveLimits, speed_rad_s: number, torque_Nm: number) => OperatingPoint;
+export type OperatingPointSolver = (m: MachineInput, lim: DriveLimits, speed_rad_s: number, torque_Nm: number) => OperatingPoint;
 
 export interface ReferenceTableOptions {
   /** highest mechanical speed of the grid, rad/s (beyond it the last row is used) */
@@ -50,7 +52,7 @@ export interface ReferenceTable {
   iq: Float64Array;
 }
 
-function feasible(solve: OperatingPointSolver, m: DqMachine, lim: DriveLimits, w: number, T: number): OperatingPoint | null {
+function feasible(solve: OperatingPointSolver, m: MachineModel, lim: DriveLimits, w: number, T: number): OperatingPoint | null {
   try {
     const op = solve(m, lim, w, T);
     return op.feasible && Number.isFinite(op.id) && Number.isFinite(op.iq) ? op : null;
@@ -60,9 +62,7 @@ function feasible(solve: OperatingPointSolver, m: DqMachine, lim: DriveLimits, w
 }
 
 /** Largest |T| with sign `dir` that the solver reaches at speed w (bisection, bounded). */
-function torqueLimit(solve: OperatingPointSolver, m: DqMachine, lim: DriveLimits, w: number, dir: 1 | -1, iters: number): number {
-  // no torque exceeds 1.5 p (psiM + |Ld - Lq| Imax) Imax within |i| <= Imax
-  const hi0 = 1.5 * m.polePairs * (m.psiM + Math.abs(m.Ld - m.Lq) * lim.Imax) * lim.Imax;
+function torqueLimit(solve: OperatingPointSolver, m: MachineModel, hi0: number, lim: DriveLimits, w: number, dir: 1 | -1, iters: number): number {
   if (feasible(solve, m, lim, w, dir * hi0)) return hi0;
   let lo = 0;
   let hi = hi0;
@@ -74,8 +74,18 @@ function torqueLimit(solve: OperatingPointSolver, m: DqMachine, lim: DriveLimits
   return lo;
 }
 
+/**
+ * No torque exceeds this within |i| <= Imax: 1.5 p (psiM + |Ld - Lq| Imax) Imax for a linear model;
+ * for any other, the MTPA torque at Imax (the most torque that current makes) with 5 % margin.
+ */
+function torqueBound(m: MachineModel, Imax: number): number {
+  const L = m.linear;
+  if (L) return 1.5 * m.polePairs * (L.psiM + Math.abs(L.Ld - L.Lq) * Imax) * Imax;
+  return 1.05 * mtpaTorque(m, Imax);
+}
+
 export function buildReferenceTable(
-  m: DqMachine,
+  input: MachineInput,
   lim: DriveLimits,
   options: Partial<ReferenceTableOptions> & { speedMax_rad_s: number },
   solve: OperatingPointSolver = solveOperatingPoint,
@@ -84,6 +94,8 @@ export function buildReferenceTable(
   if (!(o.speedMax_rad_s > 0 && Number.isFinite(o.speedMax_rad_s))) throw new InputError('reference table speedMax', 'must be > 0 rad/s');
   if (!(Number.isInteger(o.speedNodes) && o.speedNodes >= 2)) throw new InputError('reference table speedNodes', 'must be a whole number >= 2');
   if (!(Number.isInteger(o.torqueNodes) && o.torqueNodes >= 3)) throw new InputError('reference table torqueNodes', 'must be a whole number >= 3');
+  const m = machineModel(input);
+  const hi0 = torqueBound(m, lim.Imax);
   const nS = o.speedNodes;
   const nU = o.torqueNodes;
   const tMot = new Float64Array(nS);
@@ -92,8 +104,8 @@ export function buildReferenceTable(
   const iq = new Float64Array(nS * nU);
   for (let r = 0; r < nS; r++) {
     const w = (o.speedMax_rad_s * r) / (nS - 1);
-    tMot[r] = torqueLimit(solve, m, lim, w, 1, o.limitIterations);
-    tGen[r] = torqueLimit(solve, m, lim, w, -1, o.limitIterations);
+    tMot[r] = torqueLimit(solve, m, hi0, lim, w, 1, o.limitIterations);
+    tGen[r] = torqueLimit(solve, m, hi0, lim, w, -1, o.limitIterations);
     let lastId = 0;
     let lastIq = 0;
     for (let c = 0; c < nU; c++) {

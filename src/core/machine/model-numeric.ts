@@ -64,3 +64,14 @@ export function currentFromFluxNumeric(m: MachineModel, psid: number, psiq: numb
   }
   return -1;
 }
+
+/**
+ * The magnet's terms as the model sees them at zero current: psi_d there (psiM of a linear model)
+ * and the incremental d inductance there (Ld of a linear model).
+ */
+export function zeroCurrentTerms(m: MachineModel): { psi0: number; Ld0: number } {
+  const f = new Float64Array(2), L = new Float64Array(4);
+  m.flux(0, 0, f);
+  m.incrementalInductance(0, 0, L);
+  return { psi0: f[0]!, Ld0: L[0]! };
+}

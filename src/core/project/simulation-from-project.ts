@@ -24,6 +24,9 @@ import { RAD_S_TO_RPM, RPM_TO_RAD_S } from '../base/units';
 import type { ResolvedProject } from './project';
 import { defaultControl, type ControlSection, type ScenarioSection } from './schema';
 import { tuningInputFor } from './tuning-from-project';
+import type { MachineInput } from '../machine/machine-model';
+import { machineModel } from '../machine/linear-dq';
+import { zeroCurrentTerms } from '../machine/model-numeric';
 
 export interface SimulationOverrides {
   control?: Partial<ControlSection>;
@@ -40,9 +43,10 @@ export interface SimulationOverrides {
 }
 
 
-/** Speed at which the open-circuit back-EMF reaches Vmax, rad/s (mechanical). */
-function noLoadSpeed(m: DqMachine, lim: DriveLimits): number {
-  return m.psiM > 0 ? lim.Vmax / (m.polePairs * m.psiM) : lim.Vmax / (m.polePairs * m.Ld * lim.Imax);
+/** Speed at which the open-circuit back-EMF reaches Vmax, rad/s (mechanical); a magnetless machine: where Ld Imax does. */
+function noLoadSpeed(m: MachineInput, lim: DriveLimits): number {
+  const { psi0, Ld0 } = zeroCurrentTerms(machineModel(m));
+  return psi0 > 0 ? lim.Vmax / (m.polePairs * psi0) : lim.Vmax / (m.polePairs * Ld0 * lim.Imax);
 }
 
 export function simulationFromProject(p: ResolvedProject, overrides: SimulationOverrides = {}): SimulationSetup {

@@ -12,6 +12,7 @@ import { bisectPredicate } from '../mathematics/root-finding';
 import { assertFinite, assertLimits, assertMachine, mtpaId } from './mtpa';
 import { point } from './point-of-current';
 import { ENVELOPE_ACCURACY, type MaxTorqueScratch, maxTorqueCore, newScratch } from './max-torque';
+import { zeroCurrentTerms } from '../machine/model-numeric';
 
 export { ENVELOPE_ACCURACY } from './max-torque';
 
@@ -90,14 +91,6 @@ export interface Envelope {
   accuracy: number;
 }
 
-/** Flux psi_d and incremental d inductance at zero current (psiM and Ld of a linear model). */
-function atZeroCurrent(m: MachineModel): { psi0: number; Ld0: number } {
-  const f = new Float64Array(2), L = new Float64Array(4);
-  m.flux(0, 0, f);
-  m.incrementalInductance(0, 0, L);
-  return { psi0: f[0]!, Ld0: L[0]! };
-}
-
 /**
  * Base speed in closed form: the speed where the MTPA point at Imax reaches |v| = Vmax. At a fixed
  * current the steady voltage is affine in speed, v = Rs i + we (-psi_q, psi_d), so |v|² = Vmax² is
@@ -138,7 +131,7 @@ export function maximumSpeed(input: MachineInput, lim: DriveLimits, direction: D
   const m = machineModel(input);
   const sc = newScratch();
   const s: 1 | -1 = direction === 'motoring' ? 1 : -1;
-  const z = atZeroCurrent(m);
+  const z = zeroCurrentTerms(m);
   let lo = 0;
   let hi = Math.max(baseSpeed(m, lim, direction), lim.Vmax / (m.polePairs * Math.max(z.psi0, z.Ld0 * lim.Imax)));
   if (!(hi > 0) || !Number.isFinite(hi)) hi = 1;
@@ -163,7 +156,7 @@ export function computeEnvelope(input: MachineInput, lim: DriveLimits, opts: Par
   const m = machineModel(input);
   const wb = baseSpeed(m, lim, o.direction);
   const wmax = maximumSpeed(m, lim, o.direction);
-  const z = atZeroCurrent(m);
+  const z = zeroCurrentTerms(m);
   let top = o.speedMax;
   if (top === undefined) {
     if (wmax !== null) top = 1.05 * wmax;
