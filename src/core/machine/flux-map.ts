@@ -1,0 +1,152 @@
+/**
+ * A flux-map machine: psi_d(id, iq) and psi_q(id, iq) tabulated on a rectangular grid (from
+ * finite-element analysis or a test bench), the machine model's second implementation. The table
+ * is taken as given (the project checks it: rectangular, ascending, finite, positive incremental
+ * inductances); a map of iq >= 0 only is mirrored by the odd symmetry of psi_q in iq and the even
+ * symmetry of psi_d. A magnet-temperature shift adds a constant to psi_d (see `fluxMapAt`).
+ *
+ * Interpolation: see `FluxMapModel.flux`. The inverse (current from flux) is Newton's method on the
+ * interpolant with its exact derivatives, from the last answer or zero, bounded in steps and in
+ * current.
+ */
+import type { MachineModel } from './machine-model';
+import { currentFromFluxNumeric, numericScratch, type NumericScratch } from './model-numeric';
+
+/** The map as a project file gives it: psid_Wb[i][j] at id_A[i], iq_A[j]; A peak, Wb peak. */
+export interface FluxMapData {
+  /** magnet temperature of the map, °C */
+  magnetTemp_C: number;
+  id_A: readonly number[];
+  iq_A: readonly number[];
+  psid_Wb: ReadonlyArray<readonly number[]>;
+  psiq_Wb: ReadonlyArray<readonly number[]>;
+}
+
+/** The map on the full plane, row-major Float64Arrays: psid[i * nq + j] at (id[i], iq[j]). */
+export interface FluxGrid {
+  id: Float64Array;
+  iq: Float64Array;
+  psid: Float64Array;
+  psiq: Float64Array;
+}
+
+/** The full-plane grid of a map: as given, or mirrored to iq < 0 when the map starts at iq = 0 (or above). */
+export function fullPlaneGrid(d: FluxMapData): FluxGrid {
+  const nd = d.id_A.length;
+  const mirror = d.iq_A[0]! >= 0;
+  const q = d.iq_A;
+  const skip = mirror && q[0] === 0 ? 1 : 0; // iq = 0 is not repeated
+  const iqs: number[] = mirror ? [...q.slice(skip).map((x) => -x).reverse(), ...q] : [...q];
+  const nq = iqs.length;
+  const psid = new Float64Array(nd * nq);
+  const psiq = new Float64Array(nd * nq);
+  for (let i = 0; i < nd; i++) {
+    for (let j = 0; j < nq; j++) {
+      // source column: mirrored columns read the column of |iq| (psid even, psiq odd in iq)
+      const nm = mirror ? q.length - skip : 0;
+      const src = mirror && j < nm ? nm - 1 - j + skip : mirror ? j - nm : j;
+      const sign = mirror && j < nm ? -1 : 1;
+      psid[i * nq + j] = d.psid_Wb[i]![src]!;
+      psiq[i * nq + j] = sign * d.psiq_Wb[i]![src]!;
+    }
+  }
+  return { id: Float64Array.from(d.id_A), iq: Float64Array.from(iqs), psid, psiq };
+}
+
+/** The cell index k of x on an ascending grid (x clamped into the grid): g[k] <= x <= g[k+1]. */
+function cell(g: Float64Array, x: number): number {
+  let lo = 0, hi = g.length - 1;
+  if (x <= g[0]!) return 0;
+  if (x >= g[hi]!) return hi - 1;
+  while (hi - lo > 1) {
+    const mid = (lo + hi) >> 1;
+    if (g[mid]! <= x) lo = mid; else hi = mid;
+  }
+  return lo;
+}
+
+export class FluxMapModel implements MachineModel {
+  readonly linear = null;
+  readonly grid: FluxGrid;
+  /** the inverse's scratch and last answer (a model is used by one computation at a time) */
+  private readonly s: NumericScratch = numericScratch();
+  private readonly guess = new Float64Array(2);
+
+  /**
+   * @param data the map (checked by the project)
+   * @param psidShift_Wb added to psi_d everywhere (the magnet at another temperature, see fluxMapAt)
+   */
+  constructor(readonly data: FluxMapData, readonly polePairs: number, readonly Rs: number, readonly psidShift_Wb = 0) {
+    this.grid = fullPlaneGrid(data);
+  }
+
+  /**
+   * Bilinear interpolation in the cell holding (id, iq), extended linearly beyond the grid (the
+   * edge cells' planes). Writes psi into out and, when dOut is given, the exact derivatives of the
+   * interpolant [dpsid/did, dpsid/diq, dpsiq/did, dpsiq/diq].
+   */
+  private evalAt(id: number, iq: number, out: Float64Array, dOut: Float64Array | null): void {
+    const g = this.grid;
+    const nq = g.iq.length;
+    const i = cell(g.id, id), j = cell(g.iq, iq);
+    const x0 = g.id[i]!, x1 = g.id[i + 1]!, y0 = g.iq[j]!, y1 = g.iq[j + 1]!;
+    const hx = x1 - x0, hy = y1 - y0;
+    const u = (id - x0) / hx, v = (iq - y0) / hy;
+    const k00 = i * nq + j, k10 = k00 + nq;
+    for (let c = 0; c < 2; c++) {
+      const t = c === 0 ? g.psid : g.psiq;
+      const a = t[k00]!, b = t[k10]!, cc = t[k00 + 1]!, d = t[k10 + 1]!;
+      out[c] = (1 - u) * (1 - v) * a + u * (1 - v) * b + (1 - u) * v * cc + u * v * d;
+      if (dOut) {
+        dOut[2 * c] = ((1 - v) * (b - a) + v * (d - cc)) / hx;
+        dOut[2 * c + 1] = ((1 - u) * (cc - a) + u * (d - b)) / hy;
+      }
+    }
+    out[0] = out[0]! + this.psidShift_Wb;
+  }
+
+  flux(id: number, iq: number, out: Float64Array): void {
+    this.evalAt(id, iq, out, null);
+  }
+
+  torque(id: number, iq: number): number {
+    const f = this.s.b;
+    this.evalAt(id, iq, f, null);
+    return 1.5 * this.polePairs * (f[0]! * iq - f[1]! * id);
+  }
+
+  steadyVoltage(id: number, iq: number, we: number, out: Float64Array): void {
+    const f = this.s.b;
+    this.evalAt(id, iq, f, null);
+    out[0] = this.Rs * id - we * f[1]!;
+    out[1] = this.Rs * iq + we * f[0]!;
+  }
+
+  incrementalInductance(id: number, iq: number, out: Float64Array): void {
+    this.evalAt(id, iq, this.s.b, out);
+  }
+
+  current(psid: number, psiq: number, out: Float64Array): void {
+    out[0] = this.guess[0]!;
+    out[1] = this.guess[1]!;
+    if (currentFromFluxNumeric(this, psid, psiq, out, this.s) < 0) {
+      out[0] = 0;
+      out[1] = 0;
+      currentFromFluxNumeric(this, psid, psiq, out, this.s, 1e-13, 200);
+    }
+    this.guess[0] = out[0]!;
+    this.guess[1] = out[1]!;
+  }
+}
+
+/**
+ * The map's model at another magnet temperature: psi_d shifted by alphaBr (T - T_map) psi_d(0, 0),
+ * the magnet's flux scaled by its remanence coefficient and the rest of the map left as measured
+ * (an approximation: the iron's saturation at the other temperature is not known from one map).
+ */
+export function fluxMapAt(data: FluxMapData, polePairs: number, Rs: number, magnetTemp_C: number, alphaBr: number): FluxMapModel {
+  const base = new FluxMapModel(data, polePairs, Rs);
+  const f = new Float64Array(2);
+  base.flux(0, 0, f);
+  return new FluxMapModel(data, polePairs, Rs, alphaBr * (magnetTemp_C - data.magnetTemp_C) * f[0]!);
+}

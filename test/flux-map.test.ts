@@ -1,0 +1,53 @@
+import { describe, expect, it } from 'vitest';
+import { FluxMapModel, fluxMapAt, fullPlaneGrid, type FluxMapData } from '../src/core/machine/flux-map';
+import { LinearDqModel } from '../src/core/machine/linear-dq';
+
+// An invented machine (not a product's data), tabulated from constant Ld, Lq, psiM on a non-uniform grid.
+const lin = new LinearDqModel({ polePairs: 4, Rs: 0.02, Ld: 0.3e-3, Lq: 0.75e-3, psiM: 0.06 });
+function tabulate(ids: number[], iqs: number[]): FluxMapData {
+  const f = new Float64Array(2);
+  const psid = ids.map((id) => iqs.map((iq) => (lin.flux(id, iq, f), f[0]!)));
+  const psiq = ids.map((id) => iqs.map((iq) => (lin.flux(id, iq, f), f[1]!)));
+  return { magnetTemp_C: 20, id_A: ids, iq_A: iqs, psid_Wb: psid, psiq_Wb: psiq };
+}
+const ids = [-500, -400, -250, -100, 0, 50, 200];
+const half = tabulate(ids, [0, 20, 100, 300, 500]);
+
+describe('a flux map of a constant-parameter machine', () => {
+  it('mirrors a map of iq >= 0: psi_q odd, psi_d even in iq', () => {
+    const g = fullPlaneGrid(half);
+    expect([...g.iq]).toEqual([-500, -300, -100, -20, 0, 20, 100, 300, 500]);
+    const nq = g.iq.length;
+    // at id = -250 (row 2), iq = -300 (column 1): psi_q = Lq iq = -0.225 Wb, psi_d = Ld id + psiM = -0.015 Wb
+    expect(g.psiq[2 * nq + 1]).toBeCloseTo(-0.225, 15);
+    expect(g.psid[2 * nq + 1]).toBeCloseTo(-0.015, 15);
+  });
+
+  it('reproduces the affine flux, torque, voltage and inductances exactly (common practice (no source): interpolation is exact on affine data)', () => {
+    const m = new FluxMapModel(half, 4, 0.02);
+    const a = new Float64Array(2), b = new Float64Array(2), L = new Float64Array(4);
+    for (const [id, iq] of [[-320, 410], [-10, -250], [150, 30], [-480, -480]] as const) {
+      m.flux(id, iq, a);
+      lin.flux(id, iq, b);
+      expect(a[0]).toBeCloseTo(b[0]!, 12);
+      expect(a[1]).toBeCloseTo(b[1]!, 12);
+      expect(m.torque(id, iq)).toBeCloseTo(lin.torque(id, iq), 9);
+      m.incrementalInductance(id, iq, L);
+      expect(L[0]).toBeCloseTo(0.3e-3, 12);
+      expect(L[3]).toBeCloseTo(0.75e-3, 12);
+      expect(Math.abs(L[1]!) + Math.abs(L[2]!)).toBeLessThan(1e-12);
+      const c = new Float64Array(2);
+      m.current(b[0]!, b[1]!, c);
+      expect(c[0]).toBeCloseTo(id, 8);
+      expect(c[1]).toBeCloseTo(iq, 8);
+    }
+  });
+
+  it('shifts psi_d by alphaBr (T - T_map) psi_d(0, 0) at another magnet temperature', () => {
+    // psi_d(0,0) = 0.06 Wb; at 120 °C with -0.0012 /K: 0.06 (1 - 0.12) = 0.0528 Wb (sintered NdFeB, from memory)
+    const hot = fluxMapAt(half, 4, 0.02, 120, -0.0012);
+    const f = new Float64Array(2);
+    hot.flux(0, 0, f);
+    expect(f[0]).toBeCloseTo(0.0528, 12);
+  });
+});
