@@ -21,6 +21,8 @@ import { migrateProject } from './migrate';
 import { oddMachineFindings, ratedFindings } from './resolve-findings';
 import { parseProjectJson } from './project-json';
 import { RPM_TO_RAD_S } from '../base/units';
+import type { MachineModel } from '../machine/machine-model';
+import { LinearDqModel } from '../machine/linear-dq';
 
 export { parseProjectJson };
 export { DEFAULT_COLD_TEMP_C, DEFAULT_MODULATION, DEFAULT_TEMP_C } from './schema';
@@ -35,6 +37,12 @@ export interface ResolvedProject {
   hot: DqMachine;
   /** Rs and psiM at the cold temperature (highest back-EMF) */
   cold: DqMachine;
+  /**
+   * The machine models the solvers are given (hot and cold corners, and at 20 °C): the constant dq
+   * machine's, or a flux map's. `machine20`, `hot` and `cold` above are then the apparent constant
+   * terms at zero current, for display.
+   */
+  models: { at20: MachineModel; hot: MachineModel; cold: MachineModel };
   mechanics: Mechanics;
   inverter: InverterSpec;
   /** voltage limit and the effective peak current (the weaker of inverter Imax and motor peak current) */
@@ -170,6 +178,7 @@ export function resolveProject(file: ProjectFile): ResolvedProject {
     machine20,
     hot,
     cold,
+    models: { at20: new LinearDqModel(machine20), hot: new LinearDqModel(hot), cold: new LinearDqModel(cold) },
     mechanics,
     inverter,
     peak,
