@@ -41,6 +41,8 @@ describe('plant: generic derivative (incremental-inductance Jacobian) against th
   const params = (machine: PlantParams['machine']): PlantParams => ({
     machine, inertia: 2e-3, viscousFriction: 1e-4, coulombFriction: 0.02, load: loadSchedule([{ t_s: 0, torque_Nm: 1 }]),
     mechanics: 'free', inputFrame: 'alpha-beta', coulombWidth_rad_s: 1e-2,
+    // the generic current-state path (a model without a closed form gets flux states by default)
+    states: 'current',
   });
   it('single derivative evaluations agree to 1e-9 over states with both currents, speed and angle', () => {
     const fast = new Plant(params(ipm));
@@ -108,7 +110,8 @@ describe('simulation: a short run on the generic paths against the fast paths', 
     const j = JSON.parse(readFileSync(resolve(__dirname, '..', 'resources', 'demo-ipm-traction.json'), 'utf8'));
     const setup = simulationFromProject(loadProjectText(JSON.stringify(j)), { scenario: { duration_s: 0.02, speedSteps: [{ t_s: 0.001, speed_rpm: 3000 }] } });
     const m = hidden(setup.plant.machine);
-    const gen: SimulationSetup<MachineModel> = { ...setup, plant: { ...setup.plant, machine: m }, controller: { ...setup.controller, machine: m } };
+    // the generic current-state path (a model without a closed form gets flux states by default)
+    const gen: SimulationSetup<MachineModel> = { ...setup, plant: { ...setup.plant, machine: m, states: 'current' }, controller: { ...setup.controller, machine: m } };
     const a = runSimulation(setup, { maxPoints: 1000 });
     const b = runSimulation(gen, { maxPoints: 1000 });
     expect(a.stats.controlSteps).toBe(200);

@@ -9,6 +9,17 @@
  *
  * State vector (Float64Array, index constants below): i_d, i_q, omega_m, theta_e, and the energy
  * drawn from the DC link (the integral of p = 1.5 (v_d i_d + v_q i_q); the inverter is lossless).
+ * With flux states (`states: 'flux'`, the default for a model that is not linear) the first two
+ * entries hold psi_d, psi_q instead (same layout, same size):
+ *
+ *   d psi_dq/dt = v_dq - R_s i_dq - omega_e J psi_dq,   J psi = (-psi_q, psi_d),   i_dq = model.current(psi_dq)
+ *   T_e = 1.5 p (psi_d i_q - psi_q i_d)
+ *
+ * so that a saturating machine is integrated in the variables its magnetic field stores (a step
+ * into saturation needs no inverse of the incremental inductance, and a reciprocal model conserves
+ * energy by construction). Only the plant and the stepper see these states: the simulator converts
+ * the state once per control period (`currentState`) and hands the currents to the controller, the
+ * recorder, the watchdogs and the log.
  *
  * The input is the inverter's average voltage over a control period. By default it is given in
  * the stationary (alpha, beta) frame, as PWM averaging holds it, and the derivative rotates it into
@@ -18,7 +29,8 @@
  * The machine is a machine model (../machine/machine-model.ts): with constant Ld, Lq, psiM
  * (`model.linear`) the equations above are evaluated as written (the fast path); any other model
  * goes through its flux and incremental inductance, L_inc di/dt = v - Rs i - we J psi (see
- * `currentDerivative`), and its torque. Both agree on the linear model (test/machine-paths.test.ts).
+ * `currentDerivative`), and its torque, or, with flux states, through its inverse (`fluxDerivative`).
+ * All agree on the linear model (test/machine-paths.test.ts, test/plant-flux-states.test.ts).
  *
  * The sign of the Coulomb friction is smoothed as x / sqrt(1 + x²), x = omega / w, with a width w
  * chosen so that the friction term is not stiff at the control period (see `coulombWidth`).
@@ -39,80 +51,9 @@ export const THETA = 3;
 export const ENERGY = 4;
 export const STATE_SIZE = 5;
 
-/** Load torque: a level schedule (steps and ramps) plus a speed-dependent term k·omega·|omega|. */
-export interface LoadSchedule {
-  /** breakpoint times, s, ascending */
-  times: Float64Array;
-  /** load level at each breakpoint, N·m; linear in between, held after the last */
-  levels: Float64Array;
-  /** coefficient of the fan/pump load k·omega_m·|omega_m|, N·m·s²/rad² (0 = none) */
-  quadraticK: number;
-}
-
-export interface LoadStepSpec { t_s: number; torque_Nm: number }
-export interface LoadRampSpec { t_s: number; duration_s: number; torque_Nm: number }
-
-/** Build a level schedule: a step jumps to `torque_Nm` at `t_s`; a ramp goes linearly from the level then in force to `torque_Nm` over `duration_s`. */
-export function loadSchedule(steps: readonly LoadStepSpec[] = [], ramps: readonly LoadRampSpec[] = [], quadraticK = 0): LoadSchedule {
-  type Ev = { t: number; kind: 'step' | 'ramp'; T: number; d: number };
-  const evs: Ev[] = [];
-  steps.forEach((s, i) => {
-    if (!(s.t_s >= 0) || !Number.isFinite(s.torque_Nm)) throw new InputError(`scenario.loadSteps[${i}]`, 'needs t_s >= 0 s and a finite torque_Nm');
-    evs.push({ t: s.t_s, kind: 'step', T: s.torque_Nm, d: 0 });
-  });
-  ramps.forEach((r, i) => {
-    if (!(r.t_s >= 0) || !(r.duration_s > 0) || !Number.isFinite(r.torque_Nm)) {
-      throw new InputError(`scenario.loadRamps[${i}]`, 'needs t_s >= 0 s, duration_s > 0 s and a finite torque_Nm');
-    }
-    evs.push({ t: r.t_s, kind: 'ramp', T: r.torque_Nm, d: r.duration_s });
-  });
-  if (!(quadraticK >= 0)) throw new InputError('scenario.loadModel.k', 'must be >= 0 N·m·s²/rad²');
-  evs.sort((a, b) => a.t - b.t);
-  const t: number[] = [0];
-  const v: number[] = [0];
-  const levelAt = (x: number): number => {
-    // level of the piecewise-linear schedule built so far
-    let i = t.length - 1;
-    while (i > 0 && t[i]! > x) i--;
-    if (i === t.length - 1 || t[i + 1]! === t[i]!) return v[i]!;
-    const f = (x - t[i]!) / (t[i + 1]! - t[i]!);
-    return v[i]! + f * (v[i + 1]! - v[i]!);
-  };
-  for (const e of evs) {
-    // drop breakpoints after e.t (a later event overrides a ramp still running)
-    const now = levelAt(e.t);
-    while (t.length > 1 && t[t.length - 1]! > e.t) { t.pop(); v.pop(); }
-    if (e.kind === 'step') {
-      t.push(e.t, e.t); v.push(now, e.T);
-    } else {
-      t.push(e.t, e.t + e.d); v.push(now, e.T);
-    }
-  }
-  return { times: Float64Array.from(t), levels: Float64Array.from(v), quadraticK };
-}
-
-/** Load level of the schedule at time t (without the speed-dependent term). */
-export function loadLevel(s: LoadSchedule, t: number): number {
-  const n = s.times.length;
-  if (t >= s.times[n - 1]!) return s.levels[n - 1]!;
-  let lo = 0;
-  let hi = n - 1;
-  while (hi - lo > 1) {
-    const mid = (lo + hi) >> 1;
-    if (s.times[mid]! <= t) lo = mid; else hi = mid;
-  }
-  const t0 = s.times[lo]!;
-  const t1 = s.times[hi]!;
-  if (t1 <= t0) return s.levels[hi]!;
-  return s.levels[lo]! + ((t - t0) / (t1 - t0)) * (s.levels[hi]! - s.levels[lo]!);
-}
-
-/** The first breakpoint strictly after t (Infinity when none): the simulator splits its integration there. */
-export function nextLoadBreak(s: LoadSchedule, t: number): number {
-  const n = s.times.length;
-  for (let i = 0; i < n; i++) if (s.times[i]! > t) return s.times[i]!;
-  return Infinity;
-}
+export { loadSchedule, loadLevel, nextLoadBreak } from './load-schedule';
+export type { LoadSchedule, LoadStepSpec, LoadRampSpec } from './load-schedule';
+import { loadLevel, type LoadSchedule } from './load-schedule';
 
 export interface PlantParams<M extends MachineInput = MachineInput> {
   /** the machine model, or the constant dq terms it wraps */
@@ -130,6 +71,16 @@ export interface PlantParams<M extends MachineInput = MachineInput> {
   inputFrame: 'alpha-beta' | 'dq';
   /** width of the smoothed Coulomb sign, rad/s (see `coulombWidth`) */
   coulombWidth_rad_s: number;
+  /**
+   * the plant's electrical states: 'current' (i_d, i_q) or 'flux' (psi_d, psi_q). Default: currents
+   * for a linear model (its closed form, the fast path), flux linkages for any other (see `plantStates`).
+   */
+  states?: 'current' | 'flux';
+}
+
+/** The electrical states a plant integrates (see PlantParams.states). */
+export function plantStates(p: PlantParams): 'current' | 'flux' {
+  return p.states ?? (machineModel(p.machine).linear !== null ? 'current' : 'flux');
 }
 
 /**
@@ -181,8 +132,12 @@ export class Plant {
   readonly deriv: (dydt: Float64Array, y: Float64Array, t: number) => void;
   /** the machine model the derivative asks (its closed form taken when `model.linear` is non-null) */
   readonly model: MachineModel;
-  /** the model is linear: the constant-parameter fast path */
+  /** the states y[0], y[1] are the flux linkages (psi_d, psi_q), not the currents */
+  readonly fluxStates: boolean;
+  /** the model is linear and the states are currents: the constant-parameter fast path */
   private readonly lin: boolean;
+  /** the currents of the flux states (the inverse's answer) */
+  private readonly cur = new Float64Array(2);
   /** flux and incremental inductances of the generic path */
   private readonly psi = new Float64Array(2);
   private readonly Linc = new Float64Array(4);
@@ -208,7 +163,8 @@ export class Plant {
     const model = machineModel(params.machine);
     this.model = model;
     const m = model.linear;
-    this.lin = m !== null;
+    this.fluxStates = plantStates(params) === 'flux';
+    this.lin = m !== null && !this.fluxStates;
     this.p = model.polePairs;
     this.Rs = model.Rs;
     this.Ld = m ? m.Ld : NaN;
@@ -243,8 +199,8 @@ export class Plant {
     const t = this.time[0]!;
     this.evaluations++;
     const u = this.input;
-    const id = y[0]!;
-    const iq = y[1]!;
+    let id = y[0]!;
+    let iq = y[1]!;
     const w = y[2]!;
     let vd: number;
     let vq: number;
@@ -278,6 +234,12 @@ export class Plant {
       dydt[0] = (vd - this.Rs * id + we * Lq * iq) * this.invLd;
       dydt[1] = (vq - this.Rs * iq - we * (Ld * id + this.psiM)) * this.invLq;
       Te = 1.5 * this.p * (this.psiM * iq + (Ld - Lq) * id * iq);
+    } else if (this.fluxStates) {
+      // flux states: y[0], y[1] are psi_d, psi_q; the currents from the model's inverse
+      const cur = this.cur;
+      Te = this.fluxDerivative(dydt, id, iq, we, vd, vq);
+      id = cur[0]!;
+      iq = cur[1]!;
     } else {
       this.currentDerivative(dydt, id, iq, we, vd, vq);
       Te = this.model.torque(id, iq);
@@ -313,6 +275,46 @@ export class Plant {
   }
 
   /**
+   * The flux-state path: d psi/dt = v - Rs i - we J psi with i = model.current(psi) (into this.cur;
+   * a model with an iterative inverse starts from its last answer), Krause, Wasynczuk and Sudhoff
+   * (2002), ch. 5. Writes dydt[0], dydt[1]; returns the torque 1.5 p (psi_d iq - psi_q id).
+   */
+  fluxDerivative(dydt: Float64Array, psid: number, psiq: number, we: number, vd: number, vq: number): number {
+    const cur = this.cur;
+    this.model.current(psid, psiq, cur);
+    const id = cur[0]!, iq = cur[1]!;
+    dydt[0] = vd - this.Rs * id + we * psiq;
+    dydt[1] = vq - this.Rs * iq - we * psid;
+    return 1.5 * this.p * (psid * iq - psiq * id);
+  }
+
+  /** Write the electrical states of the currents (id, iq) into y[0], y[1] (the flux linkages with flux states). */
+  setCurrents(y: Float64Array, id: number, iq: number): void {
+    if (!this.fluxStates) { y[0] = id; y[1] = iq; return; }
+    const psi = this.psi;
+    this.model.flux(id, iq, psi);
+    y[0] = psi[0]!;
+    y[1] = psi[1]!;
+  }
+
+  /**
+   * The state y as the rest of the simulator reads it, into out: the currents in out[0], out[1]
+   * (from the inverse with flux states), the other entries copied. Allocates nothing.
+   */
+  currentState(y: Float64Array, out: Float64Array): void {
+    if (this.fluxStates) {
+      const cur = this.cur;
+      this.model.current(y[0]!, y[1]!, cur);
+      out[0] = cur[0]!;
+      out[1] = cur[1]!;
+    } else {
+      out[0] = y[0]!;
+      out[1] = y[1]!;
+    }
+    for (let i = 2; i < STATE_SIZE; i++) out[i] = y[i]!;
+  }
+
+  /**
    * Set the angle near which the next derivative calls evaluate the rotation: within ±0.5 rad of it
    * cos and sin come from (cos, sin)(th0) and a series in the difference (truncation below 2e-14),
    * farther away from Math.cos / Math.sin. Saves two transcendental calls per evaluation.
@@ -344,8 +346,13 @@ export class Plant {
     this.segmented = true;
   }
 
-  /** Electromagnetic torque of a state, N·m. */
+  /** Electromagnetic torque of a state (flux linkages with flux states), N·m. */
   torque(y: Float64Array): number {
+    if (this.fluxStates) {
+      const cur = this.cur;
+      this.model.current(y[0]!, y[1]!, cur);
+      return 1.5 * this.p * (y[0]! * cur[1]! - y[1]! * cur[0]!);
+    }
     const m = this.model.linear;
     if (!m) return this.model.torque(y[0]!, y[1]!);
     return 1.5 * this.p * (m.psiM * y[1]! + (m.Ld - m.Lq) * y[0]! * y[1]!);

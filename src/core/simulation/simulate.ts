@@ -2,6 +2,11 @@
  * The cascade simulator: the dq plant (plant.ts) integrated period by period (stepper.ts: Cash-Karp
  * adaptive Runge-Kutta, or RK4) under the digital controller (controller.ts).
  *
+ * The stepper integrates the plant's states `y` (currents, or flux linkages for a model that is not
+ * linear: see plant.ts); once per period the plant converts them to `yi`, the state in currents
+ * (the same array as `y` when the states are currents), which the controller, the recorder, the
+ * watchdogs and the log read.
+ *
  * Each control period [t_k, t_k + Ts]: the controller samples the state at t_k and returns the
  * alpha-beta voltage to hold over the period (its command of `delaySamples` periods before); the
  * stepper integrates to the period end, split at the load schedule's breakpoints.
@@ -81,8 +86,12 @@ export function runSimulation(setup: AnySetup, opts: RunOptions = {}): Simulatio
   const plant = new Plant(setup.plant);
   const ctrl = new CascadeController(setup.controller);
   const y = new Float64Array(STATE_SIZE);
+  plant.setCurrents(y, 0, 0);
   y[OMEGA] = setup.initialSpeed_rad_s;
   y[THETA] = setup.initialTheta_rad;
+  // the state in currents: y itself with current states, else converted once per period
+  const yi = plant.fluxStates ? new Float64Array(STATE_SIZE) : y;
+  if (yi !== y) plant.currentState(y, yi);
   ctrl.reset(y[OMEGA]!, y[THETA]!);
   const stepper = makeStepper(setup, plant, y);
   const rec = new TraceRecorder(setup, plant.model, plant, ctrl, N, o.maxPoints);
@@ -103,10 +112,10 @@ export function runSimulation(setup: AnySetup, opts: RunOptions = {}): Simulatio
     // the same cos/sin of the period's start angle serve the plant's rotation, the controller's
     // inverse Park and the record
     plant.setAngleOrigin(th0);
-    smp[0] = t0; smp[1] = y[I_D]!; smp[2] = y[I_Q]!; smp[3] = y[OMEGA]!; smp[4] = th0; smp[5] = plant.c0; smp[6] = plant.s0;
+    smp[0] = t0; smp[1] = yi[I_D]!; smp[2] = yi[I_Q]!; smp[3] = yi[OMEGA]!; smp[4] = th0; smp[5] = plant.c0; smp[6] = plant.s0;
     ctrl.stepSampled(vab);
-    rec.record(k, y);
-    x[S_T] = t0; x[S_ID] = y[I_D]!; x[S_IQ] = y[I_Q]!; x[S_W] = y[OMEGA]!;
+    rec.record(k, yi);
+    x[S_T] = t0; x[S_ID] = yi[I_D]!; x[S_IQ] = yi[I_Q]!; x[S_W] = yi[OMEGA]!;
     x[S_ID_REF] = ctrl.idRef; x[S_IQ_REF] = ctrl.iqRef; x[S_TORQUE_REF] = ctrl.torqueRef; x[S_SPEED_REF] = ctrl.speedRefOut;
     log.observe(x, ctrl.currentLimited, ctrl.voltageSaturated);
     const why = osc.check(k, x) ?? (swing ? swing.check(x, ctrl.torqueClamped) : null);
@@ -116,7 +125,8 @@ export function runSimulation(setup: AnySetup, opts: RunOptions = {}): Simulatio
     try {
       stepper.period(y, t0, t1);
     } catch (err) {
-      stop = { kind: 'divergence', t: t0, message: integratorFailure(err, t0, y[I_D]!, y[I_Q]!, y[OMEGA]!) };
+      if (yi !== y) plant.currentState(y, yi);
+      stop = { kind: 'divergence', t: t0, message: integratorFailure(err, t0, yi[I_D]!, yi[I_Q]!, yi[OMEGA]!) };
       break;
     }
     const ev = plant.evaluations - e0;
@@ -125,7 +135,8 @@ export function runSimulation(setup: AnySetup, opts: RunOptions = {}): Simulatio
     let th = y[THETA]! % TWO_PI;
     if (th < 0) th += TWO_PI;
     y[THETA] = th;
-    const gone = divergence(bounds, k, y, rec.last);
+    if (yi !== y) plant.currentState(y, yi);
+    const gone = divergence(bounds, k, yi, rec.last);
     if (gone !== null) { stop = { kind: 'divergence', t: t1, message: gone }; break; }
     if ((k & (CHECK_EVERY - 1)) === CHECK_EVERY - 1) {
       const b = budget.check(t1);
@@ -141,8 +152,8 @@ export function runSimulation(setup: AnySetup, opts: RunOptions = {}): Simulatio
   }
   const periods = k;
   // final sample (the state at the end) unless a divergence left it non-finite
-  if (stop === null || Number.isFinite(y[I_D]! + y[I_Q]! + y[OMEGA]! + y[THETA]!)) {
-    if (rec.count < rec.cap) { plant.setAngleOrigin(y[THETA]!); rec.record(rec.count, y); }
+  if (stop === null || Number.isFinite(yi[I_D]! + yi[I_Q]! + yi[OMEGA]! + yi[THETA]!)) {
+    if (rec.count < rec.cap) { plant.setAngleOrigin(yi[THETA]!); rec.record(rec.count, yi); }
   }
   const nRec = rec.count;
   const tLast = nRec > 0 ? rec.last[0]! : 0;
@@ -150,7 +161,7 @@ export function runSimulation(setup: AnySetup, opts: RunOptions = {}): Simulatio
   opts.onProgress?.(1);
 
   // the state the run ended in counts for the peak current (a trip's own current included)
-  const iEnd2 = y[I_D]! * y[I_D]! + y[I_Q]! * y[I_Q]!;
+  const iEnd2 = yi[I_D]! * yi[I_D]! + yi[I_Q]! * yi[I_Q]!;
   if (Number.isFinite(iEnd2)) log.peak(iEnd2, tLast, ctrl.idRef * ctrl.idRef + ctrl.iqRef * ctrl.iqRef);
   const m = rec.speedMetrics(tLast);
   const nI = Math.max(1, Math.min(periods, nRec));

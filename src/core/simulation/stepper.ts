@@ -6,7 +6,7 @@
  *
  * - `CashKarpStepper`: adaptive Cash-Karp Runge-Kutta (ode45-cash-karp), reset in place (t, dt) for
  *   each piece, tLimit = piece end, dtMaxMag = Ts; the error is relative per state with an absolute
- *   floor for near-zero states (`errorFloors`), the energy state excluded from step control.
+ *   floor for near-zero states (`errorFloors`: currents or flux linkages), the energy state excluded from step control.
  *   Cash and Karp (1990), "A variable order Runge-Kutta method for initial value problems with
  *   rapidly varying right-hand sides", ACM TOMS 16(3).
  * - `Rk4Stepper`: classical fixed-step fourth-order Runge-Kutta, `rk4Substeps` steps per period
@@ -16,6 +16,7 @@
  */
 import ode45 from 'ode45-cash-karp';
 import { STATE_SIZE as STATE_SIZE_, I_D, I_Q, OMEGA, THETA, ENERGY, nextLoadBreak } from './plant';
+import type { MachineModel } from '../machine/machine-model';
 import type { Plant } from './plant';
 import type { AnySetup } from './simulation-setup';
 
@@ -27,12 +28,29 @@ export const MAX_STEPS_PER_PIECE = 2000;
 /** Thrown inside a period when the integrator needs more than MAX_STEPS_PER_PIECE steps for a piece. */
 export class StepCollapse extends Error {}
 
-/** Absolute error floors per state (see DEFAULT_SOLVER_OPTIONS); Infinity = excluded from step control. */
-export function errorFloors(setup: AnySetup): Float64Array {
+/**
+ * Absolute error floors per state (see DEFAULT_SOLVER_OPTIONS); Infinity = excluded from step control.
+ * With flux states (see plant.ts; `fluxModel` is then the plant's model) the first two floors are
+ * the current floor as a fraction of each axis's flux scale, the half swing
+ * |psi(+Imax) - psi(-Imax)| / 2 along that axis (Ld·Imax and Lq·Imax for a linear model): the flux
+ * the current floor amounts to through the apparent inductance.
+ */
+export function errorFloors(setup: AnySetup, fluxModel: MachineModel | null = null): Float64Array {
   const f = new Float64Array(STATE_SIZE);
   const s = setup.solver;
-  f[I_D] = s.currentFloor * setup.Imax;
-  f[I_Q] = s.currentFloor * setup.Imax;
+  if (fluxModel !== null) {
+    const m = fluxModel;
+    const a = new Float64Array(2), b = new Float64Array(2), I = setup.Imax;
+    m.flux(I, 0, a);
+    m.flux(-I, 0, b);
+    f[I_D] = s.currentFloor * Math.abs(a[0]! - b[0]!) / 2;
+    m.flux(0, I, a);
+    m.flux(0, -I, b);
+    f[I_Q] = s.currentFloor * Math.abs(a[1]! - b[1]!) / 2;
+  } else {
+    f[I_D] = s.currentFloor * setup.Imax;
+    f[I_Q] = s.currentFloor * setup.Imax;
+  }
   f[OMEGA] = s.speedFloor * (Number.isFinite(setup.divergenceSpeed_rad_s) ? setup.divergenceSpeed_rad_s / 3 : 100);
   f[THETA] = s.angleFloor;
   f[ENERGY] = Infinity;
@@ -169,6 +187,6 @@ export class Rk4Stepper extends Stepper {
 export function makeStepper(setup: AnySetup, plant: Plant, y: Float64Array): Stepper {
   const Ts = setup.controller.Ts;
   return setup.solver.method === 'cash-karp'
-    ? new CashKarpStepper(plant, Ts, y, setup.solver.tol, errorFloors(setup))
+    ? new CashKarpStepper(plant, Ts, y, setup.solver.tol, errorFloors(setup, plant.fluxStates ? plant.model : null))
     : new Rk4Stepper(plant, Ts, Math.max(1, Math.round(setup.solver.rk4Substeps)));
 }
