@@ -20,7 +20,7 @@ import type { SimulationSetup } from '../src/core/simulation/simulation-setup';
 const ipm: DqMachine = { polePairs: 4, Rs: 0.05, Ld: 0.3e-3, Lq: 0.9e-3, psiM: 0.06 };
 
 /** The constant machine tabulated on an n x n grid over |id|, |iq| <= span (A peak): a flux map. */
-export function tabulated(m: DqMachine, span: number, n = 41): FluxMapData {
+function tabulated(m: DqMachine, span: number, n = 41): FluxMapData {
   const g = Array.from({ length: n }, (_, k) => -span + (2 * span * k) / (n - 1));
   return {
     magnetTemp_C: 20, id_A: g, iq_A: g,

@@ -5,6 +5,7 @@
 import { tuneLoops, DEFAULT_CURRENT_BANDWIDTH_FRACTION, DEFAULT_SPEED_BANDWIDTH_FRACTION } from '../control/tuning';
 import type { CurrentTuning, SpeedTuning, TuningInput, TuningReport } from '../control/tuning';
 import type { ResolvedProject } from './project';
+import { gainSchedule, type GainSchedule } from '../control/gain-schedule';
 import { defaultControl, type ControlSection } from './schema';
 
 /** The tuning input of a project for a given (defaulted) control section and load inertia. */
@@ -38,4 +39,9 @@ export function tuningInputFromProject(p: ResolvedProject): TuningInput {
 
 export function tuneFromProject(p: ResolvedProject): TuningReport {
   return tuneLoops(tuningInputFromProject(p));
+}
+
+/** The current-loop gain schedule of a project: its tuning input along MTPA up to the peak current (control/gain-schedule.ts). */
+export function gainScheduleFromProject(p: ResolvedProject, points?: number): GainSchedule {
+  return gainSchedule(tuningInputFromProject(p), p.peak.Imax, points);
 }
