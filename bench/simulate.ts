@@ -19,6 +19,9 @@ import type { SimulationResult, SimulationSetup } from '../src/core/simulation/s
 import type { BenchSection } from './index';
 import { STATE_SIZE } from '../src/core/simulation/plant';
 import { MAX_TRACE_POINTS } from '../src/core/simulation/decimate';
+import { FluxMapModel, type FluxMapData } from '../src/core/machine/flux-map';
+import type { DqMachine } from '../src/core/machine/dq-machine';
+import type { MachineInput, MachineModel } from '../src/core/machine/machine-model';
 
 const REPEATS = 9;
 /** full-rate traces, for the accuracy comparison */
@@ -32,7 +35,7 @@ function median(xs: number[]): number {
 }
 
 /** wall time of a run: the fastest and the median of REPEATS after a warm-up (the fastest is the least disturbed by other load) */
-function timed(setup: SimulationSetup): { wall: number; med: number; r: SimulationResult } {
+function timed(setup: SimulationSetup<MachineInput>): { wall: number; med: number; r: SimulationResult } {
   runSimulation(setup, TIMED); // warm-up
   runSimulation(setup, TIMED);
   const w: number[] = [];
@@ -155,5 +158,43 @@ export const simulateBench: BenchSection = {
     console.log(`  the integrator alone (ode45-cash-karp, ${STATE_SIZE} states, trivial right-hand side, one step per period): ${fl.us.toFixed(2)} µs per period -> ${fl.rtf.toFixed(0)}x real time at most, before any plant, controller or recording work`);
     console.log(`    our run spends ${(((ours.wall / sim_s) * 1e6) / Math.round(1 / base.controller.Ts)).toFixed(2)} µs per period; ${((fl.us / (((ours.wall / sim_s) * 1e6) / Math.round(1 / base.controller.Ts))) * 100).toFixed(0)} % of it is that floor`);
     console.log(`targets: >= 200x real time, <= 10 evaluations per period, no allocation in the inner loop`);
+  },
+};
+
+/** The constant machine tabulated as a flux map, n x n points over |id|, |iq| <= span (A peak). */
+function tabulatedMap(m: DqMachine, span: number, n: number): FluxMapModel {
+  const g = Array.from({ length: n }, (_, k) => -span + (2 * span * k) / (n - 1));
+  const data: FluxMapData = {
+    magnetTemp_C: 20, id_A: g, iq_A: g,
+    psid_Wb: g.map((id) => g.map(() => m.Ld * id + m.psiM)),
+    psiq_Wb: g.map(() => g.map((iq) => m.Lq * iq)),
+  };
+  return new FluxMapModel(data, m.polePairs, m.Rs);
+}
+
+/**
+ * The same traction scenario with its hot machine as a 41 x 41 flux map (tabulated from its
+ * constant Ld, Lq, psiM over ±1.5 Imax; plant with flux states, controller through the map) against
+ * the constant-parameter plant (current states, closed form): cost per control period and its ratio.
+ */
+export const simulateMapBench: BenchSection = {
+  name: 'cascade simulation with a flux map: 1 s at 10 kHz, traction demo, 41 x 41 map vs constant parameters',
+  run() {
+    const path = fileURLToPath(new URL('../resources/demo-ipm-traction.json', import.meta.url));
+    const p = loadProjectText(readFileSync(path, 'utf8'));
+    const base = simulationFromProject(p, { control: { fCtrl_Hz: 10000 }, scenario: { duration_s: 1 } });
+    const m = base.plant.machine;
+    const mapSetup = (): SimulationSetup<MachineModel> => {
+      const map = tabulatedMap(m, 1.5 * base.Imax, 41);
+      return { ...base, plant: { ...base.plant, machine: map }, controller: { ...base.controller, machine: map } };
+    };
+    const periods = Math.round(base.duration_s / base.controller.Ts);
+    const lin = timed(base);
+    const map = timed(mapSetup());
+    const us = (w: number): string => ((w / periods) * 1e6).toFixed(2);
+    console.log(`constant parameters (current states): fastest ${us(lin.wall)} µs per control period (median ${us(lin.med)}), ${lin.r.stats.evaluationsPerPeriod} evaluations per period`);
+    console.log(`41 x 41 flux map (flux states):       fastest ${us(map.wall)} µs per control period (median ${us(map.med)}), ${map.r.stats.evaluationsPerPeriod} evaluations per period`);
+    console.log(`  ratio map / constant: ${(map.wall / lin.wall).toFixed(2)} (fastest), ${(map.med / lin.med).toFixed(2)} (median); target <= 2`);
+    console.log(`  deviation of the map run from the constant run: ${deviation(map.r, lin.r, base.Imax).toExponential(2)} (speed to its peak, currents to Imax)`);
   },
 };
