@@ -52,6 +52,12 @@ export interface ControllerConfig {
   iqRef: StepSchedule;
   /** torque the speed integrator starts at (bumpless start against the initial load), N·m */
   initialTorque: number;
+  /**
+   * schedule the current PIs' proportional gains from the machine model's incremental inductances at
+   * the current reference, Kp(i) = Kp·L_inc(i)/L_inc(0) per axis, Ki kept (see gain-schedule.ts);
+   * only for a model that is not linear (a linear one has the same inductance everywhere). Default off.
+   */
+  gainScheduling?: boolean;
 }
 
 export const DEFAULT_CONTROLLER_OPTIONS = {

@@ -20,6 +20,11 @@
  * is limited and the error pushes further into the limit); 'back-calculation' = the integrator is
  * driven by (limited - unlimited output) with tracking time equal to the integral time Kp/Ki.
  *
+ * Gain scheduling (`gainScheduling`, a model that is not linear): each period the proportional gains
+ * follow the incremental inductances at the current reference, Kp = Kp0·L_inc(i_ref)/L_inc(0) per
+ * axis, the integral gains kept (internal model control: Kp = L omega_c, Ki = Rs omega_c; see
+ * gain-schedule.ts for the table a firmware would hold).
+ *
  * All state is preallocated; `step` allocates nothing.
  */
 import type { MachineModel } from '../machine/machine-model';
@@ -93,12 +98,20 @@ export class CascadeController {
   private readonly Lq: number;
   private readonly psiM: number;
   private readonly Imax: number;
-  private readonly kpD: number;
-  private readonly kpQ: number;
+  // proportional and back-calculation gains: constant, or set each period by `scheduleGains`
+  private kpD: number;
+  private kpQ: number;
   private readonly kiTsD: number;
   private readonly kiTsQ: number;
-  private readonly kbD: number;
-  private readonly kbQ: number;
+  private kbD: number;
+  private kbQ: number;
+  /** gain scheduling on (a model that is not linear): the gains and incremental inductances at zero current */
+  private readonly sched: boolean;
+  private readonly kpD0: number;
+  private readonly kpQ0: number;
+  private readonly Ldd0: number;
+  private readonly Lqq0: number;
+  private readonly Linc = new Float64Array(4);
   private readonly clamping: boolean;
   private readonly decoup: boolean;
   private readonly bemf: boolean;
@@ -132,6 +145,12 @@ export class CascadeController {
     this.kiTsQ = cfg.Ts * cfg.currentQ.Ki;
     this.kbD = cfg.currentD.Kp > 0 ? Math.min(1, (cfg.Ts * cfg.currentD.Ki) / cfg.currentD.Kp) : 0;
     this.kbQ = cfg.currentQ.Kp > 0 ? Math.min(1, (cfg.Ts * cfg.currentQ.Ki) / cfg.currentQ.Kp) : 0;
+    this.sched = cfg.gainScheduling === true && lin === null;
+    this.kpD0 = this.kpD;
+    this.kpQ0 = this.kpQ;
+    model.incrementalInductance(0, 0, this.Linc);
+    this.Ldd0 = this.Linc[0]!;
+    this.Lqq0 = this.Linc[3]!;
     this.clamping = cfg.antiWindup === 'clamping';
     this.decoup = cfg.decoupling;
     this.bemf = cfg.backEmfFeedForward;
@@ -230,6 +249,7 @@ export class CascadeController {
     this.idRef = idr;
     this.iqRef = iqr;
     this.currentLimited = limited;
+    if (this.sched) this.scheduleGains(idr, iqr);
 
     // ---- current PIs
     const ed = idr - id;
@@ -317,6 +337,18 @@ export class CascadeController {
     psi[0] = d;
     psi[1] = q;
     return psi;
+  }
+
+  /** The proportional (and back-calculation) gains at the current reference (idr, iqr): see the header. */
+  private scheduleGains(idr: number, iqr: number): void {
+    const L = this.Linc;
+    this.model.incrementalInductance(idr, iqr, L);
+    const kpD = (this.kpD0 * L[0]!) / this.Ldd0;
+    const kpQ = (this.kpQ0 * L[3]!) / this.Lqq0;
+    this.kpD = kpD;
+    this.kpQ = kpQ;
+    this.kbD = kpD > 0 ? Math.min(1, this.kiTsD / kpD) : 0;
+    this.kbQ = kpQ > 0 ? Math.min(1, this.kiTsQ / kpQ) : 0;
   }
 
   private speedLoop(): void {

@@ -7,8 +7,9 @@
  *   Harnefors and Nee (1998), "Model-based current control of AC machines using the internal model
  *   control method", IEEE Trans. Ind. Appl. 34(1)), with L_inc = d psi_d/d i_d on d and
  *   d psi_q/d i_q on q (the cross terms are left to the decoupling, as in current-loop-plant.ts);
- * - fixed gains Kp, Ki: both scaled by L_inc(I) / L_inc(0) per axis, so that the crossover Kp/L and
- *   the PI zero Ki/Kp of the fixed gains at zero current are kept (common practice, no source).
+ * - fixed gains Kp, Ki: Kp scaled by L_inc(I) / L_inc(0) per axis, Ki kept, as internal model
+ *   control would change them (the crossover Kp/L kept, the PI zero Ki/Kp following the winding pole
+ *   Rs/L); the controller's own scheduling (controller.ts, `gainScheduling`) does the same.
  *
  * At zero current the row equals the gains of `tuneLoops` (tuning.ts) for the same input. For a
  * constant-parameter machine every row has the same gains. Not on any hot path (allocates freely).
@@ -90,8 +91,8 @@ export function gainSchedule(inp: Pick<TuningInput, 'machine' | 'current'>, Imax
       gq = imcCurrentGains(Lqq, Rs, wQ);
     } else {
       // k = 0: exactly the fixed gains (L/L0 = 1 would round to them too; say so plainly)
-      gd = k === 0 ? { Kp: c.Kp, Ki: c.Ki } : { Kp: (c.Kp * Ldd) / Ld0, Ki: (c.Ki * Ldd) / Ld0 };
-      gq = k === 0 ? { Kp: c.Kp, Ki: c.Ki } : { Kp: (c.Kp * Lqq) / Lq0, Ki: (c.Ki * Lqq) / Lq0 };
+      gd = { Kp: k === 0 ? c.Kp : (c.Kp * Ldd) / Ld0, Ki: c.Ki };
+      gq = { Kp: k === 0 ? c.Kp : (c.Kp * Lqq) / Lq0, Ki: c.Ki };
     }
     rows.push({ current_A: I, id_A: id, iq_A: iq, Ldd_H: Ldd, Lqq_H: Lqq, Ldq_H: Ldq, Lqd_H: Lqd, Kp_d: gd.Kp, Ki_d: gd.Ki, Kp_q: gq.Kp, Ki_q: gq.Ki });
   }
