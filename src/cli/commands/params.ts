@@ -19,7 +19,7 @@ export const paramsCommand: Command = {
     const tau = (x: number): number | null => (Number.isFinite(x) ? x : null);
     const jsonCorner = (k: string) => ({ ...derived[k]!, tauD_s: tau(derived[k]!.tauD_s), tauQ_s: tau(derived[k]!.tauQ_s) });
     const { safetySpeed } = projectSpeedRange(p);
-    const safety = safetyReport(p.cold, p.inverter, safetySpeed, p.rated.maxSpeed_rad_s !== undefined);
+    const safety = safetyReport(p.models.cold, p.inverter, safetySpeed, p.rated.maxSpeed_rad_s !== undefined);
     const findings = [...p.findings, ...safety.findings];
     const json = {
       name: p.name,

@@ -45,8 +45,13 @@ export function reciprocityMismatch(m: FluxMapModel): { worst: number; id_A: num
   return { worst, id_A: wid, iq_A: wiq };
 }
 
+/** A map's model with its apparent terms at zero current attached (read for display, never by a solver: the model's `linear` stays null). */
+function withApparentTerms(m: FluxMapModel, a: DqMachine): MachineModel & DqMachine {
+  return Object.assign(m, { Ld: a.Ld, Lq: a.Lq, psiM: a.psiM });
+}
+
 export interface FluxMapResolution {
-  models: { at20: MachineModel; hot: MachineModel; cold: MachineModel };
+  models: { at20: MachineModel & DqMachine; hot: MachineModel & DqMachine; cold: MachineModel & DqMachine };
   machine20: DqMachine;
   hot: DqMachine;
   cold: DqMachine;
@@ -85,5 +90,8 @@ export function resolveFluxMap(map: FluxMapData, polePairs: number, Rs20: number
     code: 'flux-map-apparent-terms', severity: 'info', field: 'motor.fluxMap',
     message: `At zero current the map gives psiM ${mWb(machine20.psiM)} (20 °C), Ld ${mH(machine20.Ld)} and Lq ${mH(machine20.Lq)} (incremental): the constant terms shown for the motor. Every result is computed from the map.`,
   });
-  return { models: { at20, hot, cold }, machine20, hot: hotM, cold: coldM, findings };
+  return {
+    models: { at20: withApparentTerms(at20, machine20), hot: withApparentTerms(hot, hotM), cold: withApparentTerms(cold, coldM) },
+    machine20, hot: hotM, cold: coldM, findings,
+  };
 }

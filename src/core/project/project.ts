@@ -28,6 +28,13 @@ import { LinearDqModel } from '../machine/linear-dq';
 export { parseProjectJson };
 export { DEFAULT_COLD_TEMP_C, DEFAULT_MODULATION, DEFAULT_TEMP_C } from './schema';
 
+/**
+ * A machine model the solvers are given, carrying its apparent constant terms at zero current
+ * (Ld, Lq, psiM: its own for a constant machine, a flux map's incremental inductances and psi_d
+ * there) so that a setup built from it still shows them. Solvers ask the model, never these terms.
+ */
+export type ProjectModel = MachineModel & DqMachine;
+
 export interface ResolvedProject {
   /** the validated file with its defaults filled in */
   file: ProjectFile;
@@ -43,7 +50,7 @@ export interface ResolvedProject {
    * machine's, or a flux map's. `machine20`, `hot` and `cold` above are then the apparent constant
    * terms at zero current, for display.
    */
-  models: { at20: MachineModel; hot: MachineModel; cold: MachineModel };
+  models: { at20: ProjectModel; hot: ProjectModel; cold: ProjectModel };
   mechanics: Mechanics;
   inverter: InverterSpec;
   /** voltage limit and the effective peak current (the weaker of inverter Imax and motor peak current) */
