@@ -6,6 +6,7 @@ import { table, fmt } from '../table';
 import { peakToRms, radSToRpm } from '../../core/base/units';
 import { describeLimit } from '../../core/drive/current-limits';
 import { fieldPhrase, findingLine } from '../../core/reports/phrases';
+import { mapInductances } from '../../core/project/flux-map-resolve';
 
 export const paramsCommand: Command = {
   name: 'params',
@@ -21,6 +22,8 @@ export const paramsCommand: Command = {
     const { safetySpeed } = projectSpeedRange(p);
     const safety = safetyReport(p.models.cold, p.inverter, safetySpeed, p.rated.maxSpeed_rad_s !== undefined);
     const findings = [...p.findings, ...safety.findings];
+    // a flux-map motor: its inductances at zero and at the peak current (20 °C; the magnet's shift leaves them as they are)
+    const map = p.file.motor?.fluxMap !== undefined ? mapInductances(p.models.at20, p.peak.Imax) : null;
     const json = {
       name: p.name,
       model: p.machine20,
@@ -35,6 +38,7 @@ export const paramsCommand: Command = {
       interpretation: p.interpretation,
       safety,
       findings,
+      ...(map ? { fluxMapInductances: map } : {}),
     };
     const rows: Array<[string, string, ...Array<number | string>]> = [];
     const d = derived as Record<string, ReturnType<typeof deriveConstants> & { model: typeof p.hot }>;
@@ -64,6 +68,16 @@ export const paramsCommand: Command = {
       `  (inverter Imax ${fmt(p.inverter.Imax)} A peak, Icont ${fmt(p.inverter.Icont)} A peak` +
         `${p.currentLimits.peak.motor_A !== undefined ? `; motor peak ${fmt(p.currentLimits.peak.motor_A)} A peak` : ''}` +
         `${p.currentLimits.continuous.motor_A !== undefined ? `; motor rated ${fmt(p.currentLimits.continuous.motor_A)} A peak` : ''})`,
+      ...(map
+        ? [
+            '',
+            'flux map inductances (20 °C; apparent = flux / current from the flux at zero current, incremental = d flux / d current):',
+            ...table(['axis', 'current A peak', 'apparent mH', 'incremental mH'], [
+              ...map.d.map((x): [string, number, number, number] => ['d', x.current_A, x.apparent_H * 1e3, x.incremental_H * 1e3]),
+              ...map.q.map((x): [string, number, number, number] => ['q', x.current_A, x.apparent_H * 1e3, x.incremental_H * 1e3]),
+            ]),
+          ]
+        : []),
       '',
       'inputs taken to mean:',
       ...(p.interpretation.length ? p.interpretation.map((i) => `  ${fieldPhrase(i.field)}: ${i.given} -> ${i.takenAs}`) : ['  (model terms given directly)']),

@@ -95,3 +95,30 @@ export function resolveFluxMap(map: FluxMapData, polePairs: number, Rs20: number
     machine20, hot: hotM, cold: coldM, findings,
   };
 }
+
+/** Apparent (psi / i, from the zero-current flux) and incremental (d psi / d i) inductances of one axis at one current, H. */
+export interface AxisInductances {
+  current_A: number;
+  apparent_H: number;
+  incremental_H: number;
+}
+
+/**
+ * The d and q inductances of a model at zero current and at the peak current Ipk (A peak): d at
+ * (-Ipk, 0), the field-weakening side, q at (0, Ipk). Apparent L_d = (psi_d(id, 0) - psi_d(0, 0)) / id,
+ * L_q = psi_q(0, iq) / iq; at zero current the apparent inductance is the incremental one.
+ */
+export function mapInductances(m: MachineModel, Ipk: number): { d: AxisInductances[]; q: AxisInductances[] } {
+  const f0 = new Float64Array(2), f = new Float64Array(2), L = new Float64Array(4);
+  m.flux(0, 0, f0);
+  m.incrementalInductance(0, 0, L);
+  const d: AxisInductances[] = [{ current_A: 0, apparent_H: L[0]!, incremental_H: L[0]! }];
+  const q: AxisInductances[] = [{ current_A: 0, apparent_H: L[3]!, incremental_H: L[3]! }];
+  m.flux(-Ipk, 0, f);
+  m.incrementalInductance(-Ipk, 0, L);
+  d.push({ current_A: -Ipk, apparent_H: (f[0]! - f0[0]!) / -Ipk, incremental_H: L[0]! });
+  m.flux(0, Ipk, f);
+  m.incrementalInductance(0, Ipk, L);
+  q.push({ current_A: Ipk, apparent_H: (f[1]! - f0[1]!) / Ipk, incremental_H: L[3]! });
+  return { d, q };
+}
