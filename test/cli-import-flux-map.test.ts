@@ -28,7 +28,7 @@ const COLS = ['--id', 'id_rms_A', '--iq', 'iq_rms_A', '--psid', 'psid_Wb_peak', 
 
 /** Largest relative difference of two number trees (same shape). */
 function worst(a: unknown, b: unknown): number {
-  if (typeof a === 'number' && typeof b === 'number') return a === b ? 0 : Math.abs(a - b) / Math.max(Math.abs(a), Math.abs(b), 1e-12);
+  if (typeof a === 'number') return typeof b !== 'number' ? Infinity : a === b ? 0 : Math.abs(a - b) / Math.max(Math.abs(a), Math.abs(b), 1e-12);
   if (a && typeof a === 'object' && b && typeof b === 'object') return Math.max(0, ...Object.keys(a).map((k) => worst((a as any)[k], (b as any)[k])));
   return 0;
 }

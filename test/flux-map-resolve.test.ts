@@ -14,7 +14,7 @@ const rel = (a: number, b: number): number => Math.abs(a - b) / Math.max(Math.ab
 
 /** Largest relative difference of two numbers trees (same shape). */
 function worst(a: unknown, b: unknown): number {
-  if (typeof a === 'number' && typeof b === 'number') return Number.isFinite(a) || Number.isFinite(b) ? (a === b ? 0 : rel(a, b)) : 0;
+  if (typeof a === 'number') return typeof b !== 'number' ? Infinity : a === b ? 0 : rel(a, b);
   if (a && typeof a === 'object' && b && typeof b === 'object') {
     let w = 0;
     for (const k of Object.keys(a)) w = Math.max(w, worst((a as any)[k], (b as any)[k]));
@@ -40,7 +40,9 @@ describe('a map tabulated from constant Ld, Lq, psiM gives the constant project\
       for (const direction of ['motoring', 'generating'] as const) {
         const a = computeEnvelope(c.models.hot, c.peak, { points: 60, direction });
         const b = computeEnvelope(m.models.hot, m.peak, { points: 60, direction });
-        expect(worst(a.points, b.points)).toBeLessThan(1e-6);
+        expect(a.torque.length).toBe(60);
+        expect(Math.max(...a.torque.map(Math.abs))).toBeGreaterThan(100);
+        expect(worst(a, b)).toBeLessThan(1e-6);
       }
       for (const [rpm, T] of [[1000, 150], [6000, 60], [11000, 15], [9000, -40]]) {
         const a = solveOperatingPoint(c.models.hot, c.peak, (rpm! * Math.PI) / 30, T!);
