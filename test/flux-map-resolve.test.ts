@@ -91,6 +91,15 @@ describe('findings of a flux map', () => {
   });
 });
 
+describe('a map the engine cannot take', () => {
+  it('psi_d below zero at zero current (the d axis reversed) is refused naming the table', () => {
+    // common practice (no source): the d axis is laid along the magnet's flux, so psi_d(0, 0) = psiM >= 0
+    const p = mapProject();
+    p.motor.fluxMap.psid_Wb = p.motor.fluxMap.psid_Wb.map((r: number[]) => r.map((x) => x - 0.2));
+    expect(() => load(p)).toThrow(/^motor\.fluxMap\.psid_Wb gives psi_d = -120 mWb at zero current \(20 °C\): the magnet's flux must point along \+d/);
+  });
+});
+
 describe('inductances at zero and at the peak current', () => {
   it('a map saturating in q: the apparent Lq at the peak current is psi_q / iq there, the incremental one the slope', () => {
     // invented saturation psi_q = Lq iq / (1 + |iq| / I0); common practice (no source) for the definitions

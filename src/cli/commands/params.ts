@@ -80,7 +80,7 @@ export const paramsCommand: Command = {
         : []),
       '',
       'inputs taken to mean:',
-      ...(p.interpretation.length ? p.interpretation.map((i) => `  ${fieldPhrase(i.field)}: ${i.given} -> ${i.takenAs}`) : ['  (model terms given directly)']),
+      ...(p.interpretation.length ? p.interpretation.map((i) => `  ${fieldPhrase(i.field)}: ${i.given} -> ${i.takenAs}`) : [p.file.motor?.fluxMap !== undefined ? '  (flux map given directly)' : '  (model terms given directly)']),
       '',
       `safety: open-circuit back-EMF ${fmt(safety.backEmfLineLinePeak_V)} V LL peak at ${fmt(radSToRpm(safetySpeed))} rpm (cold magnet) vs Vdc ${fmt(p.inverter.Vdc)} V; ` +
         `uncontrolled-generator speed ${safety.uncontrolledGeneratorSpeed_rad_s === null ? 'none (no magnet flux)' : fmt(radSToRpm(safety.uncontrolledGeneratorSpeed_rad_s)) + ' rpm'}`,

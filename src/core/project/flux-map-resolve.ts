@@ -11,6 +11,7 @@ import type { MachineModel } from '../machine/machine-model';
 import { fluxMapAt, type FluxMapData, type FluxMapModel } from '../machine/flux-map';
 import { machineAt } from '../machine/thermal';
 import { DEFAULT_TEMP_C } from './schema';
+import { InputError } from '../base/errors';
 
 /**
  * Largest |dpsid/diq - dpsiq/did| over the map, relative to the geometric mean of the incremental
@@ -69,6 +70,9 @@ export function resolveFluxMap(map: FluxMapData, polePairs: number, Rs20: number
   const hot = fluxMapAt(map, polePairs, rsOf(c.windingTemp_C, c.magnetTemp_C), c.magnetTemp_C, c.magnetTempCoeff);
   const cold = fluxMapAt(map, polePairs, rsOf(c.coldTemp_C, c.coldTemp_C), c.coldTemp_C, c.magnetTempCoeff);
   const machine20 = apparentMachine(at20), hotM = apparentMachine(hot), coldM = apparentMachine(cold);
+  if (!(machine20.psiM >= 0)) {
+    throw new InputError('motor.fluxMap.psid_Wb', `gives psi_d = ${mWb(machine20.psiM)} at zero current (20 °C): the magnet's flux must point along +d (psi_d(0, 0) >= 0); check the sign of the d axis`);
+  }
   const findings: Finding[] = [];
   const base = fluxMapAt(map, polePairs, Rs20, map.magnetTemp_C, c.magnetTempCoeff);
   const psi0 = apparentMachine(base).psiM;
