@@ -77,5 +77,15 @@ describe('import-flux-map', () => {
     expect(short.code).toBe(2);
     expect(short.err).toMatch(/^torquewise: motor\.fluxMap\.id_A covers -400 to 400 A; .*450 A \(inverter\.Imax\).*: 50 A short at the top, 50 A short at the bottom\n/);
     expect(existsSync(shortOut)).toBe(false);
+    const missing = await runCli('import-flux-map', project, '--from', join(dir, 'none.csv'), ...COLS, '--current', 'peak', '--out', join(dir, 'y.json'));
+    expect(missing.err).toMatch(/^torquewise: --from '.*none\.csv' does not exist\n$/);
+    const np = join(dir, 'np.json');
+    const withNameplate = constProject();
+    delete withNameplate.motor;
+    withNameplate.nameplate = { poles: 8, R: { value: 0.03, basis: 'phase' }, Ld: { value: 3e-4, basis: 'phase' }, Lq: { value: 7.5e-4, basis: 'phase' }, Ke: { value: 0.08, unit: 'V_ph_peak*s/rad' }, inertia: 0.045 };
+    writeFileSync(np, JSON.stringify(withNameplate));
+    const n = await runCli('import-flux-map', np, '--from', writeCsv('d.csv'), ...COLS, '--current', 'rms', '--out', join(dir, 'z.json'));
+    expect(n.code).toBe(2);
+    expect(n.err).toMatch(/^torquewise: motor is required: a flux map goes into a motor section/);
   });
 });
