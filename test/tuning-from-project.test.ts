@@ -21,7 +21,7 @@ describe('tuning input of a project', () => {
     expect(inp.current).toEqual({ bandwidth_Hz: 500 });
     expect(inp.speed).toEqual({ method: 'bandwidth', bandwidth_Hz: 50 });
     expect(inp).toEqual(tuningInputFor(p, defaultControl(), p.file.scenario?.loadInertia ?? 0));
-    expect(inp.machine).toBe(p.hot);
+    expect(inp.machine).toBe(p.models.hot); // the hot machine, as the model the solvers are given
   });
   it('the file\'s gains and load inertia are taken as given', () => {
     const o = demo('demo-servo-axis');

@@ -17,10 +17,18 @@ export interface CommandResult {
   files?: Array<{ flag: string; contents: string }>;
 }
 
+/** What a command may read besides the resolved project: the project file's text, and an input file named by an option. */
+export interface CommandInput {
+  /** the project file's text as read */
+  projectText: string;
+  /** the text of the file named by option `flag` (a regular file, at most the project size limit, UTF-8); an InputError naming the option otherwise */
+  readFile(flag: string): Promise<string>;
+}
+
 export interface Command {
   name: string;
   summary: string;
   usage: string;
   flags: FlagSpec;
-  run(project: ResolvedProject, args: ParsedArgs): CommandResult | Promise<CommandResult>;
+  run(project: ResolvedProject, args: ParsedArgs, input?: CommandInput): CommandResult | Promise<CommandResult>;
 }

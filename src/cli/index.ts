@@ -1,7 +1,7 @@
 #!/usr/bin/env node
 // Torquewise command line: `npm run -s cli -- <command> <project.json> [options]`.
 // Exit codes: 0 ok, 2 bad input (one line per problem, each naming its field), 1 internal error.
-import { parseArgs, checkFlags, type FlagSpec } from './args';
+import { parseArgs, checkFlags, type FlagSpec, type ParsedArgs } from './args';
 import type { Command } from './command';
 import { isInputError, InputError, problemLines } from '../core/base/errors';
 import { loadProjectText } from '../core/project/project';
@@ -21,13 +21,20 @@ function usage(): string {
  * The project file's text, read as the app reads it (src/node/project-file.ts: a regular file, at
  * most the schema's MAX_PROJECT_BYTES, strict UTF-8), its reason for a refusal after the file's name.
  */
-async function readProjectFile(path: string, fs: FsLayer): Promise<string> {
+async function readProjectFile(path: string, fs: FsLayer, field = 'project file'): Promise<string> {
   try {
     return await readProjectText(path, { fs });
   } catch (e) {
-    if (e instanceof ProjectReadError) throw new InputError('project file', `'${visible(path)}' ${e.why}`);
+    if (e instanceof ProjectReadError) throw new InputError(field, `'${visible(path)}' ${e.why}`);
     throw e;
   }
+}
+
+/** The text of the input file named by option `flag` (read as a project file is: a regular file, bounded, UTF-8). */
+async function readInputFile(args: ParsedArgs, flag: string, fs: FsLayer): Promise<string> {
+  const path = args.flags.get(flag);
+  if (typeof path !== 'string' || path === '') throw new InputError(`--${flag}`, 'needs a file name');
+  return readProjectFile(path, fs, `--${flag}`);
 }
 
 /** The sinks main writes to (process.stdout and process.stderr, or a test's collector). */
@@ -60,7 +67,7 @@ export async function main(argv: readonly string[], out: TextSink = process.stdo
     await checkOutputPaths(args, spec, args.file, fs);
     const project = loadProjectText(text);
     if (project.readOnly) err.write(`torquewise: note: ${visible(project.findings.find((f) => f.code === 'newer-format')?.message ?? 'the file is of a newer format version and is read here read-only')}\n`);
-    const result = await cmd.run(project, args);
+    const result = await cmd.run(project, args, { projectText: text, readFile: (flag) => readInputFile(args, flag, fs) });
     for (const w of await writeOutputs(result.files, args, fs, options.platform)) err.write(`torquewise: note: ${visible(w)}\n`);
     out.write(args.flags.has('json') ? terminalJson(result.json) : terminalText(result.lines));
     return 0;

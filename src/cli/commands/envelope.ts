@@ -58,7 +58,7 @@ export const envelopeCommand: Command = {
     const speedMax = numberFlag(args, 'speed-max', { min: 1, max: PLOT_SPEED_MAX_RPM, unit: 'rpm' });
     const points = numberFlag(args, 'points', { min: 2, max: 100000, integer: true });
     // Without --speed-max: the project's range (requirements, the motor's maximum speed).
-    const env = computeEnvelope(p.hot, p.peak, {
+    const env = computeEnvelope(p.models.hot, p.peak, {
       ...(points !== undefined ? { points } : {}),
       speedMax: speedMax !== undefined ? rpmToRadS(speedMax) : projectSpeedRange(p).speedMax,
     });

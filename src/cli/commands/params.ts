@@ -6,6 +6,7 @@ import { table, fmt } from '../table';
 import { peakToRms, radSToRpm } from '../../core/base/units';
 import { describeLimit } from '../../core/drive/current-limits';
 import { fieldPhrase, findingLine } from '../../core/reports/phrases';
+import { mapInductances } from '../../core/project/flux-map-resolve';
 
 export const paramsCommand: Command = {
   name: 'params',
@@ -19,8 +20,10 @@ export const paramsCommand: Command = {
     const tau = (x: number): number | null => (Number.isFinite(x) ? x : null);
     const jsonCorner = (k: string) => ({ ...derived[k]!, tauD_s: tau(derived[k]!.tauD_s), tauQ_s: tau(derived[k]!.tauQ_s) });
     const { safetySpeed } = projectSpeedRange(p);
-    const safety = safetyReport(p.cold, p.inverter, safetySpeed, p.rated.maxSpeed_rad_s !== undefined);
+    const safety = safetyReport(p.models.cold, p.inverter, safetySpeed, p.rated.maxSpeed_rad_s !== undefined);
     const findings = [...p.findings, ...safety.findings];
+    // a flux-map motor: its inductances at zero and at the peak current (20 °C; the magnet's shift leaves them as they are)
+    const map = p.file.motor?.fluxMap !== undefined ? mapInductances(p.models.at20, p.peak.Imax) : null;
     const json = {
       name: p.name,
       model: p.machine20,
@@ -35,6 +38,7 @@ export const paramsCommand: Command = {
       interpretation: p.interpretation,
       safety,
       findings,
+      ...(map ? { fluxMapInductances: map } : {}),
     };
     const rows: Array<[string, string, ...Array<number | string>]> = [];
     const d = derived as Record<string, ReturnType<typeof deriveConstants> & { model: typeof p.hot }>;
@@ -64,9 +68,19 @@ export const paramsCommand: Command = {
       `  (inverter Imax ${fmt(p.inverter.Imax)} A peak, Icont ${fmt(p.inverter.Icont)} A peak` +
         `${p.currentLimits.peak.motor_A !== undefined ? `; motor peak ${fmt(p.currentLimits.peak.motor_A)} A peak` : ''}` +
         `${p.currentLimits.continuous.motor_A !== undefined ? `; motor rated ${fmt(p.currentLimits.continuous.motor_A)} A peak` : ''})`,
+      ...(map
+        ? [
+            '',
+            'flux map inductances (20 °C; apparent = flux / current from the flux at zero current, incremental = d flux / d current):',
+            ...table(['axis', 'current A peak', 'apparent mH', 'incremental mH'], [
+              ...map.d.map((x): [string, number, number, number] => ['d', x.current_A, x.apparent_H * 1e3, x.incremental_H * 1e3]),
+              ...map.q.map((x): [string, number, number, number] => ['q', x.current_A, x.apparent_H * 1e3, x.incremental_H * 1e3]),
+            ]),
+          ]
+        : []),
       '',
       'inputs taken to mean:',
-      ...(p.interpretation.length ? p.interpretation.map((i) => `  ${fieldPhrase(i.field)}: ${i.given} -> ${i.takenAs}`) : ['  (model terms given directly)']),
+      ...(p.interpretation.length ? p.interpretation.map((i) => `  ${fieldPhrase(i.field)}: ${i.given} -> ${i.takenAs}`) : [p.file.motor?.fluxMap !== undefined ? '  (flux map given directly)' : '  (model terms given directly)']),
       '',
       `safety: open-circuit back-EMF ${fmt(safety.backEmfLineLinePeak_V)} V LL peak at ${fmt(radSToRpm(safetySpeed))} rpm (cold magnet) vs Vdc ${fmt(p.inverter.Vdc)} V; ` +
         `uncontrolled-generator speed ${safety.uncontrolledGeneratorSpeed_rad_s === null ? 'none (no magnet flux)' : fmt(radSToRpm(safety.uncontrolledGeneratorSpeed_rad_s)) + ' rpm'}`,

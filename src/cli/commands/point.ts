@@ -17,7 +17,7 @@ export const pointCommand: Command = {
     const torque = numberFlag(args, 'torque', { min: -1e7, max: 1e7, unit: 'N·m' });
     if (speed === undefined) throw new InputError('--speed', 'is required (rpm)');
     if (torque === undefined) throw new InputError('--torque', 'is required (N·m)');
-    const op = solveOperatingPoint(p.hot, p.peak, rpmToRadS(speed), torque);
+    const op = solveOperatingPoint(p.models.hot, p.peak, rpmToRadS(speed), torque);
     const json = { feasible: op.feasible, id_A: op.id, iq_A: op.iq, current_A: op.current, voltage_V: op.voltage, limitedBy: op.limitedBy, region: op.region, currentLimits: p.currentLimits };
     const verdict = op.feasible ? 'feasible' : `NOT feasible: ${notReachablePhrase(op.limitedBy)}`;
     const lines = [

@@ -6,6 +6,7 @@ import { sizeCommand } from './size';
 import { simulateCommand } from './simulate';
 import { tuneCommand } from './tune';
 import { datasheetCommand } from './datasheet';
+import { importFluxMapCommand } from './import-flux-map';
 
 /** Every command of the CLI, in the order `help` lists them. Add a command by importing it here. */
 export const COMMANDS: Command[] = [
@@ -16,4 +17,5 @@ export const COMMANDS: Command[] = [
   simulateCommand,
   tuneCommand,
   datasheetCommand,
+  importFluxMapCommand,
 ];

@@ -20,8 +20,8 @@ export const sizeCommand: Command = {
   usage: 'size <project.json> [--json]',
   flags: {},
   run(p) {
-    const hot = sizeDrive(p.hot, p.inverter, p.requirements, p.currentLimits);
-    const cold = sizeDrive(p.cold, p.inverter, p.requirements, p.currentLimits);
+    const hot = sizeDrive(p.models.hot, p.inverter, p.requirements, p.currentLimits);
+    const cold = sizeDrive(p.models.cold, p.inverter, p.requirements, p.currentLimits);
     const worst = (a: number | null, b: number | null) => (a === null || b === null ? null : Math.max(a, b));
     // The file's temperatures (hot corner) give the headline figures; the cold corner is reported beside.
     const json = {

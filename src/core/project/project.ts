@@ -16,7 +16,8 @@ import { InputError } from '../base/errors';
 import { machineAt } from '../machine/thermal';
 import { driveLimits } from '../drive/inverter';
 import { nameplateToModel, type Interpretation, type RatedData } from '../machine/nameplate';
-import { DEFAULT_COLD_TEMP_C, DEFAULT_DUTY, DEFAULT_MODULATION, DEFAULT_TEMP_C, defaultConditions, parseProject, type ProjectFile } from './schema';
+import { DEFAULT_COLD_TEMP_C, DEFAULT_DUTY, DEFAULT_MODULATION, DEFAULT_TEMP_C, defaultConditions, parseProject, type FluxMapSection, type ProjectFile } from './schema';
+import { resolveFluxMap } from './flux-map-resolve';
 import { migrateProject } from './migrate';
 import { oddMachineFindings, ratedFindings } from './resolve-findings';
 import { parseProjectJson } from './project-json';
@@ -26,6 +27,13 @@ import { LinearDqModel } from '../machine/linear-dq';
 
 export { parseProjectJson };
 export { DEFAULT_COLD_TEMP_C, DEFAULT_MODULATION, DEFAULT_TEMP_C } from './schema';
+
+/**
+ * A machine model the solvers are given, carrying its apparent constant terms at zero current
+ * (Ld, Lq, psiM: its own for a constant machine, a flux map's incremental inductances and psi_d
+ * there) so that a setup built from it still shows them. Solvers ask the model, never these terms.
+ */
+export type ProjectModel = MachineModel & DqMachine;
 
 export interface ResolvedProject {
   /** the validated file with its defaults filled in */
@@ -42,7 +50,7 @@ export interface ResolvedProject {
    * machine's, or a flux map's. `machine20`, `hot` and `cold` above are then the apparent constant
    * terms at zero current, for display.
    */
-  models: { at20: MachineModel; hot: MachineModel; cold: MachineModel };
+  models: { at20: ProjectModel; hot: ProjectModel; cold: ProjectModel };
   mechanics: Mechanics;
   inverter: InverterSpec;
   /** voltage limit and the effective peak current (the weaker of inverter Imax and motor peak current) */
@@ -119,14 +127,23 @@ export function resolveProject(file: ProjectFile): ResolvedProject {
   let interpretation: Interpretation[] = [];
   const findings: Finding[] = [];
   let rated: RatedData = {};
+  let fluxMap: FluxMapSection | undefined;
   if (file.motor) {
     const m = file.motor;
-    machine20 = { polePairs: m.polePairs, Rs: m.Rs, Ld: m.Ld, Lq: m.Lq, psiM: m.psiM };
+    if (m.fluxMap !== undefined) {
+      // the map's apparent terms at zero current for now; the models and findings follow the conditions below
+      fluxMap = m.fluxMap;
+      machine20 = { polePairs: m.polePairs, Rs: m.Rs, Ld: 1, Lq: 1, psiM: 0 };
+    } else {
+      // the schema has refused a motor section with neither the constant terms nor a flux map
+      if (m.Ld === undefined || m.Lq === undefined || m.psiM === undefined) throw new InputError('motor.Ld', 'is required (or motor.fluxMap)');
+      machine20 = { polePairs: m.polePairs, Rs: m.Rs, Ld: m.Ld, Lq: m.Lq, psiM: m.psiM };
+      if (m.psiM === 0 && m.Ld === m.Lq) throw new InputError('motor.psiM', 'must be > 0 Wb when Ld = Lq (with neither magnet nor saliency the machine makes no torque)');
+    }
     mechanics = { inertia: m.inertia, viscousFriction: m.viscousFriction, coulombFriction: m.coulombFriction };
     if (m.maxSpeed_rpm !== undefined) rated.maxSpeed_rad_s = m.maxSpeed_rpm * RPM_TO_RAD_S;
     if (m.ratedCurrent !== undefined) rated.current_A = m.ratedCurrent;
     if (m.peakCurrent !== undefined) rated.peakCurrent_A = m.peakCurrent;
-    if (m.psiM === 0 && m.Ld === m.Lq) throw new InputError('motor.psiM', 'must be > 0 Wb when Ld = Lq (with neither magnet nor saliency the machine makes no torque)');
   } else if (file.nameplate) {
     const r = nameplateToModel(file.nameplate, { magnetTempCoeff: c.magnetTempCoeff, path: 'nameplate' });
     machine20 = r.model;
@@ -148,8 +165,14 @@ export function resolveProject(file: ProjectFile): ResolvedProject {
   const currentLimits = effectiveCurrentLimits(inverter, rated.current_A, rated.peakCurrent_A);
   const peak: DriveLimits = { ...driveLimits(inverter, 'peak'), Imax: currentLimits.peak.A };
   const continuous: DriveLimits = { ...driveLimits(inverter, 'continuous'), Imax: currentLimits.continuous.A };
-  const hot = machineAt(machine20, conditions.windingTemp_C, conditions.magnetTemp_C, conditions.magnetTempCoeff);
-  const cold = machineAt(machine20, conditions.coldTemp_C, conditions.coldTemp_C, conditions.magnetTempCoeff);
+  let hot = machineAt(machine20, conditions.windingTemp_C, conditions.magnetTemp_C, conditions.magnetTempCoeff);
+  let cold = machineAt(machine20, conditions.coldTemp_C, conditions.coldTemp_C, conditions.magnetTempCoeff);
+  let models: ResolvedProject['models'] = { at20: new LinearDqModel(machine20), hot: new LinearDqModel(hot), cold: new LinearDqModel(cold) };
+  if (fluxMap !== undefined) {
+    const r = resolveFluxMap(fluxMap, machine20.polePairs, machine20.Rs, conditions);
+    ({ machine20, hot, cold, models } = r);
+    findings.push(...r.findings);
+  }
   if (file.conditions === undefined) {
     findings.push({
       code: 'conditions-assumed', severity: 'info', field: 'conditions',
@@ -178,7 +201,7 @@ export function resolveProject(file: ProjectFile): ResolvedProject {
     machine20,
     hot,
     cold,
-    models: { at20: new LinearDqModel(machine20), hot: new LinearDqModel(hot), cold: new LinearDqModel(cold) },
+    models,
     mechanics,
     inverter,
     peak,

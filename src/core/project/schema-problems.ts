@@ -148,11 +148,29 @@ export function listCapProblem(json: unknown): ProjectProblem | null {
 }
 
 /**
+ * The problems of one section in the order of its keys (stable; other sections' problems keep their
+ * places): a section check that runs alongside the keys' own (motor: the constant terms or the flux
+ * map) adds its problems last, and a missing motor.Ld is listed where the key stands.
+ */
+function inKeyOrder(problems: ProjectProblem[], section: string): ProjectProblem[] {
+  const order = Object.keys(KEYS).filter((k) => k.startsWith(`${section}.`)).map((k) => k.slice(section.length + 1)).filter((k) => !/[.[]/.test(k));
+  const rank = (path: string): number => {
+    const i = order.indexOf(path.slice(section.length + 1).split(/[.[]/)[0]!);
+    return i < 0 ? order.length : i;
+  };
+  const slots = problems.map((p, i) => (p.path.startsWith(`${section}.`) ? i : -1)).filter((i) => i >= 0);
+  const sorted = slots.map((i) => problems[i]!).map((p, k) => ({ p, k })).sort((a, b) => rank(a.p.path) - rank(b.p.path) || a.k - b.k).map((x) => x.p);
+  const out = [...problems];
+  slots.forEach((slot, k) => (out[slot] = sorted[k]!));
+  return out;
+}
+
+/**
  * The problems of zod's issues in our words; giving both motor and nameplate leads (zod runs the
  * file-level check only when the sections themselves are valid, and the rest follows from it).
  */
 export function problemsOf(issues: readonly z.core.$ZodIssue[], json: unknown): ProjectProblem[] {
-  const out = issues.flatMap((iss) => phrase(iss, json));
+  const out = inKeyOrder(issues.flatMap((iss) => phrase(iss, json)), 'motor');
   const o = json as Record<string, unknown>;
   if (o['motor'] !== undefined && o['nameplate'] !== undefined && !out.some((p) => p.path === 'nameplate' && p.message === CHOOSE_ONE)) {
     out.unshift({ path: 'nameplate', message: CHOOSE_ONE });

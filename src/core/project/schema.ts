@@ -7,7 +7,8 @@
 import { z } from 'zod';
 import { InputError } from '../base/errors';
 import type { Nameplate } from '../machine/nameplate';
-import { keyDoc as doc, MAX_LIST_ENTRIES, PROJECT_FORMAT, PROJECT_VERSION } from './schema-keys';
+import { KEYS, keyDoc as doc, MAX_LIST_ENTRIES, PROJECT_FORMAT, PROJECT_VERSION } from './schema-keys';
+import { fluxMapCapProblem, fluxMapCoverageProblems, fluxMapSchema } from './flux-map-schema';
 import { CHOOSE_ONE, headerProblem, listCapProblem, problemsOf, type ProjectProblem } from './schema-problems';
 
 export { CAPPED_LISTS, KEYS, MAX_LIST_ENTRIES, MAX_PROJECT_BYTES, PROJECT_FORMAT, PROJECT_VERSION } from './schema-keys';
@@ -47,9 +48,11 @@ const motorSchema = z
   .strictObject({
     polePairs: num('motor.polePairs', 1, 200, { int: true }),
     Rs: num('motor.Rs', 0, 1000),
-    Ld: num('motor.Ld', L_MIN, 10),
-    Lq: num('motor.Lq', L_MIN, 10),
-    psiM: num('motor.psiM', 0, 100).refine((v) => v === 0 || v >= PSI_MIN, { message: `must be 0 (no magnet) or >= ${PSI_MIN} Wb` }),
+    // the constant dq terms, or a flux map instead (fluxMapChoice says which is missing or doubled)
+    Ld: num('motor.Ld', L_MIN, 10).optional(),
+    Lq: num('motor.Lq', L_MIN, 10).optional(),
+    psiM: num('motor.psiM', 0, 100).refine((v) => v === 0 || v >= PSI_MIN, { message: `must be 0 (no magnet) or >= ${PSI_MIN} Wb` }).optional(),
+    fluxMap: fluxMapSchema.optional(),
     inertia: num('motor.inertia', J_MIN, 1e5),
     viscousFriction: num('motor.viscousFriction', 0, 1e4).default(0),
     coulombFriction: num('motor.coulombFriction', 0, 1e5).default(0),
@@ -62,7 +65,25 @@ const motorSchema = z
       ctx.addIssue({ code: 'custom', path: ['ratedCurrent'], message: `must be <= motor.peakCurrent (${m.peakCurrent} A)` });
     }
   })
+  // run whatever else is wrong with the section, so a missing Ld is listed with the other problems
+  .superRefine(fluxMapChoice, { when: (payload) => payload.value !== null && typeof payload.value === 'object' && !Array.isArray(payload.value) })
   .describe(doc('motor'));
+
+/** Either the constant Ld, Lq, psiM or motor.fluxMap: neither, both, or a part of the constant terms is refused, naming the field. */
+function fluxMapChoice(m: { Ld?: unknown; Lq?: unknown; psiM?: unknown; fluxMap?: unknown }, ctx: z.RefinementCtx): void {
+  const constant = (['Ld', 'Lq', 'psiM'] as const).filter((k) => m[k] !== undefined);
+  if (m.fluxMap !== undefined) {
+    if (constant.length > 0) {
+      ctx.addIssue({ code: 'custom', path: ['fluxMap'], message: `and ${constant.map((k) => `motor.${k}`).join(', ')} are both given: give either the flux map or the constant Ld, Lq and psiM, and remove the other` });
+    }
+    return;
+  }
+  for (const k of ['Ld', 'Lq', 'psiM'] as const) {
+    if (m[k] !== undefined) continue;
+    const d = KEYS[`motor.${k}`]!;
+    ctx.addIssue({ code: 'custom', path: [k], message: `is required (${d.doc} in ${d.unit}${constant.length === 0 ? '), or give motor.fluxMap instead of Ld, Lq and psiM' : ')'}` });
+  }
+}
 
 const lValue = (path: string) => z.strictObject({ value: num(`${path}.value`, L_MIN, 10), basis });
 const currentValue = (path: string) => z.strictObject({ value: num(`${path}.value`, 0, 1e5, { gtMin: true }), basis: currentBasis });
@@ -251,6 +272,13 @@ const projectObject = z.strictObject({
 export const projectSchema = projectObject.superRefine((p, ctx) => {
   if (p.motor === undefined && p.nameplate === undefined) ctx.addIssue({ code: 'custom', path: ['motor'], message: 'is required (or a nameplate section)' });
   if (p.motor !== undefined && p.nameplate !== undefined) ctx.addIssue({ code: 'custom', path: ['nameplate'], message: CHOOSE_ONE });
+  const map = p.motor?.fluxMap;
+  if (map !== undefined && p.inverter.Imax > 0) {
+    const motorPeak = p.motor?.peakCurrent;
+    const Ipk = motorPeak !== undefined && motorPeak < p.inverter.Imax ? motorPeak : p.inverter.Imax;
+    const words = motorPeak !== undefined && motorPeak < p.inverter.Imax ? 'motor.peakCurrent, below inverter.Imax' : 'inverter.Imax';
+    for (const c of fluxMapCoverageProblems(map, Ipk, words)) ctx.addIssue({ code: 'custom', path: ['motor', 'fluxMap', c.key], message: c.message });
+  }
   if (p.control?.mode === 'current-step' && p.scenario !== undefined && p.scenario.currentStep === undefined) {
     ctx.addIssue({ code: 'custom', path: ['scenario', 'currentStep'], message: 'is required by control.mode "current-step"' });
   }
@@ -264,6 +292,8 @@ export const projectSchema = projectObject.superRefine((p, ctx) => {
 
 export type ProjectFile = z.output<typeof projectSchema>;
 export type MotorSection = z.output<typeof motorSchema>;
+export type { FluxMapSection } from './flux-map-schema';
+export { MAX_FLUX_MAP_POINTS, fluxMapCapProblem } from './flux-map-schema';
 export type NameplateSection = z.output<typeof nameplateSchema>;
 export type ControlSection = z.output<typeof controlSchema>;
 export type ScenarioSection = z.output<typeof scenarioSchema>;
@@ -274,7 +304,7 @@ void _nameplateFits;
 
 /** Every problem of a project file, in file order (empty = valid). */
 export function checkProject(json: unknown): ProjectProblem[] {
-  const h = headerProblem(json) ?? listCapProblem(json);
+  const h = headerProblem(json) ?? listCapProblem(json) ?? fluxMapCapProblem(json);
   if (h) return [h];
   const r = projectSchema.safeParse(json);
   if (r.success) return [];
@@ -289,7 +319,7 @@ export const MAX_PROBLEMS = 20;
  * each naming its field: `field`/`message` are the first, `problems` all of them.
  */
 export function parseProject(json: unknown): ProjectFile {
-  const h = headerProblem(json) ?? listCapProblem(json);
+  const h = headerProblem(json) ?? listCapProblem(json) ?? fluxMapCapProblem(json);
   if (h) throw new InputError(h.path, h.message);
   const r = projectSchema.safeParse(json);
   if (r.success) return r.data;

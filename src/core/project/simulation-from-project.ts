@@ -3,7 +3,6 @@
  * file's control section (schema defaults; `defaultControl()` when absent) and scenario, tuned by
  * the tuning rules, with the findings of what the scenario asks that the motor or drive cannot give.
  */
-import type { DqMachine } from '../machine/dq-machine';
 import type { DriveLimits } from '../drive/inverter-spec';
 import type { Finding } from '../base/finding';
 import { limitField } from '../drive/current-limits';
@@ -21,7 +20,7 @@ import { DEFAULT_SOLVER_OPTIONS, DEFAULT_TRIP_FACTOR, MAX_CONTROL_PERIODS } from
 import type { SimulationSetup, SolverOptions } from '../simulation/simulation-setup';
 import { rampedReference } from '../simulation/ramped-reference';
 import { RAD_S_TO_RPM, RPM_TO_RAD_S } from '../base/units';
-import type { ResolvedProject } from './project';
+import type { ProjectModel, ResolvedProject } from './project';
 import { defaultControl, type ControlSection, type ScenarioSection } from './schema';
 import { tuningInputFor } from './tuning-from-project';
 import type { MachineInput } from '../machine/machine-model';
@@ -49,7 +48,7 @@ function noLoadSpeed(m: MachineInput, lim: DriveLimits): number {
   return psi0 > 0 ? lim.Vmax / (m.polePairs * psi0) : lim.Vmax / (m.polePairs * Ld0 * lim.Imax);
 }
 
-export function simulationFromProject(p: ResolvedProject, overrides: SimulationOverrides = {}): SimulationSetup {
+export function simulationFromProject(p: ResolvedProject, overrides: SimulationOverrides = {}): SimulationSetup<ProjectModel> {
   const baseScenario = p.file.scenario;
   if (!baseScenario && !overrides.scenario) throw new InputError('scenario', 'is required to simulate (duration_s, speedSteps, loadSteps, ...)');
   const control: ControlSection = { ...(p.file.control ?? defaultControl()), ...(overrides.control ?? {}) };
@@ -64,7 +63,7 @@ export function simulationFromProject(p: ResolvedProject, overrides: SimulationO
   const Ts = 1 / fCtrl;
   const delaySamples = control.delaySamples;
   const divider = control.speedLoopDivider;
-  const machine = p.hot;
+  const machine = p.models.hot;
   const lim = p.peak;
   const J = p.mechanics.inertia + (scenario.loadInertia ?? 0);
   const tuning = tuneLoops(tuningInputFor(p, control, scenario.loadInertia ?? 0));
@@ -88,7 +87,7 @@ export function simulationFromProject(p: ResolvedProject, overrides: SimulationO
   const k2 = mode === 'current-step' ? 0 : scenario.loadModel?.k ?? 0;
   const load = loadSchedule(loadSteps, loadRamps, k2);
   const TL0 = loadLevel(load, 0);
-  const plant: PlantParams<DqMachine> = {
+  const plant: PlantParams<ProjectModel> = {
     machine,
     inertia: J,
     viscousFriction: p.mechanics.viscousFriction,
@@ -205,7 +204,7 @@ function scenarioFindings(p: ResolvedProject, f: ScenarioFacts): Finding[] {
     });
   }
   if (f.wMaxRef > 0) {
-    const s = safetyReport(p.cold, p.inverter, f.wMaxRef);
+    const s = safetyReport(p.models.cold, p.inverter, f.wMaxRef);
     for (const x of s.findings) if (x.code === 'back-emf-above-bus') out.push({ ...x, field: f.mode === 'speed' ? 'scenario.speedSteps' : 'scenario.initialSpeed_rpm', message: `${x.message} Follow local codes, licensed practice and IEC 61800-5-1.` });
   }
   return out;

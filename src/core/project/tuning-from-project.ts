@@ -21,7 +21,7 @@ export function tuningInputFor(p: ResolvedProject, c: ControlSection, loadInerti
   else if (c.speedTuning?.method === 'symmetric-optimum') speed = { method: 'symmetric-optimum', a: c.speedTuning.a };
   else speed = { method: 'bandwidth', bandwidth_Hz: c.speedBandwidth_Hz ?? fc * DEFAULT_SPEED_BANDWIDTH_FRACTION };
   return {
-    machine: p.hot,
+    machine: p.models.hot,
     inertia: p.mechanics.inertia + loadInertia,
     viscousFriction: p.mechanics.viscousFriction,
     fCtrl_Hz,

@@ -277,8 +277,8 @@ export function datasheetHtml(r: DatasheetResults, o: DatasheetOptions): string 
   const top_rpm = r.speedMax * RAD_S_TO_RPM;
   const step = datasheetTableStep(r, o);
   const field = o.stepField ?? 'table step';
-  const hot = envelopeTable(p.hot, p.peak, p.continuous, top_rpm, step, field);
-  const cold = envelopeTable(p.cold, p.peak, p.continuous, top_rpm, step, field);
+  const hot = envelopeTable(p.models.hot, p.peak, p.continuous, top_rpm, step, field);
+  const cold = envelopeTable(p.models.cold, p.peak, p.continuous, top_rpm, step, field);
 
   const { torque: torqueSvg, power: powerSvg } = datasheetCharts(r, { date: o.date, version: o.version ?? TOOL_VERSION });
 

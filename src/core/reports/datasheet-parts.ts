@@ -25,7 +25,7 @@ export function datasheetCurves(p: ResolvedProject, o: DatasheetResultsOptions):
   for (const current of ['peak', 'continuous'] as const) {
     const lim = current === 'peak' ? p.peak : p.continuous;
     for (const corner of ['hot', 'cold'] as const) {
-      const m = corner === 'hot' ? p.hot : p.cold;
+      const m = corner === 'hot' ? p.models.hot : p.models.cold;
       for (const direction of ['motoring', 'generating'] as const) {
         curves.push({ corner, current, direction, env: computeEnvelope(m, lim, { points: o.points, speedMax, direction }) });
       }
@@ -42,9 +42,9 @@ export function datasheetCurves(p: ResolvedProject, o: DatasheetResultsOptions):
 export function datasheetVerdicts(p: ResolvedProject, speedMax: number): DatasheetVerdicts {
   const safetySpeed = p.rated.maxSpeed_rad_s ?? speedMax;
   return {
-    sizing: sizeDrive(p.hot, p.inverter, p.requirements, p.currentLimits),
-    sizingCold: sizeDrive(p.cold, p.inverter, p.requirements, p.currentLimits),
-    safety: safetyReport(p.cold, p.inverter, safetySpeed, p.rated.maxSpeed_rad_s !== undefined),
+    sizing: sizeDrive(p.models.hot, p.inverter, p.requirements, p.currentLimits),
+    sizingCold: sizeDrive(p.models.cold, p.inverter, p.requirements, p.currentLimits),
+    safety: safetyReport(p.models.cold, p.inverter, safetySpeed, p.rated.maxSpeed_rad_s !== undefined),
     safetySpeed,
   };
 }

@@ -29,7 +29,7 @@ export function parsePlotTop(text: string): { rpm: number | null } | { message: 
  * rad/s mechanical.
  */
 export function projectSpeedRange(p: ResolvedProject): { speedMax: number; safetySpeed: number } {
-  const probe = computeEnvelope(p.hot, p.peak, { points: 2, direction: 'motoring' });
+  const probe = computeEnvelope(p.models.hot, p.peak, { points: 2, direction: 'motoring' });
   let speedMax = probe.speed[probe.speed.length - 1]!;
   const rated = p.rated.maxSpeed_rad_s;
   const wanted = Math.max(0, ...p.requirements.map((q) => 1.08 * Math.abs(q.speed_rpm) * RPM_TO_RAD_S), 1.05 * (rated ?? 0));
