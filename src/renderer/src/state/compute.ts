@@ -8,7 +8,7 @@ import type { SafetyReport } from '../../../core/steady-state/safety';
 import type { DerivedConstants } from '../../../core/machine/nameplate';
 import { datasheetCurves, datasheetVerdicts } from '../../../core/reports/datasheet-parts';
 import { RPM_TO_RAD_S } from '../../../core/base/units';
-import type { DqMachine } from '../../../core/machine/dq-machine';
+import type { MachineInput } from '../../../core/machine/machine-model';
 
 export type Corner = 'hot' | 'cold';
 export type CurrentKind = 'peak' | 'continuous';
@@ -106,8 +106,11 @@ export interface PlaneCurves {
   ellipses: Array<{ speed_rpm: number; id: number[]; iq: number[] }>;
 }
 
-/** Geometry of the current plane for one machine and voltage limit (engine functions only). */
-export function planeCurves(m: DqMachine, Vmax: number, Imax: number, speeds_rpm: number[], mtpvSpeeds: number[]): PlaneCurves {
+/**
+ * Geometry of the current plane for one machine model and voltage limit (engine functions only):
+ * the model's MTPA, MTPV and voltage-limit curves, so a flux-map machine is drawn saturated.
+ */
+export function planeCurves(m: MachineInput, Vmax: number, Imax: number, speeds_rpm: number[], mtpvSpeeds: number[]): PlaneCurves {
   const n = 60;
   const mtpa = { id: [] as number[], iq: [] as number[] };
   for (let k = -n; k <= n; k++) {

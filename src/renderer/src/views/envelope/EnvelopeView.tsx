@@ -44,7 +44,8 @@ export function planeFigure(r: Results, theme: 'light' | 'dark', speeds: number[
   const t = readTheme();
   const col = CURVE[theme];
   const p = r.project;
-  const m = p.hot;
+  // the model the solvers are given (a flux map's when the project has one)
+  const m = p.models.hot;
   const Imax = p.peak.Imax;
   const Icont = p.continuous.Imax;
   const mtpvSpeeds: number[] = [];
@@ -135,11 +136,14 @@ export function planeFigure(r: Results, theme: 'light' | 'dark', speeds: number[
     py.push(e.iq[k]!);
   }
   data.push({ type: 'scatter', mode: 'lines', x: px, y: py, name: 'envelope path', line: { color: col.hot, width: 3 }, opacity: 0.5, hoverinfo: 'skip' });
-  const ch = -m.psiM / m.Ld;
-  if (ch > -span) {
+  // the current of zero flux (−ψm/Ld for constant parameters), the model's inverse at ψ = 0
+  const zero = new Float64Array(2);
+  m.current(0, 0, zero);
+  const ch = zero[0]!;
+  if (ch > -span && Math.abs(zero[1]!) < span) {
     // the voltage ellipses are centred here: the label sits below on the panel colour, readable over them
-    data.push({ type: 'scatter', mode: 'markers', x: [ch], y: [0], showlegend: false, marker: { symbol: 'x', size: 9, color: col.volt }, hoverinfo: 'skip' });
-    annotations.push({ x: ch, y: 0, text: '−ψm/Ld', showarrow: false, yanchor: 'top', yshift: -6, font: { size: 10, color: col.volt }, bgcolor: t.panel });
+    data.push({ type: 'scatter', mode: 'markers', x: [ch], y: [zero[1]!], showlegend: false, marker: { symbol: 'x', size: 9, color: col.volt }, hoverinfo: 'skip' });
+    annotations.push({ x: ch, y: zero[1]!, text: m.linear ? '−ψm/Ld' : 'ψ = 0', showarrow: false, yanchor: 'top', yshift: -6, font: { size: 10, color: col.volt }, bgcolor: t.panel });
   }
   if (op) {
     data.push({
@@ -228,7 +232,7 @@ export const EnvelopeView = memo(function EnvelopeView({ results, opts, setOpts,
       const torque = onPower ? (w > 0 ? (y * 1000) / w : 0) : y;
       y = torque;
       try {
-        setOp(solveOperatingPoint(results.project.hot, results.project.peak, w, torque));
+        setOp(solveOperatingPoint(results.project.models.hot, results.project.peak, w, torque));
       } catch {
         setOp(null);
       }
