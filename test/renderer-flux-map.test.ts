@@ -147,3 +147,53 @@ describe('the envelope view current plane through the model', () => {
     }));
   });
 });
+
+describe('the envelope view current plane of a saturating map', () => {
+  // An invented saturating machine (not a product's data): psi_d = psiM + Ld id, psi_q = Lq0 b tanh(iq / b),
+  // tabulated on a 41 x 41 grid of iq >= 0 (a q axis that saturates: common practice (no source)).
+  const p = demo('demo-ipm-traction.json');
+  const h = p.hot, I = p.peak.Imax, b = 0.6 * I;
+  const ids = Array.from({ length: 41 }, (_, k) => -2 * I + (2.5 * I * k) / 40);
+  const iqs = Array.from({ length: 41 }, (_, k) => (2 * I * k) / 40);
+  const map: FluxMapData = {
+    magnetTemp_C: 20, id_A: ids, iq_A: iqs,
+    psid_Wb: ids.map((id) => iqs.map(() => h.psiM + h.Ld * id)),
+    psiq_Wb: ids.map(() => iqs.map((iq) => h.Lq * b * Math.tanh(iq / b))),
+  };
+  const sat = new FluxMapModel(map, h.polePairs, h.Rs);
+  const T0 = 0.8 * sat.torque(-0.3 * I, 0.9 * I);
+  const pc = planeCurves(sat, p.peak.Vmax, I, [3000, 6000], [400, 800], { torques: [0.5 * T0, T0], lo: -1.2 * I, hi: 0.25 * I, span: 1.2 * I });
+
+  it('every voltage-limit point has |v| = Vmax and every constant-torque point the torque asked for, on the model', () => {
+    // steady state, motor reference direction (Krause, Wasynczuk and Sudhoff (2002), ch. 5): vd = Rs id - we psi_q, vq = Rs iq + we psi_d
+    const v = new Float64Array(2);
+    for (const el of pc.ellipses) {
+      const we = h.polePairs * el.speed_rpm * (Math.PI / 30);
+      let found = 0;
+      el.id.forEach((id, k) => {
+        if (Number.isNaN(id)) return;
+        found++;
+        sat.steadyVoltage(id, el.iq[k]!, we, v);
+        expect(Math.hypot(v[0]!, v[1]!) / p.peak.Vmax).toBeCloseTo(1, 9);
+      });
+      expect(found).toBeGreaterThan(170);
+    }
+    for (const line of pc.torque) {
+      let found = 0;
+      line.id.forEach((id, k) => {
+        if (id === null) return;
+        found++;
+        expect(sat.torque(id, line.iq[k]!) / line.T).toBeCloseTo(1, 9);
+      });
+      expect(found).toBeGreaterThan(20);
+    }
+  });
+
+  it('the saturated q axis needs more q current for the same torque than the zero-current terms say', () => {
+    // the apparent Lq at iq falls below Lq (tanh(x) < x): a constant-parameter machine overstates the torque per ampere
+    const lin = planeCurves(p.models.hot, p.peak.Vmax, I, [], [], { torques: [T0], lo: -1.2 * I, hi: 0.25 * I, span: 1.2 * I });
+    const k = 60; // id = -1.2 I + 0.5 (1.45 I) = -0.475 I
+    expect(lin.torque[0]!.iq[k]).not.toBeNull();
+    expect(pc.torque[1]!.iq[k]!).toBeGreaterThan(lin.torque[0]!.iq[k]! * 1.02);
+  });
+});

@@ -51,7 +51,10 @@ export function planeFigure(r: Results, theme: 'light' | 'dark', speeds: number[
   const mtpvSpeeds: number[] = [];
   const w0 = Math.max(r.main.baseSpeed, 1e-3);
   for (let k = 0; k <= 80; k++) mtpvSpeeds.push(w0 * Math.pow(40, k / 80));
-  const pc = planeCurves(m, p.peak.Vmax, Imax, speeds, mtpvSpeeds);
+  const span = 1.2 * Imax;
+  // constant-torque lines from the engine's locus, at fractions of the zero-speed torque
+  const T0 = r.main.torque[0]!;
+  const pc = planeCurves(m, p.peak.Vmax, Imax, speeds, mtpvSpeeds, { torques: [0.25, 0.5, 0.75, 1].map((f) => f * T0), lo: -span, hi: 0.25 * Imax, span });
   const data: Data[] = [];
   const circle = (R: number) => {
     const x: number[] = [];
@@ -68,7 +71,6 @@ export function planeFigure(r: Results, theme: 'light' | 'dark', speeds: number[
   data.push({ type: 'scatter', mode: 'lines', ...cc, name: `|i| = ${describeLimit('continuous', p.currentLimits.continuous)}`, line: { color: t.muted, width: 1.4, dash: 'dash' }, hoverinfo: 'skip' });
   const dashes = ['solid', 'dash', 'dot', 'dashdot', 'longdash', 'longdashdot'];
   const annotations: Record<string, unknown>[] = [];
-  const span = 1.2 * Imax;
   pc.ellipses.forEach((el, i) => {
     data.push({
       type: 'scatter',
@@ -94,19 +96,7 @@ export function planeFigure(r: Results, theme: 'light' | 'dark', speeds: number[
   });
   data.push({ type: 'scatter', mode: 'lines', x: pc.mtpa.id, y: pc.mtpa.iq, name: 'MTPA', line: { color: col.mtpa, width: 2 }, hoverinfo: 'skip' });
   if (pc.mtpv.id.length > 1) data.push({ type: 'scatter', mode: 'lines', x: pc.mtpv.id, y: pc.mtpv.iq, name: 'MTPV', line: { color: col.mtpv, width: 2, dash: 'dashdot' }, hoverinfo: 'skip' });
-  // constant-torque lines from the engine's locus
-  const T0 = r.main.torque[0]!;
-  [0.25, 0.5, 0.75, 1].forEach((f, i) => {
-    const T = f * T0;
-    const x: Array<number | null> = [];
-    const y: Array<number | null> = [];
-    for (let k = 0; k <= 120; k++) {
-      const id = -span + (k / 120) * (span + 0.25 * Imax);
-      const iq = constantTorqueIq(m, T, id);
-      const ok = Number.isFinite(iq) && Math.abs(iq) <= span;
-      x.push(ok ? id : null);
-      y.push(ok ? iq : null);
-    }
+  pc.torque.forEach(({ T, id: x, iq: y }, i) => {
     data.push({
       type: 'scatter',
       mode: 'lines',
