@@ -21,7 +21,8 @@ export interface FluxMapFigures {
 /** The colours of a family of lines, from no current on the other axis (cool) to the limit (warm). */
 export const familyColours = (col: CurveColours): string[] => [col.cold, col.coldCont, col.volt, col.hotCont, col.hot];
 
-const rounded = (x: number): string => `${Math.round(x) === 0 ? 0 : Math.round(x)}`;
+/** A current rounded to the ampere, with a typographic minus. */
+const rounded = (x: number): string => (Math.round(x) === 0 ? '0' : String(Math.round(x)).replace('-', '−'));
 const mWb = (v: number[]): number[] => v.map((x) => x * 1e3);
 const mH = (v: number[]): number[] => v.map((x) => x * 1e3);
 
