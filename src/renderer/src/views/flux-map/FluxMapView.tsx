@@ -2,13 +2,35 @@
 // against id and psi_q against iq, the apparent and incremental inductances along MTPA, and the MTPA
 // trajectory on the (id, iq) plane with the torque contours; all computed by the core
 // (reports/flux-map-curves.ts) on the hot corner's machine model, the one the envelope is solved on.
-import { memo, useMemo } from 'react';
+import { memo, useMemo, useRef } from 'react';
+import type { Data, Layout } from 'plotly.js-dist-min';
 import type { ResolvedProject } from '../../../../core/project/project';
 import { fluxMapCurves } from '../../../../core/reports/flux-map-curves';
 import { CURVE, Plot, readTheme } from '../../components/Plot';
 import { num } from '../../components/format';
+import { exportPlotImage } from '../../components/image-export';
+import { useExporter } from '../../state/exporter';
 import { fluxMapOf } from './flux-map-data';
 import { fluxMapFigures, inductanceRows } from './flux-map-figures';
+
+/** One figure on a card, with its own PNG and SVG export (named fluxmap-<name>). */
+function FigureCard({ title, name, fig, height, project, defer }: { title: string; name: string; fig: { data: Data[]; layout: Layout }; height: number; project: ResolvedProject; defer?: boolean }) {
+  const exporter = useExporter();
+  const el = useRef<HTMLDivElement | null>(null);
+  const save = (format: 'png' | 'svg') => {
+    if (el.current) void exportPlotImage(el.current, format, `fluxmap-${name}`, project, exporter);
+  };
+  return (
+    <div className="card">
+      <div className="toolbar no-print">
+        <h4 style={{ margin: 0, flex: 1 }}>{title}</h4>
+        <button className="btn small" onClick={() => save('png')} data-testid={`fluxmap-${name}-png`}>PNG</button>
+        <button className="btn small" onClick={() => save('svg')} data-testid={`fluxmap-${name}-svg`}>SVG</button>
+      </div>
+      <Plot data={fig.data} layout={fig.layout} height={height} testId={`fluxmap-${name}-plot`} elRef={(e) => (el.current = e)} defer={defer} />
+    </div>
+  );
+}
 
 export const FluxMapView = memo(function FluxMapView({ project, theme }: { project: ResolvedProject; theme: 'light' | 'dark' }) {
   const map = fluxMapOf(project);
@@ -37,23 +59,14 @@ export const FluxMapView = memo(function FluxMapView({ project, theme }: { proje
       {figs && c && (
         <div className="cols">
           <div>
-            <div className="card">
-              <h4>d-axis flux against d current, at several q currents</h4>
-              <Plot data={figs.psid.data} layout={figs.psid.layout} height={330} testId="fluxmap-psid-plot" />
-            </div>
-            <div className="card">
-              <h4>q-axis flux against q current, at several d currents</h4>
-              <Plot data={figs.psiq.data} layout={figs.psiq.layout} height={330} testId="fluxmap-psiq-plot" defer />
-            </div>
+            <FigureCard title="d-axis flux against d current, at several q currents" name="psid" fig={figs.psid} height={330} project={project} />
+            <FigureCard title="q-axis flux against q current, at several d currents" name="psiq" fig={figs.psiq} height={330} project={project} defer />
           </div>
           <div>
+            <FigureCard title="MTPA on the current plane (hot magnet)" name="plane" fig={figs.plane} height={330} project={project} defer />
+            <FigureCard title="Inductances along MTPA" name="inductance" fig={figs.inductance} height={260} project={project} defer />
             <div className="card">
-              <h4>MTPA on the current plane (hot magnet)</h4>
-              <Plot data={figs.plane.data} layout={figs.plane.layout} height={330} testId="fluxmap-plane-plot" defer />
-            </div>
-            <div className="card">
-              <h4>Inductances along MTPA</h4>
-              <Plot data={figs.inductance.data} layout={figs.inductance.layout} height={260} testId="fluxmap-inductance-plot" defer />
+              <h4>Inductances at zero and at the peak current</h4>
               <table className="data compact" data-testid="fluxmap-inductance-table">
                 <thead>
                   <tr>
