@@ -68,7 +68,7 @@ describe('the flux-map figures of a map tabulated from constant Ld, Lq, psiM', (
     f.data.forEach((tr, i) => {
       const t = tr as { x: number[]; y: number[]; name: string; line: { color: string } };
       expect(t.line.color).toBe(familyColours(CURVE.light)[i]);
-      expect(t.name).toBe(`iq = ${Math.round(0.25 * i * project.peak.Imax)} A`);
+      expect(t.name).toBe(`iq = ${Number((0.25 * i * project.peak.Imax).toPrecision(3))} A`);
       for (let k = 1; k < t.x.length; k++) expect((t.y[k]! - t.y[0]!) / (t.x[k]! - t.x[0]!)).toBeCloseTo(h.Ld * 1e3, 9);
       expect(t.y[30]!).toBeCloseTo(h.psiM * 1e3, 9); // id = 0 at the middle of 61 points
     });
@@ -106,7 +106,7 @@ describe('the flux-map figures of a map tabulated from constant Ld, Lq, psiM', (
     expect(title(f.layout.xaxis)).toBe('id, A peak');
     expect(title(f.layout.yaxis)).toBe('iq, A peak');
     const names = f.data.map((tr) => (tr as { name: string }).name);
-    expect(names).toEqual(['map points', 'constant torque, N·m', `|i| = ${Math.round(project.peak.Imax)} A peak`, 'MTPA']);
+    expect(names).toEqual(['map points', 'constant torque, N·m', `|i| = ${Number(project.peak.Imax.toPrecision(3))} A peak`, 'MTPA']);
     const mtpa = f.data[3] as { x: number[]; y: number[]; line: { color: string } };
     expect(mtpa.line.color).toBe(CURVE.light.mtpa);
     const I = project.peak.Imax, dL = h.Lq - h.Ld;

@@ -74,7 +74,8 @@ describe('the flux-map tab', () => {
     await page.waitForSelector('[data-testid="tab-fluxmap"]', { timeout: 20_000 });
     await page.click('[data-testid="tab-fluxmap"]');
     for (const id of ['fluxmap-psid-plot', 'fluxmap-psiq-plot', 'fluxmap-plane-plot', 'fluxmap-inductance-plot']) {
-      await page.waitForSelector(`[data-testid="${id}"] .scatterlayer .trace`, { timeout: 20_000 });
+      // attached, not 'visible': a flat line (the inductances of a constant map) has no height
+      await page.waitForSelector(`[data-testid="${id}"] .scatterlayer .trace`, { state: 'attached', timeout: 20_000 });
     }
     expect(await page.$$eval('[data-testid="fluxmap-psid-plot"] .scatterlayer .trace', (els) => els.length)).toBe(5);
     expect(await page.textContent('[data-testid="fluxmap-inductance-table"]')).toMatch(/Ld apparent.*Lq incremental/s);

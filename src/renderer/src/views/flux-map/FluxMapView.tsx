@@ -59,12 +59,12 @@ export const FluxMapView = memo(function FluxMapView({ project, theme }: { proje
       {figs && c && (
         <div className="cols">
           <div>
-            <FigureCard title="d-axis flux against d current, at several q currents" name="psid" fig={figs.psid} height={330} project={project} />
-            <FigureCard title="q-axis flux against q current, at several d currents" name="psiq" fig={figs.psiq} height={330} project={project} defer />
+            <FigureCard title="d-axis flux against d current, at several q currents" name="psid" fig={figs.psid} height={380} project={project} />
+            <FigureCard title="q-axis flux against q current, at several d currents" name="psiq" fig={figs.psiq} height={380} project={project} defer />
           </div>
           <div>
-            <FigureCard title="MTPA on the current plane (hot magnet)" name="plane" fig={figs.plane} height={330} project={project} defer />
-            <FigureCard title="Inductances along MTPA" name="inductance" fig={figs.inductance} height={260} project={project} defer />
+            <FigureCard title="MTPA on the current plane (hot magnet)" name="plane" fig={figs.plane} height={420} project={project} defer />
+            <FigureCard title="Inductances along MTPA" name="inductance" fig={figs.inductance} height={340} project={project} defer />
             <div className="card">
               <h4>Inductances at zero and at the peak current</h4>
               <table className="data compact" data-testid="fluxmap-inductance-table">

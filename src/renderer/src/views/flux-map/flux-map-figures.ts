@@ -21,8 +21,8 @@ export interface FluxMapFigures {
 /** The colours of a family of lines, from no current on the other axis (cool) to the limit (warm). */
 export const familyColours = (col: CurveColours): string[] => [col.cold, col.coldCont, col.volt, col.hotCont, col.hot];
 
-/** A current rounded to the ampere, with a typographic minus. */
-const rounded = (x: number): string => (Math.round(x) === 0 ? '0' : String(Math.round(x)).replace('-', '−'));
+/** A current to 3 significant digits, with a typographic minus. */
+const rounded = (x: number): string => num(x, 3).replace('-', '−');
 const mWb = (v: number[]): number[] => v.map((x) => x * 1e3);
 const mH = (v: number[]): number[] => v.map((x) => x * 1e3);
 
@@ -39,7 +39,8 @@ function family(lines: FluxLine[], other: 'iq' | 'id', col: CurveColours): Data[
   }));
 }
 
-const legendTop = { orientation: 'h' as const, x: 0, y: -0.2, font: { size: 10 } };
+// the legend at the foot of the figure (below the axis title, however many rows it wraps into in a narrow card)
+const legendTop = { orientation: 'h' as const, x: 0, xanchor: 'left' as const, y: 0, yanchor: 'bottom' as const, yref: 'container', font: { size: 10 } } as Layout['legend'];
 
 /**
  * The four figures: psi_d against id (one line per iq), psi_q against iq (one line per id), the
@@ -47,7 +48,7 @@ const legendTop = { orientation: 'h' as const, x: 0, y: -0.2, font: { size: 10 }
  * with the torque contours, the current limit and the map's own grid points (`grid`, when given).
  */
 export function fluxMapFigures(c: FluxMapCurves, grid: { id_A: readonly number[]; iq_A: readonly number[] } | null, t: PlotTheme, col: CurveColours): FluxMapFigures {
-  const margin = { l: 64, r: 16, t: 16, b: 48 };
+  const margin = { l: 64, r: 16, t: 16, b: 100 };
   const psid: Figure = {
     data: family(c.psid, 'iq', col),
     layout: baseLayout(t, {
