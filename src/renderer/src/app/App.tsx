@@ -1,4 +1,5 @@
-// Torquewise main window: the input side on the left, four views on the right.
+// Torquewise main window: the input side on the left, four views on the right (a fifth, the flux map,
+// for a project that carries one).
 import { useCallback, useEffect, useMemo, useRef, useState } from 'react';
 import { checkProject, listCapProblem } from '../../../core/project/schema';
 import { migrateProject } from '../../../core/project/migrate';
@@ -18,15 +19,18 @@ import { EnvelopeView } from '../views/envelope/EnvelopeView';
 import { LoadStepsView } from '../views/load-steps/LoadStepsView';
 import { TuningView } from '../views/tuning/TuningView';
 import { DatasheetView } from '../views/datasheet/DatasheetView';
+import { FluxMapView } from '../views/flux-map/FluxMapView';
+import { fluxMapOf } from '../views/flux-map/flux-map-data';
 import { envelopeCsv, tracesCsv } from '../components/exports';
 import { exportDatasheetHtml, exportVisiblePlot } from '../components/image-export';
 import { limitPhrase } from '../../../core/reports/phrases';
 import { FieldNotesContext, FindingsStrip, findingsKey, notesByPath } from '../components/field-notes';
 import { num } from '../components/format';
 
-type View = 'envelope' | 'loadsteps' | 'tuning' | 'datasheet';
+type View = 'envelope' | 'fluxmap' | 'loadsteps' | 'tuning' | 'datasheet';
 const VIEWS: Array<[View, string]> = [
   ['envelope', 'Envelope'],
+  ['fluxmap', 'Flux map'],
   ['loadsteps', 'Load steps'],
   ['tuning', 'Tuning'],
   ['datasheet', 'Datasheet'],
@@ -247,6 +251,10 @@ export function App() {
     return () => clearTimeout(h);
   }, [lateEnvelopes, verdicts]);
   const results: Results | null = useMemo(() => (envelopes && verdicts ? { ...envelopes, ...verdicts } : null), [envelopes, verdicts]);
+  // the flux-map tab only for a project that carries a map; its view falls back to the envelope otherwise
+  const hasMap = fluxMapOf(results?.project) !== null;
+  const views = hasMap ? VIEWS : VIEWS.filter(([v]) => v !== 'fluxmap');
+  const shown: View = view === 'fluxmap' && !hasMap ? 'envelope' : view;
 
 
   const load = useCallback((text: string, src: { name: string; path: string | null; demo: boolean; readOnly: boolean }, message?: string) => {
@@ -434,8 +442,8 @@ export function App() {
           </aside>
           <main className="main">
             <nav className="tabs" role="tablist">
-              {VIEWS.map(([v, label]) => (
-                <button key={v} role="tab" className="tab" aria-selected={view === v} data-testid={`tab-${v}`} onClick={() => setView(v)}>
+              {views.map(([v, label]) => (
+                <button key={v} role="tab" className="tab" aria-selected={shown === v} data-testid={`tab-${v}`} onClick={() => setView(v)}>
                   {label}
                 </button>
               ))}
@@ -455,11 +463,13 @@ export function App() {
               {computeError && <div className="finding danger">{computeError}</div>}
               {!results ? (
                 <div className="empty">No valid project yet: correct the marked inputs.</div>
-              ) : view === 'envelope' ? (
+              ) : shown === 'envelope' ? (
                 <EnvelopeView results={results} opts={envOpts} setOpts={setEnvOpts} theme={theme} />
-              ) : view === 'loadsteps' ? (
+              ) : shown === 'fluxmap' ? (
+                <FluxMapView project={results.project} theme={theme} />
+              ) : shown === 'loadsteps' ? (
                 <LoadStepsView project={results.project} theme={theme} stale={stale} result={simulation} setResult={setSimulation} />
-              ) : view === 'tuning' ? (
+              ) : shown === 'tuning' ? (
                 <TuningView project={results.project} theme={theme} />
               ) : (
                 <DatasheetView results={results} theme={theme} tableStep={tableStep} setTableStep={setTableStep} />

@@ -10,7 +10,7 @@ import { dataUrlToBytes, svgDataUrlToText } from '../state/file-bridge';
 import type { Exporter } from '../state/exporter';
 import { EXPORT_SIZE, exportLayout } from './figure-export-layout';
 
-const PLOTS = ['envelope-plot', 'datasheet-plot', 'traces-plot', 'bode-plot', 'plane-plot'];
+const PLOTS = ['envelope-plot', 'datasheet-plot', 'traces-plot', 'bode-plot', 'plane-plot', 'fluxmap-psid-plot'];
 
 /** What each plot shows, for the exported image's title. */
 const PLOT_TITLES: Record<string, string> = {
@@ -20,6 +20,10 @@ const PLOT_TITLES: Record<string, string> = {
   traces: 'load-step response',
   bode: 'current and speed loops, open-loop frequency response',
   plane: 'current plane (id, iq): limits, MTPA, MTPV and voltage ellipses',
+  'fluxmap-psid': 'flux map, ψd against id at several iq',
+  'fluxmap-psiq': 'flux map, ψq against iq at several id',
+  'fluxmap-plane': 'flux map, MTPA and constant torque on the current plane',
+  'fluxmap-inductance': 'flux map, apparent and incremental inductances along MTPA',
 };
 
 /** The first plot shown on the current view, exported as PNG or SVG with title and conditions. */

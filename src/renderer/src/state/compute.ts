@@ -2,13 +2,16 @@
 // No physics here: this module calls the engine and arranges its answers for plotting.
 import type { ResolvedProject } from '../../../core/project/project';
 import type { Envelope } from '../../../core/steady-state/envelope';
-import { mtpaCurrents, mtpvPoint, currentOnVoltageBoundary } from '../../../core/steady-state/mtpa';
+import { constantTorqueIq, mtpaCurrents, mtpvPoint, currentOnVoltageBoundary } from '../../../core/steady-state/mtpa';
+import { currentOnVoltageBoundaryNumeric } from '../../../core/steady-state/voltage-boundary';
+import { numericScratch } from '../../../core/machine/model-numeric';
+import { isMachineModel } from '../../../core/machine/machine-model';
 import type { SizingResult } from '../../../core/steady-state/sizing';
 import type { SafetyReport } from '../../../core/steady-state/safety';
 import type { DerivedConstants } from '../../../core/machine/nameplate';
 import { datasheetCurves, datasheetVerdicts } from '../../../core/reports/datasheet-parts';
 import { RPM_TO_RAD_S } from '../../../core/base/units';
-import type { DqMachine } from '../../../core/machine/dq-machine';
+import type { MachineInput } from '../../../core/machine/machine-model';
 
 export type Corner = 'hot' | 'cold';
 export type CurrentKind = 'peak' | 'continuous';
@@ -103,11 +106,26 @@ export function computeEnvelopes(p: ResolvedProject, opts: EnvelopeOptions): Env
 export interface PlaneCurves {
   mtpa: { id: number[]; iq: number[] };
   mtpv: { id: number[]; iq: number[] };
+  /** |v| = Vmax at each speed; NaN (a gap) where the boundary current was not found */
   ellipses: Array<{ speed_rpm: number; id: number[]; iq: number[] }>;
+  /** constant-torque lines over the id range asked for; null where no motoring point lies within the span */
+  torque: Array<{ T: number; id: Array<number | null>; iq: Array<number | null> }>;
 }
 
-/** Geometry of the current plane for one machine and voltage limit (engine functions only). */
-export function planeCurves(m: DqMachine, Vmax: number, Imax: number, speeds_rpm: number[], mtpvSpeeds: number[]): PlaneCurves {
+/** The constant-torque lines of the current plane: torques (N·m), over id in [lo, hi], kept where |iq| <= span (A peak). */
+export interface TorqueLines {
+  torques: number[];
+  lo: number;
+  hi: number;
+  span: number;
+}
+
+/**
+ * Geometry of the current plane for one machine model and voltage limit (engine functions only):
+ * the model's MTPA, MTPV, voltage-limit and constant-torque curves, so a flux-map machine is drawn
+ * saturated (its constant-parameter closed forms otherwise).
+ */
+export function planeCurves(m: MachineInput, Vmax: number, Imax: number, speeds_rpm: number[], mtpvSpeeds: number[], lines: TorqueLines | null = null): PlaneCurves {
   const n = 60;
   const mtpa = { id: [] as number[], iq: [] as number[] };
   for (let k = -n; k <= n; k++) {
@@ -131,18 +149,43 @@ export function planeCurves(m: DqMachine, Vmax: number, Imax: number, speeds_rpm
     mtpv.iq.push(u.iq);
   }
   const buf = new Float64Array(2);
+  // a model without constant terms: Newton along the boundary from the point before (a gap where it fails)
+  const numeric = isMachineModel(m) && m.linear === null ? m : null;
+  const ns = numericScratch();
   const ellipses = speeds_rpm
     .filter((s) => Number.isFinite(s) && s > 0)
     .map((speed_rpm) => {
       const we = m.polePairs * speed_rpm * RPM_TO_RAD_S;
       const id: number[] = [];
       const iq: number[] = [];
+      buf[0] = 0;
+      buf[1] = 0;
       for (let k = 0; k <= 180; k++) {
-        currentOnVoltageBoundary(m, Vmax, we, (k / 180) * 2 * Math.PI, buf);
+        const phi = (k / 180) * 2 * Math.PI;
+        if (numeric === null) currentOnVoltageBoundary(m, Vmax, we, phi, buf);
+        else if (currentOnVoltageBoundaryNumeric(numeric, Vmax, we, phi, buf, ns) < 0) {
+          id.push(NaN);
+          iq.push(NaN);
+          buf[0] = 0;
+          buf[1] = 0;
+          continue;
+        }
         id.push(buf[0]!);
         iq.push(buf[1]!);
       }
       return { speed_rpm, id, iq };
     });
-  return { mtpa, mtpv, ellipses };
+  const torque = (lines?.torques ?? []).map((T) => {
+    const x: Array<number | null> = [];
+    const y: Array<number | null> = [];
+    for (let k = 0; k <= 120; k++) {
+      const id = lines!.lo + (k / 120) * (lines!.hi - lines!.lo);
+      const iq = constantTorqueIq(m, T, id);
+      const ok = Number.isFinite(iq) && Math.abs(iq) <= lines!.span;
+      x.push(ok ? id : null);
+      y.push(ok ? iq : null);
+    }
+    return { T, id: x, iq: y };
+  });
+  return { mtpa, mtpv, ellipses, torque };
 }

@@ -44,13 +44,17 @@ export function planeFigure(r: Results, theme: 'light' | 'dark', speeds: number[
   const t = readTheme();
   const col = CURVE[theme];
   const p = r.project;
-  const m = p.hot;
+  // the model the solvers are given (a flux map's when the project has one)
+  const m = p.models.hot;
   const Imax = p.peak.Imax;
   const Icont = p.continuous.Imax;
   const mtpvSpeeds: number[] = [];
   const w0 = Math.max(r.main.baseSpeed, 1e-3);
   for (let k = 0; k <= 80; k++) mtpvSpeeds.push(w0 * Math.pow(40, k / 80));
-  const pc = planeCurves(m, p.peak.Vmax, Imax, speeds, mtpvSpeeds);
+  const span = 1.2 * Imax;
+  // constant-torque lines from the engine's locus, at fractions of the zero-speed torque
+  const T0 = r.main.torque[0]!;
+  const pc = planeCurves(m, p.peak.Vmax, Imax, speeds, mtpvSpeeds, { torques: [0.25, 0.5, 0.75, 1].map((f) => f * T0), lo: -span, hi: 0.25 * Imax, span });
   const data: Data[] = [];
   const circle = (R: number) => {
     const x: number[] = [];
@@ -67,7 +71,6 @@ export function planeFigure(r: Results, theme: 'light' | 'dark', speeds: number[
   data.push({ type: 'scatter', mode: 'lines', ...cc, name: `|i| = ${describeLimit('continuous', p.currentLimits.continuous)}`, line: { color: t.muted, width: 1.4, dash: 'dash' }, hoverinfo: 'skip' });
   const dashes = ['solid', 'dash', 'dot', 'dashdot', 'longdash', 'longdashdot'];
   const annotations: Record<string, unknown>[] = [];
-  const span = 1.2 * Imax;
   pc.ellipses.forEach((el, i) => {
     data.push({
       type: 'scatter',
@@ -93,19 +96,7 @@ export function planeFigure(r: Results, theme: 'light' | 'dark', speeds: number[
   });
   data.push({ type: 'scatter', mode: 'lines', x: pc.mtpa.id, y: pc.mtpa.iq, name: 'MTPA', line: { color: col.mtpa, width: 2 }, hoverinfo: 'skip' });
   if (pc.mtpv.id.length > 1) data.push({ type: 'scatter', mode: 'lines', x: pc.mtpv.id, y: pc.mtpv.iq, name: 'MTPV', line: { color: col.mtpv, width: 2, dash: 'dashdot' }, hoverinfo: 'skip' });
-  // constant-torque lines from the engine's locus
-  const T0 = r.main.torque[0]!;
-  [0.25, 0.5, 0.75, 1].forEach((f, i) => {
-    const T = f * T0;
-    const x: Array<number | null> = [];
-    const y: Array<number | null> = [];
-    for (let k = 0; k <= 120; k++) {
-      const id = -span + (k / 120) * (span + 0.25 * Imax);
-      const iq = constantTorqueIq(m, T, id);
-      const ok = Number.isFinite(iq) && Math.abs(iq) <= span;
-      x.push(ok ? id : null);
-      y.push(ok ? iq : null);
-    }
+  pc.torque.forEach(({ T, id: x, iq: y }, i) => {
     data.push({
       type: 'scatter',
       mode: 'lines',
@@ -135,11 +126,14 @@ export function planeFigure(r: Results, theme: 'light' | 'dark', speeds: number[
     py.push(e.iq[k]!);
   }
   data.push({ type: 'scatter', mode: 'lines', x: px, y: py, name: 'envelope path', line: { color: col.hot, width: 3 }, opacity: 0.5, hoverinfo: 'skip' });
-  const ch = -m.psiM / m.Ld;
-  if (ch > -span) {
+  // the current of zero flux (−ψm/Ld for constant parameters), the model's inverse at ψ = 0
+  const zero = new Float64Array(2);
+  m.current(0, 0, zero);
+  const ch = zero[0]!;
+  if (ch > -span && Math.abs(zero[1]!) < span) {
     // the voltage ellipses are centred here: the label sits below on the panel colour, readable over them
-    data.push({ type: 'scatter', mode: 'markers', x: [ch], y: [0], showlegend: false, marker: { symbol: 'x', size: 9, color: col.volt }, hoverinfo: 'skip' });
-    annotations.push({ x: ch, y: 0, text: '−ψm/Ld', showarrow: false, yanchor: 'top', yshift: -6, font: { size: 10, color: col.volt }, bgcolor: t.panel });
+    data.push({ type: 'scatter', mode: 'markers', x: [ch], y: [zero[1]!], showlegend: false, marker: { symbol: 'x', size: 9, color: col.volt }, hoverinfo: 'skip' });
+    annotations.push({ x: ch, y: zero[1]!, text: m.linear ? '−ψm/Ld' : 'ψ = 0', showarrow: false, yanchor: 'top', yshift: -6, font: { size: 10, color: col.volt }, bgcolor: t.panel });
   }
   if (op) {
     data.push({
@@ -228,7 +222,7 @@ export const EnvelopeView = memo(function EnvelopeView({ results, opts, setOpts,
       const torque = onPower ? (w > 0 ? (y * 1000) / w : 0) : y;
       y = torque;
       try {
-        setOp(solveOperatingPoint(results.project.hot, results.project.peak, w, torque));
+        setOp(solveOperatingPoint(results.project.models.hot, results.project.peak, w, torque));
       } catch {
         setOp(null);
       }
