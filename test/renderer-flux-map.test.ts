@@ -11,6 +11,7 @@ import { fluxMapOf, isFluxMapData } from '../src/renderer/src/views/flux-map/flu
 import { familyColours, fluxMapFigures, inductanceRows } from '../src/renderer/src/views/flux-map/flux-map-figures';
 import { CURVE, type PlotTheme } from '../src/renderer/src/components/plot-style';
 import { planeCurves } from '../src/renderer/src/state/compute';
+import { withApparentTerms } from '../src/core/project/flux-map-resolve';
 
 const demo = (name: string): ResolvedProject => loadProjectText(readFileSync(join(__dirname, '..', 'resources', name), 'utf8'));
 const theme: PlotTheme = { ink: '#111111', muted: '#666666', line: '#dddddd', panel: '#ffffff', bg: '#f5f5f5', ok: '#2e7d32', bad: '#b3261e', dark: false };
@@ -30,7 +31,7 @@ function withConstantMap(p: ResolvedProject): { project: ResolvedProject; map: F
   };
   const model = new FluxMapModel(map, h.polePairs, h.Rs);
   const file = { ...p.file, motor: { ...p.file.motor!, fluxMap: map } } as ResolvedProject['file'];
-  return { project: { ...p, file, models: { ...p.models, hot: model } }, map };
+  return { project: { ...p, file, models: { ...p.models, hot: withApparentTerms(model, h) } }, map };
 }
 
 describe('which projects have a flux-map view', () => {

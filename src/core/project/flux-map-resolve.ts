@@ -47,7 +47,7 @@ export function reciprocityMismatch(m: FluxMapModel): { worst: number; id_A: num
 }
 
 /** A map's model with its apparent terms at zero current attached (read for display, never by a solver: the model's `linear` stays null). */
-function withApparentTerms(m: FluxMapModel, a: DqMachine): MachineModel & DqMachine {
+export function withApparentTerms(m: FluxMapModel, a: DqMachine): MachineModel & DqMachine {
   return Object.assign(m, { Ld: a.Ld, Lq: a.Lq, psiM: a.psiM });
 }
 
