@@ -13,6 +13,7 @@
 import type { MachineInput, MachineModel } from '../machine/machine-model';
 import { machineModel } from '../machine/linear-dq';
 import { mtpaTorque } from '../steady-state/mtpa';
+import { maxTorquePoint } from '../steady-state/envelope';
 import type { DriveLimits } from '../drive/inverter-spec';
 import type { OperatingPoint } from '../steady-state/operating-point-types';
 import { InputError } from '../base/errors';
@@ -61,6 +62,20 @@ function feasible(solve: OperatingPointSolver, m: MachineModel, lim: DriveLimits
   }
 }
 
+/**
+ * Largest |T| with sign `dir` at speed w. A model that is not linear, with the standard solver: the
+ * envelope's largest torque under both limits at that speed (one search instead of a bisection over
+ * full solves, each of which is a search of its own on the generic path). Otherwise a bisection on
+ * the solver's feasibility (bounded).
+ */
+function torqueLimitAt(solve: OperatingPointSolver, m: MachineModel, hi0: number, lim: DriveLimits, w: number, dir: 1 | -1, iters: number): number {
+  if (m.linear === null && solve === solveOperatingPoint) {
+    const op = maxTorquePoint(m, lim, w, dir > 0 ? 'motoring' : 'generating');
+    return op.feasible ? Math.max(0, dir * op.torque) : 0;
+  }
+  return torqueLimit(solve, m, hi0, lim, w, dir, iters);
+}
+
 /** Largest |T| with sign `dir` that the solver reaches at speed w (bisection, bounded). */
 function torqueLimit(solve: OperatingPointSolver, m: MachineModel, hi0: number, lim: DriveLimits, w: number, dir: 1 | -1, iters: number): number {
   if (feasible(solve, m, lim, w, dir * hi0)) return hi0;
@@ -104,8 +119,8 @@ export function buildReferenceTable(
   const iq = new Float64Array(nS * nU);
   for (let r = 0; r < nS; r++) {
     const w = (o.speedMax_rad_s * r) / (nS - 1);
-    tMot[r] = torqueLimit(solve, m, hi0, lim, w, 1, o.limitIterations);
-    tGen[r] = torqueLimit(solve, m, hi0, lim, w, -1, o.limitIterations);
+    tMot[r] = torqueLimitAt(solve, m, hi0, lim, w, 1, o.limitIterations);
+    tGen[r] = torqueLimitAt(solve, m, hi0, lim, w, -1, o.limitIterations);
     let lastId = 0;
     let lastIq = 0;
     for (let c = 0; c < nU; c++) {
