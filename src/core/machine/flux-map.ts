@@ -5,12 +5,13 @@
  * inductances); a map of iq >= 0 only is mirrored by the odd symmetry of psi_q in iq and the even
  * symmetry of psi_d. A magnet-temperature shift adds a constant to psi_d (see `fluxMapAt`).
  *
- * Interpolation: see `FluxMapModel.flux`. The inverse (current from flux) is Newton's method on the
+ * Interpolation: C1 bicubic Hermite (see `FluxMapModel.evalAt`). The inverse (current from flux) is Newton's method on the
  * interpolant with its exact derivatives, from the last answer or zero, bounded in steps and in
  * current.
  */
 import type { MachineModel } from './machine-model';
 import { currentFromFluxNumeric, numericScratch, type NumericScratch } from './model-numeric';
+import { HermiteSurfacePair, hermiteNodes } from '../mathematics/hermite-surface';
 
 /** The map as a project file gives it: psid_Wb[i][j] at id_A[i], iq_A[j]; A peak, Wb peak. */
 export interface FluxMapData {
@@ -53,21 +54,11 @@ export function fullPlaneGrid(d: FluxMapData): FluxGrid {
   return { id: Float64Array.from(d.id_A), iq: Float64Array.from(iqs), psid, psiq };
 }
 
-/** The cell index k of x on an ascending grid (x clamped into the grid): g[k] <= x <= g[k+1]. */
-function cell(g: Float64Array, x: number): number {
-  let lo = 0, hi = g.length - 1;
-  if (x <= g[0]!) return 0;
-  if (x >= g[hi]!) return hi - 1;
-  while (hi - lo > 1) {
-    const mid = (lo + hi) >> 1;
-    if (g[mid]! <= x) lo = mid; else hi = mid;
-  }
-  return lo;
-}
-
 export class FluxMapModel implements MachineModel {
   readonly linear = null;
   readonly grid: FluxGrid;
+  /** the interpolant of psi_d (surface 0) and psi_q (surface 1) */
+  private readonly surf: HermiteSurfacePair;
   /** the inverse's scratch and last answer (a model is used by one computation at a time) */
   private readonly s: NumericScratch = numericScratch();
   private readonly guess = new Float64Array(2);
@@ -78,30 +69,17 @@ export class FluxMapModel implements MachineModel {
    */
   constructor(readonly data: FluxMapData, readonly polePairs: number, readonly Rs: number, readonly psidShift_Wb = 0) {
     this.grid = fullPlaneGrid(data);
+    const g = this.grid;
+    this.surf = new HermiteSurfacePair(g.id, g.iq, hermiteNodes(g.id, g.iq, g.psid), hermiteNodes(g.id, g.iq, g.psiq));
   }
 
   /**
-   * Bilinear interpolation in the cell holding (id, iq), extended linearly beyond the grid (the
-   * edge cells' planes). Writes psi into out and, when dOut is given, the exact derivatives of the
-   * interpolant [dpsid/did, dpsid/diq, dpsiq/did, dpsiq/diq].
+   * The C1 interpolant at (id, iq) (mathematics/hermite-surface.ts: bicubic Hermite with monotone
+   * slopes along the grid lines, continued linearly beyond the grid). Writes psi into out and, when
+   * dOut is given, the exact derivatives of the interpolant [dpsid/did, dpsid/diq, dpsiq/did, dpsiq/diq].
    */
   private evalAt(id: number, iq: number, out: Float64Array, dOut: Float64Array | null): void {
-    const g = this.grid;
-    const nq = g.iq.length;
-    const i = cell(g.id, id), j = cell(g.iq, iq);
-    const x0 = g.id[i]!, x1 = g.id[i + 1]!, y0 = g.iq[j]!, y1 = g.iq[j + 1]!;
-    const hx = x1 - x0, hy = y1 - y0;
-    const u = (id - x0) / hx, v = (iq - y0) / hy;
-    const k00 = i * nq + j, k10 = k00 + nq;
-    for (let c = 0; c < 2; c++) {
-      const t = c === 0 ? g.psid : g.psiq;
-      const a = t[k00]!, b = t[k10]!, cc = t[k00 + 1]!, d = t[k10 + 1]!;
-      out[c] = (1 - u) * (1 - v) * a + u * (1 - v) * b + (1 - u) * v * cc + u * v * d;
-      if (dOut) {
-        dOut[2 * c] = ((1 - v) * (b - a) + v * (d - cc)) / hx;
-        dOut[2 * c + 1] = ((1 - u) * (cc - a) + u * (d - b)) / hy;
-      }
-    }
+    this.surf.eval(id, iq, out, dOut);
     out[0] = out[0]! + this.psidShift_Wb;
   }
 
