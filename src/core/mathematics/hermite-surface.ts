@@ -84,18 +84,6 @@ export function hermiteNodes(x: Float64Array, y: Float64Array, f: Float64Array):
   return { f: Float64Array.from(f), fx, fy, fxy };
 }
 
-/**
- * The cubic Hermite basis at t (cell coordinate; 0..1 inside), continued linearly outside, and its
- * derivatives in t: b = [H0, H1, G0, G1], db likewise (G carry the cell width outside this function).
- */
-function basis(t: number, b: Float64Array, db: Float64Array): void {
-  if (t < 0) { b[0] = 1; b[1] = 0; b[2] = t; b[3] = 0; db[0] = 0; db[1] = 0; db[2] = 1; db[3] = 0; return; }
-  if (t > 1) { b[0] = 0; b[1] = 1; b[2] = 0; b[3] = t - 1; db[0] = 0; db[1] = 0; db[2] = 0; db[3] = 1; return; }
-  const t2 = t * t, t3 = t2 * t;
-  b[0] = 2 * t3 - 3 * t2 + 1; b[1] = 3 * t2 - 2 * t3; b[2] = t3 - 2 * t2 + t; b[3] = t3 - t2;
-  db[0] = 6 * t2 - 6 * t; db[1] = 6 * t - 6 * t2; db[2] = 3 * t2 - 4 * t + 1; db[3] = 3 * t2 - 2 * t;
-}
-
 /** Cell k of x on ascending g (g[k] <= x <= g[k+1], clamped to the end cells), trying `last` first. */
 export function findCell(g: Float64Array, x: number, last: number): number {
   const n = g.length;
@@ -115,10 +103,6 @@ export function findCell(g: Float64Array, x: number, last: number): number {
  * node, [f, fx, fy, fxy] of surface 0 then of surface 1, for locality.
  */
 export class HermiteSurfacePair {
-  private readonly bx = new Float64Array(4);
-  private readonly dbx = new Float64Array(4);
-  private readonly by = new Float64Array(4);
-  private readonly dby = new Float64Array(4);
   /** per node: 8 numbers (see the class comment) */
   private readonly c: Float64Array;
   private ci = 0;
@@ -142,11 +126,24 @@ export class HermiteSurfacePair {
     const i = (this.ci = findCell(gx, x, this.ci));
     const j = (this.cj = findCell(gy, y, this.cj));
     const hx = gx[i + 1]! - gx[i]!, hy = gy[j + 1]! - gy[j]!;
-    const bx = this.bx, dbx = this.dbx, by = this.by, dby = this.dby;
-    basis((x - gx[i]!) / hx, bx, dbx);
-    basis((y - gy[j]!) / hy, by, dby);
-    const bx0 = bx[0]!, bx1 = bx[1]!, gx0 = hx * bx[2]!, gx1 = hx * bx[3]!;
-    const by0 = by[0]!, by1 = by[1]!, gy0 = hy * by[2]!, gy1 = hy * by[3]!;
+    // the Hermite basis in x and y (cell coordinates u, v), continued linearly outside the cell
+    const u = (x - gx[i]!) / hx, v = (y - gy[j]!) / hy;
+    let bx0: number, bx1: number, gx0: number, gx1: number, ex0: number, ex1: number, ex2: number, ex3: number;
+    if (u < 0) { bx0 = 1; bx1 = 0; gx0 = hx * u; gx1 = 0; ex0 = 0; ex1 = 0; ex2 = 1; ex3 = 0; }
+    else if (u > 1) { bx0 = 0; bx1 = 1; gx0 = 0; gx1 = hx * (u - 1); ex0 = 0; ex1 = 0; ex2 = 0; ex3 = 1; }
+    else {
+      const u2 = u * u, u3 = u2 * u;
+      bx0 = 2 * u3 - 3 * u2 + 1; bx1 = 3 * u2 - 2 * u3; gx0 = hx * (u3 - 2 * u2 + u); gx1 = hx * (u3 - u2);
+      ex0 = (6 * u2 - 6 * u) / hx; ex1 = -ex0; ex2 = 3 * u2 - 4 * u + 1; ex3 = 3 * u2 - 2 * u;
+    }
+    let by0: number, by1: number, gy0: number, gy1: number, ey0: number, ey1: number, ey2: number, ey3: number;
+    if (v < 0) { by0 = 1; by1 = 0; gy0 = hy * v; gy1 = 0; ey0 = 0; ey1 = 0; ey2 = 1; ey3 = 0; }
+    else if (v > 1) { by0 = 0; by1 = 1; gy0 = 0; gy1 = hy * (v - 1); ey0 = 0; ey1 = 0; ey2 = 0; ey3 = 1; }
+    else {
+      const v2 = v * v, v3 = v2 * v;
+      by0 = 2 * v3 - 3 * v2 + 1; by1 = 3 * v2 - 2 * v3; gy0 = hy * (v3 - 2 * v2 + v); gy1 = hy * (v3 - v2);
+      ey0 = (6 * v2 - 6 * v) / hy; ey1 = -ey0; ey2 = 3 * v2 - 4 * v + 1; ey3 = 3 * v2 - 2 * v;
+    }
     const c = this.c;
     const k00 = 8 * (i * ny + j), k01 = k00 + 8, k10 = k00 + 8 * ny, k11 = k10 + 8;
     for (let s = 0; s < 8; s += 4) {
@@ -161,13 +158,12 @@ export class HermiteSurfacePair {
       const c1 = bx0 * y01 + bx1 * y11 + gx0 * z01 + gx1 * z11;
       out[s >> 2] = by0 * a0 + by1 * a1 + gy0 * c0 + gy1 * c1;
       if (d) {
-        const e0 = dbx[0]! / hx, e1 = dbx[1]! / hx, e2 = dbx[2]!, e3 = dbx[3]!;
-        const da0 = e0 * f00 + e1 * f10 + e2 * x00 + e3 * x10;
-        const da1 = e0 * f01 + e1 * f11 + e2 * x01 + e3 * x11;
-        const dc0 = e0 * y00 + e1 * y10 + e2 * z00 + e3 * z10;
-        const dc1 = e0 * y01 + e1 * y11 + e2 * z01 + e3 * z11;
+        const da0 = ex0 * f00 + ex1 * f10 + ex2 * x00 + ex3 * x10;
+        const da1 = ex0 * f01 + ex1 * f11 + ex2 * x01 + ex3 * x11;
+        const dc0 = ex0 * y00 + ex1 * y10 + ex2 * z00 + ex3 * z10;
+        const dc1 = ex0 * y01 + ex1 * y11 + ex2 * z01 + ex3 * z11;
         d[s >> 1] = by0 * da0 + by1 * da1 + gy0 * dc0 + gy1 * dc1;
-        d[(s >> 1) + 1] = (dby[0]! * a0 + dby[1]! * a1) / hy + dby[2]! * c0 + dby[3]! * c1;
+        d[(s >> 1) + 1] = ey0 * a0 + ey1 * a1 + ey2 * c0 + ey3 * c1;
       }
     }
   }

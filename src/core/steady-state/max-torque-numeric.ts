@@ -3,12 +3,14 @@
  * max-torque.ts): only the model's torque, steady voltage and incremental inductances are used. The
  * candidates are those of the closed-form search, each found numerically:
  *  - local maxima of torque along the current circle (64 samples, golden section, Newton polish),
- *    kept when the voltage fits (region 0; the best of them is MTPA at Imax);
+ *    kept when the voltage fits (region 0; the best of them is MTPA at Imax); found once per model,
+ *    Imax and sign and kept in the run's work (they do not depend on speed);
  *  - local maxima of torque along the voltage boundary, the boundary current by Newton on the
- *    steady voltage (64 samples of the voltage angle, golden section, polish), kept inside the
+ *    steady voltage (32 samples of the voltage angle, golden section, polish), kept inside the
  *    circle (region 2, MTPV);
- *  - crossings of the circle with the voltage boundary (256 samples; pairs hidden between samples
+ *  - crossings of the circle with the voltage boundary (64 samples; pairs hidden between samples
  *    by a golden-section minimum of |v|²), bisected to the last bit keeping the feasible end (region 1).
+ * Golden sections take 30 steps (the bracket shrinks to 2e-6 of itself) before the polish.
  * The best candidate wins. Morimoto, Takeda, Hirasa, Taniguchi (1990), Expansion of operating limits
  * for permanent magnet motor by current vector control considering inverter capacity, IEEE Trans.
  * Ind. Appl. 26(5).
@@ -39,17 +41,55 @@ export interface NumericMaxTorqueWork {
   readonly samples: Float64Array;
   readonly radius: Float64Array;
   readonly best: MaxTorqueResult;
+  /**
+   * The torque maxima along the current circle do not depend on speed: kept for the model, Imax and
+   * sign they were found for (a model's flux never changes), so an envelope finds them once.
+   */
+  readonly circle: CircleMaxima;
+}
+
+/** Local torque maxima along the circle of radius Imax: their angles, and the best (MTPA at Imax). */
+interface CircleMaxima {
+  model: MachineModel | null;
+  Imax: number;
+  sign: number;
+  count: number;
+  readonly t: Float64Array;
+  mtpaT: number;
+  mtpaJ: number;
 }
 
 const NC = 64;
-const NV = 64;
-const NX = 256;
-const GOLDEN_STEPS = 60;
+const NV = 32;
+const NX = 64;
+const GOLDEN_STEPS = 30;
 
 export const numericMaxTorqueWork = (): NumericMaxTorqueWork => ({
   s: numericScratch(), v: new Float64Array(2), c: new Float64Array(2), g: new Float64Array(2), L: new Float64Array(4),
   samples: new Float64Array(NX), radius: new Float64Array(NV), best: { ok: false, id: 0, iq: 0, J: -Infinity, region: 0 },
+  circle: { model: null, Imax: Number.NaN, sign: 0, count: 0, t: new Float64Array(NC), mtpaT: 0, mtpaJ: -Infinity },
 });
+
+/** The local torque maxima along the circle (golden section, Newton polish) into w.circle, unless already there. */
+function circleMaxima(m: MachineModel, Imax: number, sign: 1 | -1, w: NumericMaxTorqueWork): CircleMaxima {
+  const c = w.circle;
+  if (c.model === m && c.Imax === Imax && c.sign === sign) return c;
+  const jc = (t: number): number => sign * m.torque(Imax * Math.cos(t), Imax * Math.sin(t));
+  const h = (2 * Math.PI) / NC;
+  for (let k = 0; k < NC; k++) w.samples[k] = jc(k * h);
+  c.count = 0; c.mtpaJ = -Infinity; c.mtpaT = 0;
+  for (let k = 0; k < NC; k++) {
+    const a = w.samples[(k + NC - 1) % NC]!, b = w.samples[k]!, cc = w.samples[(k + 1) % NC]!;
+    if (!(b >= a && b >= cc)) continue;
+    goldenSectionMax(jc, (k - 1) * h, (k + 1) * h, GOLDEN_STEPS, w.g);
+    const t = polishMax(jc, w.g[0]!, (k - 1) * h, (k + 1) * h, 1e-3);
+    const j = jc(t);
+    if (j > c.mtpaJ) { c.mtpaJ = j; c.mtpaT = t; }
+    c.t[c.count++] = t;
+  }
+  c.model = m; c.Imax = Imax; c.sign = sign;
+  return c;
+}
 
 /** The largest sign*torque within Imax (may be Infinity) and Vmax at electrical speed we, into out. */
 export function maxTorqueNumeric(m: MachineModel, Vmax: number, Imax: number, we: number, sign: 1 | -1, out: MaxTorqueResult, w: NumericMaxTorqueWork, floor = 0): void {
@@ -68,17 +108,10 @@ export function maxTorqueNumeric(m: MachineModel, Vmax: number, Imax: number, we
   out.ok = false;
   if (finiteI) {
     // torque maxima along the circle; the best is MTPA at Imax: the answer when its voltage fits
-    const jc = (t: number): number => sign * m.torque(Imax * Math.cos(t), Imax * Math.sin(t));
-    const h = (2 * Math.PI) / NC;
-    for (let k = 0; k < NC; k++) w.samples[k] = jc(k * h);
-    let mtpaJ = -Infinity, mtpaT = 0;
-    for (let k = 0; k < NC; k++) {
-      const a = w.samples[(k + NC - 1) % NC]!, b = w.samples[k]!, c = w.samples[(k + 1) % NC]!;
-      if (!(b >= a && b >= c)) continue;
-      goldenSectionMax(jc, (k - 1) * h, (k + 1) * h, GOLDEN_STEPS, w.g);
-      const t = polishMax(jc, w.g[0]!, (k - 1) * h, (k + 1) * h, 1e-3);
-      const j = jc(t);
-      if (j > mtpaJ) { mtpaJ = j; mtpaT = t; }
+    const c = circleMaxima(m, Imax, sign, w);
+    const mtpaJ = c.mtpaJ, mtpaT = c.mtpaT;
+    for (let k = 0; k < c.count; k++) {
+      const t = c.t[k]!;
       if (v2(Imax * Math.cos(t), Imax * Math.sin(t)) <= vm2) offer(Imax * Math.cos(t), Imax * Math.sin(t), 0);
     }
     const id = Imax * Math.cos(mtpaT), iq = Imax * Math.sin(mtpaT);
