@@ -73,35 +73,47 @@ export class FluxMapModel implements MachineModel {
     this.surf = new HermiteSurfacePair(g.id, g.iq, hermiteNodes(g.id, g.iq, g.psid), hermiteNodes(g.id, g.iq, g.psiq));
   }
 
+  /** the last point evaluated, its flux (shift included) and derivatives: a solver's Newton step asks twice at one point */
+  private lastId = Number.NaN;
+  private lastIq = Number.NaN;
+  private readonly psi = new Float64Array(2);
+  private readonly dpsi = new Float64Array(4);
+
   /**
    * The C1 interpolant at (id, iq) (mathematics/hermite-surface.ts: bicubic Hermite with monotone
-   * slopes along the grid lines, continued linearly beyond the grid). Writes psi into out and, when
-   * dOut is given, the exact derivatives of the interpolant [dpsid/did, dpsid/diq, dpsiq/did, dpsiq/diq].
+   * slopes along the grid lines, continued linearly beyond the grid) into this.psi, and the exact
+   * derivatives of the interpolant [dpsid/did, dpsid/diq, dpsiq/did, dpsiq/diq] into this.dpsi;
+   * nothing to do when (id, iq) is the last point evaluated.
    */
-  private evalAt(id: number, iq: number, out: Float64Array, dOut: Float64Array | null): void {
-    this.surf.eval(id, iq, out, dOut);
-    out[0] = out[0]! + this.psidShift_Wb;
+  private evalAt(id: number, iq: number): void {
+    if (id === this.lastId && iq === this.lastIq) return;
+    this.surf.eval(id, iq, this.psi, this.dpsi);
+    this.psi[0] = this.psi[0]! + this.psidShift_Wb;
+    this.lastId = id;
+    this.lastIq = iq;
   }
 
   flux(id: number, iq: number, out: Float64Array): void {
-    this.evalAt(id, iq, out, null);
+    this.evalAt(id, iq);
+    out[0] = this.psi[0]!;
+    out[1] = this.psi[1]!;
   }
 
   torque(id: number, iq: number): number {
-    const f = this.s.b;
-    this.evalAt(id, iq, f, null);
-    return 1.5 * this.polePairs * (f[0]! * iq - f[1]! * id);
+    this.evalAt(id, iq);
+    return 1.5 * this.polePairs * (this.psi[0]! * iq - this.psi[1]! * id);
   }
 
   steadyVoltage(id: number, iq: number, we: number, out: Float64Array): void {
-    const f = this.s.b;
-    this.evalAt(id, iq, f, null);
-    out[0] = this.Rs * id - we * f[1]!;
-    out[1] = this.Rs * iq + we * f[0]!;
+    this.evalAt(id, iq);
+    out[0] = this.Rs * id - we * this.psi[1]!;
+    out[1] = this.Rs * iq + we * this.psi[0]!;
   }
 
   incrementalInductance(id: number, iq: number, out: Float64Array): void {
-    this.evalAt(id, iq, this.s.b, out);
+    this.evalAt(id, iq);
+    const d = this.dpsi;
+    out[0] = d[0]!; out[1] = d[1]!; out[2] = d[2]!; out[3] = d[3]!;
   }
 
   current(psid: number, psiq: number, out: Float64Array): void {

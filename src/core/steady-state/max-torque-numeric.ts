@@ -9,7 +9,8 @@
  *    steady voltage (32 samples of the voltage angle, golden section, polish), kept inside the
  *    circle (region 2, MTPV);
  *  - crossings of the circle with the voltage boundary (64 samples; pairs hidden between samples
- *    by a golden-section minimum of |v|²), bisected to the last bit keeping the feasible end (region 1).
+ *    by a golden-section minimum of |v|²), refined by the Illinois regula falsi to the last bit keeping
+ *    the feasible end (region 1).
  * Golden sections take 30 steps (the bracket shrinks to 2e-6 of itself) before the polish.
  * The best candidate wins. Morimoto, Takeda, Hirasa, Taniguchi (1990), Expansion of operating limits
  * for permanent magnet motor by current vector control considering inverter capacity, IEEE Trans.
@@ -146,14 +147,21 @@ export function maxTorqueNumeric(m: MachineModel, Vmax: number, Imax: number, we
   if (finiteI) {
     // crossings of the circle with the voltage boundary
     const g = (t: number): number => v2(Imax * Math.cos(t), Imax * Math.sin(t)) - vm2;
-    const cross = (a: number, b: number, ga: number): void => {
-      // bisection keeping the feasible end (g <= 0)
+    const cross = (a: number, b: number, ga: number, gb: number): void => {
+      // the Illinois variant of regula falsi, bracketing and keeping the feasible end (g <= 0) to the
+      // last bit; a bisection step whenever the false-position point is not strictly inside.
+      // Dowell and Jarratt (1971), A modified regula falsi method for computing the root of an equation, BIT 11.
       let lo = ga <= 0 ? a : b, hi = ga <= 0 ? b : a;
+      let glo = ga <= 0 ? ga : gb, ghi = ga <= 0 ? gb : ga;
+      let side = 0;
       for (let it = 0; it < 200; it++) {
-        const mid = 0.5 * (lo + hi);
+        let mid = lo - (glo * (hi - lo)) / (ghi - glo);
+        if (!(mid > Math.min(lo, hi) && mid < Math.max(lo, hi))) mid = 0.5 * (lo + hi);
         if (mid === lo || mid === hi) break;
-        if (g(mid) <= 0) lo = mid;
-        else hi = mid;
+        const gm = g(mid);
+        if (gm <= 0) { lo = mid; glo = gm; if (side === -1) ghi *= 0.5; side = -1; }
+        else { hi = mid; ghi = gm; if (side === 1) glo *= 0.5; side = 1; }
+        if (Math.abs(hi - lo) <= 2.3e-16 * Math.max(Math.abs(lo), Math.abs(hi))) break;
       }
       offer(Imax * Math.cos(lo), Imax * Math.sin(lo), 1);
     };
@@ -162,13 +170,13 @@ export function maxTorqueNumeric(m: MachineModel, Vmax: number, Imax: number, we
     for (let k = 0; k < NX; k++) {
       const k1 = (k + 1) % NX;
       const ga = w.samples[k]!, gb = w.samples[k1]!;
-      if ((ga <= 0) !== (gb <= 0)) cross(k * h, (k + 1) * h, ga);
+      if ((ga <= 0) !== (gb <= 0)) cross(k * h, (k + 1) * h, ga, gb);
       else if (ga > 0 && gb > 0 && ga <= gb && ga <= w.samples[(k + NX - 1) % NX]!) {
         // a pair of roots may hide around a sampled minimum
         const neg = (t: number): number => -g(t);
         goldenSectionMax(neg, (k - 1) * h, (k + 1) * h, GOLDEN_STEPS, w.g);
         const xm = w.g[0]!, gm = g(xm);
-        if (gm <= 0) { cross((k - 1) * h, xm, w.samples[(k + NX - 1) % NX]!); cross(xm, (k + 1) * h, gm); }
+        if (gm <= 0) { cross((k - 1) * h, xm, w.samples[(k + NX - 1) % NX]!, gm); cross(xm, (k + 1) * h, gm, gb); }
       }
     }
   }
