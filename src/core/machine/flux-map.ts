@@ -5,12 +5,11 @@
  * inductances); a map of iq >= 0 only is mirrored by the odd symmetry of psi_q in iq and the even
  * symmetry of psi_d. A magnet-temperature shift adds a constant to psi_d (see `fluxMapAt`).
  *
- * Interpolation: C1 bicubic Hermite (see `FluxMapModel.evalAt`). The inverse (current from flux) is Newton's method on the
- * interpolant with its exact derivatives, from the last answer or zero, bounded in steps and in
- * current.
+ * Interpolation: C1 bicubic Hermite (see `FluxMapModel.evalAt`). The inverse (current from flux) is
+ * Newton's method on the interpolant with its exact derivatives, from the last answer or zero,
+ * bounded in steps and in current (see `FluxMapModel.current`).
  */
 import type { MachineModel } from './machine-model';
-import { currentFromFluxNumeric, numericScratch, type NumericScratch } from './model-numeric';
 import { HermiteSurfacePair, hermiteNodes } from '../mathematics/hermite-surface';
 
 /** The map as a project file gives it: psid_Wb[i][j] at id_A[i], iq_A[j]; A peak, Wb peak. */
@@ -59,8 +58,7 @@ export class FluxMapModel implements MachineModel {
   readonly grid: FluxGrid;
   /** the interpolant of psi_d (surface 0) and psi_q (surface 1) */
   private readonly surf: HermiteSurfacePair;
-  /** the inverse's scratch and last answer (a model is used by one computation at a time) */
-  private readonly s: NumericScratch = numericScratch();
+  /** the inverse's last answer (a model is used by one computation at a time) */
   private readonly guess = new Float64Array(2);
 
   /**
@@ -116,16 +114,51 @@ export class FluxMapModel implements MachineModel {
     out[0] = d[0]!; out[1] = d[1]!; out[2] = d[2]!; out[3] = d[3]!;
   }
 
+  /**
+   * The current whose flux is (psid, psiq): Newton's method on the interpolant with its exact
+   * derivatives, from the last answer (then from zero current if that fails), each step bounded to a
+   * quarter of the grid's span and halved until the flux error shrinks, the iterate kept within the
+   * grid widened by its span on every side; to |delta i| <= 1e-13 (1 + |i|). Common practice (no source).
+   */
   current(psid: number, psiq: number, out: Float64Array): void {
-    out[0] = this.guess[0]!;
-    out[1] = this.guess[1]!;
-    if (currentFromFluxNumeric(this, psid, psiq, out, this.s) < 0) {
-      out[0] = 0;
-      out[1] = 0;
-      currentFromFluxNumeric(this, psid, psiq, out, this.s, 1e-13, 200);
+    const g = this.guess;
+    if (!this.newtonInverse(psid, psiq, g[0]!, g[1]!, out)) this.newtonInverse(psid, psiq, 0, 0, out);
+    g[0] = out[0]!;
+    g[1] = out[1]!;
+  }
+
+  /** One bounded Newton run from (id0, iq0) into out; true when it converged. */
+  private newtonInverse(psid: number, psiq: number, id0: number, iq0: number, out: Float64Array): boolean {
+    const gd = this.grid.id, gq = this.grid.iq;
+    const spanD = gd[gd.length - 1]! - gd[0]!, spanQ = gq[gq.length - 1]! - gq[0]!;
+    const loD = gd[0]! - spanD, hiD = gd[gd.length - 1]! + spanD, loQ = gq[0]! - spanQ, hiQ = gq[gq.length - 1]! + spanQ;
+    const maxStep = 0.25 * Math.max(spanD, spanQ);
+    let id = Math.min(hiD, Math.max(loD, id0)), iq = Math.min(hiQ, Math.max(loQ, iq0));
+    this.evalAt(id, iq);
+    let rd = psid - this.psi[0]!, rq = psiq - this.psi[1]!;
+    for (let k = 0; k < 60; k++) {
+      const L = this.dpsi;
+      const det = L[0]! * L[3]! - L[1]! * L[2]!;
+      if (!(Math.abs(det) > 0)) return false;
+      let dd = (L[3]! * rd - L[1]! * rq) / det, dq = (-L[2]! * rd + L[0]! * rq) / det;
+      const len = Math.abs(dd) + Math.abs(dq);
+      if (len > maxStep) { dd *= maxStep / len; dq *= maxStep / len; }
+      const r0 = Math.abs(rd) + Math.abs(rq);
+      let t = 1, nd = id, nq = iq;
+      for (let h = 0; h < 30; h++) {
+        nd = Math.min(hiD, Math.max(loD, id + t * dd));
+        nq = Math.min(hiQ, Math.max(loQ, iq + t * dq));
+        this.evalAt(nd, nq);
+        rd = psid - this.psi[0]!; rq = psiq - this.psi[1]!;
+        if (Math.abs(rd) + Math.abs(rq) < r0 || r0 === 0) break;
+        t *= 0.5;
+      }
+      const moved = Math.abs(nd - id) + Math.abs(nq - iq);
+      id = nd; iq = nq;
+      out[0] = id; out[1] = iq;
+      if (moved <= 1e-13 * (1 + Math.abs(id) + Math.abs(iq))) return true;
     }
-    this.guess[0] = out[0]!;
-    this.guess[1] = out[1]!;
+    return false;
   }
 }
 
