@@ -6,7 +6,8 @@ import { INVENTED_IPM_SATURATION, SaturationModel } from '../src/core/machine/sa
 import { evenGrid, sampleFluxMap } from '../src/core/machine/sample-flux-map';
 import { computeEnvelope, maxTorquePoint } from '../src/core/steady-state/envelope';
 import { solveOperatingPoint } from '../src/core/steady-state/operating-point';
-import { mtpaCurrentForTorque } from '../src/core/steady-state/mtpa';
+import { mtpaCurrentForTorque, mtpvPoint } from '../src/core/steady-state/mtpa';
+import { sizeDrive } from '../src/core/steady-state/sizing';
 import { demoCases, expectClose } from './model-paths';
 
 // The invented saturating IPM (Hinkkanen, Pescetto, Mölsä, Saarakkala, Pellegrino, Ortombina (2017),
@@ -39,6 +40,30 @@ describe('envelope on a 41 x 41 flux map against the continuous saturation model
       expect(Math.abs(computeEnvelope(unsat, lim, opts).torque[0]!)).toBeGreaterThan(1.1 * Math.abs(exact.torque[0]!));
     });
   }
+});
+
+describe('sizing and MTPV on the 41 x 41 map against the saturation model itself (Morimoto et al. (1990), IEEE Trans. Ind. Appl. 26(5))', () => {
+  it('least peak current, continuous current and bus within 0.1 %; the MTPV point within 0.1 % of Imax', () => {
+    const fm = new FluxMapModel(map41, 4, 0.02);
+    const inv = { Vdc: 350, Imax: 450, Icont: 226, modulation: 'svpwm' as const, voltageUtilization: 0.95, deviceDrop: 1 };
+    const reqs = [
+      { label: 'hill start', speed_rpm: 500, torque_Nm: 250 },
+      { label: 'rated', speed_rpm: 3000, torque_Nm: 90, duty: 'continuous' as const },
+      { label: 'field weakening', speed_rpm: 3500, torque_Nm: 160 },
+      { label: 'braking', speed_rpm: 6000, torque_Nm: -60 },
+      { label: 'top speed', speed_rpm: 12000, torque_Nm: 41 },
+    ];
+    const a = sizeDrive(sat, inv, reqs), b = sizeDrive(fm, inv, reqs);
+    expect(a.minImax).not.toBeNull();
+    expect(Math.abs(b.minImax! - a.minImax!) / a.minImax!).toBeLessThan(1e-3);
+    expect(Math.abs(b.minIcont! - a.minIcont!) / a.minIcont!).toBeLessThan(1e-3);
+    expect(Math.abs(b.minVdc! - a.minVdc!) / a.minVdc!).toBeLessThan(1e-3);
+    b.points.forEach((p, k) => expect(p.met).toBe(a.points[k]!.met));
+    const w = (10000 * Math.PI) / 30;
+    const pa = mtpvPoint(sat, 190, w, 1, true)!, pb = mtpvPoint(fm, 190, w, 1, true)!;
+    expect(Math.abs(pb.id - pa.id) + Math.abs(pb.iq - pa.iq)).toBeLessThan(0.45);
+    expect(Math.abs(pb.torque - pa.torque) / pa.torque).toBeLessThan(1e-3);
+  });
 });
 
 describe('a flux map generated from constant Ld, Lq, psiM gives the closed forms\' results within 1e-6 (common practice (no source): the interpolant is exact on affine data)', () => {
