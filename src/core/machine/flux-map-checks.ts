@@ -11,8 +11,9 @@ import type { MachineModel } from './machine-model';
 
 /**
  * max over the grid of |Ldq - Lqd| / sqrt(Ldd Lqq) (incremental inductances of the model; 0 for a
- * reciprocal model up to the interpolation's error, a few per cent or more for a map that cannot come
- * from a lossless field). NaN when an incremental self-inductance is not positive.
+ * reciprocal model up to the interpolation's error: 0.004 at the nodes of the fourth demo's 41 x 41
+ * map, whose source is reciprocal, against 0.66 when its psi_q gains 0.1 mH x id iq / 450 A, so a
+ * threshold of a few per cent separates them). NaN when an incremental self-inductance is not positive.
  */
 export function reciprocityError(model: MachineModel, ids: readonly number[], iqs: readonly number[]): number {
   const L = new Float64Array(4);
