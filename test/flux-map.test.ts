@@ -94,3 +94,10 @@ describe('a flux map of a saturating machine (Hinkkanen et al. (2017), IEEE Tran
     }
   });
 });
+
+describe('a map too small to interpolate', () => {
+  it('is refused naming the field (common practice (no source): a cell needs two points per axis)', () => {
+    const one: FluxMapData = { magnetTemp_C: 20, id_A: [0], iq_A: [0, 10], psid_Wb: [[0.06, 0.06]], psiq_Wb: [[0, 0.01]] };
+    expect(() => new FluxMapModel(one, 4, 0.02)).toThrow(/fluxMap/);
+  });
+});

@@ -10,6 +10,7 @@
  * bounded in steps and in current (see `FluxMapModel.current`).
  */
 import type { MachineModel } from './machine-model';
+import { InputError } from '../base/errors';
 import { HermiteSurfacePair, hermiteNodes } from '../mathematics/hermite-surface';
 
 /** The map as a project file gives it: psid_Wb[i][j] at id_A[i], iq_A[j]; A peak, Wb peak. */
@@ -68,6 +69,7 @@ export class FluxMapModel implements MachineModel {
   constructor(readonly data: FluxMapData, readonly polePairs: number, readonly Rs: number, readonly psidShift_Wb = 0) {
     this.grid = fullPlaneGrid(data);
     const g = this.grid;
+    if (g.id.length < 2 || g.iq.length < 2) throw new InputError('motor.fluxMap', 'needs at least 2 points along id_A and along iq_A (after mirroring a map of iq >= 0)');
     this.surf = new HermiteSurfacePair(g.id, g.iq, hermiteNodes(g.id, g.iq, g.psid), hermiteNodes(g.id, g.iq, g.psiq));
   }
 
