@@ -5,6 +5,7 @@
  * `--only WORD` runs only the sections whose name contains WORD (e.g. `npm run bench -- --only simulation`).
  */
 import { envelopeBench } from './envelope';
+import { fluxMapEnvelopeBench } from './flux-map-envelope';
 import { simulateBench, simulateMapBench } from './simulate';
 import { cliStartBench } from './cli-start';
 import { againstCheckout } from './against-checkout';
@@ -14,7 +15,7 @@ export interface BenchSection {
   run: () => void | Promise<void>;
 }
 
-const sections: BenchSection[] = [envelopeBench, simulateBench, simulateMapBench, cliStartBench];
+const sections: BenchSection[] = [envelopeBench, fluxMapEnvelopeBench, simulateBench, simulateMapBench, cliStartBench];
 
 const argv = process.argv.slice(2);
 const onlyAt = argv.indexOf('--only');

@@ -5,12 +5,13 @@
  * inductances); a map of iq >= 0 only is mirrored by the odd symmetry of psi_q in iq and the even
  * symmetry of psi_d. A magnet-temperature shift adds a constant to psi_d (see `fluxMapAt`).
  *
- * Interpolation: see `FluxMapModel.flux`. The inverse (current from flux) is Newton's method on the
- * interpolant with its exact derivatives, from the last answer or zero, bounded in steps and in
- * current.
+ * Interpolation: C1 bicubic Hermite (see `FluxMapModel.evalAt`). The inverse (current from flux) is
+ * Newton's method on the interpolant with its exact derivatives, from the last answer or zero,
+ * bounded in steps and in current (see `FluxMapModel.current`).
  */
 import type { MachineModel } from './machine-model';
-import { currentFromFluxNumeric, numericScratch, type NumericScratch } from './model-numeric';
+import { InputError } from '../base/errors';
+import { HermiteSurfacePair, hermiteNodes } from '../mathematics/hermite-surface';
 
 /** The map as a project file gives it: psid_Wb[i][j] at id_A[i], iq_A[j]; A peak, Wb peak. */
 export interface FluxMapData {
@@ -53,23 +54,12 @@ export function fullPlaneGrid(d: FluxMapData): FluxGrid {
   return { id: Float64Array.from(d.id_A), iq: Float64Array.from(iqs), psid, psiq };
 }
 
-/** The cell index k of x on an ascending grid (x clamped into the grid): g[k] <= x <= g[k+1]. */
-function cell(g: Float64Array, x: number): number {
-  let lo = 0, hi = g.length - 1;
-  if (x <= g[0]!) return 0;
-  if (x >= g[hi]!) return hi - 1;
-  while (hi - lo > 1) {
-    const mid = (lo + hi) >> 1;
-    if (g[mid]! <= x) lo = mid; else hi = mid;
-  }
-  return lo;
-}
-
 export class FluxMapModel implements MachineModel {
   readonly linear = null;
   readonly grid: FluxGrid;
-  /** the inverse's scratch and last answer (a model is used by one computation at a time) */
-  private readonly s: NumericScratch = numericScratch();
+  /** the interpolant of psi_d (surface 0) and psi_q (surface 1) */
+  private readonly surf: HermiteSurfacePair;
+  /** the inverse's last answer (a model is used by one computation at a time) */
   private readonly guess = new Float64Array(2);
 
   /**
@@ -78,64 +68,99 @@ export class FluxMapModel implements MachineModel {
    */
   constructor(readonly data: FluxMapData, readonly polePairs: number, readonly Rs: number, readonly psidShift_Wb = 0) {
     this.grid = fullPlaneGrid(data);
+    const g = this.grid;
+    if (g.id.length < 2 || g.iq.length < 2) throw new InputError('motor.fluxMap', 'needs at least 2 points along id_A and along iq_A (after mirroring a map of iq >= 0)');
+    this.surf = new HermiteSurfacePair(g.id, g.iq, hermiteNodes(g.id, g.iq, g.psid), hermiteNodes(g.id, g.iq, g.psiq));
   }
 
+  /** the last point evaluated, its flux (shift included) and derivatives: a solver's Newton step asks twice at one point */
+  private lastId = Number.NaN;
+  private lastIq = Number.NaN;
+  private readonly psi = new Float64Array(2);
+  private readonly dpsi = new Float64Array(4);
+
   /**
-   * Bilinear interpolation in the cell holding (id, iq), extended linearly beyond the grid (the
-   * edge cells' planes). Writes psi into out and, when dOut is given, the exact derivatives of the
-   * interpolant [dpsid/did, dpsid/diq, dpsiq/did, dpsiq/diq].
+   * The C1 interpolant at (id, iq) (mathematics/hermite-surface.ts: bicubic Hermite with monotone
+   * slopes along the grid lines, continued linearly beyond the grid) into this.psi, and the exact
+   * derivatives of the interpolant [dpsid/did, dpsid/diq, dpsiq/did, dpsiq/diq] into this.dpsi;
+   * nothing to do when (id, iq) is the last point evaluated.
    */
-  private evalAt(id: number, iq: number, out: Float64Array, dOut: Float64Array | null): void {
-    const g = this.grid;
-    const nq = g.iq.length;
-    const i = cell(g.id, id), j = cell(g.iq, iq);
-    const x0 = g.id[i]!, x1 = g.id[i + 1]!, y0 = g.iq[j]!, y1 = g.iq[j + 1]!;
-    const hx = x1 - x0, hy = y1 - y0;
-    const u = (id - x0) / hx, v = (iq - y0) / hy;
-    const k00 = i * nq + j, k10 = k00 + nq;
-    for (let c = 0; c < 2; c++) {
-      const t = c === 0 ? g.psid : g.psiq;
-      const a = t[k00]!, b = t[k10]!, cc = t[k00 + 1]!, d = t[k10 + 1]!;
-      out[c] = (1 - u) * (1 - v) * a + u * (1 - v) * b + (1 - u) * v * cc + u * v * d;
-      if (dOut) {
-        dOut[2 * c] = ((1 - v) * (b - a) + v * (d - cc)) / hx;
-        dOut[2 * c + 1] = ((1 - u) * (cc - a) + u * (d - b)) / hy;
-      }
-    }
-    out[0] = out[0]! + this.psidShift_Wb;
+  private evalAt(id: number, iq: number): void {
+    if (id === this.lastId && iq === this.lastIq) return;
+    this.surf.eval(id, iq, this.psi, this.dpsi);
+    this.psi[0] = this.psi[0]! + this.psidShift_Wb;
+    this.lastId = id;
+    this.lastIq = iq;
   }
 
   flux(id: number, iq: number, out: Float64Array): void {
-    this.evalAt(id, iq, out, null);
+    this.evalAt(id, iq);
+    out[0] = this.psi[0]!;
+    out[1] = this.psi[1]!;
   }
 
   torque(id: number, iq: number): number {
-    const f = this.s.b;
-    this.evalAt(id, iq, f, null);
-    return 1.5 * this.polePairs * (f[0]! * iq - f[1]! * id);
+    this.evalAt(id, iq);
+    return 1.5 * this.polePairs * (this.psi[0]! * iq - this.psi[1]! * id);
   }
 
   steadyVoltage(id: number, iq: number, we: number, out: Float64Array): void {
-    const f = this.s.b;
-    this.evalAt(id, iq, f, null);
-    out[0] = this.Rs * id - we * f[1]!;
-    out[1] = this.Rs * iq + we * f[0]!;
+    this.evalAt(id, iq);
+    out[0] = this.Rs * id - we * this.psi[1]!;
+    out[1] = this.Rs * iq + we * this.psi[0]!;
   }
 
   incrementalInductance(id: number, iq: number, out: Float64Array): void {
-    this.evalAt(id, iq, this.s.b, out);
+    this.evalAt(id, iq);
+    const d = this.dpsi;
+    out[0] = d[0]!; out[1] = d[1]!; out[2] = d[2]!; out[3] = d[3]!;
   }
 
+  /**
+   * The current whose flux is (psid, psiq): Newton's method on the interpolant with its exact
+   * derivatives, from the last answer (then from zero current if that fails), each step bounded to a
+   * quarter of the grid's span and halved until the flux error shrinks, the iterate kept within the
+   * grid widened by its span on every side; to |delta i| <= 1e-13 (1 + |i|). Common practice (no source).
+   */
   current(psid: number, psiq: number, out: Float64Array): void {
-    out[0] = this.guess[0]!;
-    out[1] = this.guess[1]!;
-    if (currentFromFluxNumeric(this, psid, psiq, out, this.s) < 0) {
-      out[0] = 0;
-      out[1] = 0;
-      currentFromFluxNumeric(this, psid, psiq, out, this.s, 1e-13, 200);
+    const g = this.guess;
+    if (!this.newtonInverse(psid, psiq, g[0]!, g[1]!, out)) this.newtonInverse(psid, psiq, 0, 0, out);
+    g[0] = out[0]!;
+    g[1] = out[1]!;
+  }
+
+  /** One bounded Newton run from (id0, iq0) into out; true when it converged. */
+  private newtonInverse(psid: number, psiq: number, id0: number, iq0: number, out: Float64Array): boolean {
+    const gd = this.grid.id, gq = this.grid.iq;
+    const spanD = gd[gd.length - 1]! - gd[0]!, spanQ = gq[gq.length - 1]! - gq[0]!;
+    const loD = gd[0]! - spanD, hiD = gd[gd.length - 1]! + spanD, loQ = gq[0]! - spanQ, hiQ = gq[gq.length - 1]! + spanQ;
+    const maxStep = 0.25 * Math.max(spanD, spanQ);
+    let id = Math.min(hiD, Math.max(loD, id0)), iq = Math.min(hiQ, Math.max(loQ, iq0));
+    this.evalAt(id, iq);
+    let rd = psid - this.psi[0]!, rq = psiq - this.psi[1]!;
+    for (let k = 0; k < 60; k++) {
+      const L = this.dpsi;
+      const det = L[0]! * L[3]! - L[1]! * L[2]!;
+      if (!(Math.abs(det) > 0)) return false;
+      let dd = (L[3]! * rd - L[1]! * rq) / det, dq = (-L[2]! * rd + L[0]! * rq) / det;
+      const len = Math.abs(dd) + Math.abs(dq);
+      if (len > maxStep) { dd *= maxStep / len; dq *= maxStep / len; }
+      const r0 = Math.abs(rd) + Math.abs(rq);
+      let t = 1, nd = id, nq = iq;
+      for (let h = 0; h < 30; h++) {
+        nd = Math.min(hiD, Math.max(loD, id + t * dd));
+        nq = Math.min(hiQ, Math.max(loQ, iq + t * dq));
+        this.evalAt(nd, nq);
+        rd = psid - this.psi[0]!; rq = psiq - this.psi[1]!;
+        if (Math.abs(rd) + Math.abs(rq) < r0 || r0 === 0) break;
+        t *= 0.5;
+      }
+      const moved = Math.abs(nd - id) + Math.abs(nq - iq);
+      id = nd; iq = nq;
+      out[0] = id; out[1] = iq;
+      if (moved <= 1e-13 * (1 + Math.abs(id) + Math.abs(iq))) return true;
     }
-    this.guess[0] = out[0]!;
-    this.guess[1] = out[1]!;
+    return false;
   }
 }
 

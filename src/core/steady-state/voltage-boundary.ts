@@ -24,12 +24,14 @@ export function currentOnVoltageBoundaryLinear(L: LinearTerms, Rs: number, Vmax:
 
 /**
  * Numeric path: Newton from the current in `out` (a warm start; zero when not finite) to
- * |delta i| <= tol (1 + |i|). Returns the iterations used, or -1 when it did not converge (a singular
+ * |delta i| <= tol (1 + |i|), or until the next correction predicted from quadratic convergence
+ * (step² / previous step, once a step is under 1 % of the one before) is below that. Returns the iterations used, or -1 when it did not converge (a singular
  * Jacobian or maxIter reached; out then holds the last iterate). Common practice (no source).
  */
 export function currentOnVoltageBoundaryNumeric(m: MachineModel, Vmax: number, we: number, phi: number, out: Float64Array, s: NumericScratch, tol = 1e-14, maxIter = 50): number {
   if (!(Number.isFinite(out[0]!) && Number.isFinite(out[1]!))) { out[0] = 0; out[1] = 0; }
   const ud = Vmax * Math.cos(phi), uq = Vmax * Math.sin(phi);
+  let prev = Infinity;
   for (let k = 1; k <= maxIter; k++) {
     const id = out[0]!, iq = out[1]!;
     m.steadyVoltage(id, iq, we, s.a);
@@ -43,7 +45,11 @@ export function currentOnVoltageBoundaryNumeric(m: MachineModel, Vmax: number, w
     const dq = (-j10 * rd + j00 * rq) / det;
     out[0] = id + dd;
     out[1] = iq + dq;
-    if (Math.abs(dd) + Math.abs(dq) <= tol * (1 + Math.abs(out[0]!) + Math.abs(out[1]!))) return k;
+    const step = Math.abs(dd) + Math.abs(dq), scale = tol * (1 + Math.abs(out[0]!) + Math.abs(out[1]!));
+    if (step <= scale) return k;
+    // converging quadratically: the next correction, about step² / previous step, is already below tol
+    if (k > 1 && step < 0.01 * prev && (step * step) / prev <= scale) return k;
+    prev = step;
   }
   return -1;
 }

@@ -1,0 +1,13 @@
+import { loadProjectText } from './src/core/project/project';
+import { buildReferenceTable } from './src/core/control/reference-table';
+import { solveOperatingPoint } from './src/core/steady-state/operating-point';
+import { maxTorquePoint } from './src/core/steady-state/envelope';
+import { computeEnvelope } from './src/core/steady-state/envelope';
+import { constProject, tabulate, grid } from './test/flux-map-fixtures';
+const f = constProject();
+const m = f.motor; f.motor = { polePairs: m.polePairs, Rs: m.Rs, inertia: m.inertia, viscousFriction: m.viscousFriction, coulombFriction: m.coulombFriction, maxSpeed_rpm: m.maxSpeed_rpm, fluxMap: tabulate(m, grid(-600, 600, 41), grid(0, 600, 21).filter(x=>x>=0)) };
+const p = loadProjectText(JSON.stringify(f));
+let t = performance.now(); computeEnvelope(p.models.hot, p.peak, { points: 400 }); console.log('envelope ms', performance.now() - t);
+t = performance.now(); for (let k = 0; k < 100; k++) solveOperatingPoint(p.models.hot, p.peak, 500 + k * 5, 100); console.log('op ms each', (performance.now() - t) / 100);
+t = performance.now(); for (let k = 0; k < 100; k++) maxTorquePoint(p.models.hot, p.peak, 500 + k * 5, 'motoring'); console.log('maxT ms each', (performance.now() - t) / 100);
+t = performance.now(); buildReferenceTable(p.models.hot, p.peak, { speedMax_rad_s: 1500 }); console.log('table ms', performance.now() - t);
