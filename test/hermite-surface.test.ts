@@ -16,7 +16,7 @@ describe('bicubic Hermite surface with monotone slopes', () => {
   it('reproduces bilinear data exactly, inside and beyond the grid (common practice (no source))', () => {
     const s = surface((a, b) => 1 + 2 * a - 3 * b + 0.5 * a * b, (a, b) => -a + 4 * b);
     for (const [a, b] of [[0.3, 0.2], [-2.9, 2.9], [3.4, -1.9], [4, 3.3], [-3.5, -2.5]] as const) {
-      s.eval(a, b, o, d);
+      s.evaluate(a, b, o, d);
       expect(o[0]).toBeCloseTo(1 + 2 * a - 3 * b + 0.5 * a * b, 12);
       expect(o[1]).toBeCloseTo(-a + 4 * b, 12);
       expect(d[0]).toBeCloseTo(2 + 0.5 * b, 12);
@@ -30,12 +30,12 @@ describe('bicubic Hermite surface with monotone slopes', () => {
     const s = surface((a, b) => Math.tanh(a) * Math.exp(-0.2 * b * b), (a, b) => Math.sin(a + b) + b * b * b / 9);
     const h = 1e-6;
     for (const [a, b] of [[0.3, 0.2], [-1.7, 1.9], [2.5, -1.5], [3.9, 0.1], [-3.2, 3.3]] as const) {
-      s.eval(a, b, o, d);
+      s.evaluate(a, b, o, d);
       const D = [...d];
-      s.eval(a + h, b, o, null); const px = [o[0]!, o[1]!];
-      s.eval(a - h, b, o, null); const mx = [o[0]!, o[1]!];
-      s.eval(a, b + h, o, null); const py = [o[0]!, o[1]!];
-      s.eval(a, b - h, o, null); const my = [o[0]!, o[1]!];
+      s.evaluate(a + h, b, o, null); const px = [o[0]!, o[1]!];
+      s.evaluate(a - h, b, o, null); const mx = [o[0]!, o[1]!];
+      s.evaluate(a, b + h, o, null); const py = [o[0]!, o[1]!];
+      s.evaluate(a, b - h, o, null); const my = [o[0]!, o[1]!];
       expect(D[0]).toBeCloseTo((px[0]! - mx[0]!) / (2 * h), 6);
       expect(D[1]).toBeCloseTo((py[0]! - my[0]!) / (2 * h), 6);
       expect(D[2]).toBeCloseTo((px[1]! - mx[1]!) / (2 * h), 6);
@@ -43,8 +43,8 @@ describe('bicubic Hermite surface with monotone slopes', () => {
     }
     // across the edge x = 0.7 and y = 0.4: value and both derivatives continuous
     for (const [a, b, da, db] of [[0.7, 1, 1e-10, 0], [-0.3, 0.4, 0, 1e-10]] as const) {
-      s.eval(a - da, b - db, o, d); const l = [o[0]!, ...d];
-      s.eval(a + da, b + db, o, d); const r = [o[0]!, ...d];
+      s.evaluate(a - da, b - db, o, d); const l = [o[0]!, ...d];
+      s.evaluate(a + da, b + db, o, d); const r = [o[0]!, ...d];
       for (let k = 0; k < 5; k++) expect(Math.abs(l[k]! - r[k]!)).toBeLessThan(1e-8);
     }
   });
@@ -53,7 +53,7 @@ describe('bicubic Hermite surface with monotone slopes', () => {
     const s = surface((a) => (a < 0 ? 0 : 1), (a, b) => b);
     let prev = -Infinity;
     for (let a = -3; a <= 3.5; a += 0.01) {
-      s.eval(a, 0.4, o, null);
+      s.evaluate(a, 0.4, o, null);
       expect(o[0]).toBeGreaterThanOrEqual(-1e-15);
       expect(o[0]).toBeLessThanOrEqual(1 + 1e-15);
       expect(o[0]!).toBeGreaterThanOrEqual(prev - 1e-15);
@@ -69,7 +69,7 @@ describe('bicubic Hermite surface with monotone slopes', () => {
       for (let i = 0; i < n; i++) for (let j = 0; j < n; j++) F[i * n + j] = f(gx[i]!, gx[j]!);
       const s = new HermiteSurfacePair(gx, gx, hermiteNodes(gx, gx, F), hermiteNodes(gx, gx, F));
       let e = 0;
-      for (let a = -0.97; a < 1; a += 0.0731) for (let b = -0.95; b < 1; b += 0.0677) { s.eval(a, b, o, null); e = Math.max(e, Math.abs(o[0]! - f(a, b))); }
+      for (let a = -0.97; a < 1; a += 0.0731) for (let b = -0.95; b < 1; b += 0.0677) { s.evaluate(a, b, o, null); e = Math.max(e, Math.abs(o[0]! - f(a, b))); }
       return e;
     };
     const e1 = err(11), e2 = err(21);

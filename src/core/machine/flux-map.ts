@@ -87,7 +87,7 @@ export class FluxMapModel implements MachineModel {
    */
   private evalAt(id: number, iq: number): void {
     if (id === this.lastId && iq === this.lastIq) return;
-    this.surf.eval(id, iq, this.psi, this.dpsi);
+    this.surf.evaluate(id, iq, this.psi, this.dpsi);
     this.psi[0] = this.psi[0]! + this.psidShift_Wb;
     this.lastId = id;
     this.lastIq = iq;

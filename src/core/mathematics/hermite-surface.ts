@@ -121,7 +121,7 @@ export class HermiteSurfacePair {
    * Values of both surfaces at (x, y) into out[0], out[1]; when d is given, [df/dx, df/dy] of surface
    * s into d[2s], d[2s + 1] (the exact derivatives of the interpolant).
    */
-  eval(x: number, y: number, out: Float64Array, d: Float64Array | null): void {
+  evaluate(x: number, y: number, out: Float64Array, d: Float64Array | null): void {
     const gx = this.x, gy = this.y, ny = gy.length;
     const i = (this.ci = findCell(gx, x, this.ci));
     const j = (this.cj = findCell(gy, y, this.cj));
