@@ -10,7 +10,7 @@ import { mtpaCurrentForTorque, mtpvPoint } from '../src/core/steady-state/mtpa';
 import { sizeDrive } from '../src/core/steady-state/sizing';
 import { demoCases, expectClose } from './model-paths';
 
-// The invented saturating IPM (Hinkkanen, Pescetto, Mölsä, Saarakkala, Pellegrino, Ortombina (2017),
+// The invented saturating IPM (Hinkkanen, Pescetto, Mölsä, Saarakkala, Pellegrino, Bojoi (2017),
 // Sensorless self-commissioning of synchronous reluctance motors at standstill without rotor locking,
 // IEEE Trans. Ind. Appl. 53(3), with the magnet as a d-axis current), on a 350 V bus with 450 A peak.
 const sat = new SaturationModel(INVENTED_IPM_SATURATION, 4, 0.02);

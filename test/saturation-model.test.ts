@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { INVENTED_IPM_SATURATION, SaturationModel } from '../src/core/machine/saturation-model';
 
-// Hinkkanen, Pescetto, Mölsä, Saarakkala, Pellegrino, Ortombina (2017), Sensorless self-commissioning of
+// Hinkkanen, Pescetto, Mölsä, Saarakkala, Pellegrino, Bojoi (2017), Sensorless self-commissioning of
 // synchronous reluctance motors at standstill without rotor locking, IEEE Trans. Ind. Appl. 53(3): current
 // as a closed-form function of flux, the gradient of one magnetic energy (reciprocal by construction).
 const m = new SaturationModel(INVENTED_IPM_SATURATION, 4, 0.02);

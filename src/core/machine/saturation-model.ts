@@ -1,7 +1,7 @@
 /**
  * An algebraic saturation model: current as a closed-form function of flux, the gradient of one
  * magnetic energy function W(psi), hence reciprocal (d psi_d/d i_q = d psi_q/d i_d) by construction.
- * Hinkkanen, Pescetto, Mölsä, Saarakkala, Pellegrino, Ortombina (2017), Sensorless self-commissioning
+ * Hinkkanen, Pescetto, Mölsä, Saarakkala, Pellegrino, Bojoi (2017), Sensorless self-commissioning
  * of synchronous reluctance motors at standstill without rotor locking, IEEE Trans. Ind. Appl. 53(3):
  *
  *   i_d = (a_d0 + a_dd |psi_d|^S + a_dq/(V+2) |psi_d|^U |psi_q|^(V+2)) psi_d - i_f
