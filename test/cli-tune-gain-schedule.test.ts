@@ -42,7 +42,7 @@ describe('tune with a flux map', () => {
     expect(Number(last[0])).toBe(450);
     // 450 A peak is 318.2 A rms (peak / sqrt 2): common practice (no source)
     expect(Number(last[1])).toBeCloseTo(318.2, 1);
-    expect(r.out).toMatch(/Current-loop gains against current along MTPA/);
+    expect(r.out).toMatch(/current-loop gains against current: Along MTPA \(motoring\)/);
   });
 
   it('constant-parameter demos: no gainSchedule key and no table', async () => {

@@ -28,7 +28,7 @@ describe('gain schedule table', () => {
   it('the caption states the design rule and the crossover; different bandwidths per axis are named', () => {
     // Kp = L omega_c, Ki = Rs omega_c: Harnefors and Nee (1998), "Model-based current control of AC
     // machines using the internal model control method", IEEE Trans. Ind. Appl. 34(1)
-    expect(gainScheduleCaption(s)).toMatch(/Kp = L_inc·ωc, Ki = Rs·ωc with Rs 0\.05 Ω, crossover kept at 600 Hz on both axes/);
+    expect(gainScheduleCaption(s)).toMatch(/Kp = L_inc·ωc, Ki = Rs·ωc with Rs 0\.05 Ω \(hot winding\), crossover kept at 600 Hz on both axes/);
     expect(gainScheduleCaption({ ...s, bandwidthQ_Hz: 212.2 })).toMatch(/600 Hz on d, 212\.2 Hz on q/);
     expect(CONSTANT_GAINS_LINE).toMatch(/do not change with current/);
   });

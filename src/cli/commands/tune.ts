@@ -53,7 +53,7 @@ export const tuneCommand: Command = {
       ...(r.warnings.length === 0 ? ['warnings: none'] : ['warnings:', ...r.warnings.map((w) => `  ${findingLine(w)}`)]),
       'margins of the sampled loop as the controller runs it (discrete PI, zero-order hold, winding discretised, delay of whole periods), up to half the loop\'s sample rate;',
       'the last column is the continuous approximation (delay e^{-s Td}) for comparison. Cautions: phase margin under 45 deg (danger under 30 deg), gain margin under 6 dB, closed-loop peaking above 3 dB.',
-      ...(schedule ? ['', gainScheduleCaption(schedule), '', ...table(GAIN_SCHEDULE_COLUMNS.map((c) => c.header), gainScheduleCells(schedule))] : []),
+      ...(schedule ? ['', `current-loop gains against current: ${gainScheduleCaption(schedule)}`, '', ...table(GAIN_SCHEDULE_COLUMNS.map((c) => c.header), gainScheduleCells(schedule))] : []),
     ];
     return { json: tuningJson(r, args.flags.has('bode'), schedule), lines };
   },

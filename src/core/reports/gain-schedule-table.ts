@@ -34,12 +34,12 @@ export function gainScheduleCells(s: GainSchedule): number[][] {
 
 const g = (x: number): string => String(Number(x.toPrecision(4)));
 
-/** The sentence above the table: where the gains come from and what they keep. */
+/** The sentence above the table (under its title): where the gains come from and what they keep. */
 export function gainScheduleCaption(s: GainSchedule): string {
   const bw = s.bandwidthD_Hz === s.bandwidthQ_Hz ? `${g(s.bandwidthD_Hz)} Hz on both axes` : `${g(s.bandwidthD_Hz)} Hz on d, ${g(s.bandwidthQ_Hz)} Hz on q`;
   return (
-    `Current-loop gains against current along MTPA (motoring), from the incremental inductances of the flux map at each point: ` +
-    `Kp = L_inc·ωc, Ki = Rs·ωc with Rs ${g(s.Rs_ohm)} Ω, crossover kept at ${bw}; the gains a firmware would schedule.`
+    `Along MTPA (motoring), from the incremental inductances of the flux map at each point: ` +
+    `Kp = L_inc·ωc, Ki = Rs·ωc with Rs ${g(s.Rs_ohm)} Ω (hot winding), crossover kept at ${bw}; the gains a firmware would schedule.`
   );
 }
 
