@@ -1,8 +1,10 @@
 import type { Command } from '../command';
 import { table, fmt, orDash } from '../table';
-import { tuneFromProject, tuningInputFromProject } from '../../core/project/tuning-from-project';
+import { gainScheduleFromProject, tuneFromProject, tuningInputFromProject } from '../../core/project/tuning-from-project';
 import type { LoopReport, TuningReport } from '../../core/control/tuning';
+import type { GainSchedule } from '../../core/control/gain-schedule';
 import { findingLine } from '../../core/reports/phrases';
+import { GAIN_SCHEDULE_COLUMNS, gainScheduleCaption, gainScheduleCells } from '../../core/reports/gain-schedule-table';
 
 function loopJson(l: LoopReport, withBode: boolean) {
   const { bode, ...rest } = l;
@@ -10,7 +12,7 @@ function loopJson(l: LoopReport, withBode: boolean) {
 }
 
 /** The tune command's JSON document: gains, bandwidths, margins, warnings (Bode data with --bode). */
-export function tuningJson(r: TuningReport, withBode = false) {
+export function tuningJson(r: TuningReport, withBode = false, schedule: GainSchedule | null = null) {
   return {
     current: loopJson(r.current, withBode),
     ...(r.currentQ ? { currentQ: loopJson(r.currentQ, withBode) } : {}),
@@ -18,6 +20,7 @@ export function tuningJson(r: TuningReport, withBode = false) {
     speedLagEquivalent_s: r.speedLagEquivalent_s,
     currentDelay_s: r.currentDelay_s,
     warnings: r.warnings,
+    ...(schedule ? { gainSchedule: schedule } : {}),
   };
 }
 
@@ -29,6 +32,8 @@ export const tuneCommand: Command = {
   run(p, args) {
     const input = tuningInputFromProject(p);
     const r = tuneFromProject(p);
+    // a flux map: the gains change with current (constant-parameter projects print what they always did)
+    const schedule = p.models.hot.linear === null ? gainScheduleFromProject(p) : null;
     const loops: Array<[string, LoopReport, string, string]> = [
       [r.currentQ ? 'current d' : 'current d, q', r.current, 'V/A', 'V/(A·s)'],
       ...(r.currentQ ? [['current q', r.currentQ, 'V/A', 'V/(A·s)'] as [string, LoopReport, string, string]] : []),
@@ -48,7 +53,8 @@ export const tuneCommand: Command = {
       ...(r.warnings.length === 0 ? ['warnings: none'] : ['warnings:', ...r.warnings.map((w) => `  ${findingLine(w)}`)]),
       'margins of the sampled loop as the controller runs it (discrete PI, zero-order hold, winding discretised, delay of whole periods), up to half the loop\'s sample rate;',
       'the last column is the continuous approximation (delay e^{-s Td}) for comparison. Cautions: phase margin under 45 deg (danger under 30 deg), gain margin under 6 dB, closed-loop peaking above 3 dB.',
+      ...(schedule ? ['', `current-loop gains against current: ${gainScheduleCaption(schedule)}`, '', ...table(GAIN_SCHEDULE_COLUMNS.map((c) => c.header), gainScheduleCells(schedule))] : []),
     ];
-    return { json: tuningJson(r, args.flags.has('bode')), lines };
+    return { json: tuningJson(r, args.flags.has('bode'), schedule), lines };
   },
 };

@@ -8,6 +8,7 @@ import { isInputError } from '../../../../core/base/errors';
 import { axis, baseLayout, CURVE, Plot, readTheme } from '../../components/Plot';
 import { num } from '../../components/format';
 import { CONTROL_SUMMARY, InputSummary } from '../../components/input-summary';
+import { GainScheduleCard } from './GainScheduleCard';
 
 /** The controller inputs the tuning depends on (shown read-only; edited in the side panel). */
 const TUNING_INPUTS = ['control.fCtrl_Hz', 'control.delaySamples', 'control.currentBandwidth_Hz', 'control.speedBandwidth_Hz', 'control.speedTuning.method', 'control.speedTuning.a', 'control.speedLoopDivider'];
@@ -145,6 +146,7 @@ export const TuningView = memo(function TuningView({ project, theme }: { project
                 up to half the sample rate. The continuous approximation (delay e^(−s·{num(tuned.rep.currentDelay_s * 1e6)} µs)) is shown for comparison.
                 Speed rule uses an equivalent lag of {num(tuned.rep.speedLagEquivalent_s * 1e3)} ms.
               </div>
+              {project.models.hot.linear !== null && <GainScheduleCard project={project} theme={theme} />}
             </div>
           )}
           <div className="card" data-testid="tuning-warnings">
@@ -157,6 +159,7 @@ export const TuningView = memo(function TuningView({ project, theme }: { project
               </div>
             ))}
           </div>
+          {project.models.hot.linear === null && <GainScheduleCard project={project} theme={theme} />}
         </div>
         <div className="card">
           <h4>Open loops: gain and phase</h4>
