@@ -167,14 +167,31 @@ function NameplateFields() {
   );
 }
 
+/** A flux map's grid size and magnet temperature, as text (null without a map). */
+function mapSummary(tree: Json): string | null {
+  const m = getAt(tree, 'motor.fluxMap') as { id_A?: unknown; iq_A?: unknown; magnetTemp_C?: unknown } | undefined;
+  if (!m || typeof m !== 'object') return null;
+  const n = (x: unknown): number => (Array.isArray(x) ? x.length : 0);
+  return `${n(m.id_A)} × ${n(m.iq_A)} points, magnet at ${typeof m.magnetTemp_C === 'number' ? m.magnetTemp_C : '?'} °C`;
+}
+
 function ModelFields() {
+  const map = useFormValue((d) => mapSummary(d.tree));
   return (
     <>
       <NumField path="motor.polePairs" label="Pole pairs p" unit="pairs" hint={(v) => `= ${num(2 * v)} poles`} />
       <NumField path="motor.Rs" label="Rs (20 °C)" unit="Ω/phase" hint={HINTS.mOhm} />
-      <NumField path="motor.Ld" label="Ld" unit="H" hint={HINTS.mH} />
-      <NumField path="motor.Lq" label="Lq" unit="H" hint={HINTS.mH} />
-      <NumField path="motor.psiM" label="ψm (20 °C)" unit="Wb peak" hint={HINTS.mWb} />
+      {map !== null ? (
+        <div className="hint" style={{ fontSize: 12, margin: '4px 0 6px' }} data-testid="flux-map-given">
+          Ld, Lq and ψm: from the flux map ({map}), kept as the file gives it; its curves are in the Flux map tab. Import another with the command line's import-flux-map.
+        </div>
+      ) : (
+        <>
+          <NumField path="motor.Ld" label="Ld" unit="H" hint={HINTS.mH} />
+          <NumField path="motor.Lq" label="Lq" unit="H" hint={HINTS.mH} />
+          <NumField path="motor.psiM" label="ψm (20 °C)" unit="Wb peak" hint={HINTS.mWb} />
+        </>
+      )}
       <NumField path="motor.inertia" label="Rotor inertia" unit="kg·m²" hint={HINTS.kgcm2} />
       <NumField path="motor.viscousFriction" label="Viscous friction" unit="N·m·s/rad" optional />
       <NumField path="motor.coulombFriction" label="Coulomb friction" unit="N·m" optional />
@@ -190,7 +207,7 @@ function DerivedModel({ p }: { p: ResolvedProject | null }) {
   const c = deriveConstants(m);
   return (
     <div className="hint" style={{ fontSize: 12, marginTop: 6 }} data-testid="derived-model">
-      <strong>dq model at 20 °C:</strong> p = {m.polePairs}, Rs = {num(m.Rs * 1e3)} mΩ, Ld = {num(m.Ld * 1e3)} mH, Lq = {num(m.Lq * 1e3)} mH,
+      <strong>{p.models.at20.linear === null ? 'dq terms at zero current, from the flux map (20 °C):' : 'dq model at 20 °C:'}</strong> p = {m.polePairs}, Rs = {num(m.Rs * 1e3)} mΩ, Ld = {num(m.Ld * 1e3)} mH, Lq = {num(m.Lq * 1e3)} mH,
       ψm = {num(m.psiM * 1e3)} mWb; Kt = {num(c.Kt_Nm_per_Arms)} N·m/A rms ({num(c.Kt_Nm_per_Apeak)} N·m/A peak), Ke = {num(c.Ke_VLLrms_per_krpm)} V
       line-line rms per 1000 rpm
     </div>
