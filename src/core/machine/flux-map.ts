@@ -59,8 +59,20 @@ export class FluxMapModel implements MachineModel {
   readonly grid: FluxGrid;
   /** the interpolant of psi_d (surface 0) and psi_q (surface 1) */
   private readonly surf: HermiteSurfacePair;
-  /** the inverse's last answer (a model is used by one computation at a time) */
-  private readonly guess = new Float64Array(2);
+  /**
+   * the inverse's last answer (a model is used by one computation at a time): [id, iq, its psid,
+   * its psiq, 1 when invJac holds the inverse Jacobian there]
+   */
+  private readonly guess = new Float64Array(5);
+  private readonly invJac = new Float64Array(4);
+  /** the inverse's bounds: the grid widened by its span on every side, the largest step */
+  private readonly loD: number;
+  private readonly hiD: number;
+  private readonly loQ: number;
+  private readonly hiQ: number;
+  private readonly maxStep: number;
+  /** the inverse's flux tolerance: 1e-13 of the largest |psi| on the map (shift included) */
+  private readonly fluxTol: number;
 
   /**
    * @param data the map (checked by the project)
@@ -71,6 +83,14 @@ export class FluxMapModel implements MachineModel {
     const g = this.grid;
     if (g.id.length < 2 || g.iq.length < 2) throw new InputError('motor.fluxMap', 'needs at least 2 points along id_A and along iq_A (after mirroring a map of iq >= 0)');
     this.surf = new HermiteSurfacePair(g.id, g.iq, hermiteNodes(g.id, g.iq, g.psid), hermiteNodes(g.id, g.iq, g.psiq));
+    const nd = g.id.length, nq = g.iq.length;
+    const spanD = g.id[nd - 1]! - g.id[0]!, spanQ = g.iq[nq - 1]! - g.iq[0]!;
+    this.loD = g.id[0]! - spanD; this.hiD = g.id[nd - 1]! + spanD;
+    this.loQ = g.iq[0]! - spanQ; this.hiQ = g.iq[nq - 1]! + spanQ;
+    this.maxStep = 0.25 * Math.max(spanD, spanQ);
+    let scale = 0;
+    for (let k = 0; k < g.psid.length; k++) scale = Math.max(scale, Math.abs(g.psid[k]! + psidShift_Wb), Math.abs(g.psiq[k]!));
+    this.fluxTol = 1e-13 * scale;
   }
 
   /** the last point evaluated, its flux (shift included) and derivatives: a solver's Newton step asks twice at one point */
@@ -118,26 +138,48 @@ export class FluxMapModel implements MachineModel {
 
   /**
    * The current whose flux is (psid, psiq): Newton's method on the interpolant with its exact
-   * derivatives, from the last answer (then from zero current if that fails), each step bounded to a
-   * quarter of the grid's span and halved until the flux error shrinks, the iterate kept within the
-   * grid widened by its span on every side; to |delta i| <= 1e-13 (1 + |i|). Common practice (no source).
+   * derivatives. The first guess is one Newton step from the last answer with the inverse Jacobian
+   * kept from there (no evaluation: exact on an affine map, second order in the flux change
+   * otherwise); then bounded Newton steps, each bounded to a quarter of the grid's span and halved
+   * until the flux error shrinks, the iterate kept within the grid widened by its span on every
+   * side; it stops when the flux error is at most 1e-13 of the map's flux scale or a step moves the
+   * current by at most 1e-13 (1 + |i|); from zero current if that fails. Common practice (no source).
    */
   current(psid: number, psiq: number, out: Float64Array): void {
     const g = this.guess;
-    if (!this.newtonInverse(psid, psiq, g[0]!, g[1]!, out)) this.newtonInverse(psid, psiq, 0, 0, out);
+    let id0 = g[0]!, iq0 = g[1]!;
+    if (g[4]! === 1) {
+      // one step of the kept inverse Jacobian from the last answer's flux, bounded like a Newton step
+      const ed = psid - g[2]!, eq = psiq - g[3]!;
+      const j = this.invJac;
+      let dd = j[0]! * ed + j[1]! * eq, dq = j[2]! * ed + j[3]! * eq;
+      const len = Math.abs(dd) + Math.abs(dq);
+      if (len > this.maxStep) { dd *= this.maxStep / len; dq *= this.maxStep / len; }
+      if (dd === dd && dq === dq) { id0 += dd; iq0 += dq; }
+    }
+    if (!this.newtonInverse(psid, psiq, id0, iq0, out)) {
+      if (!this.newtonInverse(psid, psiq, 0, 0, out)) { g[4] = 0; g[0] = out[0]!; g[1] = out[1]!; return; }
+    }
+    // out is the last point evaluated: keep its flux and inverse Jacobian for the next guess
+    const L = this.dpsi;
+    const det = L[0]! * L[3]! - L[1]! * L[2]!;
     g[0] = out[0]!;
     g[1] = out[1]!;
+    g[2] = this.psi[0]!;
+    g[3] = this.psi[1]!;
+    const j = this.invJac;
+    j[0] = L[3]! / det; j[1] = -L[1]! / det; j[2] = -L[2]! / det; j[3] = L[0]! / det;
+    g[4] = Math.abs(det) > 0 ? 1 : 0;
   }
 
-  /** One bounded Newton run from (id0, iq0) into out; true when it converged. */
+  /** One bounded Newton run from (id0, iq0) into out; true when it converged (then out is the last point evaluated). */
   private newtonInverse(psid: number, psiq: number, id0: number, iq0: number, out: Float64Array): boolean {
-    const gd = this.grid.id, gq = this.grid.iq;
-    const spanD = gd[gd.length - 1]! - gd[0]!, spanQ = gq[gq.length - 1]! - gq[0]!;
-    const loD = gd[0]! - spanD, hiD = gd[gd.length - 1]! + spanD, loQ = gq[0]! - spanQ, hiQ = gq[gq.length - 1]! + spanQ;
-    const maxStep = 0.25 * Math.max(spanD, spanQ);
+    const loD = this.loD, hiD = this.hiD, loQ = this.loQ, hiQ = this.hiQ, maxStep = this.maxStep, tol = this.fluxTol;
     let id = Math.min(hiD, Math.max(loD, id0)), iq = Math.min(hiQ, Math.max(loQ, iq0));
     this.evalAt(id, iq);
     let rd = psid - this.psi[0]!, rq = psiq - this.psi[1]!;
+    out[0] = id; out[1] = iq;
+    if (Math.abs(rd) + Math.abs(rq) <= tol) return true;
     for (let k = 0; k < 60; k++) {
       const L = this.dpsi;
       const det = L[0]! * L[3]! - L[1]! * L[2]!;
@@ -146,19 +188,20 @@ export class FluxMapModel implements MachineModel {
       const len = Math.abs(dd) + Math.abs(dq);
       if (len > maxStep) { dd *= maxStep / len; dq *= maxStep / len; }
       const r0 = Math.abs(rd) + Math.abs(rq);
-      let t = 1, nd = id, nq = iq;
+      let t = 1, nd = id, nq = iq, r1 = r0;
       for (let h = 0; h < 30; h++) {
         nd = Math.min(hiD, Math.max(loD, id + t * dd));
         nq = Math.min(hiQ, Math.max(loQ, iq + t * dq));
         this.evalAt(nd, nq);
         rd = psid - this.psi[0]!; rq = psiq - this.psi[1]!;
-        if (Math.abs(rd) + Math.abs(rq) < r0 || r0 === 0) break;
+        r1 = Math.abs(rd) + Math.abs(rq);
+        if (r1 < r0 || r0 === 0) break;
         t *= 0.5;
       }
       const moved = Math.abs(nd - id) + Math.abs(nq - iq);
       id = nd; iq = nq;
       out[0] = id; out[1] = iq;
-      if (moved <= 1e-13 * (1 + Math.abs(id) + Math.abs(iq))) return true;
+      if (r1 <= tol || moved <= 1e-13 * (1 + Math.abs(id) + Math.abs(iq))) return true;
     }
     return false;
   }
