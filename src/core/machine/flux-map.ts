@@ -65,6 +65,9 @@ export class FluxMapModel implements MachineModel {
    */
   private readonly guess = new Float64Array(5);
   private readonly invJac = new Float64Array(4);
+  /** the inverse's flux target and a Newton run's start (read from arrays: no double crosses a call as an argument) */
+  private readonly target = new Float64Array(2);
+  private readonly start = new Float64Array(2);
   /** the inverse's bounds: the grid widened by its span on every side, the largest step */
   private readonly loD: number;
   private readonly hiD: number;
@@ -98,6 +101,8 @@ export class FluxMapModel implements MachineModel {
   private lastIq = Number.NaN;
   private readonly psi = new Float64Array(2);
   private readonly dpsi = new Float64Array(4);
+  /** the point to evaluate (evalHere reads it: no double crosses a call as an argument) */
+  private readonly at = new Float64Array(2);
 
   /**
    * The C1 interpolant at (id, iq) (mathematics/hermite-surface.ts: bicubic Hermite with monotone
@@ -107,7 +112,18 @@ export class FluxMapModel implements MachineModel {
    */
   private evalAt(id: number, iq: number): void {
     if (id === this.lastId && iq === this.lastIq) return;
-    this.surf.evaluate(id, iq, this.psi, this.dpsi);
+    const at = this.at;
+    at[0] = id;
+    at[1] = iq;
+    this.evalHere();
+  }
+
+  /** `evalAt` of the point (this.at[0], this.at[1]). */
+  private evalHere(): void {
+    const at = this.at;
+    const id = at[0]!, iq = at[1]!;
+    if (id === this.lastId && iq === this.lastIq) return;
+    this.surf.evaluateAt(at, this.psi, this.dpsi);
     this.psi[0] = this.psi[0]! + this.psidShift_Wb;
     this.lastId = id;
     this.lastIq = iq;
@@ -146,7 +162,17 @@ export class FluxMapModel implements MachineModel {
    * current by at most 1e-13 (1 + |i|); from zero current if that fails. Common practice (no source).
    */
   current(psid: number, psiq: number, out: Float64Array): void {
-    const g = this.guess;
+    // small, so that it inlines into its caller: the rest reads the flux from this.target
+    const t = this.target;
+    t[0] = psid;
+    t[1] = psiq;
+    this.inverse(out);
+  }
+
+  /** `current` of the flux (this.target[0], this.target[1]). */
+  private inverse(out: Float64Array): void {
+    const g = this.guess, s = this.start, tg = this.target;
+    const psid = tg[0]!, psiq = tg[1]!;
     let id0 = g[0]!, iq0 = g[1]!;
     if (g[4]! === 1) {
       // one step of the kept inverse Jacobian from the last answer's flux, bounded like a Newton step
@@ -157,8 +183,12 @@ export class FluxMapModel implements MachineModel {
       if (len > this.maxStep) { dd *= this.maxStep / len; dq *= this.maxStep / len; }
       if (dd === dd && dq === dq) { id0 += dd; iq0 += dq; }
     }
-    if (!this.newtonInverse(psid, psiq, id0, iq0, out)) {
-      if (!this.newtonInverse(psid, psiq, 0, 0, out)) { g[4] = 0; g[0] = out[0]!; g[1] = out[1]!; return; }
+    s[0] = id0;
+    s[1] = iq0;
+    if (!this.newtonInverse(out)) {
+      s[0] = 0;
+      s[1] = 0;
+      if (!this.newtonInverse(out)) { g[4] = 0; g[0] = out[0]!; g[1] = out[1]!; return; }
     }
     // out is the last point evaluated: keep its flux and inverse Jacobian for the next guess
     const L = this.dpsi;
@@ -172,11 +202,17 @@ export class FluxMapModel implements MachineModel {
     g[4] = Math.abs(det) > 0 ? 1 : 0;
   }
 
-  /** One bounded Newton run from (id0, iq0) into out; true when it converged (then out is the last point evaluated). */
-  private newtonInverse(psid: number, psiq: number, id0: number, iq0: number, out: Float64Array): boolean {
+  /**
+   * One bounded Newton run to the flux this.target from the current this.start into out; true when
+   * it converged (then out is the last point evaluated).
+   */
+  private newtonInverse(out: Float64Array): boolean {
     const loD = this.loD, hiD = this.hiD, loQ = this.loQ, hiQ = this.hiQ, maxStep = this.maxStep, tol = this.fluxTol;
-    let id = Math.min(hiD, Math.max(loD, id0)), iq = Math.min(hiQ, Math.max(loQ, iq0));
-    this.evalAt(id, iq);
+    const psid = this.target[0]!, psiq = this.target[1]!;
+    const at = this.at;
+    let id = Math.min(hiD, Math.max(loD, this.start[0]!)), iq = Math.min(hiQ, Math.max(loQ, this.start[1]!));
+    at[0] = id; at[1] = iq;
+    this.evalHere();
     let rd = psid - this.psi[0]!, rq = psiq - this.psi[1]!;
     out[0] = id; out[1] = iq;
     if (Math.abs(rd) + Math.abs(rq) <= tol) return true;
@@ -192,7 +228,8 @@ export class FluxMapModel implements MachineModel {
       for (let h = 0; h < 30; h++) {
         nd = Math.min(hiD, Math.max(loD, id + t * dd));
         nq = Math.min(hiQ, Math.max(loQ, iq + t * dq));
-        this.evalAt(nd, nq);
+        at[0] = nd; at[1] = nq;
+        this.evalHere();
         rd = psid - this.psi[0]!; rq = psiq - this.psi[1]!;
         r1 = Math.abs(rd) + Math.abs(rq);
         if (r1 < r0 || r0 === 0) break;
