@@ -93,6 +93,25 @@ describe('a flux map of a saturating machine (Hinkkanen et al. (2017), IEEE Tran
       expect(c[1]).toBeCloseTo(iq, 7);
     }
   });
+
+  it('the warm-started inverse follows a slow current trajectory to 1e-9 A and reproduces its flux to 1e-13 of the flux scale (common practice (no source): Newton from a first-order prediction)', () => {
+    const f = new Float64Array(2), back = new Float64Array(2), c = new Float64Array(2);
+    const fresh = new FluxMapModel(sampleFluxMap(sat, evenGrid(-540, 540, 41), evenGrid(0, 540, 41), 20), 4, 0.02);
+    let worst = 0, worstFlux = 0;
+    for (let k = 0; k <= 2000; k++) {
+      // a circle of 400 A into saturation, in small steps (as consecutive integrator stages ask)
+      const a = (2 * Math.PI * k) / 2000;
+      const id = -100 + 400 * Math.cos(a), iq = 400 * Math.sin(a);
+      fresh.flux(id, iq, f);
+      fresh.current(f[0]!, f[1]!, c);
+      worst = Math.max(worst, Math.abs(c[0]! - id), Math.abs(c[1]! - iq));
+      fresh.flux(c[0]!, c[1]!, back);
+      worstFlux = Math.max(worstFlux, Math.abs(back[0]! - f[0]!) + Math.abs(back[1]! - f[1]!));
+    }
+    expect(worst).toBeLessThan(1e-9);
+    // the flux scale of this map (its largest |psi|) is about 0.28 Wb
+    expect(worstFlux).toBeLessThan(1e-13 * 0.5);
+  });
 });
 
 describe('a map too small to interpolate', () => {

@@ -59,8 +59,23 @@ export class FluxMapModel implements MachineModel {
   readonly grid: FluxGrid;
   /** the interpolant of psi_d (surface 0) and psi_q (surface 1) */
   private readonly surf: HermiteSurfacePair;
-  /** the inverse's last answer (a model is used by one computation at a time) */
-  private readonly guess = new Float64Array(2);
+  /**
+   * the inverse's last answer (a model is used by one computation at a time): [id, iq, its psid,
+   * its psiq, 1 when invJac holds the inverse Jacobian there]
+   */
+  private readonly guess = new Float64Array(5);
+  private readonly invJac = new Float64Array(4);
+  /** the inverse's flux target and a Newton run's start (read from arrays: no double crosses a call as an argument) */
+  private readonly target = new Float64Array(2);
+  private readonly start = new Float64Array(2);
+  /** the inverse's bounds: the grid widened by its span on every side, the largest step */
+  private readonly loD: number;
+  private readonly hiD: number;
+  private readonly loQ: number;
+  private readonly hiQ: number;
+  private readonly maxStep: number;
+  /** the inverse's flux tolerance: 1e-13 of the largest |psi| on the map (shift included) */
+  private readonly fluxTol: number;
 
   /**
    * @param data the map (checked by the project)
@@ -71,6 +86,14 @@ export class FluxMapModel implements MachineModel {
     const g = this.grid;
     if (g.id.length < 2 || g.iq.length < 2) throw new InputError('motor.fluxMap', 'needs at least 2 points along id_A and along iq_A (after mirroring a map of iq >= 0)');
     this.surf = new HermiteSurfacePair(g.id, g.iq, hermiteNodes(g.id, g.iq, g.psid), hermiteNodes(g.id, g.iq, g.psiq));
+    const nd = g.id.length, nq = g.iq.length;
+    const spanD = g.id[nd - 1]! - g.id[0]!, spanQ = g.iq[nq - 1]! - g.iq[0]!;
+    this.loD = g.id[0]! - spanD; this.hiD = g.id[nd - 1]! + spanD;
+    this.loQ = g.iq[0]! - spanQ; this.hiQ = g.iq[nq - 1]! + spanQ;
+    this.maxStep = 0.25 * Math.max(spanD, spanQ);
+    let scale = 0;
+    for (let k = 0; k < g.psid.length; k++) scale = Math.max(scale, Math.abs(g.psid[k]! + psidShift_Wb), Math.abs(g.psiq[k]!));
+    this.fluxTol = 1e-13 * scale;
   }
 
   /** the last point evaluated, its flux (shift included) and derivatives: a solver's Newton step asks twice at one point */
@@ -78,6 +101,8 @@ export class FluxMapModel implements MachineModel {
   private lastIq = Number.NaN;
   private readonly psi = new Float64Array(2);
   private readonly dpsi = new Float64Array(4);
+  /** the point to evaluate (evalHere reads it: no double crosses a call as an argument) */
+  private readonly at = new Float64Array(2);
 
   /**
    * The C1 interpolant at (id, iq) (mathematics/hermite-surface.ts: bicubic Hermite with monotone
@@ -87,7 +112,18 @@ export class FluxMapModel implements MachineModel {
    */
   private evalAt(id: number, iq: number): void {
     if (id === this.lastId && iq === this.lastIq) return;
-    this.surf.evaluate(id, iq, this.psi, this.dpsi);
+    const at = this.at;
+    at[0] = id;
+    at[1] = iq;
+    this.evalHere();
+  }
+
+  /** `evalAt` of the point (this.at[0], this.at[1]). */
+  private evalHere(): void {
+    const at = this.at;
+    const id = at[0]!, iq = at[1]!;
+    if (id === this.lastId && iq === this.lastIq) return;
+    this.surf.evaluateAt(at, this.psi, this.dpsi);
     this.psi[0] = this.psi[0]! + this.psidShift_Wb;
     this.lastId = id;
     this.lastIq = iq;
@@ -118,26 +154,68 @@ export class FluxMapModel implements MachineModel {
 
   /**
    * The current whose flux is (psid, psiq): Newton's method on the interpolant with its exact
-   * derivatives, from the last answer (then from zero current if that fails), each step bounded to a
-   * quarter of the grid's span and halved until the flux error shrinks, the iterate kept within the
-   * grid widened by its span on every side; to |delta i| <= 1e-13 (1 + |i|). Common practice (no source).
+   * derivatives. The first guess is one Newton step from the last answer with the inverse Jacobian
+   * kept from there (no evaluation: exact on an affine map, second order in the flux change
+   * otherwise); then bounded Newton steps, each bounded to a quarter of the grid's span and halved
+   * until the flux error shrinks, the iterate kept within the grid widened by its span on every
+   * side; it stops when the flux error is at most 1e-13 of the map's flux scale or a step moves the
+   * current by at most 1e-13 (1 + |i|); from zero current if that fails. Common practice (no source).
    */
   current(psid: number, psiq: number, out: Float64Array): void {
-    const g = this.guess;
-    if (!this.newtonInverse(psid, psiq, g[0]!, g[1]!, out)) this.newtonInverse(psid, psiq, 0, 0, out);
-    g[0] = out[0]!;
-    g[1] = out[1]!;
+    // small, so that it inlines into its caller: the rest reads the flux from this.target
+    const t = this.target;
+    t[0] = psid;
+    t[1] = psiq;
+    this.inverse(out);
   }
 
-  /** One bounded Newton run from (id0, iq0) into out; true when it converged. */
-  private newtonInverse(psid: number, psiq: number, id0: number, iq0: number, out: Float64Array): boolean {
-    const gd = this.grid.id, gq = this.grid.iq;
-    const spanD = gd[gd.length - 1]! - gd[0]!, spanQ = gq[gq.length - 1]! - gq[0]!;
-    const loD = gd[0]! - spanD, hiD = gd[gd.length - 1]! + spanD, loQ = gq[0]! - spanQ, hiQ = gq[gq.length - 1]! + spanQ;
-    const maxStep = 0.25 * Math.max(spanD, spanQ);
-    let id = Math.min(hiD, Math.max(loD, id0)), iq = Math.min(hiQ, Math.max(loQ, iq0));
-    this.evalAt(id, iq);
+  /** `current` of the flux (this.target[0], this.target[1]). */
+  private inverse(out: Float64Array): void {
+    const g = this.guess, s = this.start, tg = this.target;
+    const psid = tg[0]!, psiq = tg[1]!;
+    let id0 = g[0]!, iq0 = g[1]!;
+    if (g[4]! === 1) {
+      // one step of the kept inverse Jacobian from the last answer's flux, bounded like a Newton step
+      const ed = psid - g[2]!, eq = psiq - g[3]!;
+      const j = this.invJac;
+      let dd = j[0]! * ed + j[1]! * eq, dq = j[2]! * ed + j[3]! * eq;
+      const len = Math.abs(dd) + Math.abs(dq);
+      if (len > this.maxStep) { dd *= this.maxStep / len; dq *= this.maxStep / len; }
+      if (dd === dd && dq === dq) { id0 += dd; iq0 += dq; }
+    }
+    s[0] = id0;
+    s[1] = iq0;
+    if (!this.newtonInverse(out)) {
+      s[0] = 0;
+      s[1] = 0;
+      if (!this.newtonInverse(out)) { g[4] = 0; g[0] = out[0]!; g[1] = out[1]!; return; }
+    }
+    // out is the last point evaluated: keep its flux and inverse Jacobian for the next guess
+    const L = this.dpsi;
+    const det = L[0]! * L[3]! - L[1]! * L[2]!;
+    g[0] = out[0]!;
+    g[1] = out[1]!;
+    g[2] = this.psi[0]!;
+    g[3] = this.psi[1]!;
+    const j = this.invJac;
+    j[0] = L[3]! / det; j[1] = -L[1]! / det; j[2] = -L[2]! / det; j[3] = L[0]! / det;
+    g[4] = Math.abs(det) > 0 ? 1 : 0;
+  }
+
+  /**
+   * One bounded Newton run to the flux this.target from the current this.start into out; true when
+   * it converged (then out is the last point evaluated).
+   */
+  private newtonInverse(out: Float64Array): boolean {
+    const loD = this.loD, hiD = this.hiD, loQ = this.loQ, hiQ = this.hiQ, maxStep = this.maxStep, tol = this.fluxTol;
+    const psid = this.target[0]!, psiq = this.target[1]!;
+    const at = this.at;
+    let id = Math.min(hiD, Math.max(loD, this.start[0]!)), iq = Math.min(hiQ, Math.max(loQ, this.start[1]!));
+    at[0] = id; at[1] = iq;
+    this.evalHere();
     let rd = psid - this.psi[0]!, rq = psiq - this.psi[1]!;
+    out[0] = id; out[1] = iq;
+    if (Math.abs(rd) + Math.abs(rq) <= tol) return true;
     for (let k = 0; k < 60; k++) {
       const L = this.dpsi;
       const det = L[0]! * L[3]! - L[1]! * L[2]!;
@@ -146,19 +224,21 @@ export class FluxMapModel implements MachineModel {
       const len = Math.abs(dd) + Math.abs(dq);
       if (len > maxStep) { dd *= maxStep / len; dq *= maxStep / len; }
       const r0 = Math.abs(rd) + Math.abs(rq);
-      let t = 1, nd = id, nq = iq;
+      let t = 1, nd = id, nq = iq, r1 = r0;
       for (let h = 0; h < 30; h++) {
         nd = Math.min(hiD, Math.max(loD, id + t * dd));
         nq = Math.min(hiQ, Math.max(loQ, iq + t * dq));
-        this.evalAt(nd, nq);
+        at[0] = nd; at[1] = nq;
+        this.evalHere();
         rd = psid - this.psi[0]!; rq = psiq - this.psi[1]!;
-        if (Math.abs(rd) + Math.abs(rq) < r0 || r0 === 0) break;
+        r1 = Math.abs(rd) + Math.abs(rq);
+        if (r1 < r0 || r0 === 0) break;
         t *= 0.5;
       }
       const moved = Math.abs(nd - id) + Math.abs(nq - iq);
       id = nd; iq = nq;
       out[0] = id; out[1] = iq;
-      if (moved <= 1e-13 * (1 + Math.abs(id) + Math.abs(iq))) return true;
+      if (r1 <= tol || moved <= 1e-13 * (1 + Math.abs(id) + Math.abs(iq))) return true;
     }
     return false;
   }

@@ -117,11 +117,26 @@ export class HermiteSurfacePair {
     }
   }
 
+  /** the point of `evaluate` (scratch of this surface) */
+  private readonly pt = new Float64Array(2);
+
   /**
    * Values of both surfaces at (x, y) into out[0], out[1]; when d is given, [df/dx, df/dy] of surface
    * s into d[2s], d[2s + 1] (the exact derivatives of the interpolant).
    */
   evaluate(x: number, y: number, out: Float64Array, d: Float64Array | null): void {
+    const p = this.pt;
+    p[0] = x;
+    p[1] = y;
+    this.evaluateAt(p, out, d);
+  }
+
+  /**
+   * `evaluate` at the point (p[0], p[1]): for hot loops, so that the coordinates do not cross a call
+   * the engine does not inline as arguments (boxed doubles, an allocation each).
+   */
+  evaluateAt(p: Float64Array, out: Float64Array, d: Float64Array | null): void {
+    const x = p[0]!, y = p[1]!;
     const gx = this.x, gy = this.y, ny = gy.length;
     const i = (this.ci = findCell(gx, x, this.ci));
     const j = (this.cj = findCell(gy, y, this.cj));
