@@ -184,6 +184,8 @@ describe('Torquewise in a browser', () => {
 
   it('shows every problem beside its field at once, and says which current limit binds', async () => {
     // traction demo (invented): the motor's peak 318 A rms is below the inverter's 450 A peak
+    // (the verdicts are drawn a frame after the curves: wait until the last test's edit has reached them)
+    await page.waitForFunction(() => /^met, hot and cold \(continuous duty/.test(document.querySelector('[data-testid="req-mark-1"]')?.getAttribute('title') ?? ''), undefined, { timeout: 10_000 });
     expect(await page.textContent('[data-testid="envelope-limits"]')).toBe('current limits: peak 449.7 A peak (318 A rms): motor; continuous 226 A peak (159.8 A rms): inverter');
     // the rated point is a continuous-duty requirement: its verdict says which limit it was checked against
     expect(await page.getAttribute('[data-testid="req-mark-1"]', 'data-duty')).toBe('continuous');
