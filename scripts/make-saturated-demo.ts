@@ -49,7 +49,7 @@ const project = {
   format: base.format,
   version: base.version,
   name: 'Invented demo: saturating interior-magnet traction motor (flux map from an algebraic saturation model)',
-  note: 'Invented numbers for demonstration only; not a real product. The flux map (41 x 41, iq >= 0, mirrored) is sampled from the algebraic saturation model of Hinkkanen, Pescetto, Mölsä, Saarakkala, Pellegrino and Bojoi (2017), IEEE Trans. Ind. Appl. 53(3), with the magnet as a constant d-axis current, so it is reciprocal; at 450 A on the q axis the apparent Lq is about 35 % below its zero-current value and psi_d about 12 % lower. A 350 V bus is dangerous: follow local codes, licensed practice and IEC 61800-5-1.',
+  note: 'Invented numbers for demonstration only; not a real product. The flux map (41 x 41, iq >= 0, mirrored) is sampled from the algebraic saturation model of Hinkkanen, Pescetto, Mölsä, Saarakkala, Pellegrino and Bojoi (2017), IEEE Trans. Ind. Appl. 53(3), with the magnet as a constant d-axis current, so it is reciprocal; at 450 A on the q axis the apparent Lq is about 35 % below its zero-current value and psi_d about 12 % lower. A 350 V bus is dangerous: follow local codes, licensed practice and IEC 61800-5-1. The loss coefficients (losses) are those of the interior-magnet traction demo, invented too.',
   motor: {
     polePairs: POLE_PAIRS,
     Rs: RS,
@@ -66,6 +66,7 @@ const project = {
   requirements,
   control: base.control,
   scenario: base.scenario,
+  losses: base.losses,
 };
 // arrays of numbers on one line each (a map row per line)
 const text = JSON.stringify(project, null, 2).replace(/\[\s*(-?[\d.e+-]+(?:,\s*-?[\d.e+-]+)*)\s*\]/g, (_, xs: string) => `[${xs.split(/,\s*/).join(', ')}]`);

@@ -21,6 +21,9 @@ describe('plain phrases for codes and paths', () => {
     expect(fieldPhrase('nameplate.R.value')).toBe('winding resistance');
     expect(fieldPhrase('requirements.2.speed_rpm')).toBe('requirement point 3 speed');
     expect(fieldPhrase('scenario.loadSteps.0.torque_Nm')).toBe('load torque step 1 torque');
+    expect(fieldPhrase('losses.inverter.EonEoff_J')).toBe('switch turn-on and turn-off energy');
+    expect(fieldPhrase('losses.iron.kh')).toBe('iron hysteresis loss coefficient');
+    expect(fieldPhrase('losses.windage')).toBe('motor windage');
     expect(fieldPhrase('no.such.path')).toBe('no.such.path');
     // every schema key (lists written with []) has words: no dotted path is left on a screen
     for (const k of Object.keys(KEYS)) {

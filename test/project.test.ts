@@ -60,6 +60,47 @@ describe('demo projects', () => {
   });
 });
 
+describe('demo projects: invented loss data', () => {
+  // what each demo's note says its invented losses give at top speed without load: iron loss
+  // P_fe = kh f psi^beta + ke f² psi² at the magnet's flux linkage (20 °C), the Steinmetz hysteresis
+  // term (Steinmetz, 1892, "On the law of hysteresis") with the classical eddy term (Bertotti, 1988,
+  // "General properties of power losses in soft ferromagnetic materials", IEEE Trans. Magn. 24(1)),
+  // and windage kw omega_m³; the sizes are common practice (no source) for such machines
+  const AT_TOP_SPEED: Record<string, { iron_W: number; windage_W: number; fsw_Hz: number }> = {
+    'demo-ipm-traction': { iron_W: 400, windage_W: 100, fsw_Hz: 10000 },
+    'demo-ipm-saturated': { iron_W: 400, windage_W: 100, fsw_Hz: 10000 },
+    'demo-spm-48v': { iron_W: 43, windage_W: 5, fsw_Hz: 20000 },
+    'demo-servo-axis': { iron_W: 34, windage_W: 1, fsw_Hz: 16000 },
+  };
+  for (const [name, want] of Object.entries(AT_TOP_SPEED)) {
+    it(`${name} loads with its losses section, labelled invented, of the size its note says`, () => {
+      const rp = loadProjectText(demoText(name));
+      expect(rp.file.note).toMatch(/loss coefficients \(losses\) are .*invented too/);
+      const { iron, windage, inverter } = rp.losses;
+      expect(iron && windage && inverter).toBeTruthy();
+      expect(iron!.beta).toBe(2);
+      expect(inverter!.fsw_Hz).toBe(want.fsw_Hz);
+      const wm = rp.rated.maxSpeed_rad_s!;
+      const f = (rp.machine20.polePairs * wm) / (2 * Math.PI);
+      const psi = rp.machine20.psiM;
+      const pFe = iron!.kh * f * psi ** iron!.beta + iron!.ke * f * f * psi * psi;
+      expect(Math.abs(pFe / want.iron_W - 1)).toBeLessThan(0.15);
+      expect(Math.abs((windage!.kw * wm ** 3) / want.windage_W - 1)).toBeLessThan(0.15);
+    });
+  }
+
+  it('the traction demos use an IGBT module, the 48 V demo MOSFETs (Vce0 0, rce only, the body diode)', () => {
+    const traction = loadProjectText(demoText('demo-ipm-traction')).losses;
+    expect(traction.inverter).toEqual({ Vce0: 0.8, rce: 0.002, Vf0: 0.9, rd: 0.0015, EonEoff_J: 0.02, Err_J: 0.005, Vref_V: 300, Iref_A: 200, fsw_Hz: 10000 });
+    expect(loadProjectText(demoText('demo-ipm-saturated')).losses).toEqual(traction);
+    const spm = loadProjectText(demoText('demo-spm-48v')).losses.inverter!;
+    expect(spm.Vce0).toBe(0);
+    expect(spm.rce).toBe(0.0015);
+    expect(spm.Vf0).toBe(0.7);
+    expect(loadProjectText(demoText('demo-servo-axis')).losses.inverter!.Vref_V).toBe(300);
+  });
+});
+
 describe('resolveProject', () => {
   it('hot and cold machines, peak and continuous limits', () => {
     const rp = loadProjectText(demoText('demo-spm-48v'));

@@ -16,7 +16,7 @@ import { InputError } from '../base/errors';
 import { machineAt } from '../machine/thermal';
 import { driveLimits } from '../drive/inverter';
 import { nameplateToModel, type Interpretation, type RatedData } from '../machine/nameplate';
-import { DEFAULT_COLD_TEMP_C, DEFAULT_DUTY, DEFAULT_MODULATION, DEFAULT_TEMP_C, defaultConditions, parseProject, type FluxMapSection, type ProjectFile } from './schema';
+import { DEFAULT_COLD_TEMP_C, DEFAULT_DUTY, DEFAULT_MODULATION, DEFAULT_TEMP_C, defaultConditions, parseProject, type FluxMapSection, type LossesSection, type ProjectFile } from './schema';
 import { resolveFluxMap } from './flux-map-resolve';
 import { migrateProject } from './migrate';
 import { oddMachineFindings, ratedFindings } from './resolve-findings';
@@ -65,6 +65,12 @@ export interface ResolvedProject {
   rated: RatedData;
   interpretation: Interpretation[];
   findings: Finding[];
+  /**
+   * The loss coefficients of the file's `losses` section with the schema's defaults filled in
+   * (iron, windage, inverter; each absent part, and each absent coefficient, is a zero loss):
+   * {} for a file without the section.
+   */
+  losses: LossesSection;
   /** true for a file of a newer format version: show it, never save it over itself */
   readOnly?: boolean;
 }
@@ -212,5 +218,15 @@ export function resolveProject(file: ProjectFile): ResolvedProject {
     rated,
     interpretation,
     findings,
+    losses: lossesOf(file.losses),
   };
+}
+
+/** The losses section as its own plain object (the file's parts copied, absent parts left out). */
+function lossesOf(l: LossesSection | undefined): LossesSection {
+  const out: LossesSection = {};
+  if (l?.iron) out.iron = { ...l.iron };
+  if (l?.windage) out.windage = { ...l.windage };
+  if (l?.inverter) out.inverter = { ...l.inverter };
+  return out;
 }

@@ -165,6 +165,24 @@ export const KEYS: Readonly<Record<string, { unit: string; doc: string }>> = {
   'scenario.currentStep.id_A': { unit: 'A', doc: 'd-axis current reference after the step (A peak)' },
   'scenario.currentStep.iq_A': { unit: 'A', doc: 'q-axis current reference after the step (A peak)' },
   'scenario.currentStep.t_s': { unit: 's', doc: 'time of the step' },
+
+  losses: { unit: '', doc: 'loss coefficients of the motor and the inverter {iron, windage, inverter}; every part and every coefficient may be left out, and a loss whose coefficients are absent is zero' },
+  'losses.iron': { unit: '', doc: 'iron loss of the motor P_fe = kh f psi^beta + ke f² psi², f the electrical frequency, psi the flux-linkage amplitude |psi_dq| (Wb peak), fitted from a no-load loss test {kh, beta, ke}; absent = no iron loss' },
+  'losses.iron.kh': { unit: 'W/(Hz·Wb^beta)', doc: 'hysteresis coefficient kh (W per Hz per Wb^beta), >= 0; default 0 (no hysteresis loss)' },
+  'losses.iron.beta': { unit: '', doc: 'exponent beta of the flux linkage in the hysteresis term, 1 to 3, default 2' },
+  'losses.iron.ke': { unit: 'W/(Hz²·Wb²)', doc: 'eddy-current coefficient ke (W per Hz² per Wb²), >= 0; default 0 (no eddy-current loss)' },
+  'losses.windage': { unit: '', doc: 'windage of the rotor, kw omega_m³, besides the friction of the motor section {kw}; absent = no windage' },
+  'losses.windage.kw': { unit: 'W·s³/rad³', doc: 'windage coefficient kw (loss kw omega_m³, omega_m the mechanical speed in rad/s), >= 0; default 0 (no windage)' },
+  'losses.inverter': { unit: '', doc: 'losses of the two-level three-phase bridge, per switch and its diode (six of each) {Vce0, rce, Vf0, rd, EonEoff_J, Err_J, Vref_V, Iref_A, fsw_Hz}; absent = a lossless inverter' },
+  'losses.inverter.Vce0': { unit: 'V', doc: 'on-state threshold voltage of the switch (IGBT Vce0), >= 0; 0 for a MOSFET (rce only); default 0' },
+  'losses.inverter.rce': { unit: 'ohm', doc: 'on-state slope resistance of the switch (IGBT rce, MOSFET Rds_on), >= 0; default 0' },
+  'losses.inverter.Vf0': { unit: 'V', doc: 'forward threshold voltage of the diode (a MOSFET\'s body diode), >= 0; default 0' },
+  'losses.inverter.rd': { unit: 'ohm', doc: 'forward slope resistance of the diode, >= 0; default 0' },
+  'losses.inverter.EonEoff_J': { unit: 'J', doc: 'turn-on plus turn-off energy of one switch at Vref_V and Iref_A, >= 0; default 0 (no switching loss)' },
+  'losses.inverter.Err_J': { unit: 'J', doc: 'reverse-recovery energy of one diode at Vref_V and Iref_A, >= 0; default 0 (no recovery loss)' },
+  'losses.inverter.Vref_V': { unit: 'V', doc: 'DC voltage at which EonEoff_J and Err_J were measured, > 0; required when either is above 0' },
+  'losses.inverter.Iref_A': { unit: 'A', doc: 'current at which EonEoff_J and Err_J were measured (A peak), > 0; required when either is above 0' },
+  'losses.inverter.fsw_Hz': { unit: 'Hz', doc: 'switching frequency of the bridge, > 0; required when EonEoff_J or Err_J is above 0' },
 };
 
 /** A key's documentation as the schema describes it: "meaning [unit]", or the meaning alone. */

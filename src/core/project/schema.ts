@@ -9,6 +9,7 @@ import { InputError } from '../base/errors';
 import type { Nameplate } from '../machine/nameplate';
 import { KEYS, keyDoc as doc, MAX_LIST_ENTRIES, PROJECT_FORMAT, PROJECT_VERSION } from './schema-keys';
 import { fluxMapCapProblem, fluxMapCoverageProblems, fluxMapSchema } from './flux-map-schema';
+import { lossesSchema } from './loss-schema';
 import { CHOOSE_ONE, headerProblem, listCapProblem, problemsOf, type ProjectProblem } from './schema-problems';
 
 export { CAPPED_LISTS, KEYS, MAX_LIST_ENTRIES, MAX_PROJECT_BYTES, PROJECT_FORMAT, PROJECT_VERSION } from './schema-keys';
@@ -267,6 +268,7 @@ const projectObject = z.strictObject({
   requirements: z.array(requirementSchema).max(MAX_LIST_ENTRIES).default([]),
   control: controlSchema.optional(),
   scenario: scenarioSchema.optional(),
+  losses: lossesSchema.optional(), // every loss zero when absent
 });
 
 export const projectSchema = projectObject.superRefine((p, ctx) => {
@@ -297,6 +299,8 @@ export { MAX_FLUX_MAP_POINTS, fluxMapCapProblem } from './flux-map-schema';
 export type NameplateSection = z.output<typeof nameplateSchema>;
 export type ControlSection = z.output<typeof controlSchema>;
 export type ScenarioSection = z.output<typeof scenarioSchema>;
+export type { InverterLossSection, IronLossSection, LossesSection, WindageSection } from './loss-schema';
+export { DEFAULT_IRON_BETA } from './loss-schema';
 
 // The nameplate section must be usable as a Nameplate as it is.
 const _nameplateFits = (x: NameplateSection): Nameplate => x;
