@@ -1,0 +1,128 @@
+/**
+ * The steady operating point with losses, at a mechanical speed and a shaft torque.
+ *
+ * Power flow (motor reference direction): the inverter draws P_dc = P_ac + P_inv from the DC link; the
+ * motor takes P_ac = 1.5 (vd id + vq iq) = P_cu + T_em w (the model's steady voltage and torque); the
+ * air gap's T_em w covers the shaft power T_shaft w, the iron loss and the mechanical loss. So the
+ * electromagnetic torque is the fixed point
+ *
+ *   T_em = T_shaft + (P_fe(i(T_em)) + P_mech) / w
+ *
+ * (iron loss depends on the current through the flux), iterated from T_em = T_shaft until successive
+ * values agree to 1e-12 relative (well inside the 1e-9 asked, so that the loss-minimising search of
+ * min-loss-current.ts starts on its own locus); at standstill T_em = T_shaft (no iron or mechanical power). The
+ * current for each T_em is the least-current point (operating-point.ts). With `minLoss` the current
+ * is then the one of least copper + iron + inverter loss along the locus of the same shaft torque
+ * (min-loss-current.ts; the mechanical loss depends on the speed only), never worse than the least
+ * current's. (Holding the shaft torque rather than T_em fixed keeps the comparison to the same
+ * output: a current with less iron loss needs less T_em when motoring and more when generating.)
+ *
+ * Efficiencies are output over input, 0 when the output is not positive: motoring (T_shaft w > 0)
+ * motor = shaft / P_ac, inverter = P_ac / P_dc, system = shaft / P_dc; generating (T_shaft w < 0) the
+ * other way round (electrical out over mechanical in); 0 at zero shaft power.
+ */
+import type { DriveLimits } from '../drive/inverter-spec';
+import type { MachineInput } from '../machine/machine-model';
+import type { LimitedBy, OperatingPoint, Region } from './operating-point-types';
+import { InputError } from '../base/errors';
+import { machineModel } from '../machine/linear-dq';
+import { mechanicalLoss } from '../machine/motor-losses';
+import { assertFinite } from './mtpa';
+import { solveOperatingPoint } from './operating-point';
+import { type LossConditions, newPointLossScratch, PL, pointLosses } from './point-losses';
+import { minLossCurrent } from './min-loss-current';
+
+export interface LossPoint {
+  feasible: boolean;
+  /** the limit that decides an infeasible point (or the voltage in field weakening) */
+  limitedBy: LimitedBy;
+  region: Region;
+  /** which rule chose the current */
+  control: 'least-current' | 'min-loss';
+  /** mechanical speed, rad/s */
+  speed: number;
+  torqueShaft_Nm: number;
+  torqueEm_Nm: number;
+  id: number;
+  iq: number;
+  /** |i_dq|, A peak */
+  current: number;
+  vd: number;
+  vq: number;
+  /** |v_dq|, V peak phase */
+  voltage: number;
+  losses: { copper_W: number; iron_W: number; mechanical_W: number; inverter_W: number };
+  /** fractions */
+  efficiency: { motor: number; inverter: number; system: number };
+  shaftPower_W: number;
+  acPower_W: number;
+  dcPower_W: number;
+  dcCurrent_A: number;
+  /** cos(phi) of v_dq against i_dq, signed (negative generating), 0 at zero current */
+  powerFactor: number;
+  /** |v_dq| / (Vdc / 2) */
+  modulationIndex: number;
+  /** fixed-point iterations used */
+  iterations: number;
+}
+
+export interface LossPointOptions {
+  /** choose the current of least copper + iron + inverter loss instead of the least current */
+  minLoss?: boolean;
+}
+
+const TOL = 1e-12;
+const MAX_ITER = 100;
+
+const ratio = (out: number, inp: number): number => (inp > 0 && out > 0 ? out / inp : 0);
+
+/** Validate the loss conditions (the DC voltage and the friction terms). */
+export function assertLossConditions(c: LossConditions): void {
+  if (!(Number.isFinite(c.Vdc) && c.Vdc > 0)) throw new InputError('inverter.Vdc', `must be a positive number of volts (got ${c.Vdc})`);
+  if (!(Number.isFinite(c.friction.B) && c.friction.B >= 0)) throw new InputError('motor.viscousFriction', `must be a number >= 0 N·m·s/rad (got ${c.friction.B})`);
+  if (!(Number.isFinite(c.friction.Tc) && c.friction.Tc >= 0)) throw new InputError('motor.coulombFriction', `must be a number >= 0 N·m (got ${c.friction.Tc})`);
+}
+
+/** The operating point with losses at mechanical speed `speed_rad_s` and shaft torque `torqueShaft_Nm`. */
+export function solveLossPoint(input: MachineInput, lim: DriveLimits, c: LossConditions, speed_rad_s: number, torqueShaft_Nm: number, opts: LossPointOptions = {}): LossPoint {
+  assertFinite('speed', speed_rad_s, 'rad/s');
+  assertFinite('torque', torqueShaft_Nm, 'N·m');
+  assertLossConditions(c);
+  const m = machineModel(input);
+  const w = speed_rad_s, Ts = torqueShaft_Nm;
+  const sc = newPointLossScratch();
+  const pMech = mechanicalLoss(c.friction, c.losses.windage, w);
+  let T = Ts;
+  let p: OperatingPoint;
+  let it = 0;
+  for (;;) {
+    it++;
+    p = solveOperatingPoint(m, lim, w, T);
+    if (w === 0 || it >= MAX_ITER) break;
+    pointLosses(m, c, w, p.id, p.iq, sc);
+    const Tn = Ts + (sc.r[PL.iron]! + pMech) / w;
+    const done = Math.abs(Tn - T) <= TOL * Math.max(Math.abs(T), Math.abs(Tn));
+    if (done) break;
+    T = Tn;
+  }
+  if (opts.minLoss === true) p = minLossCurrent(m, lim, c, w, Ts, pMech, p, sc);
+  pointLosses(m, c, w, p.id, p.iq, sc);
+  const r = sc.r;
+  const cu = r[PL.copper]!, fe = r[PL.iron]!, inv = r[PL.inverter]!, pac = r[PL.acPower]!;
+  const pdc = pac + inv;
+  const ps = Ts * w;
+  const efficiency = ps > 0
+    ? { motor: ratio(ps, pac), inverter: ratio(pac, pdc), system: ratio(ps, pdc) }
+    : ps < 0
+      ? { motor: ratio(-pac, -ps), inverter: ratio(-pdc, -pac), system: ratio(-pdc, -ps) }
+      : { motor: 0, inverter: 0, system: 0 };
+  return {
+    feasible: p.feasible, limitedBy: p.limitedBy, region: p.region,
+    control: opts.minLoss === true ? 'min-loss' : 'least-current',
+    speed: w, torqueShaft_Nm: Ts, torqueEm_Nm: p.feasible ? m.torque(p.id, p.iq) : T,
+    id: p.id, iq: p.iq, current: p.current, vd: r[PL.vd]!, vq: r[PL.vq]!, voltage: Math.hypot(r[PL.vd]!, r[PL.vq]!),
+    losses: { copper_W: cu, iron_W: fe, mechanical_W: pMech, inverter_W: inv },
+    efficiency, shaftPower_W: ps, acPower_W: pac, dcPower_W: pdc, dcCurrent_A: pdc / c.Vdc,
+    powerFactor: r[PL.powerFactor]!, modulationIndex: r[PL.modulation]!, iterations: it,
+  };
+}
