@@ -22,14 +22,14 @@
  * other way round (electrical out over mechanical in); 0 at zero shaft power.
  */
 import type { DriveLimits } from '../drive/inverter-spec';
-import type { MachineInput } from '../machine/machine-model';
+import type { MachineInput, MachineModel } from '../machine/machine-model';
 import type { LimitedBy, OperatingPoint, Region } from './operating-point-types';
 import { InputError } from '../base/errors';
 import { machineModel } from '../machine/linear-dq';
 import { mechanicalLoss } from '../machine/motor-losses';
 import { assertFinite } from './mtpa';
 import { solveOperatingPoint } from './operating-point';
-import { type LossConditions, newPointLossScratch, PL, pointLosses } from './point-losses';
+import { type LossConditions, newPointLossScratch, PL, type PointLossScratch, pointLosses } from './point-losses';
 import { minLossCurrent } from './min-loss-current';
 
 export interface LossPoint {
@@ -83,6 +83,26 @@ export function assertLossConditions(c: LossConditions): void {
   if (!(Number.isFinite(c.friction.Tc) && c.friction.Tc >= 0)) throw new InputError('motor.coulombFriction', `must be a number >= 0 N·m (got ${c.friction.Tc})`);
 }
 
+/**
+ * The least-current point of the T_em fixed point at speed w and shaft torque Ts (pMech the mechanical
+ * loss at w); stops at the first infeasible point (its T_em is then the one asked for there).
+ */
+export function lossFixedPoint(m: MachineModel, lim: DriveLimits, c: LossConditions, w: number, Ts: number, pMech: number, sc: PointLossScratch): { point: OperatingPoint; iterations: number } {
+  let T = Ts;
+  let p: OperatingPoint;
+  let it = 0;
+  for (;;) {
+    it++;
+    p = solveOperatingPoint(m, lim, w, T);
+    if (w === 0 || it >= MAX_ITER || !p.feasible) break;
+    pointLosses(m, c, w, p.id, p.iq, sc);
+    const Tn = Ts + (sc.r[PL.iron]! + pMech) / w;
+    if (Math.abs(Tn - T) <= TOL * Math.max(Math.abs(T), Math.abs(Tn))) break;
+    T = Tn;
+  }
+  return { point: p, iterations: it };
+}
+
 /** The operating point with losses at mechanical speed `speed_rad_s` and shaft torque `torqueShaft_Nm`. */
 export function solveLossPoint(input: MachineInput, lim: DriveLimits, c: LossConditions, speed_rad_s: number, torqueShaft_Nm: number, opts: LossPointOptions = {}): LossPoint {
   assertFinite('speed', speed_rad_s, 'rad/s');
@@ -92,19 +112,9 @@ export function solveLossPoint(input: MachineInput, lim: DriveLimits, c: LossCon
   const w = speed_rad_s, Ts = torqueShaft_Nm;
   const sc = newPointLossScratch();
   const pMech = mechanicalLoss(c.friction, c.losses.windage, w);
-  let T = Ts;
-  let p: OperatingPoint;
-  let it = 0;
-  for (;;) {
-    it++;
-    p = solveOperatingPoint(m, lim, w, T);
-    if (w === 0 || it >= MAX_ITER) break;
-    pointLosses(m, c, w, p.id, p.iq, sc);
-    const Tn = Ts + (sc.r[PL.iron]! + pMech) / w;
-    const done = Math.abs(Tn - T) <= TOL * Math.max(Math.abs(T), Math.abs(Tn));
-    if (done) break;
-    T = Tn;
-  }
+  const fp = lossFixedPoint(m, lim, c, w, Ts, pMech, sc);
+  let p = fp.point;
+  const it = fp.iterations;
   if (opts.minLoss === true) p = minLossCurrent(m, lim, c, w, Ts, pMech, p, sc);
   pointLosses(m, c, w, p.id, p.iq, sc);
   const r = sc.r;
@@ -119,7 +129,7 @@ export function solveLossPoint(input: MachineInput, lim: DriveLimits, c: LossCon
   return {
     feasible: p.feasible, limitedBy: p.limitedBy, region: p.region,
     control: opts.minLoss === true ? 'min-loss' : 'least-current',
-    speed: w, torqueShaft_Nm: Ts, torqueEm_Nm: p.feasible ? m.torque(p.id, p.iq) : T,
+    speed: w, torqueShaft_Nm: Ts, torqueEm_Nm: p.feasible ? m.torque(p.id, p.iq) : p.torque,
     id: p.id, iq: p.iq, current: p.current, vd: r[PL.vd]!, vq: r[PL.vq]!, voltage: Math.hypot(r[PL.vd]!, r[PL.vq]!),
     losses: { copper_W: cu, iron_W: fe, mechanical_W: pMech, inverter_W: inv },
     efficiency, shaftPower_W: ps, acPower_W: pac, dcPower_W: pdc, dcCurrent_A: pdc / c.Vdc,
