@@ -73,6 +73,8 @@ export interface LossPointOptions {
 
 const TOL = 1e-12;
 const MAX_ITER = 100;
+/** consecutive infeasible iterates after which the point is taken as outside the envelope */
+const MAX_OUTSIDE = 8;
 
 const ratio = (out: number, inp: number): number => (inp > 0 && out > 0 ? out / inp : 0);
 
@@ -85,20 +87,37 @@ export function assertLossConditions(c: LossConditions): void {
 
 /**
  * The least-current point of the T_em fixed point at speed w and shaft torque Ts (pMech the mechanical
- * loss at w); stops at the first infeasible point (its T_em is then the one asked for there).
+ * loss at w), from the guess T0 (default Ts): the residual e(T) = Ts + (P_fe(i(T)) + pMech)/w - T is
+ * driven to |e| <= 1e-12 |T| by the plain step T + e, then secant steps (each residual costs one
+ * least-current solve). An infeasible iterate does not stop it (generating, the first guess T_em = Ts
+ * can lie beyond the envelope while the fixed point does not): the losses of the current it would need
+ * drive the next step, and the point is infeasible when the converged one is. An infeasible iterate
+ * after a feasible one ends it as infeasible: the iterates approach the fixed point from one side (the
+ * loss torque changes little with T_em), so crossing the envelope's edge outward means the fixed point
+ * lies beyond it (and at the edge the losses jump, where a fixed point need not exist); so does a run
+ * of MAX_OUTSIDE infeasible iterates.
  */
-export function lossFixedPoint(m: MachineModel, lim: DriveLimits, c: LossConditions, w: number, Ts: number, pMech: number, sc: PointLossScratch): { point: OperatingPoint; iterations: number } {
-  let T = Ts;
+export function lossFixedPoint(m: MachineModel, lim: DriveLimits, c: LossConditions, w: number, Ts: number, pMech: number, sc: PointLossScratch, T0 = Ts): { point: OperatingPoint; iterations: number } {
+  let T = w === 0 ? Ts : T0;
+  let Tp = Number.NaN, ep = Number.NaN;
   let p: OperatingPoint;
-  let it = 0;
+  let it = 0, wasFeasible = false, outside = 0;
   for (;;) {
     it++;
     p = solveOperatingPoint(m, lim, w, T);
-    if (w === 0 || it >= MAX_ITER || !p.feasible) break;
+    outside = p.feasible ? 0 : outside + 1;
+    if (w === 0 || it >= MAX_ITER || (wasFeasible && !p.feasible) || outside >= MAX_OUTSIDE) break;
+    wasFeasible = p.feasible;
     pointLosses(m, c, w, p.id, p.iq, sc);
-    const Tn = Ts + (sc.r[PL.iron]! + pMech) / w;
-    if (Math.abs(Tn - T) <= TOL * Math.max(Math.abs(T), Math.abs(Tn))) break;
-    T = Tn;
+    const e = Ts + (sc.r[PL.iron]! + pMech) / w - T;
+    if (Math.abs(e) <= TOL * Math.max(Math.abs(T), Math.abs(T + e))) break;
+    // secant on e(T) once two residuals are known and the last step shrank the residual
+    let Tn = T + e;
+    if (!Number.isNaN(ep) && e !== ep && Math.abs(e) < Math.abs(ep)) {
+      const ts = T - (e * (T - Tp)) / (e - ep);
+      if (Number.isFinite(ts)) Tn = ts;
+    }
+    Tp = T; ep = e; T = Tn;
   }
   return { point: p, iterations: it };
 }

@@ -1,0 +1,83 @@
+/**
+ * The efficiency map: the operating point with losses (loss-point.ts, least-current control) at every
+ * (speed, shaft torque) of a grid, motoring and generating. Points outside the envelope (no current
+ * within both limits holds the torque) have feasible 0 and NaN in every other array. Along each speed
+ * the fixed point starts from the previous point's loss torque (same tolerance, fewer solves). Results are
+ * typed arrays indexed k = i * torques.length + j (speed i, torque j); the run owns its scratch.
+ */
+import type { DriveLimits } from '../drive/inverter-spec';
+import type { MachineInput } from '../machine/machine-model';
+import { machineModel } from '../machine/linear-dq';
+import { mechanicalLoss } from '../machine/motor-losses';
+import { assertFinite } from './mtpa';
+import { assertLossConditions, lossFixedPoint } from './loss-point';
+import { type LossConditions, newPointLossScratch, PL, pointLosses } from './point-losses';
+
+export interface EfficiencyMap {
+  /** mechanical speeds, rad/s */
+  speeds: Float64Array;
+  /** shaft torques, N·m */
+  torques: Float64Array;
+  /** 1 inside the envelope, else 0 */
+  feasible: Uint8Array;
+  /** efficiencies (fractions, output over input; generating electrical out over mechanical in) */
+  motor: Float64Array;
+  inverter: Float64Array;
+  system: Float64Array;
+  /** losses, W */
+  copper: Float64Array;
+  iron: Float64Array;
+  mechanical: Float64Array;
+  inverterLoss: Float64Array;
+  /** DC-link power, W (positive drawn) */
+  dcPower: Float64Array;
+  /** electromagnetic torque, N·m */
+  torqueEm: Float64Array;
+}
+
+const ratio = (out: number, inp: number): number => (inp > 0 && out > 0 ? out / inp : 0);
+
+/** The efficiency map over speeds x shaft torques with least-current control. */
+export function efficiencyMap(input: MachineInput, lim: DriveLimits, c: LossConditions, speeds: Float64Array, torques: Float64Array): EfficiencyMap {
+  assertLossConditions(c);
+  speeds.forEach((s, i) => assertFinite(`speeds[${i}]`, s, 'rad/s'));
+  torques.forEach((t, j) => assertFinite(`torques[${j}]`, t, 'N·m'));
+  const m = machineModel(input);
+  const N = speeds.length * torques.length;
+  const r: EfficiencyMap = {
+    speeds, torques, feasible: new Uint8Array(N),
+    motor: new Float64Array(N).fill(Number.NaN), inverter: new Float64Array(N).fill(Number.NaN), system: new Float64Array(N).fill(Number.NaN),
+    copper: new Float64Array(N).fill(Number.NaN), iron: new Float64Array(N).fill(Number.NaN), mechanical: new Float64Array(N).fill(Number.NaN),
+    inverterLoss: new Float64Array(N).fill(Number.NaN), dcPower: new Float64Array(N).fill(Number.NaN), torqueEm: new Float64Array(N).fill(Number.NaN),
+  };
+  const sc = newPointLossScratch();
+  const pr = sc.r;
+  for (let i = 0; i < speeds.length; i++) {
+    const w = speeds[i]!;
+    const pMech = mechanicalLoss(c.friction, c.losses.windage, w);
+    let lossTorque = w === 0 ? 0 : pMech / w; // the last point's loss torque: the next point's first guess
+    for (let j = 0; j < torques.length; j++) {
+      const Ts = torques[j]!;
+      const k = i * torques.length + j;
+      const p = lossFixedPoint(m, lim, c, w, Ts, pMech, sc, Ts + lossTorque).point;
+      if (!p.feasible) continue;
+      pointLosses(m, c, w, p.id, p.iq, sc);
+      const pac = pr[PL.acPower]!, inv = pr[PL.inverter]!, pdc = pac + inv, ps = Ts * w;
+      r.feasible[k] = 1;
+      r.copper[k] = pr[PL.copper]!; r.iron[k] = pr[PL.iron]!; r.mechanical[k] = pMech; r.inverterLoss[k] = inv;
+      r.dcPower[k] = pdc; r.torqueEm[k] = p.torque;
+      if (w !== 0) lossTorque = (pr[PL.iron]! + pMech) / w;
+      if (ps > 0) { r.motor[k] = ratio(ps, pac); r.inverter[k] = ratio(pac, pdc); r.system[k] = ratio(ps, pdc); }
+      else if (ps < 0) { r.motor[k] = ratio(-pac, -ps); r.inverter[k] = ratio(-pdc, -pac); r.system[k] = ratio(-pdc, -ps); }
+      else { r.motor[k] = 0; r.inverter[k] = 0; r.system[k] = 0; }
+    }
+  }
+  return r;
+}
+
+/** n evenly spaced values from a to b inclusive (n >= 2), e.g. a map's axis. */
+export function mapAxis(a: number, b: number, n: number): Float64Array {
+  const out = new Float64Array(n);
+  for (let k = 0; k < n; k++) out[k] = a + ((b - a) * k) / (n - 1);
+  return out;
+}
