@@ -2,13 +2,18 @@
  * The efficiency map: the operating point with losses (loss-point.ts, least-current control) at every
  * (speed, shaft torque) of a grid, motoring and generating. Points outside the envelope (no current
  * within both limits holds the torque) have feasible 0 and NaN in every other array. Along each speed
- * the fixed point starts from the previous point's loss torque (same tolerance, fewer solves). Results are
+ * the fixed point starts from the previous point's loss torque and stops at 1e-10 relative (inside the
+ * 1e-9 asked). A point is skipped as outside without solving when no T_em the losses allow can be held:
+ * at a feasible point |we| psi <= |v| + Rs |i| <= Vmax + Rs Imax, so the loss torque lies in
+ * [P_mech, P_mech + P_fe(f, (Vmax + Rs Imax)/|we|)] / w, and the reachable T_em at w is the interval
+ * [Tmin, Tmax] of two max-torque solves (max-torque.ts). Results are
  * typed arrays indexed k = i * torques.length + j (speed i, torque j); the run owns its scratch.
  */
 import type { DriveLimits } from '../drive/inverter-spec';
 import type { MachineInput } from '../machine/machine-model';
 import { machineModel } from '../machine/linear-dq';
-import { mechanicalLoss } from '../machine/motor-losses';
+import { ironLoss, mechanicalLoss } from '../machine/motor-losses';
+import { maxTorqueCore, newScratch } from './max-torque';
 import { assertFinite } from './mtpa';
 import { assertLossConditions, lossFixedPoint } from './loss-point';
 import { type LossConditions, newPointLossScratch, PL, pointLosses } from './point-losses';
@@ -35,6 +40,8 @@ export interface EfficiencyMap {
   torqueEm: Float64Array;
 }
 
+const MAP_TOL = 1e-10;
+
 const ratio = (out: number, inp: number): number => (inp > 0 && out > 0 ? out / inp : 0);
 
 /** The efficiency map over speeds x shaft torques with least-current control. */
@@ -52,14 +59,29 @@ export function efficiencyMap(input: MachineInput, lim: DriveLimits, c: LossCond
   };
   const sc = newPointLossScratch();
   const pr = sc.r;
+  const mt = newScratch();
   for (let i = 0; i < speeds.length; i++) {
     const w = speeds[i]!;
+    const we = m.polePairs * w;
     const pMech = mechanicalLoss(c.friction, c.losses.windage, w);
+    // the reachable electromagnetic torques at w, and the loss torque's bounds
+    maxTorqueCore(m, lim.Vmax, lim.Imax, we, 1, mt, -Infinity);
+    const Tmax = mt.ok ? mt.J : Number.NaN;
+    maxTorqueCore(m, lim.Vmax, lim.Imax, we, -1, mt, -Infinity);
+    const Tmin = mt.ok ? -mt.J : Number.NaN;
+    const slack = 1e-6 * Math.max(Math.abs(Tmax), Math.abs(Tmin));
+    let ltLo = 0, ltHi = 0;
+    if (w !== 0) {
+      const feMax = ironLoss(c.losses.iron, we / (2 * Math.PI), (lim.Vmax + m.Rs * lim.Imax) / Math.abs(we));
+      const a = pMech / w, b = (pMech + feMax) / w;
+      ltLo = Math.min(a, b); ltHi = Math.max(a, b);
+    }
     let lossTorque = w === 0 ? 0 : pMech / w; // the last point's loss torque: the next point's first guess
     for (let j = 0; j < torques.length; j++) {
       const Ts = torques[j]!;
       const k = i * torques.length + j;
-      const p = lossFixedPoint(m, lim, c, w, Ts, pMech, sc, Ts + lossTorque).point;
+      if (!(Ts + ltHi >= Tmin - slack && Ts + ltLo <= Tmax + slack)) continue; // outside for any loss torque (NaN: no point at all)
+      const p = lossFixedPoint(m, lim, c, w, Ts, pMech, sc, Ts + lossTorque, MAP_TOL).point;
       if (!p.feasible) continue;
       pointLosses(m, c, w, p.id, p.iq, sc);
       const pac = pr[PL.acPower]!, inv = pr[PL.inverter]!, pdc = pac + inv, ps = Ts * w;

@@ -88,7 +88,7 @@ export function assertLossConditions(c: LossConditions): void {
 /**
  * The least-current point of the T_em fixed point at speed w and shaft torque Ts (pMech the mechanical
  * loss at w), from the guess T0 (default Ts): the residual e(T) = Ts + (P_fe(i(T)) + pMech)/w - T is
- * driven to |e| <= 1e-12 |T| by the plain step T + e, then secant steps (each residual costs one
+ * driven to |e| <= tol |T| (default 1e-12) by the plain step T + e, then secant steps (each residual costs one
  * least-current solve). An infeasible iterate does not stop it (generating, the first guess T_em = Ts
  * can lie beyond the envelope while the fixed point does not): the losses of the current it would need
  * drive the next step, and the point is infeasible when the converged one is. An infeasible iterate
@@ -97,7 +97,7 @@ export function assertLossConditions(c: LossConditions): void {
  * lies beyond it (and at the edge the losses jump, where a fixed point need not exist); so does a run
  * of MAX_OUTSIDE infeasible iterates.
  */
-export function lossFixedPoint(m: MachineModel, lim: DriveLimits, c: LossConditions, w: number, Ts: number, pMech: number, sc: PointLossScratch, T0 = Ts): { point: OperatingPoint; iterations: number } {
+export function lossFixedPoint(m: MachineModel, lim: DriveLimits, c: LossConditions, w: number, Ts: number, pMech: number, sc: PointLossScratch, T0 = Ts, tol = TOL): { point: OperatingPoint; iterations: number } {
   let T = w === 0 ? Ts : T0;
   let Tp = Number.NaN, ep = Number.NaN;
   let p: OperatingPoint;
@@ -110,7 +110,7 @@ export function lossFixedPoint(m: MachineModel, lim: DriveLimits, c: LossConditi
     wasFeasible = p.feasible;
     pointLosses(m, c, w, p.id, p.iq, sc);
     const e = Ts + (sc.r[PL.iron]! + pMech) / w - T;
-    if (Math.abs(e) <= TOL * Math.max(Math.abs(T), Math.abs(T + e))) break;
+    if (Math.abs(e) <= tol * Math.max(Math.abs(T), Math.abs(T + e))) break;
     // secant on e(T) once two residuals are known and the last step shrank the residual
     let Tn = T + e;
     if (!Number.isNaN(ep) && e !== ep && Math.abs(e) < Math.abs(ep)) {
