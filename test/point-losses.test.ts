@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { LinearDqModel } from '../src/core/machine/linear-dq';
-import { newPointLossScratch, PL, pointLosses } from '../src/core/steady-state/point-losses';
+import { efficiencies, newPointLossScratch, PL, pointLosses } from '../src/core/steady-state/point-losses';
 import { inverterLosses } from '../src/core/drive/inverter-losses';
 
 describe('losses of one operating point', () => {
@@ -34,5 +34,21 @@ describe('losses of one operating point', () => {
     expect(pointLosses(m, { Vdc: 350, friction: { B: 0, Tc: 0 }, losses: {} }, 300, 0, 0, sc)).toBe(0);
     expect(sc.r[PL.powerFactor]).toBe(0);
     expect(sc.r[PL.acPower]).toBe(0);
+  });
+});
+
+describe('efficiencies', () => {
+  it('output over input, motoring and generating', () => {
+    const e = new Float64Array(3);
+    // IEC 60034-2-1 (2014): efficiency = output power / input power
+    efficiencies(900, 950, 1000, e);
+    expect([...e]).toEqual([900 / 950, 950 / 1000, 900 / 1000]);
+    efficiencies(-1000, -950, -900, e);
+    expect([...e]).toEqual([950 / 1000, 900 / 950, 900 / 1000]);
+    // losses above the mechanical input: no electrical output, efficiency 0 (common practice (no source))
+    efficiencies(-10, 5, 8, e);
+    expect([...e]).toEqual([0, 0, 0]);
+    efficiencies(0, 5, 8, e);
+    expect([...e]).toEqual([0, 0, 0]);
   });
 });

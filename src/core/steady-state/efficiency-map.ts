@@ -16,7 +16,7 @@ import { ironLoss, mechanicalLoss } from '../machine/motor-losses';
 import { maxTorqueCore, newScratch } from './max-torque';
 import { assertFinite } from './mtpa';
 import { assertLossConditions, lossFixedPoint } from './loss-point';
-import { type LossConditions, newPointLossScratch, PL, pointLosses } from './point-losses';
+import { efficiencies, type LossConditions, newPointLossScratch, PL, pointLosses } from './point-losses';
 
 export interface EfficiencyMap {
   /** mechanical speeds, rad/s */
@@ -42,7 +42,6 @@ export interface EfficiencyMap {
 
 const MAP_TOL = 1e-10;
 
-const ratio = (out: number, inp: number): number => (inp > 0 && out > 0 ? out / inp : 0);
 
 /** The efficiency map over speeds x shaft torques with least-current control. */
 export function efficiencyMap(input: MachineInput, lim: DriveLimits, c: LossConditions, speeds: Float64Array, torques: Float64Array): EfficiencyMap {
@@ -60,6 +59,7 @@ export function efficiencyMap(input: MachineInput, lim: DriveLimits, c: LossCond
   const sc = newPointLossScratch();
   const pr = sc.r;
   const mt = newScratch();
+  const eff = new Float64Array(3);
   for (let i = 0; i < speeds.length; i++) {
     const w = speeds[i]!;
     const we = m.polePairs * w;
@@ -89,9 +89,8 @@ export function efficiencyMap(input: MachineInput, lim: DriveLimits, c: LossCond
       r.copper[k] = pr[PL.copper]!; r.iron[k] = pr[PL.iron]!; r.mechanical[k] = pMech; r.inverterLoss[k] = inv;
       r.dcPower[k] = pdc; r.torqueEm[k] = p.torque;
       if (w !== 0) lossTorque = (pr[PL.iron]! + pMech) / w;
-      if (ps > 0) { r.motor[k] = ratio(ps, pac); r.inverter[k] = ratio(pac, pdc); r.system[k] = ratio(ps, pdc); }
-      else if (ps < 0) { r.motor[k] = ratio(-pac, -ps); r.inverter[k] = ratio(-pdc, -pac); r.system[k] = ratio(-pdc, -ps); }
-      else { r.motor[k] = 0; r.inverter[k] = 0; r.system[k] = 0; }
+      efficiencies(ps, pac, pdc, eff);
+      r.motor[k] = eff[0]!; r.inverter[k] = eff[1]!; r.system[k] = eff[2]!;
     }
   }
   return r;

@@ -17,9 +17,10 @@
  * current's. (Holding the shaft torque rather than T_em fixed keeps the comparison to the same
  * output: a current with less iron loss needs less T_em when motoring and more when generating.)
  *
- * Efficiencies are output over input, 0 when the output is not positive: motoring (T_shaft w > 0)
+ * Efficiencies are output over input (point-losses.ts, efficiencies): motoring (T_shaft w > 0)
  * motor = shaft / P_ac, inverter = P_ac / P_dc, system = shaft / P_dc; generating (T_shaft w < 0) the
- * other way round (electrical out over mechanical in); 0 at zero shaft power.
+ * other way round (electrical out over mechanical in); 0 at zero shaft power. An infeasible point
+ * reports the losses of the current it would need.
  */
 import type { DriveLimits } from '../drive/inverter-spec';
 import type { MachineInput, MachineModel } from '../machine/machine-model';
@@ -29,7 +30,7 @@ import { machineModel } from '../machine/linear-dq';
 import { mechanicalLoss } from '../machine/motor-losses';
 import { assertFinite } from './mtpa';
 import { solveOperatingPoint } from './operating-point';
-import { type LossConditions, newPointLossScratch, PL, type PointLossScratch, pointLosses } from './point-losses';
+import { efficiencies, type LossConditions, newPointLossScratch, PL, type PointLossScratch, pointLosses } from './point-losses';
 import { minLossCurrent } from './min-loss-current';
 
 export interface LossPoint {
@@ -75,8 +76,6 @@ const TOL = 1e-12;
 const MAX_ITER = 100;
 /** consecutive infeasible iterates after which the point is taken as outside the envelope */
 const MAX_OUTSIDE = 8;
-
-const ratio = (out: number, inp: number): number => (inp > 0 && out > 0 ? out / inp : 0);
 
 /** Validate the loss conditions (the DC voltage and the friction terms). */
 export function assertLossConditions(c: LossConditions): void {
@@ -140,11 +139,9 @@ export function solveLossPoint(input: MachineInput, lim: DriveLimits, c: LossCon
   const cu = r[PL.copper]!, fe = r[PL.iron]!, inv = r[PL.inverter]!, pac = r[PL.acPower]!;
   const pdc = pac + inv;
   const ps = Ts * w;
-  const efficiency = ps > 0
-    ? { motor: ratio(ps, pac), inverter: ratio(pac, pdc), system: ratio(ps, pdc) }
-    : ps < 0
-      ? { motor: ratio(-pac, -ps), inverter: ratio(-pdc, -pac), system: ratio(-pdc, -ps) }
-      : { motor: 0, inverter: 0, system: 0 };
+  const e = new Float64Array(3);
+  efficiencies(ps, pac, pdc, e);
+  const efficiency = { motor: e[0]!, inverter: e[1]!, system: e[2]! };
   return {
     feasible: p.feasible, limitedBy: p.limitedBy, region: p.region,
     control: opts.minLoss === true ? 'min-loss' : 'least-current',

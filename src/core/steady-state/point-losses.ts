@@ -54,3 +54,18 @@ export function pointLosses(m: MachineModel, c: LossConditions, w: number, id: n
   r[PL.modulation] = mi; r[PL.powerFactor] = pf; r[PL.vd] = vd; r[PL.vq] = vq;
   return cu + fe + inv;
 }
+
+const ratio = (out: number, inp: number): number => (inp > 0 && out > 0 ? out / inp : 0);
+
+/**
+ * Motor, inverter and system efficiency (fractions) into out[0..2] from the shaft power ps, the motor's
+ * AC power pac and the DC power pdc (W, motor reference direction): output over input, motoring
+ * shaft/AC, AC/DC, shaft/DC; generating (ps < 0) electrical out over mechanical in, -AC/-shaft,
+ * -DC/-AC, -DC/-shaft; 0 where the output is not positive, and all 0 at zero shaft power.
+ */
+export function efficiencies(ps: number, pac: number, pdc: number, out: Float64Array): void {
+  if (ps > 0) { out[0] = ratio(ps, pac); out[1] = ratio(pac, pdc); out[2] = ratio(ps, pdc); }
+  else if (ps < 0) { out[0] = ratio(-pac, -ps); out[1] = ratio(-pdc, -pac); out[2] = ratio(-pdc, -ps); }
+  else { out[0] = 0; out[1] = 0; out[2] = 0; }
+}
+
