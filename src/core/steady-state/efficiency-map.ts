@@ -2,7 +2,7 @@
  * The efficiency map: the operating point with losses (loss-point.ts, least-current control) at every
  * (speed, shaft torque) of a grid, motoring and generating. Points outside the envelope (no current
  * within both limits holds the torque) have feasible 0 and NaN in every other array. Along each speed
- * the fixed point starts from the previous point's loss torque and stops at 1e-10 relative (inside the
+ * the fixed point starts from the loss torque extrapolated from the last two points and stops at 1e-10 relative (inside the
  * 1e-9 asked). A point is skipped as outside without solving when no T_em the losses allow can be held:
  * at a feasible point |we| psi <= |v| + Rs |i| <= Vmax + Rs Imax, so the loss torque lies in
  * [P_mech, P_mech + P_fe(f, (Vmax + Rs Imax)/|we|)] / w, and the reachable T_em at w is the interval
@@ -76,19 +76,21 @@ export function efficiencyMap(input: MachineInput, lim: DriveLimits, c: LossCond
       const a = pMech / w, b = (pMech + feMax) / w;
       ltLo = Math.min(a, b); ltHi = Math.max(a, b);
     }
-    let lossTorque = w === 0 ? 0 : pMech / w; // the last point's loss torque: the next point's first guess
+    // the loss torque of the last two points inside, extrapolated: the next point's first guess
+    let lt1 = w === 0 ? 0 : pMech / w, T1 = Number.NaN, lt0 = Number.NaN, T0 = Number.NaN;
     for (let j = 0; j < torques.length; j++) {
       const Ts = torques[j]!;
       const k = i * torques.length + j;
       if (!(Ts + ltHi >= Tmin - slack && Ts + ltLo <= Tmax + slack)) continue; // outside for any loss torque (NaN: no point at all)
-      const p = lossFixedPoint(m, lim, c, w, Ts, pMech, sc, Ts + lossTorque, MAP_TOL).point;
+      const guess = !Number.isNaN(T0) && T1 !== T0 ? lt1 + ((lt1 - lt0) * (Ts - T1)) / (T1 - T0) : lt1;
+      const p = lossFixedPoint(m, lim, c, w, Ts, pMech, sc, Ts + guess, MAP_TOL).point;
       if (!p.feasible) continue;
       pointLosses(m, c, w, p.id, p.iq, sc);
       const pac = pr[PL.acPower]!, inv = pr[PL.inverter]!, pdc = pac + inv, ps = Ts * w;
       r.feasible[k] = 1;
       r.copper[k] = pr[PL.copper]!; r.iron[k] = pr[PL.iron]!; r.mechanical[k] = pMech; r.inverterLoss[k] = inv;
       r.dcPower[k] = pdc; r.torqueEm[k] = p.torque;
-      if (w !== 0) lossTorque = (pr[PL.iron]! + pMech) / w;
+      if (w !== 0) { lt0 = lt1; T0 = T1; lt1 = (pr[PL.iron]! + pMech) / w; T1 = Ts; }
       efficiencies(ps, pac, pdc, eff);
       r.motor[k] = eff[0]!; r.inverter[k] = eff[1]!; r.system[k] = eff[2]!;
     }
