@@ -1,13 +1,14 @@
 /**
  * The efficiency map: the operating point with losses (loss-point.ts, least-current control) at every
  * (speed, shaft torque) of a grid, motoring and generating. Points outside the envelope (no current
- * within both limits holds the torque) have feasible 0 and NaN in every other array. Along each speed
- * the fixed point starts from the loss torque extrapolated from the last two points and stops at 1e-10 relative (inside the
- * 1e-9 asked). A point is skipped as outside without solving when no T_em the losses allow can be held:
- * at a feasible point |we| psi <= |v| + Rs |i| <= Vmax + Rs Imax, so the loss torque lies in
- * [P_mech, P_mech + P_fe(f, (Vmax + Rs Imax)/|we|)] / w, and the reachable T_em at w is the interval
- * [Tmin, Tmax] of two max-torque solves (max-torque.ts). Results are
- * typed arrays indexed k = i * torques.length + j (speed i, torque j); the run owns its scratch.
+ * within both limits holds the torque) have feasible 0 and NaN in every other array. Results are typed
+ * arrays indexed k = i * torques.length + j (speed i, torque j); the run owns its scratch.
+ *
+ * Along each speed the fixed point starts from the loss torque extrapolated from the last two points
+ * and stops at 1e-10 relative (inside the 1e-9 asked). A point is skipped as outside without solving
+ * when no T_em the losses allow can be held: at a feasible point |we| psi <= |v| + Rs |i| <= Vmax +
+ * Rs Imax, so the loss torque lies in [P_mech, P_mech + P_fe(f, (Vmax + Rs Imax)/|we|)] / w, and the
+ * reachable T_em at w is the interval [Tmin, Tmax] of two max-torque solves (max-torque.ts).
  */
 import type { DriveLimits } from '../drive/inverter-spec';
 import type { MachineInput } from '../machine/machine-model';
