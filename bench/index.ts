@@ -8,6 +8,7 @@ import { envelopeBench } from './envelope';
 import { fluxMapEnvelopeBench } from './flux-map-envelope';
 import { simulateBench, simulateMapBench } from './simulate';
 import { cliStartBench } from './cli-start';
+import { efficiencyMapBench } from './efficiency-map';
 import { againstCheckout } from './against-checkout';
 
 export interface BenchSection {
@@ -15,7 +16,7 @@ export interface BenchSection {
   run: () => void | Promise<void>;
 }
 
-const sections: BenchSection[] = [envelopeBench, fluxMapEnvelopeBench, simulateBench, simulateMapBench, cliStartBench];
+const sections: BenchSection[] = [envelopeBench, fluxMapEnvelopeBench, simulateBench, simulateMapBench, cliStartBench, efficiencyMapBench];
 
 const argv = process.argv.slice(2);
 const onlyAt = argv.indexOf('--only');
