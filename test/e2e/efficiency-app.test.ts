@@ -37,9 +37,9 @@ describe('the efficiency tab', () => {
     // the envelope (motoring and generating) and the requirement points over the contours
     expect(await page.$$eval('[data-testid="efficiency-plot"] .scatterlayer .trace', (els) => els.length)).toBeGreaterThanOrEqual(3);
 
-    // hover a point at about a third of the top speed and 40 % of the largest motoring torque
+    // hover a point at about a third of the top speed and a fifth of the largest motoring torque
     const box = (await page.locator('[data-testid="efficiency-plot"] .nsewdrag').first().boundingBox())!;
-    await page.mouse.move(box.x + 0.33 * box.width, box.y + 0.3 * box.height);
+    await page.mouse.move(box.x + 0.33 * box.width, box.y + 0.4 * box.height);
     await page.waitForSelector('[data-testid="eff-loss-bar"] .barlayer .trace', { state: 'attached', timeout: 20_000 });
     expect(await page.$$eval('[data-testid="eff-loss-bar"] .barlayer .point', (els) => els.length)).toBe(4);
     const table = (await page.textContent('[data-testid="eff-point-table"]')) ?? '';

@@ -105,7 +105,9 @@ export const EfficiencyView = memo(function EfficiencyView({ results, theme }: {
   const bar = useMemo(() => (point?.pt?.feasible ? lossBarFigure(point.pt, readTheme(), CURVE[theme]) : null), [point, theme]);
 
   const save = (format: 'png' | 'svg') => {
-    if (el.current) void exportPlotImage(el.current, format, `efficiency-${quantity}`, project, exporter);
+    const c = solved?.corner ?? corner;
+    const what = `${QUANTITY_LABEL[quantity]} efficiency over speed and shaft torque, ${c} corner (${c === 'hot' ? `winding ${project.conditions.windingTemp_C} °C, magnet ${project.conditions.magnetTemp_C} °C` : `${project.conditions.coldTemp_C} °C`}), least-current control at the peak limits`;
+    if (el.current) void exportPlotImage(el.current, format, `efficiency-${quantity}-${c}`, project, exporter, what);
   };
   const saveCsv = () => {
     if (solved) void exporter.exportAndTell('envelope-csv', () => efficiencyMapCsv(solved.map), `efficiency-map-${solved.corner}.csv`);
@@ -185,7 +187,7 @@ export const EfficiencyView = memo(function EfficiencyView({ results, theme }: {
           )}
         </div>
       )}
-      <div className="cols">
+      <div style={{ display: 'grid', gridTemplateColumns: 'minmax(0, 2fr) minmax(0, 1fr)', gap: 12 }}>
         <div className="card">
           <h4>{QUANTITY_LABEL[quantity]} efficiency over speed and shaft torque</h4>
           {fig ? (

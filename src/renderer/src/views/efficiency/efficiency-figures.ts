@@ -56,7 +56,8 @@ export function efficiencyFigure(map: EfficiencyMap, q: EfficiencyQuantity, env:
     legendgroup: 'envelope',
     showlegend: show,
     line: { color: envColour, width: 2.5 },
-    hovertemplate: `${name}<br>%{x:.0f} rpm, %{y:.4g} N·m<extra></extra>`,
+    // no hover on the boundary: a hover picks the map's point under the pointer, not the nearest envelope point
+    hoverinfo: 'skip',
   });
   const data: Data[] = [
     {
@@ -69,6 +70,7 @@ export function efficiencyFigure(map: EfficiencyMap, q: EfficiencyQuantity, env:
       zmax: 100,
       colorscale: 'Viridis',
       connectgaps: false,
+      hoverongaps: false,
       contours: { start: CONTOUR_FROM, end: 100, size: CONTOUR_STEP, coloring: 'heatmap', showlabels: true, labelfont: { size: 10, color: '#ffffff' } },
       line: { width: 0.6, color: 'rgba(255,255,255,0.6)' },
       colorbar: { title: { text: `${q} efficiency, %`, side: 'right' }, ticksuffix: ' %', thickness: 14, outlinewidth: 0, tickfont: { color: t.ink } },
