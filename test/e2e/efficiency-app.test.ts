@@ -1,7 +1,7 @@
 // The efficiency tab in the built app (headless Chromium, 1440 x 900), on the traction demo (invented
 // loss data): the map solved in the worker and drawn as contours with the envelope, a peak system
 // efficiency in a plausible band, a hovered point's loss bar, the map's CSV export; screenshot in
-// test-results/efficiency-view.png.
+// test-results/efficiency-view.png; a finer map cancelled.
 import { readFileSync } from 'node:fs';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Page } from 'playwright-core';
@@ -51,6 +51,20 @@ describe('the efficiency tab', () => {
     const rows = parseCsv(readFileSync((await download.path())!, 'utf8'));
     expect(rows[0]).toEqual(['speed_rpm', 'torque_Nm', 'feasible', 'motor', 'inverter', 'system', 'copper_W', 'iron_W', 'mechanical_W', 'inverter_W', 'dcPower_W']);
     expect(rows.length).toBe(1 + 60 * 60);
+    expect(pageErrors).toEqual([]);
+  }, 120_000);
+
+  it('cancels a finer map: the worker stops and the previous map stays', async () => {
+    await page.fill('[data-testid="eff-points"]', '150');
+    await page.press('[data-testid="eff-points"]', 'Enter');
+    await page.waitForSelector('[data-testid="eff-progress"]', { timeout: 20_000 });
+    await page.click('[data-testid="eff-cancel"]');
+    await page.waitForSelector('[data-testid="eff-cancelled"]');
+    expect(await page.$$('[data-testid="eff-progress"]')).toHaveLength(0);
+    expect(await page.textContent('[data-testid="eff-conditions"]')).toMatch(/60 × 60 points/);
+    await page.waitForTimeout(1500);
+    // terminated: no map of 150 x 150 arrives afterwards
+    expect(await page.textContent('[data-testid="eff-conditions"]')).toMatch(/60 × 60 points/);
     expect(pageErrors).toEqual([]);
   }, 120_000);
 });

@@ -106,7 +106,7 @@ export const EfficiencyView = memo(function EfficiencyView({ results, theme }: {
 
   const save = (format: 'png' | 'svg') => {
     const c = solved?.corner ?? corner;
-    const what = `${QUANTITY_LABEL[quantity]} efficiency over speed and shaft torque, ${c} corner (${c === 'hot' ? `winding ${project.conditions.windingTemp_C} °C, magnet ${project.conditions.magnetTemp_C} °C` : `${project.conditions.coldTemp_C} °C`}), least-current control at the peak limits`;
+    const what = `${quantity} efficiency map, ${c} corner, least-current control at the peak limits`;
     if (el.current) void exportPlotImage(el.current, format, `efficiency-${quantity}-${c}`, project, exporter, what);
   };
   const saveCsv = () => {
@@ -177,12 +177,12 @@ export const EfficiencyView = memo(function EfficiencyView({ results, theme }: {
       {solved && (
         <div className="key" data-testid="eff-peak">
           <span data-testid="eff-peak-system" data-value={bestSystem?.value ?? ''}>
-            Peak system efficiency {pct(bestSystem?.value)}
+            {`Peak system efficiency ${pct(bestSystem?.value)}`}
             {bestSystem && ` at ${Math.round(bestSystem.speed * RAD_S_TO_RPM)} rpm, ${num(bestSystem.torque)} N·m`}
           </span>
           {quantity !== 'system' && best && (
-            <span>
-              ; peak {quantity} efficiency {pct(best.value)} at {Math.round(best.speed * RAD_S_TO_RPM)} rpm, {num(best.torque)} N·m
+            <span data-testid="eff-peak-shown">
+              {`; peak ${quantity} efficiency ${pct(best.value)} at ${Math.round(best.speed * RAD_S_TO_RPM)} rpm, ${num(best.torque)} N·m`}
             </span>
           )}
         </div>
