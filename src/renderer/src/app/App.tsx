@@ -1,4 +1,4 @@
-// Torquewise main window: the input side on the left, four views on the right (a fifth, the flux map,
+// Torquewise main window: the input side on the left, five views on the right (a fifth, the flux map,
 // for a project that carries one).
 import { useCallback, useEffect, useMemo, useRef, useState } from 'react';
 import { checkProject, listCapProblem } from '../../../core/project/schema';
@@ -20,6 +20,7 @@ import { LoadStepsView } from '../views/load-steps/LoadStepsView';
 import { TuningView } from '../views/tuning/TuningView';
 import { DatasheetView } from '../views/datasheet/DatasheetView';
 import { FluxMapView } from '../views/flux-map/FluxMapView';
+import { EfficiencyView } from '../views/efficiency/EfficiencyView';
 import { fluxMapOf } from '../views/flux-map/flux-map-data';
 import { envelopeCsv, tracesCsv } from '../components/exports';
 import { exportDatasheetHtml, exportVisiblePlot } from '../components/image-export';
@@ -27,9 +28,10 @@ import { limitPhrase } from '../../../core/reports/phrases';
 import { FieldNotesContext, FindingsStrip, findingsKey, notesByPath } from '../components/field-notes';
 import { num } from '../components/format';
 
-type View = 'envelope' | 'fluxmap' | 'loadsteps' | 'tuning' | 'datasheet';
+type View = 'envelope' | 'efficiency' | 'fluxmap' | 'loadsteps' | 'tuning' | 'datasheet';
 const VIEWS: Array<[View, string]> = [
   ['envelope', 'Envelope'],
+  ['efficiency', 'Efficiency'],
   ['fluxmap', 'Flux map'],
   ['loadsteps', 'Load steps'],
   ['tuning', 'Tuning'],
@@ -465,6 +467,8 @@ export function App() {
                 <div className="empty">No valid project yet: correct the marked inputs.</div>
               ) : shown === 'envelope' ? (
                 <EnvelopeView results={results} opts={envOpts} setOpts={setEnvOpts} theme={theme} />
+              ) : shown === 'efficiency' ? (
+                <EfficiencyView results={results} theme={theme} />
               ) : shown === 'fluxmap' ? (
                 <FluxMapView project={results.project} theme={theme} />
               ) : shown === 'loadsteps' ? (

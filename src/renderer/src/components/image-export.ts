@@ -10,7 +10,7 @@ import { dataUrlToBytes, svgDataUrlToText } from '../state/file-bridge';
 import type { Exporter } from '../state/exporter';
 import { EXPORT_SIZE, exportLayout } from './figure-export-layout';
 
-const PLOTS = ['envelope-plot', 'datasheet-plot', 'traces-plot', 'bode-plot', 'plane-plot', 'fluxmap-psid-plot'];
+const PLOTS = ['envelope-plot', 'datasheet-plot', 'traces-plot', 'bode-plot', 'plane-plot', 'fluxmap-psid-plot', 'efficiency-plot'];
 
 /** What each plot shows, for the exported image's title. */
 const PLOT_TITLES: Record<string, string> = {
@@ -24,6 +24,10 @@ const PLOT_TITLES: Record<string, string> = {
   'fluxmap-psiq': 'flux map, ψq against iq at several id',
   'fluxmap-plane': 'flux map, MTPA and constant torque on the current plane',
   'fluxmap-inductance': 'flux map, apparent and incremental inductances along MTPA',
+  efficiency: 'efficiency over speed and shaft torque',
+  'efficiency-system': 'system efficiency (DC link to shaft) over speed and shaft torque',
+  'efficiency-motor': 'motor efficiency over speed and shaft torque',
+  'efficiency-inverter': 'inverter efficiency over speed and shaft torque',
 };
 
 /** The first plot shown on the current view, exported as PNG or SVG with title and conditions. */
@@ -36,17 +40,18 @@ export async function exportVisiblePlot(format: 'png' | 'svg', project: Resolved
 }
 
 /** The title of an exported figure: the project's name and what the plot shows. */
-export const figureTitle = (project: ResolvedProject, name: string): string =>
-  `${project.name.trim() || 'Unnamed project'}: ${PLOT_TITLES[name] ?? name}`;
+export const figureTitle = (project: ResolvedProject, name: string, what?: string): string =>
+  `${project.name.trim() || 'Unnamed project'}: ${what ?? PLOT_TITLES[name] ?? name}`;
 
 /**
  * A plot element as a PNG or SVG file named `name`, through plotly's image API, drawn with a title,
  * its legend and the conditions (project, bus, temperatures, current limits, date, version); says how it went.
+ * `what`: what the plot shows, for the title (default: by the plot's name).
  */
-export function exportPlotImage(el: HTMLElement, format: 'png' | 'svg', name: string, project: ResolvedProject, exporter: Exporter): Promise<boolean> {
+export function exportPlotImage(el: HTMLElement, format: 'png' | 'svg', name: string, project: ResolvedProject, exporter: Exporter, what?: string): Promise<boolean> {
   const image = async () => {
     const gd = el as unknown as { data?: Data[]; layout?: Partial<Layout> };
-    const layout = exportLayout(gd.layout ?? {}, figureTitle(project, name), figureConditions(project, { date: isoDate(new Date()) }));
+    const layout = exportLayout(gd.layout ?? {}, figureTitle(project, name, what), figureConditions(project, { date: isoDate(new Date()) }));
     const fig = { data: gd.data ?? [], layout } as unknown as Parameters<typeof Plotly.toImage>[0];
     return Plotly.toImage(fig, { format, width: EXPORT_SIZE.width, height: EXPORT_SIZE.height, scale: format === 'png' ? 2 : 1 });
   };
