@@ -29,6 +29,7 @@ const FORBIDDEN: Array<[string, RegExp]> = [
 // the places that load code, none from a project file:
 const ALLOWED: Array<[string, RegExp]> = [
   ['src/renderer/src/views/load-steps/LoadStepsView.tsx', /new Worker\(new URL\('\.\.\/\.\.\/workers\/sim-worker\.ts', import\.meta\.url\)/], // the bundled simulation worker
+  ['src/renderer/src/views/efficiency/EfficiencyView.tsx', /new Worker\(new URL\('\.\.\/\.\.\/workers\/efficiency-worker\.ts', import\.meta\.url\)/], // the bundled efficiency-map worker
   ['src/main/index.ts', /\.loadURL\(devServerUrl\)/], // the loopback dev server, development builds only
   ['src/main/index.ts', /\.loadURL\(APP_PAGE_URL\)/], // the built page, app://torquewise/index.html (src/main/app-protocol.ts)
 ];
