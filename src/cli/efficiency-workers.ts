@@ -46,7 +46,7 @@ export function workerMain(): void {
 }
 
 /** The script a worker runs: this very file when bundled, else src/cli/bin.ts through tsx. */
-function workerScript(): WorkerScript {
+export function workerScript(): WorkerScript {
   const here = import.meta.url;
   if (!/\.ts$/.test(here)) return { script: new URL(here) };
   const bin = new URL('./bin.ts', here).href;
@@ -58,9 +58,9 @@ function workerScript(): WorkerScript {
 /**
  * The map over speeds x torques: in this thread when threads <= 1, else the speed rows split in
  * blocks (about four per thread, so that the threads finish together) across this thread and
- * `threads` - 1 workers.
+ * `threads` - 1 workers (`workersOnly`: on `threads` workers, this thread computing nothing).
  */
-export async function efficiencyMapThreaded(projectText: string, p: ReturnType<typeof loadProjectText>, corner: Corner, minLoss: boolean, speeds: Float64Array, torques: Float64Array, threads: number): Promise<EfficiencyMap> {
+export async function efficiencyMapThreaded(projectText: string, p: ReturnType<typeof loadProjectText>, corner: Corner, minLoss: boolean, speeds: Float64Array, torques: Float64Array, threads: number, opts: { workersOnly?: boolean } = {}): Promise<EfficiencyMap> {
   const g = { corner, minLoss, torques };
   if (threads <= 1 || speeds.length < 2) return efficiencyRows(p, g, speeds);
   const size = Math.max(1, Math.ceil(speeds.length / (threads * 4)));
@@ -68,6 +68,6 @@ export async function efficiencyMapThreaded(projectText: string, p: ReturnType<t
   for (let a = 0; a < speeds.length; a += size) blocks.push(speeds.slice(a, a + size));
   const data: MapWorkerData = { task: MAP_WORKER_TASK, projectText, corner, minLoss, torques };
   // this thread computes blocks too, while the workers start and after
-  const rows = await runWorkerPool<Float64Array, EfficiencyMap>(workerScript(), data, blocks, threads, (s) => efficiencyRows(p, g, s));
+  const rows = await runWorkerPool<Float64Array, EfficiencyMap>(workerScript(), data, blocks, threads, opts.workersOnly === true ? undefined : (s) => efficiencyRows(p, g, s));
   return joinRows(speeds, torques, rows);
 }
