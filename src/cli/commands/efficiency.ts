@@ -28,7 +28,6 @@ export const efficiencyCommand: Command = {
     if (cornerText !== 'hot' && cornerText !== 'cold') throw new InputError('--corner', `must be hot or cold (got '${cornerText}')`);
     const corner: Corner = cornerText;
     const minLoss = args.flags.has('min-loss');
-    if (input === undefined) throw new InputError('project file', 'its text is needed to run the map across threads');
     const model = corner === 'hot' ? p.models.hot : p.models.cold;
     // speed 0 .. the envelope's plotted range; shaft torque from the generating to the motoring maximum (at standstill)
     const wMax = speedMax !== undefined ? rpmToRadS(speedMax) : projectSpeedRange(p).speedMax;
@@ -37,7 +36,8 @@ export const efficiencyCommand: Command = {
     if (!(tMot > 0 && tGen > 0)) throw new InputError('motor', 'gives no torque at standstill within the limits: there is no map to draw');
     const speeds = mapAxis(0, wMax, nS), torques = mapAxis(-tGen, tMot, nT);
     const t0 = performance.now();
-    const map = await efficiencyMapThreaded(input.projectText, p, corner, minLoss, speeds, torques, threads);
+    // the workers load the project's text (without it, as when run from a library call, this thread computes it all)
+    const map = await efficiencyMapThreaded(input?.projectText ?? '', p, corner, minLoss, speeds, torques, input === undefined ? 1 : threads);
     const wall_s = (performance.now() - t0) / 1e3;
     const summary = { ...efficiencyMapSummary(map), corner, control: minLoss ? 'min-loss' : 'least-current', threads, wall_s };
     const json = { ...efficiencyMapJson(map), summary };

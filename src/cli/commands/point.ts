@@ -30,7 +30,8 @@ export const pointCommand: Command = {
       efficiency: { ...op.efficiency },
       dcPower_W: op.dcPower_W,
       dcCurrent_A: op.dcCurrent_A,
-      powerFactor: op.powerFactor,
+      // 0 at zero current (as the solver says); its quotient can underflow to 0/0 at currents near the smallest double
+      powerFactor: Number.isFinite(op.powerFactor) ? op.powerFactor : 0,
       control: op.control,
     };
     const verdict = op.feasible ? 'feasible' : `NOT feasible: ${notReachablePhrase(op.limitedBy)}`;
@@ -43,7 +44,7 @@ export const pointCommand: Command = {
       `  |v| ${fmt(op.voltage)} V peak phase (limit ${fmt(p.peak.Vmax)} V), region: ${regionPhrase(op.region)}`,
       `  losses: copper ${fmt(l.copper_W)} W, iron ${fmt(l.iron_W)} W, mechanical ${fmt(l.mechanical_W)} W, inverter ${fmt(l.inverter_W)} W, total ${fmt(total)} W`,
       `  efficiency: motor ${pct(op.efficiency.motor)}, inverter ${pct(op.efficiency.inverter)}, system ${pct(op.efficiency.system)}`,
-      `  DC link ${fmt(op.dcPower_W)} W, ${fmt(op.dcCurrent_A)} A at ${fmt(p.inverter.Vdc)} V; power factor ${fmt(op.powerFactor, 3)}`,
+      `  DC link ${fmt(op.dcPower_W)} W, ${fmt(op.dcCurrent_A)} A at ${fmt(p.inverter.Vdc)} V; power factor ${fmt(json.powerFactor, 3)}`,
     ];
     return { json, lines };
   },
