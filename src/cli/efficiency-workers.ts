@@ -57,13 +57,13 @@ export function workerScript(): WorkerScript {
 
 /**
  * The map over speeds x torques: in this thread when threads <= 1, else the speed rows split in
- * blocks (about four per thread, so that the threads finish together) across this thread and
+ * blocks (about eight per thread, so that the threads finish together) across this thread and
  * `threads` - 1 workers (`workersOnly`: on `threads` workers, this thread computing nothing).
  */
 export async function efficiencyMapThreaded(projectText: string, p: ReturnType<typeof loadProjectText>, corner: Corner, minLoss: boolean, speeds: Float64Array, torques: Float64Array, threads: number, opts: { workersOnly?: boolean } = {}): Promise<EfficiencyMap> {
   const g = { corner, minLoss, torques };
   if (threads <= 1 || speeds.length < 2) return efficiencyRows(p, g, speeds);
-  const size = Math.max(1, Math.ceil(speeds.length / (threads * 4)));
+  const size = Math.max(1, Math.ceil(speeds.length / (threads * 8)));
   const blocks: Float64Array[] = [];
   for (let a = 0; a < speeds.length; a += size) blocks.push(speeds.slice(a, a + size));
   const data: MapWorkerData = { task: MAP_WORKER_TASK, projectText, corner, minLoss, torques };

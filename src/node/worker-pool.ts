@@ -1,5 +1,6 @@
 // A small pool of Node worker threads: each worker is started once with `workerData`, then given
-// jobs one at a time as it finishes the last (so a slow job never holds back the others); the
+// jobs as it finishes them, two in flight (so a slow job never holds back the others, and a worker
+// never waits for this thread to hand it the next); the
 // results come back in the jobs' order. A worker's error or unexpected exit rejects the whole run,
 // and every worker is terminated at the end, so the process can exit.
 import { Worker } from 'node:worker_threads';
@@ -57,6 +58,8 @@ export function runWorkerPool<J, R>(ws: WorkerScript, workerData: unknown, jobs:
       w.on('exit', (code) => {
         if (done < jobs.length) finish(new Error(`a worker thread exited (code ${code}) before its work was done`));
       });
+      // two jobs in flight: the next one waits in the worker while this thread is busy with its own
+      give(w);
       give(w);
     }
     if (local) {
