@@ -9,6 +9,7 @@ import { fluxMapEnvelopeBench } from './flux-map-envelope';
 import { simulateBench, simulateMapBench } from './simulate';
 import { cliStartBench } from './cli-start';
 import { efficiencyMapBench } from './efficiency-map';
+import { cliEfficiencyThreadsBench } from './cli-efficiency-threads';
 import { againstCheckout } from './against-checkout';
 
 export interface BenchSection {
@@ -16,7 +17,7 @@ export interface BenchSection {
   run: () => void | Promise<void>;
 }
 
-const sections: BenchSection[] = [envelopeBench, fluxMapEnvelopeBench, simulateBench, simulateMapBench, cliStartBench, efficiencyMapBench];
+const sections: BenchSection[] = [envelopeBench, fluxMapEnvelopeBench, simulateBench, simulateMapBench, cliStartBench, efficiencyMapBench, cliEfficiencyThreadsBench];
 
 const argv = process.argv.slice(2);
 const onlyAt = argv.indexOf('--only');

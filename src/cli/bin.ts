@@ -1,5 +1,8 @@
 #!/usr/bin/env node
-// The command line's process entry (the built `torquewise` bin): run main on argv, set the exit code.
+// The command line's process entry (the built `torquewise` bin): run main on argv, set the exit code;
+// started as a worker thread of the efficiency map (src/cli/efficiency-workers.ts), serve its rows.
 import { runProcess } from './index';
+import { isMapWorker, workerMain } from './efficiency-workers';
 
-runProcess();
+if (isMapWorker()) workerMain();
+else runProcess();

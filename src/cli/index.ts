@@ -10,6 +10,7 @@ import { nodeFs, type FsLayer } from '../node/fs-layer';
 import { ProjectReadError, readProjectText } from '../node/project-file';
 import { checkOutputPaths, writeOutputs } from './output-files';
 import { terminalJson, terminalText, visible } from './terminal';
+import { isMainThread } from 'node:worker_threads';
 
 function usage(): string {
   const lines = ['usage: npm run -s cli -- <command> <project.json> [options] [--json]', '', 'commands:'];
@@ -96,4 +97,5 @@ export function runProcess(): void {
   });
 }
 
-if (process.argv[1] !== undefined && /cli[\\/]index\.(ts|js)$/.test(process.argv[1])) runProcess();
+// (never in a worker thread: process.argv is the main thread's there)
+if (isMainThread && process.argv[1] !== undefined && /cli[\\/]index\.(ts|js)$/.test(process.argv[1])) runProcess();

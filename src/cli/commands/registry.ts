@@ -7,12 +7,14 @@ import { simulateCommand } from './simulate';
 import { tuneCommand } from './tune';
 import { datasheetCommand } from './datasheet';
 import { importFluxMapCommand } from './import-flux-map';
+import { efficiencyCommand } from './efficiency';
 
 /** Every command of the CLI, in the order `help` lists them. Add a command by importing it here. */
 export const COMMANDS: Command[] = [
   paramsCommand,
   envelopeCommand,
   pointCommand,
+  efficiencyCommand,
   sizeCommand,
   simulateCommand,
   tuneCommand,

@@ -1,0 +1,61 @@
+// The efficiency map's rows for the CLI: the map at some speeds of the grid, least-current
+// (steady-state/efficiency-map.ts) or loss-minimising (loss-point.ts per point), at the hot or cold
+// corner. Each speed row depends on that row alone, so rows computed on several threads and put
+// together are identical to the whole map computed on one.
+import type { ResolvedProject } from '../core/project/project';
+import { lossConditionsFromProject } from '../core/project/loss-conditions-from-project';
+import { efficiencyMap, type EfficiencyMap } from '../core/steady-state/efficiency-map';
+import { solveLossPoint } from '../core/steady-state/loss-point';
+
+export type Corner = 'hot' | 'cold';
+
+export interface GridSpec {
+  corner: Corner;
+  minLoss: boolean;
+  /** shaft torques, N·m */
+  torques: Float64Array;
+}
+
+/** The arrays of an EfficiencyMap a grid keeps (all but the axes). */
+export const MAP_ARRAYS = ['feasible', 'motor', 'inverter', 'system', 'copper', 'iron', 'mechanical', 'inverterLoss', 'dcPower', 'torqueEm'] as const;
+
+/** The map at mechanical speeds `speeds` (rad/s) over the grid's torques. */
+export function efficiencyRows(p: ResolvedProject, g: GridSpec, speeds: Float64Array): EfficiencyMap {
+  const model = g.corner === 'hot' ? p.models.hot : p.models.cold;
+  const c = lossConditionsFromProject(p);
+  if (!g.minLoss) return efficiencyMap(model, p.peak, c, speeds, g.torques);
+  const nT = g.torques.length, N = speeds.length * nT;
+  const nan = (): Float64Array => new Float64Array(N).fill(Number.NaN);
+  const r: EfficiencyMap = {
+    speeds, torques: g.torques, feasible: new Uint8Array(N), motor: nan(), inverter: nan(), system: nan(),
+    copper: nan(), iron: nan(), mechanical: nan(), inverterLoss: nan(), dcPower: nan(), torqueEm: nan(),
+  };
+  for (let i = 0; i < speeds.length; i++) {
+    for (let j = 0; j < nT; j++) {
+      const q = solveLossPoint(model, p.peak, c, speeds[i]!, g.torques[j]!, { minLoss: true });
+      if (!q.feasible) continue;
+      const k = i * nT + j;
+      r.feasible[k] = 1;
+      r.motor[k] = q.efficiency.motor; r.inverter[k] = q.efficiency.inverter; r.system[k] = q.efficiency.system;
+      r.copper[k] = q.losses.copper_W; r.iron[k] = q.losses.iron_W; r.mechanical[k] = q.losses.mechanical_W; r.inverterLoss[k] = q.losses.inverter_W;
+      r.dcPower[k] = q.dcPower_W; r.torqueEm[k] = q.torqueEm_Nm;
+    }
+  }
+  return r;
+}
+
+/** The whole map from its row blocks, in speed order (each block's speeds follow the last's). */
+export function joinRows(speeds: Float64Array, torques: Float64Array, blocks: readonly EfficiencyMap[]): EfficiencyMap {
+  const N = speeds.length * torques.length;
+  const r = {
+    speeds, torques, feasible: new Uint8Array(N), motor: new Float64Array(N), inverter: new Float64Array(N), system: new Float64Array(N),
+    copper: new Float64Array(N), iron: new Float64Array(N), mechanical: new Float64Array(N), inverterLoss: new Float64Array(N), dcPower: new Float64Array(N), torqueEm: new Float64Array(N),
+  } satisfies EfficiencyMap;
+  let at = 0;
+  for (const b of blocks) {
+    for (const key of MAP_ARRAYS) (r[key] as Float64Array | Uint8Array).set(b[key], at);
+    at += b.speeds.length * torques.length;
+  }
+  if (at !== N) throw new Error(`the row blocks hold ${at} points, the grid ${N}`);
+  return r;
+}

@@ -1,0 +1,63 @@
+// The efficiency map as the command line writes it: the JSON arrays (row-major, speed-major, null
+// outside the envelope), the CSV (one row per grid point) and the summary (the best system efficiency
+// and where, the grid's size, the points inside the envelope).
+import type { EfficiencyMap } from '../steady-state/efficiency-map';
+import { radSToRpm } from '../base/units';
+import { csvDocument, type CsvCell } from './csv';
+
+export interface EfficiencyMapSummary {
+  speedPoints: number;
+  torquePoints: number;
+  pointsInside: number;
+  /** the highest system efficiency inside the envelope and where (null when no point is inside) */
+  peakSystem: { efficiency: number; speed_rpm: number; torque_Nm: number } | null;
+}
+
+export function efficiencyMapSummary(m: EfficiencyMap): EfficiencyMapSummary {
+  const nT = m.torques.length;
+  let inside = 0, best = -Infinity, at = -1;
+  for (let k = 0; k < m.feasible.length; k++) {
+    if (m.feasible[k] !== 1) continue;
+    inside++;
+    if (m.system[k]! > best) { best = m.system[k]!; at = k; }
+  }
+  return {
+    speedPoints: m.speeds.length, torquePoints: nT, pointsInside: inside,
+    peakSystem: at < 0 ? null : { efficiency: best, speed_rpm: radSToRpm(m.speeds[Math.floor(at / nT)]!), torque_Nm: m.torques[at % nT]! },
+  };
+}
+
+const orNull = (m: EfficiencyMap, a: Float64Array): Array<number | null> => Array.from(a, (x, k) => (m.feasible[k] === 1 && Number.isFinite(x) ? x : null));
+
+/** The JSON arrays: axes, then one value per point (index speed * torques + torque), null outside. */
+export function efficiencyMapJson(m: EfficiencyMap) {
+  return {
+    speeds_rpm: Array.from(m.speeds, radSToRpm),
+    torques_Nm: Array.from(m.torques),
+    feasible: Array.from(m.feasible, (f) => f === 1),
+    motor: orNull(m, m.motor),
+    inverter: orNull(m, m.inverter),
+    system: orNull(m, m.system),
+    copper_W: orNull(m, m.copper),
+    iron_W: orNull(m, m.iron),
+    mechanical_W: orNull(m, m.mechanical),
+    inverter_W: orNull(m, m.inverterLoss),
+    dcPower_W: orNull(m, m.dcPower),
+  };
+}
+
+/** The CSV header of the map. */
+export const EFFICIENCY_MAP_CSV_HEADER = ['speed_rpm', 'torque_Nm', 'feasible', 'motor', 'inverter', 'system', 'copper_W', 'iron_W', 'mechanical_W', 'inverter_W', 'dcPower_W', 'torqueEm_Nm'] as const;
+
+/** The map as CSV, '#' comment rows first, then the header and one row per grid point (empty cells outside). */
+export function efficiencyMapCsv(m: EfficiencyMap, comments: readonly string[] = []): string {
+  const rows: CsvCell[][] = comments.map((c) => [c]);
+  rows.push([...EFFICIENCY_MAP_CSV_HEADER]);
+  const nT = m.torques.length;
+  for (let k = 0; k < m.feasible.length; k++) {
+    const ok = m.feasible[k] === 1;
+    const v = (a: Float64Array): CsvCell => (ok ? a[k]! : null);
+    rows.push([radSToRpm(m.speeds[Math.floor(k / nT)]!), m.torques[k % nT]!, ok ? 1 : 0, v(m.motor), v(m.inverter), v(m.system), v(m.copper), v(m.iron), v(m.mechanical), v(m.inverterLoss), v(m.dcPower), v(m.torqueEm)]);
+  }
+  return csvDocument(rows);
+}
