@@ -30,6 +30,7 @@ const FORBIDDEN: Array<[string, RegExp]> = [
 const ALLOWED: Array<[string, RegExp]> = [
   ['src/renderer/src/views/load-steps/LoadStepsView.tsx', /new Worker\(new URL\('\.\.\/\.\.\/workers\/sim-worker\.ts', import\.meta\.url\)/], // the bundled simulation worker
   ['src/renderer/src/views/efficiency/EfficiencyView.tsx', /new Worker\(new URL\('\.\.\/\.\.\/workers\/efficiency-worker\.ts', import\.meta\.url\)/], // the bundled efficiency-map worker
+  ['src/node/worker-pool.ts', /new Worker\(ws\.script, \{ workerData \}\)/], // the CLI's map threads: the bundle itself, or src/cli/efficiency-worker-source.mjs (src/cli/efficiency-workers.ts)
   ['src/main/index.ts', /\.loadURL\(devServerUrl\)/], // the loopback dev server, development builds only
   ['src/main/index.ts', /\.loadURL\(APP_PAGE_URL\)/], // the built page, app://torquewise/index.html (src/main/app-protocol.ts)
 ];

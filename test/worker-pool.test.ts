@@ -3,10 +3,10 @@ import { describe, expect, it } from 'vitest';
 import { runWorkerPool } from '../src/node/worker-pool';
 
 // a worker that answers { job, input } with the input squared, and fails on a negative input
+const moduleUrl = (src: string): URL => new URL(`data:text/javascript,${encodeURIComponent(src)}`);
 const SQUARE = {
-  eval: true,
-  script: `const { parentPort } = require('node:worker_threads');
-parentPort.on('message', (m) => parentPort.postMessage(m.input < 0 ? { job: m.job, ok: false, name: 'RangeError', message: 'negative' } : { job: m.job, ok: true, result: m.input * m.input }));`,
+  script: moduleUrl(`import { parentPort } from 'node:worker_threads';
+parentPort.on('message', (m) => parentPort.postMessage(m.input < 0 ? { job: m.job, ok: false, name: 'RangeError', message: 'negative' } : { job: m.job, ok: true, result: m.input * m.input }));`),
 };
 
 describe('runWorkerPool', () => {
@@ -33,6 +33,6 @@ describe('runWorkerPool', () => {
   });
 
   it('a worker that cannot start rejects the run', async () => {
-    await expect(runWorkerPool({ eval: true, script: 'throw new TypeError("broken")' }, null, [1], 1)).rejects.toThrow(/broken/);
+    await expect(runWorkerPool({ script: moduleUrl('throw new TypeError("broken")') }, null, [1], 1)).rejects.toThrow(/broken/);
   });
 });

@@ -3,8 +3,6 @@
 // itself, started with workerData naming its task (src/cli/bin.ts hands it to workerMain); run from
 // the TypeScript sources (tests, tsx) a worker loads src/cli/bin.ts through tsx. Each worker loads
 // the project text through the core pipeline once, then computes the blocks of speed rows it is given.
-import { createRequire } from 'node:module';
-import { pathToFileURL } from 'node:url';
 import { parentPort, workerData } from 'node:worker_threads';
 import { loadProjectText } from '../core/project/project';
 import type { EfficiencyMap } from '../core/steady-state/efficiency-map';
@@ -45,14 +43,11 @@ export function workerMain(): void {
   });
 }
 
-/** The script a worker runs: this very file when bundled, else src/cli/bin.ts through tsx. */
+/** The script a worker runs: this very file when bundled, else a fixed bootstrap that loads src/cli/bin.ts through tsx. */
 export function workerScript(): WorkerScript {
   const here = import.meta.url;
   if (!/\.ts$/.test(here)) return { script: new URL(here) };
-  const bin = new URL('./bin.ts', here).href;
-  // the ES module build of tsx's API (require.resolve names the CommonJS one beside it)
-  const tsx = pathToFileURL(createRequire(here).resolve('tsx/esm/api').replace(/\.cjs$/, '.mjs')).href;
-  return { script: `import(${JSON.stringify(tsx)}).then((t) => t.tsImport(${JSON.stringify(bin)}, ${JSON.stringify(here)}))`, eval: true };
+  return { script: new URL('./efficiency-worker-source.mjs', here) };
 }
 
 /**

@@ -6,9 +6,8 @@
 import { Worker } from 'node:worker_threads';
 
 export interface WorkerScript {
-  /** a module file (file: URL), or module source text when `eval` is true */
+  /** the worker's module file (a file: URL of this program's own code, never a project's) */
   script: URL | string;
-  eval?: boolean;
 }
 
 /** What a worker posts back for a job: its result, or a failure's name and message. */
@@ -40,7 +39,7 @@ export function runWorkerPool<J, R>(ws: WorkerScript, workerData: unknown, jobs:
       }
     };
     for (let k = 0; k < n; k++) {
-      const w = new Worker(ws.script, { workerData, eval: ws.eval === true });
+      const w = new Worker(ws.script, { workerData });
       workers.push(w);
       w.on('message', (m: WorkerReply<R>) => {
         if (failed) return;

@@ -45,7 +45,8 @@ export function pointLosses(m: MachineModel, c: LossConditions, w: number, id: n
   const vd = v[0]!, vq = v[1]!;
   const I = Math.hypot(id, iq), V = Math.hypot(vd, vq);
   const pac = 1.5 * (vd * id + vq * iq);
-  const pf = I > 0 && V > 0 ? (vd * id + vq * iq) / (I * V) : 0;
+  const IV = I * V; // may underflow to 0 for tiny currents and voltages: the power factor is then 0
+  const pf = IV > 0 ? (vd * id + vq * iq) / IV : 0;
   const mi = V / (0.5 * c.Vdc);
   const cu = 1.5 * m.Rs * I * I;
   const fe = ironLossAt(m, c.losses.iron, id, iq, we, v);
