@@ -29,7 +29,7 @@ describe('steppers: one control period in place', () => {
     expect(y2[0]).toBeCloseTo(exact, 7);
     expect(p2.evaluations).toBe(10 * 4 * 4); // 4 steps of 4 stages per period
   });
-  it('a load step inside a period splits it there: the speed ramps with the load only after it (Newton's second law: dw/dt = -T_L/J; common practice (no source))', () => {
+  it('a load step inside a period splits it there: the speed ramps with the load only after it (Newton, second law: dw/dt = -T_L/J; common practice (no source))', () => {
     // J dw/dt = -T_L: the speed falls by T_L (t1 - t_step) / J over the period (Newton's second law)
     for (const make of [(p: Plant, y: Float64Array) => new CashKarpStepper(p, Ts, y, 1e-10, new Float64Array([1, 1, 1e-6, 1, Infinity])), (p: Plant) => new Rk4Stepper(p, Ts, 1)]) {
       const p = new Plant(params({ mechanics: 'free', load: loadSchedule([{ t_s: 0.25 * Ts, torque_Nm: 2 }]), machine: { ...m, psiM: 0 } }));
