@@ -6,7 +6,9 @@ import { describe, expect, it } from 'vitest';
 import { loadProjectText } from '../src/core/project/project';
 import { lossConditionsFromProject } from '../src/core/project/loss-conditions-from-project';
 import { efficiencyMap } from '../src/core/steady-state/efficiency-map';
-import { bestPoint, EFFICIENCY_CSV_HEADER, efficiencyGridAxes, efficiencyMapCsv, emptyEfficiencyMap, solveEfficiencyRow } from '../src/core/reports/efficiency-map-grid';
+import { bestPoint, efficiencyGridAxes, emptyEfficiencyMap, solveEfficiencyRow } from '../src/core/reports/efficiency-map-grid';
+import { EFFICIENCY_APP_CSV_COLUMNS as EFFICIENCY_CSV_HEADER, efficiencyMapCsv as csvOf } from '../src/core/reports/efficiency-map-report';
+const efficiencyMapCsv = (m: Parameters<typeof csvOf>[0]): string => csvOf(m, [], EFFICIENCY_CSV_HEADER);
 import { parseCsv } from '../src/core/reports/csv';
 import { isInputError } from '../src/core/base/errors';
 

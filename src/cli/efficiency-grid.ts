@@ -6,6 +6,7 @@ import type { ResolvedProject } from '../core/project/project';
 import { lossConditionsFromProject } from '../core/project/loss-conditions-from-project';
 import { efficiencyMap, type EfficiencyMap } from '../core/steady-state/efficiency-map';
 import { solveLossPoint } from '../core/steady-state/loss-point';
+import { emptyEfficiencyMap } from '../core/reports/efficiency-map-grid';
 
 export type Corner = 'hot' | 'cold';
 
@@ -24,12 +25,8 @@ export function efficiencyRows(p: ResolvedProject, g: GridSpec, speeds: Float64A
   const model = g.corner === 'hot' ? p.models.hot : p.models.cold;
   const c = lossConditionsFromProject(p);
   if (!g.minLoss) return efficiencyMap(model, p.peak, c, speeds, g.torques);
-  const nT = g.torques.length, N = speeds.length * nT;
-  const nan = (): Float64Array => new Float64Array(N).fill(Number.NaN);
-  const r: EfficiencyMap = {
-    speeds, torques: g.torques, feasible: new Uint8Array(N), motor: nan(), inverter: nan(), system: nan(),
-    copper: nan(), iron: nan(), mechanical: nan(), inverterLoss: nan(), dcPower: nan(), torqueEm: nan(),
-  };
+  const nT = g.torques.length;
+  const r = emptyEfficiencyMap(speeds, g.torques);
   for (let i = 0; i < speeds.length; i++) {
     for (let j = 0; j < nT; j++) {
       const q = solveLossPoint(model, p.peak, c, speeds[i]!, g.torques[j]!, { minLoss: true });

@@ -9,8 +9,6 @@ import type { ResolvedProject } from '../project/project';
 import { lossConditionsFromProject } from '../project/loss-conditions-from-project';
 import { efficiencyMap, mapAxis, type EfficiencyMap } from '../steady-state/efficiency-map';
 import { InputError } from '../base/errors';
-import { RAD_S_TO_RPM } from '../base/units';
-import { csvDocument, type CsvCell } from './csv';
 
 export type MapCorner = 'hot' | 'cold';
 export type EfficiencyQuantity = 'motor' | 'inverter' | 'system';
@@ -67,19 +65,4 @@ export function bestPoint(map: EfficiencyMap, q: EfficiencyQuantity): { value: n
     if (map.feasible[k] && Number.isFinite(v) && (best === null || v > best.value)) best = { value: v, speed: map.speeds[Math.floor(k / nT)]!, torque: map.torques[k % nT]! };
   }
   return best;
-}
-
-export const EFFICIENCY_CSV_HEADER = ['speed_rpm', 'torque_Nm', 'feasible', 'motor', 'inverter', 'system', 'copper_W', 'iron_W', 'mechanical_W', 'inverter_W', 'dcPower_W'] as const;
-
-/** The map as CSV: one record per grid point (speed-major), efficiencies as fractions, empty cells outside the envelope. */
-export function efficiencyMapCsv(map: EfficiencyMap): string {
-  const rows: CsvCell[][] = [[...EFFICIENCY_CSV_HEADER]];
-  const nT = map.torques.length;
-  for (let k = 0; k < map.feasible.length; k++) {
-    rows.push([
-      map.speeds[Math.floor(k / nT)]! * RAD_S_TO_RPM, map.torques[k % nT]!, map.feasible[k]!,
-      map.motor[k]!, map.inverter[k]!, map.system[k]!, map.copper[k]!, map.iron[k]!, map.mechanical[k]!, map.inverterLoss[k]!, map.dcPower[k]!,
-    ]);
-  }
-  return csvDocument(rows);
 }

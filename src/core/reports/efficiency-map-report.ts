@@ -46,18 +46,33 @@ export function efficiencyMapJson(m: EfficiencyMap) {
   };
 }
 
-/** The CSV header of the map. */
+/** The CSV columns of the map (the command line writes them all). */
 export const EFFICIENCY_MAP_CSV_HEADER = ['speed_rpm', 'torque_Nm', 'feasible', 'motor', 'inverter', 'system', 'copper_W', 'iron_W', 'mechanical_W', 'inverter_W', 'dcPower_W', 'torqueEm_Nm'] as const;
+export type EfficiencyCsvColumn = (typeof EFFICIENCY_MAP_CSV_HEADER)[number];
+/** The columns of the app's export (all but the electromagnetic torque). */
+export const EFFICIENCY_APP_CSV_COLUMNS: readonly EfficiencyCsvColumn[] = EFFICIENCY_MAP_CSV_HEADER.filter((c) => c !== 'torqueEm_Nm');
 
-/** The map as CSV, '#' comment rows first, then the header and one row per grid point (empty cells outside). */
-export function efficiencyMapCsv(m: EfficiencyMap, comments: readonly string[] = []): string {
+const ARRAY_OF: Record<Exclude<EfficiencyCsvColumn, 'speed_rpm' | 'torque_Nm' | 'feasible'>, keyof EfficiencyMap> = {
+  motor: 'motor', inverter: 'inverter', system: 'system', copper_W: 'copper', iron_W: 'iron', mechanical_W: 'mechanical',
+  inverter_W: 'inverterLoss', dcPower_W: 'dcPower', torqueEm_Nm: 'torqueEm',
+};
+
+/**
+ * The map as CSV, '#' comment rows first, then the header and one row per grid point (speed-major;
+ * efficiencies as fractions, empty cells outside the envelope), with the columns asked (default all).
+ */
+export function efficiencyMapCsv(m: EfficiencyMap, comments: readonly string[] = [], columns: readonly EfficiencyCsvColumn[] = EFFICIENCY_MAP_CSV_HEADER): string {
   const rows: CsvCell[][] = comments.map((c) => [c]);
-  rows.push([...EFFICIENCY_MAP_CSV_HEADER]);
+  rows.push([...columns]);
   const nT = m.torques.length;
   for (let k = 0; k < m.feasible.length; k++) {
     const ok = m.feasible[k] === 1;
-    const v = (a: Float64Array): CsvCell => (ok ? a[k]! : null);
-    rows.push([radSToRpm(m.speeds[Math.floor(k / nT)]!), m.torques[k % nT]!, ok ? 1 : 0, v(m.motor), v(m.inverter), v(m.system), v(m.copper), v(m.iron), v(m.mechanical), v(m.inverterLoss), v(m.dcPower), v(m.torqueEm)]);
+    rows.push(columns.map((c): CsvCell => {
+      if (c === 'speed_rpm') return radSToRpm(m.speeds[Math.floor(k / nT)]!);
+      if (c === 'torque_Nm') return m.torques[k % nT]!;
+      if (c === 'feasible') return ok ? 1 : 0;
+      return ok ? (m[ARRAY_OF[c]] as Float64Array)[k]! : null;
+    }));
   }
   return csvDocument(rows);
 }

@@ -3,10 +3,12 @@
 // requirement points; the map is solved in a Web Worker (progress, cancel), a hovered point's loss
 // breakdown comes from the core's loss point. Exports: PNG/SVG with title and conditions, and CSV.
 import { memo, useEffect, useMemo, useRef, useState } from 'react';
+import { useWorkerRun } from '../../state/worker-run';
+import { EFFICIENCY_APP_CSV_COLUMNS, efficiencyMapCsv } from '../../../../core/reports/efficiency-map-report';
 import type { EfficiencyMap } from '../../../../core/steady-state/efficiency-map';
 import { solveLossPoint, type LossPoint } from '../../../../core/steady-state/loss-point';
 import { lossConditionsFromProject } from '../../../../core/project/loss-conditions-from-project';
-import { bestPoint, efficiencyMapCsv, GRID_POINTS_MAX, GRID_POINTS_MIN, type EfficiencyQuantity, type MapCorner } from '../../../../core/reports/efficiency-map-grid';
+import { bestPoint, GRID_POINTS_MAX, GRID_POINTS_MIN, type EfficiencyQuantity, type MapCorner } from '../../../../core/reports/efficiency-map-grid';
 import { RAD_S_TO_RPM, RPM_TO_RAD_S } from '../../../../core/base/units';
 import { CURVE, Plot, readTheme } from '../../components/Plot';
 import { num } from '../../components/format';
@@ -16,7 +18,6 @@ import { curveKey, type EnvelopeResults } from '../../state/compute';
 import type { EfficiencyReply, EfficiencyRequest } from '../../workers/efficiency-protocol';
 import { efficiencyFigure, lossBarFigure, QUANTITY_LABEL } from './efficiency-figures';
 
-type RunState = { kind: 'idle' } | { kind: 'running'; fraction: number } | { kind: 'cancelled' } | { kind: 'error'; message: string };
 type Solved = { map: EfficiencyMap; corner: MapCorner; compute_ms: number; projectText: string };
 
 const pct = (x: number | undefined): string => (x !== undefined && Number.isFinite(x) ? `${(100 * x).toFixed(1)} %` : '–');
@@ -28,10 +29,8 @@ export const EfficiencyView = memo(function EfficiencyView({ results, theme }: {
   const [corner, setCorner] = useState<MapCorner>('hot');
   const [points, setPoints] = useState(60);
   const [pointsText, setPointsText] = useState('60');
-  const [run, setRun] = useState<RunState>({ kind: 'idle' });
   const [solved, setSolved] = useState<Solved | null>(null);
   const [picked, setPicked] = useState<{ speed_rpm: number; torque_Nm: number } | null>(null);
-  const worker = useRef<Worker | null>(null);
   const el = useRef<HTMLDivElement | null>(null);
   const projectText = useMemo(() => JSON.stringify(project.file), [project]);
 
@@ -42,41 +41,11 @@ export const EfficiencyView = memo(function EfficiencyView({ results, theme }: {
     return { motoring: find(corner, 'motoring'), generating: find(corner, 'generating'), corner, torqueMax: 1.05 * tmax };
   }, [results, corner]);
 
-  const stop = () => {
-    worker.current?.terminate();
-    worker.current = null;
-  };
-  useEffect(() => stop, []);
-
-  const start = () => {
-    stop();
-    const w = new Worker(new URL('../../workers/efficiency-worker.ts', import.meta.url), { type: 'module' });
-    worker.current = w;
-    setRun({ kind: 'running', fraction: 0 });
-    w.onmessage = (ev: MessageEvent<EfficiencyReply>) => {
-      const m = ev.data;
-      if (m.kind === 'progress') setRun((r) => (r.kind === 'running' ? { ...r, fraction: m.fraction } : r));
-      else if (m.kind === 'done') {
-        setSolved({ map: m.map, corner, compute_ms: m.compute_ms, projectText });
-        setRun({ kind: 'idle' });
-        stop();
-      } else {
-        setRun({ kind: 'error', message: m.message });
-        stop();
-      }
-    };
-    w.onerror = (ev) => {
-      ev.preventDefault();
-      setRun({ kind: 'error', message: `The efficiency worker failed: ${ev.message || 'unknown error'}` });
-      stop();
-    };
-    const req: EfficiencyRequest = { kind: 'map', projectText, grid: { corner, points, speedMax: results.speedMax, torqueMax: env.torqueMax } };
-    w.postMessage(req);
-  };
-  const cancel = () => {
-    stop();
-    setRun({ kind: 'cancelled' });
-  };
+  const { run, start: startRun, cancel } = useWorkerRun<EfficiencyRequest, Omit<Extract<EfficiencyReply, { kind: 'done' }>, 'kind'>>('efficiency', (m) =>
+    setSolved({ map: m.map, corner, compute_ms: m.compute_ms, projectText }),
+  );
+  const start = () =>
+    startRun(new Worker(new URL('../../workers/efficiency-worker.ts', import.meta.url), { type: 'module' }), { kind: 'map', projectText, grid: { corner, points, speedMax: results.speedMax, torqueMax: env.torqueMax } });
   // solved again whenever the project, the corner or the grid changes (the last request wins)
   useEffect(() => {
     const h = setTimeout(start, 150);
@@ -110,7 +79,7 @@ export const EfficiencyView = memo(function EfficiencyView({ results, theme }: {
     if (el.current) void exportPlotImage(el.current, format, `efficiency-${quantity}-${c}`, project, exporter, what);
   };
   const saveCsv = () => {
-    if (solved) void exporter.exportAndTell('envelope-csv', () => efficiencyMapCsv(solved.map), `efficiency-map-${solved.corner}.csv`);
+    if (solved) void exporter.exportAndTell('envelope-csv', () => efficiencyMapCsv(solved.map, [], EFFICIENCY_APP_CSV_COLUMNS), `efficiency-map-${solved.corner}.csv`);
   };
   const commitPoints = (text: string) => {
     const n = Number(text);

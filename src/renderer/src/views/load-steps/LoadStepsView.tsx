@@ -1,6 +1,7 @@
 // Load steps view: the scenario editor, a run button (the simulation runs in a Web Worker, with
 // progress and cancel), stacked traces on one time axis, the metrics table, saturation shaded.
 import { memo, useEffect, useMemo, useRef, useState } from 'react';
+import { useWorkerRun } from '../../state/worker-run';
 import type { Data, Layout } from 'plotly.js-dist-min';
 import type { ResolvedProject } from '../../../../core/project/project';
 import { SQRT2 } from '../../../../core/base/units';
@@ -16,7 +17,6 @@ import { useExporter } from '../../state/exporter';
 import { tracesCsv } from '../../components/exports';
 import { num } from '../../components/format';
 
-type RunState = { kind: 'idle' } | { kind: 'running'; fraction: number; started: number } | { kind: 'cancelled' } | { kind: 'error'; message: string };
 
 /** Colours of the traces: distinct within each plot and never one colour for two quantities. */
 const TRACE = {
@@ -129,44 +129,12 @@ const METRICS: Array<[keyof SimDone['metrics'], string, (v: number) => string]> 
  */
 export const LoadStepsView = memo(function LoadStepsView({ project, theme, stale, result, setResult }: { project: ResolvedProject; theme: 'light' | 'dark'; stale: boolean; result: SimDone | null; setResult: (r: SimDone) => void }) {
   const exporter = useExporter();
-  const [run, setRun] = useState<RunState>({ kind: 'idle' });
-  const worker = useRef<Worker | null>(null);
 
-  const stop = () => {
-    worker.current?.terminate();
-    worker.current = null;
-  };
-  useEffect(() => stop, []);
-
-  const start = () => {
-    stop();
-    const w = new Worker(new URL('../../workers/sim-worker.ts', import.meta.url), { type: 'module' });
-    worker.current = w;
-    setRun({ kind: 'running', fraction: 0, started: performance.now() });
-    w.onmessage = (ev: MessageEvent<SimReply>) => {
-      const m = ev.data;
-      if (m.kind === 'progress') setRun((r) => (r.kind === 'running' ? { ...r, fraction: m.fraction } : r));
-      else if (m.kind === 'done') {
-        setResult({ ...m.result, findings: m.findings, project: project.name });
-        setRun({ kind: 'idle' });
-        stop();
-      } else {
-        setRun({ kind: 'error', message: m.message });
-        stop();
-      }
-    };
-    w.onerror = (ev) => {
-      ev.preventDefault();
-      setRun({ kind: 'error', message: `The simulation worker failed: ${ev.message || 'unknown error'}` });
-      stop();
-    };
-    const req: SimRequest = { kind: 'run', projectText: JSON.stringify(project.file), maxPoints: 4000 };
-    w.postMessage(req);
-  };
-  const cancel = () => {
-    stop();
-    setRun({ kind: 'cancelled' });
-  };
+  const { run, start: startRun, cancel } = useWorkerRun<SimRequest, Omit<Extract<SimReply, { kind: 'done' }>, 'kind'>>('simulation', (m) =>
+    setResult({ ...m.result, findings: m.findings, project: project.name }),
+  );
+  const start = () =>
+    startRun(new Worker(new URL('../../workers/sim-worker.ts', import.meta.url), { type: 'module' }), { kind: 'run', projectText: JSON.stringify(project.file), maxPoints: 4000 });
 
   const fig = useMemo(() => (result ? tracesFigure(result, theme) : null), [result, theme]);
   const hasScenario = project.file.scenario !== undefined;
