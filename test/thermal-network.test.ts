@@ -60,7 +60,7 @@ describe('thermal network', () => {
 
   it('matches ode45-cash-karp on the ODE, heat removed included (general-purpose integrator)', () => {
     const Pcu = 1200, Pfe = 90;
-    const f = (dy: number[], y: number[]): void => {
+    const f = (dy: number[] | Float64Array, y: number[] | Float64Array): void => {
       dy[0] = (Pcu - (y[0]! - y[1]!) / 0.05) / 900;
       dy[1] = (Pfe + (y[0]! - y[1]!) / 0.05 - (y[1]! - 40) / 0.02) / 9000;
       dy[2] = (y[1]! - 40) / 0.02;
