@@ -1,7 +1,9 @@
 // The thermal and dutyCycle sections resolved (src/core/project/thermal-resolve.ts, through
 // resolveProject): the network's specification key for key (the shape of issue 13 of this project),
 // the junction pair passed on together, the speed table copied, the cycle as Float64Array columns.
-// Common practice (no source).
+// The demos' networks are invented; that a traction motor's capacities and conductances are far above a
+// servo's, and that a self-ventilated motor cools better with speed: common practice (no source).
+import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
 import { loadProjectText, resolveProject } from '../src/core/project/project';
 import { parseProject } from '../src/core/project/schema';
@@ -54,5 +56,32 @@ describe('the thermal and dutyCycle sections resolved', () => {
     expect(Array.from(r.speed_rpm)).toEqual(d.speed_rpm);
     expect(Array.from(r.torque_Nm)).toEqual(d.torque_Nm);
     expect(dutyCycleOf({ ...d, label: '' }).label).toBe('');
+  });
+});
+
+describe('the demos: invented thermal data and an invented duty cycle each', () => {
+  const demo = (name: string) => loadProjectText(readFileSync(new URL(`../resources/${name}`, import.meta.url), 'utf8'));
+  it('every demo resolves with a network and a cycle, both said invented in its note and the cycle\'s label', () => {
+    for (const name of ['demo-servo-axis.json', 'demo-spm-48v.json', 'demo-ipm-traction.json', 'demo-ipm-saturated.json']) {
+      const p = demo(name);
+      expect(p.thermal, name).toBeDefined();
+      expect(p.dutyCycle!.label, name).toMatch(/\(invented\)$/);
+      expect(p.dutyCycle!.t_s.length, name).toBeGreaterThanOrEqual(20);
+      expect(p.file.note, name).toMatch(/thermal network \(thermal\)/);
+      expect(p.file.note, name).toMatch(/duty cycle \(dutyCycle/);
+    }
+  });
+
+  it('sizes that fit each motor: the traction motor\'s capacities far above the servo\'s, the 48 V motor self-ventilated', () => {
+    const servo = demo('demo-servo-axis.json').thermal!, spm = demo('demo-spm-48v.json').thermal!, ipm = demo('demo-ipm-traction.json').thermal!;
+    expect(ipm.windingCapacity_J_per_K / servo.windingCapacity_J_per_K).toBeGreaterThan(5);
+    expect(ipm.statorToCoolant_K_per_W).toBeLessThan(servo.statorToCoolant_K_per_W / 10);
+    // a self-ventilated motor cools better the faster it turns
+    const k = spm.statorToCoolantBySpeed!.K_per_W;
+    for (let i = 1; i < k.length; i++) expect(k[i]!).toBeLessThan(k[i - 1]!);
+    // the saturated demo takes the traction demo's network and cycle
+    const sat = demo('demo-ipm-saturated.json'), trac = demo('demo-ipm-traction.json');
+    expect(sat.thermal).toEqual(trac.thermal);
+    expect(sat.dutyCycle).toEqual(trac.dutyCycle);
   });
 });
