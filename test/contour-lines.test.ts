@@ -79,6 +79,20 @@ describe('contour lines (marching squares)', () => {
     expect(ys[1]!).toBeCloseTo(Math.sqrt(0.25 - 0.25 * 0.25), 1);
   });
 
+  it('contours a cell with one missing corner on the triangle of the other three: the line reaches the diagonal (common practice)', () => {
+    // f = x - 0.013, no value where x + y > 0.52; h = 0.05. The line x = 0.013 runs up the column of
+    // cells 0 <= x <= 0.05; the cell 0.45 <= y <= 0.5 lacks its corner (0.05, 0.5) and is contoured on
+    // the triangle (0, 0.45), (0.05, 0.45), (0, 0.5): f is linear there, so the line ends exactly on
+    // the diagonal x + y = 0.5, at y = 0.487 (a square cell alone would stop it at y = 0.45)
+    const g = sample((x, y) => (x + y > 0.52 ? Number.NaN : x - 0.013), -1, 1, 41);
+    const lines = contourLines(g.xs, g.ys, g.z, 0);
+    expect(lines).toHaveLength(1);
+    const l = lines[0]!;
+    for (let k = 0; k < l.x.length; k++) expect(l.x[k]!).toBeCloseTo(0.013, 12);
+    expect(Math.min(...l.y)).toBeCloseTo(-1, 12);
+    expect(Math.max(...l.y)).toBeCloseTo(0.487, 12);
+  });
+
   it('follows both branches of the hyperbola x y = c and keeps them apart (analytic contour, common practice)', () => {
     const g = sample((x, y) => x * y, -1, 1, 41);
     const lines = contourLines(g.xs, g.ys, g.z, 0.1);

@@ -5,8 +5,10 @@
  * which corners lie at or above the level; the line crosses an edge whose ends lie on the two sides,
  * at the point found by linear interpolation along that edge. A saddle cell (opposite corners on the
  * same side) is resolved by the mean of its four corners, the cell's centre value (common practice).
- * A cell with a corner that is not finite (e.g. outside a map's envelope) is left out, so a line
- * stops there. The cells' segments are joined into polylines through the edges they share.
+ * Where a value is missing (not finite, e.g. outside a map's envelope) a cell with three finite
+ * corners is contoured on the triangle they span, linear over it (marching triangles, common
+ * practice), and a cell with fewer is left out, so a line stops within half a cell of the gap. The
+ * segments are joined into polylines through the edges they share.
  */
 import { InputError } from '../base/errors';
 
@@ -41,24 +43,48 @@ export function contourLines(xs: ArrayLike<number>, ys: ArrayLike<number>, z: Ar
     }
   }
   const at = (i: number, j: number): number => z[i * ny + j]!;
-  // an edge's key: 2 (i ny + j) for the edge from (i, j) to (i+1, j), + 1 for the edge from (i, j) to (i, j+1)
+  // an edge's key: 4 (i ny + j) + s, s = 0 for (i, j)-(i+1, j), 1 for (i, j)-(i, j+1), and the
+  // diagonals of cell (i, j): 2 for (i+1, j)-(i, j+1), 3 for (i, j)-(i+1, j+1)
   const points = new Map<number, [number, number]>();
   const cross = (key: number): void => {
     if (points.has(key)) return;
-    const n = key >> 1, i = Math.floor(n / ny), j = n % ny;
-    const vertical = (key & 1) === 1;
-    const z0 = at(i, j), z1 = vertical ? at(i, j + 1) : at(i + 1, j);
+    const n = key >> 2, s = key & 3, i = Math.floor(n / ny), j = n % ny;
+    const [i0, j0, i1, j1] = s === 0 ? [i, j, i + 1, j] : s === 1 ? [i, j, i, j + 1] : s === 2 ? [i + 1, j, i, j + 1] : [i, j, i + 1, j + 1];
+    const z0 = at(i0, j0), z1 = at(i1, j1);
     const t = (level - z0) / (z1 - z0); // the ends lie on two sides of the level: z1 != z0
-    points.set(key, vertical ? [xs[i]!, ys[j]! + t * (ys[j + 1]! - ys[j]!)] : [xs[i]! + t * (xs[i + 1]! - xs[i]!), ys[j]!]);
+    points.set(key, [xs[i0]! + t * (xs[i1]! - xs[i0]!), ys[j0]! + t * (ys[j1]! - ys[j0]!)]);
   };
   const segs: number[] = []; // pairs of edge keys
+  const add = (k0: number, k1: number): void => {
+    cross(k0);
+    cross(k1);
+    segs.push(k0, k1);
+  };
   for (let i = 0; i < nx - 1; i++) {
     for (let j = 0; j < ny - 1; j++) {
       const a = at(i, j), b = at(i + 1, j), c = at(i + 1, j + 1), d = at(i, j + 1);
-      if (!(Number.isFinite(a) && Number.isFinite(b) && Number.isFinite(c) && Number.isFinite(d))) continue;
+      const base = 4 * (i * ny + j);
+      const side = [base, 4 * ((i + 1) * ny + j) + 1, 4 * (i * ny + j + 1), base + 1];
+      const ok = [Number.isFinite(a), Number.isFinite(b), Number.isFinite(c), Number.isFinite(d)];
+      const missing = ok.filter((q) => !q).length;
+      if (missing === 1) {
+        // three corners: the triangle they span, cut off along the diagonal between the missing corner's neighbours
+        const miss = ok.indexOf(false);
+        // vertices in order round the triangle, and its edges v0-v1, v1-v2, v2-v0
+        const tri: [number, number, number, number, number, number] =
+          miss === 0 ? [b, c, d, side[R]!, side[T]!, base + 2] : miss === 1 ? [a, c, d, base + 3, side[T]!, side[L]!]
+            : miss === 2 ? [a, b, d, side[B]!, base + 2, side[L]!] : [a, b, c, side[B]!, side[R]!, base + 3];
+        const up = [tri[0] >= level, tri[1] >= level, tri[2] >= level];
+        if (up[0] === up[1] && up[1] === up[2]) continue;
+        // the corner alone on its side: the line cuts its two edges
+        if (up[1] === up[2]) add(tri[3], tri[5]);
+        else if (up[0] === up[2]) add(tri[3], tri[4]);
+        else add(tri[4], tri[5]);
+        continue;
+      }
+      if (missing > 1) continue;
       const cs = (a >= level ? 1 : 0) | (b >= level ? 2 : 0) | (c >= level ? 4 : 0) | (d >= level ? 8 : 0);
       if (cs === 0 || cs === 15) continue;
-      const side = [2 * (i * ny + j), 2 * ((i + 1) * ny + j) + 1, 2 * (i * ny + j + 1), 2 * (i * ny + j) + 1];
       let pairs = CASES[cs]!;
       if (cs === 5 || cs === 10) {
         // the centre joins the two corners on its own side; the other two are cut off
@@ -66,12 +92,7 @@ export function contourLines(xs: ArrayLike<number>, ys: ArrayLike<number>, z: Ar
         const acAbove = cs === 5;
         pairs = centreAbove === acAbove ? [[B, R], [L, T]] : [[L, B], [R, T]];
       }
-      for (const [e0, e1] of pairs) {
-        const k0 = side[e0]!, k1 = side[e1]!;
-        cross(k0);
-        cross(k1);
-        segs.push(k0, k1);
-      }
+      for (const [e0, e1] of pairs) add(side[e0]!, side[e1]!);
     }
   }
   // join: every edge carries at most two segment ends (the two cells beside it)
