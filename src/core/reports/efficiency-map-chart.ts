@@ -46,9 +46,12 @@ export function efficiencyMapChart(input: EfficiencyChartInput, o: { date: strin
   const texts: ChartText[] = [];
   const boxes: Array<{ x0: number; y0: number; x1: number; y1: number }> = [];
   const peak = s.peakSystem?.efficiency ?? -Infinity;
-  // the best points' markers and their labels (above motoring, below generating) keep the contour labels off
-  for (const q of [s.peakMotoring, s.peakGenerating]) {
-    if (q) boxes.push({ x0: q.speed_rpm * sx - 30, y0: q.torque_Nm * sy - 26, x1: q.speed_rpm * sx + 30, y1: q.torque_Nm * sy + 26 });
+  // the best points' dots and their labels (above motoring, below generating; y up here) keep the contour labels off
+  for (const [q, up] of [[s.peakMotoring, 1], [s.peakGenerating, -1]] as const) {
+    if (!q) continue;
+    const px = q.speed_rpm * sx, py = q.torque_Nm * sy;
+    boxes.push({ x0: px - 7, y0: py - 7, x1: px + 7, y1: py + 7 });
+    boxes.push({ x0: px - 26, y0: up > 0 ? py + 6 : py - 24, x1: px + 26, y1: up > 0 ? py + 24 : py - 6 });
   }
   EFFICIENCY_LEVELS.forEach((level, n) => {
     if (!(level < peak)) return;
@@ -68,16 +71,21 @@ export function efficiencyMapChart(input: EfficiencyChartInput, o: { date: strin
       if (len < LABEL_MIN) continue;
       const count = Math.max(1, Math.round(len / LABEL_EVERY));
       for (let c = 0; c < count; c++) {
-        const want = ((c + 0.5) * len) / count;
-        const k = Math.max(1, cum.findIndex((d) => d >= want));
-        const t = cum[k]! > cum[k - 1]! ? (want - cum[k - 1]!) / (cum[k]! - cum[k - 1]!) : 0;
-        const lx = line.x[k - 1]! + t * (line.x[k]! - line.x[k - 1]!);
-        const ly = line.y[k - 1]! + t * (line.y[k]! - line.y[k - 1]!);
-        const px = lx * sx, py = ly * sy;
-        const box = { x0: px - w / 2, y0: py - 7, x1: px + w / 2, y1: py + 7 };
-        if (boxes.some((b) => box.x0 < b.x1 && b.x0 < box.x1 && box.y0 < b.y1 && b.y0 < box.y1)) continue;
-        boxes.push(box);
-        texts.push({ x: lx, y: ly, text: label, colour });
+        // the even spot first, then spots either side of it along the line
+        for (const shift of [0, 0.1, -0.1, 0.2, -0.2, 0.3, -0.3, 0.4, -0.4]) {
+          const want = ((c + 0.5 + shift) * len) / count;
+          if (want < 0 || want > len) continue;
+          const k = Math.max(1, cum.findIndex((d) => d >= want));
+          const t = cum[k]! > cum[k - 1]! ? (want - cum[k - 1]!) / (cum[k]! - cum[k - 1]!) : 0;
+          const lx = line.x[k - 1]! + t * (line.x[k]! - line.x[k - 1]!);
+          const ly = line.y[k - 1]! + t * (line.y[k]! - line.y[k - 1]!);
+          const px = lx * sx, py = ly * sy;
+          const box = { x0: px - w / 2, y0: py - 7, x1: px + w / 2, y1: py + 7 };
+          if (boxes.some((b) => box.x0 < b.x1 && b.x0 < box.x1 && box.y0 < b.y1 && b.y0 < box.y1)) continue;
+          boxes.push(box);
+          texts.push({ x: lx, y: ly, text: label, colour });
+          break;
+        }
       }
     }
     series.push({ name: `${label} %`, colour, width: 1.3, x, y, legend: false });
