@@ -186,9 +186,11 @@ export const EfficiencyView = memo(function EfficiencyView({ results, theme }: {
         )}
         {run.kind === 'cancelled' && <span data-testid="eff-cancelled">Cancelled; the previous map (if any) is shown.</span>}
         <span className="spacer" style={{ flex: 1 }} />
-        <button className="btn small" onClick={() => save('png')} disabled={!solved} data-testid="eff-png">PNG</button>
-        <button className="btn small" onClick={() => save('svg')} disabled={!solved} data-testid="eff-svg">SVG</button>
-        <button className="btn small" onClick={saveCsv} disabled={!solved} data-testid="eff-csv">CSV</button>
+        <span style={{ display: 'inline-flex', gap: 6 }}>
+          <button className="btn small" onClick={() => save('png')} disabled={!solved} data-testid="eff-png">PNG</button>
+          <button className="btn small" onClick={() => save('svg')} disabled={!solved} data-testid="eff-svg">SVG</button>
+          <button className="btn small" onClick={saveCsv} disabled={!solved} data-testid="eff-csv">CSV</button>
+        </span>
       </div>
       {pointsBad && <div className="finding warning">Grid: give a whole number of points per axis from {GRID_POINTS_MIN} to {GRID_POINTS_MAX}.</div>}
       {run.kind === 'error' && <div className="finding danger" data-testid="eff-error">{run.message}</div>}

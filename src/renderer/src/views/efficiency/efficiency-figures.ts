@@ -228,8 +228,8 @@ export function lossBarFigure(pt: LossPoint, t: PlotTheme, col: CurveColours, ot
       yaxis: axis(t, 'power loss (W)', { rangemode: 'tozero' }),
       showlegend: other !== undefined,
       barmode: 'group',
-      legend: { orientation: 'h', x: 0, y: 1.12, font: { size: 11 } },
-      margin: { l: 64, r: 16, t: other ? 32 : 16, b: 48 },
+      legend: { orientation: 'h', x: 0, y: 1.02, yanchor: 'bottom', font: { size: 11 } },
+      margin: { l: 64, r: 16, t: other ? 40 : 16, b: 48 },
     } as Layout),
   };
 }
