@@ -38,7 +38,7 @@ export function useDatasheetEfficiency(results: Results): { grid: EfficiencyGrid
     if (grid === null || solved?.key === key) return;
     const h = setTimeout(() => {
       forKey.current = key;
-      start(new Worker(new URL('../../workers/efficiency-worker.ts', import.meta.url), { type: 'module' }), { kind: 'map', projectText, grid });
+      start(new Worker(new URL('../../workers/efficiency-worker.ts', import.meta.url), { type: 'module' }), { kind: 'map', projectText, grid, control: 'least-current', gain: false });
     }, 150);
     return () => clearTimeout(h);
     // eslint-disable-next-line react-hooks/exhaustive-deps
