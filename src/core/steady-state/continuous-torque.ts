@@ -12,7 +12,10 @@
  * magnet's flux: a few steps to 1e-6 K). The shaft torque is T_em - (P_fe + P_mech) / w. The margin
  * phi(I) = min over the rated limits of (T_max - T) / (T_max - T_coolant) falls with I; when it is
  * still >= 0 at Icont the current binds (or the voltage, when the largest torque at Icont is the
- * MTPV point, drawing less than Icont); else its root is found by the Illinois variant of regula falsi
+ * MTPV point, drawing less than Icont: the coupled state reported is the MTPV point's; the torque
+ * is flat in the current there, so a torque a part in 1e9 lower also has a cooler coupled state on
+ * the field-weakening side, up to about 1 K apart: the voltage-bound temperatures are those of the
+ * MTPV state, the torque is exact); else its root is found by the Illinois variant of regula falsi
  * (Dowell and Jarratt (1971), A modified regula falsi method for computing the root of an equation,
  * BIT 11) from a bracket around the previous speed's current (warm start), widened until it brackets,
  * to |phi| (T_max - T_coolant) <= 1e-4 K. A current whose largest torque is below zero at that speed
