@@ -13,6 +13,7 @@ import { loadProjectText } from '../src/core/project/project';
 import { lossConditionsFromProject } from '../src/core/project/loss-conditions-from-project';
 import { continuousTorqueCurve } from '../src/core/steady-state/continuous-torque';
 import { computeEnvelope } from '../src/core/steady-state/envelope';
+import { peakDuration, peakDurationCurve } from '../src/core/steady-state/peak-duration';
 import type { BenchSection } from './index';
 
 const N = 200;
@@ -50,5 +51,33 @@ export const continuousTorqueBench: BenchSection = {
     }
     const med = median(times);
     console.log(`${N} speeds (bound by ${binds}): median ${med.toFixed(1)} ms, first run ${cold.toFixed(1)} ms (target < ${TARGET_MS} ms: ${med < TARGET_MS ? 'met' : 'NOT met'}); peak envelope of the same speeds ${median(env).toFixed(1)} ms (ratio ${(med / median(env)).toFixed(2)})`);
+  },
+};
+
+/**
+ * Peak-duration bench (no target in the issue): from half the S1 torque at 4000 rpm (field weakening,
+ * the dearest loss points), the duration of a 150 N·m overload, and the curve of 10 overload torques.
+ */
+export const peakDurationBench: BenchSection = {
+  name: 'peak duration (traction demo, 4000 rpm, coupled thermal)',
+  run() {
+    const p = loadProjectText(readFileSync(fileURLToPath(new URL('../resources/demo-ipm-traction.json', import.meta.url)), 'utf8'));
+    const c = lossConditionsFromProject(p);
+    const w = (4000 * Math.PI) / 30;
+    const tm = linearTemperatureModel(p.machine20, p.conditions.magnetTempCoeff);
+    const s1 = continuousTorqueCurve(tm, NET, p.continuous, c, [w])[0]!;
+    const from = { speed_rad_s: w, torque_Nm: 0.5 * s1.torque_Nm };
+    const one: number[] = [], curve: number[] = [];
+    let d = 0, steps = 0;
+    for (let rep = 0; rep < 4; rep++) {
+      const t0 = performance.now();
+      const r = peakDuration(tm, NET, p.peak, p.continuous, c, from, { speed_rad_s: w, torque_Nm: 150 });
+      one.push(performance.now() - t0);
+      d = r.duration_s; steps = r.steps;
+      const t1 = performance.now();
+      peakDurationCurve(tm, NET, p.peak, p.continuous, c, from, w, 10);
+      curve.push(performance.now() - t1);
+    }
+    console.log(`S1 ${s1.torque_Nm.toFixed(1)} N·m at 4000 rpm; 150 N·m from ${from.torque_Nm.toFixed(1)} N·m lasts ${d.toFixed(2)} s (${steps} steps): median ${median(one).toFixed(0)} ms; curve of 10 torques ${median(curve).toFixed(0)} ms`);
   },
 };
