@@ -101,6 +101,19 @@ describe('continuous (S1) torque against speed', () => {
     for (const q of curve) checkS1(cool, q);
   });
 
+  it('deep in field weakening the coupled torque can peak before any temperature limit: the voltage binds there, more torque has no steady state', () => {
+    // invented: 115 K between winding and coolant at the hot copper loss of Icont, 70 % of it winding to stator
+    const R = 115 / (1.5 * p.hot.Rs * p.continuous.Imax ** 2);
+    const net: ThermalNetworkSpec = { ...NET, windingToStator_K_per_W: 0.7 * R, statorToCoolant_K_per_W: 0.3 * R };
+    const q = continuousTorqueCurve(tmOf(), net, p.continuous, c, [rpm(16848)])[0]!;
+    expect(q.limitedBy).toBe('voltage');
+    expect(q.windingTemp_C).toBeLessThan(155 - 0.5);
+    checkS1(net, q);
+    const less = coupledSteadyState(tmOf(), net, p.continuous, c, rpm(16848), 0.999 * q.torque_Nm);
+    expect(less.status).toBe('converged');
+    expect(less.windingTemp_C).toBeLessThan(155);
+  });
+
   it('beyond the continuous limits\' maximum speed: torque 0, bound by the voltage, no temperatures', () => {
     // a continuous current below the characteristic current (invented): the continuous envelope ends
     const lim = { Vmax: 60, Imax: 100 };

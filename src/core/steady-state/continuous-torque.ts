@@ -20,8 +20,10 @@
  * BIT 11) from a bracket around the previous speed's current (warm start), widened until it brackets,
  * to |phi| (T_max - T_coolant) <= 1e-4 K. A current whose largest torque is below zero at that speed
  * (field weakening needs more current) counts as cool (phi = +1): the torque grows with the current.
- * The shaft torque reported is never below zero (a speed where even the unloaded machine overheats
- * has S1 torque 0, bound by that limit); beyond the continuous limits' maximum speed it is 0, bound by
+ * Where the coupled shaft torque falls as the current rises to the bound found (the hot magnet's
+ * lower flux costing more than the current adds), the largest torque lies below it, bound by the
+ * voltage (foldOr). The shaft torque reported is never below zero (a speed where even the least
+ * current the voltage allows overheats has S1 torque 0, bound by that limit, at its temperatures); beyond the continuous limits' maximum speed it is 0, bound by
  * the voltage, with no temperatures (NaN).
  *
  * Motoring by default. Generating is not the mirror image: at the same current the shaft torque is
@@ -38,6 +40,7 @@ import { junctionTemperature } from '../machine/thermal-network';
 import { assertLossConditions } from './loss-point';
 import { type MaxTorqueScratch, maxTorqueCore, newScratch } from './max-torque';
 import { assertLimits } from './mtpa';
+import { goldenSectionMax } from '../mathematics/root-finding';
 import { type LossConditions, newPointLossScratch, PL, type PointLossScratch, pointLosses } from './point-losses';
 import { assertThermalNetwork, copperTrackingSteady, THERMAL_TOL_K } from './thermal-steady-state';
 
@@ -60,17 +63,22 @@ export const CONTINUOUS_TOL_K = 1e-4;
 const MAX_COUPLED = 40;
 const MAX_ROOT = 60;
 const WARM = 0.02;
+const GOLDEN_STEPS = 60;
+const FOLD_PROBE = 1e-4;
 
 /** The per-run state of the current-parametrised search (one per run, never shared). */
 class CurrentSearch {
   readonly ms: MaxTorqueScratch = newScratch();
   readonly sc: PointLossScratch = newPointLossScratch();
   readonly h = new Float64Array(2);
+  readonly gs = new Float64Array(2);
   // the state at the last current evaluated
   Tw: number; Tst: number; Tj = 0; Tem = 0; fe = 0; region: 0 | 1 | 2 = 0; ok = false;
   w = 0; we = 0; rpm = 0; pMech = 0;
   /** the root current of the last speed (NaN when the current or voltage bound it) */
   lastI = Number.NaN;
+  /** phi of the last current evaluated */
+  lastMargin = 0;
   constructor(readonly tm: TemperatureModel, readonly net: ThermalNetworkSpec, readonly lim: DriveLimits, readonly c: LossConditions, readonly sign: 1 | -1) {
     this.Tw = net.coolantTemp_C; this.Tst = net.coolantTemp_C;
   }
@@ -101,7 +109,8 @@ class CurrentSearch {
     this.Tem = m.torque(this.ms.id, this.ms.iq);
     this.fe = r[PL.iron]!;
     this.region = this.ms.region;
-    return Math.min(this.windingMargin(), this.magnetMargin(), this.junctionMargin());
+    this.lastMargin = Math.min(this.windingMargin(), this.magnetMargin(), this.junctionMargin());
+    return this.lastMargin;
   }
   windingMargin(): number { const n = this.net; return (n.windingMax_C - this.Tw) / (n.windingMax_C - n.coolantTemp_C); }
   magnetMargin(): number { const n = this.net; return (n.magnetMax_C - this.Tst - n.magnetAboveStator_K) / (n.magnetMax_C - n.coolantTemp_C); }
@@ -109,9 +118,10 @@ class CurrentSearch {
     const n = this.net;
     return n.junctionToCoolant_K_per_W === undefined || n.junctionMax_C === undefined ? Infinity : (n.junctionMax_C - this.Tj) / (n.junctionMax_C - n.coolantTemp_C);
   }
+  rawShaftTorque(): number { return this.w === 0 ? this.Tem : this.Tem - (this.fe + this.pMech) / this.w; }
   /** The shaft torque of the last state, signed, never of the wrong sign. */
   shaftTorque(): number {
-    const Ts = this.w === 0 ? this.Tem : this.Tem - (this.fe + this.pMech) / this.w;
+    const Ts = this.rawShaftTorque();
     return this.sign > 0 ? Math.max(0, Ts) : Math.min(0, Ts);
   }
   point(limitedBy: ContinuousLimit): ContinuousPoint {
@@ -167,7 +177,7 @@ function atSpeed(s: CurrentSearch, Imax: number, Iprev: number, tolPhi: number):
   let lo = Number.isNaN(Iprev) ? 0 : Iprev * (1 - WARM), flo: number;
   // widen upward while hi is still within every limit
   while (fhi >= 0) {
-    if (hi >= Imax) return s.point(s.region === 2 ? 'voltage' : 'current');
+    if (hi >= Imax) return s.region === 2 ? s.point('voltage') : foldOr(s, Imax, 'current');
     lo = hi;
     hi = Math.min(Imax, hi * (1 + 4 * WARM));
     fhi = s.margin(hi);
@@ -194,8 +204,32 @@ function atSpeed(s: CurrentSearch, Imax: number, Iprev: number, tolPhi: number):
     if (Math.abs(fx) <= tolPhi && s.ok) break;
     if (fx < 0) { hi = x; fhi = fx; if (side === -1) flo *= 0.5; side = -1; }
     else { lo = x; flo = fx; if (side === 1) fhi *= 0.5; side = 1; }
-    if (hi - lo <= 1e-12 * Imax) { x = lo; s.margin(lo); break; }
+    if (hi - lo <= 1e-12 * Imax) { x = hi; s.margin(hi); break; }
   }
   s.lastI = x;
-  return s.point(s.thermalLimit());
+  // the bracket closed on the least current the voltage allows, and that already overheats: no S1 torque
+  if (!s.ok || s.lastMargin < -100 * tolPhi) {
+    const p = s.point(s.thermalLimit());
+    p.torque_Nm = 0;
+    return p;
+  }
+  return foldOr(s, x, s.thermalLimit());
+}
+
+/**
+ * The point at current x bound by `limit`, unless the coupled shaft torque already falls as the
+ * current rises to x (deep in field weakening the hotter magnet's lower flux can cost more torque
+ * than the current adds): then the largest torque lies at a lower current, where no temperature is
+ * at its limit and the voltage (field weakening) is what bounds it; found by golden section
+ * (root-finding.ts) over [0, x].
+ */
+function foldOr(s: CurrentSearch, x: number, limit: ContinuousLimit): ContinuousPoint {
+  const T = s.sign * s.rawShaftTorque();
+  const p = s.point(limit);
+  s.margin(x * (1 - FOLD_PROBE));
+  if (!(s.ok && s.sign * s.rawShaftTorque() > T + 1e-12 * Math.abs(T))) return p;
+  const f = (I: number): number => (s.margin(I) >= 0 && s.ok ? s.sign * s.rawShaftTorque() : -Infinity);
+  goldenSectionMax(f, 0, x, GOLDEN_STEPS, s.gs);
+  f(s.gs[0]!);
+  return s.point('voltage');
 }

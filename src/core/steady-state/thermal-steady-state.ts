@@ -14,7 +14,9 @@
  * Ni (2011), Anderson acceleration for fixed-point iterations, SIAM J. Numer. Anal. 49(4)). Converged
  * when the step is below 1e-6 K (THERMAL_TOL_K). Thermal runaway: the copper loss grows with the
  * winding's temperature faster than the network removes it (a (R_ws + R_sc) dP_cu/dT >= 1 at the
- * current reached), or a temperature beyond RUNAWAY_C; no steady state exists then.
+ * current reached), or a temperature beyond RUNAWAY_C; no steady state exists then. Outside the
+ * envelope: the point cannot be made within the limits at the last temperatures reached (iterates
+ * outside it go on with the losses of the current they would need).
  */
 import type { DriveLimits } from '../drive/inverter-spec';
 import type { TemperatureModel } from '../machine/temperature-model';
@@ -185,9 +187,13 @@ export function coupledWith(lp: TemperedLossPoint, net: ThermalNetworkSpec, w: n
   const acc = new Anderson2();
   let status: CoupledStatus = 'no-convergence';
   let it = 0;
+  let feasible = false, everOutside = false;
   for (; it < MAX_ITER;) {
     it++;
-    if (!lp.evaluate(w, Ts, x0, x1 + off)) { status = 'outside-envelope'; break; }
+    // an iterate outside the envelope goes on with the losses of the current it would need (cooler
+    // than the steady state, a point near the maximum speed can need the hot magnet's lower flux)
+    feasible = lp.evaluate(w, Ts, x0, x1 + off);
+    everOutside ||= !feasible;
     if (!copperTrackingSteady(net, lp.copper_W, lp.iron_W, x0, rpm, h)) { status = 'runaway'; break; }
     const step = Math.max(Math.abs(h[0]! - x0), Math.abs(h[1]! - x1));
     if (step <= THERMAL_TOL_K) {
@@ -200,6 +206,9 @@ export function coupledWith(lp: TemperedLossPoint, net: ThermalNetworkSpec, w: n
     x0 = nx[0]!; x1 = nx[1]!;
     if (!(x0 < RUNAWAY_C && x1 < RUNAWAY_C)) { status = 'runaway'; break; }
   }
+  // the envelope decides first: a point outside it at the temperatures reached has no steady state,
+  // nor one whose iterates cross the envelope's edge without settling (the losses jump there)
+  if (!feasible || (status === 'no-convergence' && everOutside)) status = 'outside-envelope';
   return {
     status, speed: w, torque_Nm: Ts,
     windingTemp_C: x0, statorTemp_C: x1, magnetTemp_C: x1 + off, junctionTemp_C: junctionTemperature(net, lp.inverter_W),
