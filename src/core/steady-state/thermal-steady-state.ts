@@ -203,8 +203,11 @@ export function coupledWith(lp: TemperedLossPoint, net: ThermalNetworkSpec, w: n
       break;
     }
     acc.next(x0, x1, h[0]!, h[1]!, nx);
-    x0 = nx[0]!; x1 = nx[1]!;
-    if (!(x0 < RUNAWAY_C && x1 < RUNAWAY_C)) { status = 'runaway'; break; }
+    // the accelerated step only while it stays where a steady state can lie (at or above the
+    // coolant, losses being >= 0, and below RUNAWAY_C); else the plain step, which always does
+    const Tc = net.coolantTemp_C;
+    if (nx[0]! >= Tc && nx[1]! >= Tc && nx[0]! < RUNAWAY_C && nx[1]! < RUNAWAY_C) { x0 = nx[0]!; x1 = nx[1]!; }
+    else { x0 = h[0]!; x1 = h[1]!; acc.reset(); }
   }
   // the envelope decides first: a point outside it at the temperatures reached has no steady state,
   // nor one whose iterates cross the envelope's edge without settling (the losses jump there)
