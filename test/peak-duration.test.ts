@@ -123,6 +123,16 @@ describe('peak duration', () => {
     expect(beyond.outsideEnvelope).toBe(true);
   });
 
+  it('the curve in field weakening (4000 rpm) runs through every torque up to the envelope', () => {
+    const w = rpm(4000);
+    const s1 = continuousTorqueCurve(tmOf(), NET, p.continuous, c, [w])[0]!;
+    const cv = peakDurationCurve(tmOf(), NET, p.peak, p.continuous, c, { speed_rad_s: w, torque_Nm: 0.5 * s1.torque_Nm }, w, 10);
+    for (let k = 0; k < 10; k++) {
+      // below the S1 torque forever, above it a finite time (IEC 60034-1 duty type S1: the S1 torque is the largest held forever)
+      expect(cv.duration_s[k]! === Infinity, `${cv.torque_Nm[k]} N·m`).toBe(cv.torque_Nm[k]! < s1.torque_Nm);
+    }
+  });
+
   it('refuses a continuous point without a steady state, naming it', () => {
     const w = rpm(2000);
     expect(refusal(() => peakDuration(tmOf(), NET, p.peak, p.continuous, c, { speed_rad_s: w, torque_Nm: 400 }, { speed_rad_s: w, torque_Nm: 100 })).field).toBe('from');

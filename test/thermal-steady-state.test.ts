@@ -76,6 +76,23 @@ describe('thermally coupled steady state', () => {
     });
   }
 
+  it('any (speed, torque) of the traction demo up to twice its peak torque: one of the four statuses, never a throw, converged ones within the network\'s bounds', () => {
+    const p = demo('demo-ipm-traction');
+    const c = lossConditionsFromProject(p);
+    const tm = linearTemperatureModel(p.machine20, p.conditions.magnetTempCoeff);
+    const seen = new Set<string>();
+    for (const n of [0, 2000, 4000, 8000, 12000, 16000]) {
+      for (const Ts of [-500, -250, -100, 0, 100, 250, 500]) {
+        const r = coupledSteadyState(tm, NET, p.peak, c, rpm(n), Ts);
+        seen.add(r.status);
+        expect(['converged', 'runaway', 'outside-envelope']).toContain(r.status);
+        // steady temperatures lie between the coolant and the runaway bound (losses >= 0; common practice (no source))
+        if (r.status === 'converged') expect(r.statorTemp_C).toBeGreaterThanOrEqual(40);
+      }
+    }
+    expect(seen.has('converged') && seen.has('outside-envelope')).toBe(true);
+  });
+
   it('outside the envelope: more torque than the hot machine makes', () => {
     const p = demo('demo-ipm-traction');
     const tm = linearTemperatureModel(p.machine20, p.conditions.magnetTempCoeff);
