@@ -11,13 +11,14 @@ import { cliStartBench } from './cli-start';
 import { efficiencyMapBench } from './efficiency-map';
 import { cliEfficiencyThreadsBench } from './cli-efficiency-threads';
 import { againstCheckout } from './against-checkout';
+import { continuousTorqueBench, peakDurationBench } from './continuous-torque';
 
 export interface BenchSection {
   name: string;
   run: () => void | Promise<void>;
 }
 
-const sections: BenchSection[] = [envelopeBench, fluxMapEnvelopeBench, simulateBench, simulateMapBench, cliStartBench, efficiencyMapBench, cliEfficiencyThreadsBench];
+const sections: BenchSection[] = [envelopeBench, fluxMapEnvelopeBench, simulateBench, simulateMapBench, cliStartBench, efficiencyMapBench, cliEfficiencyThreadsBench, continuousTorqueBench, peakDurationBench];
 
 const argv = process.argv.slice(2);
 const onlyAt = argv.indexOf('--only');

@@ -9,6 +9,8 @@ import { datasheetCommand } from './datasheet';
 import { importFluxMapCommand } from './import-flux-map';
 import { importDutyCycleCommand } from './import-duty-cycle';
 import { efficiencyCommand } from './efficiency';
+import { continuousCommand } from './continuous';
+import { overloadCommand } from './overload';
 
 /** Every command of the CLI, in the order `help` lists them. Add a command by importing it here. */
 export const COMMANDS: Command[] = [
@@ -16,6 +18,8 @@ export const COMMANDS: Command[] = [
   envelopeCommand,
   pointCommand,
   efficiencyCommand,
+  continuousCommand,
+  overloadCommand,
   sizeCommand,
   simulateCommand,
   tuneCommand,
