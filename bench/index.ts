@@ -10,6 +10,7 @@ import { simulateBench, simulateMapBench } from './simulate';
 import { cliStartBench } from './cli-start';
 import { efficiencyMapBench } from './efficiency-map';
 import { cliEfficiencyThreadsBench } from './cli-efficiency-threads';
+import { dutyCycleBench } from './duty-cycle';
 import { againstCheckout } from './against-checkout';
 
 export interface BenchSection {
@@ -17,7 +18,7 @@ export interface BenchSection {
   run: () => void | Promise<void>;
 }
 
-const sections: BenchSection[] = [envelopeBench, fluxMapEnvelopeBench, simulateBench, simulateMapBench, cliStartBench, efficiencyMapBench, cliEfficiencyThreadsBench];
+const sections: BenchSection[] = [envelopeBench, fluxMapEnvelopeBench, simulateBench, simulateMapBench, cliStartBench, efficiencyMapBench, cliEfficiencyThreadsBench, dutyCycleBench];
 
 const argv = process.argv.slice(2);
 const onlyAt = argv.indexOf('--only');
