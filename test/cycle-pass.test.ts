@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { stepTemperatures } from '../src/core/machine/thermal-network';
-import { newCyclePass, runPass } from '../src/core/simulation/cycle-pass';
+import { kinksOf, newCyclePass, runPass } from '../src/core/simulation/cycle-pass';
 import { cycleInstants } from '../src/core/simulation/duty-cycle-spec';
 import { IL, instantLosses, newInstantLossScratch } from '../src/core/simulation/instant-losses';
 import { conditions, project, sampledCycle, temperatureModel, THERMAL } from './duty-cycle-fixtures';
@@ -80,5 +80,27 @@ describe('one repeat of a duty cycle', () => {
     expect(o.completed).toBe(false);
     expect(ks.length).toBe(1);
     expect(ks[0]).toBeGreaterThanOrEqual(4096);
+  });
+
+  it('kinks: where the speed or torque changes slope (on a sample, or on both sides of a breakpoint between samples); none for noisy data', () => {
+    // breakpoints at 4 s and 12 s fall on samples of 0.05 s; the one at 16.02 s between two
+    const x = cycleInstants(sampledCycle([[0, 0, 0], [4, 2000, 160], [12, 2000, 160], [16.02, 5000, 70], [30, 5000, 70]], 0.05));
+    const { kink, nextKink } = kinksOf(x);
+    const at = [...kink].flatMap((v, k) => (v === 1 ? [x.t_s[k]!] : []));
+    expect(at.map((v) => Math.round(v * 100) / 100)).toEqual([4, 12, 16, 16.05]);
+    expect(nextKink[0]).toBe(80);
+    expect(nextKink[80]).toBe(240);
+    expect(nextKink[x.t_s.length - 2]).toBe(x.t_s.length - 1);
+    const noisy = cycleInstants(sampledCycle([[0, 1000, 50], [10, 1000, 50]], 0.01));
+    for (let k = 0; k < noisy.torque_Nm.length; k++) noisy.torque_Nm[k]! += Math.sin(k * 1.7) * 0.5;
+    expect(kinksOf(noisy).kink.every((v) => v === 0)).toBe(true);
+  });
+
+  it('adaptive with a knot at each kink: the knots of a cycle of straight pieces include every kink', () => {
+    const x = cycleInstants(CYCLE);
+    const cp = newCyclePass(x, project.peak, { adaptive: true, maxSpan: 100, tolerance: 1e-3, transition: false });
+    runPass(cp, temperatureModel(), THERMAL, conditions, new Float64Array([40, 40]), new Float64Array(4), () => true);
+    for (let k = 0; k < x.t_s.length; k++) if (cp.kink[k] === 1) expect(cp.a.solved[k], `${x.t_s[k]} s`).toBe(1);
+    expect([...cp.kink].filter((v) => v === 1).length).toBe(4);
   });
 });

@@ -34,7 +34,7 @@ export interface DutyCycleOptions {
   periodic?: 'extrapolate' | 'repeat';
   /** solve the loss point at every instant, or at adaptive knots with linear interpolation between (default 'adaptive') */
   solve?: 'adaptive' | 'every-instant';
-  /** longest span between solved instants, s (default 2) */
+  /** longest span between solved instants, s (default 5) */
   maxSpan_s?: number;
   /** the interpolation's relative tolerance on loss and current (default 1e-3) */
   interpolationTolerance?: number;
@@ -78,7 +78,7 @@ export function evaluateDutyCycle(spec: DutyCycleSpec, th: ThermalNetworkSpec, t
   const x = cycleInstants(spec, opts.step_s);
   const tol = positive('tolerance_K', opts.tolerance_K, 0.1);
   const maxRepeats = Math.floor(positive('maxRepeats', opts.maxRepeats, 100));
-  const maxSpan_s = positive('maxSpan_s', opts.maxSpan_s, 2);
+  const maxSpan_s = positive('maxSpan_s', opts.maxSpan_s, 5);
   const N = x.t_s.length, period = x.t_s[N - 1]! - x.t_s[0]!;
   const meanDt = period / (N - 1);
   const extrapolate = (opts.periodic ?? 'extrapolate') === 'extrapolate';
