@@ -82,6 +82,7 @@ describe('duty cycle', () => {
   it('the extrapolated periodic state equals plain repetition within the 0.1 K rule, in fewer repeats (common practice (no source))', () => {
     const s = sampledCycle([[0, 0, 0], [5, 4000, 120], [60, 4000, 120], [65, 0, 0], [300, 0, 0]], 0.1);
     const plain = run(s, { periodic: 'repeat' }), fast = run(s);
+    expect(run(s, { periodic: 'repeat', maxRepeats: 2 }).converged).toBe(false);
     expect(plain.converged && fast.converged).toBe(true);
     expect(plain.lastChange_K).toBeLessThan(0.1);
     expect(fast.repeats).toBeLessThan(plain.repeats);
@@ -91,6 +92,11 @@ describe('duty cycle', () => {
       expect(Math.abs(fast.traces.stator_C[k]! - plain.traces.stator_C[k]!)).toBeLessThan(0.1);
     }
     expect(Math.abs(fast.peaks.winding.value - plain.peaks.winding.value)).toBeLessThan(0.1);
+    // and it is nearer the periodic state (plain repetition to 1e-3 K) than plain repetition to 0.1 K is
+    const periodic = run(s, { periodic: 'repeat', tolerance_K: 1e-3 });
+    const off = (r: typeof fast) => Math.abs(r.traces.winding_C[N - 1]! - periodic.traces.winding_C[N - 1]!);
+    expect(off(fast)).toBeLessThan(0.01);
+    expect(off(fast)).toBeLessThan(off(plain) + 2e-3);
   });
 
   it('outside the envelope: the interval and the limit, and the verdict', () => {

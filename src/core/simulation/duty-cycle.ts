@@ -11,7 +11,10 @@
  * Phi - I, Phi the network's own transition over the cycle (exact for losses that do not depend on
  * temperature; the network is linear given the losses), later ones Broyden-updated from the repeats
  * seen (Broyden 1965, A class of methods for solving nonlinear simultaneous equations, Math. Comp. 19).
- * Either way the last repeat is a full repeat from its start, and the stopping rule is checked on it.
+ * Either way the last repeat is a full repeat from its start, and the stopping rule is checked on it;
+ * 'extrapolate' also asks that the periodic state its next step predicts lies within the tolerance of
+ * that start (a repeat that changes little can still sit off the periodic state when the repeats
+ * contract slowly).
  */
 import type { DriveLimits } from '../drive/inverter-spec';
 import type { TemperatureModel } from '../machine/temperature-model';
@@ -49,7 +52,7 @@ export interface DutyCycleResult extends CycleSummary {
   period_s: number;
   /** repeats run, the last one reported */
   repeats: number;
-  /** whether the last repeat met the tolerance */
+  /** whether the last repeat met the stopping rule (else maxRepeats ended the run) */
   converged: boolean;
   /** largest |end - start| of the last repeat over the two nodes, K */
   lastChange_K: number;
@@ -91,7 +94,7 @@ export function evaluateDutyCycle(spec: DutyCycleSpec, th: ThermalNetworkSpec, t
   const S = new Float64Array([th.coolantTemp_C, th.coolantTemp_C]), T = new Float64Array(2), phi = new Float64Array(4);
   // quasi-Newton state: G ~ dF/dS (row-major), the last S and F
   const G = new Float64Array(4), Sp = new Float64Array(2), Fp = new Float64Array(2);
-  let r = 0, total = 0, change = Infinity, removed = 0, last = 0;
+  let r = 0, total = 0, change = Infinity, removed = 0, last = 0, converged = false;
   const start: [number, number] = [S[0]!, S[1]!];
   while (r < maxRepeats) {
     r++;
@@ -104,7 +107,7 @@ export function evaluateDutyCycle(spec: DutyCycleSpec, th: ThermalNetworkSpec, t
     removed = o.removed_J; last = o.solves;
     const F0 = T[0]! - S[0]!, F1 = T[1]! - S[1]!;
     change = Math.max(Math.abs(F0), Math.abs(F1));
-    if (change < tol || r >= maxRepeats) break;
+    if (change < tol && !extrapolate) { converged = true; break; }
     let n0 = T[0]!, n1 = T[1]!; // plain repetition
     if (extrapolate) {
       if (r === 1) { G[0] = phi[0]! - 1; G[1] = phi[1]!; G[2] = phi[2]!; G[3] = phi[3]! - 1; }
@@ -119,14 +122,17 @@ export function evaluateDutyCycle(spec: DutyCycleSpec, th: ThermalNetworkSpec, t
       const det = G[0]! * G[3]! - G[1]! * G[2]!;
       const s0 = -(G[3]! * F0 - G[1]! * F1) / det, s1 = -(-G[2]! * F0 + G[0]! * F1) / det;
       if (Number.isFinite(s0) && Number.isFinite(s1)) { n0 = S[0]! + s0; n1 = S[1]! + s1; }
+      // converged when the repeat changed its start by less than tol and the periodic state it predicts is as near
+      if (change < tol && Math.max(Math.abs(n0 - S[0]!), Math.abs(n1 - S[1]!)) < tol) { converged = true; break; }
     }
+    if (r >= maxRepeats) break;
     Sp[0] = S[0]!; Sp[1] = S[1]!; Fp[0] = F0; Fp[1] = F1;
     S[0] = n0; S[1] = n1;
   }
   opts.onProgress?.(1, r);
   const sum = summarizeCycle(x, cp.a, th, new Float64Array(start), removed);
   return {
-    label: spec.label, period_s: period, repeats: r, converged: change < tol, lastChange_K: change,
+    label: spec.label, period_s: period, repeats: r, converged, lastChange_K: change,
     solves: { last, total }, rmsTorque_Nm: rmsTorque(spec),
     t_s: x.t_s, speed_rpm: x.speed_rpm, torque_Nm: x.torque_Nm, traces: cp.a, start_C: start,
     ...sum,
