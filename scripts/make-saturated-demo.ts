@@ -2,7 +2,8 @@
  * Writes the fourth demo project: an invented interior-magnet traction motor whose flux map is sampled
  * from the algebraic saturation model (src/core/machine/saturation-model.ts; Hinkkanen et al. (2017),
  * IEEE Trans. Ind. Appl. 53(3), with the magnet as a d-axis current). The rest of the project follows
- * the interior-magnet traction demo: the same bus, inverter, conditions, control and scenario.
+ * the interior-magnet traction demo: the same bus, inverter, conditions, control, scenario, losses,
+ * thermal network and duty cycle.
  *
  *   npx tsx scripts/make-saturated-demo.ts OUT.json
  *
@@ -49,7 +50,7 @@ const project = {
   format: base.format,
   version: base.version,
   name: 'Invented demo: saturating interior-magnet traction motor (flux map from an algebraic saturation model)',
-  note: 'Invented numbers for demonstration only; not a real product. The flux map (41 x 41, iq >= 0, mirrored) is sampled from the algebraic saturation model of Hinkkanen, Pescetto, Mölsä, Saarakkala, Pellegrino and Bojoi (2017), IEEE Trans. Ind. Appl. 53(3), with the magnet as a constant d-axis current, so it is reciprocal; at 450 A on the q axis the apparent Lq is about 35 % below its zero-current value and psi_d about 12 % lower. A 350 V bus is dangerous: follow local codes, licensed practice and IEC 61800-5-1. The loss coefficients (losses) are those of the interior-magnet traction demo, invented too.',
+  note: 'Invented numbers for demonstration only; not a real product. The flux map (41 x 41, iq >= 0, mirrored) is sampled from the algebraic saturation model of Hinkkanen, Pescetto, Mölsä, Saarakkala, Pellegrino and Bojoi (2017), IEEE Trans. Ind. Appl. 53(3), with the magnet as a constant d-axis current, so it is reciprocal; at 450 A on the q axis the apparent Lq is about 35 % below its zero-current value and psi_d about 12 % lower. A 350 V bus is dangerous: follow local codes, licensed practice and IEC 61800-5-1. The loss coefficients (losses) are those of the interior-magnet traction demo, invented too, and so are its thermal network (thermal) and its duty cycle (dutyCycle, labelled invented).',
   motor: {
     polePairs: POLE_PAIRS,
     Rs: RS,
@@ -67,6 +68,8 @@ const project = {
   control: base.control,
   scenario: base.scenario,
   losses: base.losses,
+  thermal: base.thermal,
+  dutyCycle: base.dutyCycle,
 };
 // arrays of numbers on one line each (a map row per line)
 const text = JSON.stringify(project, null, 2).replace(/\[\s*(-?[\d.e+-]+(?:,\s*-?[\d.e+-]+)*)\s*\]/g, (_, xs: string) => `[${xs.split(/,\s*/).join(', ')}]`);

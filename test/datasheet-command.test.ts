@@ -1,5 +1,5 @@
 // The `datasheet` command: the same self-contained HTML the app exports, written atomically to --out.
-import { copyFileSync, mkdtempSync, readFileSync, statSync } from 'node:fs';
+import { copyFileSync, mkdtempSync, readFileSync, statSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
 import { afterEach, beforeEach, describe, expect, it } from 'vitest';
@@ -9,6 +9,7 @@ import { computeDatasheetResults } from '../src/core/reports/datasheet-results';
 import { datasheetHtml } from '../src/core/reports/datasheet-html';
 import { loadProjectText } from '../src/core/project/project';
 import { TOOL_VERSION } from '../src/core/base/version';
+import { datasheetEfficiencySummary } from '../src/core/reports/datasheet-efficiency';
 
 const root = resolve(__dirname, '..');
 const dir = mkdtempSync(join(tmpdir(), 'tw-datasheet-'));
@@ -53,6 +54,29 @@ describe('datasheet command', () => {
     expect(doc.tableRows).toBe(7); // 0..6000 rpm of a 6300 rpm range
     // 8 N·m at 4000 rpm: short hot (7.9 N·m available), met cold (stronger magnet)
     expect(doc.requirements).toEqual({ total: 4, metHot: 3, metCold: 4, metBoth: 3 });
+  });
+  it('--json carries the efficiency map\'s summary for a file with losses, and the document it had without', async () => {
+    const out = join(dir, 'servo-eff.html');
+    const r = await run('datasheet', servoSrc, '--out', out, '--json');
+    expect(r.code).toBe(0);
+    const doc = JSON.parse(r.out);
+    expect(Object.keys(doc)).toEqual(['out', 'bytes', 'project', 'date', 'version', 'speedMax_rpm', 'tableStep_rpm', 'tableRows', 'requirements', 'cautions', 'efficiency']);
+    const p = loadProjectText(readFileSync(servoSrc, 'utf8'));
+    expect(doc.efficiency).toEqual(datasheetEfficiencySummary(computeDatasheetResults(p).efficiency!));
+    expect(doc.efficiency).toMatchObject({ quantity: 'system', corner: 'hot', control: 'least-current', speedPoints: 60, torquePoints: 60 });
+    expect(readFileSync(out, 'utf8')).toContain('data-testid="chart-efficiency"');
+    const text = await run('datasheet', servoSrc, '--out', join(dir, 'servo-eff2.html'));
+    const peak = doc.efficiency.peakSystem;
+    expect(text.out).toContain(`system efficiency map (hot corner, least current, 60 x 60 grid): highest ${(100 * peak.efficiency).toFixed(1)} % at ${Math.round(peak.speed_rpm)} rpm`);
+    // without the section: the keys of before, no map, no line about it
+    const j = JSON.parse(readFileSync(servoSrc, 'utf8'));
+    delete j.losses;
+    const plain = join(dir, 'servo-no-losses.json');
+    writeFileSync(plain, JSON.stringify(j));
+    const r2 = await run('datasheet', plain, '--out', join(dir, 'servo-plain.html'), '--json');
+    expect(Object.keys(JSON.parse(r2.out))).toEqual(['out', 'bytes', 'project', 'date', 'version', 'speedMax_rpm', 'tableStep_rpm', 'tableRows', 'requirements', 'cautions']);
+    expect(readFileSync(join(dir, 'servo-plain.html'), 'utf8')).not.toContain('efficiency');
+    expect((await run('datasheet', plain, '--out', join(dir, 'servo-plain2.html'))).out).not.toContain('efficiency');
   });
   it('refuses an --out that is the project file itself, however it is spelled, and leaves the file alone', async () => {
     const input = join(dir, 'project.json');

@@ -8,9 +8,17 @@ import { loadProjectText } from '../src/core/project/project';
 import { SAFETY_CAUTION } from '../src/core/steady-state/safety';
 import { RAD_S_TO_RPM } from '../src/core/base/units';
 import { TOOL_VERSION } from '../src/core/base/version';
+import { datasheetEfficiencySummary } from '../src/core/reports/datasheet-efficiency';
 
 const text = (n: string) => readFileSync(join(__dirname, '..', 'resources', `${n}.json`), 'utf8');
-const servo = loadProjectText(text('demo-servo-axis'));
+/** A demo without its `losses` section, as the demos were before they gained one. */
+const withoutLosses = (n: string): string => {
+  const j = JSON.parse(text(n));
+  delete j.losses;
+  return JSON.stringify(j);
+};
+// the datasheet of a file without losses (no efficiency map); the map's card is checked below with the demo as it is
+const servo = loadProjectText(withoutLosses('demo-servo-axis'));
 const servoResults = computeDatasheetResults(servo);
 const servoHtml = datasheetHtml(servoResults, { date: '2026-12-03' });
 
@@ -109,5 +117,25 @@ describe('datasheet as one self-contained HTML page', () => {
     expect(t2).toContain('>requirement met (hot and cold)</text>');
     expect(t2).not.toContain('requirement not met');
     expect(t2).not.toContain('curve ends');
+  });
+  it('gains the system-efficiency map for a file with a losses section, after the power figure', () => {
+    const p = loadProjectText(text('demo-servo-axis'));
+    const r = computeDatasheetResults(p);
+    const html = datasheetHtml(r, { date: '2026-12-03' });
+    expect(html.match(/<svg /g)).toHaveLength(3);
+    expect(html.indexOf('data-testid="chart-efficiency"')).toBeGreaterThan(html.indexOf('data-testid="chart-power"'));
+    expect(html).toContain('<h2>System efficiency, hot corner, least-current control</h2>');
+    const s = datasheetEfficiencySummary(r.efficiency!);
+    const note = /<p class="note" data-testid="efficiency-peaks">([^<]*)<\/p>/.exec(html)![1]!;
+    expect(note).toContain(`${Number((100 * s.peakMotoring!.efficiency).toPrecision(4))} % motoring at ${Math.round(s.peakMotoring!.speed_rpm)} rpm`);
+    expect(note).toContain(`${Number((100 * s.peakGenerating!.efficiency).toPrecision(4))} % generating at ${Math.round(s.peakGenerating!.speed_rpm)} rpm`);
+    expect(note).toContain(`grid 60 x 60, ${s.pointsInside} points inside the envelope`);
+  });
+  it('without a losses section is the page it was: the same bytes as the results with the map left out', () => {
+    // common practice (no source): the losses feed the map alone
+    const r = computeDatasheetResults(loadProjectText(text('demo-servo-axis')));
+    const { efficiency: _map, ...rest } = r;
+    expect(servoResults.efficiency).toBeUndefined();
+    expect(servoHtml).toBe(datasheetHtml({ ...rest, project: servo }, { date: '2026-12-03' }));
   });
 });

@@ -1,7 +1,8 @@
 import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
-import { datasheetCurves, datasheetVerdicts } from '../src/core/reports/datasheet-parts';
+import { datasheetCurves, datasheetEfficiencyGridOf, datasheetEfficiencyOf, datasheetVerdicts } from '../src/core/reports/datasheet-parts';
+import { efficiencyGridAxes, emptyEfficiencyMap, solveEfficiencyRow } from '../src/core/reports/efficiency-map-grid';
 import { computeDatasheetResults, DEFAULT_DATASHEET_RESULTS_OPTIONS } from '../src/core/reports/datasheet-results';
 import { loadProjectText } from '../src/core/project/project';
 import { RPM_TO_RAD_S } from '../src/core/base/units';
@@ -10,17 +11,38 @@ import { computeEnvelopes, computeVerdicts, DEFAULT_ENVELOPE_OPTIONS } from '../
 const load = (name: string) => loadProjectText(readFileSync(join(__dirname, '..', 'resources', name), 'utf8'));
 const traction = load('demo-ipm-traction.json');
 const servo = load('demo-servo-axis.json');
+/** A project without the file's `losses` section (no efficiency map), as the demos were before they gained one. */
+const withoutLosses = (name: string) => {
+  const j = JSON.parse(readFileSync(join(__dirname, '..', 'resources', name), 'utf8'));
+  delete j.losses;
+  return loadProjectText(JSON.stringify(j));
+};
 
 describe('datasheet parts', () => {
   it('the curves and the verdicts together are the datasheet results, key for key and bit for bit', () => {
     // common practice (no source): a split computation must give what the whole one gave
-    for (const p of [traction, servo]) {
+    for (const p of [withoutLosses('demo-ipm-traction.json'), withoutLosses('demo-servo-axis.json')]) {
       const c = datasheetCurves(p, DEFAULT_DATASHEET_RESULTS_OPTIONS);
       const whole = computeDatasheetResults(p);
       const parts = { ...c, ...datasheetVerdicts(p, c.speedMax) };
       expect(Object.keys(parts)).toEqual(['project', 'speedMax', 'curves', 'constantsHot', 'constantsCold', 'sizing', 'sizingCold', 'safety', 'safetySpeed']);
       expect(parts).toEqual(whole);
     }
+  });
+
+  it('with a losses section the whole adds the efficiency map, and the app\'s worker solves the same map', () => {
+    // common practice (no source): a split computation must give what the whole one gave
+    const c = datasheetCurves(servo, DEFAULT_DATASHEET_RESULTS_OPTIONS);
+    const whole = computeDatasheetResults(servo);
+    const parts = { ...c, ...datasheetVerdicts(servo, c.speedMax), efficiency: datasheetEfficiencyOf(c) };
+    expect(Object.keys(whole)).toEqual(['project', 'speedMax', 'curves', 'constantsHot', 'constantsCold', 'sizing', 'sizingCold', 'safety', 'safetySpeed', 'efficiency']);
+    expect(parts).toEqual(whole);
+    // the efficiency worker solves the grid row by row (efficiency-map-grid.ts): bit for bit the same map
+    const grid = datasheetEfficiencyGridOf(c)!;
+    const { speeds, torques } = efficiencyGridAxes(grid);
+    const rows = emptyEfficiencyMap(speeds, torques);
+    for (let i = 0; i < speeds.length; i++) solveEfficiencyRow(servo, grid.corner, rows, i);
+    expect(rows).toEqual(whole.efficiency!.map);
   });
 
   it('the eight curves come peak then continuous, hot then cold, motoring then generating', () => {

@@ -31,6 +31,20 @@ describe('efficiency map a row at a time', () => {
     expect(inside).toBeLessThan(400);
   });
 
+  it('min-loss rows a speed at a time equal the engine\'s whole min-loss map and its least-current starts', () => {
+    const T = torques, sub = { speeds: Float64Array.from([speeds[3]!, speeds[9]!, speeds[15]!]) };
+    const ml = emptyEfficiencyMap(sub.speeds, T), lc = emptyEfficiencyMap(sub.speeds, T);
+    for (let i = 0; i < 3; i++) solveEfficiencyRow(p, 'hot', ml, i, 'min-loss', lc);
+    const wholeLc = emptyEfficiencyMap(sub.speeds, T);
+    const whole = efficiencyMap(p.models.hot, p.peak, lossConditionsFromProject(p), sub.speeds, T, { control: 'min-loss', leastCurrent: wholeLc });
+    // each speed is solved on its own: identical numbers (common practice (no source))
+    for (const f of ['feasible', 'system', 'copper', 'iron', 'inverterLoss', 'torqueEm'] as const) {
+      expect(Array.from(ml[f])).toEqual(Array.from(whole[f]));
+      expect(Array.from(lc[f])).toEqual(Array.from(wholeLc[f]));
+    }
+    expect(ml.feasible.reduce((a, b) => a + b, 0)).toBeGreaterThan(10);
+  });
+
   it('axes span 0..top speed and -T..+T with the points asked for', () => {
     expect(speeds.length).toBe(20);
     expect(speeds[0]).toBe(0);

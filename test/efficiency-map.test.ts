@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { loadProjectText } from '../src/core/project/project';
-import { efficiencyMap, mapAxis } from '../src/core/steady-state/efficiency-map';
+import { efficiencyMap, mapAxis, newEfficiencyMap } from '../src/core/steady-state/efficiency-map';
 import { solveLossPoint } from '../src/core/steady-state/loss-point';
 import { canHoldTorque } from '../src/core/steady-state/operating-point';
 import type { LossConditions, LossSpec } from '../src/core/steady-state/point-losses';
@@ -60,5 +60,42 @@ describe('efficiency map', () => {
         if (q.feasible) expect(Math.abs(r.system[k]! - q.efficiency.system)).toBeLessThan(1e-9);
       }
     }
+  });
+
+  it('min-loss control: every point is solveLossPoint\'s loss-minimising point, energy balanced, least-current start kept', () => {
+    const p = demo('demo-ipm-traction');
+    const c: LossConditions = { Vdc: p.inverter.Vdc, friction: { B: 0.002, Tc: 0.3 }, losses: LOSSES };
+    const S = mapAxis(-2000 * Math.PI / 30, 12000 * Math.PI / 30, 8), T = mapAxis(-200, 200, 9);
+    const lc = newEfficiencyMap(S, T);
+    const r = efficiencyMap(p.models.hot, p.peak, c, S, T, { control: 'min-loss', leastCurrent: lc });
+    const plain = efficiencyMap(p.models.hot, p.peak, c, S, T, {});
+    let inside = 0;
+    for (let i = 0; i < 8; i++) {
+      for (let j = 0; j < 9; j++) {
+        const k = i * 9 + j;
+        const q = solveLossPoint(p.models.hot, p.peak, c, S[i]!, T[j]!, { minLoss: true });
+        const a = solveLossPoint(p.models.hot, p.peak, c, S[i]!, T[j]!);
+        // the same solver from the same start: identical numbers (common practice (no source))
+        expect(r.feasible[k]).toBe(q.feasible ? 1 : 0);
+        expect(lc.feasible[k]).toBe(plain.feasible[k]);
+        if (!q.feasible) { expect(r.system[k]).toBeNaN(); continue; }
+        inside++;
+        expect(r.system[k]).toBe(q.efficiency.system);
+        expect(r.copper[k]).toBe(q.losses.copper_W);
+        expect(r.iron[k]).toBe(q.losses.iron_W);
+        expect(r.inverterLoss[k]).toBe(q.losses.inverter_W);
+        expect(r.torqueEm[k]).toBe(q.torqueEm_Nm);
+        expect(lc.copper[k]).toBe(a.losses.copper_W);
+        const loss = r.copper[k]! + r.iron[k]! + r.mechanical[k]! + r.inverterLoss[k]!;
+        const ps = T[j]! * S[i]!;
+        // electrical input = shaft output + all losses (conservation of energy, common practice (no source))
+        expect(Math.abs(r.dcPower[k]! - (ps + loss)) / Math.max(Math.abs(r.dcPower[k]!), Math.abs(ps), loss)).toBeLessThan(1e-9);
+      }
+    }
+    expect(inside).toBeGreaterThan(20);
+    // the default is least current, value for value (common practice (no source))
+    const dflt = efficiencyMap(p.models.hot, p.peak, c, S, T);
+    expect(Array.from(dflt.system)).toEqual(Array.from(plain.system));
+    expect(() => efficiencyMap(p.models.hot, p.peak, c, S, T, { leastCurrent: lc })).toThrow(/min-loss control only/);
   });
 });

@@ -9,7 +9,8 @@ import { lossConditionsFromProject } from '../src/core/project/loss-conditions-f
 import { solveLossPoint } from '../src/core/steady-state/loss-point';
 import { computeEnvelope } from '../src/core/steady-state/envelope';
 import { efficiencyGridAxes, emptyEfficiencyMap, solveEfficiencyRow } from '../src/core/reports/efficiency-map-grid';
-import { CONTOUR_FROM, efficiencyFigure, lossBarFigure, percentGrid } from '../src/renderer/src/views/efficiency/efficiency-figures';
+import { CONTOUR_FROM, efficiencyFigure, lossBarFigure, lossSavedFigure, lossSavedGrid, niceStep, percentGrid } from '../src/renderer/src/views/efficiency/efficiency-figures';
+import { minLossGainMap } from '../src/core/steady-state/min-loss-gain-map';
 import { CURVE, type PlotTheme } from '../src/renderer/src/components/plot-style';
 
 const theme: PlotTheme = { ink: '#111111', muted: '#666666', line: '#dddddd', panel: '#ffffff', bg: '#f5f5f5', ok: '#2e7d32', bad: '#b3261e', dark: false };
@@ -77,5 +78,63 @@ describe('efficiency figure', () => {
     // every loss of a loaded, turning traction motor is positive with the demo's loss data (invented): common practice (no source)
     for (const v of b.y) expect(v).toBeGreaterThan(0);
     expect((f.layout as unknown as { yaxis: { title: { text: string } } }).yaxis.title.text).toBe('power loss (W)');
+  });
+
+  it('the loss saved by loss-minimising control: contours in W from 0, null outside, the chosen point marked', () => {
+    const S = speeds.filter((_, i) => i % 2 === 1), T = torques.filter((_, j) => j % 2 === 1);
+    const { gain } = minLossGainMap(p.models.hot, p.peak, lossConditionsFromProject(p), S, T);
+    const z = lossSavedGrid(gain);
+    let max = 0, nulls = 0;
+    for (let j = 0; j < T.length; j++)
+      for (let i = 0; i < S.length; i++) {
+        const k = i * T.length + j;
+        if (gain.feasible[k]) {
+          expect(z[j]![i]).toBe(gain.lossSaved[k]);
+          max = Math.max(max, z[j]![i]!);
+        } else {
+          expect(z[j]![i]).toBeNull();
+          nulls++;
+        }
+      }
+    expect(nulls).toBeGreaterThan(0);
+    // iron loss makes field weakening pay somewhere (Morimoto et al. (1994), IEEE Trans. Ind. Electron. 41(5))
+    expect(max).toBeGreaterThan(1);
+    const f = lossSavedFigure(gain, env, [], theme, CURVE.light, { speed_rpm: 4000, torque_Nm: 50 });
+    const c = f.data[0] as unknown as { type: string; zmin: number; zmax: number; contours: { start: number; end: number; size: number }; colorbar: { title: { text: string }; ticksuffix: string } };
+    expect(c.type).toBe('contour');
+    expect(c.contours.start).toBe(0);
+    expect(c.zmin).toBe(0);
+    expect(c.zmax).toBeGreaterThanOrEqual(max);
+    expect(c.zmax).toBeLessThanOrEqual(max + c.contours.size + 1e-12);
+    expect(c.colorbar.title.text).toBe('loss saved, W');
+    expect(c.colorbar.ticksuffix).toBe(' W');
+    const mark = f.data.find((d) => (d as { name?: string }).name === 'chosen point') as { x: number[]; y: number[] };
+    expect(mark.x).toEqual([4000]);
+    expect(mark.y).toEqual([50]);
+    expect(f.data.map((d) => (d as { name?: string }).name)).toContain('peak envelope, hot magnet');
+    // no chosen point, no mark (common practice (no source))
+    expect(efficiencyFigure(map, 'system', env, [], theme, CURVE.light).data.some((d) => (d as { name?: string }).name === 'chosen point')).toBe(false);
+  });
+
+  it('contour steps are 1, 2 or 5 times a power of ten, about ten levels (common practice (no source))', () => {
+    expect(niceStep(37)).toBe(5);
+    expect(niceStep(100)).toBe(10);
+    expect(niceStep(0.9)).toBeCloseTo(0.1, 15);
+    expect(niceStep(150)).toBe(20);
+    expect(niceStep(0)).toBe(1);
+  });
+
+  it('the loss bar of a chosen point under both rules, least current first', () => {
+    const c = lossConditionsFromProject(p);
+    const a = solveLossPoint(p.models.hot, p.peak, c, 900, 40);
+    const b = solveLossPoint(p.models.hot, p.peak, c, 900, 40, { minLoss: true });
+    const f = lossBarFigure(a, theme, CURVE.light, b);
+    const [t0, t1] = f.data as unknown as Array<{ name: string; y: number[] }>;
+    expect(t0!.name).toBe('least current');
+    expect(t1!.name).toBe('loss-minimising');
+    expect(t1!.y).toEqual([b.losses.copper_W, b.losses.iron_W, b.losses.mechanical_W, b.losses.inverter_W]);
+    // the loss-minimising current trades copper for iron and inverter loss, never more in total (Morimoto et al. (1994))
+    expect(t1!.y.reduce((x, y) => x + y, 0)).toBeLessThanOrEqual(t0!.y.reduce((x, y) => x + y, 0));
+    expect((f.layout as unknown as { barmode: string }).barmode).toBe('group');
   });
 });

@@ -54,4 +54,11 @@ describe('svg chart', () => {
     const long = svgChart({ ...spec(), caption: ['word '.repeat(60).trim()] });
     expect((long.match(/font-size="10.5"/g) ?? []).length).toBeGreaterThanOrEqual(2);
   });
+  it('writes free texts centred at their data point, escaped, on a white halo; none asked, none drawn', () => {
+    // common practice (no source): x 1000 of 0..2000 over 66..702 px is 384 px; y 0 of -15..15 over 40..340 px is 190 px (+3.5 to centre the type)
+    const svg = svgChart({ ...spec(), texts: [{ x: 1000, y: 0, text: '9<0', colour: '#123456' }, { x: NaN, y: 0, text: 'gone', colour: '#000000' }] });
+    expect(svg).toContain('<text x="384" y="193.5" text-anchor="middle" font-size="10" fill="#123456" stroke="#ffffff" stroke-width="3" paint-order="stroke">9&lt;0</text>');
+    expect(svg).not.toContain('>gone<');
+    expect(svgChart(spec())).toBe(svgChart({ ...spec(), texts: [] }));
+  });
 });

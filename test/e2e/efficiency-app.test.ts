@@ -1,7 +1,9 @@
 // The efficiency tab in the built app (headless Chromium, 1440 x 900), on the traction demo (invented
 // loss data): the map solved in the worker and drawn as contours with the envelope, a peak system
 // efficiency in a plausible band, a hovered point's loss bar, the map's CSV export; screenshot in
-// test-results/efficiency-view.png; a finer map cancelled.
+// test-results/efficiency-view.png; a clicked point chosen and kept, the loss saved by loss-minimising
+// control as a map with its CSV columns (screenshot test-results/efficiency-loss-saved.png); a finer map
+// cancelled.
 import { readFileSync } from 'node:fs';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Page } from 'playwright-core';
@@ -51,6 +53,43 @@ describe('the efficiency tab', () => {
     const rows = parseCsv(readFileSync((await download.path())!, 'utf8'));
     expect(rows[0]).toEqual(['speed_rpm', 'torque_Nm', 'feasible', 'motor', 'inverter', 'system', 'copper_W', 'iron_W', 'mechanical_W', 'inverter_W', 'dcPower_W']);
     expect(rows.length).toBe(1 + 60 * 60);
+    expect(pageErrors).toEqual([]);
+  }, 120_000);
+
+  it('a clicked point stays chosen and marked; the loss saved by loss-minimising control is mapped and exported', async () => {
+    const box = (await page.locator('[data-testid="efficiency-plot"] .nsewdrag').first().boundingBox())!;
+    const traces = await page.$$eval('[data-testid="efficiency-plot"] .scatterlayer .trace', (els) => els.length);
+    await page.mouse.click(box.x + 0.25 * box.width, box.y + 0.3 * box.height);
+    await page.mouse.move(box.x + box.width + 200, box.y - 100);
+    await page.waitForSelector('[data-testid="eff-point-kind"][data-kind="chosen"]', { timeout: 20_000 });
+    const chosen = await page.textContent('[data-testid="eff-point-label"]');
+    // the chosen point is marked: one more marker trace over the contours
+    expect(await page.$$eval('[data-testid="efficiency-plot"] .scatterlayer .trace', (els) => els.length)).toBe(traces + 1);
+    // a hover previews another point; leaving the map brings the chosen one back
+    await page.mouse.move(box.x + 0.45 * box.width, box.y + 0.6 * box.height);
+    await page.waitForSelector('[data-testid="eff-point-kind"][data-kind="preview"]', { timeout: 20_000 });
+    await page.mouse.move(box.x + box.width + 200, box.y - 100);
+    await page.waitForSelector('[data-testid="eff-point-kind"][data-kind="chosen"]', { timeout: 20_000 });
+    expect(await page.textContent('[data-testid="eff-point-label"]')).toBe(chosen);
+
+    await page.selectOption('[data-testid="eff-quantity"]', 'lossSaved');
+    await page.waitForSelector('[data-testid="eff-most-saved"]', { timeout: 60_000 });
+    await page.waitForSelector('[data-testid="efficiency-plot"] .contourlayer .contour', { state: 'attached' });
+    expect(await page.textContent('[data-testid="efficiency-plot"] .cbtitle')).toBe('loss saved, W');
+    // loss-minimising control never loses more than the least current (Morimoto et al. (1994), IEEE Trans. Ind. Electron. 41(5))
+    expect(Number(await page.getAttribute('[data-testid="eff-most-saved"]', 'data-value'))).toBeGreaterThan(0);
+    expect(await page.textContent('[data-testid="eff-point-saved"]')).toMatch(/loss saved-?\d/);
+    expect(await page.$$eval('[data-testid="eff-loss-bar"] .barlayer .trace', (els) => els.length)).toBe(2);
+    await page.screenshot({ path: shotPath('efficiency-loss-saved') });
+
+    const [download] = await Promise.all([page.waitForEvent('download'), page.click('[data-testid="eff-csv"]')]);
+    const rows = parseCsv(readFileSync((await download.path())!, 'utf8'));
+    expect(rows[0]!.slice(-4)).toEqual(['lossLeastCurrent_W', 'lossMinLoss_W', 'lossSaved_W', 'systemGain_pts']);
+    expect(rows.length).toBe(1 + 60 * 60);
+    const saved = rows.slice(1).map((r) => r[13]!).filter((v) => v !== '').map(Number);
+    expect(saved.length).toBeGreaterThan(1000);
+    for (const v of saved) expect(v).toBeGreaterThanOrEqual(0);
+    await page.selectOption('[data-testid="eff-quantity"]', 'system');
     expect(pageErrors).toEqual([]);
   }, 120_000);
 

@@ -7,6 +7,7 @@ import { isoDate } from '../../core/reports/figure-conditions';
 import { PLOT_SPEED_MAX_RPM } from '../../core/reports/speed-range';
 import { radSToRpm, rpmToRadS } from '../../core/base/units';
 import { TOOL_VERSION } from '../../core/base/version';
+import { datasheetEfficiencySummary } from '../../core/reports/datasheet-efficiency';
 
 /**
  * The date printed on the datasheet: today (UTC), or the day of SOURCE_DATE_EPOCH (seconds) when
@@ -55,6 +56,8 @@ export const datasheetCommand: Command = {
         metBoth,
       },
       cautions: r.safety.findings.length + p.findings.filter((f) => f.severity !== 'info').length,
+      // a file with a `losses` section: the efficiency map's summary (without one the document is as before)
+      ...(r.efficiency ? { efficiency: datasheetEfficiencySummary(r.efficiency) } : {}),
     };
     // written by the CLI after this returns, atomically, never over the project file (src/cli/output-files.ts)
     const lines = [
@@ -62,6 +65,12 @@ export const datasheetCommand: Command = {
       `curves 0 to ${Math.round(json.speedMax_rpm)} rpm; envelope tables every ${tableStep} rpm (${json.tableRows} rows, hot and cold)`,
       `requirement points met hot and cold: ${metBoth} of ${total}`,
     ];
+    const peak = json.efficiency?.peakSystem;
+    if (json.efficiency)
+      lines.push(
+        `system efficiency map (${json.efficiency.corner} corner, least current, ${json.efficiency.speedPoints} x ${json.efficiency.torquePoints} grid): ` +
+          (peak ? `highest ${(100 * peak.efficiency).toFixed(1)} % at ${Math.round(peak.speed_rpm)} rpm, ${Number(peak.torque_Nm.toPrecision(4))} N·m` : 'no point inside the envelope'),
+      );
     return { json, lines, files: [{ flag: 'out', contents: html }] };
   },
 };

@@ -7,6 +7,7 @@ import { simulateCommand } from './simulate';
 import { tuneCommand } from './tune';
 import { datasheetCommand } from './datasheet';
 import { importFluxMapCommand } from './import-flux-map';
+import { importDutyCycleCommand } from './import-duty-cycle';
 import { efficiencyCommand } from './efficiency';
 
 /** Every command of the CLI, in the order `help` lists them. Add a command by importing it here. */
@@ -20,4 +21,5 @@ export const COMMANDS: Command[] = [
   tuneCommand,
   datasheetCommand,
   importFluxMapCommand,
+  importDutyCycleCommand,
 ];

@@ -75,7 +75,11 @@ export class FluxMapModel implements MachineModel {
   private readonly hiQ: number;
   private readonly maxStep: number;
   /** the inverse's flux tolerance: 1e-13 of the largest |psi| on the map (shift included) */
-  private readonly fluxTol: number;
+  private fluxTol: number;
+  /** the extremes of the grid's psi_d (before the shift) and the largest |psi_q|, for fluxTol at any shift */
+  private readonly psidMin: number;
+  private readonly psidMax: number;
+  private readonly psiqAbsMax: number;
 
   /**
    * @param data the map (checked by the project)
@@ -91,9 +95,40 @@ export class FluxMapModel implements MachineModel {
     this.loD = g.id[0]! - spanD; this.hiD = g.id[nd - 1]! + spanD;
     this.loQ = g.iq[0]! - spanQ; this.hiQ = g.iq[nq - 1]! + spanQ;
     this.maxStep = 0.25 * Math.max(spanD, spanQ);
-    let scale = 0;
-    for (let k = 0; k < g.psid.length; k++) scale = Math.max(scale, Math.abs(g.psid[k]! + psidShift_Wb), Math.abs(g.psiq[k]!));
-    this.fluxTol = 1e-13 * scale;
+    let dMin = Infinity, dMax = -Infinity, qAbs = 0;
+    for (let k = 0; k < g.psid.length; k++) {
+      dMin = Math.min(dMin, g.psid[k]!);
+      dMax = Math.max(dMax, g.psid[k]!);
+      qAbs = Math.max(qAbs, Math.abs(g.psiq[k]!));
+    }
+    this.psidMin = dMin;
+    this.psidMax = dMax;
+    this.psiqAbsMax = qAbs;
+    this.fluxTol = this.tolAt(psidShift_Wb);
+  }
+
+  /**
+   * 1e-13 of the largest |psi| on the map with psi_d shifted: the largest |psid + shift| is at one of
+   * psi_d's extremes (rounding is monotone, so this is the maximum over the grid exactly).
+   */
+  private tolAt(shift: number): number {
+    return 1e-13 * Math.max(0, Math.abs(this.psidMin + shift), Math.abs(this.psidMax + shift), this.psiqAbsMax);
+  }
+
+  /**
+   * Re-temper in place: a new winding resistance and psi_d shift (see fluxMapAt), the interpolant
+   * kept. The model then answers exactly as a model built with these (the inverse's kept guess and
+   * the last evaluation forgotten). Only for a model that one run owns (temperature-model.ts).
+   */
+  retemper(Rs: number, psidShift_Wb: number): void {
+    const w = this as { Rs: number; psidShift_Wb: number };
+    w.Rs = Rs;
+    w.psidShift_Wb = psidShift_Wb;
+    this.fluxTol = this.tolAt(psidShift_Wb);
+    this.lastId = Number.NaN;
+    this.lastIq = Number.NaN;
+    this.guess.fill(0);
+    this.invJac.fill(0);
   }
 
   /** the last point evaluated, its flux (shift included) and derivatives: a solver's Newton step asks twice at one point */

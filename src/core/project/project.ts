@@ -18,6 +18,8 @@ import { driveLimits } from '../drive/inverter';
 import { nameplateToModel, type Interpretation, type RatedData } from '../machine/nameplate';
 import { DEFAULT_COLD_TEMP_C, DEFAULT_DUTY, DEFAULT_MODULATION, DEFAULT_TEMP_C, defaultConditions, parseProject, type FluxMapSection, type LossesSection, type ProjectFile } from './schema';
 import { resolveFluxMap } from './flux-map-resolve';
+import { dutyCycleOf, thermalNetworkOf, type ResolvedDutyCycle } from './thermal-resolve';
+import type { ThermalNetworkSpec } from '../machine/thermal-network-spec';
 import { migrateProject } from './migrate';
 import { oddMachineFindings, ratedFindings } from './resolve-findings';
 import { parseProjectJson } from './project-json';
@@ -26,6 +28,7 @@ import type { MachineModel } from '../machine/machine-model';
 import { LinearDqModel } from '../machine/linear-dq';
 
 export { parseProjectJson };
+export type { ResolvedDutyCycle } from './thermal-resolve';
 export { DEFAULT_COLD_TEMP_C, DEFAULT_MODULATION, DEFAULT_TEMP_C } from './schema';
 
 /**
@@ -71,6 +74,10 @@ export interface ResolvedProject {
    * {} for a file without the section.
    */
   losses: LossesSection;
+  /** the lumped thermal network of the file's `thermal` section; absent: no thermal rating */
+  thermal?: ThermalNetworkSpec;
+  /** the file's `dutyCycle` section, its columns as Float64Arrays; absent when the file gives none */
+  dutyCycle?: ResolvedDutyCycle;
   /** true for a file of a newer format version: show it, never save it over itself */
   readOnly?: boolean;
 }
@@ -201,7 +208,7 @@ export function resolveProject(file: ProjectFile): ResolvedProject {
   findings.push(...ratedFindings(rated, hot, inverter, peak, file.motor ? 'motor' : 'nameplate'));
   findings.push(...oddMachineFindings(file.motor ? 'motor' : 'nameplate', machine20, hot, mechanics, peak, file.requirements));
 
-  return {
+  const rp: ResolvedProject = {
     file,
     name: file.name,
     machine20,
@@ -220,6 +227,9 @@ export function resolveProject(file: ProjectFile): ResolvedProject {
     findings,
     losses: lossesOf(file.losses),
   };
+  if (file.thermal !== undefined) rp.thermal = thermalNetworkOf(file.thermal);
+  if (file.dutyCycle !== undefined) rp.dutyCycle = dutyCycleOf(file.dutyCycle);
+  return rp;
 }
 
 /** The losses section as its own plain object (the file's parts copied, absent parts left out). */

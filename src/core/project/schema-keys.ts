@@ -19,6 +19,12 @@ export const MAX_PROJECT_BYTES = 16 * 1024 * 1024;
  */
 export const MAX_LIST_ENTRIES = 1000;
 
+/**
+ * Most samples of a project's duty cycle (dutyCycle.t_s, speed_rpm, torque_Nm): 83 minutes at 10 ms;
+ * a 16 MiB project file holds about this many. Refused by its length before any sample is read.
+ */
+export const MAX_DUTY_CYCLE_SAMPLES = 500_000;
+
 /** The lists MAX_LIST_ENTRIES applies to, as paths from the project root. */
 export const CAPPED_LISTS: readonly (readonly string[])[] = [
   ['requirements'],
@@ -183,6 +189,29 @@ export const KEYS: Readonly<Record<string, { unit: string; doc: string }>> = {
   'losses.inverter.Vref_V': { unit: 'V', doc: 'DC voltage at which EonEoff_J and Err_J were measured, > 0; required when either is above 0' },
   'losses.inverter.Iref_A': { unit: 'A', doc: 'current at which EonEoff_J and Err_J were measured (A peak), > 0; required when either is above 0' },
   'losses.inverter.fsw_Hz': { unit: 'Hz', doc: 'switching frequency of the bridge, > 0; required when EonEoff_J or Err_J is above 0' },
+
+  thermal: { unit: '', doc: 'lumped thermal network of the motor and the inverter: winding node -- stator node -- coolant, and one junction per switch position -- coolant; a node is one body at one temperature with a heat capacity; copper loss heats the winding, iron loss the stator, a sixth of the inverter loss each junction; absent = no thermal rating' },
+  'thermal.coolantTemp_C': { unit: '°C', doc: 'temperature of the coolant (water jacket, or the ambient air of a self-ventilated motor), -60 to 250' },
+  'thermal.windingCapacity_J_per_K': { unit: 'J/K', doc: 'heat capacity of the winding node (copper and insulation), > 0' },
+  'thermal.windingToStator_K_per_W': { unit: 'K/W', doc: 'thermal resistance from the winding node to the stator node (slot insulation, impregnation), > 0' },
+  'thermal.statorCapacity_J_per_K': { unit: 'J/K', doc: 'heat capacity of the stator node (lamination stack and housing), > 0' },
+  'thermal.statorToCoolant_K_per_W': { unit: 'K/W', doc: 'thermal resistance from the stator node to the coolant, > 0; at every speed unless statorToCoolantBySpeed is given' },
+  'thermal.statorToCoolantBySpeed': { unit: '', doc: `a self-ventilated motor: the stator-to-coolant resistance against |speed| {speed_rpm, K_per_W}, linear in between and held beyond the ends, 2 to ${MAX_LIST_ENTRIES} entries; replaces statorToCoolant_K_per_W` },
+  'thermal.statorToCoolantBySpeed.speed_rpm': { unit: '', doc: `mechanical speeds, rpm, >= 0, strictly ascending, 2 to ${MAX_LIST_ENTRIES} entries` },
+  'thermal.statorToCoolantBySpeed.speed_rpm[]': { unit: 'rpm', doc: 'mechanical speed' },
+  'thermal.statorToCoolantBySpeed.K_per_W': { unit: '', doc: 'stator-to-coolant resistance at each speed, K/W, > 0, one per speed_rpm entry' },
+  'thermal.statorToCoolantBySpeed.K_per_W[]': { unit: 'K/W', doc: 'stator-to-coolant resistance' },
+  'thermal.magnetAboveStator_K': { unit: 'K', doc: 'magnet temperature above the stator node (the rotor runs hotter), -100 to 200, default 0' },
+  'thermal.windingMax_C': { unit: '°C', doc: "the winding's maximum temperature (its insulation class: 130 B, 155 F, 180 H), above coolantTemp_C" },
+  'thermal.magnetMax_C': { unit: '°C', doc: "the magnet's maximum temperature (its grade, before irreversible demagnetisation), above coolantTemp_C" },
+  'thermal.junctionToCoolant_K_per_W': { unit: 'K/W', doc: "thermal resistance from the junction of one switch position (switch and diode) to the coolant, > 0; given with junctionMax_C, or both left out (the inverter's junction not rated)" },
+  'thermal.junctionMax_C': { unit: '°C', doc: "the switches' maximum junction temperature, above coolantTemp_C; given with junctionToCoolant_K_per_W" },
+
+  dutyCycle: { unit: '', doc: `the application's load cycle {label, t_s, speed_rpm, torque_Nm}: columns of samples, linear in between, equal lengths, 2 to ${MAX_DUTY_CYCLE_SAMPLES} samples` },
+  'dutyCycle.label': { unit: '', doc: 'name of the cycle, default empty' },
+  'dutyCycle.t_s': { unit: 's', doc: 'time of each sample, s: the first 0, strictly ascending' },
+  'dutyCycle.speed_rpm': { unit: 'rpm', doc: 'mechanical speed at each sample, rpm; negative = reverse' },
+  'dutyCycle.torque_Nm': { unit: 'N·m', doc: 'shaft torque at each sample, N·m; negative = braking when the speed is positive' },
 };
 
 /** A key's documentation as the schema describes it: "meaning [unit]", or the meaning alone. */

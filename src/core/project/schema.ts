@@ -10,6 +10,8 @@ import type { Nameplate } from '../machine/nameplate';
 import { KEYS, keyDoc as doc, MAX_LIST_ENTRIES, PROJECT_FORMAT, PROJECT_VERSION } from './schema-keys';
 import { fluxMapCapProblem, fluxMapCoverageProblems, fluxMapSchema } from './flux-map-schema';
 import { lossesSchema } from './loss-schema';
+import { thermalCapProblem, thermalSchema } from './thermal-schema';
+import { dutyCycleCapProblem, dutyCycleSchema } from './duty-cycle-schema';
 import { CHOOSE_ONE, headerProblem, listCapProblem, problemsOf, type ProjectProblem } from './schema-problems';
 
 export { CAPPED_LISTS, KEYS, MAX_LIST_ENTRIES, MAX_PROJECT_BYTES, PROJECT_FORMAT, PROJECT_VERSION } from './schema-keys';
@@ -269,6 +271,8 @@ const projectObject = z.strictObject({
   control: controlSchema.optional(),
   scenario: scenarioSchema.optional(),
   losses: lossesSchema.optional(), // every loss zero when absent
+  thermal: thermalSchema.optional(), // no thermal rating when absent
+  dutyCycle: dutyCycleSchema.optional(),
 });
 
 export const projectSchema = projectObject.superRefine((p, ctx) => {
@@ -301,6 +305,9 @@ export type ControlSection = z.output<typeof controlSchema>;
 export type ScenarioSection = z.output<typeof scenarioSchema>;
 export type { InverterLossSection, IronLossSection, LossesSection, WindageSection } from './loss-schema';
 export { DEFAULT_IRON_BETA } from './loss-schema';
+export type { ThermalSection } from './thermal-schema';
+export type { DutyCycleSection } from './duty-cycle-schema';
+export { MAX_DUTY_CYCLE_SAMPLES } from './duty-cycle-schema';
 
 // The nameplate section must be usable as a Nameplate as it is.
 const _nameplateFits = (x: NameplateSection): Nameplate => x;
@@ -308,7 +315,7 @@ void _nameplateFits;
 
 /** Every problem of a project file, in file order (empty = valid). */
 export function checkProject(json: unknown): ProjectProblem[] {
-  const h = headerProblem(json) ?? listCapProblem(json) ?? fluxMapCapProblem(json);
+  const h = headerProblem(json) ?? listCapProblem(json) ?? fluxMapCapProblem(json) ?? thermalCapProblem(json) ?? dutyCycleCapProblem(json);
   if (h) return [h];
   const r = projectSchema.safeParse(json);
   if (r.success) return [];
@@ -323,7 +330,7 @@ export const MAX_PROBLEMS = 20;
  * each naming its field: `field`/`message` are the first, `problems` all of them.
  */
 export function parseProject(json: unknown): ProjectFile {
-  const h = headerProblem(json) ?? listCapProblem(json) ?? fluxMapCapProblem(json);
+  const h = headerProblem(json) ?? listCapProblem(json) ?? fluxMapCapProblem(json) ?? thermalCapProblem(json) ?? dutyCycleCapProblem(json);
   if (h) throw new InputError(h.path, h.message);
   const r = projectSchema.safeParse(json);
   if (r.success) return r.data;

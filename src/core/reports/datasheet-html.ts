@@ -13,6 +13,8 @@ import { defaultTableStep, envelopeTable, type EnvelopeTableRow } from '../stead
 import { figureConditions, MODULATION_WORDS, limitWords } from './figure-conditions';
 import { SAFETY_CAUTION } from '../steady-state/safety';
 import { escapeXml as esc, svgChart, type ChartMarker, type ChartSeries } from './svg-chart';
+import { efficiencyMapChart } from './efficiency-map-chart';
+import { datasheetEfficiencySummary, type EfficiencyPeak } from './datasheet-efficiency';
 import { RAD_S_TO_RPM, SQRT2 } from '../base/units';
 import { TOOL_NAME, TOOL_VERSION } from '../base/version';
 
@@ -228,8 +230,11 @@ export function datasheetTableStep(r: DatasheetResults, o: Pick<DatasheetOptions
   return o.tableStep_rpm ?? defaultTableStep(r.speedMax * RAD_S_TO_RPM);
 }
 
-/** The datasheet's two figures as SVG text: torque and power against speed, each with title, legend and conditions. */
-export function datasheetCharts(r: DatasheetResults, o: Pick<DatasheetOptions, 'date' | 'version'>): { torque: string; power: string } {
+/**
+ * The datasheet's figures as SVG text: torque and power against speed, each with title, legend and
+ * conditions, and the system-efficiency map when the results carry one (else null).
+ */
+export function datasheetCharts(r: DatasheetResults, o: Pick<DatasheetOptions, 'date' | 'version'>): { torque: string; power: string; efficiency: string | null } {
   const p = r.project;
   const name = p.name.trim() || 'Unnamed project';
   const conditions = figureConditions(p, { date: o.date, version: o.version ?? TOOL_VERSION });
@@ -266,8 +271,28 @@ export function datasheetCharts(r: DatasheetResults, o: Pick<DatasheetOptions, '
     plotHeight: 240,
     testId: 'chart-power',
   });
+  const e = r.efficiency;
+  const efficiency = e
+    ? efficiencyMapChart(
+        { project: p, efficiency: e, envelopes: r.curves.filter((q) => q.corner === e.grid.corner) },
+        { date: o.date, version: o.version ?? TOOL_VERSION },
+      )
+    : null;
+  return { torque, power, efficiency };
+}
 
-  return { torque, power };
+const peakWords = (q: EfficiencyPeak | null, what: string): string =>
+  q === null ? `no ${what} point inside the envelope` : `${num(100 * q.efficiency)} % ${what} at ${Math.round(q.speed_rpm)} rpm, ${num(q.torque_Nm)} N·m`;
+
+/** The efficiency map's card: the figure and its best points in words (empty without a map). */
+function efficiencyCard(r: DatasheetResults, svg: string | null): string {
+  if (!r.efficiency || svg === null) return '';
+  const s = datasheetEfficiencySummary(r.efficiency);
+  return (
+    `<section class="card"><h2>System efficiency, ${s.corner} corner, least-current control</h2>${svg}` +
+    `<p class="note" data-testid="efficiency-peaks">Highest system efficiency: ${esc(peakWords(s.peakMotoring, 'motoring'))}; ${esc(peakWords(s.peakGenerating, 'generating'))} ` +
+    `(grid ${s.speedPoints} x ${s.torquePoints}, ${s.pointsInside} points inside the envelope).</p></section>`
+  );
 }
 
 export function datasheetHtml(r: DatasheetResults, o: DatasheetOptions): string {
@@ -280,7 +305,7 @@ export function datasheetHtml(r: DatasheetResults, o: DatasheetOptions): string 
   const hot = envelopeTable(p.models.hot, p.peak, p.continuous, top_rpm, step, field);
   const cold = envelopeTable(p.models.cold, p.peak, p.continuous, top_rpm, step, field);
 
-  const { torque: torqueSvg, power: powerSvg } = datasheetCharts(r, { date: o.date, version: o.version ?? TOOL_VERSION });
+  const { torque: torqueSvg, power: powerSvg, efficiency: efficiencySvg } = datasheetCharts(r, { date: o.date, version: o.version ?? TOOL_VERSION });
 
   const findings = [...p.findings, ...r.safety.findings];
   const hazards = findings.filter(isHazardFinding);
@@ -307,6 +332,7 @@ export function datasheetHtml(r: DatasheetResults, o: DatasheetOptions): string 
     `<section class="card"><h2>Model and drive</h2><table class="params" data-testid="summary"><tbody>${params}</tbody></table></section>` +
     `<section class="card"><h2>Torque-speed envelope, hot and cold, motoring and generating</h2>${torqueSvg}</section>` +
     `<section class="card"><h2>Power</h2>${powerSvg}</section>` +
+    efficiencyCard(r, efficiencySvg) +
     requirementsCard(r) +
     tableCard('hot', hot, step, r) +
     tableCard('cold', cold, step, r) +

@@ -1,10 +1,11 @@
 /**
- * The datasheet's results in the two parts the app shows one after the other: the curves (the
- * eight envelopes: peak and continuous current, hot and cold corner, motoring and generating; the
- * speed range and the derived constants), quick, redrawn on every edit; and the verdicts (the
- * sizing of every requirement point hot and cold, the safety figures), slower searches, shown a
- * frame later. computeDatasheetResults (the CLI's datasheet) is the two together, so the app and
- * the CLI compute the sizing one way.
+ * The datasheet's results in the parts the app shows one after the other: the curves (the eight
+ * envelopes: peak and continuous current, hot and cold corner, motoring and generating; the speed
+ * range and the derived constants), quick, redrawn on every edit; the verdicts (the sizing of every
+ * requirement point hot and cold, the safety figures), slower searches, shown a frame later; and,
+ * for a file with a `losses` section, the efficiency map (slower still: the app solves it in a worker
+ * over the grid given here). computeDatasheetResults (the CLI's datasheet) is the parts together,
+ * so the app and the CLI compute them one way.
  */
 import type { ResolvedProject } from '../project/project';
 import { computeEnvelope } from '../steady-state/envelope';
@@ -13,6 +14,8 @@ import { sizeDrive } from '../steady-state/sizing';
 import { safetyReport } from '../steady-state/safety';
 import { projectSpeedRange } from './speed-range';
 import type { DatasheetCurve, DatasheetResults, DatasheetResultsOptions } from './datasheet-results';
+import type { EfficiencyGridSpec } from './efficiency-map-grid';
+import { datasheetEfficiency, datasheetEfficiencyGrid, type DatasheetEfficiency } from './datasheet-efficiency';
 
 export type DatasheetCurves = Pick<DatasheetResults, 'project' | 'speedMax' | 'curves' | 'constantsHot' | 'constantsCold'>;
 export type DatasheetVerdicts = Pick<DatasheetResults, 'sizing' | 'sizingCold' | 'safety' | 'safetySpeed'>;
@@ -47,4 +50,16 @@ export function datasheetVerdicts(p: ResolvedProject, speedMax: number): Datashe
     safety: safetyReport(p.models.cold, p.inverter, safetySpeed, p.rated.maxSpeed_rad_s !== undefined),
     safetySpeed,
   };
+}
+
+/** The grid of the datasheet's efficiency map (hot corner, least-current control), or null when the file has no `losses` section. */
+export function datasheetEfficiencyGridOf(c: Pick<DatasheetCurves, 'project' | 'speedMax' | 'curves'>): EfficiencyGridSpec | null {
+  const hotPeak = c.curves.filter((q) => q.corner === 'hot' && q.current === 'peak').map((q) => q.env);
+  return datasheetEfficiencyGrid(c.project, c.speedMax, hotPeak);
+}
+
+/** The datasheet's efficiency map, or null when the file has no `losses` section. */
+export function datasheetEfficiencyOf(c: Pick<DatasheetCurves, 'project' | 'speedMax' | 'curves'>): DatasheetEfficiency | null {
+  const grid = datasheetEfficiencyGridOf(c);
+  return grid === null ? null : datasheetEfficiency(c.project, grid);
 }

@@ -1,7 +1,7 @@
 /**
  * What a datasheet shows, computed from one resolved project: the eight envelopes (peak and
  * continuous current, hot and cold corner, motoring and generating), the derived constants, the
- * sizing verdicts hot and cold and the safety figures. The app's views compute the same set
+ * sizing verdicts hot and cold, the safety figures and, for a file with losses, the efficiency map. The app's views compute the same set
  * (src/renderer/src/state/compute.ts, from the two parts in datasheet-parts.ts; its Results satisfy
  * DatasheetResults); the CLI computes it here.
  */
@@ -10,7 +10,8 @@ import type { Direction, Envelope } from '../steady-state/envelope';
 import type { DerivedConstants } from '../machine/nameplate';
 import type { SizingResult } from '../steady-state/sizing';
 import type { SafetyReport } from '../steady-state/safety';
-import { datasheetCurves, datasheetVerdicts } from './datasheet-parts';
+import type { DatasheetEfficiency } from './datasheet-efficiency';
+import { datasheetCurves, datasheetEfficiencyOf, datasheetVerdicts } from './datasheet-parts';
 
 export interface DatasheetCurve {
   corner: 'hot' | 'cold';
@@ -33,6 +34,8 @@ export interface DatasheetResults {
   safety: SafetyReport;
   /** the speed the safety figures are for, rad/s */
   safetySpeed: number;
+  /** the system-efficiency map (datasheet-efficiency.ts) of a file with a `losses` section; absent or null: no map */
+  efficiency?: DatasheetEfficiency | null;
 }
 
 export interface DatasheetResultsOptions {
@@ -48,5 +51,6 @@ export function computeDatasheetResults(p: ResolvedProject, opts: Partial<Datash
   const o = { ...DEFAULT_DATASHEET_RESULTS_OPTIONS, ...opts };
   // the curves, then the verdicts, as the app computes them (datasheet-parts.ts)
   const curves = datasheetCurves(p, o);
-  return { ...curves, ...datasheetVerdicts(p, curves.speedMax) };
+  const efficiency = datasheetEfficiencyOf(curves);
+  return { ...curves, ...datasheetVerdicts(p, curves.speedMax), ...(efficiency ? { efficiency } : {}) };
 }

@@ -7,7 +7,7 @@
  */
 import type { ResolvedProject } from '../project/project';
 import { lossConditionsFromProject } from '../project/loss-conditions-from-project';
-import { efficiencyMap, mapAxis, type EfficiencyMap } from '../steady-state/efficiency-map';
+import { efficiencyMap, mapAxis, type EfficiencyMap, type MapControl, newEfficiencyMap } from '../steady-state/efficiency-map';
 import { InputError } from '../base/errors';
 
 export type MapCorner = 'hot' | 'cold';
@@ -38,22 +38,28 @@ export function efficiencyGridAxes(s: EfficiencyGridSpec): { speeds: Float64Arra
 
 /** A map over the axes with no point solved yet (feasible 0, NaN elsewhere). */
 export function emptyEfficiencyMap(speeds: Float64Array, torques: Float64Array): EfficiencyMap {
-  const N = speeds.length * torques.length;
-  const nan = () => new Float64Array(N).fill(Number.NaN);
-  return {
-    speeds, torques, feasible: new Uint8Array(N),
-    motor: nan(), inverter: nan(), system: nan(), copper: nan(), iron: nan(), mechanical: nan(), inverterLoss: nan(), dcPower: nan(), torqueEm: nan(),
-  };
+  return newEfficiencyMap(speeds, torques);
 }
 
 const FIELDS = ['motor', 'inverter', 'system', 'copper', 'iron', 'mechanical', 'inverterLoss', 'dcPower', 'torqueEm'] as const;
 
-/** Row i (speed i) of the project's map solved into `map`, on the corner's machine at the peak limits. */
-export function solveEfficiencyRow(p: ResolvedProject, corner: MapCorner, map: EfficiencyMap, i: number): void {
-  const nT = map.torques.length;
-  const row = efficiencyMap(p.models[corner], p.peak, lossConditionsFromProject(p), map.speeds.subarray(i, i + 1), map.torques);
-  map.feasible.set(row.feasible, i * nT);
-  for (const f of FIELDS) map[f].set(row[f], i * nT);
+const copyRow = (from: EfficiencyMap, to: EfficiencyMap, i: number): void => {
+  const at = i * to.torques.length;
+  to.feasible.set(from.feasible, at);
+  for (const f of FIELDS) to[f].set(from[f], at);
+};
+
+/**
+ * Row i (speed i) of the project's map solved into `map`, on the corner's machine at the peak limits,
+ * with least-current control (default) or the loss-minimising current; with 'min-loss', `leastCurrent`
+ * (same axes) receives the row's least-current start points (efficiencyMap's option of that name).
+ */
+export function solveEfficiencyRow(p: ResolvedProject, corner: MapCorner, map: EfficiencyMap, i: number, control: MapControl = 'least-current', leastCurrent?: EfficiencyMap): void {
+  const speeds = map.speeds.subarray(i, i + 1);
+  const lcRow = leastCurrent === undefined ? undefined : newEfficiencyMap(speeds, map.torques);
+  const row = efficiencyMap(p.models[corner], p.peak, lossConditionsFromProject(p), speeds, map.torques, { control, ...(lcRow ? { leastCurrent: lcRow } : {}) });
+  copyRow(row, map, i);
+  if (lcRow && leastCurrent) copyRow(lcRow, leastCurrent, i);
 }
 
 /** The best value of a quantity over the feasible points, and where it is (null when no point is feasible). */

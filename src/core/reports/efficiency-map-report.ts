@@ -2,6 +2,7 @@
 // outside the envelope), the CSV (one row per grid point) and the summary (the best system efficiency
 // and where, the grid's size, the points inside the envelope).
 import type { EfficiencyMap } from '../steady-state/efficiency-map';
+import type { MinLossGainMap } from '../steady-state/min-loss-gain-map';
 import { radSToRpm } from '../base/units';
 import { csvDocument, type CsvCell } from './csv';
 
@@ -52,6 +53,14 @@ export type EfficiencyCsvColumn = (typeof EFFICIENCY_MAP_CSV_HEADER)[number];
 /** The columns of the app's export (all but the electromagnetic torque). */
 export const EFFICIENCY_APP_CSV_COLUMNS: readonly EfficiencyCsvColumn[] = EFFICIENCY_MAP_CSV_HEADER.filter((c) => c !== 'torqueEm_Nm');
 
+/** The columns of the gain of loss-minimising control (steady-state/min-loss-gain-map.ts): W, and points of system efficiency. */
+export const EFFICIENCY_GAIN_CSV_COLUMNS = ['lossLeastCurrent_W', 'lossMinLoss_W', 'lossSaved_W', 'systemGain_pts'] as const;
+export type EfficiencyGainCsvColumn = (typeof EFFICIENCY_GAIN_CSV_COLUMNS)[number];
+const GAIN_ARRAY_OF: Record<EfficiencyGainCsvColumn, keyof MinLossGainMap> = {
+  lossLeastCurrent_W: 'lossLeastCurrent', lossMinLoss_W: 'lossMinLoss', lossSaved_W: 'lossSaved', systemGain_pts: 'systemGain_pts',
+};
+const isGainColumn = (c: string): c is EfficiencyGainCsvColumn => (EFFICIENCY_GAIN_CSV_COLUMNS as readonly string[]).includes(c);
+
 const ARRAY_OF: Record<Exclude<EfficiencyCsvColumn, 'speed_rpm' | 'torque_Nm' | 'feasible'>, keyof EfficiencyMap> = {
   motor: 'motor', inverter: 'inverter', system: 'system', copper_W: 'copper', iron_W: 'iron', mechanical_W: 'mechanical',
   inverter_W: 'inverterLoss', dcPower_W: 'dcPower', torqueEm_Nm: 'torqueEm',
@@ -60,8 +69,12 @@ const ARRAY_OF: Record<Exclude<EfficiencyCsvColumn, 'speed_rpm' | 'torque_Nm' | 
 /**
  * The map as CSV, '#' comment rows first, then the header and one row per grid point (speed-major;
  * efficiencies as fractions, empty cells outside the envelope), with the columns asked (default all).
+ * Gain columns (EFFICIENCY_GAIN_CSV_COLUMNS) take their values from `gain` (same axes as the map),
+ * empty where the gain map has no point.
  */
-export function efficiencyMapCsv(m: EfficiencyMap, comments: readonly string[] = [], columns: readonly EfficiencyCsvColumn[] = EFFICIENCY_MAP_CSV_HEADER): string {
+export function efficiencyMapCsv(m: EfficiencyMap, comments: readonly string[] = [], columns: readonly (EfficiencyCsvColumn | EfficiencyGainCsvColumn)[] = EFFICIENCY_MAP_CSV_HEADER, gain?: MinLossGainMap): string {
+  if (columns.some(isGainColumn) && gain === undefined) throw new Error('efficiencyMapCsv: gain columns asked without the gain map');
+  if (gain !== undefined && gain.feasible.length !== m.feasible.length) throw new Error('efficiencyMapCsv: the gain map must share the map\'s axes');
   const rows: CsvCell[][] = comments.map((c) => [c]);
   rows.push([...columns]);
   const nT = m.torques.length;
@@ -71,6 +84,7 @@ export function efficiencyMapCsv(m: EfficiencyMap, comments: readonly string[] =
       if (c === 'speed_rpm') return radSToRpm(m.speeds[Math.floor(k / nT)]!);
       if (c === 'torque_Nm') return m.torques[k % nT]!;
       if (c === 'feasible') return ok ? 1 : 0;
+      if (isGainColumn(c)) return gain!.feasible[k] === 1 ? (gain![GAIN_ARRAY_OF[c]] as Float64Array)[k]! : null;
       return ok ? (m[ARRAY_OF[c]] as Float64Array)[k]! : null;
     }));
   }

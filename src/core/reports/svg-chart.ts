@@ -27,12 +27,21 @@ export interface ChartMarker {
   side?: 'left' | 'right' | 'above' | 'below';
 }
 
+export interface ChartText {
+  x: number;
+  y: number;
+  text: string;
+  colour: string;
+}
+
 export interface ChartSpec {
   title: string;
   xLabel: string;
   yLabel: string;
   series: ChartSeries[];
   markers?: ChartMarker[];
+  /** free text at data coordinates, centred there (e.g. the level of a contour line), over the lines */
+  texts?: ChartText[];
   /** legend-only entries for the markers, e.g. requirement met / not met */
   markerLegend?: Array<{ name: string; shape: ChartMarker['shape']; colour: string }>;
   /** lines printed under the legend (conditions), wrapped to the width */
@@ -147,6 +156,11 @@ export function svgChart(spec: ChartSpec): string {
     if (d) parts.push(`<path d="${d}" stroke="${escapeXml(s.colour)}" stroke-width="${s.width ?? 2}"${s.dash ? ` stroke-dasharray="${escapeXml(s.dash)}"` : ''}/>`);
   }
   parts.push('</g>');
+  // free texts, on a white halo that parts the line beneath
+  for (const t of spec.texts ?? []) {
+    if (!Number.isFinite(t.x) || !Number.isFinite(t.y)) continue;
+    parts.push(`<text x="${f(X(t.x))}" y="${f(Y(t.y) + 3.5)}" text-anchor="middle" font-size="10" fill="${escapeXml(t.colour)}" stroke="#ffffff" stroke-width="3" paint-order="stroke">${escapeXml(t.text)}</text>`);
+  }
   // markers and their labels; a label that would cover another is moved down a line (a few tries)
   const placed: Box[] = [];
   for (const m of spec.markers ?? []) {

@@ -12,6 +12,8 @@ export interface PlotProps {
   testId?: string;
   onHover?: (ev: any) => void;
   onUnhover?: () => void;
+  /** Called with plotly's click event (a point of a trace clicked). */
+  onClick?: (ev: any) => void;
   /** Called with plotly's relayout event (zoom, pan, reset, resize). */
   onRelayout?: (ev: Record<string, unknown>) => void;
   /** Called after each redraw finished (the promise of Plotly.react resolved). */
@@ -21,10 +23,12 @@ export interface PlotProps {
   defer?: boolean;
 }
 
-export function Plot({ data, layout, height, testId, onHover, onUnhover, onRelayout, onDrawn, elRef, defer }: PlotProps) {
+export function Plot({ data, layout, height, testId, onHover, onUnhover, onClick, onRelayout, onDrawn, elRef, defer }: PlotProps) {
   const ref = useRef<HTMLDivElement | null>(null);
   const hoverRef = useRef(onHover);
   const unhoverRef = useRef(onUnhover);
+  const clickRef = useRef(onClick);
+  clickRef.current = onClick;
   const relayoutRef = useRef(onRelayout);
   relayoutRef.current = onRelayout;
   const drawnRef = useRef(onDrawn);
@@ -49,6 +53,7 @@ export function Plot({ data, layout, height, testId, onHover, onUnhover, onRelay
           bound.current = true;
           gd.on('plotly_hover', (ev) => hoverRef.current?.(ev));
           gd.on('plotly_unhover', () => unhoverRef.current?.());
+          gd.on('plotly_click', (ev) => clickRef.current?.(ev));
           gd.on('plotly_relayout', (ev) => relayoutRef.current?.(ev as unknown as Record<string, unknown>));
         }
         drawnRef.current?.(gd);

@@ -36,6 +36,7 @@ const MIME: Record<ExportKind, string> = {
   'plot-png': 'image/png',
   'plot-svg': 'image/svg+xml',
   datasheet: 'text/html',
+  'efficiency-csv': 'text/csv',
 };
 
 function download(data: string | Uint8Array, name: string, mime: string): void {

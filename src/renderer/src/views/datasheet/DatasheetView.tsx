@@ -1,5 +1,5 @@
-// Datasheet view: summary table, sizing verdict per requirement, cautions, the envelope plot;
-// export PNG/SVG/CSV and a print layout.
+// Datasheet view: summary table, sizing verdict per requirement, cautions, the envelope plot, the
+// system-efficiency map for a project with losses; export PNG/SVG/CSV and a print layout.
 import { memo, useMemo, useRef } from 'react';
 import { RAD_S_TO_RPM, SQRT2 } from '../../../../core/base/units';
 import { Plot } from '../../components/Plot';
@@ -15,6 +15,8 @@ import { limitPhrase } from '../../../../core/reports/phrases';
 import { figureConditions, isoDate } from '../../../../core/reports/figure-conditions';
 import { TableStepField } from '../../components/TableStepField';
 import { PrintCharts } from '../../components/PrintCharts';
+import { datasheetEfficiencyOf } from '../../../../core/reports/datasheet-parts';
+import { DatasheetEfficiencyCard, useDatasheetEfficiency } from './DatasheetEfficiency';
 
 function peakOf(a: Float64Array, feasible: Uint8Array): number {
   let best = 0;
@@ -36,6 +38,12 @@ export const DatasheetView = memo(function DatasheetView({ results, theme, table
   const c = results.constantsHot;
   const c20 = results.constantsCold;
   const s = results.safety;
+  const efficiency = useDatasheetEfficiency(results);
+  // the exported page carries the map the CLI's datasheet carries: the worker's, or solved here if it is not in yet
+  const exportHtml = () => {
+    const e = efficiency.grid === null ? null : efficiency.efficiency ?? datasheetEfficiencyOf(results);
+    void exportDatasheetHtml(e ? { ...results, efficiency: e } : results, tableStep, exporter);
+  };
   const exportImage = async (format: 'png' | 'svg') => {
     if (!plotEl.current) return;
     await exportPlotImage(plotEl.current, format, 'datasheet-envelope', p, exporter);
@@ -73,7 +81,7 @@ export const DatasheetView = memo(function DatasheetView({ results, theme, table
         <button className="btn" onClick={() => void exportImage('png')}>Plot PNG</button>
         <button className="btn" onClick={() => void exportImage('svg')}>Plot SVG</button>
         <button className="btn" onClick={() => void exporter.exportAndTell('envelope-csv', () => envelopeCsv(results), 'envelope.csv')}>Envelope CSV</button>
-        <button className="btn" data-testid="export-datasheet" onClick={() => void exportDatasheetHtml(results, tableStep, exporter)}>Datasheet HTML</button>
+        <button className="btn" data-testid="export-datasheet" onClick={exportHtml}>Datasheet HTML</button>
         <TableStepField speedMax={results.speedMax} step={tableStep} onStep={setTableStep} />
       </div>
       <div className="sheet-head">
@@ -104,6 +112,7 @@ export const DatasheetView = memo(function DatasheetView({ results, theme, table
           <PrintCharts results={results} />
         </div>
       </div>
+      <DatasheetEfficiencyCard results={results} state={efficiency} />
       <div className="card">
         <h4>Sizing verdict per requirement (each against the current limit of its duty, peak unless marked continuous; figures for the hot magnet, verdicts hot and cold)</h4>
         <div className="table-scroll">
