@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { machineAt } from '../src/core/machine/thermal';
 import { solveLossPoint } from '../src/core/steady-state/loss-point';
-import { IL, instantLosses, newInstantLossScratch, OUTSIDE } from '../src/core/simulation/instant-losses';
+import { IL, instantLosses, newInstantLossScratch, OUTSIDE, RUNAWAY_K } from '../src/core/simulation/instant-losses';
 import { alphaBr, conditions, project, temperatureModel, THERMAL } from './duty-cycle-fixtures';
 
 const rpm = (n: number) => (n * Math.PI) / 30;
@@ -41,5 +41,15 @@ describe('loss point of an instant at the temperatures reached', () => {
     expect(solveLossPoint(machineAt(project.machine20, 100, 90, alphaBr), project.peak, conditions, rpm(500), 400).feasible).toBe(false);
     const v = instantLosses(tm, THERMAL, conditions, sc, rpm(12000), 200, 100, 80, 0);
     expect(OUTSIDE[v[IL.outside]!]).toBe('beyond-mtpv');
+  });
+
+  it('temperatures far beyond the limits are clamped for the model (a magnet at 900 °C would have no flux), not refused', () => {
+    const tm = temperatureModel();
+    const sc = newInstantLossScratch(project.peak);
+    const cap = Math.max(THERMAL.windingMax_C, THERMAL.magnetMax_C) + RUNAWAY_K;
+    const hot = instantLosses(tm, THERMAL, conditions, sc, rpm(500), 400, 5000, 5000, 0)[IL.copper]!;
+    const atCap = instantLosses(tm, THERMAL, conditions, sc, rpm(500), 400, cap, cap - THERMAL.magnetAboveStator_K, 0)[IL.copper]!;
+    expect(hot).toBe(atCap);
+    expect(Number.isFinite(hot)).toBe(true);
   });
 });

@@ -9,6 +9,7 @@ import { datasheetCommand } from './datasheet';
 import { importFluxMapCommand } from './import-flux-map';
 import { importDutyCycleCommand } from './import-duty-cycle';
 import { efficiencyCommand } from './efficiency';
+import { dutyCycleCommand } from './duty-cycle';
 
 /** Every command of the CLI, in the order `help` lists them. Add a command by importing it here. */
 export const COMMANDS: Command[] = [
@@ -16,6 +17,7 @@ export const COMMANDS: Command[] = [
   envelopeCommand,
   pointCommand,
   efficiencyCommand,
+  dutyCycleCommand,
   sizeCommand,
   simulateCommand,
   tuneCommand,

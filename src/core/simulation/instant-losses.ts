@@ -6,6 +6,7 @@
  * instant beyond the peak current still has the (converged) losses of the current it needs; the
  * instant is then outside the envelope when that current exceeds the peak limit, or when no current
  * holds the torque within the voltage limit (the losses are then those of the MTPA current for it).
+ * The temperatures given to the model are clamped at RUNAWAY_K above the highest limit.
  * Results go into the run's scratch (indices IL); nothing is allocated by this file per call.
  */
 import type { DriveLimits } from '../drive/inverter-spec';
@@ -23,6 +24,13 @@ export const IL_COUNT = 8;
 /** Why an instant is outside the envelope (IL.outside): 0 inside. */
 export const OUTSIDE = ['inside', 'current', 'current-and-voltage', 'voltage', 'beyond-mtpv'] as const;
 export type OutsideKind = (typeof OUTSIDE)[number];
+
+/**
+ * The loss point is solved at temperatures at most this far above the highest limit, K (a cycle far
+ * beyond the envelope can drive the network's periodic state to where a magnet model's flux would
+ * vanish; the verdict says so long before, and the traces themselves are not clamped).
+ */
+export const RUNAWAY_K = 300;
 
 /** The fixed point's relative tolerance: the per-instant energy balance holds to it. */
 export const INSTANT_TOL = 1e-9;
@@ -45,7 +53,8 @@ export function newInstantLossScratch(peak: DriveLimits): InstantLossScratch {
  * lossTorqueGuess (N·m) starts the fixed point (the last instant's loss torque). Returns sc.out.
  */
 export function instantLosses(tm: TemperatureModel, th: ThermalNetworkSpec, c: LossConditions, sc: InstantLossScratch, w: number, Ts: number, winding_C: number, stator_C: number, lossTorqueGuess: number): Float64Array {
-  tm.setTemperatures(winding_C, magnetTemperature(th, stator_C));
+  const cap = Math.max(th.windingMax_C, th.magnetMax_C) + RUNAWAY_K;
+  tm.setTemperatures(Math.min(winding_C, cap), Math.min(magnetTemperature(th, stator_C), cap));
   const m = tm.model;
   const pMech = mechanicalLoss(c.friction, c.losses.windage, w);
   const p = lossFixedPoint(m, sc.unlimited, c, w, Ts, pMech, sc.pl, Ts + lossTorqueGuess, INSTANT_TOL).point;
