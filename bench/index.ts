@@ -10,6 +10,7 @@ import { simulateBench, simulateMapBench } from './simulate';
 import { cliStartBench } from './cli-start';
 import { efficiencyMapBench } from './efficiency-map';
 import { cliEfficiencyThreadsBench } from './cli-efficiency-threads';
+import { dutyCycleBench } from './duty-cycle';
 import { againstCheckout } from './against-checkout';
 import { continuousTorqueBench, peakDurationBench } from './continuous-torque';
 
@@ -18,7 +19,7 @@ export interface BenchSection {
   run: () => void | Promise<void>;
 }
 
-const sections: BenchSection[] = [envelopeBench, fluxMapEnvelopeBench, simulateBench, simulateMapBench, cliStartBench, efficiencyMapBench, cliEfficiencyThreadsBench, continuousTorqueBench, peakDurationBench];
+const sections: BenchSection[] = [envelopeBench, fluxMapEnvelopeBench, simulateBench, simulateMapBench, cliStartBench, efficiencyMapBench, cliEfficiencyThreadsBench, continuousTorqueBench, peakDurationBench, dutyCycleBench];
 
 const argv = process.argv.slice(2);
 const onlyAt = argv.indexOf('--only');

@@ -11,6 +11,7 @@ import { importDutyCycleCommand } from './import-duty-cycle';
 import { efficiencyCommand } from './efficiency';
 import { continuousCommand } from './continuous';
 import { overloadCommand } from './overload';
+import { dutyCycleCommand } from './duty-cycle';
 
 /** Every command of the CLI, in the order `help` lists them. Add a command by importing it here. */
 export const COMMANDS: Command[] = [
@@ -20,6 +21,7 @@ export const COMMANDS: Command[] = [
   efficiencyCommand,
   continuousCommand,
   overloadCommand,
+  dutyCycleCommand,
   sizeCommand,
   simulateCommand,
   tuneCommand,
