@@ -4,6 +4,11 @@ import { table, fmt } from '../table';
 import { peakToRms } from '../../core/base/units';
 import { describeLimit } from '../../core/drive/current-limits';
 import { limitPhrase } from '../../core/reports/phrases';
+import { lossConditionsFromProject } from '../../core/project/loss-conditions-from-project';
+import { temperatureModelFromProject } from '../../core/project/temperature-model-from-project';
+import { continuousRequirementChecks } from '../../core/steady-state/continuous-requirements';
+import { evaluateDutyCycle, type DutyCycleResult } from '../../core/simulation/duty-cycle';
+import type { ResolvedProject } from '../../core/project/project';
 
 /** A headroom within round-off of zero (the limit binds) printed as 0. */
 const snap = (x: number, scale: number): number => (Math.abs(x) < 1e-9 * scale ? 0 : x);
@@ -36,6 +41,8 @@ export const sizeCommand: Command = {
       bothCorners: { minImax_A: worst(hot.minImax, cold.minImax), minVdc_V: worst(hot.minVdc, cold.minVdc) },
       currentLimits: p.currentLimits,
     };
+    const th = thermalSizing(p);
+    if (th !== null) Object.assign(json, th.json);
     const rows = hot.points.map((q, k) => {
       const c = cold.points[k]!;
       // a point out of reach has no operating voltage or headroom: the figures would be what it needs
@@ -61,7 +68,34 @@ export const sizeCommand: Command = {
       `least Imax at this bus: hot ${imax(hot.minImax)}; cold ${imax(cold.minImax)}`,
       ...(hot.minIcont !== undefined ? [`least continuous current for the continuous points: hot ${imax(hot.minIcont)}; cold ${imax(cold.minIcont ?? null)}`] : []),
       `least Vdc at these current limits: hot ${hot.minVdc === null ? 'none' : fmt(hot.minVdc) + ' V'}; cold ${cold.minVdc === null ? 'none' : fmt(cold.minVdc) + ' V'}`,
+      ...(th === null ? [] : ['', ...th.lines]),
     ];
     return { json, lines };
   },
 };
+
+/**
+ * With a thermal network: each continuous-duty point against the S1 curve (its own coupled steady
+ * temperatures beside), and with a duty cycle the least continuous current it needs (its RMS
+ * current) beside the least peak current (its peak), from the cycle's periodic state.
+ */
+function thermalSizing(p: ResolvedProject): { json: Record<string, unknown>; lines: string[] } | null {
+  const net = p.thermal;
+  if (net === undefined) return null;
+  const c = lossConditionsFromProject(p);
+  const checks = continuousRequirementChecks(temperatureModelFromProject(p), net, p.continuous, c, p.requirements);
+  const json: Record<string, unknown> = { continuousPoints: checks };
+  const lines = [`thermal rating (coolant ${fmt(net.coolantTemp_C)} °C; winding limit ${fmt(net.windingMax_C)} °C, magnet ${fmt(net.magnetMax_C)} °C):`];
+  if (checks.length === 0) lines.push('  no requirement point is marked continuous');
+  for (const q of checks) {
+    lines.push(`  ${q.label} (continuous): ${q.underS1 ? 'under' : 'ABOVE'} the S1 torque at ${fmt(q.speed_rpm)} rpm, ${fmt(q.s1Torque_Nm)} N·m (${q.s1LimitedBy} limit); ` +
+      (q.status === 'converged' ? `held, it settles at winding ${fmt(q.windingTemp_C)} °C, magnet ${fmt(q.magnetTemp_C)} °C` : `held, it does not settle (${q.status})`));
+  }
+  if (p.dutyCycle !== undefined) {
+    const r = evaluateDutyCycle(p.dutyCycle, net, temperatureModelFromProject(p), c, p.peak) as DutyCycleResult; // never cancelled
+    json.dutyCycle = { label: r.label, minIcont_A: r.rmsCurrent_A, minImax_A: r.peakCurrent.value, rmsCurrent_A: r.rmsCurrent_A, peakCurrent_A: r.peakCurrent.value, verdict: r.verdict };
+    lines.push(`duty cycle "${r.label}": least continuous current ${fmt(r.rmsCurrent_A)} A pk = ${fmt(peakToRms(r.rmsCurrent_A))} A rms (its RMS current; Icont ${fmt(p.continuous.Imax)} A pk), ` +
+      `least peak current ${fmt(r.peakCurrent.value)} A pk (Imax ${fmt(p.peak.Imax)} A pk); ${r.verdict.text}`);
+  }
+  return { json, lines };
+}
