@@ -3,7 +3,7 @@
 import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
-import { sparkline, summariseDutyCycle } from '../src/renderer/src/views/inputs/duty-cycle-summary';
+import { sameColumns, sparkline, summariseDutyCycle } from '../src/renderer/src/views/inputs/duty-cycle-summary';
 import { startingDutyCycle, START_INVERTER_LOSSES, START_THERMAL } from '../src/renderer/src/views/inputs/starting-values';
 import { checkProject } from '../src/core/project/schema';
 
@@ -52,6 +52,19 @@ describe('duty-cycle summary', () => {
     expect(summariseDutyCycle({ t_s: 5, speed_rpm: [], torque_Nm: [] })).toBeNull();
     expect(summariseDutyCycle({ t_s: [0], speed_rpm: [0], torque_Nm: [0] })).toBeNull();
     expect(summariseDutyCycle(undefined)).toBeNull();
+  });
+});
+
+describe('an unchanged cycle is known without summarising it again', () => {
+  it('equal columns in a copy are the same; one changed entry or length is not', () => {
+    // common practice (no source): a deep copy of equal lists compares equal entry by entry
+    const a = { label: 'x', t_s: [0, 1, 2], speed_rpm: [0, 10, 0], torque_Nm: [1, 2, 3] };
+    const copy = JSON.parse(JSON.stringify({ ...a, label: 'renamed' }));
+    expect(sameColumns(a, copy)).toBe(true);
+    expect(sameColumns(a, { ...copy, torque_Nm: [1, 2, 3.5] })).toBe(false);
+    expect(sameColumns(a, { ...copy, t_s: [0, 1] })).toBe(false);
+    expect(sameColumns(a, undefined)).toBe(false);
+    expect(sameColumns(undefined, undefined)).toBe(true);
   });
 });
 

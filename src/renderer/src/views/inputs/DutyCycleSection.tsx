@@ -2,7 +2,7 @@
 // is 180 000 of them, never drawn as rows) a summary and a sparkline of speed and torque against time; the columns come
 // from the command line's import-duty-cycle (or any tool writing the file). Problems of the columns
 // (the first bad sample, named by the core) are shown below the summary.
-import { useId, useMemo } from 'react';
+import { useId, useMemo, useRef } from 'react';
 import { Section } from '../../components/Section';
 import { num } from '../../components/format';
 import type { Json } from '../../state/draft';
@@ -10,7 +10,7 @@ import { editValue, getAt } from '../../state/draft';
 import { useFormStore, useFormValue } from '../../state/form-store';
 import { useMessages } from './Inputs';
 import { Optional } from './OptionalPart';
-import { dutyCycleColumns, sparkline, summariseDutyCycle } from './duty-cycle-summary';
+import { dutyCycleColumns, sameColumns, sparkline, summariseDutyCycle } from './duty-cycle-summary';
 import { startingDutyCycle } from './starting-values';
 
 const W = 260;
@@ -33,10 +33,17 @@ function Sparkline({ dc, column, colour, label }: { dc: Json | undefined; column
   );
 }
 
-const range = (a: number, b: number, unit: string): string => (a === b ? `${num(a)} ${unit}` : `${num(a)} to ${num(b)} ${unit}`);
+const range = (a: number, b: number, unit: string): string => (num(a) === num(b) ? `${num(a)} ${unit}` : `${num(a)} to ${num(b)} ${unit}`);
+
+/** The cycle as last summarised while its columns stay equal (an edit elsewhere copies the tree, not the cycle). */
+function useStableCycle(dc: Json | undefined): Json | undefined {
+  const last = useRef(dc);
+  if (last.current !== dc && !sameColumns(last.current, dc)) last.current = dc;
+  return last.current;
+}
 
 function Summary() {
-  const dc = useFormValue((d) => getAt(d.tree, 'dutyCycle'));
+  const dc = useStableCycle(useFormValue((d) => getAt(d.tree, 'dutyCycle')));
   const s = useMemo(() => summariseDutyCycle(dc), [dc]);
   const msgs = useMessages('dutyCycle', false).filter((m, i, all) => all.indexOf(m) === i);
   const labelMsgs = useMessages('dutyCycle.label');

@@ -50,10 +50,10 @@ export function LossesSection({ psiM }: { psiM: number | null }) {
       <div className="hint" style={{ fontSize: 12, margin: '0 0 4px' }}>
         Copper loss follows Rs at the winding temperature, friction is in the motor terms. A part left out is a loss of zero.
       </div>
-      <Optional path="losses.iron" parent="losses" label="Iron loss" blank={START_IRON} note="P = kh·f·ψ^β + ke·f²·ψ²">
-        <F path="losses.iron.kh" label="Hysteresis kh" unit="W/(Hz·Wbᵝ)" />
+      <Optional path="losses.iron" parent="losses" label="Iron loss" blank={START_IRON} note="P = kh·f·ψ^β + ke·f²·ψ², f electrical in Hz, ψ in Wb">
+        <F path="losses.iron.kh" label="Hysteresis kh" unit="W·s/Wbᵝ" />
         <F path="losses.iron.beta" label="Exponent β" placeholder="2" />
-        <F path="losses.iron.ke" label="Eddy current ke" unit="W/(Hz·Wb)²" />
+        <F path="losses.iron.ke" label="Eddy current ke" unit="W·s²/Wb²" />
         <IronExample psi={psiM} />
       </Optional>
       <Optional path="losses.windage" parent="losses" label="Windage" blank={START_WINDAGE} note="P = kw·ω³">

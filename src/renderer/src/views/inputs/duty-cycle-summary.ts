@@ -134,3 +134,22 @@ export function sparkline(t: readonly unknown[], y: readonly unknown[], buckets:
   flush();
   return out;
 }
+
+/**
+ * Whether two cycles have the same columns, entry by entry: the draft's tree is copied on every
+ * edit, so a cycle that did not change is a new object with equal lists, and comparing them (one
+ * pass, no arithmetic) is cheaper than summarising them again.
+ */
+export function sameColumns(a: unknown, b: unknown): boolean {
+  if (a === b) return true;
+  const x = dutyCycleColumns(a);
+  const y = dutyCycleColumns(b);
+  if (!x || !y) return false;
+  for (const k of ['t', 'speed', 'torque'] as const) {
+    const p = x[k];
+    const q = y[k];
+    if (p.length !== q.length) return false;
+    for (let i = 0; i < p.length; i++) if (!Object.is(p[i], q[i])) return false;
+  }
+  return true;
+}
