@@ -26,6 +26,7 @@ async function saved(): Promise<Record<string, any>> {
 beforeAll(async () => {
   app = await openApp({ acceptDownloads: true, consoleErrors: true });
   ({ page, errors: pageErrors } = app);
+  page.on('dialog', (d) => void d.accept()); // opening a file or a demo over edits asks first
 }, 120_000);
 
 afterAll(async () => {
@@ -133,6 +134,17 @@ describe('the losses, thermal and duty-cycle sections', () => {
     expect(file.dutyCycle.t_s).toHaveLength(7);
     expect(pageErrors).toEqual([]);
   }, 60_000);
+
+  it("names the first bad sample of an opened file's duty cycle under its summary", async () => {
+    const bad = { ...demo, dutyCycle: { ...demo.dutyCycle, t_s: [...demo.dutyCycle.t_s] } };
+    bad.dutyCycle.t_s[5] = bad.dutyCycle.t_s[4]; // 8.01 s twice
+    const [chooser] = await Promise.all([page.waitForEvent('filechooser'), page.click('[data-testid="open"]')]);
+    await chooser.setFiles({ name: 'bad-cycle.json', mimeType: 'application/json', buffer: Buffer.from(JSON.stringify(bad)) });
+    const msg = await page.waitForSelector(msgFor('dutyCycle'));
+    expect(await msg.textContent()).toBe('dutyCycle.t_s[5] must be > dutyCycle.t_s[4] (8.01 s): the times must be strictly ascending');
+    // the summary still reads what it can
+    expect(await page.textContent('[data-testid="duty-samples"]')).toBe('24');
+  });
 
   it('screenshots the new sections on the traction demo', async () => {
     // the demo again, with its own values (by way of another demo: the picker may still show it)

@@ -45,9 +45,14 @@ function useStableCycle(dc: Json | undefined): Json | undefined {
 function Summary() {
   const dc = useStableCycle(useFormValue((d) => getAt(d.tree, 'dutyCycle')));
   const s = useMemo(() => summariseDutyCycle(dc), [dc]);
-  const msgs = useMessages('dutyCycle', false).filter((m, i, all) => all.indexOf(m) === i);
-  const labelMsgs = useMessages('dutyCycle.label');
-  const shown = msgs.filter((m) => !labelMsgs.includes(m));
+  // the columns' problems, each with the sample it names (the label's stand beside its field)
+  const joined = useFormValue((_, issues) =>
+    Object.entries(issues)
+      .filter(([k]) => (k === 'dutyCycle' || k.startsWith('dutyCycle.')) && k !== 'dutyCycle.label')
+      .map(([k, m]) => `${k.replace(/\.(\d+)(?=\.|$)/g, '[$1]')} ${m}`)
+      .join('\n'),
+  );
+  const shown = joined === '' ? [] : joined.split('\n');
   return (
     <div data-testid="duty-summary">
       {s ? (
