@@ -1,22 +1,20 @@
-// The sections of the input side, laid out from the project schema's keys (units from KEYS).
+// The sections of the input side, laid out from the project schema's keys (units from KEYS);
+// losses, thermal network and duty cycle in their own files.
 import { describeLimits } from '../../../../core/drive/current-limits';
 import { memo, type ReactNode } from 'react';
-import { KEYS } from '../../../../core/project/schema';
 import type { ResolvedProject } from '../../../../core/project/project';
 import { deriveConstants } from '../../../../core/machine/nameplate';
 import type { Draft, Json } from '../../state/draft';
 import { editSubtree, getAt } from '../../state/draft';
-import { BoolField, HINTS, NumField, Rows, SelectField, TakenAs } from './Inputs';
+import { HINTS, NumField, Rows, SelectField, TakenAs, unitOf } from './Inputs';
+import { Optional } from './OptionalPart';
+import { ControlFields, ScenarioFields } from './ControlScenarioFields';
+import { LossesSection } from './LossesSection';
+import { ThermalSection } from './ThermalSection';
+import { DutyCycleSection } from './DutyCycleSection';
 import { Section } from '../../components/Section';
 import { useFormStore, useFormValue } from '../../state/form-store';
 import { num } from '../../components/format';
-
-const unit = (path: string): string => {
-  const k = KEYS[path.replace(/\.\d+\./g, '[].')];
-  const u = k?.unit ?? '';
-  if (u === 'A') return 'A peak';
-  return u === '' ? '–' : u;
-};
 
 type Mode = 'model' | 'datasheet';
 const motorMode = (tree: Json): Mode => (getAt(tree, 'nameplate') !== undefined ? 'datasheet' : 'model');
@@ -64,28 +62,6 @@ function switchMode(d: Draft, to: Mode, resolved: ResolvedProject | null): Draft
   const model = modelFromResolved(resolved, d.tree);
   const next = editSubtree(d, 'nameplate', undefined);
   return editSubtree(next, 'motor', model);
-}
-
-function Optional(props: { path: string; label: string; blank: Json; children: ReactNode }) {
-  const store = useFormStore();
-  const present = useFormValue((d) => getAt(d.tree, props.path) !== undefined);
-  return (
-    <div className="optional">
-      <label className="label" style={{ fontSize: 12 }}>
-        <input
-          type="checkbox"
-          checked={present}
-          data-path={props.path + ':present'}
-          onChange={(e) => {
-            const on = e.target.checked;
-            store.update((d) => editSubtree(d, props.path, on ? props.blank : undefined));
-          }}
-        />{' '}
-        {props.label}
-      </label>
-      {present && props.children}
-    </div>
-  );
 }
 
 const BASIS: Array<[string, string]> = [
@@ -195,8 +171,8 @@ function ModelFields() {
       <NumField path="motor.inertia" label="Rotor inertia" unit="kg·m²" hint={HINTS.kgcm2} />
       <NumField path="motor.viscousFriction" label="Viscous friction" unit="N·m·s/rad" optional />
       <NumField path="motor.coulombFriction" label="Coulomb friction" unit="N·m" optional />
-      <NumField path="motor.ratedCurrent" label="Rated current" unit={unit('motor.ratedCurrent')} optional hint={HINTS.rmsOfPeak} />
-      <NumField path="motor.peakCurrent" label="Peak current" unit={unit('motor.peakCurrent')} optional hint={HINTS.rmsOfPeak} />
+      <NumField path="motor.ratedCurrent" label="Rated current" unit={unitOf('motor.ratedCurrent')} optional hint={HINTS.rmsOfPeak} />
+      <NumField path="motor.peakCurrent" label="Peak current" unit={unitOf('motor.peakCurrent')} optional hint={HINTS.rmsOfPeak} />
     </>
   );
 }
@@ -246,8 +222,8 @@ export const InputPanel = memo(function InputPanel({ resolved, marks }: { resolv
 
       <Section title="Inverter" testId="sec-inverter">
         <NumField path="inverter.Vdc" label="DC bus Vdc" unit="V" />
-        <NumField path="inverter.Imax" label="Peak current Imax" unit={unit('inverter.Imax')} hint={HINTS.rmsOfPeak} />
-        <NumField path="inverter.Icont" label="Continuous Icont" unit={unit('inverter.Icont')} hint={HINTS.rmsOfPeak} />
+        <NumField path="inverter.Imax" label="Peak current Imax" unit={unitOf('inverter.Imax')} hint={HINTS.rmsOfPeak} />
+        <NumField path="inverter.Icont" label="Continuous Icont" unit={unitOf('inverter.Icont')} hint={HINTS.rmsOfPeak} />
         <SelectField
           path="inverter.modulation"
           label="Modulation"
@@ -317,94 +293,10 @@ export const InputPanel = memo(function InputPanel({ resolved, marks }: { resolv
           marks={marks}
         />
       </Section>
+
+      <LossesSection psiM={resolved ? resolved.machine20.psiM : null} />
+      <ThermalSection />
+      <DutyCycleSection />
     </>
   );
 });
-
-export function ControlFields() {
-  return (
-    <>
-      <SelectField
-        path="control.mode"
-        label="Mode"
-        optional
-        options={[
-          ['speed', 'speed control'],
-          ['torque', 'torque control'],
-          ['current-step', 'current step, locked rotor'],
-        ]}
-      />
-      <NumField path="control.fCtrl_Hz" label="Control rate" unit="Hz" optional placeholder="10000" />
-      <NumField path="control.delaySamples" label="Delay" unit="periods" optional placeholder="1" />
-      <NumField path="control.currentBandwidth_Hz" label="Current bandwidth" unit="Hz" optional />
-      <NumField path="control.currentKp" label="  or current Kp" unit="V/A" optional />
-      <NumField path="control.currentKi" label="  and Ki" unit="V/(A·s)" optional />
-      <NumField path="control.speedBandwidth_Hz" label="Speed bandwidth" unit="Hz" optional />
-      <NumField path="control.speedKp" label="  or speed Kp" unit="N·m·s/rad" optional />
-      <NumField path="control.speedKi" label="  and Ki" unit="N·m/rad" optional />
-      <SelectField
-        path="control.speedTuning.method"
-        label="Speed tuning"
-        optional
-        options={[
-          ['symmetric-optimum', 'symmetric optimum'],
-          ['bandwidth', 'from bandwidth'],
-        ]}
-      />
-      <NumField path="control.speedTuning.a" label="  spacing a" unit="–" optional placeholder="2" />
-      <SelectField
-        path="control.antiWindup"
-        label="Anti-windup"
-        optional
-        options={[
-          ['clamping', 'clamping'],
-          ['back-calculation', 'back-calculation'],
-        ]}
-      />
-      <BoolField path="control.decoupling" label="Decoupling + EMF feed-fwd" />
-      <BoolField path="control.speedPrefilter" label="Speed reference prefilter" />
-      <NumField path="control.speedRamp_rpm_per_s" label="Speed ramp" unit="rpm/s" optional placeholder="none" />
-      <NumField path="control.speedLoopDivider" label="Speed loop every" unit="periods" optional placeholder="1" />
-    </>
-  );
-}
-
-export function ScenarioFields() {
-  return (
-    <>
-      <NumField path="scenario.duration_s" label="Duration" unit="s" />
-      <NumField path="scenario.initialSpeed_rpm" label="Initial speed" unit="rpm" optional placeholder="0" />
-      <NumField path="scenario.loadInertia" label="Load inertia" unit="kg·m²" optional placeholder="0" />
-      <div className="label" style={{ margin: '6px 0 2px', fontSize: 12 }}>Speed reference steps</div>
-      <Rows
-        path="scenario.speedSteps"
-        columns={[
-          { key: 't_s', label: 't, s' },
-          { key: 'speed_rpm', label: 'speed, rpm' },
-        ]}
-        blank={{ t_s: 0, speed_rpm: 1000 }}
-        addLabel="speed step"
-      />
-      <div className="label" style={{ margin: '6px 0 2px', fontSize: 12 }}>Load torque steps</div>
-      <Rows
-        path="scenario.loadSteps"
-        columns={[
-          { key: 't_s', label: 't, s' },
-          { key: 'torque_Nm', label: 'load, N·m' },
-        ]}
-        blank={{ t_s: 0, torque_Nm: 1 }}
-        addLabel="load step"
-      />
-      <div className="label" style={{ margin: '6px 0 2px', fontSize: 12 }}>Torque reference steps (torque mode)</div>
-      <Rows
-        path="scenario.torqueSteps"
-        columns={[
-          { key: 't_s', label: 't, s' },
-          { key: 'torque_Nm', label: 'torque, N·m' },
-        ]}
-        blank={{ t_s: 0, torque_Nm: 1 }}
-        addLabel="torque step"
-      />
-    </>
-  );
-}

@@ -7,18 +7,30 @@ import { editNumber, editSubtree, editValue, getAt, textOf } from '../../state/d
 import { num } from '../../components/format';
 import { SQRT2 } from '../../../../core/base/units';
 import type { Interpretation } from '../../../../core/machine/nameplate';
+import { KEYS } from '../../../../core/project/schema';
 
 import { useFormStore, useFormValue } from '../../state/form-store';
 import { FieldNotes } from '../../components/field-notes';
 
 /** Messages of one field as one string (stable for useSyncExternalStore), split for display. */
-const useMessages = (path: Path, exact = true): string[] => {
+export const useMessages = (path: Path, exact = true): string[] => {
   const joined = useFormValue((_, issues) => messagesFor(issues, path, exact).join('\n'));
   return joined === '' ? [] : joined.split('\n');
 };
 
 
-type Hint = (v: number) => string;
+/** The unit of a schema key as a field shows it (KEYS' spelling: A is a peak current, ohm is Ω). */
+export function unitOf(path: Path): string {
+  const u = KEYS[path.replace(/\.\d+\./g, '[].')]?.unit ?? '';
+  if (u === 'A') return 'A peak';
+  if (u === 'ohm') return 'Ω';
+  return u === '' ? '–' : u;
+}
+
+/** What the schema says of a key (a field's tooltip), if it says anything. */
+export const keyDoc = (path: Path): string | undefined => KEYS[path.replace(/\.\d+\./g, '[].')]?.doc;
+
+export type Hint = (v: number) => string;
 export const HINTS = {
   mH: ((v) => `= ${num(v * 1e3)} mH`) as Hint,
   mOhm: ((v) => `= ${num(v * 1e3)} mΩ`) as Hint,
@@ -63,7 +75,7 @@ export const NumField = memo(function NumField(props: NumFieldProps) {
   const hint = props.hint && text.trim() !== '' && Number.isFinite(v) ? props.hint(v) : null;
   return (
     <div className={'field' + (msgs.length ? ' invalid' : '')}>
-      <label className="label" htmlFor={fid}>{props.label}</label>
+      <label className="label" htmlFor={fid} title={keyDoc(props.path)}>{props.label}</label>
       <span className="control">
         <input
           id={fid}
@@ -257,7 +269,7 @@ function RowSelect({ path, label, options }: { path: Path; label: string; option
   );
 }
 
-function RowCell({ path, label, text }: { path: Path; label: string; text: boolean }) {
+export function RowCell({ path, label, text }: { path: Path; label: string; text: boolean }) {
   const store = useFormStore();
   const value = useFormValue((d) => textOf(d, path));
   const msgs = useMessages(path);
