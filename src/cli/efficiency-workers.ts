@@ -1,23 +1,30 @@
 // The efficiency map across worker threads (src/node/worker-pool.ts). The workers run the same
 // code as the command: in the built CLI (one file, out/cli/torquewise.mjs) a worker is that file
 // itself, started with workerData naming its task (src/cli/bin.ts hands it to workerMain); run from
-// the TypeScript sources (tests, tsx) a worker loads src/cli/bin.ts through tsx. Each worker loads
-// the project text through the core pipeline once, then computes the blocks of speed rows it is given.
+// the TypeScript sources (tests, tsx) a worker loads src/cli/bin.ts through tsx.
+//
+// The process's entry starts the workers first (src/cli/map-prestart.ts), each reads and loads the
+// project file while the main thread does; the map's rows are then shared out one at a time through a
+// counter in shared memory, the results written in place (runSharedRows): no thread waits for another,
+// and a worker not yet ready takes no row.
 import { parentPort, workerData } from 'node:worker_threads';
-import { loadProjectText } from '../core/project/project';
+import { loadProjectText, type ResolvedProject } from '../core/project/project';
 import type { EfficiencyMap } from '../core/steady-state/efficiency-map';
-import { runWorkerPool, type WorkerReply, type WorkerScript } from '../node/worker-pool';
-import { efficiencyRows, joinRows, type Corner } from './efficiency-grid';
+import { readProjectText } from '../node/project-file';
+import { claimRows, rowCounter, runSharedRows } from '../node/worker-pool';
+import { MAP_WORKER_TASK, takeMapWorkers, type MapWorkerData } from './map-prestart';
+export { MAP_WORKER_TASK, defaultMapThreads, mapGridFlags, prestartMapWorkers, workerScript } from './map-prestart';
+import { efficiencyRows, ownMap, sharedMap, writeRow, type Corner } from './efficiency-grid';
 
-/** The workerData that marks an efficiency-map worker. */
-export const MAP_WORKER_TASK = 'torquewise-efficiency-map';
-
-interface MapWorkerData {
-  task: typeof MAP_WORKER_TASK;
+/** What a worker is posted: the map's project and grid, the shared results and the shared row counter. */
+export interface MapWorkerJob {
   projectText: string;
   corner: Corner;
   minLoss: boolean;
-  torques: Float64Array;
+  /** the map, its arrays in shared memory (sharedMap) */
+  out: EfficiencyMap;
+  /** rowCounter() */
+  counter: Int32Array;
 }
 
 /** True when this thread was started as an efficiency-map worker. */
@@ -25,44 +32,51 @@ export function isMapWorker(): boolean {
   return parentPort !== null && (workerData as Partial<MapWorkerData> | null)?.task === MAP_WORKER_TASK;
 }
 
-/** A worker's loop: answer each block of speeds with its rows. */
+async function preload(path: string): Promise<{ text: string; project: ResolvedProject } | undefined> {
+  try {
+    const text = await readProjectText(path);
+    return { text, project: loadProjectText(text) };
+  } catch {
+    return undefined; // the main thread reports what is wrong with the file
+  }
+}
+
+/** A worker's loop: for each job, claim the map's rows and write them, then answer. */
 export function workerMain(): void {
   const port = parentPort;
   if (port === null) return;
   const d = workerData as MapWorkerData;
-  const p = loadProjectText(d.projectText);
-  const g = { corner: d.corner, minLoss: d.minLoss, torques: d.torques };
-  port.on('message', (m: { job: number; input: Float64Array }) => {
-    let reply: WorkerReply<EfficiencyMap>;
-    try {
-      reply = { job: m.job, ok: true, result: efficiencyRows(p, g, m.input) };
-    } catch (e) {
-      reply = { job: m.job, ok: false, name: e instanceof Error ? e.name : 'Error', message: e instanceof Error ? e.message : String(e) };
-    }
-    port.postMessage(reply);
+  const early = d.projectPath === undefined ? Promise.resolve(undefined) : preload(d.projectPath);
+  port.on('message', (m: MapWorkerJob) => {
+    void early.then((pre) => {
+      try {
+        const p = pre !== undefined && pre.text === m.projectText ? pre.project : loadProjectText(m.projectText);
+        const g = { corner: m.corner, minLoss: m.minLoss, torques: m.out.torques };
+        claimRows(m.counter, m.out.speeds.length, (i) => writeRow(p, g, m.out, i));
+        port.postMessage({ ok: true });
+      } catch (e) {
+        port.postMessage({ ok: false, name: e instanceof Error ? e.name : 'Error', message: e instanceof Error ? e.message : String(e) });
+      }
+    });
   });
 }
 
-/** The script a worker runs: this very file when bundled, else a fixed bootstrap that loads src/cli/bin.ts through tsx. */
-export function workerScript(): WorkerScript {
-  const here = import.meta.url;
-  if (!/\.ts$/.test(here)) return { script: new URL(here) };
-  return { script: new URL('./efficiency-worker-source.mjs', here) };
-}
-
 /**
- * The map over speeds x torques: in this thread when threads <= 1, else the speed rows split in
- * blocks (about eight per thread, so that the threads finish together) across this thread and
- * `threads` - 1 workers (`workersOnly`: on `threads` workers, this thread computing nothing).
+ * The map over speeds x torques: in this thread when threads <= 1, else its speed rows shared out
+ * one at a time between this thread and `threads` - 1 workers (`workersOnly`: `threads` workers, this
+ * thread computing nothing). Every row is computed on its own, so the map is the same bit for bit.
  */
-export async function efficiencyMapThreaded(projectText: string, p: ReturnType<typeof loadProjectText>, corner: Corner, minLoss: boolean, speeds: Float64Array, torques: Float64Array, threads: number, opts: { workersOnly?: boolean } = {}): Promise<EfficiencyMap> {
+export async function efficiencyMapThreaded(projectText: string, p: ResolvedProject, corner: Corner, minLoss: boolean, speeds: Float64Array, torques: Float64Array, threads: number, opts: { workersOnly?: boolean } = {}): Promise<EfficiencyMap> {
   const g = { corner, minLoss, torques };
   if (threads <= 1 || speeds.length < 2) return efficiencyRows(p, g, speeds);
-  const size = Math.max(1, Math.ceil(speeds.length / (threads * 8)));
-  const blocks: Float64Array[] = [];
-  for (let a = 0; a < speeds.length; a += size) blocks.push(speeds.slice(a, a + size));
-  const data: MapWorkerData = { task: MAP_WORKER_TASK, projectText, corner, minLoss, torques };
-  // this thread computes blocks too, while the workers start and after
-  const rows = await runWorkerPool<Float64Array, EfficiencyMap>(workerScript(), data, blocks, threads, opts.workersOnly === true ? undefined : (s) => efficiencyRows(p, g, s));
-  return joinRows(speeds, torques, rows);
+  const local = opts.workersOnly !== true;
+  const workers = takeMapWorkers(Math.min(local ? threads - 1 : threads, speeds.length));
+  const out = sharedMap(speeds, torques), counter = rowCounter();
+  const job: MapWorkerJob = { projectText, corner, minLoss, out, counter };
+  try {
+    await runSharedRows(workers, job, counter, speeds.length, local ? (i) => writeRow(p, g, out, i) : undefined);
+  } finally {
+    for (const w of workers) void w.terminate();
+  }
+  return ownMap(out);
 }

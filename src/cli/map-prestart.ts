@@ -1,0 +1,78 @@
+// The efficiency map's workers started at the process's entry (src/cli/bin-prestart.ts), before the
+// rest of the command line is even evaluated: on two cores the main thread needs 150-250 ms from the
+// process's start to the map, a worker 60-90 ms to start and evaluate the bundle and 15-40 ms more to
+// read and load the project; started with the map instead, a worker joined it 100+ ms late. This
+// module imports little (argument parsing and the worker start), so that it runs first in the bundle.
+import type { Worker } from 'node:worker_threads';
+import { availableParallelism } from 'node:os';
+import { numberFlag, parseArgs, type ParsedArgs } from './args';
+import { startWorkers, type WorkerScript } from '../node/worker-pool';
+
+/** The workerData that marks an efficiency-map worker. */
+export const MAP_WORKER_TASK = 'torquewise-efficiency-map';
+
+export interface MapWorkerData {
+  task: typeof MAP_WORKER_TASK;
+  /** the project file, read and loaded by the worker ahead of its map (used only if its text is the map's) */
+  projectPath?: string;
+}
+
+/** The script a worker runs: this very file when bundled, else a fixed bootstrap that loads src/cli/bin.ts through tsx. */
+export function workerScript(): WorkerScript {
+  const here = import.meta.url;
+  if (!/\.ts$/.test(here)) return { script: new URL(here) };
+  return { script: new URL('./efficiency-worker-source.mjs', here) };
+}
+
+/**
+ * Threads by default: the cores there are (at most 4) once the grid has MIN_POINTS_PER_THREAD points
+ * per thread, else fewer.
+ */
+export function defaultMapThreads(nS: number, nT: number): number {
+  return Math.max(1, Math.min(4, availableParallelism(), Math.floor((nS * nT) / MIN_POINTS_PER_THREAD)));
+}
+const MIN_POINTS_PER_THREAD = 1000;
+
+/** The grid's size and the threads of an `efficiency` command line (InputError on a bad value). */
+export function mapGridFlags(args: ParsedArgs): { nS: number; nT: number; threads: number } {
+  const nS = numberFlag(args, 'speed-points', { min: 2, max: 2000, integer: true }) ?? 50;
+  const nT = numberFlag(args, 'torque-points', { min: 2, max: 2000, integer: true }) ?? 50;
+  const threads = numberFlag(args, 'threads', { min: 1, max: 64, integer: true }) ?? defaultMapThreads(nS, nT);
+  return { nS, nT, threads };
+}
+
+/** Workers this process started at its entry for its efficiency command, not yet taken. */
+let early: Array<{ worker: Worker; alive: boolean }> = [];
+
+/**
+ * For an `efficiency` command line that will use more than one thread, starts its workers now (each
+ * reads and loads the project file). They hold no process open (unref) until the map takes them.
+ */
+export function prestartMapWorkers(argv: readonly string[]): void {
+  let threads: number, file: string;
+  try {
+    const a = parseArgs(argv);
+    if (a.command !== 'efficiency' || a.file === undefined || a.flags.has('help')) return;
+    threads = mapGridFlags(a).threads;
+    file = a.file;
+  } catch {
+    return; // bad input: the command reports it
+  }
+  if (threads <= 1) return;
+  early = startWorkers(workerScript(), { task: MAP_WORKER_TASK, projectPath: file } satisfies MapWorkerData, threads - 1).map((worker) => {
+    const e = { worker, alive: true };
+    worker.unref();
+    worker.on('error', () => (e.alive = false));
+    worker.on('exit', () => (e.alive = false));
+    return e;
+  });
+}
+
+/** `n` workers for a map: those started early (still alive) first, then new ones; the early ones left over are ended. */
+export function takeMapWorkers(n: number): Worker[] {
+  const taken = early.filter((e) => e.alive).map((e) => e.worker).slice(0, n);
+  for (const e of early) if (!taken.includes(e.worker)) void e.worker.terminate();
+  early = [];
+  for (const w of taken) w.ref();
+  return [...taken, ...startWorkers(workerScript(), { task: MAP_WORKER_TASK } satisfies MapWorkerData, n - taken.length)];
+}
