@@ -7,7 +7,10 @@
 // project file while the main thread does; the map's rows are then shared out one at a time through a
 // counter in shared memory, the results written in place (runSharedRows): no thread waits for another,
 // and a worker not yet ready takes no row.
-import { parentPort, workerData } from 'node:worker_threads';
+import { parentPort, receiveMessageOnPort, workerData, type MessagePort } from 'node:worker_threads';
+import { mapAxis } from '../core/steady-state/efficiency-map';
+import { maxTorquePoint } from '../core/steady-state/envelope';
+import { projectSpeedRange } from '../core/reports/speed-range';
 import { loadProjectText, type ResolvedProject } from '../core/project/project';
 import type { EfficiencyMap } from '../core/steady-state/efficiency-map';
 import { readProjectText } from '../node/project-file';
@@ -41,23 +44,59 @@ async function preload(path: string): Promise<{ text: string; project: ResolvedP
   }
 }
 
+/** Longest warm-up, ms: a worker started early has this long before its map is due. */
+const WARM_MS = 250;
+
+/**
+ * Warm-up while the map is not yet posted: rows of the command line's map (the default speed range,
+ * the motoring-to-generating torques at standstill), spread over the speeds, their results thrown away,
+ * so that the map's code is compiled when the map comes (a cold thread computes its first rows several
+ * times slower). Stops as soon as a message waits (returned), or after WARM_MS.
+ */
+function warmUp(port: MessagePort, p: ResolvedProject, w: NonNullable<MapWorkerData['warm']>): MapWorkerJob | undefined {
+  const until = performance.now() + WARM_MS;
+  const model = w.corner === 'hot' ? p.models.hot : p.models.cold;
+  const wMax = projectSpeedRange(p).speedMax;
+  const tMot = Math.abs(maxTorquePoint(model, p.peak, 0, 'motoring').torque), tGen = Math.abs(maxTorquePoint(model, p.peak, 0, 'generating').torque);
+  const g = { corner: w.corner, minLoss: w.minLoss, torques: mapAxis(-tGen, tMot, w.torquePoints) };
+  const speed = new Float64Array(1);
+  for (let k = 0; performance.now() < until; k++) {
+    const m = receiveMessageOnPort(port);
+    if (m !== undefined) return m.message as MapWorkerJob;
+    speed[0] = wMax * ((k * 0.618034) % 1);
+    efficiencyRows(p, g, speed);
+  }
+  return undefined;
+}
+
 /** A worker's loop: for each job, claim the map's rows and write them, then answer. */
 export function workerMain(): void {
   const port = parentPort;
   if (port === null) return;
   const d = workerData as MapWorkerData;
-  const early = d.projectPath === undefined ? Promise.resolve(undefined) : preload(d.projectPath);
-  port.on('message', (m: MapWorkerJob) => {
-    void early.then((pre) => {
-      try {
-        const p = pre !== undefined && pre.text === m.projectText ? pre.project : loadProjectText(m.projectText);
-        const g = { corner: m.corner, minLoss: m.minLoss, torques: m.out.torques };
-        claimRows(m.counter, m.out.speeds.length, (i) => writeRow(p, g, m.out, i));
-        port.postMessage({ ok: true });
-      } catch (e) {
-        port.postMessage({ ok: false, name: e instanceof Error ? e.name : 'Error', message: e instanceof Error ? e.message : String(e) });
-      }
-    });
+  const serve = (m: MapWorkerJob, pre: { text: string; project: ResolvedProject } | undefined): void => {
+    try {
+      const p = pre !== undefined && pre.text === m.projectText ? pre.project : loadProjectText(m.projectText);
+      const g = { corner: m.corner, minLoss: m.minLoss, torques: m.out.torques };
+      claimRows(m.counter, m.out.speeds.length, (i) => writeRow(p, g, m.out, i));
+      port.postMessage({ ok: true });
+    } catch (e) {
+      port.postMessage({ ok: false, name: e instanceof Error ? e.name : 'Error', message: e instanceof Error ? e.message : String(e) });
+    }
+  };
+  if (d.projectPath === undefined) {
+    port.on('message', (m: MapWorkerJob) => serve(m, undefined));
+    return;
+  }
+  void preload(d.projectPath).then((pre) => {
+    let first: MapWorkerJob | undefined;
+    try {
+      if (pre !== undefined && d.warm !== undefined) first = warmUp(port, pre.project, d.warm);
+    } catch {
+      // a warm-up that fails changes nothing: the map reports its own failures
+    }
+    if (first !== undefined) serve(first, pre);
+    port.on('message', (m: MapWorkerJob) => serve(m, pre));
   });
 }
 

@@ -5,7 +5,8 @@
 // module imports little (argument parsing and the worker start), so that it runs first in the bundle.
 import type { Worker } from 'node:worker_threads';
 import { availableParallelism } from 'node:os';
-import { numberFlag, parseArgs, type ParsedArgs } from './args';
+import { numberFlag, parseArgs, stringFlag, type ParsedArgs } from './args';
+import type { Corner } from './efficiency-grid';
 import { startWorkers, type WorkerScript } from '../node/worker-pool';
 
 /** The workerData that marks an efficiency-map worker. */
@@ -15,6 +16,8 @@ export interface MapWorkerData {
   task: typeof MAP_WORKER_TASK;
   /** the project file, read and loaded by the worker ahead of its map (used only if its text is the map's) */
   projectPath?: string;
+  /** the command line's map, for the worker to warm up on while it waits (efficiency-workers.ts) */
+  warm?: { corner: Corner; minLoss: boolean; torquePoints: number };
 }
 
 /** The script a worker runs: this very file when bundled, else a fixed bootstrap that loads src/cli/bin.ts through tsx. */
@@ -46,20 +49,22 @@ let early: Array<{ worker: Worker; alive: boolean }> = [];
 
 /**
  * For an `efficiency` command line that will use more than one thread, starts its workers now (each
- * reads and loads the project file). They hold no process open (unref) until the map takes them.
+ * reads and loads the project file, then warms up on the map while it waits for it). They hold no process open (unref) until the map takes them.
  */
 export function prestartMapWorkers(argv: readonly string[]): void {
-  let threads: number, file: string;
+  let data: MapWorkerData, threads: number;
   try {
     const a = parseArgs(argv);
     if (a.command !== 'efficiency' || a.file === undefined || a.flags.has('help')) return;
-    threads = mapGridFlags(a).threads;
-    file = a.file;
+    const grid = mapGridFlags(a);
+    threads = grid.threads;
+    const corner = stringFlag(a, 'corner') === 'cold' ? 'cold' : 'hot';
+    data = { task: MAP_WORKER_TASK, projectPath: a.file, warm: { corner, minLoss: a.flags.has('min-loss'), torquePoints: grid.nT } };
   } catch {
     return; // bad input: the command reports it
   }
   if (threads <= 1) return;
-  early = startWorkers(workerScript(), { task: MAP_WORKER_TASK, projectPath: file } satisfies MapWorkerData, threads - 1).map((worker) => {
+  early = startWorkers(workerScript(), data, threads - 1).map((worker) => {
     const e = { worker, alive: true };
     worker.unref();
     worker.on('error', () => (e.alive = false));
