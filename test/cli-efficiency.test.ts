@@ -6,7 +6,7 @@ import { join, resolve } from 'node:path';
 import { spawnSync } from 'node:child_process';
 import { describe, expect, it } from 'vitest';
 import { runCli } from './cli-run';
-import { CLI_BUNDLE, ensureBundle } from '../scripts/cli-bundle.mjs';
+import { CLI_BUNDLE, ensureBundle, mapWorkerBundle } from '../scripts/cli-bundle.mjs';
 import { parseCsv } from '../src/core/reports/csv';
 import { Worker } from 'node:worker_threads';
 import { pathToFileURL } from 'node:url';
@@ -179,12 +179,14 @@ describe('rows computed on worker threads alone', () => {
     }
   };
 
-  it('the built file itself serves as the worker (workerData names the task)', async () => {
+  it('the built file itself serves as the worker (workerData names the task), and so does the lean worker bundle beside it', async () => {
     expect(ensureBundle()).toBe('');
-    const out = sharedMap(speeds, torques);
-    const reply = await serve(pathToFileURL(CLI_BUNDLE), { task: MAP_WORKER_TASK }, { projectText: text, corner: 'cold', minLoss: false, out, counter: rowCounter() });
-    expect(reply.ok).toBe(true);
-    expect(ownMap(out)).toEqual(efficiencyRows(p, { corner: 'cold', minLoss: false, torques }, speeds));
+    for (const file of [CLI_BUNDLE, mapWorkerBundle()]) {
+      const out = sharedMap(speeds, torques);
+      const reply = await serve(pathToFileURL(file), { task: MAP_WORKER_TASK }, { projectText: text, corner: 'cold', minLoss: false, out, counter: rowCounter() });
+      expect(reply.ok).toBe(true);
+      expect(ownMap(out)).toEqual(efficiencyRows(p, { corner: 'cold', minLoss: false, torques }, speeds));
+    }
   }, 300_000);
 
   it('a worker that read another project file ahead computes the project it is sent', async () => {

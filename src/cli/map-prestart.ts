@@ -5,6 +5,7 @@
 // module imports little (argument parsing and the worker start), so that it runs first in the bundle.
 import type { Worker } from 'node:worker_threads';
 import { availableParallelism } from 'node:os';
+import { existsSync } from 'node:fs';
 import { numberFlag, parseArgs, stringFlag, type ParsedArgs } from './args';
 import type { Corner } from './efficiency-grid';
 import { startWorkers, type WorkerScript } from '../node/worker-pool';
@@ -20,11 +21,15 @@ export interface MapWorkerData {
   warm?: { corner: Corner; minLoss: boolean; torquePoints: number };
 }
 
-/** The script a worker runs: this very file when bundled, else a fixed bootstrap that loads src/cli/bin.ts through tsx. */
+/**
+ * The script a worker runs: bundled, the lean worker bundle beside this one (scripts/cli-bundle.mjs)
+ * or, without it, this very file; from the sources, a fixed bootstrap that loads src/cli/bin.ts through tsx.
+ */
 export function workerScript(): WorkerScript {
   const here = import.meta.url;
-  if (!/\.ts$/.test(here)) return { script: new URL(here) };
-  return { script: new URL('./efficiency-worker-source.mjs', here) };
+  if (/\.ts$/.test(here)) return { script: new URL('./efficiency-worker-source.mjs', here) };
+  const lean = new URL('./efficiency-worker.mjs', here);
+  return { script: lean.protocol === 'file:' && existsSync(lean) ? lean : new URL(here) };
 }
 
 /**
