@@ -55,6 +55,8 @@ const WARM_MS = 250;
  */
 function warmUp(port: MessagePort, p: ResolvedProject, w: NonNullable<MapWorkerData['warm']>): MapWorkerJob | undefined {
   const until = performance.now() + WARM_MS;
+  const waiting = receiveMessageOnPort(port);
+  if (waiting !== undefined) return waiting.message as MapWorkerJob;
   const model = w.corner === 'hot' ? p.models.hot : p.models.cold;
   const wMax = projectSpeedRange(p).speedMax;
   const tMot = Math.abs(maxTorquePoint(model, p.peak, 0, 'motoring').torque), tGen = Math.abs(maxTorquePoint(model, p.peak, 0, 'generating').torque);
