@@ -4,7 +4,6 @@
 // read and load the project; started with the map instead, a worker joined it 100+ ms late. This
 // module imports little (argument parsing and the worker start), so that it runs first in the bundle.
 import type { Worker } from 'node:worker_threads';
-import { availableParallelism } from 'node:os';
 import { existsSync } from 'node:fs';
 import { numberFlag, parseArgs, stringFlag, type ParsedArgs } from './args';
 import type { Corner } from './efficiency-grid';
@@ -33,13 +32,15 @@ export function workerScript(): WorkerScript {
 }
 
 /**
- * Threads by default: the cores there are (at most 4) once the grid has MIN_POINTS_PER_THREAD points
- * per thread, else fewer.
+ * Threads by default: one, whatever the grid. Measured on two cores (traction demo, 2 threads against
+ * 1): 0.7-0.8x at 100 x 100, about 1.0x at 200 x 200. Each thread's V8 isolate compiles the solvers
+ * on its own (about 150 ms of CPU on background threads, which a single thread gets for free on the
+ * second core), and a machine busy with other processes gives a process its share whatever its
+ * threads. More threads stay a choice (--threads N); the grid is taken as a reason once measured.
  */
-export function defaultMapThreads(nS: number, nT: number): number {
-  return Math.max(1, Math.min(4, availableParallelism(), Math.floor((nS * nT) / MIN_POINTS_PER_THREAD)));
+export function defaultMapThreads(_nS: number, _nT: number): number {
+  return 1;
 }
-const MIN_POINTS_PER_THREAD = 1000;
 
 /** The grid's size and the threads of an `efficiency` command line (InputError on a bad value). */
 export function mapGridFlags(args: ParsedArgs): { nS: number; nT: number; threads: number } {
