@@ -12,7 +12,7 @@ import { Worker } from 'node:worker_threads';
 import { pathToFileURL } from 'node:url';
 import { loadProjectText } from '../src/core/project/project';
 import { mapAxis } from '../src/core/steady-state/efficiency-map';
-import { defaultMapThreads, efficiencyMapThreaded, MAP_WORKER_TASK, prestartMapWorkers, type MapWorkerJob } from '../src/cli/efficiency-workers';
+import { efficiencyMapThreaded, MAP_WORKER_TASK, prestartMapWorkers, type MapWorkerJob } from '../src/cli/efficiency-workers';
 import { efficiencyRows, MAP_ARRAYS, ownMap, sharedMap } from '../src/cli/efficiency-grid';
 import { rowCounter } from '../src/node/worker-pool';
 import type { EfficiencyMap } from '../src/core/steady-state/efficiency-map';
@@ -225,11 +225,4 @@ describe('the map across threads is the single-thread map bit for bit', () => {
       expect(results(two!.stdout)).toEqual(results(one!.stdout));
     }
   }, 300_000);
-});
-
-describe('default threads', () => {
-  it('one, on a small grid and a large one (two threads measured no faster on two cores)', () => {
-    expect(defaultMapThreads(10, 10)).toBe(1);
-    expect(defaultMapThreads(200, 200)).toBe(1);
-  });
 });
