@@ -1,4 +1,4 @@
-// The built command line (out/cli/torquewise.mjs) and when it must be rebuilt: plain Node, no
+// The built command line (out/cli/torquewise.mjs, and its efficiency-map worker beside it) and when it must be rebuilt: plain Node, no
 // TypeScript loader, so `npm run cli` can check it in a few milliseconds before running it.
 import { spawnSync } from 'node:child_process';
 import { existsSync, mkdtempSync, readdirSync, renameSync, rmSync, statSync, utimesSync, mkdirSync } from 'node:fs';
@@ -7,6 +7,14 @@ import { fileURLToPath } from 'node:url';
 
 export const ROOT = resolve(dirname(fileURLToPath(import.meta.url)), '..');
 export const CLI_BUNDLE = join(ROOT, 'out', 'cli', 'torquewise.mjs');
+
+/**
+ * The efficiency map's worker beside a bundle: a second, lean bundle of src/cli/efficiency-worker.ts
+ * (only what the map needs, so a worker thread starts faster; without it the bundle serves as its own worker).
+ */
+export function mapWorkerBundle(bundle = CLI_BUNDLE) {
+  return join(dirname(bundle), 'efficiency-worker.mjs');
+}
 
 /** What the bundle is built from: every file under src, the build config and the dependency pins. */
 export function bundleInputs(root = ROOT) {
@@ -42,36 +50,39 @@ export function staleReason(bundle = CLI_BUNDLE, inputs = bundleInputs()) {
 }
 
 /**
- * Builds the bundle with vite into a private folder and moves it into place in one rename, so
- * several processes building at once (parallel test files) never see half a file. The bundle's mtime
- * is set to when the build started: a source edited during the build leaves it stale.
- * Returns '' on success, else the build's output.
+ * Builds the bundle (and the map's worker beside it, mapWorkerBundle) with vite into private folders
+ * and moves each into place in one rename, the worker first, so several processes building at once
+ * (parallel test files) never see half a file. Their mtime is set to when the build started: a
+ * source edited during the build leaves them stale. Returns '' on success, else the build's output.
  */
 export function buildBundle(bundle = CLI_BUNDLE) {
   const started = new Date();
   mkdirSync(dirname(bundle), { recursive: true });
-  const tmp = mkdtempSync(join(dirname(bundle), '.build-'));
-  try {
-    const vite = join(ROOT, 'node_modules', 'vite', 'bin', 'vite.js');
-    if (!existsSync(vite)) return 'vite is not installed (run npm install)';
-    const r = spawnSync(process.execPath, [vite, 'build', '--config', join(ROOT, 'vite.cli.config.ts')], {
-      cwd: ROOT,
-      env: { ...process.env, TORQUEWISE_CLI_OUT: tmp },
-      encoding: 'utf8',
-      timeout: 300_000,
-    });
-    const built = join(tmp, 'torquewise.mjs');
-    if (r.status !== 0 || !existsSync(built)) return `${r.stdout ?? ''}${r.stderr ?? ''}${r.error ? String(r.error) : ''}`.trim() || 'vite build failed';
-    utimesSync(built, started, started);
-    renameSync(built, bundle);
-    return '';
-  } finally {
-    rmSync(tmp, { recursive: true, force: true });
-  }
+  const vite = join(ROOT, 'node_modules', 'vite', 'bin', 'vite.js');
+  if (!existsSync(vite)) return 'vite is not installed (run npm install)';
+  const build = (entry, to) => {
+    const tmp = mkdtempSync(join(dirname(bundle), '.build-'));
+    try {
+      const r = spawnSync(process.execPath, [vite, 'build', '--config', join(ROOT, 'vite.cli.config.ts'), ...(entry ? ['--ssr', entry] : [])], {
+        cwd: ROOT,
+        env: { ...process.env, TORQUEWISE_CLI_OUT: tmp },
+        encoding: 'utf8',
+        timeout: 300_000,
+      });
+      const built = join(tmp, 'torquewise.mjs');
+      if (r.status !== 0 || !existsSync(built)) return `${r.stdout ?? ''}${r.stderr ?? ''}${r.error ? String(r.error) : ''}`.trim() || 'vite build failed';
+      utimesSync(built, started, started);
+      renameSync(built, to);
+      return '';
+    } finally {
+      rmSync(tmp, { recursive: true, force: true });
+    }
+  };
+  return build(join(ROOT, 'src', 'cli', 'efficiency-worker.ts'), mapWorkerBundle(bundle)) || build(undefined, bundle);
 }
 
-/** Builds the bundle when it is missing or stale; '' when it is ready, else why it is not. */
+/** Builds the bundle and its map worker when either is missing or stale; '' when they are ready, else why not. */
 export function ensureBundle(bundle = CLI_BUNDLE) {
-  if (staleReason(bundle) === '') return '';
+  if (staleReason(bundle) === '' && staleReason(mapWorkerBundle(bundle)) === '') return '';
   return buildBundle(bundle);
 }

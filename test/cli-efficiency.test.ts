@@ -6,14 +6,16 @@ import { join, resolve } from 'node:path';
 import { spawnSync } from 'node:child_process';
 import { describe, expect, it } from 'vitest';
 import { runCli } from './cli-run';
-import { CLI_BUNDLE, ensureBundle } from '../scripts/cli-bundle.mjs';
+import { CLI_BUNDLE, ensureBundle, mapWorkerBundle } from '../scripts/cli-bundle.mjs';
 import { parseCsv } from '../src/core/reports/csv';
 import { Worker } from 'node:worker_threads';
 import { pathToFileURL } from 'node:url';
 import { loadProjectText } from '../src/core/project/project';
 import { mapAxis } from '../src/core/steady-state/efficiency-map';
-import { efficiencyMapThreaded, MAP_WORKER_TASK } from '../src/cli/efficiency-workers';
-import { efficiencyRows } from '../src/cli/efficiency-grid';
+import { efficiencyMapThreaded, MAP_WORKER_TASK, prestartMapWorkers, type MapWorkerJob } from '../src/cli/efficiency-workers';
+import { efficiencyRows, MAP_ARRAYS, ownMap, sharedMap } from '../src/cli/efficiency-grid';
+import { rowCounter } from '../src/node/worker-pool';
+import type { EfficiencyMap } from '../src/core/steady-state/efficiency-map';
 
 const demo = (name: string) => join(resolve(__dirname, '..'), 'resources', `demo-${name}.json`);
 const dir = mkdtempSync(join(tmpdir(), 'tw-eff-'));
@@ -162,16 +164,65 @@ describe('rows computed on worker threads alone', () => {
     }
   }, 120_000);
 
-  it('the built file itself serves as the worker (workerData names the task)', async () => {
+  /** a worker of `script` given one job; its answer */
+  const serve = async (script: URL, data: object, job: MapWorkerJob): Promise<any> => {
+    const w = new Worker(script, { workerData: data });
+    try {
+      return await new Promise<any>((ok, fail) => {
+        w.once('message', ok);
+        w.once('error', fail);
+        w.postMessage(job);
+      });
+    } finally {
+      await w.terminate();
+    }
+  };
+
+  it('the built file itself serves as the worker (workerData names the task), and so does the lean worker bundle beside it', async () => {
     expect(ensureBundle()).toBe('');
-    const w = new Worker(pathToFileURL(CLI_BUNDLE), { workerData: { task: MAP_WORKER_TASK, projectText: text, corner: 'cold', minLoss: false, torques } });
-    const reply = await new Promise<any>((ok, fail) => {
-      w.once('message', ok);
-      w.once('error', fail);
-      w.postMessage({ job: 0, input: speeds });
-    });
-    await w.terminate();
+    for (const file of [CLI_BUNDLE, mapWorkerBundle()]) {
+      const out = sharedMap(speeds, torques);
+      const reply = await serve(pathToFileURL(file), { task: MAP_WORKER_TASK }, { projectText: text, corner: 'cold', minLoss: false, out, counter: rowCounter() });
+      expect(reply.ok).toBe(true);
+      expect(ownMap(out)).toEqual(efficiencyRows(p, { corner: 'cold', minLoss: false, torques }, speeds));
+    }
+  }, 300_000);
+
+  it('a worker that read another project file ahead computes the project it is sent', async () => {
+    expect(ensureBundle()).toBe('');
+    const out = sharedMap(speeds, torques);
+    const reply = await serve(pathToFileURL(CLI_BUNDLE), { task: MAP_WORKER_TASK, projectPath: demo('spm-48v') }, { projectText: text, corner: 'hot', minLoss: false, out, counter: rowCounter() });
     expect(reply.ok).toBe(true);
-    expect(reply.result).toEqual(efficiencyRows(p, { corner: 'cold', minLoss: false, torques }, speeds));
+    expect(ownMap(out)).toEqual(efficiencyRows(p, { corner: 'hot', minLoss: false, torques }, speeds));
+  }, 300_000);
+});
+
+/** every array of two maps the same bit for bit (NaN payloads included) */
+const sameBits = (a: EfficiencyMap, b: EfficiencyMap): boolean =>
+  (['speeds', 'torques', ...MAP_ARRAYS] as const).every((k) => {
+    const x = a[k], y = b[k];
+    return x.length === y.length && Buffer.compare(new Uint8Array(x.buffer, x.byteOffset, x.byteLength), new Uint8Array(y.buffer, y.byteOffset, y.byteLength)) === 0;
+  });
+
+describe('the map across threads is the single-thread map bit for bit', () => {
+  const text = readFileSync(demo('ipm-traction'), 'utf8');
+  const p = loadProjectText(text);
+  const speeds = mapAxis(0, 1400, 40), torques = mapAxis(-320, 320, 33);
+  it('a worker started at the process entry (prestartMapWorkers) and one started with the map, least current', async () => {
+    const one = await efficiencyMapThreaded(text, p, 'hot', false, speeds, torques, 1);
+    prestartMapWorkers(['efficiency', demo('ipm-traction'), '--threads', '2']);
+    const two = await efficiencyMapThreaded(text, p, 'hot', false, speeds, torques, 2, { workersOnly: true });
+    expect(sameBits(two, one)).toBe(true);
+    expect(one.feasible.reduce((a, b) => a + b, 0)).toBeGreaterThan(500);
+  }, 120_000);
+
+  it('the built CLI: 1 and 2 threads, 60 x 60, hot and cold', () => {
+    expect(ensureBundle()).toBe('');
+    for (const corner of ['hot', 'cold']) {
+      const argv = ['efficiency', demo('ipm-traction'), '--speed-points', '60', '--torque-points', '60', '--corner', corner, '--json'];
+      const [one, two] = ['1', '2'].map((t) => spawnSync(process.execPath, [CLI_BUNDLE, ...argv, '--threads', t], { encoding: 'utf8', timeout: 60_000 }));
+      expect(two!.status).toBe(0);
+      expect(results(two!.stdout)).toEqual(results(one!.stdout));
+    }
   }, 300_000);
 });

@@ -1,6 +1,8 @@
 #!/usr/bin/env node
 // The command line's process entry (the built `torquewise` bin): run main on argv, set the exit code;
 // started as a worker thread of the efficiency map (src/cli/efficiency-workers.ts), serve its rows.
+// First of all, an efficiency command's workers are started (src/cli/bin-prestart.ts).
+import './bin-prestart';
 import { runProcess } from './index';
 import { isMapWorker, workerMain } from './efficiency-workers';
 

@@ -56,3 +56,25 @@ export function joinRows(speeds: Float64Array, torques: Float64Array, blocks: re
   if (at !== N) throw new Error(`the row blocks hold ${at} points, the grid ${N}`);
   return r;
 }
+
+/** An empty map over speeds x torques whose arrays live in shared memory (written by several threads). */
+export function sharedMap(speeds: Float64Array, torques: Float64Array): EfficiencyMap {
+  const N = speeds.length * torques.length;
+  const f64 = (): Float64Array => new Float64Array(new SharedArrayBuffer(8 * N));
+  return {
+    speeds, torques, feasible: new Uint8Array(new SharedArrayBuffer(N)), motor: f64(), inverter: f64(), system: f64(),
+    copper: f64(), iron: f64(), mechanical: f64(), inverterLoss: f64(), dcPower: f64(), torqueEm: f64(),
+  };
+}
+
+/** Speed row `i` of the map over `out`'s axes, computed on its own (efficiencyRows) and written into `out`. */
+export function writeRow(p: ResolvedProject, g: GridSpec, out: EfficiencyMap, i: number): void {
+  const row = efficiencyRows(p, g, out.speeds.subarray(i, i + 1));
+  const at = i * out.torques.length;
+  for (const key of MAP_ARRAYS) (out[key] as Float64Array | Uint8Array).set(row[key], at);
+}
+
+/** A copy of `m` in ordinary (unshared) arrays. */
+export function ownMap(m: EfficiencyMap): EfficiencyMap {
+  return joinRows(m.speeds, m.torques, [m]);
+}

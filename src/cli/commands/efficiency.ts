@@ -7,15 +7,8 @@ import { mapAxis } from '../../core/steady-state/efficiency-map';
 import { maxTorquePoint } from '../../core/steady-state/envelope';
 import { PLOT_SPEED_MAX_RPM, projectSpeedRange } from '../../core/reports/speed-range';
 import { efficiencyMapCsv, efficiencyMapJson, efficiencyMapSummary } from '../../core/reports/efficiency-map-report';
-import { efficiencyMapThreaded } from '../efficiency-workers';
+import { efficiencyMapThreaded, mapGridFlags } from '../efficiency-workers';
 import type { Corner } from '../efficiency-grid';
-
-/** Threads by default: the cores there are, at most 4. */
-/**
- * One thread unless asked: measured on two cores, a worker's start and its cold compiler cost more than
- * half of a 100 x 100 map (2 threads 0.71x of 1; 200 x 200 1.06x), so more threads are a choice, not the default.
- */
-export const defaultThreads = (): number => 1;
 
 export const efficiencyCommand: Command = {
   name: 'efficiency',
@@ -23,10 +16,9 @@ export const efficiencyCommand: Command = {
   usage: 'efficiency <project.json> [--speed-points N] [--torque-points N] [--speed-max RPM] [--corner hot|cold] [--min-loss] [--threads N] [--csv FILE] [--json]',
   flags: { 'speed-points': 'number', 'torque-points': 'number', 'speed-max': 'number', corner: 'string', 'min-loss': 'switch', threads: 'number', csv: 'output' },
   async run(p, args, input) {
-    const nS = numberFlag(args, 'speed-points', { min: 2, max: 2000, integer: true }) ?? 50;
-    const nT = numberFlag(args, 'torque-points', { min: 2, max: 2000, integer: true }) ?? 50;
+    // grid and threads (their defaults: src/cli/efficiency-workers.ts)
+    const { nS, nT, threads } = mapGridFlags(args);
     const speedMax = numberFlag(args, 'speed-max', { min: 1, max: PLOT_SPEED_MAX_RPM, unit: 'rpm' });
-    const threads = numberFlag(args, 'threads', { min: 1, max: 64, integer: true }) ?? defaultThreads();
     const cornerText = stringFlag(args, 'corner') ?? 'hot';
     if (cornerText !== 'hot' && cornerText !== 'cold') throw new InputError('--corner', `must be hot or cold (got '${cornerText}')`);
     const corner: Corner = cornerText;

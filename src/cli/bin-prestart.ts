@@ -1,0 +1,6 @@
+// Imported first by the process's entry (src/cli/bin.ts), so that in the bundle this runs before the
+// rest of the command line is evaluated: an efficiency command's workers start now (src/cli/map-prestart.ts).
+import { isMainThread } from 'node:worker_threads';
+import { prestartMapWorkers } from './map-prestart';
+
+if (isMainThread) prestartMapWorkers(process.argv.slice(2));
