@@ -84,6 +84,33 @@ describe('efficiency --json', () => {
     }
     expect(both).toBeGreaterThan(10);
   }, 60_000);
+
+  it('--gain: the loss saved is least-current loss less min-loss loss, never negative, and the map is the min-loss one', async () => {
+    const g = ['--speed-points', '6', '--torque-points', '7', '--threads', '1', '--json'];
+    const a = JSON.parse((await runCli('efficiency', demo('ipm-traction'), ...g)).out);
+    const b = JSON.parse((await runCli('efficiency', demo('ipm-traction'), ...g, '--min-loss')).out);
+    const r = await runCli('efficiency', demo('ipm-traction'), ...g, '--gain');
+    expect(r.code).toBe(0);
+    const d = JSON.parse(r.out);
+    expect(d.summary.control).toBe('min-loss');
+    expect(d.system).toEqual(b.system);
+    const total = (x: any, k: number) => x.copper_W[k] + x.iron_W[k] + x.mechanical_W[k] + x.inverter_W[k];
+    let inside = 0;
+    for (let k = 0; k < d.feasible.length; k++) {
+      if (!d.feasible[k]) { expect(d.gain.lossSaved_W[k]).toBeNull(); continue; }
+      inside++;
+      // the loss saved by the better current over the same output (common practice (no source))
+      expect(d.gain.lossSaved_W[k]).toBeGreaterThanOrEqual(0);
+      expect(d.gain.lossSaved_W[k]).toBeCloseTo(d.gain.lossLeastCurrent_W[k] - d.gain.lossMinLoss_W[k], 9);
+      expect(d.gain.lossMinLoss_W[k] / total(d, k)).toBeCloseTo(1, 12);
+      expect(d.gain.lossLeastCurrent_W[k] / total(a, k)).toBeCloseTo(1, 8);
+    }
+    expect(inside).toBeGreaterThan(10);
+    const best = d.summary.mostLossSaved;
+    expect(best.lossSaved_W).toBe(Math.max(...d.gain.lossSaved_W.filter((x: number | null) => x !== null)));
+    const text = (await runCli('efficiency', demo('ipm-traction'), '--speed-points', '6', '--torque-points', '7', '--gain')).out;
+    expect(text).toMatch(/loss-minimising control saves at most [0-9.]+ W/);
+  }, 60_000);
 });
 
 describe('efficiency text and --csv', () => {
@@ -124,6 +151,7 @@ describe('efficiency: bad options are refused naming them, exit 2, no stack trac
     [['--torque-points', 'many'], /^torquewise: --torque-points must be a number/m],
     [['--speed-max', '-5'], /^torquewise: --speed-max must be >= 1 rpm/m],
     [['--min-loss', 'yes'], /^torquewise: --min-loss takes no value/m],
+    [['--gain', '--min-loss'], /^torquewise: --gain already maps the loss-minimising current/m],
   ];
   for (const [argv, re] of cases) {
     it(argv.join(' '), async () => {

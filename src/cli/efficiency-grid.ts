@@ -1,12 +1,10 @@
 // The efficiency map's rows for the CLI: the map at some speeds of the grid, least-current
-// (steady-state/efficiency-map.ts) or loss-minimising (loss-point.ts per point), at the hot or cold
+// or loss-minimising (steady-state/efficiency-map.ts, either control), at the hot or cold
 // corner. Each speed row depends on that row alone, so rows computed on several threads and put
 // together are identical to the whole map computed on one.
 import type { ResolvedProject } from '../core/project/project';
 import { lossConditionsFromProject } from '../core/project/loss-conditions-from-project';
 import { efficiencyMap, type EfficiencyMap } from '../core/steady-state/efficiency-map';
-import { solveLossPoint } from '../core/steady-state/loss-point';
-import { emptyEfficiencyMap } from '../core/reports/efficiency-map-grid';
 
 export type Corner = 'hot' | 'cold';
 
@@ -25,20 +23,7 @@ export function efficiencyRows(p: ResolvedProject, g: GridSpec, speeds: Float64A
   const model = g.corner === 'hot' ? p.models.hot : p.models.cold;
   const c = lossConditionsFromProject(p);
   if (!g.minLoss) return efficiencyMap(model, p.peak, c, speeds, g.torques);
-  const nT = g.torques.length;
-  const r = emptyEfficiencyMap(speeds, g.torques);
-  for (let i = 0; i < speeds.length; i++) {
-    for (let j = 0; j < nT; j++) {
-      const q = solveLossPoint(model, p.peak, c, speeds[i]!, g.torques[j]!, { minLoss: true });
-      if (!q.feasible) continue;
-      const k = i * nT + j;
-      r.feasible[k] = 1;
-      r.motor[k] = q.efficiency.motor; r.inverter[k] = q.efficiency.inverter; r.system[k] = q.efficiency.system;
-      r.copper[k] = q.losses.copper_W; r.iron[k] = q.losses.iron_W; r.mechanical[k] = q.losses.mechanical_W; r.inverterLoss[k] = q.losses.inverter_W;
-      r.dcPower[k] = q.dcPower_W; r.torqueEm[k] = q.torqueEm_Nm;
-    }
-  }
-  return r;
+  return efficiencyMap(model, p.peak, c, speeds, g.torques, { control: 'min-loss' });
 }
 
 /** The whole map from its row blocks, in speed order (each block's speeds follow the last's). */
