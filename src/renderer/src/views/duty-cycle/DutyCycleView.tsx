@@ -140,14 +140,14 @@ export const DutyCycleView = memo(function DutyCycleView({ results, theme }: { r
               <h4>Summary (last repeat)</h4>
               <table className="data compact">
                 <tbody>
-                  <tr><td>repeats to the periodic state</td><td className="num" data-testid="dc-repeats">{r.repeats}{r.converged ? '' : ' (not converged)'} (last change {num(r.lastChange_K, 3)} K)</td></tr>
-                  <tr><td>RMS torque</td><td className="num" data-testid="dc-rms-torque" data-value={r.rmsTorque_Nm}>{num(r.rmsTorque_Nm)} N·m</td></tr>
-                  <tr><td>RMS current</td><td className="num" data-testid="dc-rms-current" data-value={r.rmsCurrent_A}>{num(r.rmsCurrent_A)} A peak ({num(r.rmsCurrent_A / Math.SQRT2)} A rms); {describeLimit('continuous', project.currentLimits.continuous)}</td></tr>
-                  <tr><td>peak current</td><td className="num" data-testid="dc-peak-current">{num(r.peakCurrent.value)} A peak at {num(r.peakCurrent.t_s)} s; {describeLimit('peak', project.currentLimits.peak)}</td></tr>
+                  <tr><td style={{ whiteSpace: 'nowrap' }}>repeats to the periodic state</td><td data-testid="dc-repeats">{r.repeats}{r.converged ? '' : ' (not converged)'} (last change {num(r.lastChange_K, 3)} K)</td></tr>
+                  <tr><td style={{ whiteSpace: 'nowrap' }}>RMS torque</td><td data-testid="dc-rms-torque" data-value={r.rmsTorque_Nm}>{num(r.rmsTorque_Nm)} N·m</td></tr>
+                  <tr><td style={{ whiteSpace: 'nowrap' }}>RMS current</td><td data-testid="dc-rms-current" data-value={r.rmsCurrent_A}>{num(r.rmsCurrent_A)} A peak ({num(r.rmsCurrent_A / Math.SQRT2)} A rms); {describeLimit('continuous', project.currentLimits.continuous)}</td></tr>
+                  <tr><td style={{ whiteSpace: 'nowrap' }}>peak current</td><td data-testid="dc-peak-current">{num(r.peakCurrent.value)} A peak at {num(r.peakCurrent.t_s)} s; {describeLimit('peak', project.currentLimits.peak)}</td></tr>
                   {(['winding', 'stator', 'magnet', 'junction'] as const).map((k) => (
-                    <tr key={k}><td>peak {TEMP_NAME[k]}</td><td className="num" data-testid={`dc-peak-${k}`} data-value={r.peaks[k].value}>{num(r.peaks[k].value)} °C at {num(r.peaks[k].t_s)} s {limitOf(k) && `(${limitOf(k)})`}</td></tr>
+                    <tr key={k}><td style={{ whiteSpace: 'nowrap' }}>peak {TEMP_NAME[k]}</td><td data-testid={`dc-peak-${k}`} data-value={r.peaks[k].value}>{num(r.peaks[k].value)} °C at {num(r.peaks[k].t_s)} s {limitOf(k) && `(${limitOf(k)})`}</td></tr>
                   ))}
-                  <tr><td>outside the envelope</td><td className="num" data-testid="dc-outside">{r.outside.length === 0 ? 'never' : r.outside.slice(0, 4).map((o) => `${num(o.from_s)}–${num(o.to_s)} s (${o.limitedBy})`).join('; ') + (r.outside.length > 4 ? `; … ${r.outside.length} in all` : '')}</td></tr>
+                  <tr><td style={{ whiteSpace: 'nowrap' }}>outside the envelope</td><td data-testid="dc-outside">{r.outside.length === 0 ? 'never' : r.outside.slice(0, 4).map((o) => `${num(o.from_s)}–${num(o.to_s)} s (${o.limitedBy})`).join('; ') + (r.outside.length > 4 ? `; … ${r.outside.length} in all` : '')}</td></tr>
                 </tbody>
               </table>
             </div>

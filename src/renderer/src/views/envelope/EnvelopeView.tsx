@@ -306,7 +306,7 @@ export const EnvelopeView = memo(function EnvelopeView({ results, opts, setOpts,
         ))}
         {thermal !== undefined && (
           <label title="continuous (S1) torque from the project's thermal network">
-            <input type="checkbox" data-testid="show-s1" checked={showS1} onChange={() => setShowS1((v) => !v)} /> S1 (thermal)
+            <input type="checkbox" data-testid="show-s1" checked={showS1} onChange={() => setShowS1((v) => !v)} /> S1
           </label>
         )}
         <label>
