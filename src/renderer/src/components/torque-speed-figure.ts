@@ -6,7 +6,7 @@ import { describeLimit } from '../../../core/drive/current-limits';
 import type { CurrentLimits } from '../../../core/drive/current-limit-types';
 import { RAD_S_TO_RPM } from '../../../core/base/units';
 import { envelopeBranch } from '../../../core/steady-state/envelope-branch';
-import { axis, baseLayout, CURVE, readTheme, REGION_FILL } from './Plot';
+import { axis, baseLayout, CURVE, readTheme, REGION_FILL } from './plot-style';
 import { pointVerdict, type Curve, type Results } from '../state/compute';
 import { plotText } from './plot-text';
 import { placeSpeedMarks } from './speed-marks';
