@@ -204,7 +204,7 @@ export const EnvelopeView = memo(function EnvelopeView({ results, opts, setOpts,
   // one speed range for the torque and the power plot: a zoom or pan on either applies to both
   const [xRange, setXRange] = useState<SpeedRange | null>(null);
   // the S1 curve (projects with a thermal section): solved off the window's thread after each new set
-  // of curves; the last one stays drawn until the next arrives
+  // of curves (once typing pauses); the last one stays drawn until the next arrives
   const thermal = results.project.thermal;
   const [s1, setS1] = useState<{ s1: DatasheetContinuous; compute_ms: number } | null>(null);
   const [showS1, setShowS1] = useState(true);
@@ -218,7 +218,7 @@ export const EnvelopeView = memo(function EnvelopeView({ results, opts, setOpts,
       startS1(new Worker(new URL('../../workers/thermal-worker.ts', import.meta.url), { type: 'module' }), {
         kind: 's1', projectText: JSON.stringify(results.project.file), speedMax: results.speedMax, points: results.points,
       });
-    }, 60);
+    }, 150);
     return () => clearTimeout(h);
     // eslint-disable-next-line react-hooks/exhaustive-deps
   }, [curves, thermal]);
