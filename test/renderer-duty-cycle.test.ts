@@ -10,7 +10,7 @@ import { evaluateDutyCycle, type DutyCycleResult } from '../src/core/simulation/
 import { computeEnvelope } from '../src/core/steady-state/envelope';
 import { CURVE, type PlotTheme } from '../src/renderer/src/components/plot-style';
 import {
-  cyclePlaneFigure, defaultStep, DRAWN_MAX, drawnInstants, ENERGY_BARS, energyFigure, energyValues_kJ, temperatureFigure, temperatureLimits,
+  cyclePlaneFigure, defaultStep, envelopeLine, DRAWN_MAX, drawnInstants, ENERGY_BARS, energyFigure, energyValues_kJ, temperatureFigure, temperatureLimits,
 } from '../src/renderer/src/views/duty-cycle/duty-cycle-figures';
 
 const theme: PlotTheme = { ink: '#111111', muted: '#666666', line: '#dddddd', panel: '#ffffff', bg: '#f5f5f5', ok: '#2e7d32', bad: '#b3261e', dark: false };
@@ -58,6 +58,21 @@ describe('the cycle on the torque-speed plane', () => {
     // the hot corner after the overload, lowers the envelope a little): common practice (no source)
     for (const y of marked.y) expect(y!).toBeGreaterThan(0.9 * T0);
     for (let k = 0; k < o.t_s.length; k++) if (o.torque_Nm[k]! < 0.5 * T0) expect(o.traces.outside[k]).toBe(0);
+  });
+});
+
+describe('the envelope under a reversing cycle', () => {
+  it('is reflected through the origin for negative speeds, only when the cycle reverses', () => {
+    const fwd = envelopeLine(env.motoring, env.generating);
+    const both = envelopeLine(env.motoring, env.generating, true);
+    expect(both.x.length).toBe(2 * fwd.x.length + 1);
+    const n = fwd.x.length + 1;
+    // reverse motoring: the forward motoring torque with both signs turned (from memory: four-quadrant symmetry of a PMSM drive)
+    expect(both.x[n]).toBe(-fwd.x[0]!);
+    expect(both.y[n]).toBe(-fwd.y[0]!);
+    expect(both.y[n + 10]).toBe(-fwd.y[10]!);
+    const d = cyclePlaneFigure(r, env, theme, col).data as unknown as Tr[];
+    expect(d[0]!.x.length).toBe(fwd.x.length); // the traction demo's cycle never reverses
   });
 });
 

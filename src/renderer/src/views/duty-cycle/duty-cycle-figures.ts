@@ -34,13 +34,19 @@ export function drawnInstants(n: number, keep?: Float64Array): number[] {
 
 const pick = (a: ArrayLike<number>, idx: readonly number[]): number[] => idx.map((k) => a[k]!);
 
-/** The peak envelope (motoring above, generating below) as one line: rpm and N·m, a gap between the branches. */
-function envelopeLine(motoring: Envelope, generating: Envelope): { x: Array<number | null>; y: Array<number | null> } {
+/**
+ * The peak envelope (motoring above, generating below) as one line: rpm and N·m, a gap between the
+ * branches; with `reverse` also its reflection through the origin for negative speeds (the machine's
+ * limits are the same turning backwards: reverse motoring is (−speed, −torque) of forward motoring).
+ */
+export function envelopeLine(motoring: Envelope, generating: Envelope, reverse = false): { x: Array<number | null>; y: Array<number | null> } {
   const x: Array<number | null> = [];
   const y: Array<number | null> = [];
-  for (const e of [motoring, generating]) {
-    if (x.length) { x.push(null); y.push(null); }
-    for (let k = 0; k < e.speed.length; k++) if (e.feasible[k]) { x.push(e.speed[k]! * RAD_S_TO_RPM); y.push(e.torque[k]!); }
+  for (const sign of reverse ? [1, -1] : [1]) {
+    for (const e of [motoring, generating]) {
+      if (x.length) { x.push(null); y.push(null); }
+      for (let k = 0; k < e.speed.length; k++) if (e.feasible[k]) { x.push(sign * e.speed[k]! * RAD_S_TO_RPM); y.push(sign * e.torque[k]!); }
+    }
   }
   return { x, y };
 }
@@ -53,7 +59,9 @@ function envelopeLine(motoring: Envelope, generating: Envelope): { x: Array<numb
 export function cyclePlaneFigure(r: DutyCycleResult, env: { motoring: Envelope; generating: Envelope }, t: PlotTheme, col: CurveColours): Figure {
   const idx = drawnInstants(r.t_s.length);
   const x = pick(r.speed_rpm, idx), y = pick(r.torque_Nm, idx), time = pick(r.t_s, idx);
-  const e = envelopeLine(env.motoring, env.generating);
+  let reverse = false;
+  for (let k = 0; k < r.speed_rpm.length && !reverse; k++) reverse = r.speed_rpm[k]! < 0;
+  const e = envelopeLine(env.motoring, env.generating, reverse);
   const data: Data[] = [
     { type: 'scatter', mode: 'lines', x: e.x, y: e.y, name: 'peak envelope, hot magnet', line: { color: col.hot, width: 2.2 }, hoverinfo: 'skip' },
     { type: 'scatter', mode: 'lines', x, y, name: 'cycle path', line: { color: t.muted, width: 0.8 }, opacity: 0.5, hoverinfo: 'skip', showlegend: false },
@@ -143,7 +151,7 @@ export function energyFigure(r: DutyCycleResult, t: PlotTheme, col: CurveColours
     data: [{
       type: 'bar', x: [...ENERGY_BARS], y,
       marker: { color: [t.ink, t.muted, col.hot, col.volt, col.load, col.cold] },
-      text: y.map((v) => `${v.toFixed(1)} kJ`), textposition: 'outside',
+      text: y.map((v) => `${Number(v.toPrecision(3))} kJ`), textposition: 'outside',
       hovertemplate: '%{x}: %{y:.4g} kJ per cycle<extra></extra>',
     }],
     layout: baseLayout(t, {
