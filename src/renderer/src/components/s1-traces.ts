@@ -1,38 +1,25 @@
 // The continuous (S1) torque curves from the thermal network as torque-speed (and power-speed)
 // traces: one trace per run of the same binding limit, its line style naming the limit (one legend
 // entry per limit kind), each point's hover text naming the limit and the temperatures reached. No
-// physics here: the points come from the core (core/reports/datasheet-parts.ts, datasheetContinuousOf).
+// physics here: the points come from the core (core/reports/datasheet-parts.ts, datasheetContinuousOf),
+// split into runs as the datasheet's charts split them (core/reports/continuous-series.ts).
 import type { Data } from 'plotly.js-dist-min';
 import type { ContinuousLimit, ContinuousPoint } from '../../../core/steady-state/continuous-torque';
 import type { DatasheetContinuous } from '../../../core/reports/datasheet-parts';
+import { CONTINUOUS_LIMIT_NAME, continuousName, continuousRuns } from '../../../core/reports/continuous-series';
 
-export const S1_LIMIT_NAME: Record<ContinuousLimit, string> = {
-  winding: 'winding temperature',
-  magnet: 'magnet temperature',
-  junction: 'inverter junction temperature',
-  current: 'continuous current',
-  voltage: 'voltage',
-};
+export const S1_LIMIT_NAME = CONTINUOUS_LIMIT_NAME;
 
 export const S1_DASH: Record<ContinuousLimit, string> = { winding: 'solid', magnet: 'dash', junction: 'dot', current: 'longdash', voltage: 'dashdot' };
 
 /** The legend name of the S1 runs bound by a limit. */
-export const s1Name = (l: ContinuousLimit): string => `S1 continuous (thermal): ${S1_LIMIT_NAME[l]} limit`;
+export const s1Name = continuousName;
 
 /** Marks a power trace whose legend entry stays hidden (another run of the same limit carries it). */
 export const S1_NO_LEGEND = 's1-no-legend';
 
-/** Runs of points bound by the same limit, as index ranges [k0, k1]; a run after the first starts at the last point of the one before, so the line is unbroken. */
-export function s1Runs(points: readonly ContinuousPoint[]): Array<{ limit: ContinuousLimit; k0: number; k1: number }> {
-  const runs: Array<{ limit: ContinuousLimit; k0: number; k1: number }> = [];
-  for (let k = 0; k < points.length; k++) {
-    const l = points[k]!.limitedBy;
-    const last = runs[runs.length - 1];
-    if (last && last.limit === l) last.k1 = k;
-    else runs.push({ limit: l, k0: last ? k - 1 : k, k1: k });
-  }
-  return runs;
-}
+/** Runs of points bound by the same limit (the core's rule, shared with the datasheet). */
+export const s1Runs = continuousRuns;
 
 const t1 = (x: number): string => (Number.isFinite(x) ? x.toFixed(1) : '–');
 
