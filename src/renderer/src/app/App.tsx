@@ -1,5 +1,5 @@
-// Torquewise main window: the input side on the left, five views on the right (a fifth, the flux map,
-// for a project that carries one).
+// Torquewise main window: the input side on the left, the views on the right (the flux map only for a
+// project that carries one; the duty cycle only for one with a thermal network and a duty cycle).
 import { useCallback, useEffect, useMemo, useRef, useState } from 'react';
 import { checkProject, listCapProblem } from '../../../core/project/schema';
 import { migrateProject } from '../../../core/project/migrate';
