@@ -14,6 +14,7 @@ import { figureConditions, MODULATION_WORDS, limitWords } from './figure-conditi
 import { SAFETY_CAUTION } from '../steady-state/safety';
 import { escapeXml as esc, svgChart, type ChartMarker, type ChartSeries } from './svg-chart';
 import { efficiencyMapChart } from './efficiency-map-chart';
+import { continuousSeries } from './continuous-series';
 import { datasheetEfficiencySummary, type EfficiencyPeak } from './datasheet-efficiency';
 import { RAD_S_TO_RPM, SQRT2 } from '../base/units';
 import { TOOL_NAME, TOOL_VERSION } from '../base/version';
@@ -35,6 +36,7 @@ export const DATASHEET_COLOURS = {
   'peak-cold': '#0b5cad',
   'continuous-hot': '#d9711c',
   'continuous-cold': '#23858d',
+  s1: '#00695c',
   met: '#1f7a33',
   notMet: '#b3261e',
 } as const;
@@ -136,6 +138,8 @@ function branches(r: DatasheetResults, quantity: 'torque' | 'power'): { series: 
       }
     }
   }
+  // the S1 curves of a file with a thermal network (none otherwise: the charts as before)
+  if (r.continuous) series.push(...continuousSeries(r.continuous, quantity, DATASHEET_COLOURS.s1));
   // one label where the motoring and generating ends of a curve nearly meet
   const span = r.speedMax * RAD_S_TO_RPM;
   for (let i = 0; i < ends.length; i++) {

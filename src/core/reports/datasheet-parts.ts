@@ -16,6 +16,9 @@ import { projectSpeedRange } from './speed-range';
 import type { DatasheetCurve, DatasheetResults, DatasheetResultsOptions } from './datasheet-results';
 import type { EfficiencyGridSpec } from './efficiency-map-grid';
 import { datasheetEfficiency, datasheetEfficiencyGrid, type DatasheetEfficiency } from './datasheet-efficiency';
+import { lossConditionsFromProject } from '../project/loss-conditions-from-project';
+import { temperatureModelFromProject } from '../project/temperature-model-from-project';
+import { continuousTorqueCurve, type ContinuousPoint } from '../steady-state/continuous-torque';
 
 export type DatasheetCurves = Pick<DatasheetResults, 'project' | 'speedMax' | 'curves' | 'constantsHot' | 'constantsCold'>;
 export type DatasheetVerdicts = Pick<DatasheetResults, 'sizing' | 'sizingCold' | 'safety' | 'safetySpeed'>;
@@ -62,4 +65,24 @@ export function datasheetEfficiencyGridOf(c: Pick<DatasheetCurves, 'project' | '
 export function datasheetEfficiencyOf(c: Pick<DatasheetCurves, 'project' | 'speedMax' | 'curves'>): DatasheetEfficiency | null {
   const grid = datasheetEfficiencyGridOf(c);
   return grid === null ? null : datasheetEfficiency(c.project, grid);
+}
+
+/** The continuous (S1) torque curves from the thermal network, motoring and generating, over the speed range. */
+export interface DatasheetContinuous {
+  motoring: ContinuousPoint[];
+  generating: ContinuousPoint[];
+}
+
+/**
+ * The S1 curves of a file with a `thermal` section (null without one): at `points` speeds from 0 to
+ * `speedMax` (rad/s), the largest continuous shaft torque within every temperature limit and the
+ * continuous drive limits, each point naming the limit that binds it (continuous-torque.ts).
+ */
+export function datasheetContinuousOf(p: ResolvedProject, speedMax: number, points: number): DatasheetContinuous | null {
+  if (p.thermal === undefined) return null;
+  const n = Math.max(2, Math.floor(points));
+  const speeds = Float64Array.from({ length: n }, (_, k) => (speedMax * k) / (n - 1));
+  const c = lossConditionsFromProject(p);
+  const curve = (d: 'motoring' | 'generating') => continuousTorqueCurve(temperatureModelFromProject(p), p.thermal!, p.continuous, c, speeds, d);
+  return { motoring: curve('motoring'), generating: curve('generating') };
 }

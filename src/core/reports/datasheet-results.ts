@@ -11,7 +11,7 @@ import type { DerivedConstants } from '../machine/nameplate';
 import type { SizingResult } from '../steady-state/sizing';
 import type { SafetyReport } from '../steady-state/safety';
 import type { DatasheetEfficiency } from './datasheet-efficiency';
-import { datasheetCurves, datasheetEfficiencyOf, datasheetVerdicts } from './datasheet-parts';
+import { datasheetCurves, datasheetEfficiencyOf, datasheetVerdicts, type DatasheetContinuous } from './datasheet-parts';
 
 export interface DatasheetCurve {
   corner: 'hot' | 'cold';
@@ -36,6 +36,8 @@ export interface DatasheetResults {
   safetySpeed: number;
   /** the system-efficiency map (datasheet-efficiency.ts) of a file with a `losses` section; absent or null: no map */
   efficiency?: DatasheetEfficiency | null;
+  /** the continuous (S1) torque curves (datasheet-parts.ts) of a file with a `thermal` section, drawn on the torque and power charts; absent or null: none */
+  continuous?: DatasheetContinuous | null;
 }
 
 export interface DatasheetResultsOptions {

@@ -1,5 +1,5 @@
-// Torquewise main window: the input side on the left, five views on the right (a fifth, the flux map,
-// for a project that carries one).
+// Torquewise main window: the input side on the left, the views on the right (the flux map only for a
+// project that carries one; the duty cycle only for one with a thermal network and a duty cycle).
 import { useCallback, useEffect, useMemo, useRef, useState } from 'react';
 import { checkProject, listCapProblem } from '../../../core/project/schema';
 import { migrateProject } from '../../../core/project/migrate';
@@ -21,6 +21,7 @@ import { TuningView } from '../views/tuning/TuningView';
 import { DatasheetView } from '../views/datasheet/DatasheetView';
 import { FluxMapView } from '../views/flux-map/FluxMapView';
 import { EfficiencyView } from '../views/efficiency/EfficiencyView';
+import { DutyCycleView } from '../views/duty-cycle/DutyCycleView';
 import { fluxMapOf } from '../views/flux-map/flux-map-data';
 import { envelopeCsv, tracesCsv } from '../components/exports';
 import { exportDatasheetHtml, exportVisiblePlot } from '../components/image-export';
@@ -28,10 +29,11 @@ import { limitPhrase } from '../../../core/reports/phrases';
 import { FieldNotesContext, FindingsStrip, findingsKey, notesByPath } from '../components/field-notes';
 import { num } from '../components/format';
 
-type View = 'envelope' | 'efficiency' | 'fluxmap' | 'loadsteps' | 'tuning' | 'datasheet';
+type View = 'envelope' | 'efficiency' | 'dutycycle' | 'fluxmap' | 'loadsteps' | 'tuning' | 'datasheet';
 const VIEWS: Array<[View, string]> = [
   ['envelope', 'Envelope'],
   ['efficiency', 'Efficiency'],
+  ['dutycycle', 'Duty cycle'],
   ['fluxmap', 'Flux map'],
   ['loadsteps', 'Load steps'],
   ['tuning', 'Tuning'],
@@ -255,8 +257,10 @@ export function App() {
   const results: Results | null = useMemo(() => (envelopes && verdicts ? { ...envelopes, ...verdicts } : null), [envelopes, verdicts]);
   // the flux-map tab only for a project that carries a map; its view falls back to the envelope otherwise
   const hasMap = fluxMapOf(results?.project) !== null;
-  const views = hasMap ? VIEWS : VIEWS.filter(([v]) => v !== 'fluxmap');
-  const shown: View = view === 'fluxmap' && !hasMap ? 'envelope' : view;
+  // the duty-cycle tab only for a project with both a thermal network and a duty cycle
+  const hasCycle = results?.project.thermal !== undefined && results?.project.dutyCycle !== undefined;
+  const views = VIEWS.filter(([v]) => (v !== 'fluxmap' || hasMap) && (v !== 'dutycycle' || hasCycle));
+  const shown: View = (view === 'fluxmap' && !hasMap) || (view === 'dutycycle' && !hasCycle) ? 'envelope' : view;
 
 
   const load = useCallback((text: string, src: { name: string; path: string | null; demo: boolean; readOnly: boolean }, message?: string) => {
@@ -469,6 +473,8 @@ export function App() {
                 <EnvelopeView results={results} opts={envOpts} setOpts={setEnvOpts} theme={theme} />
               ) : shown === 'efficiency' ? (
                 <EfficiencyView results={results} theme={theme} />
+              ) : shown === 'dutycycle' ? (
+                <DutyCycleView results={results} theme={theme} />
               ) : shown === 'fluxmap' ? (
                 <FluxMapView project={results.project} theme={theme} />
               ) : shown === 'loadsteps' ? (

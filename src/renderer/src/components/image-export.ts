@@ -10,7 +10,7 @@ import { dataUrlToBytes, svgDataUrlToText } from '../state/file-bridge';
 import type { Exporter } from '../state/exporter';
 import { EXPORT_SIZE, exportLayout } from './figure-export-layout';
 
-const PLOTS = ['envelope-plot', 'datasheet-plot', 'traces-plot', 'bode-plot', 'plane-plot', 'fluxmap-psid-plot', 'efficiency-plot'];
+const PLOTS = ['envelope-plot', 'datasheet-plot', 'traces-plot', 'bode-plot', 'plane-plot', 'fluxmap-psid-plot', 'efficiency-plot', 'duty-plane-plot'];
 
 /** What each plot shows, for the exported image's title. */
 const PLOT_TITLES: Record<string, string> = {
@@ -25,6 +25,7 @@ const PLOT_TITLES: Record<string, string> = {
   'fluxmap-plane': 'flux map, MTPA and constant torque on the current plane',
   'fluxmap-inductance': 'flux map, apparent and incremental inductances along MTPA',
   efficiency: 'efficiency over speed and shaft torque',
+  'duty-plane': 'duty cycle on the torque-speed plane over the hot peak envelope',
   'efficiency-system': 'system efficiency (DC link to shaft) over speed and shaft torque',
   'efficiency-motor': 'motor efficiency over speed and shaft torque',
   'efficiency-inverter': 'inverter efficiency over speed and shaft torque',

@@ -15,8 +15,8 @@ export interface PlotTheme {
 
 /** Colours of the curves: chosen for contrast on both themes. */
 export const CURVE = {
-  light: { hot: '#b3261e', cold: '#0b5cad', hotCont: '#e27a2f', coldCont: '#3aa0a8', mtpa: '#6a3d9a', mtpv: '#c51b7d', volt: '#2e7d32', iq: '#0b5cad', id: '#b3261e', ref: '#555555', a: '#b3261e', b: '#2e7d32', c: '#0b5cad', load: '#8d6e00' },
-  dark: { hot: '#ff7b72', cold: '#79c0ff', hotCont: '#ffb36b', coldCont: '#7ee0e6', mtpa: '#d2a8ff', mtpv: '#ff8ccf', volt: '#7ee787', iq: '#79c0ff', id: '#ff7b72', ref: '#bbbbbb', a: '#ff7b72', b: '#7ee787', c: '#79c0ff', load: '#f2cc60' },
+  light: { hot: '#b3261e', cold: '#0b5cad', hotCont: '#e27a2f', coldCont: '#3aa0a8', mtpa: '#6a3d9a', mtpv: '#c51b7d', volt: '#2e7d32', iq: '#0b5cad', id: '#b3261e', ref: '#555555', a: '#b3261e', b: '#2e7d32', c: '#0b5cad', load: '#8d6e00', s1: '#00695c' },
+  dark: { hot: '#ff7b72', cold: '#79c0ff', hotCont: '#ffb36b', coldCont: '#7ee0e6', mtpa: '#d2a8ff', mtpv: '#ff8ccf', volt: '#7ee787', iq: '#79c0ff', id: '#ff7b72', ref: '#bbbbbb', a: '#ff7b72', b: '#7ee787', c: '#79c0ff', load: '#f2cc60', s1: '#4dd0b1' },
 } as const;
 export type CurveColours = (typeof CURVE)['light'] | (typeof CURVE)['dark'];
 

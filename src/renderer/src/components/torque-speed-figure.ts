@@ -6,11 +6,13 @@ import { describeLimit } from '../../../core/drive/current-limits';
 import type { CurrentLimits } from '../../../core/drive/current-limit-types';
 import { RAD_S_TO_RPM } from '../../../core/base/units';
 import { envelopeBranch } from '../../../core/steady-state/envelope-branch';
-import { axis, baseLayout, CURVE, readTheme, REGION_FILL } from './Plot';
+import { axis, baseLayout, CURVE, readTheme, REGION_FILL } from './plot-style';
 import { pointVerdict, type Curve, type Results } from '../state/compute';
 import { plotText } from './plot-text';
 import { placeSpeedMarks } from './speed-marks';
 import { chooseTextPositions, textBox, type Box, type TextPosition } from './label-layout';
+import type { DatasheetContinuous } from '../../../core/reports/datasheet-parts';
+import { S1_NO_LEGEND, s1Traces } from './s1-traces';
 const REGION_NAME = { mtpa: 'MTPA', 'field-weakening': 'field weakening', mtpv: 'MTPV' } as const;
 
 export type Show = { peak: boolean; continuous: boolean; hot: boolean; cold: boolean; generating: boolean };
@@ -41,7 +43,11 @@ export function regionRuns(r: Results): Array<{ region: keyof typeof REGION_NAME
   return runs;
 }
 
-export function torqueSpeedFigure(r: Results, theme: 'light' | 'dark', show: Show, withPower: boolean, plotWidth_px = 460): { data: Data[]; layout: Layout } {
+/**
+ * The figure; `s1` (the continuous torque from the thermal network, when the project has one) adds
+ * its curves after the envelopes', drawn with the continuous curves (show.continuous).
+ */
+export function torqueSpeedFigure(r: Results, theme: 'light' | 'dark', show: Show, withPower: boolean, plotWidth_px = 460, s1: DatasheetContinuous | null = null): { data: Data[]; layout: Layout } {
   const t = readTheme();
   const col = CURVE[theme];
   const data: Data[] = [];
@@ -110,6 +116,7 @@ export function torqueSpeedFigure(r: Results, theme: 'light' | 'dark', show: Sho
       }
     }
   }
+  if (s1 && show.continuous) data.push(...s1Traces(s1, col.s1, show.generating, withPower));
   data.push(...endMarks);
   const runs = regionRuns(r);
   const fill = REGION_FILL[theme];
@@ -278,9 +285,9 @@ export function torqueSpeedFigure(r: Results, theme: 'light' | 'dark', show: Sho
 }
 
 /** The power-speed plot: the power traces of the combined figure on their own axes, with the legend. */
-export function powerSpeedFigure(r: Results, theme: 'light' | 'dark', show: Show): { data: Data[]; layout: Layout } {
-  const both = torqueSpeedFigure(r, theme, show, true);
-  const data = both.data.filter((d) => d.yaxis === 'y2').map((d) => ({ ...d, yaxis: 'y', showlegend: true }));
+export function powerSpeedFigure(r: Results, theme: 'light' | 'dark', show: Show, s1: DatasheetContinuous | null = null): { data: Data[]; layout: Layout } {
+  const both = torqueSpeedFigure(r, theme, show, true, 460, s1);
+  const data = both.data.filter((d) => d.yaxis === 'y2').map((d) => ({ ...d, yaxis: 'y', showlegend: (d as { meta?: unknown }).meta !== S1_NO_LEGEND }));
   const l = both.layout as Record<string, any>;
   const layout: Layout = {
     ...l,
@@ -296,8 +303,8 @@ export function powerSpeedFigure(r: Results, theme: 'light' | 'dark', show: Show
 }
 
 /** The torque-speed plot alone, without a legend (the power plot below carries it). */
-export function torqueOnlyFigure(r: Results, theme: 'light' | 'dark', show: Show): { data: Data[]; layout: Layout } {
-  const f = torqueSpeedFigure(r, theme, show, false);
+export function torqueOnlyFigure(r: Results, theme: 'light' | 'dark', show: Show, s1: DatasheetContinuous | null = null): { data: Data[]; layout: Layout } {
+  const f = torqueSpeedFigure(r, theme, show, false, 460, s1);
   // the top margin holds the plot's toolbar, clear of the region labels along the top edge
   return { data: f.data, layout: { ...f.layout, showlegend: false, margin: { l: 70, r: 16, t: 30, b: 40 } } };
 }

@@ -1,7 +1,12 @@
 // Envelope view: torque-speed and power-speed (peak and continuous, motoring and generating, hot and
-// cold), requirement points, region bands, base and maximum speed; beside it the current plane.
+// cold), requirement points, region bands, base and maximum speed; for a project with a `thermal`
+// section also the continuous (S1) torque from the thermal network, its binding limit named (solved in
+// the thermal worker: about 0.2 s for a flux-map machine); beside it the current plane.
 import { describeLimit, describeLimits } from '../../../../core/drive/current-limits';
-import { memo, useCallback, useMemo, useRef, useState } from 'react';
+import { memo, useCallback, useEffect, useMemo, useRef, useState } from 'react';
+import type { DatasheetContinuous } from '../../../../core/reports/datasheet-parts';
+import { useWorkerRun } from '../../state/worker-run';
+import type { S1Done, ThermalRequest } from '../../workers/thermal-protocol';
 import type { Data, Layout } from 'plotly.js-dist-min';
 import { solveOperatingPoint } from '../../../../core/steady-state/operating-point';
 import { constantTorqueIq, mtpaCurrentForTorque } from '../../../../core/steady-state/mtpa';
@@ -198,8 +203,28 @@ export const EnvelopeView = memo(function EnvelopeView({ results, opts, setOpts,
   const speeds = useMemo(() => parseSpeeds(speedText ?? defaultSpeeds(late)), [speedText, lateCurves]);
   // one speed range for the torque and the power plot: a zoom or pan on either applies to both
   const [xRange, setXRange] = useState<SpeedRange | null>(null);
-  const fig0 = useMemo(() => torqueOnlyFigure(results, theme, show), [curves, marksKey, theme, show]);
-  const pfig0 = useMemo(() => powerSpeedFigure(late, theme, show), [lateCurves, theme, show]);
+  // the S1 curve (projects with a thermal section): solved off the window's thread after each new set
+  // of curves (once typing pauses); the last one stays drawn until the next arrives
+  const thermal = results.project.thermal;
+  const [s1, setS1] = useState<{ s1: DatasheetContinuous; compute_ms: number } | null>(null);
+  const [showS1, setShowS1] = useState(true);
+  const { run: s1Run, start: startS1 } = useWorkerRun<ThermalRequest, S1Done>('continuous-torque', (m) => setS1(m.s1 ? { s1: m.s1, compute_ms: m.compute_ms } : null));
+  useEffect(() => {
+    if (thermal === undefined) {
+      setS1(null);
+      return;
+    }
+    const h = setTimeout(() => {
+      startS1(new Worker(new URL('../../workers/thermal-worker.ts', import.meta.url), { type: 'module' }), {
+        kind: 's1', projectText: JSON.stringify(results.project.file), speedMax: results.speedMax, points: results.points,
+      });
+    }, 150);
+    return () => clearTimeout(h);
+    // eslint-disable-next-line react-hooks/exhaustive-deps
+  }, [curves, thermal]);
+  const s1Shown = thermal !== undefined && showS1 ? (s1?.s1 ?? null) : null;
+  const fig0 = useMemo(() => torqueOnlyFigure(results, theme, show, s1Shown), [curves, marksKey, theme, show, s1Shown]);
+  const pfig0 = useMemo(() => powerSpeedFigure(late, theme, show, s1Shown), [lateCurves, theme, show, s1Shown]);
   const fig = useMemo(() => ({ data: fig0.data, layout: withXRange(fig0.layout, xRange) }), [fig0, xRange]);
   const pfig = useMemo(() => ({ data: pfig0.data, layout: withXRange(pfig0.layout, xRange) }), [pfig0, xRange]);
   const onSpeedZoom = useCallback((ev: Record<string, unknown>) => {
@@ -279,6 +304,11 @@ export const EnvelopeView = memo(function EnvelopeView({ results, opts, setOpts,
             <input type="checkbox" checked={show[k]} onChange={() => toggle(k)} /> {label}
           </label>
         ))}
+        {thermal !== undefined && (
+          <label title="continuous (S1) torque from the project's thermal network">
+            <input type="checkbox" data-testid="show-s1" checked={showS1} onChange={() => setShowS1((v) => !v)} /> S1
+          </label>
+        )}
         <label>
           plot to{' '}
           <input
@@ -317,6 +347,16 @@ export const EnvelopeView = memo(function EnvelopeView({ results, opts, setOpts,
             <span style={{ color: CURVE[theme].coldCont }}>┅ continuous, cold</span>
             <span>● met ✕ not met</span>
           </div>
+          {thermal !== undefined && (
+            <div className="key" aria-label="S1 key" data-testid="s1-key" data-ready={s1 ? 'yes' : 'no'}>
+              <span style={{ color: CURVE[theme].s1 }}>
+                ━ S1 continuous (thermal), coolant {num(thermal.coolantTemp_C)} °C: line style names the binding limit (━ winding, ╌ magnet, ┈ junction, ▬ ▬ current, ─·─ voltage; hover for the temperatures)
+              </span>
+              <span data-testid="s1-status">
+                {s1Run.kind === 'error' ? `S1 curve: ${s1Run.message}` : s1Run.kind === 'running' && !s1 ? 'S1 curve: computing…' : s1 ? `S1 curve in ${s1.compute_ms.toFixed(0)} ms (background)` : ''}
+              </span>
+            </div>
+          )}
           <div className="key" aria-label="current limits" data-testid="envelope-limits">
             <span>{describeLimits(results.project.currentLimits)}</span>
           </div>
