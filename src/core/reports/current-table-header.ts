@@ -4,7 +4,7 @@
  * axis, and per corner the largest motoring and generating torque per row and i_d, i_q as
  * [speed][torque]), the units, the project's name, the date, the control rule, the bus it was built
  * at and the stated error bound in a comment. Every number is the float32 value the table holds,
- * written with 9 significant digits (enough to read back the same float32). Names are prefixed TWCT_
+ * written with 9 significant digits (enough to read back the same float32); a bound rounded up. Names are prefixed TWCT_
  * (macros) and twct_ (arrays). Common practice (no source).
  */
 import type { CurrentTable } from '../control/current-table';
@@ -40,6 +40,27 @@ export function cFloat(x: number): string {
   if (!Number.isFinite(f)) throw new RangeError(`not a finite float: ${x}`);
   const s = f === 0 ? '0' : f.toPrecision(9);
   return `${s.includes('.') || s.includes('e') ? s : `${s}.0`}f`;
+}
+
+/** The next float32 above the float32 f. */
+function nextFloatUp(f: number): number {
+  if (f === 0) return 1.401298464324817e-45;
+  const b = new Float32Array([f]);
+  const u = new Uint32Array(b.buffer);
+  if (f > 0) u[0]! += 1; else u[0]! -= 1;
+  return b[0]!;
+}
+
+/**
+ * A float literal for a bound: both its decimal text and the float32 a compiler makes of it are >= x
+ * (a bound stays a bound once written and rounded to float).
+ */
+export function cFloatUp(x: number): string {
+  let f = Math.fround(x);
+  if (f < x) f = nextFloatUp(f);
+  let s = cFloat(f);
+  for (let k = 0; k < 4 && Number(s.slice(0, -1)) < x; k++) { f = nextFloatUp(f); s = cFloat(f); }
+  return s;
 }
 
 const list = (a: ArrayLike<number>, from: number, to: number): string => {
@@ -90,9 +111,9 @@ export function currentTableHeader(t: CurrentTable, about: CurrentTableAbout): s
     `#define TWCT_X_MAX ${cFloat(t.xMax)} /* rad/s per V, the speed axis runs uniformly from 0 */`,
     `#define TWCT_TORQUE_PEAK ${cFloat(t.torquePeak)} /* N*m, the torque axis runs uniformly from -peak to +peak */`,
     `#define TWCT_DEVICE_DROP_V ${cFloat(about.deviceDrop)} /* V, one conducting device */`,
-    `#define TWCT_BOUND_TORQUE_NM ${cFloat(b.torque_Nm)}`,
-    `#define TWCT_BOUND_CURRENT_A ${cFloat(b.current_A)}`,
-    `#define TWCT_BOUND_VOLTAGE_V ${cFloat(b.voltage_V)}`,
+    `#define TWCT_BOUND_TORQUE_NM ${cFloatUp(b.torque_Nm)}`,
+    `#define TWCT_BOUND_CURRENT_A ${cFloatUp(b.current_A)}`,
+    `#define TWCT_BOUND_VOLTAGE_V ${cFloatUp(b.voltage_V)}`,
     '',
     ...vector('twct_speed_axis', 'TWCT_SPEED_POINTS', t.x, 'speed measure x, electrical rad/s per V of effective bus'),
     ...vector('twct_torque_axis', 'TWCT_TORQUE_POINTS', t.torque, 'electromagnetic torque, N*m'),
