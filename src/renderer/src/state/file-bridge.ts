@@ -37,6 +37,7 @@ const MIME: Record<ExportKind, string> = {
   'plot-svg': 'image/svg+xml',
   datasheet: 'text/html',
   'efficiency-csv': 'text/csv',
+  'current-table-header': 'text/x-c',
 };
 
 function download(data: string | Uint8Array, name: string, mime: string): void {
