@@ -12,6 +12,7 @@ import { efficiencyCommand } from './efficiency';
 import { continuousCommand } from './continuous';
 import { overloadCommand } from './overload';
 import { dutyCycleCommand } from './duty-cycle';
+import { currentTableCommand } from './current-table';
 
 /** Every command of the CLI, in the order `help` lists them. Add a command by importing it here. */
 export const COMMANDS: Command[] = [
@@ -25,6 +26,7 @@ export const COMMANDS: Command[] = [
   sizeCommand,
   simulateCommand,
   tuneCommand,
+  currentTableCommand,
   datasheetCommand,
   importFluxMapCommand,
   importDutyCycleCommand,

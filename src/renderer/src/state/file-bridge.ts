@@ -38,6 +38,7 @@ const MIME: Record<ExportKind, string> = {
   datasheet: 'text/html',
   'efficiency-csv': 'text/csv',
   'duty-cycle-csv': 'text/csv',
+  'current-table-header': 'text/x-c',
 };
 
 function download(data: string | Uint8Array, name: string, mime: string): void {

@@ -9,6 +9,7 @@ import { axis, baseLayout, CURVE, Plot, readTheme } from '../../components/Plot'
 import { num } from '../../components/format';
 import { CONTROL_SUMMARY, InputSummary } from '../../components/input-summary';
 import { GainScheduleCard } from './GainScheduleCard';
+import { CurrentTableCard } from './CurrentTableCard';
 
 /** The controller inputs the tuning depends on (shown read-only; edited in the side panel). */
 const TUNING_INPUTS = ['control.fCtrl_Hz', 'control.delaySamples', 'control.currentBandwidth_Hz', 'control.speedBandwidth_Hz', 'control.speedTuning.method', 'control.speedTuning.a', 'control.speedLoopDivider'];
@@ -160,6 +161,7 @@ export const TuningView = memo(function TuningView({ project, theme }: { project
             ))}
           </div>
           {project.models.hot.linear === null && <GainScheduleCard project={project} theme={theme} />}
+          <CurrentTableCard project={project} />
         </div>
         <div className="card">
           <h4>Open loops: gain and phase</h4>
