@@ -93,6 +93,10 @@ class CurrentSearch {
     this.ok = false;
     for (let it = 0; it < MAX_COUPLED; it++) {
       this.tm.setTemperatures(x0, x1 + off);
+      // the numeric path keeps the torque maxima along the current circle for the model object it
+      // found them on; re-tempering changes that object's flux in place, so they are found again
+      const nw = this.ms.numeric;
+      if (nw !== null) nw.circle.model = null;
       maxTorqueCore(m, this.lim.Vmax, I, this.we, this.sign, this.ms);
       if (!this.ms.ok) return 1;
       pointLosses(m, this.c, this.w, this.ms.id, this.ms.iq, this.sc);
