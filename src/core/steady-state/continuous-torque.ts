@@ -9,7 +9,10 @@
  * torque: at I the point is one max-torque solve (max-torque.ts) on the re-tempered model, its losses
  * heat the network, and the coupled temperatures follow by the copper-tracking iteration of
  * thermal-steady-state.ts (at a held current the only coupling left is the iron loss through the
- * magnet's flux: a few steps to 1e-6 K). The shaft torque is T_em - (P_fe + P_mech) / w. The margin
+ * magnet's flux: a few steps, to a step of 1e-9 K, so that the start, the state the previous current
+ * or speed left, leaves no trace beyond it; a current the machine cannot drive at the start's
+ * temperatures is tried once more from the hottest ones within the limits, the steady state being
+ * hot and a hotter magnet having less back-EMF). The shaft torque is T_em - (P_fe + P_mech) / w. The margin
  * phi(I) = min over the rated limits of (T_max - T) / (T_max - T_coolant) falls with I; when it is
  * still >= 0 at Icont the current binds (or the voltage, when the largest torque at Icont is the
  * MTPV point, drawing less than Icont: the coupled state reported is the MTPV point's; the torque
@@ -18,7 +21,12 @@
  * MTPV state, the torque is exact); else its root is found by the Illinois variant of regula falsi
  * (Dowell and Jarratt (1971), A modified regula falsi method for computing the root of an equation,
  * BIT 11) from a bracket around the previous speed's current (warm start), widened until it brackets,
- * to |phi| (T_max - T_coolant) <= 1e-4 K. A current whose largest torque is below zero at that speed
+ * to |phi| (T_max - T_coolant) <= 1e-7 K. So a point does not depend on the speeds solved before it:
+ * its temperatures agree to 1e-6 K (THERMAL_TOL_K) and its torque to about 1e-9 relative with those
+ * of the same speed solved alone (checked on the demos). The binding limit on a tie is named by a
+ * fixed rule on the converged state: winding before magnet before junction on equal margins, and at
+ * Icont 'voltage' when the largest torque at Icont is the MTPV point (or the coupled torque falls
+ * over the last 1e-4 of the current, foldOr), else 'current'. A current whose largest torque is below zero at that speed
  * (field weakening needs more current) counts as cool (phi = +1): the torque grows with the current.
  * Where the coupled shaft torque falls as the current rises to the bound found (the hot magnet's
  * lower flux costing more than the current adds), the largest torque lies below it, bound by the
@@ -58,8 +66,10 @@ export interface ContinuousPoint {
   junctionTemp_C: number;
 }
 
-/** Root tolerance of the binding temperature, K. */
-export const CONTINUOUS_TOL_K = 1e-4;
+/** Root tolerance of the binding temperature, K (a tenth of the coupled state's THERMAL_TOL_K). */
+export const CONTINUOUS_TOL_K = 1e-7;
+/** The coupled state at a held current is iterated until its step is below this, K (from any start it is then within THERMAL_TOL_K / 1000). */
+const COUPLED_TOL_K = 1e-9;
 const MAX_COUPLED = 40;
 const MAX_ROOT = 60;
 const WARM = 0.02;
@@ -89,22 +99,34 @@ class CurrentSearch {
   /** The coupled state at current I (from the last temperatures); returns the margin phi (+1 when no torque of the sign at I, -1 at runaway). */
   margin(I: number): number {
     const net = this.net, off = net.magnetAboveStator_K, m = this.tm.model, h = this.h;
-    let x0 = this.Tw, x1 = this.Tst;
+    let x0 = this.Tw, x1 = this.Tst, hot = false;
     this.ok = false;
-    for (let it = 0; it < MAX_COUPLED; it++) {
+    for (let it = 0, prev = Infinity; it < MAX_COUPLED; it++) {
       this.tm.setTemperatures(x0, x1 + off);
       // the numeric path keeps the torque maxima along the current circle for the model object it
       // found them on; re-tempering changes that object's flux in place, so they are found again
       const nw = this.ms.numeric;
       if (nw !== null) nw.circle.model = null;
       maxTorqueCore(m, this.lim.Vmax, I, this.we, this.sign, this.ms);
-      if (!this.ms.ok) return 1;
+      if (!this.ms.ok) {
+        // no torque of the sign at I and these temperatures: a hotter magnet (less flux, less
+        // back-EMF) may make it, and the steady state is hot. Once, from the hottest temperatures
+        // within the limits, whatever the start: the iterates then cool towards the steady state
+        // from above, and the answer does not depend on where the previous solve left them
+        if (hot) return 1;
+        hot = true; it = 0; prev = Infinity;
+        x0 = net.windingMax_C; x1 = net.magnetMax_C - off;
+        continue;
+      }
       pointLosses(m, this.c, this.w, this.ms.id, this.ms.iq, this.sc);
       const r = this.sc.r;
       if (!copperTrackingSteady(net, r[PL.copper]!, r[PL.iron]!, x0, this.rpm, h)) return -1;
       const step = Math.max(Math.abs(h[0]! - x0), Math.abs(h[1]! - x1));
       x0 = h[0]!; x1 = h[1]!;
-      if (step <= THERMAL_TOL_K) break;
+      // converged well inside the thermal tolerance (the start, the previous current's state, must
+      // leave no trace), or at rounding level where the steps stop shrinking
+      if (step <= COUPLED_TOL_K || (step <= THERMAL_TOL_K && step >= 0.5 * prev)) break;
+      prev = step;
     }
     const r = this.sc.r;
     this.ok = true;
