@@ -11,8 +11,10 @@
  * 0.4 % per kelvin of winding). The crossing is refined inside the last step by bisection in time
  * on the exact within-step trajectory (to 1e-9 of the step). The junction has no heat capacity: it
  * follows the inverter loss at once, so an overload whose junction starts beyond its limit lasts 0.
- * Infinity when the overload's own coupled steady state stays within every limit (it is approached
- * from below and never left); NaN and `outsideEnvelope` when the machine at the starting
+ * Infinity when the overload's own coupled steady state stays within every limit and the
+ * temperatures approach it monotonically from where they are (from the start, or from where the
+ * integration has brought them: a winding heating while the stator cools can overshoot its steady
+ * value); NaN and `outsideEnvelope` when the machine at the starting
  * temperatures cannot make the torque at that speed within the peak limits.
  */
 import type { DriveLimits } from '../drive/inverter-spec';
@@ -109,18 +111,27 @@ function durationFrom(r: Run, start: Temperatures, to: OperatingDemand): PeakDur
   if (!lp.atTorque(w, Ts, start.windingTemp_C, start.magnetTemp_C)) return result(Number.NaN, envelopeLimit(lp.limitedBy), start, 0, true);
   const now = reached(r, to, start.windingTemp_C, start.statorTemp_C);
   if (now !== null) return result(0, now, temps(net, start.windingTemp_C, start.statorTemp_C, lp.inverter_W), 0);
-  // never: the overload's own coupled steady state within every limit
+  // never: the overload's own coupled steady state within every limit, once the temperatures approach
+  // it monotonically (both nodes heating, or both cooling: the network's matrix has positive
+  // off-diagonal terms, so the rates keep their common sign from there on; a stator cooling while
+  // the winding heats, as after a point of large iron loss, can carry the winding past its limit
+  // before it settles below it)
   const ss = coupledWith(lp, net, w, Ts, { start: { winding_C: start.windingTemp_C, stator_C: start.statorTemp_C } });
-  if (ss.status === 'converged' && reached(r, to, ss.windingTemp_C, ss.statorTemp_C) === null) {
-    return result(Infinity, 'none', temps(net, ss.windingTemp_C, ss.statorTemp_C, ss.losses.inverter_W), 0);
-  }
+  const settles = ss.status === 'converged' && reached(r, to, ss.windingTemp_C, ss.statorTemp_C) === null;
+  const never = (): PeakDuration => result(Infinity, 'none', temps(net, ss.windingTemp_C, ss.statorTemp_C, ss.losses.inverter_W), 0);
   // integrate
   const T = new Float64Array(2), Tp = new Float64Array(2);
   T[0] = start.windingTemp_C; T[1] = start.statorTemp_C;
   const rpm = (w * 30) / Math.PI, Rws = net.windingToStator_K_per_W, Rsc = statorToCoolantAt(net, rpm);
   const tauMax = (net.windingCapacity_J_per_K + net.statorCapacity_J_per_K) * (Rws + Rsc);
+  /** heat flows into the winding and into the stator node have one sign at T under losses cu, fe */
+  const monotone = (cu: number, fe: number): boolean => {
+    const q = (T[0]! - T[1]!) / Rws, pw = cu - q, ps = fe + q - (T[1]! - net.coolantTemp_C) / Rsc;
+    return (pw >= 0 && ps >= 0) || (pw <= 0 && ps <= 0);
+  };
   lp.atTorque(w, Ts, T[0], T[1] + off);
   let cu0 = lp.copper_W, fe0 = lp.iron_W, t = 0;
+  if (settles && monotone(cu0, fe0)) return never();
   for (let k = 1; k <= MAX_STEPS; k++) {
     // the step: no temperature moves more than stepK at the present rates
     const q = (T[0]! - T[1]!) / Rws;
@@ -153,6 +164,7 @@ function durationFrom(r: Run, start: Temperatures, to: OperatingDemand): PeakDur
     T[0] = Tp[0]!; T[1] = Tp[1]!;
     t += dt;
     cu0 = lp.copper_W; fe0 = lp.iron_W; // reached() evaluated the losses at the step's end
+    if (settles && monotone(cu0, fe0)) return never();
   }
   return result(Infinity, 'none', temps(net, T[0]!, T[1]!, lp.inverter_W), MAX_STEPS);
 }
