@@ -40,4 +40,24 @@ describe('continuous requirement points against the S1 curve (IEC 60034-1 duty t
     expect(r[2]!.s1Torque_Nm).toBeLessThan(0);
     expect(r[2]!.underS1).toBe(-60 >= r[2]!.s1Torque_Nm);
   });
+
+  it('reversed rotation is the mirror image: (-n, T) is checked as (n, -T), motoring or generating by the sign of the power (symmetry of the dq model under reversal, common practice (no source))', () => {
+    const reqs = [
+      { label: 'reverse braking', speed_rpm: -4000, torque_Nm: 60, duty: 'continuous' as const },
+      { label: 'forward braking', speed_rpm: 4000, torque_Nm: -60, duty: 'continuous' as const },
+      { label: 'reverse driving', speed_rpm: -4000, torque_Nm: -80, duty: 'continuous' as const },
+      { label: 'forward driving', speed_rpm: 4000, torque_Nm: 80, duty: 'continuous' as const },
+    ];
+    const r = continuousRequirementChecks(temperatureModelFromProject(p), NET, p.continuous, c, reqs);
+    for (const [a, b] of [[0, 1], [2, 3]] as const) {
+      expect(r[a]!.s1Torque_Nm).toBeCloseTo(-r[b]!.s1Torque_Nm, 9);
+      expect(r[a]!.s1LimitedBy).toBe(r[b]!.s1LimitedBy);
+      expect(r[a]!.underS1).toBe(r[b]!.underS1);
+      expect(r[a]!.status).toBe(r[b]!.status);
+      expect(r[a]!.windingTemp_C).toBeCloseTo(r[b]!.windingTemp_C, 9);
+    }
+    // braking takes more torque than driving at the same winding temperature (the losses add to it)
+    expect(r[0]!.s1Torque_Nm).toBeGreaterThan(0);
+    expect(r[0]!.s1Torque_Nm).toBeGreaterThan(-r[2]!.s1Torque_Nm);
+  });
 });

@@ -9,6 +9,8 @@ import { machineAt } from '../src/core/machine/thermal';
 import { continuousTorqueCurve, type ContinuousPoint } from '../src/core/steady-state/continuous-torque';
 import { coupledSteadyState } from '../src/core/steady-state/thermal-steady-state';
 import { maxTorquePoint } from '../src/core/steady-state/envelope';
+import { temperatureModelFromProject } from '../src/core/project/temperature-model-from-project';
+import { projectSpeedRange } from '../src/core/reports/speed-range';
 import type { LossConditions } from '../src/core/steady-state/point-losses';
 import { refusal } from './helpers';
 
@@ -132,6 +134,58 @@ describe('continuous (S1) torque against speed', () => {
       expect(-ge[k]!.torque_Nm).toBeGreaterThan(mo[k]!.torque_Nm);
       checkS1(NET, ge[k]!);
     }
+  });
+
+  it('a point does not depend on the speeds solved before it: each point of a 60-speed curve is the same speed solved alone (all four demos with their own networks, and the traction demo with the issue example network)', () => {
+    // The curve is one function of the speed: a warm start may save work, never move the answer
+    // (common practice (no source)). Temperatures to the coupled state's tolerance (THERMAL_TOL_K,
+    // 1e-6 K), torque to 1e-9 relative. The binding limit must be the same: on a tie it is named by a
+    // fixed rule on the converged state (winding before magnet before junction; 'voltage' at Icont
+    // when the largest torque there is the MTPV point), so equal states give equal names.
+    const cases: Array<[string, (q: ReturnType<typeof demo>) => ThermalNetworkSpec]> = [
+      ['demo-ipm-saturated', (q) => q.thermal!], ['demo-ipm-traction', (q) => q.thermal!], ['demo-servo-axis', (q) => q.thermal!],
+      ['demo-spm-48v', (q) => q.thermal!], ['demo-ipm-traction', () => NET],
+    ];
+    for (const [name, netOf] of cases) {
+      const pd = demo(name), net = netOf(pd), cd = lossConditionsFromProject(pd);
+      const wMax = projectSpeedRange(pd).speedMax;
+      const sp = Float64Array.from({ length: 60 }, (_, k) => (wMax * k) / 59);
+      for (const direction of ['motoring', 'generating'] as const) {
+        const curve = continuousTorqueCurve(temperatureModelFromProject(pd), net, pd.continuous, cd, sp, direction);
+        const kinds = new Set(curve.map((q) => q.limitedBy));
+        for (let k = 0; k < sp.length; k++) {
+          const one = continuousTorqueCurve(temperatureModelFromProject(pd), net, pd.continuous, cd, [sp[k]!], direction)[0]!;
+          const q = curve[k]!, at = `${name} ${net === NET ? '(example network) ' : ''}${direction} ${q.speed_rpm.toFixed(0)} rpm`;
+          expect(q.limitedBy, at).toBe(one.limitedBy);
+          expect(Math.abs(q.torque_Nm - one.torque_Nm), at).toBeLessThanOrEqual(1e-9 * Math.abs(one.torque_Nm));
+          for (const key of ['windingTemp_C', 'magnetTemp_C', 'junctionTemp_C'] as const) {
+            if (Number.isNaN(one[key])) expect(q[key], at).toBeNaN();
+            else expect(Math.abs(q[key] - one[key]), `${at} ${key}`).toBeLessThanOrEqual(1e-6);
+          }
+        }
+        if (name === 'demo-ipm-saturated' && direction === 'motoring') expect([...kinds].sort()).toEqual(['current', 'voltage']);
+        if (name === 'demo-spm-48v') expect([...kinds].sort()).toEqual(['current', 'magnet', 'winding']);
+      }
+    }
+  });
+
+  it('the saturated demo at 3000 rpm: the same point whatever was solved before (the flux map re-tempered in place at each temperature)', () => {
+    const pd = demo('demo-ipm-saturated'), cd = lossConditionsFromProject(pd), w = rpm(3000);
+    const run = (sp: number[]) => continuousTorqueCurve(temperatureModelFromProject(pd), pd.thermal!, pd.continuous, cd, sp).at(-1)!;
+    const alone = run([w]);
+    for (const before of [[0], [0.99 * w], [1.01 * w], [rpm(6000), 0]]) {
+      const q = run([...before, w]);
+      expect(q.limitedBy).toBe(alone.limitedBy);
+      expect(Math.abs(q.torque_Nm - alone.torque_Nm)).toBeLessThanOrEqual(1e-9 * alone.torque_Nm);
+      expect(Math.abs(q.windingTemp_C - alone.windingTemp_C)).toBeLessThanOrEqual(1e-6);
+    }
+    // at Icont the current binds (the temperatures within their limits); the S1 check holds on the flux map
+    expect(alone.limitedBy).toBe('current');
+    expect(alone.windingTemp_C).toBeLessThan(pd.thermal!.windingMax_C);
+    const r = coupledSteadyState(temperatureModelFromProject(pd), pd.thermal!, { ...pd.continuous, Imax: pd.continuous.Imax * (1 + 1e-6) }, cd, w, alone.torque_Nm);
+    expect(r.status).toBe('converged');
+    expect(Math.abs(r.current - pd.continuous.Imax)).toBeLessThan(1e-5 * pd.continuous.Imax);
+    expect(Math.abs(r.windingTemp_C - alone.windingTemp_C)).toBeLessThan(0.01);
   });
 
   it('refuses bad input, naming the field', () => {

@@ -20,12 +20,12 @@ describe('one repeat of a duty cycle', () => {
     expect(o.solves).toBe(N);
     expect(a.solved.every((s) => s === 1)).toBe(true);
     expect(T[0]).toBe(a.winding_C[N - 1]);
-    const sc = newInstantLossScratch(project.peak), tm2 = temperatureModel();
+    const tm2 = temperatureModel(), sc = newInstantLossScratch(tm2, THERMAL, conditions, project.peak);
     for (const k of [0, 40, 100, 250, 400, 550]) {
       const dt = x.t_s[k + 1]! - x.t_s[k]!;
       const P = new Float64Array([a.winding_C[k]!, a.stator_C[k]!]);
       stepTemperatures(THERMAL, P, a.copper_W[k]!, a.iron_W[k]!, x.speed_rpm[k]!, dt);
-      const r = instantLosses(tm2, THERMAL, conditions, sc, rpm(x.speed_rpm[k + 1]!), x.torque_Nm[k + 1]!, P[0]!, P[1]!, a.lossTorque_Nm[k]!);
+      const r = instantLosses(sc, rpm(x.speed_rpm[k + 1]!), x.torque_Nm[k + 1]!, P[0]!, P[1]!, a.lossTorque_Nm[k]!);
       expect(Math.abs(r[IL.copper]! / a.copper_W[k + 1]! - 1)).toBeLessThan(1e-8);
       const U = new Float64Array([a.winding_C[k]!, a.stator_C[k]!]);
       stepTemperatures(THERMAL, U, 0.5 * (a.copper_W[k]! + a.copper_W[k + 1]!), 0.5 * (a.iron_W[k]! + a.iron_W[k + 1]!), 0.5 * (x.speed_rpm[k]! + x.speed_rpm[k + 1]!), dt);

@@ -32,7 +32,7 @@ import type { LossConditions } from '../steady-state/point-losses';
 import type { CycleInstants } from './duty-cycle-spec';
 import { stepTemperatures } from '../machine/thermal-network';
 import { mechanicalLoss } from '../machine/motor-losses';
-import { IL, type InstantLossScratch, instantLosses, newInstantLossScratch } from './instant-losses';
+import { IL, instantLosses, newInstantLossScratch } from './instant-losses';
 
 const RPM = Math.PI / 30;
 /**
@@ -106,7 +106,8 @@ export interface CyclePass {
   readonly x: CycleInstants;
   readonly a: CycleArrays;
   readonly settings: PassSettings;
-  readonly sc: InstantLossScratch;
+  /** the peak limits (an instant beyond them is outside the envelope) */
+  readonly peak: DriveLimits;
   /** the predicted temperatures, and the network's transition carried as two states (see runPass) */
   readonly P: Float64Array;
   /** the temperatures at the span's start */
@@ -129,7 +130,7 @@ export function newCyclePass(x: CycleInstants, peak: DriveLimits, settings: Pass
   };
   const { kink, nextKink } = kinksOf(x);
   return {
-    x, a, settings, sc: newInstantLossScratch(peak), P: new Float64Array(2), T0: new Float64Array(2), big: new Float64Array(2),
+    x, a, settings, peak, P: new Float64Array(2), T0: new Float64Array(2), big: new Float64Array(2),
     U: new Float64Array(2), V: new Float64Array(2), kink, nextKink,
   };
 }
@@ -171,13 +172,14 @@ export interface PassOutcome {
  * phi (start - T_c) + T_c with no losses). tick(k) is called every 4096 instants or so; false stops.
  */
 export function runPass(cp: CyclePass, tm: TemperatureModel, th: ThermalNetworkSpec, c: LossConditions, T: Float64Array, phi: Float64Array, tick: (k: number) => boolean): PassOutcome {
-  const { x, a: A, settings: st, sc, P, T0, U, V, big } = cp;
+  const { x, a: A, settings: st, P, T0, U, V, big } = cp;
+  const sc = newInstantLossScratch(tm, th, c, cp.peak); // the pass's evaluator (it owns tm)
   const t = x.t_s, rpm = x.speed_rpm, tq = x.torque_Nm, N = t.length;
   const cu = A.copper_W, fe = A.iron_W, inv = A.inverter_W, cur = A.current_A, lt = A.lossTorque_Nm, out = A.outside;
   const Tc = th.coolantTemp_C;
   let solves = 0;
   const solve = (k: number, Tw: number, Ts: number): void => {
-    const o = instantLosses(tm, th, c, sc, rpm[k]! * RPM, tq[k]!, Tw, Ts, k > 0 ? lt[k - 1]! : 0);
+    const o = instantLosses(sc, rpm[k]! * RPM, tq[k]!, Tw, Ts, k > 0 ? lt[k - 1]! : 0);
     cu[k] = o[IL.copper]!; fe[k] = o[IL.iron]!; A.mechanical_W[k] = o[IL.mechanical]!; inv[k] = o[IL.inverter]!;
     A.dcPower_W[k] = o[IL.dcPower]!; cur[k] = o[IL.current]!; lt[k] = o[IL.lossTorque]!; out[k] = o[IL.outside]!;
     A.solved[k] = 1;
@@ -190,7 +192,7 @@ export function runPass(cp: CyclePass, tm: TemperatureModel, th: ThermalNetworkS
   A.winding_C[0] = T[0]!; A.stator_C[0] = T[1]!;
   solve(0, T[0]!, T[1]!);
   let removed = 0, ka = 0, kp = -1, h = 1, nextTick = 4096;
-  const ImaxFloor = 1e-5 * sc.peakImax;
+  const ImaxFloor = 1e-5 * cp.peak.Imax;
   // the knot's temperatures may miss the ones reached by this much before it is solved again there
   const driftK = st.tolerance / DRIFT_SENSITIVITY;
   const lossAt = (k: number): number => cu[k]! + fe[k]! + inv[k]!;

@@ -1,6 +1,6 @@
 /**
  * Requirement points marked continuous against the thermal rating: each point's S1 torque at its
- * speed (continuous-torque.ts, motoring or generating by the sign of the torque asked) and the
+ * speed (continuous-torque.ts, motoring or generating by the sign of the power asked) and the
  * thermally coupled steady state of the point itself (thermal-steady-state.ts), so that a sizing
  * table can say whether the point can be held indefinitely and how warm it runs.
  */
@@ -17,7 +17,7 @@ export interface ContinuousRequirementCheck {
   label: string;
   speed_rpm: number;
   torque_Nm: number;
-  /** the S1 torque at the point's speed on the point's side (negative generating), N·m */
+  /** the S1 torque at the point's speed on the point's side (the sign of the point's torque), N·m */
   s1Torque_Nm: number;
   /** what bounds the S1 torque there */
   s1LimitedBy: ContinuousLimit;
@@ -37,12 +37,14 @@ export function continuousRequirementChecks(tm: TemperatureModel, net: ThermalNe
   const out: ContinuousRequirementCheck[] = [];
   for (const r of requirements) {
     if (r.duty !== 'continuous') continue;
-    const w = Math.abs(r.speed_rpm) * RPM_TO_RAD_S;
-    const s1 = continuousTorqueCurve(tm, net, lim, c, [w], r.torque_Nm < 0 ? 'generating' : 'motoring')[0]!;
-    const st = coupledSteadyState(tm, net, lim, c, w, r.torque_Nm);
+    // reversed rotation is the mirror image of forward rotation with the torque negated (iq mirrored,
+    // the same losses): motoring or generating by the sign of the power, not of the torque alone
+    const w = Math.abs(r.speed_rpm) * RPM_TO_RAD_S, mirror = r.speed_rpm < 0 ? -1 : 1, T = mirror * r.torque_Nm;
+    const s1 = continuousTorqueCurve(tm, net, lim, c, [w], T < 0 ? 'generating' : 'motoring')[0]!;
+    const st = coupledSteadyState(tm, net, lim, c, w, T);
     out.push({
       label: r.label, speed_rpm: r.speed_rpm, torque_Nm: r.torque_Nm,
-      s1Torque_Nm: s1.torque_Nm, s1LimitedBy: s1.limitedBy,
+      s1Torque_Nm: mirror * s1.torque_Nm, s1LimitedBy: s1.limitedBy,
       underS1: Math.abs(r.torque_Nm) <= Math.abs(s1.torque_Nm) * (1 + 1e-9),
       status: st.status, windingTemp_C: st.windingTemp_C, magnetTemp_C: st.magnetTemp_C, junctionTemp_C: st.junctionTemp_C, current_A: st.current,
     });

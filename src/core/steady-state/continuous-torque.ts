@@ -6,10 +6,14 @@
  *
  * Method: along a speed the least-current point of a torque is the largest-torque point at its
  * current (operating-point.ts), so the search runs over the current I in [0, Icont] instead of the
- * torque: at I the point is one max-torque solve (max-torque.ts) on the re-tempered model, its losses
+ * torque: at I the point is the largest-torque point at the temperatures (loss-at-temperatures.ts,
+ * atCurrent: one max-torque solve on the re-tempered model), its losses
  * heat the network, and the coupled temperatures follow by the copper-tracking iteration of
  * thermal-steady-state.ts (at a held current the only coupling left is the iron loss through the
- * magnet's flux: a few steps to 1e-6 K). The shaft torque is T_em - (P_fe + P_mech) / w. The margin
+ * magnet's flux: a few steps, to a step of 1e-9 K, so that the start, the state the previous current
+ * or speed left, leaves no trace beyond it; a current the machine cannot drive at the start's
+ * temperatures is tried once more from the hottest ones within the limits, the steady state being
+ * hot and a hotter magnet having less back-EMF). The shaft torque is T_em - (P_fe + P_mech) / w. The margin
  * phi(I) = min over the rated limits of (T_max - T) / (T_max - T_coolant) falls with I; when it is
  * still >= 0 at Icont the current binds (or the voltage, when the largest torque at Icont is the
  * MTPV point, drawing less than Icont: the coupled state reported is the MTPV point's; the torque
@@ -18,7 +22,12 @@
  * MTPV state, the torque is exact); else its root is found by the Illinois variant of regula falsi
  * (Dowell and Jarratt (1971), A modified regula falsi method for computing the root of an equation,
  * BIT 11) from a bracket around the previous speed's current (warm start), widened until it brackets,
- * to |phi| (T_max - T_coolant) <= 1e-4 K. A current whose largest torque is below zero at that speed
+ * to |phi| (T_max - T_coolant) <= 1e-7 K. So a point does not depend on the speeds solved before it:
+ * its temperatures agree to 1e-6 K (THERMAL_TOL_K) and its torque to about 1e-9 relative with those
+ * of the same speed solved alone (checked on the demos). The binding limit on a tie is named by a
+ * fixed rule on the converged state: winding before magnet before junction on equal margins, and at
+ * Icont 'voltage' when the largest torque at Icont is the MTPV point (or the coupled torque falls
+ * over the last 1e-4 of the current, foldOr), else 'current'. A current whose largest torque is below zero at that speed
  * (field weakening needs more current) counts as cool (phi = +1): the torque grows with the current.
  * Where the coupled shaft torque falls as the current rises to the bound found (the hot magnet's
  * lower flux costing more than the current adds), the largest torque lies below it, bound by the
@@ -35,13 +44,13 @@ import type { TemperatureModel } from '../machine/temperature-model';
 import type { ThermalNetworkSpec } from '../machine/thermal-network-spec';
 import type { Direction } from './envelope';
 import { InputError } from '../base/errors';
-import { mechanicalLoss } from '../machine/motor-losses';
+import type { Region } from './operating-point-types';
+import type { LossConditions } from './point-losses';
 import { junctionTemperature } from '../machine/thermal-network';
+import { LossAtTemperatures } from './loss-at-temperatures';
 import { assertLossConditions } from './loss-point';
-import { type MaxTorqueScratch, maxTorqueCore, newScratch } from './max-torque';
 import { assertLimits } from './mtpa';
 import { goldenSectionMax } from '../mathematics/root-finding';
-import { type LossConditions, newPointLossScratch, PL, type PointLossScratch, pointLosses } from './point-losses';
 import { assertThermalNetwork, copperTrackingSteady, THERMAL_TOL_K } from './thermal-steady-state';
 
 export type ContinuousLimit = 'winding' | 'magnet' | 'junction' | 'current' | 'voltage';
@@ -58,8 +67,10 @@ export interface ContinuousPoint {
   junctionTemp_C: number;
 }
 
-/** Root tolerance of the binding temperature, K. */
-export const CONTINUOUS_TOL_K = 1e-4;
+/** Root tolerance of the binding temperature, K (a tenth of the coupled state's THERMAL_TOL_K). */
+export const CONTINUOUS_TOL_K = 1e-7;
+/** The coupled state at a held current is iterated until its step is below this, K (from any start it is then within THERMAL_TOL_K / 1000). */
+const COUPLED_TOL_K = 1e-9;
 const MAX_COUPLED = 40;
 const MAX_ROOT = 60;
 const WARM = 0.02;
@@ -68,47 +79,53 @@ const FOLD_PROBE = 1e-4;
 
 /** The per-run state of the current-parametrised search (one per run, never shared). */
 class CurrentSearch {
-  readonly ms: MaxTorqueScratch = newScratch();
-  readonly sc: PointLossScratch = newPointLossScratch();
+  readonly lp: LossAtTemperatures;
   readonly h = new Float64Array(2);
   readonly gs = new Float64Array(2);
   // the state at the last current evaluated
-  Tw: number; Tst: number; Tj = 0; Tem = 0; fe = 0; region: 0 | 1 | 2 = 0; ok = false;
-  w = 0; we = 0; rpm = 0; pMech = 0;
+  Tw: number; Tst: number; Tj = 0; Tem = 0; fe = 0; region: Region = 'mtpa'; ok = false;
+  w = 0; rpm = 0; pMech = 0;
   /** the root current of the last speed (NaN when the current or voltage bound it) */
   lastI = Number.NaN;
   /** phi of the last current evaluated */
   lastMargin = 0;
-  constructor(readonly tm: TemperatureModel, readonly net: ThermalNetworkSpec, readonly lim: DriveLimits, readonly c: LossConditions, readonly sign: 1 | -1) {
+  constructor(tm: TemperatureModel, readonly net: ThermalNetworkSpec, lim: DriveLimits, c: LossConditions, readonly sign: 1 | -1) {
+    this.lp = new LossAtTemperatures(tm, net, lim, c);
     this.Tw = net.coolantTemp_C; this.Tst = net.coolantTemp_C;
   }
   setSpeed(w: number): void {
-    this.w = w; this.we = this.tm.model.polePairs * w; this.rpm = (w * 30) / Math.PI;
-    this.pMech = mechanicalLoss(this.c.friction, this.c.losses.windage, w);
+    this.w = w; this.rpm = (w * 30) / Math.PI;
   }
   /** The coupled state at current I (from the last temperatures); returns the margin phi (+1 when no torque of the sign at I, -1 at runaway). */
   margin(I: number): number {
-    const net = this.net, off = net.magnetAboveStator_K, m = this.tm.model, h = this.h;
-    let x0 = this.Tw, x1 = this.Tst;
+    const net = this.net, off = net.magnetAboveStator_K, lp = this.lp, h = this.h;
+    let x0 = this.Tw, x1 = this.Tst, hot = false;
     this.ok = false;
-    for (let it = 0; it < MAX_COUPLED; it++) {
-      this.tm.setTemperatures(x0, x1 + off);
-      maxTorqueCore(m, this.lim.Vmax, I, this.we, this.sign, this.ms);
-      if (!this.ms.ok) return 1;
-      pointLosses(m, this.c, this.w, this.ms.id, this.ms.iq, this.sc);
-      const r = this.sc.r;
-      if (!copperTrackingSteady(net, r[PL.copper]!, r[PL.iron]!, x0, this.rpm, h)) return -1;
+    for (let it = 0, prev = Infinity; it < MAX_COUPLED; it++) {
+      if (!lp.atCurrent(this.w, I, this.sign, x0, x1 + off)) {
+        // no torque of the sign at I and these temperatures: a hotter magnet (less flux, less
+        // back-EMF) may make it, and the steady state is hot. Once, from the hottest temperatures
+        // within the limits, whatever the start: the iterates then cool towards the steady state
+        // from above, and the answer does not depend on where the previous solve left them
+        if (hot) return 1;
+        hot = true; it = 0; prev = Infinity;
+        x0 = net.windingMax_C; x1 = net.magnetMax_C - off;
+        continue;
+      }
+      if (!copperTrackingSteady(net, lp.copper_W, lp.iron_W, lp.winding_C, this.rpm, h)) return -1;
       const step = Math.max(Math.abs(h[0]! - x0), Math.abs(h[1]! - x1));
       x0 = h[0]!; x1 = h[1]!;
-      if (step <= THERMAL_TOL_K) break;
+      // converged well inside the thermal tolerance (the start, the previous current's state, must
+      // leave no trace), or at rounding level where the steps stop shrinking
+      if (step <= COUPLED_TOL_K || (step <= THERMAL_TOL_K && step >= 0.5 * prev)) break;
+      prev = step;
     }
-    const r = this.sc.r;
     this.ok = true;
     this.Tw = x0; this.Tst = x1;
-    this.Tj = junctionTemperature(net, r[PL.inverter]!);
-    this.Tem = m.torque(this.ms.id, this.ms.iq);
-    this.fe = r[PL.iron]!;
-    this.region = this.ms.region;
+    this.Tj = junctionTemperature(net, lp.inverter_W);
+    this.Tem = lp.torqueEm_Nm;
+    this.fe = lp.iron_W; this.pMech = lp.mechanical_W;
+    this.region = lp.region;
     this.lastMargin = Math.min(this.windingMargin(), this.magnetMargin(), this.junctionMargin());
     return this.lastMargin;
   }
@@ -177,7 +194,7 @@ function atSpeed(s: CurrentSearch, Imax: number, Iprev: number, tolPhi: number):
   let lo = Number.isNaN(Iprev) ? 0 : Iprev * (1 - WARM), flo: number;
   // widen upward while hi is still within every limit
   while (fhi >= 0) {
-    if (hi >= Imax) return s.region === 2 ? s.point('voltage') : foldOr(s, Imax, 'current');
+    if (hi >= Imax) return s.region === 'mtpv' ? s.point('voltage') : foldOr(s, Imax, 'current');
     lo = hi;
     hi = Math.min(Imax, hi * (1 + 4 * WARM));
     fhi = s.margin(hi);

@@ -4,15 +4,17 @@
  * reached, or until the machine, heating, can no longer make the torque within the peak limits.
  *
  * Quasi-static: at every instant the losses are those of the overload's loss point on the model
- * re-tempered to the temperatures reached (thermal-steady-state.ts, TemperedLossPoint), and the
+ * re-tempered to the temperatures reached (loss-at-temperatures.ts), and the
  * network (thermal-network.ts) is stepped exactly for losses held over a step. Over a step the losses
  * are the mean of those at its start and at a predicted end (a trapezoid in time, second order in the
  * step), and a step lets no temperature move more than `stepK` (default 1 K; the loss changes about
  * 0.4 % per kelvin of winding). The crossing is refined inside the last step by bisection in time
  * on the exact within-step trajectory (to 1e-9 of the step). The junction has no heat capacity: it
  * follows the inverter loss at once, so an overload whose junction starts beyond its limit lasts 0.
- * Infinity when the overload's own coupled steady state stays within every limit (it is approached
- * from below and never left); NaN and `outsideEnvelope` when the machine at the starting
+ * Infinity when the overload's own coupled steady state stays within every limit and the
+ * temperatures approach it monotonically from where they are (from the start, or from where the
+ * integration has brought them: a winding heating while the stator cools can overshoot its steady
+ * value); NaN and `outsideEnvelope` when the machine at the starting
  * temperatures cannot make the torque at that speed within the peak limits.
  */
 import type { DriveLimits } from '../drive/inverter-spec';
@@ -20,11 +22,10 @@ import type { TemperatureModel } from '../machine/temperature-model';
 import type { ThermalNetworkSpec } from '../machine/thermal-network-spec';
 import { InputError } from '../base/errors';
 import { junctionTemperature, statorToCoolantAt, stepTemperatures } from '../machine/thermal-network';
-import { maxTorquePoint } from './envelope';
 import { assertFinite } from './mtpa';
-import { mechanicalLoss } from '../machine/motor-losses';
-import { type LossConditions, newPointLossScratch, PL, pointLosses } from './point-losses';
-import { assertThermalNetwork, coupledWith, TemperedLossPoint } from './thermal-steady-state';
+import type { LossConditions } from './point-losses';
+import { LossAtTemperatures } from './loss-at-temperatures';
+import { assertThermalNetwork, coupledWith } from './thermal-steady-state';
 
 export type PeakLimit = 'winding' | 'magnet' | 'junction' | 'current' | 'voltage' | 'none';
 
@@ -61,14 +62,14 @@ const MAX_STEPS = 200000;
 const REFINE = 40;
 
 /** The run's state: the two loss evaluators (continuous and peak limits) and the network. */
-interface Run { net: ThermalNetworkSpec; cont: TemperedLossPoint; peak: TemperedLossPoint; stepK: number }
+interface Run { net: ThermalNetworkSpec; cont: LossAtTemperatures; peak: LossAtTemperatures; stepK: number }
 
 /** Which limit (winding, magnet, junction, or the envelope) is reached at temperatures T (losses evaluated there, at the overload); null when none. */
 function reached(r: Run, d: OperatingDemand, Tw: number, Tst: number): PeakLimit | null {
   const n = r.net;
   if (Tw >= n.windingMax_C) return 'winding';
   if (Tst + n.magnetAboveStator_K >= n.magnetMax_C) return 'magnet';
-  if (!r.peak.evaluate(d.speed_rad_s, d.torque_Nm, Tw, Tst + n.magnetAboveStator_K)) return envelopeLimit(r.peak.limitedBy);
+  if (!r.peak.atTorque(d.speed_rad_s, d.torque_Nm, Tw, Tst + n.magnetAboveStator_K)) return envelopeLimit(r.peak.limitedBy);
   if (n.junctionMax_C !== undefined && n.junctionToCoolant_K_per_W !== undefined && junctionTemperature(n, r.peak.inverter_W) >= n.junctionMax_C) return 'junction';
   return null;
 }
@@ -91,7 +92,7 @@ export function peakDuration(tm: TemperatureModel, net: ThermalNetworkSpec, peak
   }
   const stepK = opts.stepK ?? 1;
   if (!(Number.isFinite(stepK) && stepK > 0)) throw new InputError('stepK', `must be a positive number of kelvin (got ${stepK})`);
-  const r: Run = { net, cont: new TemperedLossPoint(tm, continuous, c), peak: new TemperedLossPoint(tm, peak, c), stepK };
+  const r: Run = { net, cont: new LossAtTemperatures(tm, net, continuous, c), peak: new LossAtTemperatures(tm, net, peak, c), stepK };
   return durationFrom(r, startState(r, from), to);
 }
 
@@ -107,21 +108,30 @@ function durationFrom(r: Run, start: Temperatures, to: OperatingDemand): PeakDur
   const result = (duration_s: number, limitedBy: PeakLimit, end: Temperatures, steps: number, outsideEnvelope = false): PeakDuration =>
     ({ duration_s, limitedBy, outsideEnvelope, start, end, steps });
   // outside the envelope at the starting temperatures
-  if (!lp.evaluate(w, Ts, start.windingTemp_C, start.magnetTemp_C)) return result(Number.NaN, envelopeLimit(lp.limitedBy), start, 0, true);
+  if (!lp.atTorque(w, Ts, start.windingTemp_C, start.magnetTemp_C)) return result(Number.NaN, envelopeLimit(lp.limitedBy), start, 0, true);
   const now = reached(r, to, start.windingTemp_C, start.statorTemp_C);
   if (now !== null) return result(0, now, temps(net, start.windingTemp_C, start.statorTemp_C, lp.inverter_W), 0);
-  // never: the overload's own coupled steady state within every limit
+  // never: the overload's own coupled steady state within every limit, once the temperatures approach
+  // it monotonically (both nodes heating, or both cooling: the network's matrix has positive
+  // off-diagonal terms, so the rates keep their common sign from there on; a stator cooling while
+  // the winding heats, as after a point of large iron loss, can carry the winding past its limit
+  // before it settles below it)
   const ss = coupledWith(lp, net, w, Ts, { start: { winding_C: start.windingTemp_C, stator_C: start.statorTemp_C } });
-  if (ss.status === 'converged' && reached(r, to, ss.windingTemp_C, ss.statorTemp_C) === null) {
-    return result(Infinity, 'none', temps(net, ss.windingTemp_C, ss.statorTemp_C, ss.losses.inverter_W), 0);
-  }
+  const settles = ss.status === 'converged' && reached(r, to, ss.windingTemp_C, ss.statorTemp_C) === null;
+  const never = (): PeakDuration => result(Infinity, 'none', temps(net, ss.windingTemp_C, ss.statorTemp_C, ss.losses.inverter_W), 0);
   // integrate
   const T = new Float64Array(2), Tp = new Float64Array(2);
   T[0] = start.windingTemp_C; T[1] = start.statorTemp_C;
   const rpm = (w * 30) / Math.PI, Rws = net.windingToStator_K_per_W, Rsc = statorToCoolantAt(net, rpm);
   const tauMax = (net.windingCapacity_J_per_K + net.statorCapacity_J_per_K) * (Rws + Rsc);
-  lp.evaluate(w, Ts, T[0], T[1] + off);
+  /** heat flows into the winding and into the stator node have one sign at T under losses cu, fe */
+  const monotone = (cu: number, fe: number): boolean => {
+    const q = (T[0]! - T[1]!) / Rws, pw = cu - q, ps = fe + q - (T[1]! - net.coolantTemp_C) / Rsc;
+    return (pw >= 0 && ps >= 0) || (pw <= 0 && ps <= 0);
+  };
+  lp.atTorque(w, Ts, T[0], T[1] + off);
   let cu0 = lp.copper_W, fe0 = lp.iron_W, t = 0;
+  if (settles && monotone(cu0, fe0)) return never();
   for (let k = 1; k <= MAX_STEPS; k++) {
     // the step: no temperature moves more than stepK at the present rates
     const q = (T[0]! - T[1]!) / Rws;
@@ -131,7 +141,7 @@ function durationFrom(r: Run, start: Temperatures, to: OperatingDemand): PeakDur
     Tp[0] = T[0]!; Tp[1] = T[1]!;
     stepTemperatures(net, Tp, cu0, fe0, rpm, dt);
     let cu = cu0, fe = fe0;
-    if (lp.evaluate(w, Ts, Tp[0]!, Tp[1]! + off)) { cu = 0.5 * (cu0 + lp.copper_W); fe = 0.5 * (fe0 + lp.iron_W); }
+    if (lp.atTorque(w, Ts, Tp[0]!, Tp[1]! + off)) { cu = 0.5 * (cu0 + lp.copper_W); fe = 0.5 * (fe0 + lp.iron_W); }
     Tp[0] = T[0]!; Tp[1] = T[1]!;
     stepTemperatures(net, Tp, cu, fe, rpm, dt);
     const hit = reached(r, to, Tp[0]!, Tp[1]!);
@@ -148,12 +158,13 @@ function durationFrom(r: Run, start: Temperatures, to: OperatingDemand): PeakDur
       }
       Tp[0] = T[0]!; Tp[1] = T[1]!;
       stepTemperatures(net, Tp, cu, fe, rpm, hi);
-      lp.evaluate(w, Ts, Tp[0]!, Tp[1]! + off);
+      lp.atTorque(w, Ts, Tp[0]!, Tp[1]! + off);
       return result(t + hi, lim, temps(net, Tp[0]!, Tp[1]!, lp.inverter_W), k);
     }
     T[0] = Tp[0]!; T[1] = Tp[1]!;
     t += dt;
     cu0 = lp.copper_W; fe0 = lp.iron_W; // reached() evaluated the losses at the step's end
+    if (settles && monotone(cu0, fe0)) return never();
   }
   return result(Infinity, 'none', temps(net, T[0]!, T[1]!, lp.inverter_W), MAX_STEPS);
 }
@@ -177,21 +188,13 @@ export function peakDurationCurve(tm: TemperatureModel, net: ThermalNetworkSpec,
   assertFinite('speed', speed_rad_s, 'rad/s');
   if (!(Number.isInteger(N) && N >= 1)) throw new InputError('torques', `must be a whole number >= 1 (got ${N})`);
   const stepK = opts.stepK ?? 1;
-  const r: Run = { net, cont: new TemperedLossPoint(tm, continuous, c), peak: new TemperedLossPoint(tm, peak, c), stepK };
+  const r: Run = { net, cont: new LossAtTemperatures(tm, net, continuous, c), peak: new LossAtTemperatures(tm, net, peak, c), stepK };
   const start = startState(r, from);
-  tm.setTemperatures(start.windingTemp_C, start.magnetTemp_C);
-  const top = maxTorquePoint(tm.model, peak, speed_rad_s, 'motoring');
-  // the envelope's shaft torque: its T_em less the loss torque there (a hair inside, so that the last point is made)
-  let Tmax = 0;
-  if (top.feasible) {
-    Tmax = top.torque;
-    if (speed_rad_s !== 0) {
-      const sc = newPointLossScratch();
-      pointLosses(tm.model, c, speed_rad_s, top.id, top.iq, sc);
-      Tmax -= (sc.r[PL.iron]! + mechanicalLoss(c.friction, c.losses.windage, speed_rad_s)) / speed_rad_s;
-    }
-    Tmax = Math.max(0, Tmax * (1 - 1e-7));
-  }
+  // the envelope's shaft torque at the starting temperatures: its T_em less the loss torque there (a
+  // hair inside, so that the last point is made)
+  // (motoring: at a negative speed the torque is negative, and the curve has none)
+  const Tmax = r.peak.atCurrent(speed_rad_s, peak.Imax, speed_rad_s < 0 ? -1 : 1, start.windingTemp_C, start.magnetTemp_C) && r.peak.torqueEm_Nm > 0
+    ? Math.max(0, (r.peak.torqueEm_Nm - r.peak.lossTorque_Nm) * (1 - 1e-7)) : 0;
   const out: PeakDurationCurve = { torque_Nm: new Float64Array(N), duration_s: new Float64Array(N), limitedBy: [], start };
   for (let k = 0; k < N; k++) {
     const Tk = (Tmax * (k + 1)) / N;

@@ -4,8 +4,8 @@
  * flux: machine/temperature-model.ts), and the re-tempered model gives the losses again; solved to
  * convergence.
  *
- * Iteration: from temperatures x = (T_w, T_s) the loss point (loss-point.ts, least current) at the
- * model re-tempered to (T_w, T_s + magnetAboveStator) gives P_cu, P_fe; the next x is the network's
+ * Iteration: from temperatures x = (T_w, T_s) the loss point at those temperatures
+ * (loss-at-temperatures.ts, least current; magnet at T_s + magnetAboveStator) gives P_cu, P_fe; the next x is the network's
  * steady state with P_fe held and the copper loss following the winding's own temperature at the
  * current held, P_cu(T) = P_cu (1 + a (T - 20)) / (1 + a (T_w - 20)) (a copper's coefficient, the
  * law of thermal.ts): a linear equation in T solved exactly, so that the strongest coupling
@@ -14,7 +14,9 @@
  * Ni (2011), Anderson acceleration for fixed-point iterations, SIAM J. Numer. Anal. 49(4)). Converged
  * when the step is below 1e-6 K (THERMAL_TOL_K). Thermal runaway: the copper loss grows with the
  * winding's temperature faster than the network removes it (a (R_ws + R_sc) dP_cu/dT >= 1 at the
- * current reached), or a temperature beyond RUNAWAY_C; no steady state exists then. Outside the
+ * current reached), or a temperature beyond the model's ceiling (loss-at-temperatures.ts,
+ * modelCeiling_C: 300 K above the highest limit, where the losses are no longer evaluated); no steady
+ * state exists then (within the model's reach). Outside the
  * envelope: the point cannot be made within the limits at the last temperatures reached (iterates
  * outside it go on with the losses of the current they would need).
  */
@@ -22,18 +24,15 @@ import type { DriveLimits } from '../drive/inverter-spec';
 import type { TemperatureModel } from '../machine/temperature-model';
 import type { ThermalNetworkSpec } from '../machine/thermal-network-spec';
 import type { LimitedBy } from './operating-point-types';
+import type { LossConditions } from './point-losses';
 import { InputError } from '../base/errors';
-import { mechanicalLoss } from '../machine/motor-losses';
 import { COPPER_ALPHA_20 } from '../machine/thermal';
 import { junctionTemperature, statorToCoolantAt } from '../machine/thermal-network';
-import { assertLossConditions, lossFixedPoint } from './loss-point';
+import { LossAtTemperatures, modelCeiling_C } from './loss-at-temperatures';
 import { assertFinite } from './mtpa';
-import { type LossConditions, newPointLossScratch, PL, type PointLossScratch, pointLosses } from './point-losses';
 
 /** Convergence of the coupled temperatures, K (largest step of winding and stator temperature). */
 export const THERMAL_TOL_K = 1e-6;
-/** A temperature beyond any insulation class or magnet (and where a magnet's linear flux law ends): runaway, °C. */
-export const RUNAWAY_C = 1000;
 const MAX_ITER = 60;
 
 export type CoupledStatus = 'converged' | 'runaway' | 'outside-envelope' | 'no-convergence';
@@ -89,19 +88,21 @@ export function assertThermalNetwork(s: ThermalNetworkSpec): void {
 /**
  * The network's steady temperatures with the iron loss held and the copper loss `cu` (taken at the
  * winding temperature Tw0) following the winding's own temperature: out[0] = T_w, out[1] = T_s.
- * Returns false (thermal runaway) when no such steady state exists.
+ * Returns false (thermal runaway) when no such steady state exists (out NaN) or when it lies beyond
+ * the model's ceiling (out that state).
  */
 export function copperTrackingSteady(s: ThermalNetworkSpec, cu: number, fe: number, Tw0: number, speed_rpm: number, out: Float64Array): boolean {
   const Rsc = statorToCoolantAt(s, speed_rpm), Rws = s.windingToStator_K_per_W, Tc = s.coolantTemp_C;
   const b = (cu * COPPER_ALPHA_20) / (1 + COPPER_ALPHA_20 * (Tw0 - 20)); // dP_cu/dT_w
   const a = cu - b * Tw0;
   const den = 1 - b * (Rsc + Rws);
-  if (!(den > 0)) return false;
+  if (!(den > 0)) { out[0] = Number.NaN; out[1] = Number.NaN; return false; }
   const Tw = (Tc + (a + fe) * Rsc + a * Rws) / den;
   const pc = a + b * Tw;
   out[0] = Tw;
   out[1] = Tc + (pc + fe) * Rsc;
-  return Tw < RUNAWAY_C && out[1] < RUNAWAY_C;
+  const top = modelCeiling_C(s);
+  return Tw < top && out[1] < top;
 }
 
 /**
@@ -129,39 +130,6 @@ export class Anderson2 {
   }
 }
 
-/**
- * The loss point at a (speed, shaft torque) on the model re-tempered to given winding and magnet
- * temperatures (least current, loss-point.ts), reusable run after run: a duty cycle or a peak-duration
- * run evaluates its losses at the temperatures reached with one instance (it owns the model's
- * temperature state; never share one between runs). Allocates nothing per call.
- */
-export class TemperedLossPoint {
-  feasible = false;
-  limitedBy: LimitedBy = 'none';
-  copper_W = 0; iron_W = 0; mechanical_W = 0; inverter_W = 0;
-  id = 0; iq = 0; current = 0; voltage = 0; torqueEm_Nm = 0;
-  private readonly sc: PointLossScratch = newPointLossScratch();
-  private lossTorque = 0;
-  constructor(readonly tm: TemperatureModel, readonly lim: DriveLimits, readonly c: LossConditions) {
-    assertLossConditions(c);
-  }
-  /** Losses at mechanical speed w (rad/s), shaft torque Ts, winding and magnet temperatures (°C); returns feasible. */
-  evaluate(w: number, Ts: number, winding_C: number, magnet_C: number): boolean {
-    this.tm.setTemperatures(winding_C, magnet_C);
-    const m = this.tm.model, sc = this.sc;
-    const pMech = mechanicalLoss(this.c.friction, this.c.losses.windage, w);
-    const fp = lossFixedPoint(m, this.lim, this.c, w, Ts, pMech, sc, Ts + (w === 0 ? 0 : this.lossTorque)).point;
-    pointLosses(m, this.c, w, fp.id, fp.iq, sc);
-    const r = sc.r;
-    this.feasible = fp.feasible; this.limitedBy = fp.limitedBy;
-    this.copper_W = r[PL.copper]!; this.iron_W = r[PL.iron]!; this.inverter_W = r[PL.inverter]!; this.mechanical_W = pMech;
-    this.id = fp.id; this.iq = fp.iq; this.current = fp.current; this.voltage = Math.hypot(r[PL.vd]!, r[PL.vq]!);
-    this.torqueEm_Nm = fp.feasible ? m.torque(fp.id, fp.iq) : fp.torque;
-    if (w !== 0 && fp.feasible) this.lossTorque = (this.iron_W + pMech) / w;
-    return fp.feasible;
-  }
-}
-
 export interface CoupledOptions {
   /** first guess of winding and stator temperatures, °C (default: the coolant's) */
   start?: { winding_C: number; stator_C: number };
@@ -176,12 +144,16 @@ export function coupledSteadyState(tm: TemperatureModel, net: ThermalNetworkSpec
   assertFinite('speed', speed_rad_s, 'rad/s');
   assertFinite('torque', torque_Nm, 'N·m');
   assertThermalNetwork(net);
-  return coupledWith(new TemperedLossPoint(tm, lim, c), net, speed_rad_s, torque_Nm, opts);
+  if (opts.start !== undefined) {
+    assertFinite('start.winding_C', opts.start.winding_C, '°C');
+    assertFinite('start.stator_C', opts.start.stator_C, '°C');
+  }
+  return coupledWith(new LossAtTemperatures(tm, net, lim, c), net, speed_rad_s, torque_Nm, opts);
 }
 
 /** The coupled steady state with a caller-owned loss evaluator (no validation): the reusable core of coupledSteadyState. */
-export function coupledWith(lp: TemperedLossPoint, net: ThermalNetworkSpec, w: number, Ts: number, opts: CoupledOptions = {}): CoupledSteadyState {
-  const rpm = (w * 30) / Math.PI, off = net.magnetAboveStator_K;
+export function coupledWith(lp: LossAtTemperatures, net: ThermalNetworkSpec, w: number, Ts: number, opts: CoupledOptions = {}): CoupledSteadyState {
+  const rpm = (w * 30) / Math.PI, off = net.magnetAboveStator_K, Tc = net.coolantTemp_C, top = modelCeiling_C(net);
   let x0 = opts.start?.winding_C ?? net.coolantTemp_C, x1 = opts.start?.stator_C ?? net.coolantTemp_C;
   const h = new Float64Array(2), nx = new Float64Array(2);
   const acc = new Anderson2();
@@ -192,9 +164,19 @@ export function coupledWith(lp: TemperedLossPoint, net: ThermalNetworkSpec, w: n
     it++;
     // an iterate outside the envelope goes on with the losses of the current it would need (cooler
     // than the steady state, a point near the maximum speed can need the hot magnet's lower flux)
-    feasible = lp.evaluate(w, Ts, x0, x1 + off);
+    feasible = lp.atTorque(w, Ts, x0, x1 + off);
     everOutside ||= !feasible;
-    if (!copperTrackingSteady(net, lp.copper_W, lp.iron_W, x0, rpm, h)) { status = 'runaway'; break; }
+    // (the copper loss's law taken at the temperature the model was evaluated at)
+    if (!copperTrackingSteady(net, lp.copper_W, lp.iron_W, lp.winding_C, rpm, h)) {
+      status = 'runaway';
+      if (!Number.isNaN(h[0]!)) {
+        // beyond the model's ceiling: the envelope decides first there, at the ceiling
+        x0 = Math.min(h[0]!, top); x1 = Math.min(h[1]!, top - off);
+        it++;
+        feasible = lp.atTorque(w, Ts, x0, x1 + off);
+      }
+      break;
+    }
     const step = Math.max(Math.abs(h[0]! - x0), Math.abs(h[1]! - x1));
     if (step <= THERMAL_TOL_K) {
       // the last evaluation was at (x0, x1): report the temperatures of its losses (within the tolerance)
@@ -204,9 +186,8 @@ export function coupledWith(lp: TemperedLossPoint, net: ThermalNetworkSpec, w: n
     }
     acc.next(x0, x1, h[0]!, h[1]!, nx);
     // the accelerated step only while it stays where a steady state can lie (at or above the
-    // coolant, losses being >= 0, and below RUNAWAY_C); else the plain step, which always does
-    const Tc = net.coolantTemp_C;
-    if (nx[0]! >= Tc && nx[1]! >= Tc && nx[0]! < RUNAWAY_C && nx[1]! < RUNAWAY_C) { x0 = nx[0]!; x1 = nx[1]!; }
+    // coolant, losses being >= 0, and below the model's ceiling); else the plain step, which always does
+    if (nx[0]! >= Tc && nx[1]! >= Tc && nx[0]! < top && nx[1]! < top) { x0 = nx[0]!; x1 = nx[1]!; }
     else { x0 = h[0]!; x1 = h[1]!; acc.reset(); }
   }
   // the envelope decides first: a point outside it at the temperatures reached has no steady state,
