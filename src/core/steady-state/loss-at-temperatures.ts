@@ -65,6 +65,9 @@ export class LossAtTemperatures {
   /** the temperature model's model */
   readonly model: MachineModel;
   private readonly ceiling: number;
+  /** no node of the network falls below the coolant under losses >= 0 (the magnet: by its offset, when negative) */
+  private readonly floorWinding: number;
+  private readonly floorMagnet: number;
   private readonly unlimited: DriveLimits;
   private readonly sc: PointLossScratch = newPointLossScratch();
   private readonly ms: MaxTorqueScratch = newScratch();
@@ -78,12 +81,15 @@ export class LossAtTemperatures {
     assertLimits(lim);
     this.model = tm.model;
     this.ceiling = modelCeiling_C(net);
+    this.floorWinding = net.coolantTemp_C;
+    this.floorMagnet = net.coolantTemp_C + Math.min(0, net.magnetAboveStator_K);
     this.unlimited = { Vmax: lim.Vmax, Imax: Infinity };
   }
 
   private retemper(winding_C: number, magnet_C: number): void {
-    this.winding_C = Math.min(winding_C, this.ceiling);
-    this.magnet_C = Math.min(magnet_C, this.ceiling);
+    // an extrapolated state (the duty cycle's periodic-state step) may leave the physical range: the model is evaluated within it
+    this.winding_C = Math.min(Math.max(winding_C, this.floorWinding), this.ceiling);
+    this.magnet_C = Math.min(Math.max(magnet_C, this.floorMagnet), this.ceiling);
     this.tm.setTemperatures(this.winding_C, this.magnet_C);
   }
 
