@@ -33,12 +33,12 @@
  * every array.
  */
 import type { PwmSpec } from '../drive/pwm-spec';
-import { legsToAlphaBeta } from '../drive/pwm-modulator';
 import type { Plant } from './plant';
 import type { Stepper } from './stepper';
 import { cosSmall, sinSmall } from '../mathematics/rotation';
 
 const SQRT3_2 = Math.sqrt(3) / 2;
+const INV_SQRT3 = 1 / Math.sqrt(3);
 /** boundary samples the probe keeps between two resets */
 export const PROBE_CAPACITY = 128;
 
@@ -53,7 +53,6 @@ export class SwitchingPeriod {
   private readonly edgeT = new Float64Array(3);
   /** phase currents a, b, c at the present time */
   readonly iph = new Float64Array(3);
-  private readonly uab = new Float64Array(2);
   private readonly yc: Float64Array;
   // the probe
   /** boundary samples since the last reset: times and phase currents (a, b, c interleaved) */
@@ -101,7 +100,9 @@ export class SwitchingPeriod {
   half(y: Float64Array, t0: number, t1: number, d: Float64Array, rising: boolean): void {
     const Th = t1 - t0;
     const plant = this.plant;
-    plant.setAngleOrigin(y[3]!);
+    // the rotation's origin near the angle (the simulator sets it at each period's start)
+    const dth = y[3]! - plant.th0;
+    if (!(dth > -0.25 && dth < 0.25)) plant.setAngleOrigin(y[3]!);
     this.currents(y);
     if (this.nb === 0) this.sample(t0);
     const edgeT = this.edgeT, pendT = this.pendT;
@@ -156,10 +157,10 @@ export class SwitchingPeriod {
     const ub = on[1]! * Vdc - drop * sgn(iph[1]!, i0);
     const uc = on[2]! * Vdc - drop * sgn(iph[2]!, i0);
     const dc0 = on[0]! * iph[0]! + on[1]! * iph[1]! + on[2]! * iph[2]!;
-    legsToAlphaBeta(ua, ub, uc, this.uab);
+    // the phase voltages in alpha-beta (legsToAlphaBeta, written out)
     const input = this.plant.input;
-    input[0] = this.uab[0]!;
-    input[1] = this.uab[1]!;
+    input[0] = (2 * ua - ub - uc) / 3;
+    input[1] = (ub - uc) * INV_SQRT3;
     this.inner.period(y, ta, tb);
     this.segments++;
     this.currents(y);

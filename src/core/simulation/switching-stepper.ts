@@ -10,7 +10,7 @@
 import type { PwmSpec } from '../drive/pwm-spec';
 import { legDuties } from '../drive/pwm-modulator';
 import type { Plant } from './plant';
-import { Stepper, makeStepper } from './stepper';
+import { Rk4Stepper, Stepper, makeStepper } from './stepper';
 import { SwitchingPeriod } from './switching-period';
 import type { AnySetup } from './simulation-setup';
 
@@ -45,11 +45,17 @@ export class SwitchingStepper extends Stepper {
 }
 
 /**
- * The stepper of a setup: the switching model when `pwm.model` is 'switching', with the setup's
- * own stepper (its solver options) integrating the segments; else null (the averaged model).
+ * The stepper of a setup: the switching model when `pwm.model` is 'switching', else null (the
+ * averaged model). The segments of a constant-parameter machine (current states) take one classical
+ * RK4 step each (a segment is at most a control period and mostly far shorter: on the traction demo
+ * the run stays within 1e-7 Imax of segments integrated by Cash-Karp at tol 1e-10, see
+ * test/switching-stepper.test.ts); any other machine (flux maps) goes through the setup's own
+ * stepper (Cash-Karp by default) and the plant's general derivative.
  */
-export function makeSwitchingStepper(setup: AnySetup & { pwm?: PwmSpec }, plant: Plant, y: Float64Array): SwitchingStepper | null {
+export function makeSwitchingStepper(setup: AnySetup, plant: Plant, y: Float64Array, segments: 'auto' | 'solver' = 'auto'): SwitchingStepper | null {
   const pwm = setup.pwm;
   if (!pwm || pwm.model !== 'switching') return null;
-  return new SwitchingStepper(plant, setup.controller.Ts, makeStepper(setup, plant, y), pwm);
+  const Ts = setup.controller.Ts;
+  const fast = segments === 'auto' && plant.model.linear !== null && !plant.fluxStates;
+  return new SwitchingStepper(plant, Ts, fast ? new Rk4Stepper(plant, Ts, 1) : makeStepper(setup, plant, y), pwm);
 }
