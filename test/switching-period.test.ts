@@ -175,4 +175,34 @@ describe('switching model: checks against closed forms', () => {
       expect(dc.mean_A).toBeCloseTo((1.5 * (M * Vdc / 2) * Irms * Math.SQRT2 * cosPhi) / Vdc, 1);
     }
   });
+
+  describe('dead-time rule (Murai, Watanabe and Iwasaki 1987: the diode that conducts sets the leg in the dead time)', () => {
+    const Vdc = 100, Tc = 1e-4, td = 2e-6;
+    const period = (id0: number, d: number[]) => {
+      const { y, sw } = rig({ Rs: 0, L: 1e3, psiM: 0, we: 0 }, { Vdc, modulation: 'svpwm', Tc, td });
+      y[0] = id0; // theta = 0: i_a = id, i_b = i_c = -id/2 (held by the large inductance)
+      const dd = Float64Array.from(d);
+      sw.resetProbe();
+      sw.half(y, 0, Tc / 2, dd, true);
+      sw.half(y, Tc / 2, Tc, dd, false);
+      return sw;
+    };
+    it('a current out of the leg loses Vdc td per period, into it gains as much', () => {
+      const sw = period(10, [0.3, 0.5, 0.7]);
+      expect((sw.legVs[0]! - sw.cmdVs[0]!) / (Vdc * td)).toBeCloseTo(-1, 9);
+      expect((sw.legVs[1]! - sw.cmdVs[1]!) / (Vdc * td)).toBeCloseTo(1, 9);
+      expect((sw.legVs[2]! - sw.cmdVs[2]!) / (Vdc * td)).toBeCloseTo(1, 9);
+    });
+    it('at zero current the pulse is delayed by td, its width kept: no volt-second error (the rule of switching-period.ts)', () => {
+      const sw = period(0, [0.3, 0.5, 0.7]);
+      for (let x = 0; x < 3; x++) expect(sw.legVs[x]! - sw.cmdVs[x]!).toBeCloseTo(0, 12);
+      // leg a rises at (1 - 0.3) Tc/2 + td
+      expect([...sw.tb.subarray(0, sw.nb)].some((t) => Math.abs(t - (0.35 * Tc + td)) < 1e-15)).toBe(true);
+    });
+    it('a pulse shorter than the dead time vanishes when the current waits for it in the lower diode', () => {
+      const sw = period(10, [0.01, 0.5, 0.5]);
+      expect(sw.legVs[0]).toBe(0);
+      expect(sw.on[0]).toBe(0);
+    });
+  });
 });

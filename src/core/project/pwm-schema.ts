@@ -51,7 +51,7 @@ export function pwmProblems(control: { fCtrl_Hz: number; pwm?: PwmSection | unde
     out.push({ path: ['control', 'pwm', 'fsw_Hz'], message: `must be control.fCtrl_Hz (${control.fCtrl_Hz} Hz, one control update per carrier period) or half of it (${control.fCtrl_Hz / 2} Hz, two updates)` });
   }
   if (pwm.deadTime_s >= 0.25 / fsw) {
-    out.push({ path: ['control', 'pwm', 'deadTime_s'], message: `must be below a quarter of the carrier period (${(0.25 / fsw).toPrecision(3)} s at ${fsw} Hz)` });
+    out.push({ path: ['control', 'pwm', 'deadTime_s'], message: `must be below a quarter of the carrier period (${(0.25e6 / fsw).toPrecision(3)} µs at ${fsw} Hz)` });
   }
   if (pwm.deviceDrop !== undefined && Vdc > 0 && 2 * pwm.deviceDrop >= Vdc) {
     out.push({ path: ['control', 'pwm', 'deviceDrop'], message: `must be < half of inverter.Vdc (${Vdc / 2} V)` });
