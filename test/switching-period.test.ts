@@ -23,7 +23,7 @@ function rig(load: Load, b: Bridge, tol = 1e-10) {
   const y = new Float64Array(STATE_SIZE);
   y[2] = load.we;
   const inner = new CashKarpStepper(plant, b.Tc, y, tol, new Float64Array([1e-6, 1e-6, 1e-3, 1e-6, Infinity]));
-  const sw = new SwitchingPeriod(plant, inner, { Vdc: b.Vdc, deadTime_s: b.td ?? 0, deviceDrop_V: b.drop ?? 0, zeroCurrent_A: 1e-3 });
+  const sw = new SwitchingPeriod(plant, inner, { Vdc: b.Vdc, deadTime_s: b.td ?? 0, deviceDrop_V: b.drop ?? 0, zeroCurrent_A: 1e-3, fsw_Hz: 1 / b.Tc });
   return { plant, y, inner, sw };
 }
 

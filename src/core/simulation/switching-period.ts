@@ -75,8 +75,15 @@ export class SwitchingPeriod {
   private readonly td: number;
   private readonly drop: number;
   private readonly i0: number;
+  /** the time the state is at while a segment is open (NaN: closed, the state at the last half's end) */
+  private tOpen = NaN;
+  /** the bound on the phase currents' rate of change for this half (see slewBound), A/s */
+  private slew = Infinity;
+  /** a half carrier period, s (for slewBound) */
+  private readonly Th: number;
 
-  constructor(private readonly plant: Plant, private readonly inner: Stepper, spec: Pick<PwmSpec, 'Vdc' | 'deadTime_s' | 'deviceDrop_V' | 'zeroCurrent_A'>) {
+  constructor(private readonly plant: Plant, private readonly inner: Stepper, spec: Pick<PwmSpec, 'Vdc' | 'deadTime_s' | 'deviceDrop_V' | 'zeroCurrent_A' | 'fsw_Hz'>) {
+    this.Th = 0.5 / spec.fsw_Hz;
     this.Vdc = spec.Vdc;
     this.td = spec.deadTime_s;
     this.drop = spec.deviceDrop_V;
@@ -96,25 +103,31 @@ export class SwitchingPeriod {
   /**
    * Integrate y in place over one half carrier period [t0, t1] with the legs' duties d[0..2]:
    * `rising` the valley-to-peak half (turn-on edges), else the peak-to-valley half (turn-off edges).
+   * With `close` false the last segment is left open (y stays at the half's last switching instant)
+   * and the next call, which must be the following half on the same y, continues it: the zero state
+   * around the carrier's peak is then one segment, not two.
    */
-  half(y: Float64Array, t0: number, t1: number, d: Float64Array, rising: boolean): void {
+  half(y: Float64Array, t0: number, t1: number, d: Float64Array, rising: boolean, close = true): void {
     const Th = t1 - t0;
     const plant = this.plant;
-    // the rotation's origin near the angle (the simulator sets it at each period's start)
-    const dth = y[3]! - plant.th0;
-    if (!(dth > -0.25 && dth < 0.25)) plant.setAngleOrigin(y[3]!);
-    this.currents(y);
-    if (this.nb === 0) this.sample(t0);
+    if (Number.isNaN(this.tOpen)) {
+      // y is at t0: the rotation's origin near its angle (the simulator sets it at each period's start)
+      const dth = y[3]! - plant.th0;
+      if (!(dth > -0.25 && dth < 0.25)) plant.setAngleOrigin(y[3]!);
+      this.tOpen = t0;
+      this.currents(y);
+      if (this.nb === 0) this.sample(t0);
+      this.slew = this.slewBound(y);
+    }
     const edgeT = this.edgeT, pendT = this.pendT;
     for (let x = 0; x < 3; x++) {
       const dx = d[x]!;
       this.cmdVs[x] += dx * this.Vdc * Th;
       // the comparator at the half's start: at the valley on only for d = 1, at the peak on for any d > 0
       const start = rising ? dx >= 1 : dx > 0;
-      if ((start ? 1 : 0) !== this.cmd[x]) this.command(x, start ? 1 : 0, t0);
+      if ((start ? 1 : 0) !== this.cmd[x]) this.command(y, x, start ? 1 : 0, t0);
       edgeT[x] = dx > 0 && dx < 1 ? (rising ? t0 + (1 - dx) * Th : t0 + dx * Th) : Infinity;
     }
-    let t = t0;
     for (let guard = 0; guard < 12; guard++) {
       let tn = Infinity;
       for (let x = 0; x < 3; x++) {
@@ -122,19 +135,26 @@ export class SwitchingPeriod {
         if (pendT[x]! < tn) tn = pendT[x]!;
       }
       if (!(tn < t1)) break;
-      if (tn > t) { this.segment(y, t, tn); t = tn; }
       for (let x = 0; x < 3; x++) {
-        if (pendT[x]! <= t) { this.on[x] = this.pendS[x]!; pendT[x] = Infinity; }
+        if (pendT[x]! <= tn) { this.advance(y, tn); this.on[x] = this.pendS[x]!; pendT[x] = Infinity; }
       }
       for (let x = 0; x < 3; x++) {
-        if (edgeT[x]! <= t) { this.command(x, rising ? 1 : 0, t); edgeT[x] = Infinity; }
+        if (edgeT[x]! <= tn) { this.command(y, x, rising ? 1 : 0, tn); edgeT[x] = Infinity; }
       }
     }
-    if (t1 > t) this.segment(y, t, t1);
+    if (close) {
+      this.advance(y, t1);
+      this.tOpen = NaN;
+    }
   }
 
-  /** The comparator commands leg x to state s at time t (the phase currents `iph` are those at t). */
-  private command(x: number, s: number, t: number): void {
+  /**
+   * The comparator commands leg x to state s at time t. The sign of the leg's current at t decides
+   * the dead time's diode: known without integrating to t when the current at the open segment's
+   * start is farther from zero than it can move by t (see `slewBound`), else from the state
+   * integrated to t.
+   */
+  private command(y: Float64Array, x: number, s: number, t: number): void {
     this.cmd[x] = s;
     const pendT = this.pendT;
     if (pendT[x]! !== Infinity) {
@@ -142,10 +162,39 @@ export class SwitchingPeriod {
       pendT[x] = Infinity; // an edge still waiting out the dead time is undone: the leg stays where it is
     }
     if (this.on[x] === s) return;
+    if (this.td <= 0) { this.advance(y, t); this.on[x] = s; return; }
+    const i0 = this.iph[x]!;
+    if (!(Math.abs(i0) > this.i0 + this.slew * (t - this.tOpen))) this.advance(y, t);
     const i = this.iph[x]!;
-    const now = this.td <= 0 || (s === 1 ? i < -this.i0 : i > this.i0);
-    if (now) this.on[x] = s;
+    const now = s === 1 ? i < -this.i0 : i > this.i0;
+    if (now) { this.advance(y, t); this.on[x] = s; }
     else { pendT[x] = t + this.td; this.pendS[x] = s; }
+  }
+
+  /** Integrate the open segment up to t (the legs unchanged since its start). */
+  private advance(y: Float64Array, t: number): void {
+    if (t > this.tOpen) {
+      this.segment(y, this.tOpen, t);
+      this.tOpen = t;
+    }
+  }
+
+  /**
+   * A bound on |di_x/dt| of any phase over the next half period, A/s, for a constant-parameter
+   * machine: |di_dq/dt| <= (|v| + Rs I + w (Lmax I + psiM)) / Lmin plus the frame's w I, with |v|
+   * at most 2(Vdc + 2 drop)/3 and I twice the present |i| plus Vdc Th/Lmin; twice that for margin.
+   * Infinity for any other machine (the sign is then always taken from the integrated state).
+   */
+  private slewBound(y: Float64Array): number {
+    const m = this.plant.model.linear;
+    if (m === null) return Infinity;
+    const iph = this.iph;
+    const I = Math.sqrt((2 / 3) * (iph[0]! * iph[0]! + iph[1]! * iph[1]! + iph[2]! * iph[2]!));
+    const Lmin = m.Ld < m.Lq ? m.Ld : m.Lq, Lmax = m.Ld > m.Lq ? m.Ld : m.Lq;
+    const w = Math.abs(this.plant.model.polePairs * y[2]!);
+    const V = (2 / 3) * (this.Vdc + 2 * this.drop);
+    const Ib = 2 * I + (this.Vdc * this.Th) / Lmin;
+    return 2 * ((V + this.plant.model.Rs * Ib + w * (Lmax * Ib + m.psiM)) / Lmin + w * Ib);
   }
 
   /** Integrate [ta, tb] with the present leg states; accumulate the probe. */

@@ -30,7 +30,7 @@ export class SwitchingStepper extends Stepper {
     legDuties(va, vb, this.spec.Vdc, this.spec.modulation, d);
     if (this.spec.updatesPerPeriod === 1) {
       const tm = 0.5 * (t0 + t1);
-      this.bridge.half(y, t0, tm, d, true);
+      this.bridge.half(y, t0, tm, d, true, false); // the zero state about the peak stays one segment
       this.bridge.half(y, tm, t1, d, false);
     } else {
       this.bridge.half(y, t0, t1, d, (Math.round(t0 / this.Ts) & 1) === 0);
