@@ -33,8 +33,9 @@
  * every array.
  */
 import type { PwmSpec } from '../drive/pwm-spec';
-import type { Plant } from './plant';
-import type { Stepper } from './stepper';
+import { STATE_SIZE, type Plant } from './plant';
+import { Rk4Stepper, type Stepper } from './stepper';
+import { nextLoadBreak } from './load-schedule';
 import { cosSmall, sinSmall } from '../mathematics/rotation';
 
 const SQRT3_2 = Math.sqrt(3) / 2;
@@ -79,10 +80,27 @@ export class SwitchingPeriod {
   private tOpen = NaN;
   /** the bound on the phase currents' rate of change for this half (see slewBound), A/s */
   private slew = Infinity;
+  /** one RK4 step per segment (constant-parameter machines; see switching-stepper.ts), else the inner stepper */
+  private readonly rk4: boolean;
+  private readonly k1 = new Float64Array(STATE_SIZE);
+  private readonly k2 = new Float64Array(STATE_SIZE);
+  private readonly k3 = new Float64Array(STATE_SIZE);
+  private readonly k4 = new Float64Array(STATE_SIZE);
+  private readonly w = new Float64Array(STATE_SIZE);
+  /** times handed between the methods below through a typed array (no boxed arguments): tv[0] the time of the step at hand */
+  private readonly tv = new Float64Array(1);
+  /** the next load breakpoint, and the breakpoint ending the piece the plant's load was last set for */
+  private nextBreak = -Infinity;
+  private loadKey = NaN;
   /** a half carrier period, s (for slewBound) */
   private readonly Th: number;
 
+  /**
+   * `inner` integrates the segments; an Rk4Stepper is driven one step per segment directly (its
+   * substeps ignored), any other through its `period`.
+   */
   constructor(private readonly plant: Plant, private readonly inner: Stepper, spec: Pick<PwmSpec, 'Vdc' | 'deadTime_s' | 'deviceDrop_V' | 'zeroCurrent_A' | 'fsw_Hz'>) {
+    this.rk4 = inner instanceof Rk4Stepper;
     this.Th = 0.5 / spec.fsw_Hz;
     this.Vdc = spec.Vdc;
     this.td = spec.deadTime_s;
@@ -116,7 +134,8 @@ export class SwitchingPeriod {
       if (!(dth > -0.25 && dth < 0.25)) plant.setAngleOrigin(y[3]!);
       this.tOpen = t0;
       this.currents(y);
-      if (this.nb === 0) this.sample(t0);
+      this.tv[0] = t0;
+      if (this.nb === 0) this.sample();
       this.slew = this.slewBound(y);
     }
     const edgeT = this.edgeT, pendT = this.pendT;
@@ -125,7 +144,7 @@ export class SwitchingPeriod {
       this.cmdVs[x] += dx * this.Vdc * Th;
       // the comparator at the half's start: at the valley on only for d = 1, at the peak on for any d > 0
       const start = rising ? dx >= 1 : dx > 0;
-      if ((start ? 1 : 0) !== this.cmd[x]) this.command(y, x, start ? 1 : 0, t0);
+      if ((start ? 1 : 0) !== this.cmd[x]) { this.tv[0] = t0; this.command(y, x, start ? 1 : 0); }
       edgeT[x] = dx > 0 && dx < 1 ? (rising ? t0 + (1 - dx) * Th : t0 + dx * Th) : Infinity;
     }
     for (let guard = 0; guard < 12; guard++) {
@@ -136,14 +155,15 @@ export class SwitchingPeriod {
       }
       if (!(tn < t1)) break;
       for (let x = 0; x < 3; x++) {
-        if (pendT[x]! <= tn) { this.advance(y, tn); this.on[x] = this.pendS[x]!; pendT[x] = Infinity; }
+        if (pendT[x]! <= tn) { this.tv[0] = tn; this.advance(y); this.on[x] = this.pendS[x]!; pendT[x] = Infinity; }
       }
       for (let x = 0; x < 3; x++) {
-        if (edgeT[x]! <= tn) { this.command(y, x, rising ? 1 : 0, tn); edgeT[x] = Infinity; }
+        if (edgeT[x]! <= tn) { this.tv[0] = tn; this.command(y, x, rising ? 1 : 0); edgeT[x] = Infinity; }
       }
     }
     if (close) {
-      this.advance(y, t1);
+      this.tv[0] = t1;
+      this.advance(y);
       this.tOpen = NaN;
     }
   }
@@ -154,7 +174,8 @@ export class SwitchingPeriod {
    * start is farther from zero than it can move by t (see `slewBound`), else from the state
    * integrated to t.
    */
-  private command(y: Float64Array, x: number, s: number, t: number): void {
+  private command(y: Float64Array, x: number, s: number): void {
+    const t = this.tv[0]!;
     this.cmd[x] = s;
     const pendT = this.pendT;
     if (pendT[x]! !== Infinity) {
@@ -162,19 +183,20 @@ export class SwitchingPeriod {
       pendT[x] = Infinity; // an edge still waiting out the dead time is undone: the leg stays where it is
     }
     if (this.on[x] === s) return;
-    if (this.td <= 0) { this.advance(y, t); this.on[x] = s; return; }
+    if (this.td <= 0) { this.advance(y); this.on[x] = s; return; }
     const i0 = this.iph[x]!;
-    if (!(Math.abs(i0) > this.i0 + this.slew * (t - this.tOpen))) this.advance(y, t);
+    if (!(Math.abs(i0) > this.i0 + this.slew * (t - this.tOpen))) this.advance(y);
     const i = this.iph[x]!;
     const now = s === 1 ? i < -this.i0 : i > this.i0;
-    if (now) { this.advance(y, t); this.on[x] = s; }
+    if (now) { this.advance(y); this.on[x] = s; }
     else { pendT[x] = t + this.td; this.pendS[x] = s; }
   }
 
   /** Integrate the open segment up to t (the legs unchanged since its start). */
-  private advance(y: Float64Array, t: number): void {
+  private advance(y: Float64Array): void {
+    const t = this.tv[0]!;
     if (t > this.tOpen) {
-      this.segment(y, this.tOpen, t);
+      this.segment(y);
       this.tOpen = t;
     }
   }
@@ -198,7 +220,8 @@ export class SwitchingPeriod {
   }
 
   /** Integrate [ta, tb] with the present leg states; accumulate the probe. */
-  private segment(y: Float64Array, ta: number, tb: number): void {
+  private segment(y: Float64Array): void {
+    const ta = this.tOpen, tb = this.tv[0]!;
     const iph = this.iph;
     const on = this.on;
     const Vdc = this.Vdc, drop = this.drop, i0 = this.i0;
@@ -210,7 +233,8 @@ export class SwitchingPeriod {
     const input = this.plant.input;
     input[0] = (2 * ua - ub - uc) / 3;
     input[1] = (ub - uc) * INV_SQRT3;
-    this.inner.period(y, ta, tb);
+    if (this.rk4) this.rk4Segment(y);
+    else this.inner.period(y, ta, tb);
     this.segments++;
     this.currents(y);
     const dc1 = on[0]! * iph[0]! + on[1]! * iph[1]! + on[2]! * iph[2]!;
@@ -221,10 +245,46 @@ export class SwitchingPeriod {
     this.idcInt += 0.5 * (dc0 + dc1) * h;
     this.idcSqInt += ((dc0 * dc0 + dc0 * dc1 + dc1 * dc1) * h) / 3;
     this.span += h;
-    this.sample(tb);
+    this.sample();
   }
 
-  private sample(t: number): void {
+  /**
+   * Classical RK4 over the segment [tOpen, tv[0]], one step per piece between load breakpoints (the
+   * plant's load set once per piece, as Stepper.period does); the time goes to the plant through
+   * its typed array (no boxed argument). Common practice (no source).
+   */
+  private rk4Segment(y: Float64Array): void {
+    const plant = this.plant;
+    const load = plant.params.load;
+    const tb = this.tv[0]!;
+    const time = plant.time;
+    const { k1, k2, k3, k4, w } = this;
+    let a = this.tOpen;
+    for (let piece = 0; piece < 8; piece++) {
+      if (a >= this.nextBreak) this.nextBreak = nextLoadBreak(load, a);
+      const b = this.nextBreak < tb ? this.nextBreak : tb;
+      if (this.nextBreak !== this.loadKey) { plant.setLoadSegment(a, b); this.loadKey = this.nextBreak; }
+      const h = b - a;
+      if (h > 0) {
+        time[0] = a;
+        plant.derivAt(k1, y);
+        for (let i = 0; i < STATE_SIZE; i++) w[i] = y[i]! + 0.5 * h * k1[i]!;
+        time[0] = a + 0.5 * h;
+        plant.derivAt(k2, w);
+        for (let i = 0; i < STATE_SIZE; i++) w[i] = y[i]! + 0.5 * h * k2[i]!;
+        plant.derivAt(k3, w);
+        for (let i = 0; i < STATE_SIZE; i++) w[i] = y[i]! + h * k3[i]!;
+        time[0] = b;
+        plant.derivAt(k4, w);
+        for (let i = 0; i < STATE_SIZE; i++) y[i] = y[i]! + (h / 6) * (k1[i]! + 2 * k2[i]! + 2 * k3[i]! + k4[i]!);
+      }
+      if (b >= tb) break;
+      a = b;
+    }
+  }
+
+  private sample(): void {
+    const t = this.tv[0]!;
     const n = this.nb;
     if (n >= PROBE_CAPACITY) return;
     this.tb[n] = t;
