@@ -137,6 +137,13 @@ describe('switching model: checks against closed forms', () => {
     harmonicCoefficients(ia, n, 1, 1, c);
     const cosAngle = (err.a * c[0]! + err.b * c[1]!) / (err.fundamental_V * Math.hypot(c[0]!, c[1]!));
     expect(cosAngle).toBeLessThan(-0.99);
+    // the error is a square wave against each current: its 5th harmonic a fifth of its fundamental,
+    // the 3rd (common mode) absent from the phase (Murai, Watanabe and Iwasaki 1987)
+    const e5 = deadTimeVoltageError(ea, eb, ec, n, 5).fundamental_V; // 5 "cycles" in the window: the 5th harmonic
+    const e3 = deadTimeVoltageError(ea, eb, ec, n, 3).fundamental_V;
+    expect(e5 / err.fundamental_V).toBeGreaterThan(0.2 * 0.9);
+    expect(e5 / err.fundamental_V).toBeLessThan(0.2 * 1.1);
+    expect(e3 / err.fundamental_V).toBeLessThan(0.01);
   });
 
   it('DC-link capacitor rms current of sinusoidal PWM within 3 % of I sqrt(2M (sqrt 3/(4 pi) + cos² phi (sqrt 3/pi - 9M/16))) (Kolar and Round 2006, IEE Proc. Electric Power Applications 153(4))', () => {

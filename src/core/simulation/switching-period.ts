@@ -8,7 +8,8 @@
  *
  * Dead time td: a commanded edge turns the conducting device off at once and the other device of the
  * leg on td later; in between the leg follows the diode that conducts, which the sign of the leg's
- * phase current at the commanded edge decides (the state is integrated up to that edge first):
+ * phase current at the commanded edge decides (the state integrated up to that edge, or, for a
+ * constant-parameter machine, the current at the segment's start when it cannot reach zero by then):
  *   - turn-on command (leg to the plus rail): a current into the leg (i < -zeroCurrent) already
  *     flows in the upper diode, the leg rises at once; otherwise (i > 0 through the lower diode)
  *     it rises td later;
