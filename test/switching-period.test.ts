@@ -9,7 +9,7 @@ import type { PwmModulation } from '../src/core/drive/pwm-spec';
 import { periodRipple } from '../src/core/simulation/current-ripple';
 import { deadTimeVoltageError } from '../src/core/simulation/dead-time-error';
 import { dcLinkCurrent } from '../src/core/simulation/dc-link-current';
-import { harmonicCoefficients } from '../src/core/mathematics/harmonics';
+import { harmonicAmplitude, harmonicCoefficients, thd } from '../src/core/mathematics/harmonics';
 
 interface Load { Rs: number; L: number; psiM: number; we: number }
 interface Bridge { Vdc: number; td?: number; drop?: number; modulation: PwmModulation; Tc: number }
@@ -144,6 +144,13 @@ describe('switching model: checks against closed forms', () => {
     expect(e5 / err.fundamental_V).toBeGreaterThan(0.2 * 0.9);
     expect(e5 / err.fundamental_V).toBeLessThan(0.2 * 1.1);
     expect(e3 / err.fundamental_V).toBeLessThan(0.01);
+    // that 5th harmonic voltage, (4/pi) Vdc td fsw / 5, drives a 5th harmonic current through the
+    // load's impedance at 5 f, |Rs + j 5 w L| (the EMF is at the fundamental only): within 5 %
+    const I5 = harmonicAmplitude(ia, n, 1, 5);
+    expect(I5 / (closed / 5 / Math.hypot(l.Rs, 5 * l.we * l.L))).toBeGreaterThan(0.95);
+    expect(I5 / (closed / 5 / Math.hypot(l.Rs, 5 * l.we * l.L))).toBeLessThan(1.05);
+    // the THD of the current to harmonic 25 holds that 5th (and the 7th, ...)
+    expect(thd(ia, n, 1, 25)).toBeGreaterThan(I5 / harmonicAmplitude(ia, n, 1, 1));
   });
 
   it('DC-link capacitor rms current of sinusoidal PWM within 3 % of I sqrt(2M (sqrt 3/(4 pi) + cos² phi (sqrt 3/pi - 9M/16))) (Kolar and Round 2006, IEE Proc. Electric Power Applications 153(4))', () => {
