@@ -7,6 +7,7 @@
 import { envelopeBench } from './envelope';
 import { fluxMapEnvelopeBench } from './flux-map-envelope';
 import { simulateBench, simulateMapBench } from './simulate';
+import { switchingBench } from './switching';
 import { cliStartBench } from './cli-start';
 import { efficiencyMapBench } from './efficiency-map';
 import { cliEfficiencyThreadsBench } from './cli-efficiency-threads';
@@ -19,7 +20,7 @@ export interface BenchSection {
   run: () => void | Promise<void>;
 }
 
-const sections: BenchSection[] = [envelopeBench, fluxMapEnvelopeBench, simulateBench, simulateMapBench, cliStartBench, efficiencyMapBench, cliEfficiencyThreadsBench, continuousTorqueBench, peakDurationBench, dutyCycleBench];
+const sections: BenchSection[] = [envelopeBench, fluxMapEnvelopeBench, simulateBench, simulateMapBench, switchingBench, cliStartBench, efficiencyMapBench, cliEfficiencyThreadsBench, continuousTorqueBench, peakDurationBench, dutyCycleBench];
 
 const argv = process.argv.slice(2);
 const onlyAt = argv.indexOf('--only');

@@ -142,6 +142,12 @@ export const KEYS: Readonly<Record<string, { unit: string; doc: string }>> = {
   'control.speedPrefilter': { unit: '', doc: 'first-order filter on the speed reference with the speed PI time constant Kp/Ki (tames the symmetric optimum overshoot), default false' },
   'control.speedRamp_rpm_per_s': { unit: 'rpm/s', doc: 'speed reference ramp limit; absent = none' },
   'control.speedLoopDivider': { unit: '', doc: 'speed loop runs every N current periods, default 1' },
+  'control.pwm': { unit: '', doc: 'how the simulation models the inverter\'s pulse-width modulation {model, fsw_Hz, deadTime_s, modulation, deviceDrop}; absent = the averaged inverter' },
+  'control.pwm.model': { unit: '', doc: '"average" (default: the controller\'s voltage applied as the mean over each period) or "switching" (each carrier period split at the switching instants of the three legs: current ripple, dead time, DC-link current)' },
+  'control.pwm.fsw_Hz': { unit: 'Hz', doc: 'carrier (switching) frequency, symmetric carrier with centred pulses; control.fCtrl_Hz when not given; control.fCtrl_Hz must be one (update at the carrier\'s valley) or two times it (valley and peak)' },
+  'control.pwm.deadTime_s': { unit: 's', doc: 'dead time between one device of a leg turning off and the other turning on, below a quarter of the carrier period, default 0' },
+  'control.pwm.modulation': { unit: '', doc: '"sinusoidal" (sine-triangle), "svpwm" (min-max zero-sequence injection, centred space-vector PWM) or "dpwm1" (discontinuous: the leg of the largest voltage clamped to its rail for 60° around its peak); from inverter.modulation when not given ("six-step" gives "svpwm")' },
+  'control.pwm.deviceDrop': { unit: 'V', doc: 'on-state drop of a conducting switch or diode, against its current; inverter.deviceDrop when not given' },
 
   scenario: { unit: '', doc: 'what the simulation does' },
   'scenario.duration_s': { unit: 's', doc: 'simulated time' },

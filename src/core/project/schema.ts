@@ -12,6 +12,7 @@ import { fluxMapCapProblem, fluxMapCoverageProblems, fluxMapSchema } from './flu
 import { lossesSchema } from './loss-schema';
 import { thermalCapProblem, thermalSchema } from './thermal-schema';
 import { dutyCycleCapProblem, dutyCycleSchema } from './duty-cycle-schema';
+import { pwmProblems, pwmSchema } from './pwm-schema';
 import { CHOOSE_ONE, headerProblem, listCapProblem, problemsOf, type ProjectProblem } from './schema-problems';
 
 export { CAPPED_LISTS, KEYS, MAX_LIST_ENTRIES, MAX_PROJECT_BYTES, PROJECT_FORMAT, PROJECT_VERSION } from './schema-keys';
@@ -198,6 +199,7 @@ const controlSchema = z
     speedPrefilter: z.boolean().default(false),
     speedRamp_rpm_per_s: num('control.speedRamp_rpm_per_s', 0, 1e8, { gtMin: true }).optional(),
     speedLoopDivider: num('control.speedLoopDivider', 1, 1000, { int: true }).default(1),
+    pwm: pwmSchema.optional(), // the averaged inverter when absent
   })
   .superRefine((c, ctx) => {
     const bad = (path: string, message: string): void => ctx.addIssue({ code: 'custom', path: [path], message });
@@ -285,6 +287,7 @@ export const projectSchema = projectObject.superRefine((p, ctx) => {
     const words = motorPeak !== undefined && motorPeak < p.inverter.Imax ? 'motor.peakCurrent, below inverter.Imax' : 'inverter.Imax';
     for (const c of fluxMapCoverageProblems(map, Ipk, words)) ctx.addIssue({ code: 'custom', path: ['motor', 'fluxMap', c.key], message: c.message });
   }
+  for (const c of pwmProblems(p.control, p.inverter.Vdc)) ctx.addIssue({ code: 'custom', path: c.path, message: c.message });
   if (p.control?.mode === 'current-step' && p.scenario !== undefined && p.scenario.currentStep === undefined) {
     ctx.addIssue({ code: 'custom', path: ['scenario', 'currentStep'], message: 'is required by control.mode "current-step"' });
   }
@@ -307,6 +310,7 @@ export type { InverterLossSection, IronLossSection, LossesSection, WindageSectio
 export { DEFAULT_IRON_BETA } from './loss-schema';
 export type { ThermalSection } from './thermal-schema';
 export type { DutyCycleSection } from './duty-cycle-schema';
+export type { PwmSection } from './pwm-schema';
 export { MAX_DUTY_CYCLE_SAMPLES } from './duty-cycle-schema';
 
 // The nameplate section must be usable as a Nameplate as it is.

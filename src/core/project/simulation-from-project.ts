@@ -26,6 +26,7 @@ import { tuningInputFor } from './tuning-from-project';
 import type { MachineInput } from '../machine/machine-model';
 import { machineModel } from '../machine/linear-dq';
 import { zeroCurrentTerms } from '../machine/model-numeric';
+import { pwmFromProject } from './pwm-from-project';
 
 export interface SimulationOverrides {
   control?: Partial<ControlSection>;
@@ -151,6 +152,7 @@ export function simulationFromProject(p: ResolvedProject, overrides: SimulationO
     },
     tuning,
     findings,
+    pwm: pwmFromProject(p, control),
   };
 }
 

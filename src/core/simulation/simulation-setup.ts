@@ -8,6 +8,7 @@ import type { DqMachine } from '../machine/dq-machine';
 import type { MachineInput } from '../machine/machine-model';
 import type { ControllerConfig } from '../control/controller';
 import type { TuningReport } from '../control/tuning';
+import type { PwmSpec } from '../drive/pwm-spec';
 import { DEFAULT_MAX_POINTS } from './decimate';
 
 export interface SolverOptions {
@@ -70,6 +71,8 @@ export interface SimulationSetup<M extends MachineInput = DqMachine> {
   tuning: TuningReport | null;
   /** what the scenario asks that the motor or the drive cannot give, found before the run (see `scenarioFindings`) */
   findings?: Finding[];
+  /** the inverter's modulation; absent or model 'average' = the averaged inverter (see switching-stepper.ts) */
+  pwm?: PwmSpec;
 }
 
 export interface RunOptions {

@@ -1,0 +1,77 @@
+/**
+ * The modulator of a two-level three-phase bridge with a symmetric (triangular) carrier: from the
+ * phase voltage references and the bus, each leg's duty (the fraction of the carrier period its upper
+ * device is commanded on), and the commanded switching instants of the legs within a period
+ * (centred pulses).
+ *
+ * A leg's average voltage against the bus minus is d·Vdc; the phase voltage is that minus the mean
+ * of the three legs, so adding the same zero-sequence voltage v0 to the three references changes no
+ * phase voltage: d_x = 1/2 + (v_x + v0)/Vdc. The modulations (see PwmModulation) differ in v0:
+ * sinusoidal 0; min-max (svpwm) -(max + min)/2, which centres the active vectors in the period as
+ * space-vector PWM does; DPWM1 the v0 that puts the leg of the largest |v| on its rail.
+ * Holmes and Lipo (2003), Pulse Width Modulation for Power Converters, ch. 5 and 6; Hava, Kerkman
+ * and Lipo (1998), "Simple analytical and graphical methods for carrier-based PWM-VSI drives",
+ * IEEE Trans. Power Electronics 14(1).
+ *
+ * Overmodulation is clipped as a compare-register modulator does: each duty saturates at 0 or 1
+ * after the injection (a reference outside the linear range loses the excess of the legs that
+ * saturate; the middle leg keeps its value).
+ */
+import type { PwmModulation } from './pwm-spec';
+
+const SQRT3_2 = Math.sqrt(3) / 2;
+
+/**
+ * The duties of the three legs into `d` (length >= 3) for the stationary-frame reference
+ * (v_alpha, v_beta) (amplitude-invariant, peak phase V) on the bus `Vdc`, V. Allocation-free.
+ */
+export function legDuties(valpha: number, vbeta: number, Vdc: number, modulation: PwmModulation, d: Float64Array): void {
+  const va = valpha;
+  const vb = -0.5 * valpha + SQRT3_2 * vbeta;
+  const vc = -0.5 * valpha - SQRT3_2 * vbeta;
+  phaseDuties(va, vb, vc, Vdc, modulation, d);
+}
+
+/** The duties of the three legs into `d` for the phase references va, vb, vc (V, phase to neutral). */
+export function phaseDuties(va: number, vb: number, vc: number, Vdc: number, modulation: PwmModulation, d: Float64Array): void {
+  let v0 = 0;
+  if (modulation !== 'sinusoidal') {
+    const mx = va > vb ? (va > vc ? va : vc) : vb > vc ? vb : vc;
+    const mn = va < vb ? (va < vc ? va : vc) : vb < vc ? vb : vc;
+    if (modulation === 'svpwm') v0 = -0.5 * (mx + mn);
+    else v0 = mx + mn >= 0 ? 0.5 * Vdc - mx : -0.5 * Vdc - mn; // dpwm1: the larger |v| on its rail
+  }
+  const inv = 1 / Vdc;
+  d[0] = clip01(0.5 + (va + v0) * inv);
+  d[1] = clip01(0.5 + (vb + v0) * inv);
+  d[2] = clip01(0.5 + (vc + v0) * inv);
+}
+
+function clip01(x: number): number {
+  return x < 0 ? 0 : x > 1 ? 1 : x;
+}
+
+/**
+ * The commanded edges of a leg with duty d in a carrier period [0, Tc] of a symmetric carrier whose
+ * valley (all legs off) is at the period's ends: the upper device is on over
+ * [(1 - d) Tc/2, (1 + d) Tc/2]. With two updates per period the rising edge takes the first half's
+ * duty and the falling edge the second's. Returns the rising edge time; the falling one is Tc - it
+ * for one update.
+ */
+export function risingEdge(d: number, Tc: number): number {
+  return 0.5 * (1 - d) * Tc;
+}
+
+/** The falling edge of a leg with duty d (the second half's duty with two updates per period). */
+export function fallingEdge(d: number, Tc: number): number {
+  return 0.5 * (1 + d) * Tc;
+}
+
+/**
+ * The phase voltages (alpha, beta; amplitude-invariant) of leg voltages ua, ub, uc against the bus
+ * minus, into out[0], out[1]: v_alpha = (2 ua - ub - uc)/3, v_beta = (ub - uc)/sqrt 3.
+ */
+export function legsToAlphaBeta(ua: number, ub: number, uc: number, out: Float64Array): void {
+  out[0] = (2 * ua - ub - uc) / 3;
+  out[1] = (ub - uc) / (2 * SQRT3_2);
+}

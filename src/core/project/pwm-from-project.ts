@@ -1,0 +1,35 @@
+/**
+ * The PWM specification of a project (../drive/pwm-spec.ts) for the simulator, from its control
+ * section (schema defaults; `control.pwm` absent = the averaged inverter) and its inverter: the
+ * carrier frequency (the control rate when absent) and the updates per carrier period, the
+ * modulation (from inverter.modulation when absent: "sinusoidal" stays, "svpwm" and "six-step" give
+ * min-max "svpwm", which clips into the hexagon as six-step does), the device drop (the inverter's
+ * when absent), the bus. The phase current that counts as zero for the dead time and the drop is a
+ * ten-thousandth of the peak current limit.
+ */
+import { InputError } from '../base/errors';
+import type { PwmSpec } from '../drive/pwm-spec';
+import type { ResolvedProject } from './project';
+import type { ControlSection } from './schema';
+import { carrierFrequency, pwmProblems } from './pwm-schema';
+
+/** The phase current below which the switching model counts a current as zero, per ampere of the peak limit. */
+export const ZERO_CURRENT_FRACTION = 1e-4;
+
+export function pwmFromProject(p: ResolvedProject, control: ControlSection): PwmSpec {
+  // the same checks as the schema's, for a control section changed after parsing (overrides)
+  const bad = pwmProblems(control, p.inverter.Vdc)[0];
+  if (bad) throw new InputError(bad.path.join('.'), bad.message);
+  const pwm = control.pwm;
+  const fsw = carrierFrequency(control);
+  return {
+    model: pwm?.model ?? 'average',
+    fsw_Hz: fsw,
+    updatesPerPeriod: Math.abs(control.fCtrl_Hz / fsw - 2) < 1e-9 ? 2 : 1,
+    deadTime_s: pwm?.deadTime_s ?? 0,
+    modulation: pwm?.modulation ?? (p.inverter.modulation === 'sinusoidal' ? 'sinusoidal' : 'svpwm'),
+    Vdc: p.inverter.Vdc,
+    deviceDrop_V: pwm?.deviceDrop ?? p.inverter.deviceDrop,
+    zeroCurrent_A: ZERO_CURRENT_FRACTION * p.peak.Imax,
+  };
+}

@@ -1,0 +1,332 @@
+/**
+ * The switching bridge over a carrier period: the period split at the switching instants of the
+ * three legs and the plant integrated across the segments with the phase voltages of each switching
+ * state. A symmetric (triangular) carrier with its valley at the period's ends: the rising half
+ * (valley to peak) holds the legs' turn-on edges at (1 - d) Tc/2, the falling half (peak to valley)
+ * their turn-off edges at (1 + d) Tc/2; `half` integrates one of the two, so that a control update
+ * may come at the peak and at the valley (two per period) or at the valley only (one).
+ *
+ * Dead time td: a commanded edge turns the conducting device off at once and the other device of the
+ * leg on td later; in between the leg follows the diode that conducts, which the sign of the leg's
+ * phase current at the commanded edge decides (the state integrated up to that edge, or, for a
+ * constant-parameter machine, the current at the segment's start when it cannot reach zero by then):
+ *   - turn-on command (leg to the plus rail): a current into the leg (i < -zeroCurrent) already
+ *     flows in the upper diode, the leg rises at once; otherwise (i > 0 through the lower diode)
+ *     it rises td later;
+ *   - turn-off command: a current out of the leg (i > zeroCurrent) moves to the lower diode at
+ *     once; otherwise it stays on the upper diode for td.
+ * Near zero current (|i| <= zeroCurrent) the leg stays for td on the side it was on (the diode of
+ * the device that turned off), so such a pulse is delayed by td, its width unchanged: no mean
+ * voltage error at zero current. A pulse shorter than the dead time vanishes (its turn-off command
+ * cancels a turn-on still waiting). The mean leg error is -sgn(i) Vdc td / Tc (Murai, Watanabe and
+ * Iwasaki (1987), "Waveform distortion and correction circuit for PWM inverters with switching
+ * lag-times", IEEE Trans. Industry Applications IA-23(5)).
+ *
+ * Device drop: a leg connected to a rail sits at that rail minus deviceDrop in the direction of its
+ * current (the switch or the diode conducting), u = s Vdc - deviceDrop sgn(i), with the sign taken
+ * at each segment's start and made linear across |i| <= zeroCurrent (common practice, no source).
+ *
+ * The segments are integrated by a Stepper (stepper.ts; Cash-Karp through the plant's derivative
+ * for any machine, flux maps included). The probe accumulates, until `resetProbe`, the phase
+ * currents at every segment boundary (the extremes of a piecewise-smooth ripple), the legs' actual
+ * and commanded volt-seconds and the integrals of the DC-link current i_dc = sum s_x i_x and of its
+ * square (each segment's current taken as linear between its ends). Allocation-free; the run owns
+ * every array.
+ */
+import type { PwmSpec } from '../drive/pwm-spec';
+import { STATE_SIZE, type Plant } from './plant';
+import { Rk4Stepper, type Stepper } from './stepper';
+import { nextLoadBreak } from './load-schedule';
+import { cosSmall, sinSmall } from '../mathematics/rotation';
+
+const SQRT3_2 = Math.sqrt(3) / 2;
+const INV_SQRT3 = 1 / Math.sqrt(3);
+/** boundary samples the probe keeps between two resets */
+export const PROBE_CAPACITY = 128;
+
+export class SwitchingPeriod {
+  /** actual leg states: 1 = the leg is on the plus rail (upper switch or diode conducting) */
+  readonly on = new Uint8Array(3);
+  /** the comparator's command per leg */
+  private readonly cmd = new Uint8Array(3);
+  /** a delayed edge per leg (Infinity = none) and the state it sets */
+  private readonly pendT = new Float64Array(3).fill(Infinity);
+  private readonly pendS = new Uint8Array(3);
+  private readonly edgeT = new Float64Array(3);
+  /** phase currents a, b, c at the present time */
+  readonly iph = new Float64Array(3);
+  private readonly yc: Float64Array;
+  // the probe
+  /** boundary samples since the last reset: times and phase currents (a, b, c interleaved) */
+  nb = 0;
+  readonly tb = new Float64Array(PROBE_CAPACITY);
+  readonly ib = new Float64Array(3 * PROBE_CAPACITY);
+  /** integral of each leg's voltage (against the bus minus) since the reset, V·s */
+  readonly legVs = new Float64Array(3);
+  /** the same integral as commanded (d Vdc per half period, no dead time, no drop), V·s */
+  readonly cmdVs = new Float64Array(3);
+  /** integrals of the DC-link current and of its square since the reset, A·s and A²·s */
+  idcInt = 0;
+  idcSqInt = 0;
+  /** time accumulated since the reset, s */
+  span = 0;
+  /** segments integrated in all (for statistics) */
+  segments = 0;
+
+  private readonly Vdc: number;
+  private readonly td: number;
+  private readonly drop: number;
+  private readonly i0: number;
+  /** the time the state is at while a segment is open (NaN: closed, the state at the last half's end) */
+  private tOpen = NaN;
+  /** the bound on the phase currents' rate of change for this half (see slewBound), A/s */
+  private slew = Infinity;
+  /** one RK4 step per segment (constant-parameter machines; see switching-stepper.ts), else the inner stepper */
+  private readonly rk4: boolean;
+  private readonly k1 = new Float64Array(STATE_SIZE);
+  private readonly k2 = new Float64Array(STATE_SIZE);
+  private readonly k3 = new Float64Array(STATE_SIZE);
+  private readonly k4 = new Float64Array(STATE_SIZE);
+  private readonly w = new Float64Array(STATE_SIZE);
+  /** times handed between the methods below through a typed array (no boxed arguments): tv[0] the time of the step at hand */
+  private readonly tv = new Float64Array(1);
+  /** the next load breakpoint, and the breakpoint ending the piece the plant's load was last set for */
+  private nextBreak = -Infinity;
+  private loadKey = NaN;
+  /** a half carrier period, s (for slewBound) */
+  private readonly Th: number;
+
+  /**
+   * `inner` integrates the segments; an Rk4Stepper is driven one step per segment directly (its
+   * substeps ignored), any other through its `period`.
+   */
+  constructor(private readonly plant: Plant, private readonly inner: Stepper, spec: Pick<PwmSpec, 'Vdc' | 'deadTime_s' | 'deviceDrop_V' | 'zeroCurrent_A' | 'fsw_Hz'>) {
+    this.rk4 = inner instanceof Rk4Stepper;
+    this.Th = 0.5 / spec.fsw_Hz;
+    this.Vdc = spec.Vdc;
+    this.td = spec.deadTime_s;
+    this.drop = spec.deviceDrop_V;
+    this.i0 = spec.zeroCurrent_A > 0 ? spec.zeroCurrent_A : 1e-12;
+    this.yc = new Float64Array(8);
+  }
+
+  resetProbe(): void {
+    this.nb = 0;
+    this.legVs.fill(0);
+    this.cmdVs.fill(0);
+    this.idcInt = 0;
+    this.idcSqInt = 0;
+    this.span = 0;
+  }
+
+  /**
+   * Integrate y in place over one half carrier period [t0, t1] with the legs' duties d[0..2]:
+   * `rising` the valley-to-peak half (turn-on edges), else the peak-to-valley half (turn-off edges).
+   * With `close` false the last segment is left open (y stays at the half's last switching instant)
+   * and the next call, which must be the following half on the same y, continues it: the zero state
+   * around the carrier's peak is then one segment, not two.
+   */
+  half(y: Float64Array, t0: number, t1: number, d: Float64Array, rising: boolean, close = true): void {
+    const Th = t1 - t0;
+    const plant = this.plant;
+    if (Number.isNaN(this.tOpen)) {
+      // y is at t0: the rotation's origin near its angle (the simulator sets it at each period's start)
+      const dth = y[3]! - plant.th0;
+      if (!(dth > -0.25 && dth < 0.25)) plant.setAngleOrigin(y[3]!);
+      this.tOpen = t0;
+      this.currents(y);
+      this.tv[0] = t0;
+      if (this.nb === 0) this.sample();
+      this.slew = this.slewBound(y);
+    }
+    const edgeT = this.edgeT, pendT = this.pendT;
+    for (let x = 0; x < 3; x++) {
+      const dx = d[x]!;
+      this.cmdVs[x] += dx * this.Vdc * Th;
+      // the comparator at the half's start: at the valley on only for d = 1, at the peak on for any d > 0
+      const start = rising ? dx >= 1 : dx > 0;
+      if ((start ? 1 : 0) !== this.cmd[x]) { this.tv[0] = t0; this.command(y, x, start ? 1 : 0); }
+      edgeT[x] = dx > 0 && dx < 1 ? (rising ? t0 + (1 - dx) * Th : t0 + dx * Th) : Infinity;
+    }
+    for (let guard = 0; guard < 12; guard++) {
+      let tn = Infinity;
+      for (let x = 0; x < 3; x++) {
+        if (edgeT[x]! < tn) tn = edgeT[x]!;
+        if (pendT[x]! < tn) tn = pendT[x]!;
+      }
+      if (!(tn < t1)) break;
+      for (let x = 0; x < 3; x++) {
+        if (pendT[x]! <= tn) { this.tv[0] = tn; this.advance(y); this.on[x] = this.pendS[x]!; pendT[x] = Infinity; }
+      }
+      for (let x = 0; x < 3; x++) {
+        if (edgeT[x]! <= tn) { this.tv[0] = tn; this.command(y, x, rising ? 1 : 0); edgeT[x] = Infinity; }
+      }
+    }
+    if (close) {
+      this.tv[0] = t1;
+      this.advance(y);
+      this.tOpen = NaN;
+    }
+  }
+
+  /**
+   * The comparator commands leg x to state s at time t. The sign of the leg's current at t decides
+   * the dead time's diode: known without integrating to t when the current at the open segment's
+   * start is farther from zero than it can move by t (see `slewBound`), else from the state
+   * integrated to t.
+   */
+  private command(y: Float64Array, x: number, s: number): void {
+    const t = this.tv[0]!;
+    this.cmd[x] = s;
+    const pendT = this.pendT;
+    if (pendT[x]! !== Infinity) {
+      if (this.pendS[x] === s) return; // already on its way there
+      pendT[x] = Infinity; // an edge still waiting out the dead time is undone: the leg stays where it is
+    }
+    if (this.on[x] === s) return;
+    if (this.td <= 0) { this.advance(y); this.on[x] = s; return; }
+    const i0 = this.iph[x]!;
+    if (!(Math.abs(i0) > this.i0 + this.slew * (t - this.tOpen))) this.advance(y);
+    const i = this.iph[x]!;
+    const now = s === 1 ? i < -this.i0 : i > this.i0;
+    if (now) { this.advance(y); this.on[x] = s; }
+    else { pendT[x] = t + this.td; this.pendS[x] = s; }
+  }
+
+  /** Integrate the open segment up to t (the legs unchanged since its start). */
+  private advance(y: Float64Array): void {
+    const t = this.tv[0]!;
+    if (t > this.tOpen) {
+      this.segment(y);
+      this.tOpen = t;
+    }
+  }
+
+  /**
+   * A bound on |di_x/dt| of any phase over the next half period, A/s, for a constant-parameter
+   * machine: |di_dq/dt| <= (|v| + Rs I + w (Lmax I + psiM)) / Lmin plus the frame's w I, with |v|
+   * at most 2(Vdc + 2 drop)/3 and I twice the present |i| plus Vdc Th/Lmin; twice that for margin.
+   * Infinity for any other machine (the sign is then always taken from the integrated state).
+   */
+  private slewBound(y: Float64Array): number {
+    const m = this.plant.model.linear;
+    if (m === null) return Infinity;
+    const iph = this.iph;
+    const I = Math.sqrt((2 / 3) * (iph[0]! * iph[0]! + iph[1]! * iph[1]! + iph[2]! * iph[2]!));
+    const Lmin = m.Ld < m.Lq ? m.Ld : m.Lq, Lmax = m.Ld > m.Lq ? m.Ld : m.Lq;
+    const w = Math.abs(this.plant.model.polePairs * y[2]!);
+    const V = (2 / 3) * (this.Vdc + 2 * this.drop);
+    const Ib = 2 * I + (this.Vdc * this.Th) / Lmin;
+    return 2 * ((V + this.plant.model.Rs * Ib + w * (Lmax * Ib + m.psiM)) / Lmin + w * Ib);
+  }
+
+  /** Integrate [ta, tb] with the present leg states; accumulate the probe. */
+  private segment(y: Float64Array): void {
+    const ta = this.tOpen, tb = this.tv[0]!;
+    const iph = this.iph;
+    const on = this.on;
+    const Vdc = this.Vdc, drop = this.drop, i0 = this.i0;
+    const ua = on[0]! * Vdc - drop * sgn(iph[0]!, i0);
+    const ub = on[1]! * Vdc - drop * sgn(iph[1]!, i0);
+    const uc = on[2]! * Vdc - drop * sgn(iph[2]!, i0);
+    const dc0 = on[0]! * iph[0]! + on[1]! * iph[1]! + on[2]! * iph[2]!;
+    // the phase voltages in alpha-beta (legsToAlphaBeta, written out)
+    const input = this.plant.input;
+    input[0] = (2 * ua - ub - uc) / 3;
+    input[1] = (ub - uc) * INV_SQRT3;
+    if (this.rk4) this.rk4Segment(y);
+    else this.inner.period(y, ta, tb);
+    this.segments++;
+    this.currents(y);
+    const dc1 = on[0]! * iph[0]! + on[1]! * iph[1]! + on[2]! * iph[2]!;
+    const h = tb - ta;
+    this.legVs[0] += ua * h;
+    this.legVs[1] += ub * h;
+    this.legVs[2] += uc * h;
+    this.idcInt += 0.5 * (dc0 + dc1) * h;
+    this.idcSqInt += ((dc0 * dc0 + dc0 * dc1 + dc1 * dc1) * h) / 3;
+    this.span += h;
+    this.sample();
+  }
+
+  /**
+   * Classical RK4 over the segment [tOpen, tv[0]], one step per piece between load breakpoints (the
+   * plant's load set once per piece, as Stepper.period does); the time goes to the plant through
+   * its typed array (no boxed argument). Common practice (no source).
+   */
+  private rk4Segment(y: Float64Array): void {
+    const plant = this.plant;
+    const load = plant.params.load;
+    const tb = this.tv[0]!;
+    const time = plant.time;
+    const { k1, k2, k3, k4, w } = this;
+    let a = this.tOpen;
+    for (let piece = 0; piece < 8; piece++) {
+      if (a >= this.nextBreak) this.nextBreak = nextLoadBreak(load, a);
+      const b = this.nextBreak < tb ? this.nextBreak : tb;
+      if (this.nextBreak !== this.loadKey) { plant.setLoadSegment(a, b); this.loadKey = this.nextBreak; }
+      const h = b - a;
+      if (h > 0) {
+        time[0] = a;
+        plant.derivAt(k1, y);
+        for (let i = 0; i < STATE_SIZE; i++) w[i] = y[i]! + 0.5 * h * k1[i]!;
+        time[0] = a + 0.5 * h;
+        plant.derivAt(k2, w);
+        for (let i = 0; i < STATE_SIZE; i++) w[i] = y[i]! + 0.5 * h * k2[i]!;
+        plant.derivAt(k3, w);
+        for (let i = 0; i < STATE_SIZE; i++) w[i] = y[i]! + h * k3[i]!;
+        time[0] = b;
+        plant.derivAt(k4, w);
+        for (let i = 0; i < STATE_SIZE; i++) y[i] = y[i]! + (h / 6) * (k1[i]! + 2 * k2[i]! + 2 * k3[i]! + k4[i]!);
+      }
+      if (b >= tb) break;
+      a = b;
+    }
+  }
+
+  private sample(): void {
+    const t = this.tv[0]!;
+    const n = this.nb;
+    if (n >= PROBE_CAPACITY) return;
+    this.tb[n] = t;
+    this.ib[3 * n] = this.iph[0]!;
+    this.ib[3 * n + 1] = this.iph[1]!;
+    this.ib[3 * n + 2] = this.iph[2]!;
+    this.nb = n + 1;
+  }
+
+  /** The phase currents of the state y into `iph` (the rotation from the plant's angle origin). */
+  currents(y: Float64Array): void {
+    const plant = this.plant;
+    let id: number, iq: number;
+    if (plant.fluxStates) {
+      plant.currentState(y, this.yc);
+      id = this.yc[0]!;
+      iq = this.yc[1]!;
+    } else {
+      id = y[0]!;
+      iq = y[1]!;
+    }
+    const dth = y[3]! - plant.th0;
+    let c: number, s: number;
+    if (dth > -0.5 && dth < 0.5) {
+      const sd = sinSmall(dth), cd = cosSmall(dth);
+      c = plant.c0 * cd - plant.s0 * sd;
+      s = plant.s0 * cd + plant.c0 * sd;
+    } else {
+      c = Math.cos(y[3]!);
+      s = Math.sin(y[3]!);
+    }
+    const ial = id * c - iq * s;
+    const ibe = id * s + iq * c;
+    const iph = this.iph;
+    iph[0] = ial;
+    iph[1] = -0.5 * ial + SQRT3_2 * ibe;
+    iph[2] = -0.5 * ial - SQRT3_2 * ibe;
+  }
+}
+
+/** sgn(i), linear across |i| <= i0 */
+function sgn(i: number, i0: number): number {
+  return i > i0 ? 1 : i < -i0 ? -1 : i / i0;
+}
