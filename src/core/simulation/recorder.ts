@@ -65,7 +65,8 @@ export class TraceRecorder {
   /** the largest number of samples: periods + 1 */
   readonly cap: number;
   private readonly dec: StreamingMinMax;
-  private readonly row: Float64Array;
+  /** the decimator's row buffer: each sample's channels are written into it directly */
+  private readonly buf: Float64Array;
   private readonly msmp = new Float64Array(3);
   private readonly rot = new Float64Array(2);
   private readonly stepTrk: StepResponseTracker | null;
@@ -79,13 +80,19 @@ export class TraceRecorder {
   private readonly dLdq: number;
   private readonly linear: boolean;
   private readonly locked: boolean;
+  /** the modulation limit is a circle of radius vRadius (else the hexagon: voltageLimitAt) */
+  private readonly circle: boolean;
+  private readonly vRadius: number;
 
   constructor(private readonly setup: AnySetup, private readonly model: MachineModel, private readonly plant: Plant, private readonly ctrl: CascadeController, periods: number, maxPoints: number) {
     this.cap = periods + 1;
     this.Ts = setup.controller.Ts;
     const nch = TRACE_NAMES.length - 1;
     this.dec = new StreamingMinMax(nch, this.cap, maxPoints);
-    this.row = new Float64Array(nch);
+    this.buf = this.dec.buf;
+    const vspec = setup.controller.voltage;
+    this.circle = vspec.shape === 'circle';
+    this.vRadius = vspec.radius;
     const marks = setup.marks;
     const allEvents = [...marks.speedSteps.map((s) => s.t), ...marks.loadEvents].sort((a, b) => a - b);
     const nextAfter = (t: number): number => {
@@ -114,21 +121,15 @@ export class TraceRecorder {
    */
   record(idx: number, y: Float64Array): void {
     const t = idx * this.Ts;
-    const { row, plant, ctrl, p } = this;
+    const plant = this.plant;
+    const ctrl = this.ctrl;
+    const p = this.p;
     const id = y[I_D]!, iq = y[I_Q]!, w = y[OMEGA]!, th = y[THETA]!;
     const c = plant.c0, s = plant.s0;
     const ia = id * c - iq * s;
     const ib = id * s + iq * c;
     const wr = ctrl.speedRefOut * W_TO_RPM;
     const wRpm = w * W_TO_RPM;
-    row[SPEED_REF] = wr;
-    row[SPEED] = wRpm;
-    row[TORQUE] = this.linear ? 1.5 * p * (this.psiM * iq + this.dLdq * id * iq) : this.model.torque(id, iq);
-    row[LOAD] = this.locked ? 0 : plant.loadTorque(t, w);
-    row[ID_REF] = ctrl.idRef;
-    row[IQ_REF] = ctrl.iqRef;
-    row[ID] = id;
-    row[IQ] = iq;
     // applied voltage in dq at the mid-period angle
     const dm = 0.5 * p * w * this.Ts;
     const r = this.rot;
@@ -136,14 +137,25 @@ export class TraceRecorder {
     const cm = r[0]!, sm = r[1]!;
     const vab = plant.input;
     const va = vab[0]!, vb = vab[1]!;
-    row[VD] = va * cm + vb * sm;
-    row[VQ] = -va * sm + vb * cm;
     const vlen = Math.sqrt(va * va + vb * vb);
-    const vspec = this.setup.controller.voltage;
-    row[VNORM] = vlen / (vspec.shape === 'circle' ? vspec.radius : voltageLimitAt(vspec, Math.atan2(vb, va)));
-    clarkeInvL(ia, ib, 0, row, IA);
-    row[PDC] = 1.5 * (va * ia + vb * ib);
-    this.dec.push(t, row);
+    const o = this.dec.slot(t);
+    if (o >= 0) {
+      const row = this.buf;
+      row[o + SPEED_REF] = wr;
+      row[o + SPEED] = wRpm;
+      row[o + TORQUE] = this.linear ? 1.5 * p * (this.psiM * iq + this.dLdq * id * iq) : this.model.torque(id, iq);
+      row[o + LOAD] = this.locked ? 0 : plant.loadTorque(t, w);
+      row[o + ID_REF] = ctrl.idRef;
+      row[o + IQ_REF] = ctrl.iqRef;
+      row[o + ID] = id;
+      row[o + IQ] = iq;
+      row[o + VD] = va * cm + vb * sm;
+      row[o + VQ] = -va * sm + vb * cm;
+      row[o + VNORM] = vlen / (this.circle ? this.vRadius : voltageLimitAt(this.setup.controller.voltage, Math.atan2(vb, va)));
+      clarkeInvL(ia, ib, 0, row, o + IA);
+      row[o + PDC] = 1.5 * (va * ia + vb * ib);
+      this.dec.commit();
+    }
     const m = this.msmp;
     m[0] = t; m[1] = wr; m[2] = wRpm;
     if (this.stepTrk) this.stepTrk.take(m);
@@ -182,11 +194,11 @@ export class TraceRecorder {
   traces(): Traces {
     const decd = this.dec.finish();
     const traces = { t_s: decd.t } as Traces;
-    TRACE_NAMES.slice(1).forEach((n, i) => {
-      const a = decd.channels[i]!;
+    for (let i = 1; i < TRACE_NAMES.length; i++) {
+      const a = decd.channels[i - 1]!;
       for (let j = 0; j < a.length; j++) if (!Number.isFinite(a[j]!)) a[j] = 0;
-      traces[n] = a;
-    });
+      traces[TRACE_NAMES[i]!] = a;
+    }
     return traces;
   }
 }
