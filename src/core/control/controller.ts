@@ -42,9 +42,12 @@ export { stepSchedule, scheduleValue, type StepSchedule } from './step-schedule'
 export { limitVoltageDq, voltageLimitAt, type VoltageLimitSpec } from './voltage-limit';
 export { DEFAULT_CONTROLLER_OPTIONS, type AntiWindup, type ControlMode, type ControllerConfig, type PiGains } from './controller-config';
 import type { ControllerConfig } from './controller-config';
+import {
+  P_COUNT, P_POLES, P_LD, P_LQ, P_PSIM, P_IMAX, P_KPD, P_KPQ, P_KITSD, P_KITSQ, P_KBD, P_KBQ, P_ADV, P_RADIUS,
+  P_RAMP, P_FILT, P_KPW, P_KIW, P_KBW, P_DIVIDER, P_WMAX, P_NS, P_NU, P_KPD0, P_KPQ0, P_LDD0, P_LQQ0, controllerParameters,
+} from './controller-config';
 
-// module-local references to the imported functions called every period (a CommonJS build turns
-// an imported binding into a property getter called at each use)
+// module-local references to the imported functions called every period (a CommonJS build turns an imported binding into a getter)
 const scheduleValueL = scheduleValue;
 const limitVoltageDqL = limitVoltageDq;
 const sinSmallL = sinSmall;
@@ -52,52 +55,14 @@ const cosSmallL = cosSmall;
 
 const MAX_DELAY = 16;
 
-// the parameters: indices into CascadeController's `prm` (constants; the array is per controller)
-const P_TS = 0;
-const P_POLES = 1;
-const P_LD = 2;
-const P_LQ = 3;
-const P_PSIM = 4;
-const P_IMAX = 5;
-/** current PIs: proportional gains (scheduled with gainScheduling), Ts·Ki, back-calculation gains */
-const P_KPD = 6;
-const P_KPQ = 7;
-const P_KITSD = 8;
-const P_KITSQ = 9;
-const P_KBD = 10;
-const P_KBQ = 11;
-/** inverse-Park advance per rad/s of electrical speed, s */
-const P_ADV = 12;
-/** the voltage limit's radius (circle) */
-const P_RADIUS = 13;
-/** speed loop: its period Ts·divider, ramp step per speed period, prefilter factor (< 0: none), Kp, Tsw·Ki, back-calculation gain */
-const P_TSW = 14;
-const P_RAMP = 15;
-const P_FILT = 16;
-const P_KPW = 17;
-const P_KIW = 18;
-const P_KBW = 19;
-const P_DIVIDER = 20;
-/** reference table: highest speed and node counts (0 without a table) */
-const P_WMAX = 21;
-const P_NS = 22;
-const P_NU = 23;
-/** gain scheduling: the proportional gains and incremental inductances at zero current */
-const P_KPD0 = 24;
-const P_KPQ0 = 25;
-const P_LDD0 = 26;
-const P_LQQ0 = 27;
-const P_COUNT = 28;
-
 const EMPTY = new Float64Array(0);
 
 export class CascadeController {
   readonly cfg: ControllerConfig;
-  // integrators
+  // integrators, and the speed reference chain
   xd = 0;
   xq = 0;
   xw = 0;
-  // speed reference chain
   wRefRamp = 0;
   wRefFilt = 0;
   // outputs of the last step, for traces
@@ -126,7 +91,7 @@ export class CascadeController {
   torqueClamped = false;
   /** the machine model; its closed form (the feed-forward with Ld, Lq, psiM) taken when `model.linear` is non-null */
   readonly model: MachineModel;
-  /** the configuration's numbers (P_* indices) */
+  /** the configuration's numbers (P_* indices, controller-config.ts) */
   private readonly prm = new Float64Array(P_COUNT);
   // the configuration's switches and arrays, read once
   /** 0 speed, 1 torque, 2 current-step */
@@ -163,35 +128,11 @@ export class CascadeController {
     this.model = model;
     const lin = model.linear;
     this.lin = lin !== null;
-    const P = this.prm;
-    P[P_TS] = cfg.Ts;
-    P[P_POLES] = model.polePairs;
-    P[P_LD] = lin ? lin.Ld : NaN;
-    P[P_LQ] = lin ? lin.Lq : NaN;
     // the flux at zero current: the magnet's (psiM, 0) for the linear model
     model.flux(0, 0, this.psi0);
-    P[P_PSIM] = lin ? lin.psiM : this.psi0[0]!;
-    P[P_IMAX] = cfg.Imax;
-    P[P_KPD] = cfg.currentD.Kp;
-    P[P_KPQ] = cfg.currentQ.Kp;
-    P[P_KITSD] = cfg.Ts * cfg.currentD.Ki;
-    P[P_KITSQ] = cfg.Ts * cfg.currentQ.Ki;
-    P[P_KBD] = cfg.currentD.Kp > 0 ? Math.min(1, (cfg.Ts * cfg.currentD.Ki) / cfg.currentD.Kp) : 0;
-    P[P_KBQ] = cfg.currentQ.Kp > 0 ? Math.min(1, (cfg.Ts * cfg.currentQ.Ki) / cfg.currentQ.Kp) : 0;
-    P[P_ADV] = cfg.delayAngleCompensation ? (cfg.delaySamples + 0.5) * cfg.Ts : 0;
-    P[P_RADIUS] = cfg.voltage.radius;
-    const Tsw = cfg.Ts * cfg.speedLoopDivider;
-    P[P_TSW] = Tsw;
-    P[P_RAMP] = cfg.speedRamp_rad_s2 * Tsw;
-    P[P_FILT] = cfg.speedRefPrefilter_s > 0 ? 1 - Math.exp(-Tsw / cfg.speedRefPrefilter_s) : -1;
-    P[P_KPW] = cfg.speed.Kp;
-    P[P_KIW] = Tsw * cfg.speed.Ki;
-    P[P_KBW] = cfg.speed.Kp > 0 ? Math.min(1, (Tsw * cfg.speed.Ki) / cfg.speed.Kp) : 0;
-    P[P_DIVIDER] = cfg.speedLoopDivider;
+    model.incrementalInductance(0, 0, this.Linc);
+    controllerParameters(cfg, model, this.psi0[0]!, this.Linc[0]!, this.Linc[3]!, this.prm);
     const tab = cfg.table;
-    P[P_WMAX] = tab ? tab.speedMax : 0;
-    P[P_NS] = tab ? tab.nS : 0;
-    P[P_NU] = tab ? tab.nU : 0;
     this.tMot = tab ? tab.tMot : EMPTY;
     this.tGen = tab ? tab.tGen : EMPTY;
     this.tabId = tab ? tab.id : EMPTY;
@@ -202,11 +143,6 @@ export class CascadeController {
     this.idRefS = cfg.idRef;
     this.iqRefS = cfg.iqRef;
     this.sched = cfg.gainScheduling === true && lin === null;
-    P[P_KPD0] = cfg.currentD.Kp;
-    P[P_KPQ0] = cfg.currentQ.Kp;
-    model.incrementalInductance(0, 0, this.Linc);
-    P[P_LDD0] = this.Linc[0]!;
-    P[P_LQQ0] = this.Linc[3]!;
     this.clamping = cfg.antiWindup === 'clamping';
     this.decoup = cfg.decoupling;
     this.bemf = cfg.backEmfFeedForward;
@@ -328,8 +264,7 @@ export class CascadeController {
       this.speedRefOut = w;
       this.torqueClamped = false;
     }
-    let idr: number;
-    let iqr: number;
+    let idr: number, iqr: number;
     if (mode === 2) {
       idr = scheduleValueL(this.idRefS, t);
       iqr = scheduleValueL(this.iqRefS, t);
@@ -381,9 +316,7 @@ export class CascadeController {
     const uq = P[P_KPQ]! * eq + this.xq + ffq;
     const dth = P[P_ADV]! * we;
     const thApply = theta + dth;
-    let vd: number;
-    let vq: number;
-    let sat: boolean;
+    let vd: number, vq: number, sat: boolean;
     const R = P[P_RADIUS]!;
     if (this.circle && ud * ud + uq * uq <= R * R) {
       vd = ud; vq = uq; sat = false;
@@ -406,8 +339,7 @@ export class CascadeController {
 
     // ---- inverse Park at theta + dth: cos and sin from those of the sampled angle, rotated by dth
     // with a short series (truncation below 2e-14 for |dth| < 0.5), else computed directly
-    let cs: number;
-    let sn: number;
+    let cs: number, sn: number;
     if (dth > -0.5 && dth < 0.5) {
       const sd = sinSmallL(dth);
       const cd = cosSmallL(dth);
