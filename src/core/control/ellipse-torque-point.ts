@@ -7,7 +7,7 @@
  * boundary point is a closed form of phi, and so are its torque 1.5 p iq (psiM + (Ld - Lq) id) and
  * its current. The points with torque T are the roots of T(phi) - T, a smooth periodic function:
  * bracketed by NS samples (a pair of roots hiding between samples is opened by a golden-section
- * search for the extremum between them) and bisected to the last bit of phi. Of the roots, the one
+ * search for the extremum between them) and refined by regula falsi (Illinois) to the last bits of phi. Of the roots, the one
  * of least current is the answer. When the MTPA point for T lies outside the voltage region (the
  * caller checks), the least current within the region on the constant-torque curve lies on its
  * boundary, so this is the least-current operating point of field weakening (or of MTPV at the
@@ -20,7 +20,7 @@
 import type { LinearTerms } from '../machine/machine-model';
 
 const NS = 96;
-const BISECT = 80;
+const ROOT_STEPS = 80;
 const GOLDEN = 60;
 const GOLD = (Math.sqrt(5) - 1) / 2;
 
@@ -74,17 +74,36 @@ export class EllipseTorquePoint {
     return this.k * iq * (this.psiM + (this.Ld - this.Lq) * id);
   }
 
-  /** Root of T(phi) = T in [a, b] with T(a) - T and T(b) - T of opposite signs (or zero); keeps the best so far. */
+  /**
+   * Root of T(phi) = T in [a, b] with T(a) - T and T(b) - T of opposite signs (or zero), by regula
+   * falsi with the Illinois modification (superlinear, the bracket kept) down to the last bits of
+   * phi; keeps the root of least current so far (its current squared returned, the point in `out`).
+   */
   private root(a: number, fa: number, b: number, T: number, best: number): number {
-    for (let it = 0; it < BISECT && fa !== 0; it++) {
-      const m = 0.5 * (a + b);
-      if (m <= a || m >= b) break;
-      const fm = this.at(m) - T;
-      if (fm === 0) { a = m; b = m; break; }
-      if ((fm < 0) === (fa < 0)) { a = m; fa = fm; } else b = m;
+    let fb = this.at(b) - T;
+    let x = fa === 0 ? a : b;
+    let fx = fa === 0 ? 0 : fb;
+    let side = 0;
+    for (let it = 0; it < ROOT_STEPS && fx !== 0 && Math.abs(b - a) > 4e-16 * (Math.abs(a) + Math.abs(b)); it++) {
+      let c = (a * fb - b * fa) / (fb - fa);
+      if (!(c > Math.min(a, b) && c < Math.max(a, b))) c = 0.5 * (a + b);
+      const fc = this.at(c) - T;
+      x = c;
+      fx = fc;
+      if (fc === 0) break;
+      if ((fc < 0) === (fb < 0)) {
+        // c replaces b, on b's side: halve the weight of a when this happens twice running
+        b = c; fb = fc;
+        if (side === -1) fa *= 0.5;
+        side = -1;
+      } else {
+        a = b; fa = fb;
+        b = c; fb = fc;
+        side = 1;
+      }
     }
-    const phi = Math.abs(fa) <= Math.abs(this.at(b) - T) ? a : b;
-    this.at(phi);
+    if (fx !== 0 && Math.abs(fa) < Math.abs(fx)) x = a;
+    this.at(x);
     const i2 = this.id * this.id + this.iq * this.iq;
     if (i2 < best) {
       this.out[0] = this.id;
