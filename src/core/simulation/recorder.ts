@@ -73,6 +73,11 @@ export class TraceRecorder {
   /** one tracker per load event; their windows [t, next event) do not overlap, so only the current one is fed */
   private readonly loadTrks: LoadStepTracker[];
   private loadAt = 0;
+  /** the load schedule's breakpoints and the segment of the last sample (samples come in time order) */
+  private readonly loadT: Float64Array;
+  private readonly loadV: Float64Array;
+  private readonly loadK: number;
+  private loadSeg = 0;
   private readonly sseTrk: SteadyStateTracker | null;
   private readonly Ts: number;
   private readonly p: number;
@@ -113,6 +118,9 @@ export class TraceRecorder {
     this.psiM = lin ? lin.psiM : 0;
     this.dLdq = lin ? lin.Ld - lin.Lq : 0;
     this.locked = setup.plant.mechanics !== 'free';
+    this.loadT = setup.plant.load.times;
+    this.loadV = setup.plant.load.levels;
+    this.loadK = setup.plant.load.quadraticK;
   }
 
   /**
@@ -144,7 +152,7 @@ export class TraceRecorder {
       row[o + SPEED_REF] = wr;
       row[o + SPEED] = wRpm;
       row[o + TORQUE] = this.linear ? 1.5 * p * (this.psiM * iq + this.dLdq * id * iq) : this.model.torque(id, iq);
-      row[o + LOAD] = this.locked ? 0 : plant.loadTorque(t, w);
+      row[o + LOAD] = this.locked ? 0 : this.loadTorque(t, w);
       row[o + ID_REF] = ctrl.idRef;
       row[o + IQ_REF] = ctrl.iqRef;
       row[o + ID] = id;
@@ -166,6 +174,29 @@ export class TraceRecorder {
     const last = this.last;
     last[0] = t; last[1] = wRpm; last[2] = id; last[3] = iq;
     this.count++;
+  }
+
+  /**
+   * The plant's load torque at (t, w) (plant.loadTorque, the same arithmetic as loadLevel), its
+   * segment found by walking on from the last sample's instead of a search.
+   */
+  private loadTorque(t: number, w: number): number {
+    const T = this.loadT;
+    const V = this.loadV;
+    const n = T.length;
+    let level: number;
+    if (n === 1 || t >= T[n - 1]!) level = V[n - 1]!;
+    else {
+      // lo: the last breakpoint at or before t (0 before the first), below n - 1, as the bisection finds it
+      let lo = this.loadSeg;
+      if (!(T[lo]! <= t)) lo = 0;
+      while (lo + 1 < n - 1 && T[lo + 1]! <= t) lo++;
+      this.loadSeg = lo;
+      const t0 = T[lo]!;
+      const t1 = T[lo + 1]!;
+      level = t1 <= t0 ? V[lo + 1]! : V[lo]! + ((t - t0) / (t1 - t0)) * (V[lo + 1]! - V[lo]!);
+    }
+    return level + this.loadK * w * Math.abs(w);
   }
 
   /** The speed metrics (speed mode, more than two samples; else all null) at the last sample time tLast. */
