@@ -27,7 +27,7 @@ const onlyAt = argv.indexOf('--only');
 const only = onlyAt >= 0 ? (argv[onlyAt + 1] ?? '').toLowerCase() : '';
 const againstAt = argv.indexOf('--against');
 const against = againstAt >= 0 ? argv[againstAt + 1] : undefined;
-const chosen = against ? [againstCheckout(against)] : only ? sections.filter((s) => s.name.toLowerCase().includes(only)) : sections;
+const chosen = against ? [againstCheckout(against, only)] : only ? sections.filter((s) => s.name.toLowerCase().includes(only)) : sections;
 if (chosen.length === 0) console.log(`no bench section matches "${only}": ${sections.map((s) => s.name).join('; ')}`);
 
 for (const s of chosen) {

@@ -103,6 +103,7 @@ export function runSimulation(setup: AnySetup, opts: RunOptions = {}): Simulatio
   const swing = setup.controller.mode === 'speed' ? new SpeedSwingWatch() : null;
   const smp = ctrl.sample;
   const x = new Float64Array(PERIOD_SAMPLE_SIZE);
+  const setup_s = Math.max(0, budget.elapsed());
 
   let stop: Stop | null = null;
   let k = 0;
@@ -184,8 +185,12 @@ export function runSimulation(setup: AnySetup, opts: RunOptions = {}): Simulatio
     controlSteps: periods,
     rhsEvaluations: plant.evaluations,
     evaluationsPerPeriod: median(hist),
-    wall_s: Math.max(0, budget.elapsed()),
+    wall_s: 0,
+    setup_s,
+    run_s: 0,
   };
+  stats.wall_s = Math.max(setup_s, budget.elapsed());
+  stats.run_s = stats.wall_s - setup_s;
   const peakCurrentAt = log.peakDetail();
   return { metrics, loadSteps: rec.loadSteps(), traces, events, stats, ...(peakCurrentAt ? { peakCurrentAt } : {}), ...(diagnostic ? { diagnostic } : {}) };
 }
