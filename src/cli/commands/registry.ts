@@ -12,6 +12,8 @@ import { efficiencyCommand } from './efficiency';
 import { continuousCommand } from './continuous';
 import { overloadCommand } from './overload';
 import { dutyCycleCommand } from './duty-cycle';
+import { cornersCommand } from './corners';
+import { toleranceSampleCommand } from './tolerance-sample';
 
 /** Every command of the CLI, in the order `help` lists them. Add a command by importing it here. */
 export const COMMANDS: Command[] = [
@@ -23,6 +25,8 @@ export const COMMANDS: Command[] = [
   overloadCommand,
   dutyCycleCommand,
   sizeCommand,
+  cornersCommand,
+  toleranceSampleCommand,
   simulateCommand,
   tuneCommand,
   datasheetCommand,
