@@ -20,6 +20,7 @@ const dir = mkdtempSync(join(tmpdir(), 'tw-tol-'));
 const results = (out: string) => {
   const d = JSON.parse(out);
   delete d.wall_s;
+  delete d.cpu_s;
   delete d.threads;
   return d;
 };
