@@ -5,6 +5,7 @@ import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { checkProject, parseProject } from '../src/core/project/schema';
 import { allowedTolerancePaths, TOLERANCE_PATHS } from '../src/core/project/tolerance-schema';
+import { loadProject } from '../src/core/project/project';
 import { linearSpm } from './tolerance-fixtures';
 
 describe('tolerances section', () => {
@@ -40,6 +41,11 @@ describe('tolerances section', () => {
     expect(allowedTolerancePaths({ motor: { fluxMap: {} }, thermal: {} })).toEqual(['motor.Rs', 'motor.fluxMap.magnetFlux', 'motor.fluxMap.scale', 'inverter.Vdc', 'inverter.Imax', 'thermal.coolantTemp_C']);
     expect(allowedTolerancePaths({ nameplate: { Ke: {}, Ld: {}, Lq: {} } })).toEqual(['nameplate.R', 'nameplate.Ke', 'nameplate.Ld', 'nameplate.Lq', 'inverter.Vdc', 'inverter.Imax']);
     expect(TOLERANCE_PATHS).toHaveLength(15);
+  });
+
+  it('a key given twice inside a band is named by its dotted parameter path, as the schema names it', () => {
+    const text = JSON.stringify(linearSpm({ 'motor.Rs': { minus_pct: 5, plus_pct: 5 } })).replace('"minus_pct":5', '"minus_pct":5,"minus_pct":6');
+    expect(() => loadProject(text)).toThrow(/^tolerances\.motor\.Rs\.minus_pct is given twice in one object/);
   });
 
   it('every demo carries a valid tolerances section, labelled invented in its note', () => {
