@@ -16,8 +16,8 @@
  *   - the homogeneous part e^{A t} (x0 - x_p(0) - x_c).
  * e^{A t} of the 2x2 real matrix by its closed form e^{m t} (C I + S (A - m I)), m = tr A / 2,
  * delta^2 = ((a - d)/2)^2 + b c: C = cosh, S = sinh(delta t)/delta for delta^2 >= 0 (overdamped,
- * real eigenvalues), cos and sin(delta t)/delta for delta^2 < 0 (complex pair), with the series of
- * sinh(x)/x and sin(x)/x near x = 0 (repeated eigenvalues); no division by the eigenvalue gap.
+ * real eigenvalues), cos and sin(delta t)/delta for delta^2 < 0 (complex pair), by their series in
+ * (delta t)^2 for |delta t| <= 0.5 (repeated eigenvalues included: no division by the eigenvalue gap).
  * Moler and Van Loan (2003), "Nineteen dubious ways to compute the exponential of a matrix, twenty-five
  * years later", SIAM Review 45(1) (the 2x2 closed form); the variation-of-constants solution of a
  * linear system with sinusoidal forcing is common practice (no source).
@@ -41,15 +41,25 @@ export interface DqConstants {
   readonly psiM: number;
 }
 
-/** sinh(x)/x (real branch) and sin(x)/x (complex branch), with their series near 0 */
-function sinhc(x: number): number {
-  const x2 = x * x;
-  return x2 < 1e-6 ? 1 + x2 * (1 / 6 + x2 / 120) : Math.sinh(x) / x;
+/**
+ * Series on |x| <= 0.5 (truncation below 1e-16 there; common practice, no source), in Horner form:
+ * cos, sin(x)/x (complex branch) and cosh, sinh(x)/x (real branch) of y = x^2. Beyond 0.5 the
+ * library functions.
+ */
+function cosS(y: number): number {
+  return 1 + y * (-1 / 2 + y * (1 / 24 + y * (-1 / 720 + y * (1 / 40320 + y * (-1 / 3628800 + y * (1 / 479001600 - y / 87178291200))))));
 }
-function sinc(x: number): number {
-  const x2 = x * x;
-  return x2 < 1e-6 ? 1 - x2 * (1 / 6 - x2 / 120) : Math.sin(x) / x;
+function sincS(y: number): number {
+  return 1 + y * (-1 / 6 + y * (1 / 120 + y * (-1 / 5040 + y * (1 / 362880 + y * (-1 / 39916800 + y * (1 / 6227020800 - y / 1307674368000))))));
 }
+function coshS(y: number): number {
+  return 1 + y * (1 / 2 + y * (1 / 24 + y * (1 / 720 + y * (1 / 40320 + y * (1 / 3628800 + y * (1 / 479001600 + y / 87178291200))))));
+}
+function sinhcS(y: number): number {
+  return 1 + y * (1 / 6 + y * (1 / 120 + y * (1 / 5040 + y * (1 / 362880 + y * (1 / 39916800 + y * (1 / 6227020800 + y / 1307674368000))))));
+}
+// module-local references (a CommonJS build turns an imported binding into a property getter)
+const cosSL = cosS, sincSL = sincS, coshSL = coshS, sinhcSL = sinhcS;
 
 const EPS = 2.220446049250313e-16;
 
@@ -59,25 +69,36 @@ export class DqPropagator {
   readonly Lq: number;
   readonly psiM: number;
   /** the frozen electrical speed and the step of the last `setStep` */
-  we = 0;
-  dt = 0;
+  // (every double field starts as a non-integer, so that the engine stores it as an unboxed double)
+  we = NaN;
+  dt = NaN;
   /** e^{A dt} = [[p11, p12], [p21, p22]] */
-  p11 = 1; p12 = 0; p21 = 0; p22 = 1;
+  p11 = NaN; p12 = NaN; p21 = NaN; p22 = NaN;
   /** cos and sin of we dt: the dq voltage at the step end is (vd0 cw + vq0 sw, -vd0 sw + vq0 cw) */
-  cw = 1; sw = 0;
+  cw = NaN; sw = NaN;
   /** X = (V k1, V k2) for V = vd0 + j vq0 */
-  k1r = 0; k1i = 0; k2r = 0; k2i = 0;
+  k1r = NaN; k1i = NaN; k2r = NaN; k2i = NaN;
   /** the constant particular solution (short-circuit current of the back-EMF) */
-  xcd = 0; xcq = 0;
+  xcd = NaN; xcq = NaN;
   /** |(k1, k2)|, A/V, and |x_c|, A: the sizes the rounding error scales with */
-  gain = 0;
-  xcAbs = 0;
+  gain = NaN;
+  xcAbs = NaN;
+
+  /** 1/Ld, 1/Lq, Lq/Ld, Ld/Lq */
+  private readonly iLd: number;
+  private readonly iLq: number;
+  private readonly rqd: number;
+  private readonly rdq: number;
 
   constructor(m: DqConstants) {
     this.Rs = m.Rs;
     this.Ld = m.Ld;
     this.Lq = m.Lq;
     this.psiM = m.psiM;
+    this.iLd = 1 / m.Ld;
+    this.iLq = 1 / m.Lq;
+    this.rqd = m.Lq / m.Ld;
+    this.rdq = m.Ld / m.Lq;
   }
 
   /** Precompute the step's matrices for electrical speed we (rad/s) and step dt (s). */
@@ -85,47 +106,57 @@ export class DqPropagator {
     const Rs = this.Rs, Ld = this.Ld, Lq = this.Lq;
     this.we = we;
     this.dt = dt;
-    const a = -Rs / Ld, d = -Rs / Lq, b = (we * Lq) / Ld, c = (-we * Ld) / Lq;
+    const a = -Rs * this.iLd, d = -Rs * this.iLq, b = we * this.rqd, c = -we * this.rdq;
     const m = 0.5 * (a + d), q = 0.5 * (a - d);
     const disc = q * q - we * we; // ((a - d)/2)^2 + b c, with b c = -we^2 exactly
+    const y = disc * dt * dt; // (delta dt)^2, signed
     let EC: number, ES: number;
-    if (disc >= 0) {
+    if (y > 0.25) {
+      // overdamped with a wide gap: the two real exponentials (no overflow of cosh times a small e^{m dt})
       const del = Math.sqrt(disc);
-      const x = del * dt;
-      if (x > 0.5) {
-        // overdamped with a wide gap: the two real exponentials (no overflow of cosh times a small e^{m dt})
-        const e1 = Math.exp((m + del) * dt), e2 = Math.exp((m - del) * dt);
-        EC = 0.5 * (e1 + e2);
-        ES = (0.5 * (e1 - e2)) / del;
-      } else {
-        const E = Math.exp(m * dt);
-        EC = E * Math.cosh(x);
-        ES = E * dt * sinhc(x);
-      }
-    } else {
+      const e1 = Math.exp((m + del) * dt), e2 = Math.exp((m - del) * dt);
+      EC = 0.5 * (e1 + e2);
+      ES = (0.5 * (e1 - e2)) / del;
+    } else if (y < -0.25) {
       const del = Math.sqrt(-disc);
       const x = del * dt;
       const E = Math.exp(m * dt);
       EC = E * Math.cos(x);
-      ES = E * dt * sinc(x);
+      ES = (E * Math.sin(x)) / del;
+    } else {
+      // |delta dt| <= 0.5, either branch (and the repeated eigenvalue between them) by the series
+      const E = Math.exp(m * dt);
+      if (y >= 0) {
+        EC = E * coshSL(y);
+        ES = E * dt * sinhcSL(y);
+      } else {
+        EC = E * cosSL(-y);
+        ES = E * dt * sincSL(-y);
+      }
     }
     this.p11 = EC + ES * q;
     this.p12 = ES * b;
     this.p21 = ES * c;
     this.p22 = EC - ES * q;
     const wt = we * dt;
-    this.cw = Math.cos(wt);
-    this.sw = Math.sin(wt);
+    if (wt > -0.5 && wt < 0.5) {
+      const y2 = wt * wt;
+      this.cw = cosSL(y2);
+      this.sw = wt * sincSL(y2);
+    } else {
+      this.cw = Math.cos(wt);
+      this.sw = Math.sin(wt);
+    }
     // X = -(A + j we I)^-1 B V in closed form: with S = Ld + Lq, N = Rs^2 + we^2 S^2,
     // k1 = (Rs^2 + 2 we^2 Lq S)/(Rs N) + j we (Ld - Lq)/N,  k2 = we (Lq - Ld)/N - j (Rs^2 + 2 we^2 Ld S)/(Rs N)
     const S = Ld + Lq;
     const w2 = we * we;
-    const N = Rs * Rs + w2 * S * S;
-    const RN = Rs * N;
-    this.k1r = (Rs * Rs + 2 * w2 * Lq * S) / RN;
-    this.k1i = (we * (Ld - Lq)) / N;
-    this.k2r = (we * (Lq - Ld)) / N;
-    this.k2i = -(Rs * Rs + 2 * w2 * Ld * S) / RN;
+    const iN = 1 / (Rs * Rs + w2 * S * S);
+    const iRN = iN / Rs;
+    this.k1r = (Rs * Rs + 2 * w2 * Lq * S) * iRN;
+    this.k1i = we * (Ld - Lq) * iN;
+    this.k2r = we * (Lq - Ld) * iN;
+    this.k2i = -(Rs * Rs + 2 * w2 * Ld * S) * iRN;
     this.gain = Math.sqrt(this.k1r * this.k1r + this.k1i * this.k1i + this.k2r * this.k2r + this.k2i * this.k2i);
     // x_c = -A^-1 c = (-we^2 psiM Lq, -Rs we psiM) / (Rs^2 + we^2 Ld Lq); zero at we = 0 (no back-EMF)
     const den = Rs * Rs + w2 * Ld * Lq;
@@ -133,8 +164,9 @@ export class DqPropagator {
       this.xcd = 0;
       this.xcq = 0;
     } else {
-      this.xcd = (-w2 * this.psiM * Lq) / den;
-      this.xcq = (-Rs * we * this.psiM) / den;
+      const f = (we * this.psiM) / den;
+      this.xcd = -we * Lq * f;
+      this.xcq = -Rs * f;
     }
     this.xcAbs = Math.sqrt(this.xcd * this.xcd + this.xcq * this.xcq);
   }

@@ -24,7 +24,7 @@ import { Plant, STATE_SIZE, I_D, I_Q, OMEGA, THETA, ENERGY } from './plant';
 import { CascadeController } from '../control/controller';
 import { MAX_TRACE_POINTS } from './decimate';
 import { finiteOrNull } from './metrics';
-import { makeStepper } from './stepper';
+import { makePeriodStepper } from './exact-stepper';
 import { TraceRecorder } from './recorder';
 import { RunLog } from './run-log';
 import { PERIOD_SAMPLE_SIZE, S_T, S_ID, S_IQ, S_W, S_ID_REF, S_IQ_REF, S_TORQUE_REF, S_SPEED_REF } from './period-sample';
@@ -93,7 +93,7 @@ export function runSimulation(setup: AnySetup, opts: RunOptions = {}): Simulatio
   const yi = plant.fluxStates ? new Float64Array(STATE_SIZE) : y;
   if (yi !== y) plant.currentState(y, yi);
   ctrl.reset(y[OMEGA]!, y[THETA]!);
-  const stepper = makeStepper(setup, plant, y);
+  const stepper = makePeriodStepper(setup, plant, y);
   const rec = new TraceRecorder(setup, plant.model, plant, ctrl, N, o.maxPoints);
   const hist = new Uint32Array(1025);
   const vab = plant.input;

@@ -23,6 +23,12 @@ export interface SolverOptions {
   speedFloor: number;
   /** absolute error floor of the electrical angle, rad */
   angleFloor: number;
+  /**
+   * with 'cash-karp' and a constant-parameter machine: each control period by the exact
+   * discretisation of the electrical dynamics where it applies (exact-stepper.ts), Cash-Karp
+   * elsewhere (default true; false: Cash-Karp throughout)
+   */
+  exactPeriods?: boolean;
 }
 
 export const DEFAULT_SOLVER_OPTIONS: Readonly<SolverOptions> = {
