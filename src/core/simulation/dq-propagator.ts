@@ -47,16 +47,21 @@ export interface DqConstants {
  * library functions.
  */
 function cosS(y: number): number {
-  return 1 + y * (-1 / 2 + y * (1 / 24 + y * (-1 / 720 + y * (1 / 40320 + y * (-1 / 3628800 + y * (1 / 479001600 - y / 87178291200))))));
+  // Estrin's scheme: the four pairs are independent (short dependency chains)
+  const y2 = y * y, y4 = y2 * y2;
+  return 1 - y / 2 + y2 * (1 / 24 - y / 720) + y4 * (1 / 40320 - y / 3628800 + y2 * (1 / 479001600 - y / 87178291200));
 }
 function sincS(y: number): number {
-  return 1 + y * (-1 / 6 + y * (1 / 120 + y * (-1 / 5040 + y * (1 / 362880 + y * (-1 / 39916800 + y * (1 / 6227020800 - y / 1307674368000))))));
+  const y2 = y * y, y4 = y2 * y2;
+  return 1 - y / 6 + y2 * (1 / 120 - y / 5040) + y4 * (1 / 362880 - y / 39916800 + y2 * (1 / 6227020800 - y / 1307674368000));
 }
 function coshS(y: number): number {
-  return 1 + y * (1 / 2 + y * (1 / 24 + y * (1 / 720 + y * (1 / 40320 + y * (1 / 3628800 + y * (1 / 479001600 + y / 87178291200))))));
+  const y2 = y * y, y4 = y2 * y2;
+  return 1 + y / 2 + y2 * (1 / 24 + y / 720) + y4 * (1 / 40320 + y / 3628800 + y2 * (1 / 479001600 + y / 87178291200));
 }
 function sinhcS(y: number): number {
-  return 1 + y * (1 / 6 + y * (1 / 120 + y * (1 / 5040 + y * (1 / 362880 + y * (1 / 39916800 + y * (1 / 6227020800 + y / 1307674368000))))));
+  const y2 = y * y, y4 = y2 * y2;
+  return 1 + y / 6 + y2 * (1 / 120 + y / 5040) + y4 * (1 / 362880 + y / 39916800 + y2 * (1 / 6227020800 + y / 1307674368000));
 }
 // module-local references (a CommonJS build turns an imported binding into a property getter)
 const cosSL = cosS, sincSL = sincS, coshSL = coshS, sinhcSL = sinhcS;
