@@ -31,7 +31,7 @@ function deviation(a: SimulationResult, ref: SimulationResult, Imax: number): nu
 
 /** the exact periods against ode45-cash-karp throughout (Cash and Karp (1990), ACM TOMS 16(3)), both at tol 1e-12 */
 function compare(s: AnySetup): { dev: number; exact: SimulationResult } {
-  const tight = { ...s, solver: { ...s.solver, tol: 1e-12 } };
+  const tight = { ...s, solver: { ...s.solver, tol: 1e-12, exactPeriods: true } };
   const exact = runSimulation(tight, FULL);
   const ref = runSimulation({ ...tight, solver: { ...tight.solver, exactPeriods: false } }, FULL);
   expect(exact.diagnostic).toBeUndefined();
@@ -43,8 +43,8 @@ describe('exact periods against ode45-cash-karp (the same trajectory to 1e-7)', 
     for (const name of ['demo-ipm-traction', 'demo-spm-48v', 'demo-servo-axis']) {
       const s = simulationFromProject(loadProjectText(JSON.stringify(demo(name))));
       const plant = new Plant(s.plant);
-      const st = makePeriodStepper(s, plant, new Float64Array(5));
-      expect(st).toBeInstanceOf(ExactStepper);
+      expect(makePeriodStepper(s, plant, new Float64Array(5))).not.toBeInstanceOf(ExactStepper); // off by default
+      expect(makePeriodStepper({ ...s, solver: { ...s.solver, exactPeriods: true } }, plant, new Float64Array(5))).toBeInstanceOf(ExactStepper);
       const { dev, exact } = compare(s);
       expect(dev, name).toBeLessThan(1e-7);
       // most periods are exact: 1 derivative evaluation at the start and 2 at the nodes
@@ -53,13 +53,14 @@ describe('exact periods against ode45-cash-karp (the same trajectory to 1e-7)', 
   });
 
   it('a flux-map machine takes the Cash-Karp stepper throughout', () => {
-    const s = simulationFromProject(loadProjectText(JSON.stringify(demo('demo-ipm-saturated'))));
+    const s0 = simulationFromProject(loadProjectText(JSON.stringify(demo('demo-ipm-saturated'))));
+    const s = { ...s0, solver: { ...s0.solver, exactPeriods: true } };
     expect((s.plant.machine as { linear?: unknown }).linear).toBeNull();
     expect(makePeriodStepper(s, new Plant(s.plant), new Float64Array(5))).not.toBeInstanceOf(ExactStepper);
     // and so does a constant-parameter machine with exactPeriods false or RK4
     const c = simulationFromProject(loadProjectText(JSON.stringify(demo('demo-spm-48v'))));
     expect(makePeriodStepper({ ...c, solver: { ...c.solver, exactPeriods: false } }, new Plant(c.plant), new Float64Array(5))).not.toBeInstanceOf(ExactStepper);
-    expect(makePeriodStepper({ ...c, solver: { ...c.solver, method: 'rk4' } }, new Plant(c.plant), new Float64Array(5))).not.toBeInstanceOf(ExactStepper);
+    expect(makePeriodStepper({ ...c, solver: { ...c.solver, method: 'rk4', exactPeriods: true } }, new Plant(c.plant), new Float64Array(5))).not.toBeInstanceOf(ExactStepper);
   });
 
   it('random machines (resistance, inductances, saliency, magnet flux, inertia) on the servo scenario', () => {
@@ -76,7 +77,8 @@ describe('exact periods against ode45-cash-karp (the same trajectory to 1e-7)', 
   });
 
   it('the run is deterministic: the same setup twice gives the same numbers', () => {
-    const s = simulationFromProject(loadProjectText(JSON.stringify(demo('demo-spm-48v'))));
+    const s0 = simulationFromProject(loadProjectText(JSON.stringify(demo('demo-spm-48v'))));
+    const s = { ...s0, solver: { ...s0.solver, exactPeriods: true } };
     const a = runSimulation(s, FULL), b = runSimulation(s, FULL);
     expect(a.traces.speed_rpm).toEqual(b.traces.speed_rpm);
     expect(a.metrics).toEqual(b.metrics);

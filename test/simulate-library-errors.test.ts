@@ -30,9 +30,7 @@ const { DEMOS } = await import('../trust/fuzz-cases');
 describe('a library error inside the run', () => {
   it('gives our diagnostic with time and state, never the library\'s words, in the result, the events and the CLI text', () => {
     const p = resolveProject(parseProject(structuredClone(DEMOS['demo-servo-axis'])));
-    // Cash-Karp throughout (the exact periods call the library only where they fall back)
-    const s0 = simulationFromProject(p);
-    const setup = { ...s0, solver: { ...s0.solver, exactPeriods: false } };
+    const setup = simulationFromProject(p);
     trip.calls = 0;
     trip.afterCalls = 500;
     const r = runSimulation(setup);

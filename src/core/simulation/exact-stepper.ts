@@ -341,12 +341,12 @@ export class ExactStepper extends Stepper {
 /**
  * The stepper of a run: the exact periods (with the setup's own stepper as the fallback) for a
  * constant-parameter plant in current states with the voltage held in the stationary frame, the
- * Cash-Karp solver and `solver.exactPeriods` not false; the setup's stepper alone otherwise
+ * Cash-Karp solver and `solver.exactPeriods` true; the setup's stepper alone otherwise
  * (flux maps, flux states, RK4, a dq-frame input).
  */
 export function makePeriodStepper(setup: AnySetup, plant: Plant, y: Float64Array): Stepper {
   const base = makeStepper(setup, plant, y);
-  const ok = setup.solver.method === 'cash-karp' && setup.solver.exactPeriods !== false && plant.model.linear !== null
+  const ok = setup.solver.method === 'cash-karp' && setup.solver.exactPeriods === true && plant.model.linear !== null
     && !plant.fluxStates && plant.params.inputFrame === 'alpha-beta';
   return ok ? new ExactStepper(plant, setup.controller.Ts, base, setup.Imax) : base;
 }

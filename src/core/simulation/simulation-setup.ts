@@ -26,7 +26,7 @@ export interface SolverOptions {
   /**
    * with 'cash-karp' and a constant-parameter machine: each control period by the exact
    * discretisation of the electrical dynamics where it applies (exact-stepper.ts), Cash-Karp
-   * elsewhere (default true; false: Cash-Karp throughout)
+   * elsewhere (default false: Cash-Karp throughout, the results of before)
    */
   exactPeriods?: boolean;
 }
