@@ -132,3 +132,12 @@ export function correctionWeight(kp: number, ki: number, we: number, Ts: number,
   out[0] = (Cr * dr + Ci * di) / dd;
   out[1] = (Ci * dr - Cr * di) / dd;
 }
+
+/** The correction PI of crossover f Hz: kp = 2 pi f, ki = kp^2 / 4 (a double pole at kp / 2). */
+export function correctionGains(correction_Hz: number): { kp: number; ki: number } {
+  const kp = 2 * Math.PI * correction_Hz;
+  return { kp, ki: (kp * kp) / 4 };
+}
+
+/** The default correction crossover: a tenth of the PLL's bandwidth (slower than the loop that reads it). */
+export const defaultCorrection_Hz = (pllBandwidth_Hz: number): number => pllBandwidth_Hz / 10;
