@@ -79,7 +79,7 @@ const spm = demo('demo-spm-48v');
 /** the demo's hot machine (the plant), control rate, current bandwidth, half rated speed (rad/s) and rated current (A peak) */
 function caseOf(p: ResolvedProject, ratedSpeed_rpm: number) {
   const c = p.file.control!;
-  return { m: p.models.hot as DqMachine, Ts: 1 / c.fCtrl_Hz, bw: c.currentBandwidth_Hz, wm: (0.5 * ratedSpeed_rpm * 2 * Math.PI) / 60, I: p.rated.current_A! };
+  return { m: p.models.hot as DqMachine, Ts: 1 / c.fCtrl_Hz, bw: c.currentBandwidth_Hz!, wm: (0.5 * ratedSpeed_rpm * 2 * Math.PI) / 60, I: p.rated.current_A! };
 }
 // the traction demo's nameplate rated speed; the 48 V demo's "rated" requirement (3000 rpm)
 const ipmCase = caseOf(traction, (traction.rated.speed_rad_s! * 60) / (2 * Math.PI));
