@@ -142,3 +142,105 @@ describe('sensorless estimator: 20 % flux-linkage error against the first-order 
     }
   }
 });
+
+/**
+ * Start from rest on the 48 V demo (free mechanics, its inertia plus load inertia and friction, a
+ * constant load): open-loop current vector on the q axis of the start-up frame with the ramp, then
+ * a speed PI on the ESTIMATED speed holding the hand-over speed (integrator from `handoverIq_A`;
+ * gains by the symmetrical placement Kp = J ws / Kt, Ki = Kp ws / 4: common practice, no source),
+ * the current PIs as above in the estimator's (blended) frame.
+ */
+function startFromRest(p: ResolvedProject, spec: SensorlessAngle, opts: SensorlessOptions, load_Nm: number, tEnd: number) {
+  const m = p.models.hot as DqMachine;
+  const c = p.file.control!;
+  const Ts = 1 / c.fCtrl_Hz, wc = 2 * Math.PI * c.currentBandwidth_Hz!;
+  const J = p.mechanics.inertia + (p.file.scenario?.loadInertia ?? 0);
+  const plant = new Plant({ machine: new LinearDqModel(m), inertia: J, viscousFriction: p.mechanics.viscousFriction, coulombFriction: p.mechanics.coulombFriction, load: loadSchedule([{ t_s: 0, torque_Nm: load_Nm }]), mechanics: 'free', inputFrame: 'alpha-beta', coulombWidth_rad_s: 0.05 });
+  const stepper = new Rk4Stepper(plant, Ts, 20);
+  const y = new Float64Array([0, 0, 0, 0.7, 0]);
+  const est = new SensorlessEstimator(spec, m, opts);
+  est.reset(0, 0); // the start-up does not know the rotor angle (0.7 rad): the vector pulls the rotor in
+  const Kt = 1.5 * m.polePairs * m.psiM, ws = 2 * Math.PI * 20, Kpw = (J * ws) / Kt, Kiw = (Kpw * ws) / 4;
+  const wRef = (spec.handoverSpeed_rpm * 2 * Math.PI) / 60;
+  let xd = 0, xq = 0, xw = 0, wasOpen = true, handover = NaN;
+  let next: [number, number] = [0, 0], applied: [number, number] = [0, 0], lastApplied: [number, number] = [0, 0];
+  let errAfter = 0, speedErrAfter = 0;
+  const n = Math.round(tEnd / Ts);
+  for (let k = 0; k < n; k++) {
+    const t = k * Ts;
+    plant.setAngleOrigin(y[3]!);
+    const th = y[3]!, cth = Math.cos(th), sth = Math.sin(th);
+    const ia = cth * y[0]! - sth * y[1]!, ib = sth * y[0]! + cth * y[1]!;
+    est.sample(th, y[2]!, ia, ib, lastApplied[0], lastApplied[1], Ts);
+    const the = est.thetaE, wh = est.omegaE;
+    if (wasOpen && !est.openLoop) { wasOpen = false; handover = t; xw = est.startup.handoverIq_A; }
+    if (!wasOpen && t > handover + 0.2) {
+      errAfter = Math.max(errAfter, Math.abs(wrapAngle(the - th)));
+      speedErrAfter = Math.max(speedErrAfter, Math.abs(y[2]! - wRef) / wRef);
+    }
+    const ce = Math.cos(the), se = Math.sin(the);
+    const id = ce * ia + se * ib, iq = -se * ia + ce * ib;
+    let iqr: number;
+    if (est.openLoop) iqr = est.startupCurrent_A;
+    else { const ew = wRef - wh / m.polePairs; iqr = Kpw * ew + xw; xw += Kiw * Ts * ew; }
+    const ed = -id, eq = iqr - iq;
+    const vd = m.Ld * wc * ed + xd - wh * m.Lq * iq;
+    const vq = m.Lq * wc * eq + xq + wh * (m.Ld * id + m.psiM);
+    xd += m.Rs * wc * Ts * ed;
+    xq += m.Rs * wc * Ts * eq;
+    const ta = the + 1.5 * wh * Ts, ca = Math.cos(ta), sa = Math.sin(ta);
+    applied = next;
+    next = [ca * vd - sa * vq, sa * vd + ca * vq];
+    plant.input[0] = applied[0];
+    plant.input[1] = applied[1];
+    stepper.period(y, t, t + Ts);
+    lastApplied = applied;
+  }
+  return { handover, errAfter, speedErrAfter, offset: est.startup.handoverOffset_rad, lost: est.lossOfLock() };
+}
+
+describe('sensorless start-up from rest (48 V demo)', () => {
+  it('open loop at 40 A up to 600 rpm, hand-over with a 20 ms blend: 0.2 s later the angle error stays below 0.01 rad and the speed within 2 % of 600 rpm', () => {
+    const spec = sensorless({ handoverSpeed_rpm: 600 });
+    const r = startFromRest(spm, spec, { startupCurrent_A: 40 }, 1, 0.7);
+    // the ramp reaches 600 rpm after 0.2 s (the default ramp)
+    expect(r.handover).toBeCloseTo(0.2, 2);
+    expect(r.errAfter).toBeLessThan(0.01);
+    expect(r.speedErrAfter).toBeLessThan(0.02);
+    expect(r.lost).toBeNull();
+  });
+});
+
+describe('sensorless estimator: start state, loss of lock, bad input', () => {
+  const m = spmCase.m;
+  it('a run that starts at or above the hand-over speed starts locked; below it starts open loop (common practice, no source)', () => {
+    const est = new SensorlessEstimator(sensorless({ handoverSpeed_rpm: 300 }), m, { startupCurrent_A: 30 });
+    est.reset(1, (300 * 2 * Math.PI / 60) * m.polePairs);
+    expect(est.openLoop).toBe(false);
+    expect(est.thetaE).toBe(1);
+    est.reset(1, 0);
+    expect(est.openLoop).toBe(true);
+    expect(est.startupCurrent_A).toBe(30);
+  });
+  it('the watchdog\'s call names the loss of lock once the error stays above pi/4 for 10 ms (100 periods at 10 kHz), not before', () => {
+    const est = new SensorlessEstimator(sensorless(), m, { startupCurrent_A: 0 });
+    const we = 400;
+    est.reset(0, we);
+    // no current, no voltage: the observer holds its flux and the PLL coasts at we; the "true" angle is 1 rad ahead of it
+    for (let k = 0; k < 99; k++) est.sample(est.thetaE + 1 + we * 1e-4, 0, 0, 0, 0, 0, 1e-4);
+    expect(est.lossOfLock()).toBeNull();
+    est.sample(est.thetaE + 1 + we * 1e-4, 0, 0, 0, 0, 0, 1e-4);
+    expect(est.lossOfLock()).toMatch(/loss of lock: .*45\.0° electrical .*10\.0 ms/);
+  });
+  it('bad specification values are refused naming the field', () => {
+    expect(messageOf(() => new SensorlessEstimator(sensorless({ bandwidth_Hz: 0 }), m, { startupCurrent_A: 1 }))).toMatch(/^control\.angle\.bandwidth_Hz must be > 0 Hz/);
+    expect(messageOf(() => new SensorlessEstimator(sensorless({ fluxError_pct: -100 }), m, { startupCurrent_A: 1 }))).toMatch(/^control\.angle\.fluxError_pct must be between/);
+    expect(messageOf(() => new SensorlessEstimator(sensorless({ handoverSpeed_rpm: -5 }), m, { startupCurrent_A: 1 }))).toMatch(/^control\.angle\.handoverSpeed_rpm/);
+  });
+  it('the observer\'s terms carry the stated errors', () => {
+    const est = new SensorlessEstimator(sensorless({ fluxError_pct: 20, resistanceError_pct: -10, inductanceError_pct: 5 }), m, { startupCurrent_A: 1 });
+    expect(est.terms.psiM).toBeCloseTo(1.2 * m.psiM, 15);
+    expect(est.terms.Rs).toBeCloseTo(0.9 * m.Rs, 15);
+    expect(est.terms.Lq).toBeCloseTo(1.05 * m.Lq, 15);
+  });
+});
