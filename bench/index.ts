@@ -14,13 +14,14 @@ import { cliEfficiencyThreadsBench } from './cli-efficiency-threads';
 import { dutyCycleBench } from './duty-cycle';
 import { againstCheckout } from './against-checkout';
 import { continuousTorqueBench, peakDurationBench } from './continuous-torque';
+import { sensorlessBench } from './sensorless';
 
 export interface BenchSection {
   name: string;
   run: () => void | Promise<void>;
 }
 
-const sections: BenchSection[] = [envelopeBench, fluxMapEnvelopeBench, simulateBench, simulateMapBench, switchingBench, cliStartBench, efficiencyMapBench, cliEfficiencyThreadsBench, continuousTorqueBench, peakDurationBench, dutyCycleBench];
+const sections: BenchSection[] = [envelopeBench, fluxMapEnvelopeBench, simulateBench, simulateMapBench, switchingBench, cliStartBench, efficiencyMapBench, cliEfficiencyThreadsBench, continuousTorqueBench, peakDurationBench, dutyCycleBench, sensorlessBench];
 
 const argv = process.argv.slice(2);
 const onlyAt = argv.indexOf('--only');

@@ -41,16 +41,16 @@ export interface ObserverTerms {
 /** Stator and active flux estimates in the stationary frame; no allocation per update. */
 export class ActiveFluxObserver {
   /** stator flux estimate, Wb */
-  psiA = 0;
-  psiB = 0;
+  psiA = 0.5;
+  psiB = 0.5;
   /** active flux psi - Lq i, Wb */
-  faA = 0;
-  faB = 0;
+  faA = 0.5;
+  faB = 0.5;
   /** the correction PI's integrator, V */
-  private zA = 0;
-  private zB = 0;
-  private iaPrev = 0;
-  private ibPrev = 0;
+  private zA = 0.5;
+  private zB = 0.5;
+  private iaPrev = 0.5;
+  private ibPrev = 0.5;
   readonly Rs: number;
   readonly Ld: number;
   readonly Lq: number;
@@ -65,6 +65,9 @@ export class ActiveFluxObserver {
     this.Ld = terms.Ld;
     this.Lq = terms.Lq;
     this.psiM = terms.psiM;
+    // the double fields are declared with a non-integer value so that the engine stores them as
+    // doubles from the start (no boxed number per store in the hot path); the real start is set here
+    this.psiA = this.psiB = this.faA = this.faB = this.zA = this.zB = this.iaPrev = this.ibPrev = 0;
   }
 
   /** Start from the current model at angle theta with currents (ia, ib) (a locked start). */

@@ -40,6 +40,9 @@ export interface SensorlessOptions {
 }
 
 const F = 'control.angle';
+// module-local references (a CommonJS build turns an imported binding into a property getter)
+const wrapAngleL = wrapAngle;
+const DONE: number = STARTUP_DONE;
 
 /** The observer's terms: the plant model's (its constant terms, or those at zero current) scaled by the errors. */
 function observerTerms(spec: SensorlessAngle, machine: MachineInput): { Rs: number; Ld: number; Lq: number; psiM: number } {
@@ -68,11 +71,11 @@ function checkSpec(spec: SensorlessAngle, opts: SensorlessOptions): void {
 
 export class SensorlessEstimator {
   /** the angle and electrical speed the controller gets, rad (in [-pi, pi]) and rad/s */
-  thetaE = 0;
-  omegaE = 0;
+  thetaE = 0.5;
+  omegaE = 0.5;
   /** the observer's own angle and speed (the PLL's), whatever the start-up phase */
-  observerThetaE = 0;
-  observerOmegaE = 0;
+  observerThetaE = 0.5;
+  observerOmegaE = 0.5;
   readonly observer: ActiveFluxObserver;
   readonly pll: SensorlessPll;
   readonly startup: OpenLoopStartup;
@@ -99,6 +102,9 @@ export class SensorlessEstimator {
       direction: opts.direction ?? 1,
     });
     this.lock = new LockMonitor(opts.lockBound_rad ?? DEFAULT_LOCK_BOUND_RAD, opts.lockTime_s ?? DEFAULT_LOCK_TIME_S);
+    // the double fields are declared with a non-integer value so that the engine stores them as
+    // doubles from the start (no boxed number per store in the hot path); the real start is set here
+    this.thetaE = this.omegaE = this.observerThetaE = this.observerOmegaE = 0;
   }
 
   /**
@@ -129,27 +135,43 @@ export class SensorlessEstimator {
   }
 
   /**
+   * The inputs of one period for `sampleFromInput`: [trueThetaE, trueOmegaM, i_alpha, i_beta,
+   * v_alpha, v_beta, Ts] (a hot loop writes them here, so no double is boxed at the call, as the
+   * controller's `stepSampled` does).
+   */
+  readonly input = new Float64Array(7);
+
+  /**
    * One control period: true angle and mechanical speed (only for the loss-of-lock monitor), the
    * measured currents at this sample, the voltage held over the period that ends here, Ts.
    */
-  sample(trueThetaE: number, _trueOmegaM: number, ia: number, ib: number, va: number, vb: number, Ts: number): void {
+  sample(trueThetaE: number, trueOmegaM: number, ia: number, ib: number, va: number, vb: number, Ts: number): void {
+    const x = this.input;
+    x[0] = trueThetaE; x[1] = trueOmegaM; x[2] = ia; x[3] = ib; x[4] = va; x[5] = vb; x[6] = Ts;
+    this.sampleFromInput();
+  }
+
+  /** `sample` with its inputs already written into `this.input`. */
+  sampleFromInput(): void {
+    const x = this.input;
+    const Ts = x[6]!;
     const pll = this.pll;
     const obs = this.observer;
     const th = pll.theta;
     const c = Math.cos(th), s = Math.sin(th);
-    obs.update(ia, ib, va, vb, Ts, c, s);
+    obs.update(x[2]!, x[3]!, x[4]!, x[5]!, Ts, c, s);
     const fa = obs.faA, fb = obs.faB;
     const mag = Math.sqrt(fa * fa + fb * fb);
     const e = mag > 1e-12 ? (fb * c - fa * s) / mag : 0;
     pll.update(e, Ts);
-    const tObs = wrapAngle(th + Ts * pll.kp * e);
+    const tObs = wrapAngleL(th + Ts * pll.kp * e);
     this.observerThetaE = tObs;
     this.observerOmegaE = pll.omega;
     const st = this.startup;
-    if (st.phase === STARTUP_DONE) {
+    if (st.phase === DONE) {
       this.thetaE = tObs;
       this.omegaE = pll.omega;
-      this.lock.update(tObs, trueThetaE, Ts);
+      this.lock.update(tObs, x[0]!, Ts);
     } else {
       st.step(tObs, pll.omega, Ts);
       this.thetaE = st.thetaOut;

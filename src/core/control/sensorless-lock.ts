@@ -13,18 +13,21 @@ export const DEFAULT_LOCK_TIME_S = 0.01;
 
 export class LockMonitor {
   /** time the error has been above the bound without a break, s */
-  timeAbove = 0;
+  timeAbove = 0.5;
   /** largest |angle error| seen, rad */
-  peak = 0;
+  peak = 0.5;
   /** set once the error has been above the bound for `time_s`; stays set until `reset` */
   lost = false;
   /** time (from the first update after reset) at which the lock was lost, s */
   lostAt_s = Number.NaN;
-  private t = 0;
+  private t = 0.5;
 
   constructor(readonly bound_rad = DEFAULT_LOCK_BOUND_RAD, readonly time_s = DEFAULT_LOCK_TIME_S) {
     if (!(bound_rad > 0 && bound_rad <= Math.PI)) throw new RangeError(`lock bound must be in (0, pi] rad (got ${bound_rad})`);
     if (!(time_s >= 0)) throw new RangeError(`lock time must be >= 0 s (got ${time_s})`);
+    // the double fields are declared with a non-integer value so that the engine stores them as
+    // doubles from the start (no boxed number per store in the hot path); the real start is set here
+    this.reset();
   }
 
   reset(): void {

@@ -36,12 +36,16 @@ export function pllNaturalFrequency(bandwidth_rad_s: number, zeta: number): numb
 /** The loop's state; no allocation per update. */
 export class SensorlessPll {
   /** the angle estimate, rad, in [-pi, pi] (after `update`: the prediction for the next sample) */
-  theta = 0;
+  theta = 0.5;
   /** the speed estimate (the integrator), rad/s */
-  omega = 0;
+  omega = 0.5;
 
   constructor(readonly kp: number, readonly ki: number) {
     if (!(kp > 0) || !(ki > 0)) throw new RangeError(`type II PLL gains must be positive (kp ${kp}, ki ${ki})`);
+    // the double fields are declared with a non-integer value so that the engine stores them as
+    // doubles from the start (no boxed number per store in the hot path); the real start is set here
+    this.theta = 0;
+    this.omega = 0;
   }
 
   /** critically damped (zeta = 1) loop of closed-loop -3 dB bandwidth f Hz: kp = 2 alpha, ki = alpha^2 */

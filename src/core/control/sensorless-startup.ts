@@ -35,25 +35,28 @@ export class OpenLoopStartup {
   /** STARTUP_OPEN_LOOP, STARTUP_BLEND or STARTUP_DONE */
   phase = STARTUP_DONE;
   /** the open-loop vector's angle and electrical speed */
-  theta = 0;
-  omega = 0;
+  theta = 0.5;
+  omega = 0.5;
   /** the output (blended) angle and speed, electrical */
-  thetaOut = 0;
-  omegaOut = 0;
+  thetaOut = 0.5;
+  omegaOut = 0.5;
   /** open-loop angle minus observer angle at hand-over, rad */
-  handoverOffset_rad = 0;
+  handoverOffset_rad = 0.5;
   /** the q-axis current (rotor frame) the open-loop vector gave at hand-over, A */
-  handoverIq_A = 0;
+  handoverIq_A = 0.5;
   /** time of hand-over since the start, s (NaN before) */
   handoverTime_s = Number.NaN;
-  private elapsed = 0;
-  private blendLeft = 0;
+  private elapsed = 0.5;
+  private blendLeft = 0.5;
 
   constructor(readonly spec: StartupSpec) {
     if (!(spec.handoverOmegaE > 0)) throw new RangeError('hand-over speed must be > 0');
     if (!(spec.rampE_rad_s2 > 0)) throw new RangeError('start-up ramp must be > 0');
     if (!(spec.current_A >= 0)) throw new RangeError('start-up current must be >= 0 A');
     if (!(spec.blend_s >= 0)) throw new RangeError('blend time must be >= 0 s');
+    // the double fields are declared with a non-integer value so that the engine stores them as
+    // doubles from the start (no boxed number per store in the hot path); the real start is set here
+    this.theta = this.omega = this.thetaOut = this.omegaOut = this.handoverOffset_rad = this.handoverIq_A = this.elapsed = this.blendLeft = 0;
   }
 
   /** Start open loop at angle theta and electrical speed omega (from rest: 0). */
