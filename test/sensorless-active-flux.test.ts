@@ -20,6 +20,10 @@ function runSteady(obs: ActiveFluxObserver, we: number, id: number, iq: number, 
   };
   let prev = at(0);
   obs.reset(delta, prev.ia, prev.ib);
+  // the first update is at the reset's instant: it integrates nothing, whatever the voltage
+  const a0 = obs.psiA, b0 = obs.psiB;
+  obs.update(prev.ia, prev.ib, 1e3, -1e3, Ts, Math.cos(delta), Math.sin(delta));
+  expect([obs.psiA, obs.psiB]).toEqual([a0, b0]);
   for (let k = 1; k <= n; k++) {
     const x = at(k);
     const va = (x.pa - prev.pa) / Ts + m.Rs * 0.5 * (x.ia + prev.ia);

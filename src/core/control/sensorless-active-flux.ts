@@ -21,7 +21,8 @@
  * stationary frame over the period that ends at this sample (for a controller with a delay line, the
  * command it computed delaySamples + 1 samples ago: what it put out for this period), so its
  * integral is exactly Ts v; the resistive drop by the trapezoid of the currents at both ends. The
- * correction then uses the current model at this sample (semi-implicit):
+ * correction then uses the current model at this sample (semi-implicit). The first update after a
+ * reset is taken at the reset's instant and integrates nothing.
  *
  *   psiPred = psi[k-1] + Ts (v - Rs (i[k-1] + i[k]) / 2)
  *   e = psi_i[k] - psiPred,   z += ki Ts e,   psi[k] = psiPred + Ts (kp e + z)
@@ -51,6 +52,8 @@ export class ActiveFluxObserver {
   private zB = 0.5;
   private iaPrev = 0.5;
   private ibPrev = 0.5;
+  /** the first update after `reset` is at the reset's instant: it integrates nothing (the period before belongs to the start state) */
+  private started = false;
   readonly Rs: number;
   readonly Ld: number;
   readonly Lq: number;
@@ -83,6 +86,7 @@ export class ActiveFluxObserver {
     this.ibPrev = ib;
     this.faA = this.psiA - this.Lq * ia;
     this.faB = this.psiB - this.Lq * ib;
+    this.started = false;
   }
 
   /**
@@ -90,6 +94,15 @@ export class ActiveFluxObserver {
    * here, period Ts; (c, s) = (cos, sin) of the angle estimate at this sample (the current model's frame).
    */
   update(ia: number, ib: number, va: number, vb: number, Ts: number, c: number, s: number): void {
+    if (!this.started) {
+      // the sample at the start's instant: the state is the start state
+      this.started = true;
+      this.iaPrev = ia;
+      this.ibPrev = ib;
+      this.faA = this.psiA - this.Lq * ia;
+      this.faB = this.psiB - this.Lq * ib;
+      return;
+    }
     const R = this.Rs;
     const pA = this.psiA + Ts * (va - 0.5 * R * (this.iaPrev + ia));
     const pB = this.psiB + Ts * (vb - 0.5 * R * (this.ibPrev + ib));
