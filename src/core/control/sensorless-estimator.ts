@@ -11,7 +11,12 @@
  * (sensorless-lock.ts) once the observer is in charge. Output at a sample: the angle at that sample
  * thetaHat + Ts kp e (the PLL's prediction corrected by this sample's detector) and the PLL's speed.
  *
- * Same shape as the common estimator interface (reset, sample, thetaE, omegaE). Allocation-free per sample.
+ * Same shape as the common estimator interface (reset(thetaE, omegaE); sample(trueThetaE, trueOmegaM,
+ * i_alpha, i_beta, v_alpha, v_beta, Ts); thetaE, omegaE electrical), plus what the simulator's
+ * wiring needs: `openLoop` and `startupCurrent_A` (while open loop the controller asks that current
+ * on the q axis of thetaE instead of the speed loop's), `startup.handoverIq_A` (the q current at
+ * hand-over, to start the speed PI's integrator from), `lossOfLock()` for the watchdog, and
+ * `sampleFromInput()` (inputs through `input`, no boxed argument). Allocation-free per sample.
  */
 import { InputError } from '../base/errors';
 import { RPM_TO_RAD_S } from '../base/units';
