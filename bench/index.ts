@@ -22,7 +22,7 @@ export interface BenchSection {
   run: () => void | Promise<void>;
 }
 
-const sections: BenchSection[] = [] = [envelopeBench, fluxMapEnvelopeBench, simulateBench, simulateMapBench, switchingBench, cliStartBench, efficiencyMapBench, cliEfficiencyThreadsBench, continuousTorqueBench, peakDurationBench, dutyCycleBench, toleranceSampleBench, sensorlessBench];
+const sections: BenchSection[] = [envelopeBench, fluxMapEnvelopeBench, simulateBench, simulateMapBench, switchingBench, cliStartBench, efficiencyMapBench, cliEfficiencyThreadsBench, continuousTorqueBench, peakDurationBench, dutyCycleBench, toleranceSampleBench, sensorlessBench];
 
 const argv = process.argv.slice(2);
 const onlyAt = argv.indexOf('--only');
