@@ -13,7 +13,7 @@ import { lossesSchema } from './loss-schema';
 import { thermalCapProblem, thermalSchema } from './thermal-schema';
 import { dutyCycleCapProblem, dutyCycleSchema } from './duty-cycle-schema';
 import { pwmProblems, pwmSchema } from './pwm-schema';
-import { toleranceChoiceProblems, tolerancesSchema } from './tolerance-schema';
+import { tolerancesSchema } from './tolerance-schema';
 import { CHOOSE_ONE, headerProblem, listCapProblem, problemsOf, type ProjectProblem } from './schema-problems';
 
 export { CAPPED_LISTS, KEYS, MAX_LIST_ENTRIES, MAX_PROJECT_BYTES, PROJECT_FORMAT, PROJECT_VERSION } from './schema-keys';
@@ -290,7 +290,6 @@ export const projectSchema = projectObject.superRefine((p, ctx) => {
     for (const c of fluxMapCoverageProblems(map, Ipk, words)) ctx.addIssue({ code: 'custom', path: ['motor', 'fluxMap', c.key], message: c.message });
   }
   for (const c of pwmProblems(p.control, p.inverter.Vdc)) ctx.addIssue({ code: 'custom', path: c.path, message: c.message });
-  for (const t of toleranceChoiceProblems(p)) ctx.addIssue({ code: 'custom', path: ['tolerances', t.key], message: t.message });
   if (p.control?.mode === 'current-step' && p.scenario !== undefined && p.scenario.currentStep === undefined) {
     ctx.addIssue({ code: 'custom', path: ['scenario', 'currentStep'], message: 'is required by control.mode "current-step"' });
   }
