@@ -14,20 +14,21 @@ import { cliEfficiencyThreadsBench } from './cli-efficiency-threads';
 import { dutyCycleBench } from './duty-cycle';
 import { againstCheckout } from './against-checkout';
 import { continuousTorqueBench, peakDurationBench } from './continuous-torque';
+import { toleranceSampleBench } from './tolerance-sample';
 
 export interface BenchSection {
   name: string;
   run: () => void | Promise<void>;
 }
 
-const sections: BenchSection[] = [envelopeBench, fluxMapEnvelopeBench, simulateBench, simulateMapBench, switchingBench, cliStartBench, efficiencyMapBench, cliEfficiencyThreadsBench, continuousTorqueBench, peakDurationBench, dutyCycleBench];
+const sections: BenchSection[] = [envelopeBench, fluxMapEnvelopeBench, simulateBench, simulateMapBench, switchingBench, cliStartBench, efficiencyMapBench, cliEfficiencyThreadsBench, continuousTorqueBench, peakDurationBench, dutyCycleBench, toleranceSampleBench];
 
 const argv = process.argv.slice(2);
 const onlyAt = argv.indexOf('--only');
 const only = onlyAt >= 0 ? (argv[onlyAt + 1] ?? '').toLowerCase() : '';
 const againstAt = argv.indexOf('--against');
 const against = againstAt >= 0 ? argv[againstAt + 1] : undefined;
-const chosen = against ? [againstCheckout(against)] : only ? sections.filter((s) => s.name.toLowerCase().includes(only)) : sections;
+const chosen = against ? [againstCheckout(against, only)] : only ? sections.filter((s) => s.name.toLowerCase().includes(only)) : sections;
 if (chosen.length === 0) console.log(`no bench section matches "${only}": ${sections.map((s) => s.name).join('; ')}`);
 
 for (const s of chosen) {

@@ -5,9 +5,14 @@
  * against a fixed-step RK4 baseline run at the step size that reaches the same accuracy as our
  * Cash-Karp run (both measured against a Cash-Karp reference at tol 1e-11), in the same process.
  * The timed runs decimate their traces to the default maxPoints, as the app and the CLI do; the
- * accuracy is compared on separate runs that keep the full-rate traces.
+ * accuracy is compared on separate runs that keep the full-rate traces. Beside the steady state
+ * (warm engine), the cold figures: the built command line's `simulate` of the same demo spawned
+ * afresh (its first run in a new process: real-time factor of the run, its set-up, and the whole
+ * process against the target of 0.6 s), medians and ranges of COLD_SPAWNS.
  */
 import { readFileSync } from 'node:fs';
+import { execFileSync } from 'node:child_process';
+import { CLI_BUNDLE, ROOT, ensureBundle } from '../scripts/cli-bundle.mjs';
 import { fileURLToPath } from 'node:url';
 import { setFlagsFromString } from 'node:v8';
 import { runInNewContext } from 'node:vm';
@@ -24,6 +29,9 @@ import type { DqMachine } from '../src/core/machine/dq-machine';
 import type { MachineInput, MachineModel } from '../src/core/machine/machine-model';
 
 const REPEATS = 9;
+const COLD_SPAWNS = 7;
+/** whole-process target of a 1 s command-line run, ms */
+const CLI_TARGET_MS = 600;
 /** full-rate traces, for the accuracy comparison */
 const FULL = { maxPoints: MAX_TRACE_POINTS, wallBudget_s: 600 };
 /** the timed runs decimate as the app does (default maxPoints) */
@@ -32,6 +40,26 @@ const TIMED = { wallBudget_s: 600 };
 function median(xs: number[]): number {
   const s = [...xs].sort((a, b) => a - b);
   return s[Math.floor(s.length / 2)]!;
+}
+
+const range = (xs: number[], d: number): string => `${Math.min(...xs).toFixed(d)} to ${Math.max(...xs).toFixed(d)}`;
+
+/** The demo simulated by the built command line in fresh processes: whole-process time, the run's wall time and set-up, ms. */
+function coldRuns(demo: string, Ts: number): { whole: number[]; run: number[]; periods: number[]; setup: number[]; sim_s: number } {
+  const failed = ensureBundle();
+  if (failed !== '') throw new Error(`the command line could not be built: ${failed}`);
+  const out = { whole: [] as number[], run: [] as number[], periods: [] as number[], setup: [] as number[], sim_s: 0 };
+  for (let k = 0; k < COLD_SPAWNS; k++) {
+    const t0 = performance.now();
+    const txt = execFileSync(process.execPath, [CLI_BUNDLE, 'simulate', fileURLToPath(new URL(`../resources/${demo}.json`, import.meta.url)), '--json'], { cwd: ROOT, encoding: 'utf8', maxBuffer: 1 << 28 });
+    out.whole.push(performance.now() - t0);
+    const st = (JSON.parse(txt) as { stats: { controlSteps: number; wall_s: number; setup_s: number; run_s: number; projectSetup_s: number } }).stats;
+    out.run.push(st.wall_s * 1e3);
+    out.periods.push(st.run_s * 1e3);
+    out.setup.push((st.projectSetup_s + st.setup_s) * 1e3);
+    out.sim_s = st.controlSteps * Ts;
+  }
+  return out;
 }
 
 /** wall time of a run: the fastest and the median of REPEATS after a warm-up (the fastest is the least disturbed by other load) */
@@ -155,9 +183,16 @@ export const simulateBench: BenchSection = {
     const bytes = heapPerPeriod(base);
     console.log(`  heap growth per control period: ${bytes === null ? 'not measured (no gc hook)' : `${bytes.toFixed(0)} bytes (median of 5; no arrays or closures are created per period, this is the engine boxing doubles across calls it does not inline)`}`);
     const fl = libraryFloor(base.controller.Ts, base.solver.tol);
-    console.log(`  the integrator alone (ode45-cash-karp, ${STATE_SIZE} states, trivial right-hand side, one step per period): ${fl.us.toFixed(2)} µs per period -> ${fl.rtf.toFixed(0)}x real time at most, before any plant, controller or recording work`);
-    console.log(`    our run spends ${(((ours.wall / sim_s) * 1e6) / Math.round(1 / base.controller.Ts)).toFixed(2)} µs per period; ${((fl.us / (((ours.wall / sim_s) * 1e6) / Math.round(1 / base.controller.Ts))) * 100).toFixed(0)} % of it is that floor`);
-    console.log(`targets: >= 200x real time, <= 10 evaluations per period, no allocation in the inner loop`);
+    const perPeriod = ((ours.wall / sim_s) * 1e6) / Math.round(1 / base.controller.Ts);
+    console.log(`  the integrator library alone (ode45-cash-karp, ${STATE_SIZE} states, trivial right-hand side, one step per period): ${fl.us.toFixed(2)} µs per period; our whole period ${perPeriod.toFixed(2)} µs`);
+    const cold = coldRuns('demo-ipm-traction', base.controller.Ts);
+    const rtfSteady = sim_s / ours.wall;
+    const rtfCold = cold.run.map((r) => (cold.sim_s * 1e3) / r);
+    console.log(`cold, the built command line's simulate of the same demo (1 s), ${COLD_SPAWNS} fresh processes:`);
+    console.log(`  whole process: median ${median(cold.whole).toFixed(0)} ms (${range(cold.whole, 0)}); target < ${CLI_TARGET_MS} ms: ${median(cold.whole) < CLI_TARGET_MS ? 'met' : 'NOT met'}`);
+    console.log(`  set-up (tuning, reference table, the run's own): median ${median(cold.setup).toFixed(1)} ms (${range(cold.setup, 1)}); the run's control periods: median ${median(cold.periods).toFixed(1)} ms`);
+    console.log(`  real-time factor of the first run in the process: median ${median(rtfCold).toFixed(1)}x (${range(rtfCold, 1)}); steady state above: ${rtfSteady.toFixed(0)}x, ratio steady/cold ${(rtfSteady / median(rtfCold)).toFixed(1)}`);
+    console.log(`targets: steady state >= 3x the checkout before issue 14 (run \`-- --against DIR --only simulat\` for the ratio), whole 1 s command-line run < ${CLI_TARGET_MS} ms, <= 10 evaluations per period, no allocation in the inner loop`);
   },
 };
 

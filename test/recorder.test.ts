@@ -61,3 +61,35 @@ describe('trace recorder', () => {
     expect(scheduleBefore([{ t: 0.1, v: 5 }], 0.1, 1)).toBe(1);
   });
 });
+
+describe('the recorded load torque', () => {
+  it('equals the plant\'s load torque at every sample time, across steps, ramps and the speed term', async () => {
+    // reference: plant.loadTorque (the bisection over the schedule's breakpoints); common practice (no source)
+    const { loadSchedule, Plant } = await import('../src/core/simulation/plant');
+    const { TraceRecorder } = await import('../src/core/simulation/recorder');
+    const { CascadeController } = await import('../src/core/control/controller');
+    const { simulationFromProject } = await import('../src/core/project/simulation-from-project');
+    const { loadProjectText } = await import('../src/core/project/project');
+    const { readFileSync } = await import('node:fs');
+    const { fileURLToPath } = await import('node:url');
+    const p = loadProjectText(readFileSync(fileURLToPath(new URL('../resources/demo-ipm-traction.json', import.meta.url)), 'utf8'));
+    const base = simulationFromProject(p, { scenario: { duration_s: 0.05 } });
+    const load = loadSchedule([{ t_s: 0.01, torque_Nm: 20 }, { t_s: 0.02, torque_Nm: -5 }, { t_s: 0.02, torque_Nm: 7 }], [{ t_s: 0.03, duration_s: 0.008, torque_Nm: 40 }], 2e-4);
+    const setup = { ...base, plant: { ...base.plant, load } };
+    const plant = new Plant(setup.plant);
+    const ctrl = new CascadeController(setup.controller);
+    const n = 500;
+    const rec = new TraceRecorder(setup, plant.model, plant, ctrl, n, 2 * (n + 1));
+    const y = new Float64Array(5);
+    const want: number[] = [];
+    for (let k = 0; k <= n; k++) {
+      y[2] = 100 - 0.7 * k; // the speed through zero: the quadratic term changes sign
+      plant.setAngleOrigin(0);
+      rec.record(k, y);
+      want.push(plant.loadTorque(k * setup.controller.Ts, y[2]));
+    }
+    const got = Array.from(rec.traces().loadTorque_Nm);
+    expect(got.length).toBe(n + 1);
+    expect(got).toEqual(want);
+  });
+});

@@ -99,3 +99,38 @@ describe('the reference table of a model that is not linear', () => {
     }
   });
 });
+
+describe('the reference table built directly (constant-parameter machine)', () => {
+  it('equals the table of the solver at every cell (bisected limits), for the demos and invented machines', async () => {
+    const { demoCases } = await import('./model-paths');
+    // the same solver behind a wrapper: the table then takes the solver per cell and bisects the limits
+    const viaSolver = (m: Parameters<typeof solveOperatingPoint>[0], l: DriveLimits, w: number, T: number) => solveOperatingPoint(m, l, w, T);
+    const cases = [
+      ...demoCases(),
+      { name: 'IPM', m: ipm, lim },
+      { name: 'IPM, large Rs', m: { polePairs: 3, Rs: 0.8, Ld: 4e-3, Lq: 9e-3, psiM: 0.15 }, lim: { Vmax: 300, Imax: 20 } },
+    ];
+    for (const { m, lim: l } of cases) {
+      const nodes = { speedMax_rad_s: 1.5 * l.Vmax / (m.polePairs * m.psiM), speedNodes: 17, torqueNodes: 9 };
+      const a = buildReferenceTable(m, l, nodes);
+      const b = buildReferenceTable(m, l, nodes, viaSolver);
+      // common practice (no source): the limits are the envelope's largest torque (accurate to 1e-9)
+      // against a bisection of 30 halvings of the bound 1.5 p (psiM + |Ld - Lq| Imax) Imax: equal to
+      // that resolution (as above)
+      const bound = 1.5 * m.polePairs * (m.psiM + Math.abs(m.Ld - m.Lq) * l.Imax) * l.Imax;
+      for (let r = 0; r < nodes.speedNodes; r++) {
+        expect(Math.abs(a.tMot[r]! - b.tMot[r]!)).toBeLessThan(2 * bound * 2 ** -30);
+        expect(Math.abs(a.tGen[r]! - b.tGen[r]!)).toBeLessThan(2 * bound * 2 ** -30);
+      }
+      // the inner cells to 2e-8 of Imax; the end cells sit at the torque limit, where the current
+      // moves with the square root of a torque difference (up to 1e-4 of Imax, as above)
+      const nU = nodes.torqueNodes;
+      for (let k = 0; k < a.id.length; k++) {
+        const end = k % nU === 0 || k % nU === nU - 1;
+        const tol = (end ? 1e-4 : 2e-8) * l.Imax;
+        expect(Math.abs(a.id[k]! - b.id[k]!)).toBeLessThan(tol);
+        expect(Math.abs(a.iq[k]! - b.iq[k]!)).toBeLessThan(tol);
+      }
+    }
+  });
+});

@@ -7,7 +7,7 @@ import { TRACE_NAMES } from '../src/core/simulation/simulation-result';
 const traces = (speedRef: number, speed: number) => Object.fromEntries(TRACE_NAMES.map((n) => [n, Float64Array.of(n === 'speedRef_rpm' ? speedRef : n === 'speed_rpm' ? speed : 0)])) as SimulationResult['traces'];
 const result = (peak: number, over: Partial<SimulationResult> = {}): SimulationResult => ({
   metrics: { finalSpeed_rpm: 0, speedOvershoot_pct: null, riseTime_s: null, settlingTime_s: null, loadStepDip_rpm: null, loadStepRecovery_s: null, peakCurrent_A: peak, rmsCurrent_A: 1, voltageSaturation_s: 0, energyFromBus_J: 0, steadyStateError_rpm: null },
-  loadSteps: [], traces: traces(1000, 1000), events: [], stats: { controlSteps: 1, rhsEvaluations: 6, evaluationsPerPeriod: 6, wall_s: 0 }, ...over,
+  loadSteps: [], traces: traces(1000, 1000), events: [], stats: { controlSteps: 1, rhsEvaluations: 6, evaluationsPerPeriod: 6, wall_s: 0, setup_s: 0, run_s: 0 }, ...over,
 });
 const setup = { Imax: 100, controller: { Ts: 1e-4, delaySamples: 1, mode: 'speed' }, currentLimitField: 'inverter.Imax' } as unknown as SimulationSetup;
 

@@ -13,6 +13,8 @@ import { continuousCommand } from './continuous';
 import { overloadCommand } from './overload';
 import { dutyCycleCommand } from './duty-cycle';
 import { currentTableCommand } from './current-table';
+import { cornersCommand } from './corners';
+import { toleranceSampleCommand } from './tolerance-sample';
 
 /** Every command of the CLI, in the order `help` lists them. Add a command by importing it here. */
 export const COMMANDS: Command[] = [
@@ -24,6 +26,8 @@ export const COMMANDS: Command[] = [
   overloadCommand,
   dutyCycleCommand,
   sizeCommand,
+  cornersCommand,
+  toleranceSampleCommand,
   simulateCommand,
   tuneCommand,
   currentTableCommand,

@@ -20,7 +20,7 @@ const JSON_METRICS = [
 ] as const satisfies ReadonlyArray<keyof SimulationResult['metrics']>;
 
 /** The simulate command's JSON document: every metric and trace channel, events, findings, stats. */
-export function simulationJson(r: SimulationResult, findings: Finding[] = []) {
+export function simulationJson(r: SimulationResult, findings: Finding[] = [], projectSetup_s?: number) {
   const metrics: Record<string, number | null> = {};
   for (const k of JSON_METRICS) metrics[k] = r.metrics[k];
   const traces: Record<string, number[]> = {};
@@ -32,7 +32,12 @@ export function simulationJson(r: SimulationResult, findings: Finding[] = []) {
     events: r.events.map((e) => ({ ...e })),
     findings: findings.map((f) => ({ ...f })),
     diagnostic: r.diagnostic ?? null,
-    stats: { controlSteps: r.stats.controlSteps, rhsEvaluations: r.stats.rhsEvaluations, evaluationsPerPeriod: r.stats.evaluationsPerPeriod, wall_s: r.stats.wall_s },
+    stats: {
+      controlSteps: r.stats.controlSteps, rhsEvaluations: r.stats.rhsEvaluations, evaluationsPerPeriod: r.stats.evaluationsPerPeriod, wall_s: r.stats.wall_s,
+      // set-up apart from the periods: the project's (tuning, reference table) when given, and the run's own
+      ...(projectSetup_s !== undefined ? { projectSetup_s } : {}),
+      setup_s: r.stats.setup_s, run_s: r.stats.run_s,
+    },
   };
 }
 
@@ -55,18 +60,20 @@ export const simulateCommand: Command = {
   usage: 'simulate <project.json> [--max-points N] [--csv FILE] [--json]',
   flags: { csv: 'output', 'max-points': 'number' },
   run(p, args) {
+    const t0 = performance.now();
     const setup = simulationFromProject(p);
+    const projectSetup_s = (performance.now() - t0) / 1000;
     // trace length per channel (min/max decimated; the metrics always use every sample), bounded so
     // that memory stays bounded (MAX_TRACE_POINTS)
     const maxPoints = numberFlag(args, 'max-points', { min: 2, max: MAX_TRACE_POINTS, integer: true });
     const r = runSimulation(setup, maxPoints !== undefined ? { maxPoints } : {});
-    const { json, lines } = simulationReport(p, setup, r);
+    const { json, lines } = simulationReport(p, setup, r, projectSetup_s);
     return { json, lines, ...(args.flags.has('csv') ? { files: [{ flag: 'csv', contents: simulationCsv(r) }] } : {}) };
   },
 };
 
 /** The simulate command's document and text lines for a finished run (also what the fuzz checks). */
-export function simulationReport(p: ResolvedProject, setup: SimulationSetup, r: SimulationResult): { json: ReturnType<typeof simulationJson> & { currentLimits: CurrentLimits }; lines: string[] } {
+export function simulationReport(p: ResolvedProject, setup: SimulationSetup, r: SimulationResult, projectSetup_s?: number): { json: ReturnType<typeof simulationJson> & { currentLimits: CurrentLimits }; lines: string[] } {
   const m = r.metrics;
   const c = setup.controller;
   const rows: Array<[string, string, string]> = [
@@ -115,8 +122,12 @@ export function simulationReport(p: ResolvedProject, setup: SimulationSetup, r: 
   lines.push('', `${r.stats.controlSteps} control periods, ${r.stats.rhsEvaluations} derivative evaluations ` +
     `(median ${r.stats.evaluationsPerPeriod} per period), ${fmt(r.stats.wall_s * 1e3)} ms wall time` +
     (r.stats.wall_s > 0 ? `, ${fmt((r.stats.controlSteps * c.Ts) / r.stats.wall_s)} x real time` : ''));
+  lines.push(`set-up ${fmt(((projectSetup_s ?? 0) + r.stats.setup_s) * 1e3)} ms` +
+    (projectSetup_s !== undefined ? ` (tuning and reference table ${fmt(projectSetup_s * 1e3)} ms)` : '') +
+    `, control periods ${fmt(r.stats.run_s * 1e3)} ms` +
+    (r.stats.run_s > 0 ? ` (${fmt((r.stats.controlSteps * c.Ts) / r.stats.run_s)} x real time)` : ''));
   if (p.inverter.Vdc > 60) {
     lines.push(`caution: a ${fmt(p.inverter.Vdc)} V DC bus is hazardous; work on it only under local codes, licensed practice and IEC 61800-5-1.`);
   }
-  return { json: { ...simulationJson(r, findings), currentLimits: p.currentLimits }, lines };
+  return { json: { ...simulationJson(r, findings, projectSetup_s), currentLimits: p.currentLimits }, lines };
 }

@@ -25,24 +25,29 @@
  * axis, the integral gains kept (internal model control: Kp = L omega_c, Ki = Rs omega_c; see
  * gain-schedule.ts for the table a firmware would hold).
  *
- * All state is preallocated; `step` allocates nothing.
+ * All state is preallocated; `step` allocates nothing. The sampled step is straight-line code: the
+ * configuration's numbers are read once, in the constructor, into one typed array of parameters
+ * (P_* below), the reference table's speed row is interpolated once per period (for the torque
+ * limits and the current references alike), the speed loop runs inline, and the only calls left are
+ * the voltage limit when the command leaves the circle (or with the hexagon) and, for a model that
+ * is not linear, its flux and incremental inductance.
  */
 import type { MachineModel } from '../machine/machine-model';
 import { machineModel } from '../machine/linear-dq';
-import { lookupCurrents, torqueLimitsAt } from './reference-table';
-import { scheduleValue } from './step-schedule';
-import { limitVoltageDq } from './voltage-limit';
+import { scheduleValue, type StepSchedule } from './step-schedule';
+import { limitVoltageDq, type VoltageLimitSpec } from './voltage-limit';
 import { cosSmall, sinSmall } from '../mathematics/rotation';
 
 export { stepSchedule, scheduleValue, type StepSchedule } from './step-schedule';
 export { limitVoltageDq, voltageLimitAt, type VoltageLimitSpec } from './voltage-limit';
 export { DEFAULT_CONTROLLER_OPTIONS, type AntiWindup, type ControlMode, type ControllerConfig, type PiGains } from './controller-config';
 import type { ControllerConfig } from './controller-config';
+import {
+  P_COUNT, P_POLES, P_LD, P_LQ, P_PSIM, P_IMAX, P_KPD, P_KPQ, P_KITSD, P_KITSQ, P_KBD, P_KBQ, P_ADV, P_RADIUS,
+  P_RAMP, P_FILT, P_KPW, P_KIW, P_KBW, P_DIVIDER, P_WMAX, P_NS, P_NU, P_KPD0, P_KPQ0, P_LDD0, P_LQQ0, controllerParameters,
+} from './controller-config';
 
-// module-local references to the imported functions called every period (a CommonJS build turns
-// an imported binding into a property getter called at each use)
-const lookupCurrentsL = lookupCurrents;
-const torqueLimitsAtL = torqueLimitsAt;
+// module-local references to the imported functions called every period (a CommonJS build turns an imported binding into a getter)
 const scheduleValueL = scheduleValue;
 const limitVoltageDqL = limitVoltageDq;
 const sinSmallL = sinSmall;
@@ -50,13 +55,14 @@ const cosSmallL = cosSmall;
 
 const MAX_DELAY = 16;
 
+const EMPTY = new Float64Array(0);
+
 export class CascadeController {
   readonly cfg: ControllerConfig;
-  // integrators
+  // integrators, and the speed reference chain
   xd = 0;
   xq = 0;
   xw = 0;
-  // speed reference chain
   wRefRamp = 0;
   wRefFilt = 0;
   // outputs of the last step, for traces
@@ -85,40 +91,31 @@ export class CascadeController {
   torqueClamped = false;
   /** the machine model; its closed form (the feed-forward with Ld, Lq, psiM) taken when `model.linear` is non-null */
   readonly model: MachineModel;
-  private readonly lin: boolean;
-  /** flux at zero current (the back-EMF feed-forward's), and the flux of the sampled current */
-  private readonly psi0 = new Float64Array(2);
-  private readonly psi = new Float64Array(2);
-  // the configuration's hot numbers as plain fields (read once per period)
+  /** the configuration's numbers (P_* indices, controller-config.ts) */
+  private readonly prm = new Float64Array(P_COUNT);
+  // the configuration's switches and arrays, read once
+  /** 0 speed, 1 torque, 2 current-step */
   private readonly modeN: number;
-  private readonly Ts: number;
   private readonly D: number;
-  private readonly p: number;
-  private readonly Ld: number;
-  private readonly Lq: number;
-  private readonly psiM: number;
-  private readonly Imax: number;
-  // proportional and back-calculation gains: constant, or set each period by `scheduleGains`
-  private kpD: number;
-  private kpQ: number;
-  private readonly kiTsD: number;
-  private readonly kiTsQ: number;
-  private kbD: number;
-  private kbQ: number;
-  /** gain scheduling on (a model that is not linear): the gains and incremental inductances at zero current */
+  private readonly lin: boolean;
   private readonly sched: boolean;
-  private readonly kpD0: number;
-  private readonly kpQ0: number;
-  private readonly Ldd0: number;
-  private readonly Lqq0: number;
-  private readonly Linc = new Float64Array(4);
   private readonly clamping: boolean;
   private readonly decoup: boolean;
   private readonly bemf: boolean;
-  /** inverse-Park advance per rad/s of electrical speed, s */
-  private readonly advance: number;
   private readonly circle: boolean;
-  private readonly radius: number;
+  private readonly voltage: VoltageLimitSpec;
+  private readonly tMot: Float64Array;
+  private readonly tGen: Float64Array;
+  private readonly tabId: Float64Array;
+  private readonly tabIq: Float64Array;
+  private readonly speedRef: StepSchedule;
+  private readonly torqueRefS: StepSchedule;
+  private readonly idRefS: StepSchedule;
+  private readonly iqRefS: StepSchedule;
+  /** flux at zero current (the back-EMF feed-forward's), the flux of the sampled current, incremental inductances */
+  private readonly psi0 = new Float64Array(2);
+  private readonly psi = new Float64Array(2);
+  private readonly Linc = new Float64Array(4);
 
   constructor(cfg: ControllerConfig) {
     if (!(Number.isInteger(cfg.delaySamples) && cfg.delaySamples >= 0 && cfg.delaySamples < MAX_DELAY)) {
@@ -126,37 +123,31 @@ export class CascadeController {
     }
     this.cfg = cfg;
     this.modeN = cfg.mode === 'speed' ? 0 : cfg.mode === 'torque' ? 1 : 2;
-    this.Ts = cfg.Ts;
     this.D = cfg.delaySamples;
     const model = machineModel(cfg.machine);
     this.model = model;
     const lin = model.linear;
     this.lin = lin !== null;
-    this.p = model.polePairs;
-    this.Ld = lin ? lin.Ld : NaN;
-    this.Lq = lin ? lin.Lq : NaN;
     // the flux at zero current: the magnet's (psiM, 0) for the linear model
     model.flux(0, 0, this.psi0);
-    this.psiM = lin ? lin.psiM : this.psi0[0]!;
-    this.Imax = cfg.Imax;
-    this.kpD = cfg.currentD.Kp;
-    this.kpQ = cfg.currentQ.Kp;
-    this.kiTsD = cfg.Ts * cfg.currentD.Ki;
-    this.kiTsQ = cfg.Ts * cfg.currentQ.Ki;
-    this.kbD = cfg.currentD.Kp > 0 ? Math.min(1, (cfg.Ts * cfg.currentD.Ki) / cfg.currentD.Kp) : 0;
-    this.kbQ = cfg.currentQ.Kp > 0 ? Math.min(1, (cfg.Ts * cfg.currentQ.Ki) / cfg.currentQ.Kp) : 0;
-    this.sched = cfg.gainScheduling === true && lin === null;
-    this.kpD0 = this.kpD;
-    this.kpQ0 = this.kpQ;
     model.incrementalInductance(0, 0, this.Linc);
-    this.Ldd0 = this.Linc[0]!;
-    this.Lqq0 = this.Linc[3]!;
+    controllerParameters(cfg, model, this.psi0[0]!, this.Linc[0]!, this.Linc[3]!, this.prm);
+    const tab = cfg.table;
+    this.tMot = tab ? tab.tMot : EMPTY;
+    this.tGen = tab ? tab.tGen : EMPTY;
+    this.tabId = tab ? tab.id : EMPTY;
+    this.tabIq = tab ? tab.iq : EMPTY;
+    if (this.modeN !== 2 && !tab) throw new RangeError(`${cfg.mode} control needs a reference table`);
+    this.speedRef = cfg.speedRef;
+    this.torqueRefS = cfg.torqueRef;
+    this.idRefS = cfg.idRef;
+    this.iqRefS = cfg.iqRef;
+    this.sched = cfg.gainScheduling === true && lin === null;
     this.clamping = cfg.antiWindup === 'clamping';
     this.decoup = cfg.decoupling;
     this.bemf = cfg.backEmfFeedForward;
-    this.advance = cfg.delayAngleCompensation ? (cfg.delaySamples + 0.5) * cfg.Ts : 0;
     this.circle = cfg.voltage.shape === 'circle';
-    this.radius = cfg.voltage.radius;
+    this.voltage = cfg.voltage;
   }
 
   /**
@@ -166,20 +157,22 @@ export class CascadeController {
    */
   reset(w0: number, theta0: number): void {
     const c = this.cfg;
-    const we = this.p * w0;
+    const P = this.prm;
+    const we = P[P_POLES]! * w0;
+    const psiM = P[P_PSIM]!;
     this.k = 0;
     this.speedCounter = 0;
     this.wRefRamp = w0;
     this.wRefFilt = w0;
     this.xd = 0;
-    this.xq = c.backEmfFeedForward ? 0 : we * this.psiM;
+    this.xq = c.backEmfFeedForward ? 0 : we * psiM;
     this.xw = c.initialTorque;
     this.torqueRef = c.mode === 'speed' ? c.initialTorque : 0;
     this.bufA.fill(0);
     this.bufB.fill(0);
     for (let j = 0; j < c.delaySamples; j++) {
       const th = theta0 + (j + 0.5) * we * c.Ts;
-      const vq = we * this.psiM;
+      const vq = we * psiM;
       if (this.lin) {
         this.bufA[j] = -vq * Math.sin(th);
         this.bufB[j] = vq * Math.cos(th);
@@ -205,43 +198,97 @@ export class CascadeController {
   /** `step` with the sample (cos and sin of the angle included) already written into `this.sample`. */
   stepSampled(out: Float64Array): void {
     const x = this.sample;
+    const P = this.prm;
     const t = x[0]!;
     const id = x[1]!;
     const iq = x[2]!;
     const w = x[3]!;
     const theta = x[4]!;
-    const c = this.cfg;
     const mode = this.modeN;
-    const we = this.p * w;
-    const tmp = this.tmp;
+    const we = P[P_POLES]! * w;
+
+    // ---- the reference table's speed row at |w| (speed and torque modes): the torque limits
+    // (motoring, generating magnitudes) and the row and fraction the current lookup uses
+    let neg = false;
+    let r = 0;
+    let f = 0;
+    let mot = 0;
+    let gen = 0;
+    if (mode !== 2) {
+      neg = w < 0;
+      const xMax = P[P_WMAX]!;
+      const nS = P[P_NS]!;
+      // grid position and cell as interpolation.ts computes them (Math.min keeps a NaN a NaN)
+      const xs = (Math.min(Math.abs(w), xMax) / xMax) * (nS - 1);
+      r = Math.min(Math.floor(xs), nS - 2);
+      f = xs - r;
+      const tm0 = this.tMot[r]!, tg0 = this.tGen[r]!;
+      mot = tm0 + f * (this.tMot[r + 1]! - tm0);
+      gen = tg0 + f * (this.tGen[r + 1]! - tg0);
+    }
+    // torque limits at w: motoring (>= 0) and generating (<= 0); at negative speed the roles swap
+    const tHi = neg ? gen : mot;
+    const tLo = neg ? -mot : -gen;
 
     // ---- references
     if (mode === 0) {
-      if (this.speedCounter === 0) this.speedLoop();
-      if (++this.speedCounter >= c.speedLoopDivider) this.speedCounter = 0;
+      if (this.speedCounter === 0) {
+        // the speed loop: ramp-limited, prefiltered reference, PI with the torque limits
+        const target = scheduleValueL(this.speedRef, t);
+        const dmax = P[P_RAMP]!;
+        const dr = target - this.wRefRamp;
+        this.wRefRamp += dr > dmax ? dmax : dr < -dmax ? -dmax : dr;
+        const filt = P[P_FILT]!;
+        if (filt >= 0) this.wRefFilt += filt * (this.wRefRamp - this.wRefFilt);
+        else this.wRefFilt = this.wRefRamp;
+        this.speedRefOut = this.wRefRamp;
+        const e = this.wRefFilt - w;
+        const Tu = P[P_KPW]! * e + this.xw;
+        const T = Tu > tHi ? tHi : Tu < tLo ? tLo : Tu;
+        this.torqueClamped = T !== Tu;
+        if (this.clamping) {
+          if (!(T !== Tu && e * (Tu - T) > 0)) this.xw += P[P_KIW]! * e;
+        } else {
+          this.xw += P[P_KIW]! * e + P[P_KBW]! * (T - Tu);
+        }
+        this.torqueRef = T;
+      }
+      if (++this.speedCounter >= P[P_DIVIDER]!) this.speedCounter = 0;
     } else if (mode === 1) {
       this.speedRefOut = w;
-      const T = scheduleValueL(c.torqueRef, t);
-      torqueLimitsAtL(c.table!, w, tmp);
-      const Tc = T > tmp[0]! ? tmp[0]! : T < tmp[1]! ? tmp[1]! : T;
+      const T = scheduleValueL(this.torqueRefS, t);
+      const Tc = T > tHi ? tHi : T < tLo ? tLo : T;
       this.torqueClamped = Tc !== T;
       this.torqueRef = Tc;
     } else {
       this.speedRefOut = w;
       this.torqueClamped = false;
     }
-    let idr: number;
-    let iqr: number;
+    let idr: number, iqr: number;
     if (mode === 2) {
-      idr = scheduleValueL(c.idRef, t);
-      iqr = scheduleValueL(c.iqRef, t);
+      idr = scheduleValueL(this.idRefS, t);
+      iqr = scheduleValueL(this.iqRefS, t);
     } else {
-      lookupCurrentsL(c.table!, w, this.torqueRef, tmp);
-      idr = tmp[0]!;
-      iqr = tmp[1]!;
+      // torque -> currents: bilinear in (speed, normalised torque u)
+      const T = this.torqueRef;
+      const Tp = neg ? -T : T;
+      let u: number;
+      if (Tp >= 0) u = mot > 0 ? Math.min(Tp / mot, 1) : 0;
+      else u = gen > 0 ? Math.max(Tp / gen, -1) : 0;
+      const nU = P[P_NU]!;
+      const y = ((u + 1) / 2) * (nU - 1);
+      const c = Math.min(Math.floor(y), nU - 2);
+      const g = y - c;
+      const i00 = r * nU + c;
+      const i10 = i00 + nU;
+      const A = this.tabId;
+      const B = this.tabIq;
+      idr = (1 - f) * (1 - g) * A[i00]! + f * (1 - g) * A[i10]! + (1 - f) * g * A[i00 + 1]! + f * g * A[i10 + 1]!;
+      const iqv = (1 - f) * (1 - g) * B[i00]! + f * (1 - g) * B[i10]! + (1 - f) * g * B[i00 + 1]! + f * g * B[i10 + 1]!;
+      iqr = neg ? -iqv : iqv;
     }
     // current reference limit, d axis first
-    const I = this.Imax;
+    const I = P[P_IMAX]!;
     let limited = this.torqueClamped;
     if (idr > I) { idr = I; limited = true; } else if (idr < -I) { idr = -I; limited = true; }
     const qm = Math.sqrt(Math.max(0, I * I - idr * idr));
@@ -258,25 +305,24 @@ export class CascadeController {
     let ffd: number;
     let ffq: number;
     if (this.lin) {
-      ffd = decoup ? -we * this.Lq * iq : 0;
-      ffq = (decoup ? we * this.Ld * id : 0) + (this.bemf ? we * this.psiM : 0);
+      ffd = decoup ? -we * P[P_LQ]! * iq : 0;
+      ffq = (decoup ? we * P[P_LD]! * id : 0) + (this.bemf ? we * P[P_PSIM]! : 0);
     } else {
       const ff = this.feedForwardFromFlux(id, iq, we);
       ffd = ff[0]!;
       ffq = ff[1]!;
     }
-    const ud = this.kpD * ed + this.xd + ffd;
-    const uq = this.kpQ * eq + this.xq + ffq;
-    const dth = this.advance * we;
+    const ud = P[P_KPD]! * ed + this.xd + ffd;
+    const uq = P[P_KPQ]! * eq + this.xq + ffq;
+    const dth = P[P_ADV]! * we;
     const thApply = theta + dth;
-    let vd: number;
-    let vq: number;
-    let sat: boolean;
-    const R = this.radius;
+    let vd: number, vq: number, sat: boolean;
+    const R = P[P_RADIUS]!;
     if (this.circle && ud * ud + uq * uq <= R * R) {
       vd = ud; vq = uq; sat = false;
     } else {
-      sat = limitVoltageDqL(c.voltage, ud, uq, thApply, tmp);
+      const tmp = this.tmp;
+      sat = limitVoltageDqL(this.voltage, ud, uq, thApply, tmp);
       vd = tmp[0]!;
       vq = tmp[1]!;
     }
@@ -284,17 +330,16 @@ export class CascadeController {
     this.vdCmd = vd;
     this.vqCmd = vq;
     if (this.clamping) {
-      if (!(sat && (vd !== ud) && ed * (ud - vd) > 0)) this.xd += this.kiTsD * ed;
-      if (!(sat && (vq !== uq) && eq * (uq - vq) > 0)) this.xq += this.kiTsQ * eq;
+      if (!(sat && (vd !== ud) && ed * (ud - vd) > 0)) this.xd += P[P_KITSD]! * ed;
+      if (!(sat && (vq !== uq) && eq * (uq - vq) > 0)) this.xq += P[P_KITSQ]! * eq;
     } else {
-      this.xd += this.kiTsD * ed + this.kbD * (vd - ud);
-      this.xq += this.kiTsQ * eq + this.kbQ * (vq - uq);
+      this.xd += P[P_KITSD]! * ed + P[P_KBD]! * (vd - ud);
+      this.xq += P[P_KITSQ]! * eq + P[P_KBQ]! * (vq - uq);
     }
 
     // ---- inverse Park at theta + dth: cos and sin from those of the sampled angle, rotated by dth
     // with a short series (truncation below 2e-14 for |dth| < 0.5), else computed directly
-    let cs: number;
-    let sn: number;
+    let cs: number, sn: number;
     if (dth > -0.5 && dth < 0.5) {
       const sd = sinSmallL(dth);
       const cd = cosSmallL(dth);
@@ -325,7 +370,7 @@ export class CascadeController {
   /**
    * The generic feed-forward (dq voltages, into the returned scratch): cross-coupling
    * we·J·(psi(i) - psi(0)) and back-EMF we·J·psi(0), J·psi = (-psi_q, psi_d). Apart from
-   * `stepSampled` so that the period step stays small enough for the engine to inline.
+   * `stepSampled` so that the linear model's step stays straight-line code.
    */
   private feedForwardFromFlux(id: number, iq: number, we: number): Float64Array {
     const psi = this.psi;
@@ -342,43 +387,13 @@ export class CascadeController {
   /** The proportional (and back-calculation) gains at the current reference (idr, iqr): see the header. */
   private scheduleGains(idr: number, iqr: number): void {
     const L = this.Linc;
+    const P = this.prm;
     this.model.incrementalInductance(idr, iqr, L);
-    const kpD = (this.kpD0 * L[0]!) / this.Ldd0;
-    const kpQ = (this.kpQ0 * L[3]!) / this.Lqq0;
-    this.kpD = kpD;
-    this.kpQ = kpQ;
-    this.kbD = kpD > 0 ? Math.min(1, this.kiTsD / kpD) : 0;
-    this.kbQ = kpQ > 0 ? Math.min(1, this.kiTsQ / kpQ) : 0;
-  }
-
-  private speedLoop(): void {
-    const t = this.sample[0]!;
-    const w = this.sample[3]!;
-    const c = this.cfg;
-    const Tsw = c.Ts * c.speedLoopDivider;
-    const target = scheduleValueL(c.speedRef, t);
-    // ramp limit
-    const dmax = c.speedRamp_rad_s2 * Tsw;
-    const dr = target - this.wRefRamp;
-    this.wRefRamp += dr > dmax ? dmax : dr < -dmax ? -dmax : dr;
-    // first-order prefilter, exact discretisation
-    if (c.speedRefPrefilter_s > 0) this.wRefFilt += (1 - Math.exp(-Tsw / c.speedRefPrefilter_s)) * (this.wRefRamp - this.wRefFilt);
-    else this.wRefFilt = this.wRefRamp;
-    this.speedRefOut = this.wRefRamp;
-    const e = this.wRefFilt - w;
-    const Tu = c.speed.Kp * e + this.xw;
-    const lim = this.tmp;
-    torqueLimitsAtL(c.table!, w, lim);
-    const Tmax = lim[0]!;
-    const Tmin = lim[1]!;
-    const T = Tu > Tmax ? Tmax : Tu < Tmin ? Tmin : Tu;
-    this.torqueClamped = T !== Tu;
-    if (c.antiWindup === 'clamping') {
-      if (!(T !== Tu && e * (Tu - T) > 0)) this.xw += Tsw * c.speed.Ki * e;
-    } else {
-      const kw = c.speed.Kp > 0 ? Math.min(1, (Tsw * c.speed.Ki) / c.speed.Kp) : 0;
-      this.xw += Tsw * c.speed.Ki * e + kw * (T - Tu);
-    }
-    this.torqueRef = T;
+    const kpD = (P[P_KPD0]! * L[0]!) / P[P_LDD0]!;
+    const kpQ = (P[P_KPQ0]! * L[3]!) / P[P_LQQ0]!;
+    P[P_KPD] = kpD;
+    P[P_KPQ] = kpQ;
+    P[P_KBD] = kpD > 0 ? Math.min(1, P[P_KITSD]! / kpD) : 0;
+    P[P_KBQ] = kpQ > 0 ? Math.min(1, P[P_KITSQ]! / kpQ) : 0;
   }
 }

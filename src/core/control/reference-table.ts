@@ -5,14 +5,20 @@
  *
  * Grid: mechanical speed 0..speedMax (uniform), and a normalised torque u in [-1, 1] (uniform),
  * where u = +1 is the largest motoring torque that both limits allow at that speed and u = -1 the
- * largest generating torque. The limits per speed row are found by bisection on the solver's
- * feasibility. Negative speeds use the machine's symmetry: the point at (-omega, -T) has the same
+ * largest generating torque. The limits per speed row are the envelope's largest torques under both
+ * limits (or, with a caller's solver, a bisection on its feasibility). With the standard solver and a
+ * constant-parameter machine the cells are built directly, without the solver's search over the
+ * current: the MTPA point of the torque when its voltage fits (the solver's own closed form, the same
+ * numbers), else the least-current point of that torque on the voltage boundary
+ * (ellipse-torque-point.ts); the table agrees with the solver's to 1e-9 of Imax (tested). Negative speeds use the machine's symmetry: the point at (-omega, -T) has the same
  * i_d and the opposite i_q as the point at (omega, T) (exact for the dq model, Rs included).
  * Lookup is bilinear in (speed, u) and allocates nothing.
  */
 import type { MachineInput, MachineModel } from '../machine/machine-model';
 import { machineModel } from '../machine/linear-dq';
-import { mtpaTorque } from '../steady-state/mtpa';
+import { mtpaCurrentForTorque, mtpaTorque } from '../steady-state/mtpa';
+import { point } from '../steady-state/point-of-current';
+import { EllipseTorquePoint } from './ellipse-torque-point';
 import { maxTorquePoint } from '../steady-state/envelope';
 import type { DriveLimits } from '../drive/inverter-spec';
 import type { OperatingPoint } from '../steady-state/operating-point-types';
@@ -63,13 +69,14 @@ function feasible(solve: OperatingPointSolver, m: MachineModel, lim: DriveLimits
 }
 
 /**
- * Largest |T| with sign `dir` at speed w. A model that is not linear, with the standard solver: the
- * envelope's largest torque under both limits at that speed (one search instead of a bisection over
- * full solves, each of which is a search of its own on the generic path). Otherwise a bisection on
- * the solver's feasibility (bounded).
+ * Largest |T| with sign `dir` at speed w. With the standard solver: the envelope's largest torque
+ * under both limits at that speed (one search instead of a bisection over full solves, each of which
+ * is a search of its own), 0 where the solver cannot hold zero torque (`zeroHeld` false, as the
+ * bisection finds). Otherwise a bisection on the solver's feasibility (bounded).
  */
-function torqueLimitAt(solve: OperatingPointSolver, m: MachineModel, hi0: number, lim: DriveLimits, w: number, dir: 1 | -1, iters: number): number {
-  if (m.linear === null && solve === solveOperatingPoint) {
+function torqueLimitAt(solve: OperatingPointSolver, m: MachineModel, hi0: number, lim: DriveLimits, w: number, dir: 1 | -1, iters: number, zeroHeld: boolean): number {
+  if (solve === solveOperatingPoint) {
+    if (!zeroHeld) return 0;
     const op = maxTorquePoint(m, lim, w, dir > 0 ? 'motoring' : 'generating');
     return op.feasible ? Math.max(0, dir * op.torque) : 0;
   }
@@ -117,10 +124,14 @@ export function buildReferenceTable(
   const tGen = new Float64Array(nS);
   const id = new Float64Array(nS * nU);
   const iq = new Float64Array(nS * nU);
+  const direct = solve === solveOperatingPoint && m.linear !== null ? new EllipseTorquePoint(m.linear, m.polePairs, m.Rs, lim.Vmax) : null;
+  const pt = new Float64Array(2);
   for (let r = 0; r < nS; r++) {
     const w = (o.speedMax_rad_s * r) / (nS - 1);
-    tMot[r] = torqueLimitAt(solve, m, hi0, lim, w, 1, o.limitIterations);
-    tGen[r] = torqueLimitAt(solve, m, hi0, lim, w, -1, o.limitIterations);
+    const zero = solve === solveOperatingPoint ? feasible(solve, m, lim, w, 0) : null;
+    tMot[r] = torqueLimitAt(solve, m, hi0, lim, w, 1, o.limitIterations, zero !== null);
+    tGen[r] = torqueLimitAt(solve, m, hi0, lim, w, -1, o.limitIterations, zero !== null);
+    const rowDirect = direct !== null && direct.setSpeed(m.polePairs * w);
     let lastId = 0;
     let lastIq = 0;
     for (let c = 0; c < nU; c++) {
@@ -128,16 +139,45 @@ export function buildReferenceTable(
       const T = u >= 0 ? u * tMot[r]! : u * tGen[r]!;
       // pull the end nodes a hair inside the limit so that bisection round-off never lands outside
       const Tq = Math.abs(u) === 1 ? T * (1 - 1e-9) : T;
-      const op = feasible(solve, m, lim, w, Tq);
-      if (op) {
-        lastId = op.id;
-        lastIq = op.iq;
+      let ok: boolean;
+      if (Tq === 0 && zero !== null) { ok = true; pt[0] = zero.id; pt[1] = zero.iq; }
+      else if (rowDirect && Tq !== 0) ok = directPoint(m, lim, direct, w, Tq, pt);
+      else {
+        const op = feasible(solve, m, lim, w, Tq);
+        ok = op !== null;
+        if (op) { pt[0] = op.id; pt[1] = op.iq; }
       }
-      id[r * nU + c] = op ? op.id : lastId;
-      iq[r * nU + c] = op ? op.iq : lastIq;
+      if (ok) {
+        lastId = pt[0]!;
+        lastIq = pt[1]!;
+      }
+      id[r * nU + c] = lastId;
+      iq[r * nU + c] = lastIq;
     }
   }
   return { speedMax: o.speedMax_rad_s, nS, nU, tMot, tGen, id, iq };
+}
+
+/**
+ * The standard solver's least-current point for a nonzero torque T at speed w on a constant-parameter
+ * machine, without its search over the current: MTPA when its voltage fits (the solver's closed form),
+ * else the least-current point of T on the voltage boundary; within Imax, or false (as the solver's
+ * infeasible point).
+ */
+function directPoint(m: MachineModel, lim: DriveLimits, e: EllipseTorquePoint, w: number, T: number, out: Float64Array): boolean {
+  const mt = mtpaCurrentForTorque(m, T);
+  const pm = point(m, w, mt.id, mt.iq, 'mtpa');
+  if (pm.voltage <= lim.Vmax) {
+    out[0] = pm.id;
+    out[1] = pm.iq;
+    return Number.isFinite(pm.id) && Number.isFinite(pm.iq) && pm.current <= lim.Imax;
+  }
+  if (!e.solve(T)) return false;
+  const id = e.out[0]!;
+  const iq = e.out[1]!;
+  out[0] = id;
+  out[1] = iq;
+  return Number.isFinite(id) && Number.isFinite(iq) && Math.hypot(id, iq) <= lim.Imax;
 }
 
 /** Torque limits (motoring >= 0, generating <= 0) at mechanical speed w, N·m; writes out[0], out[1]. */

@@ -26,9 +26,9 @@ export interface DuplicateKey {
   key: string;
 }
 
-/** A key as a path segment: plain names as they are, others quoted and, when long, shortened. */
+/** A key as a path segment: plain names (and dotted names, as a tolerance's parameter path) as they are, others quoted and, when long, shortened. */
 function segment(key: string): string {
-  if (/^[A-Za-z0-9_$-]{1,60}$/.test(key)) return key;
+  if (key.length <= 60 && /^[A-Za-z0-9_$-]+(\.[A-Za-z0-9_$-]+)*$/.test(key)) return key;
   const short = key.length > 60 ? `${key.slice(0, 40)}… (${key.length} characters)` : key;
   return JSON.stringify(short);
 }

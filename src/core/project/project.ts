@@ -125,8 +125,12 @@ export function loadProjectText(source: string): ResolvedProject {
   return loadProject(source).resolved;
 }
 
-/** A validated project file -> machine hot and cold, limits, findings. */
-export function resolveProject(file: ProjectFile): ResolvedProject {
+/**
+ * A validated project file -> machine hot and cold, limits, findings. `findings: false` leaves out
+ * the rated and odd-machine findings (each solves operating points), for a study that resolves many
+ * perturbed copies of one file and reads none of them.
+ */
+export function resolveProject(file: ProjectFile, opts: { findings?: boolean } = {}): ResolvedProject {
   // a minimal file may leave out the conditions (every temperature 20 °C) or the winding temperature
   const c = file.conditions ?? defaultConditions();
   const conditions: Conditions = {
@@ -205,8 +209,10 @@ export function resolveProject(file: ProjectFile): ResolvedProject {
     });
   }
 
-  findings.push(...ratedFindings(rated, hot, inverter, peak, file.motor ? 'motor' : 'nameplate'));
-  findings.push(...oddMachineFindings(file.motor ? 'motor' : 'nameplate', machine20, hot, mechanics, peak, file.requirements));
+  if (opts.findings !== false) {
+    findings.push(...ratedFindings(rated, hot, inverter, peak, file.motor ? 'motor' : 'nameplate'));
+    findings.push(...oddMachineFindings(file.motor ? 'motor' : 'nameplate', machine20, hot, mechanics, peak, file.requirements));
+  }
 
   const rp: ResolvedProject = {
     file,

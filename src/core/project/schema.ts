@@ -14,6 +14,7 @@ import { thermalCapProblem, thermalSchema } from './thermal-schema';
 import { dutyCycleCapProblem, dutyCycleSchema } from './duty-cycle-schema';
 import { pwmProblems, pwmSchema } from './pwm-schema';
 import { angleSchema } from './angle-schema';
+import { toleranceChoiceProblems, tolerancesSchema } from './tolerance-schema';
 import { CHOOSE_ONE, headerProblem, listCapProblem, problemsOf, type ProjectProblem } from './schema-problems';
 
 export { CAPPED_LISTS, KEYS, MAX_LIST_ENTRIES, MAX_PROJECT_BYTES, PROJECT_FORMAT, PROJECT_VERSION } from './schema-keys';
@@ -277,6 +278,7 @@ const projectObject = z.strictObject({
   losses: lossesSchema.optional(), // every loss zero when absent
   thermal: thermalSchema.optional(), // no thermal rating when absent
   dutyCycle: dutyCycleSchema.optional(),
+  tolerances: tolerancesSchema.optional(), // no tolerance study when absent
 });
 
 export const projectSchema = projectObject.superRefine((p, ctx) => {
@@ -290,6 +292,7 @@ export const projectSchema = projectObject.superRefine((p, ctx) => {
     for (const c of fluxMapCoverageProblems(map, Ipk, words)) ctx.addIssue({ code: 'custom', path: ['motor', 'fluxMap', c.key], message: c.message });
   }
   for (const c of pwmProblems(p.control, p.inverter.Vdc)) ctx.addIssue({ code: 'custom', path: c.path, message: c.message });
+  for (const t of toleranceChoiceProblems(p)) ctx.addIssue({ code: 'custom', path: ['tolerances', t.key], message: t.message });
   if (p.control?.mode === 'current-step' && p.scenario !== undefined && p.scenario.currentStep === undefined) {
     ctx.addIssue({ code: 'custom', path: ['scenario', 'currentStep'], message: 'is required by control.mode "current-step"' });
   }
@@ -313,6 +316,7 @@ export { DEFAULT_IRON_BETA } from './loss-schema';
 export type { ThermalSection } from './thermal-schema';
 export type { DutyCycleSection } from './duty-cycle-schema';
 export type { PwmSection } from './pwm-schema';
+export type { MonteCarloSettings, ToleranceBand, TolerancePath, TolerancesSection } from './tolerance-schema';
 export { MAX_DUTY_CYCLE_SAMPLES } from './duty-cycle-schema';
 
 // The nameplate section must be usable as a Nameplate as it is.

@@ -65,23 +65,28 @@ export function decimateMinMax(t: Float64Array, channels: readonly Float64Array[
  * bounded amount is kept: the number of samples `nExpected` is known up front, the buckets are
  * those of `decimateMinMax(t, channels, nExpected, maxPoints)` (identical output when exactly
  * `nExpected` samples are pushed), and only the samples of the bucket being filled are held
- * (nChannels x one bucket). When `nExpected` fits in `maxPoints`, every sample is kept as is.
+ * (one bucket of rows). When `nExpected` fits in `maxPoints`, every sample is kept as is.
  * A run that stops early (fewer pushes) returns the buckets filled so far, the last one partial.
- * `push` allocates nothing.
+ *
+ * The samples are held row-major (a sample's channels side by side), so a sample is written in one
+ * sequential run, by `push` or directly: `slot(t)` gives the offset of the sample's row in `buf`
+ * (or -1 when it is beyond nExpected), the caller writes buf[offset + c], and `commit()` ends it.
+ * The minimum and maximum of a bucket are found once, when it is full. Nothing is allocated per sample.
  */
 export class StreamingMinMax {
   readonly nChannels: number;
   /** samples pushed so far */
   count = 0;
+  /** the rows being held, row-major: buf[j * nChannels + c] (raw mode: the whole trace) */
+  readonly buf: Float64Array;
   private readonly raw: boolean;
   private readonly nExpected: number;
   private readonly buckets: number;
   private readonly size: number;
-  /** bucket buffer, channel-major: buf[c * stride + j] (raw mode: the whole trace) */
-  private readonly buf: Float64Array;
-  private readonly stride: number;
   private readonly tOut: Float64Array;
-  private readonly out: Float64Array[];
+  /** decimated output, channel-major: out[c * cap + i] */
+  private readonly out: Float64Array;
+  private readonly cap: number;
   private b = 0;
   private bStart = 0;
   private bEnd: number;
@@ -97,42 +102,50 @@ export class StreamingMinMax {
     if (this.raw) {
       this.buckets = 0;
       this.size = 1;
-      this.stride = n;
+      this.cap = n;
       this.buf = new Float64Array(nChannels * n);
       this.tOut = new Float64Array(n);
-      this.out = [];
+      this.out = new Float64Array(0);
       this.bEnd = n;
     } else {
       this.buckets = cap / 2;
       this.size = n / this.buckets;
-      this.stride = Math.ceil(this.size) + 1;
-      this.buf = new Float64Array(nChannels * this.stride);
+      this.cap = cap;
+      this.buf = new Float64Array(nChannels * (Math.ceil(this.size) + 1));
       this.tOut = new Float64Array(cap);
-      this.out = Array.from({ length: nChannels }, () => new Float64Array(cap));
+      this.out = new Float64Array(nChannels * cap);
       this.bEnd = this.buckets === 1 ? n : Math.min(n, Math.floor(this.size));
     }
   }
 
-  /** Append one sample: time t and row[c] for every channel c. Samples beyond nExpected are ignored. */
-  push(t: number, row: ArrayLike<number>): void {
-    const nc = this.nChannels;
-    const buf = this.buf;
-    const stride = this.stride;
+  /** Offset in `buf` of the row of a sample at time t, or -1 when the sample is beyond nExpected (ignored). Follow with `commit()`. */
+  slot(t: number): number {
     if (this.raw) {
       const j = this.count;
-      if (j >= stride) return;
+      if (j >= this.cap) return -1;
       this.tOut[j] = t;
-      for (let c = 0; c < nc; c++) buf[c * stride + j] = row[c]!;
-      this.count = j + 1;
-      return;
+      return j * this.nChannels;
     }
-    if (this.b >= this.buckets) return;
+    if (this.b >= this.buckets) return -1;
     const j = this.count - this.bStart;
     if (j === 0) this.bFirstT = t;
     this.bLastT = t;
-    for (let c = 0; c < nc; c++) buf[c * stride + j] = row[c]!;
+    return j * this.nChannels;
+  }
+
+  /** End the sample whose row was written at `slot`'s offset. */
+  commit(): void {
     this.count++;
-    if (this.count >= this.bEnd) this.flush();
+    if (!this.raw && this.count >= this.bEnd) this.flush();
+  }
+
+  /** Append one sample: time t and row[c] for every channel c. Samples beyond nExpected are ignored. */
+  push(t: number, row: ArrayLike<number>): void {
+    const o = this.slot(t);
+    if (o < 0) return;
+    const buf = this.buf;
+    for (let c = 0; c < this.nChannels; c++) buf[o + c] = row[c]!;
+    this.commit();
   }
 
   private flush(): void {
@@ -140,22 +153,23 @@ export class StreamingMinMax {
     if (len <= 0) return;
     const b = this.b;
     const buf = this.buf;
-    const stride = this.stride;
+    const nc = this.nChannels;
+    const cap = this.cap;
+    const out = this.out;
     this.tOut[2 * b] = this.bFirstT;
     this.tOut[2 * b + 1] = this.bLastT;
-    for (let c = 0; c < this.nChannels; c++) {
-      const base = c * stride;
+    for (let c = 0; c < nc; c++) {
       let iMin = 0;
       let iMax = 0;
-      let vMin = buf[base]!;
+      let vMin = buf[c]!;
       let vMax = vMin;
-      for (let i = 1; i < len; i++) {
-        const v = buf[base + i]!;
+      for (let i = 1, o = nc + c; i < len; i++, o += nc) {
+        const v = buf[o]!;
         if (v < vMin) { vMin = v; iMin = i; }
         if (v > vMax) { vMax = v; iMax = i; }
       }
-      const o = this.out[c]!;
-      if (iMin <= iMax) { o[2 * b] = vMin; o[2 * b + 1] = vMax; } else { o[2 * b] = vMax; o[2 * b + 1] = vMin; }
+      const at = c * cap + 2 * b;
+      if (iMin <= iMax) { out[at] = vMin; out[at + 1] = vMax; } else { out[at] = vMax; out[at + 1] = vMin; }
     }
     this.b = b + 1;
     this.bStart = this.count;
@@ -164,14 +178,21 @@ export class StreamingMinMax {
 
   /** The decimated traces of the samples pushed so far (call once, at the end). */
   finish(): Decimated {
+    const nc = this.nChannels;
+    const channels: Float64Array[] = [];
     if (this.raw) {
       const n = this.count;
-      const channels: Float64Array[] = [];
-      for (let c = 0; c < this.nChannels; c++) channels.push(this.buf.slice(c * this.stride, c * this.stride + n));
+      const buf = this.buf;
+      for (let c = 0; c < nc; c++) {
+        const a = new Float64Array(n);
+        for (let j = 0, o = c; j < n; j++, o += nc) a[j] = buf[o]!;
+        channels.push(a);
+      }
       return { t: this.tOut.slice(0, n), channels };
     }
     if (this.b < this.buckets) this.flush();
     const m = 2 * this.b;
-    return { t: this.tOut.slice(0, m), channels: this.out.map((o) => o.slice(0, m)) };
+    for (let c = 0; c < nc; c++) channels.push(this.out.slice(c * this.cap, c * this.cap + m));
+    return { t: this.tOut.slice(0, m), channels };
   }
 }

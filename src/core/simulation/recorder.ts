@@ -65,13 +65,19 @@ export class TraceRecorder {
   /** the largest number of samples: periods + 1 */
   readonly cap: number;
   private readonly dec: StreamingMinMax;
-  private readonly row: Float64Array;
+  /** the decimator's row buffer: each sample's channels are written into it directly */
+  private readonly buf: Float64Array;
   private readonly msmp = new Float64Array(3);
   private readonly rot = new Float64Array(2);
   private readonly stepTrk: StepResponseTracker | null;
   /** one tracker per load event; their windows [t, next event) do not overlap, so only the current one is fed */
   private readonly loadTrks: LoadStepTracker[];
   private loadAt = 0;
+  /** the load schedule's breakpoints and the segment of the last sample (samples come in time order) */
+  private readonly loadT: Float64Array;
+  private readonly loadV: Float64Array;
+  private readonly loadK: number;
+  private loadSeg = 0;
   private readonly sseTrk: SteadyStateTracker | null;
   private readonly Ts: number;
   private readonly p: number;
@@ -79,13 +85,19 @@ export class TraceRecorder {
   private readonly dLdq: number;
   private readonly linear: boolean;
   private readonly locked: boolean;
+  /** the modulation limit is a circle of radius vRadius (else the hexagon: voltageLimitAt) */
+  private readonly circle: boolean;
+  private readonly vRadius: number;
 
   constructor(private readonly setup: AnySetup, private readonly model: MachineModel, private readonly plant: Plant, private readonly ctrl: CascadeController, periods: number, maxPoints: number) {
     this.cap = periods + 1;
     this.Ts = setup.controller.Ts;
     const nch = TRACE_NAMES.length - 1;
     this.dec = new StreamingMinMax(nch, this.cap, maxPoints);
-    this.row = new Float64Array(nch);
+    this.buf = this.dec.buf;
+    const vspec = setup.controller.voltage;
+    this.circle = vspec.shape === 'circle';
+    this.vRadius = vspec.radius;
     const marks = setup.marks;
     const allEvents = [...marks.speedSteps.map((s) => s.t), ...marks.loadEvents].sort((a, b) => a - b);
     const nextAfter = (t: number): number => {
@@ -106,6 +118,9 @@ export class TraceRecorder {
     this.psiM = lin ? lin.psiM : 0;
     this.dLdq = lin ? lin.Ld - lin.Lq : 0;
     this.locked = setup.plant.mechanics !== 'free';
+    this.loadT = setup.plant.load.times;
+    this.loadV = setup.plant.load.levels;
+    this.loadK = setup.plant.load.quadraticK;
   }
 
   /**
@@ -114,21 +129,15 @@ export class TraceRecorder {
    */
   record(idx: number, y: Float64Array): void {
     const t = idx * this.Ts;
-    const { row, plant, ctrl, p } = this;
+    const plant = this.plant;
+    const ctrl = this.ctrl;
+    const p = this.p;
     const id = y[I_D]!, iq = y[I_Q]!, w = y[OMEGA]!, th = y[THETA]!;
     const c = plant.c0, s = plant.s0;
     const ia = id * c - iq * s;
     const ib = id * s + iq * c;
     const wr = ctrl.speedRefOut * W_TO_RPM;
     const wRpm = w * W_TO_RPM;
-    row[SPEED_REF] = wr;
-    row[SPEED] = wRpm;
-    row[TORQUE] = this.linear ? 1.5 * p * (this.psiM * iq + this.dLdq * id * iq) : this.model.torque(id, iq);
-    row[LOAD] = this.locked ? 0 : plant.loadTorque(t, w);
-    row[ID_REF] = ctrl.idRef;
-    row[IQ_REF] = ctrl.iqRef;
-    row[ID] = id;
-    row[IQ] = iq;
     // applied voltage in dq at the mid-period angle
     const dm = 0.5 * p * w * this.Ts;
     const r = this.rot;
@@ -136,14 +145,25 @@ export class TraceRecorder {
     const cm = r[0]!, sm = r[1]!;
     const vab = plant.input;
     const va = vab[0]!, vb = vab[1]!;
-    row[VD] = va * cm + vb * sm;
-    row[VQ] = -va * sm + vb * cm;
     const vlen = Math.sqrt(va * va + vb * vb);
-    const vspec = this.setup.controller.voltage;
-    row[VNORM] = vlen / (vspec.shape === 'circle' ? vspec.radius : voltageLimitAt(vspec, Math.atan2(vb, va)));
-    clarkeInvL(ia, ib, 0, row, IA);
-    row[PDC] = 1.5 * (va * ia + vb * ib);
-    this.dec.push(t, row);
+    const o = this.dec.slot(t);
+    if (o >= 0) {
+      const row = this.buf;
+      row[o + SPEED_REF] = wr;
+      row[o + SPEED] = wRpm;
+      row[o + TORQUE] = this.linear ? 1.5 * p * (this.psiM * iq + this.dLdq * id * iq) : this.model.torque(id, iq);
+      row[o + LOAD] = this.locked ? 0 : this.loadTorque(t, w);
+      row[o + ID_REF] = ctrl.idRef;
+      row[o + IQ_REF] = ctrl.iqRef;
+      row[o + ID] = id;
+      row[o + IQ] = iq;
+      row[o + VD] = va * cm + vb * sm;
+      row[o + VQ] = -va * sm + vb * cm;
+      row[o + VNORM] = vlen / (this.circle ? this.vRadius : voltageLimitAt(this.setup.controller.voltage, Math.atan2(vb, va)));
+      clarkeInvL(ia, ib, 0, row, o + IA);
+      row[o + PDC] = 1.5 * (va * ia + vb * ib);
+      this.dec.commit();
+    }
     const m = this.msmp;
     m[0] = t; m[1] = wr; m[2] = wRpm;
     if (this.stepTrk) this.stepTrk.take(m);
@@ -154,6 +174,29 @@ export class TraceRecorder {
     const last = this.last;
     last[0] = t; last[1] = wRpm; last[2] = id; last[3] = iq;
     this.count++;
+  }
+
+  /**
+   * The plant's load torque at (t, w) (plant.loadTorque, the same arithmetic as loadLevel), its
+   * segment found by walking on from the last sample's instead of a search.
+   */
+  private loadTorque(t: number, w: number): number {
+    const T = this.loadT;
+    const V = this.loadV;
+    const n = T.length;
+    let level: number;
+    if (n === 1 || t >= T[n - 1]!) level = V[n - 1]!;
+    else {
+      // lo: the last breakpoint at or before t (0 before the first), below n - 1, as the bisection finds it
+      let lo = this.loadSeg;
+      if (!(T[lo]! <= t)) lo = 0;
+      while (lo + 1 < n - 1 && T[lo + 1]! <= t) lo++;
+      this.loadSeg = lo;
+      const t0 = T[lo]!;
+      const t1 = T[lo + 1]!;
+      level = t1 <= t0 ? V[lo + 1]! : V[lo]! + ((t - t0) / (t1 - t0)) * (V[lo + 1]! - V[lo]!);
+    }
+    return level + this.loadK * w * Math.abs(w);
   }
 
   /** The speed metrics (speed mode, more than two samples; else all null) at the last sample time tLast. */
@@ -182,11 +225,11 @@ export class TraceRecorder {
   traces(): Traces {
     const decd = this.dec.finish();
     const traces = { t_s: decd.t } as Traces;
-    TRACE_NAMES.slice(1).forEach((n, i) => {
-      const a = decd.channels[i]!;
+    for (let i = 1; i < TRACE_NAMES.length; i++) {
+      const a = decd.channels[i - 1]!;
       for (let j = 0; j < a.length; j++) if (!Number.isFinite(a[j]!)) a[j] = 0;
-      traces[n] = a;
-    });
+      traces[TRACE_NAMES[i]!] = a;
+    }
     return traces;
   }
 }

@@ -29,7 +29,12 @@ export interface SimulationStats {
   rhsEvaluations: number;
   /** median derivative evaluations per control period */
   evaluationsPerPeriod: number;
+  /** wall time of the whole call, s: setup_s + run_s */
   wall_s: number;
+  /** of it, the run's set-up before the first period (plant, controller, integrator, recorder), s */
+  setup_s: number;
+  /** of it, the control periods and the result (traces, metrics), s */
+  run_s: number;
 }
 
 /** One load event's disturbance response (speed mode): dip and recovery, or null when the loop had not settled at it. */

@@ -25,6 +25,12 @@ export interface SolverOptions {
   speedFloor: number;
   /** absolute error floor of the electrical angle, rad */
   angleFloor: number;
+  /**
+   * with 'cash-karp' and a constant-parameter machine: each control period by the exact
+   * discretisation of the electrical dynamics where it applies (exact-stepper.ts), Cash-Karp
+   * elsewhere (default false: Cash-Karp throughout, the results of before)
+   */
+  exactPeriods?: boolean;
 }
 
 export const DEFAULT_SOLVER_OPTIONS: Readonly<SolverOptions> = {

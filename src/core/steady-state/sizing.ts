@@ -106,11 +106,17 @@ function bindingWords(by: LimitedBy, duty: Duty, I: number, binds: LimitSource, 
   }
 }
 
+/** What sizeDrive computes besides the verdicts: `bounds` false skips the least Imax and least bus (both then null), for a study that needs only the verdicts and headrooms. */
+export interface SizingOptions {
+  bounds?: boolean;
+}
+
 /**
  * Verdict per requirement, least Imax for the bus, least bus for Imax. `limits` are the effective
  * current limits (the weaker of motor and inverter); without them, the inverter's Imax and Icont.
  */
-export function sizeDrive(input: MachineInput, inverter: InverterSpec, requirements: Requirement[], limits?: CurrentLimits): SizingResult {
+export function sizeDrive(input: MachineInput, inverter: InverterSpec, requirements: Requirement[], limits?: CurrentLimits, opts: SizingOptions = {}): SizingResult {
+  const bounds = opts.bounds !== false;
   assertMachine(input);
   const m = machineModel(input);
   assertRequirements(requirements);
@@ -132,17 +138,21 @@ export function sizeDrive(input: MachineInput, inverter: InverterSpec, requireme
     const op = solveOperatingPoint(m, L, w, T);
     const dir = T === 0 || directionSign(w, 'motoring') === Math.sign(T) ? 'motoring' : 'generating';
     const avail = maxTorquePoint(m, L, w, dir);
-    const u = solveOperatingPointUnlimitedCurrent(m, lim.Vmax, w, T);
-    if (!u.feasible) minImax = null;
-    else if (minImax !== null) minImax = Math.max(minImax, u.current);
-    if (duty === 'continuous') {
-      anyContinuous = true;
-      if (!u.feasible) minIcont = null;
-      else if (minIcont !== null) minIcont = Math.max(minIcont, u.current);
+    if (duty === 'continuous') anyContinuous = true;
+    if (bounds) {
+      const u = solveOperatingPointUnlimitedCurrent(m, lim.Vmax, w, T);
+      if (!u.feasible) minImax = null;
+      else if (minImax !== null) minImax = Math.max(minImax, u.current);
+      if (duty === 'continuous') {
+        if (!u.feasible) minIcont = null;
+        else if (minIcont !== null) minIcont = Math.max(minIcont, u.current);
+      }
+      const v = leastVoltageLimit(m, eff.A, w, T);
+      if (v === null) minVmax = null;
+      else if (minVmax !== null) minVmax = Math.max(minVmax, v);
+    } else {
+      minImax = minIcont = minVmax = null;
     }
-    const v = leastVoltageLimit(m, eff.A, w, T);
-    if (v === null) minVmax = null;
-    else if (minVmax !== null) minVmax = Math.max(minVmax, v);
     let currentHeadroom_A: number | null = null;
     let voltageHeadroom_V: number | null = null;
     let torqueShortfall_Nm: number | null = null;
