@@ -7,6 +7,7 @@ import { demoJson, messageOf } from './helpers';
 import { loadProjectText } from '../src/core/project/project';
 import { simulationFromProject } from '../src/core/project/simulation-from-project';
 import { runSimulation, TRACE_NAMES, traceNamesOf } from '../src/core/simulation/simulate';
+import { simulationCsv, simulationJson } from '../src/cli/commands/simulate';
 
 function servo(angle?: unknown) {
   const o = demoJson('demo-servo-axis');
@@ -56,5 +57,16 @@ describe('angle source in the simulation', () => {
   });
   it('sensorless is refused until its observer is in', () => {
     expect(messageOf(() => runSimulation(servo({ source: 'sensorless', handoverSpeed_rpm: 100 })))).toMatch(/^control\.angle\.source "sensorless" cannot be simulated yet/);
+  });
+  it('the command line: angle columns and metrics only when the source is not ideal', () => {
+    const o = { maxPoints: 50 };
+    const ideal = runSimulation(servo(), o);
+    const enc = runSimulation(servo({ source: 'encoder', linesPerRev: 1024, speedWindowPeriods: 8 }), o);
+    expect(simulationCsv(ideal).split('\n')[0]).not.toMatch(/theta_error_rad/);
+    expect(simulationCsv(enc).split('\n')[0]).toMatch(/,"theta_error_rad","speed_estimate_rpm"\r?$/);
+    expect(Object.keys(simulationJson(ideal).metrics)).not.toContain('angleErrorRms_rad');
+    const j = simulationJson(enc);
+    expect(j.metrics.angleErrorPeak_rad).toBe(enc.metrics.angleErrorPeak_rad);
+    expect(j.traces.thetaError_rad!.length).toBe(j.traces.t_s!.length);
   });
 });
