@@ -2,7 +2,7 @@ import type { Command } from '../command';
 import { csvDocument, type CsvCell } from '../../core/reports/csv';
 import { numberFlag } from '../args';
 import { table, fmt, orDash } from '../table';
-import { runSimulation, simulationFindings, TRACE_NAMES } from '../../core/simulation/simulate';
+import { runSimulation, simulationFindings, traceNamesOf } from '../../core/simulation/simulate';
 import { simulationFromProject } from '../../core/project/simulation-from-project';
 import type { CurrentLimits } from '../../core/drive/current-limit-types';
 import type { Finding } from '../../core/base/finding';
@@ -23,8 +23,10 @@ const JSON_METRICS = [
 export function simulationJson(r: SimulationResult, findings: Finding[] = [], projectSetup_s?: number) {
   const metrics: Record<string, number | null> = {};
   for (const k of JSON_METRICS) metrics[k] = r.metrics[k];
+  // the angle error's, only when the angle source is not ideal
+  for (const k of ['angleErrorRms_rad', 'angleErrorPeak_rad'] as const) if (r.metrics[k] !== undefined) metrics[k] = r.metrics[k];
   const traces: Record<string, number[]> = {};
-  for (const k of TRACE_NAMES) traces[k] = Array.from(r.traces[k]);
+  for (const k of traceNamesOf(r.traces)) traces[k] = Array.from(r.traces[k]!);
   return {
     metrics,
     loadSteps: r.loadSteps.map((l) => ({ ...l })),
@@ -45,12 +47,14 @@ const CSV_HEADER: Record<string, string> = {
   t_s: 't_s', speedRef_rpm: 'speed_ref_rpm', speed_rpm: 'speed_rpm', torque_Nm: 'torque_Nm', loadTorque_Nm: 'load_torque_Nm',
   idRef_A: 'id_ref_A_peak', iqRef_A: 'iq_ref_A_peak', id_A: 'id_A_peak', iq_A: 'iq_A_peak', vd_V: 'vd_V_peak', vq_V: 'vq_V_peak',
   vNorm: 'v_over_vmax', ia_A: 'ia_A', ib_A: 'ib_A', ic_A: 'ic_A', pDc_W: 'p_dc_W',
+  thetaError_rad: 'theta_error_rad', speedEstimate_rpm: 'speed_estimate_rpm',
 };
 
 export function simulationCsv(r: SimulationResult): string {
-  const rows: CsvCell[][] = [TRACE_NAMES.map((n) => CSV_HEADER[n]!)];
+  const names = traceNamesOf(r.traces);
+  const rows: CsvCell[][] = [names.map((n) => CSV_HEADER[n]!)];
   const n = r.traces.t_s.length;
-  for (let i = 0; i < n; i++) rows.push(TRACE_NAMES.map((c) => r.traces[c][i]!));
+  for (let i = 0; i < n; i++) rows.push(names.map((c) => r.traces[c]![i]!));
   return csvDocument(rows);
 }
 
@@ -88,6 +92,9 @@ export function simulationReport(p: ResolvedProject, setup: SimulationSetup, r: 
     ['rms phase current', m.rmsCurrent_A === null ? '-' : `${fmt(m.rmsCurrent_A)} (${fmt(m.rmsCurrent_A * Math.SQRT2)} peak)`, 'A rms'],
     ['time in voltage saturation', orDash(m.voltageSaturation_s === null ? null : m.voltageSaturation_s * 1e3), 'ms'],
     ['energy from the DC link', orDash(m.energyFromBus_J), 'J'],
+    // the angle the controller saw: only when the angle source is not ideal
+    ...(m.angleErrorRms_rad !== undefined ? [['angle error rms (electrical)', orDash(m.angleErrorRms_rad ?? null), 'rad'] as [string, string, string]] : []),
+    ...(m.angleErrorPeak_rad !== undefined ? [['angle error peak (electrical)', orDash(m.angleErrorPeak_rad ?? null), 'rad'] as [string, string, string]] : []),
   ];
   const lines = [
     `${p.name}: ${c.mode} control at ${fmt(1 / c.Ts)} Hz, delay ${c.delaySamples} period(s), anti-windup ${c.antiWindup}, ` +

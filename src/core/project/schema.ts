@@ -13,6 +13,7 @@ import { lossesSchema } from './loss-schema';
 import { thermalCapProblem, thermalSchema } from './thermal-schema';
 import { dutyCycleCapProblem, dutyCycleSchema } from './duty-cycle-schema';
 import { pwmProblems, pwmSchema } from './pwm-schema';
+import { angleSchema } from './angle-schema';
 import { tolerancesSchema } from './tolerance-schema';
 import { CHOOSE_ONE, headerProblem, listCapProblem, problemsOf, type ProjectProblem } from './schema-problems';
 
@@ -201,6 +202,7 @@ const controlSchema = z
     speedRamp_rpm_per_s: num('control.speedRamp_rpm_per_s', 0, 1e8, { gtMin: true }).optional(),
     speedLoopDivider: num('control.speedLoopDivider', 1, 1000, { int: true }).default(1),
     pwm: pwmSchema.optional(), // the averaged inverter when absent
+    angle: angleSchema.optional(), // the true angle and speed ("ideal") when absent
   })
   .superRefine((c, ctx) => {
     const bad = (path: string, message: string): void => ctx.addIssue({ code: 'custom', path: [path], message });

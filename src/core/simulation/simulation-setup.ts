@@ -9,6 +9,7 @@ import type { MachineInput } from '../machine/machine-model';
 import type { ControllerConfig } from '../control/controller';
 import type { TuningReport } from '../control/tuning';
 import type { PwmSpec } from '../drive/pwm-spec';
+import type { AngleSpec } from '../control/angle-spec';
 import { DEFAULT_MAX_POINTS } from './decimate';
 
 export interface SolverOptions {
@@ -79,6 +80,8 @@ export interface SimulationSetup<M extends MachineInput = DqMachine> {
   findings?: Finding[];
   /** the inverter's modulation; absent or model 'average' = the averaged inverter (see switching-stepper.ts) */
   pwm?: PwmSpec;
+  /** where the controller's angle and speed come from; absent or source 'ideal' = the true values */
+  angle?: AngleSpec;
 }
 
 export interface RunOptions {
