@@ -13,6 +13,7 @@ import { lossesSchema } from './loss-schema';
 import { thermalCapProblem, thermalSchema } from './thermal-schema';
 import { dutyCycleCapProblem, dutyCycleSchema } from './duty-cycle-schema';
 import { pwmProblems, pwmSchema } from './pwm-schema';
+import { variantsSchema } from './variant-schema';
 import { CHOOSE_ONE, headerProblem, listCapProblem, problemsOf, type ProjectProblem } from './schema-problems';
 
 export { CAPPED_LISTS, KEYS, MAX_LIST_ENTRIES, MAX_PROJECT_BYTES, PROJECT_FORMAT, PROJECT_VERSION } from './schema-keys';
@@ -275,6 +276,7 @@ const projectObject = z.strictObject({
   losses: lossesSchema.optional(), // every loss zero when absent
   thermal: thermalSchema.optional(), // no thermal rating when absent
   dutyCycle: dutyCycleSchema.optional(),
+  variants: variantsSchema.optional(), // no variants when absent
 });
 
 export const projectSchema = projectObject.superRefine((p, ctx) => {
@@ -311,6 +313,7 @@ export { DEFAULT_IRON_BETA } from './loss-schema';
 export type { ThermalSection } from './thermal-schema';
 export type { DutyCycleSection } from './duty-cycle-schema';
 export type { PwmSection } from './pwm-schema';
+export type { VariantsSection } from './variant-schema';
 export { MAX_DUTY_CYCLE_SAMPLES } from './duty-cycle-schema';
 
 // The nameplate section must be usable as a Nameplate as it is.

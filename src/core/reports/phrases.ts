@@ -155,6 +155,7 @@ const FIELD: Record<string, string> = {
   'dutyCycle.t_s': 'duty cycle times',
   'dutyCycle.speed_rpm': 'duty cycle speeds',
   'dutyCycle.torque_Nm': 'duty cycle torques',
+  'variants': 'design variants',
   'requirements': 'requirement points',
   'version': 'file format version',
   'file': 'project file',
