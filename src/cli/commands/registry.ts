@@ -13,6 +13,7 @@ import { continuousCommand } from './continuous';
 import { overloadCommand } from './overload';
 import { dutyCycleCommand } from './duty-cycle';
 import { currentTableCommand } from './current-table';
+import { compareCommand } from './compare';
 
 /** Every command of the CLI, in the order `help` lists them. Add a command by importing it here. */
 export const COMMANDS: Command[] = [
@@ -24,6 +25,7 @@ export const COMMANDS: Command[] = [
   overloadCommand,
   dutyCycleCommand,
   sizeCommand,
+  compareCommand,
   simulateCommand,
   tuneCommand,
   currentTableCommand,

@@ -105,9 +105,10 @@ export function comparisonTable(steady: readonly VariantSteady[], loads: readonl
   }
   if (steady.some((v) => v.efficiency !== null)) {
     for (const key of keys) {
-      num('efficiency', `${key}: system (motor and inverter)`, '%', (v, i) => {
+      row('efficiency', `${key}: system (motor and inverter)`, '%', (v, i) => {
         const e = v.efficiency === null ? undefined : at(i, key, v.efficiency);
-        return e?.system == null ? null : 100 * e.system;
+        // out of reach: the shaft torque (the electromagnetic torque less the losses it must also make) is beyond the limits
+        return e !== undefined && !e.feasible ? 'out of reach' : cell(e?.system == null ? null : 100 * e.system);
       });
       num('efficiency', `${key}: losses`, 'W', (v, i) => (v.efficiency === null ? null : at(i, key, v.efficiency)?.losses_W ?? null));
     }
