@@ -25,7 +25,7 @@ const refusal = (f: () => unknown): InputError => {
 describe('applyOverrides', () => {
   it('sets each path, copies only what it changes, and leaves the file as it was (common practice (no source))', () => {
     const f = base();
-    const v = applyOverrides(f, { 'motor.psiM': 0.02, 'requirements[1].torque_Nm': 3, 'inverter.deviceDrop': 0.5 }, 'variants[0].overrides');
+    const v: Record<string, any> = applyOverrides(f, { 'motor.psiM': 0.02, 'requirements[1].torque_Nm': 3, 'inverter.deviceDrop': 0.5 }, 'variants[0].overrides');
     expect(v.motor.psiM).toBe(0.02);
     expect(v.requirements[1].torque_Nm).toBe(3);
     expect(v.inverter.deviceDrop).toBe(0.5);
