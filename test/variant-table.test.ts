@@ -51,3 +51,20 @@ describe('comparison table', () => {
     expect(verdictCell(undefined)).toBe(DASH);
   });
 });
+
+describe('sizing and speed cells in words where there is no number', () => {
+  it('a point beyond reach at any current reads "none"; an envelope with torque at every speed reads "unbounded"', () => {
+    const f = JSON.parse(spmText);
+    // far beyond what 48 V can drive: no current meets it (invented)
+    f.requirements = [{ label: 'impossible', speed_rpm: 60000, torque_Nm: 12 }];
+    const p = loadProjectJson(f).resolved;
+    const s = variantSteady({ name: 'A', project: p }, comparisonSpeedMax([{ name: 'A', project: p }]), 20);
+    const t = comparisonTable([s]);
+    const rowOf = (label: string) => t.rows.find((r) => r.label === label)!.cells[0];
+    expect(s.sizing.hot.minImax).toBeNull();
+    expect(rowOf('least Imax hot')).toBe('none');
+    // characteristic current psiM/Ld inside the current limit: torque at every speed (Soong and Miller 1994, Field-weakening performance of brushless synchronous AC motor drives)
+    expect(s.constantsHot.characteristicCurrent_A).toBeLessThan(p.peak.Imax);
+    expect(rowOf('maximum speed hot')).toBe('unbounded');
+  });
+});

@@ -86,13 +86,16 @@ export function comparisonTable(steady: readonly VariantSteady[], loads: readonl
   num('envelope', 'peak torque hot', 'N·m', (v) => v.envelopes.hot.torque[0] ?? null);
   num('envelope', 'peak torque cold', 'N·m', (v) => v.envelopes.cold.torque[0] ?? null);
   num('envelope', 'base speed hot', 'rpm', (v) => rpm(v.envelopes.hot.baseSpeed));
-  num('envelope', 'maximum speed hot', 'rpm', (v) => rpm(v.envelopes.hot.maxSpeed));
+  // unbounded: psiM/Ld inside the current limit, torque at every speed
+  row('envelope', 'maximum speed hot', 'rpm', (v) => (v.envelopes.hot.maxSpeed === null ? 'unbounded' : cell(rpm(v.envelopes.hot.maxSpeed))));
   num('envelope', 'maximum power hot', 'kW', (v) => maxOf(v.envelopes.hot.power) / 1e3);
 
-  num('sizing', 'least Imax hot', 'A pk', (v) => v.sizing.hot.minImax);
-  num('sizing', 'least Imax cold', 'A pk', (v) => v.sizing.cold.minImax);
-  num('sizing', 'least Vdc hot', 'V', (v) => v.sizing.hot.minVdc);
-  num('sizing', 'least Vdc cold', 'V', (v) => v.sizing.cold.minVdc);
+  // none: a point cannot be met at any current (beyond MTPV) or at any bus within the current limit
+  const least = (x: number | null) => (x === null ? 'none' : cell(x));
+  row('sizing', 'least Imax hot', 'A pk', (v) => least(v.sizing.hot.minImax));
+  row('sizing', 'least Imax cold', 'A pk', (v) => least(v.sizing.cold.minImax));
+  row('sizing', 'least Vdc hot', 'V', (v) => least(v.sizing.hot.minVdc));
+  row('sizing', 'least Vdc cold', 'V', (v) => least(v.sizing.cold.minVdc));
 
   const { keys, perVariant } = requirementKeys(steady.map((v) => v.sizing.hot.points.map((q) => q.label)));
   const at = <T>(i: number, key: string, xs: readonly T[]): T | undefined => {
