@@ -256,6 +256,11 @@ export const KEYS: Readonly<Record<string, { unit: string; doc: string }>> = {
   'dutyCycle.t_s': { unit: 's', doc: 'time of each sample, s: the first 0, strictly ascending' },
   'dutyCycle.speed_rpm': { unit: 'rpm', doc: 'mechanical speed at each sample, rpm; negative = reverse' },
   'dutyCycle.torque_Nm': { unit: 'N·m', doc: 'shaft torque at each sample, N·m; negative = braking when the speed is positive' },
+
+  variants: { unit: '', doc: 'named design variants of this file, compared side by side [{name, overrides}]; at most 20' },
+  'variants[]': { unit: '', doc: '{name, overrides}: the file with the given parameters overridden' },
+  'variants[].name': { unit: '', doc: 'name of the variant, one per variant' },
+  'variants[].overrides': { unit: '', doc: 'parameter path -> value, e.g. {"motor.psiM": 0.09, "inverter.Vdc": 400, "requirements[1].torque_Nm": 120}; each path a key of this file format' },
 };
 
 /** A key's documentation as the schema describes it: "meaning [unit]", or the meaning alone. */

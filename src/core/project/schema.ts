@@ -15,6 +15,7 @@ import { dutyCycleCapProblem, dutyCycleSchema } from './duty-cycle-schema';
 import { pwmProblems, pwmSchema } from './pwm-schema';
 import { angleSchema } from './angle-schema';
 import { tolerancesSchema } from './tolerance-schema';
+import { variantsSchema } from './variant-schema';
 import { CHOOSE_ONE, headerProblem, listCapProblem, problemsOf, type ProjectProblem } from './schema-problems';
 
 export { CAPPED_LISTS, KEYS, MAX_LIST_ENTRIES, MAX_PROJECT_BYTES, PROJECT_FORMAT, PROJECT_VERSION } from './schema-keys';
@@ -279,6 +280,7 @@ const projectObject = z.strictObject({
   thermal: thermalSchema.optional(), // no thermal rating when absent
   dutyCycle: dutyCycleSchema.optional(),
   tolerances: tolerancesSchema.optional(), // no tolerance study when absent
+  variants: variantsSchema.optional(), // no variants when absent
 });
 
 export const projectSchema = projectObject.superRefine((p, ctx) => {
@@ -316,6 +318,7 @@ export type { ThermalSection } from './thermal-schema';
 export type { DutyCycleSection } from './duty-cycle-schema';
 export type { PwmSection } from './pwm-schema';
 export type { MonteCarloSettings, ToleranceBand, TolerancePath, TolerancesSection } from './tolerance-schema';
+export type { VariantsSection } from './variant-schema';
 export { MAX_DUTY_CYCLE_SAMPLES } from './duty-cycle-schema';
 
 // The nameplate section must be usable as a Nameplate as it is.

@@ -192,6 +192,7 @@ const FIELD: Record<string, string> = {
   'tolerances.monteCarlo.seed': 'Monte Carlo seed',
   'tolerances.monteCarlo.distribution': 'Monte Carlo distribution',
   'tolerances.monteCarlo.sigmaOfBand': 'Monte Carlo standard deviation',
+  'variants': 'design variants',
   'requirements': 'requirement points',
   'version': 'file format version',
   'file': 'project file',

@@ -22,6 +22,7 @@ import { DatasheetView } from '../views/datasheet/DatasheetView';
 import { FluxMapView } from '../views/flux-map/FluxMapView';
 import { EfficiencyView } from '../views/efficiency/EfficiencyView';
 import { DutyCycleView } from '../views/duty-cycle/DutyCycleView';
+import { CompareView } from '../views/compare/CompareView';
 import { fluxMapOf } from '../views/flux-map/flux-map-data';
 import { envelopeCsv, tracesCsv } from '../components/exports';
 import { exportDatasheetHtml, exportVisiblePlot } from '../components/image-export';
@@ -29,7 +30,7 @@ import { limitPhrase } from '../../../core/reports/phrases';
 import { FieldNotesContext, FindingsStrip, findingsKey, notesByPath } from '../components/field-notes';
 import { num } from '../components/format';
 
-type View = 'envelope' | 'efficiency' | 'dutycycle' | 'fluxmap' | 'loadsteps' | 'tuning' | 'datasheet';
+type View = 'envelope' | 'efficiency' | 'dutycycle' | 'fluxmap' | 'loadsteps' | 'tuning' | 'compare' | 'datasheet';
 const VIEWS: Array<[View, string]> = [
   ['envelope', 'Envelope'],
   ['efficiency', 'Efficiency'],
@@ -37,6 +38,7 @@ const VIEWS: Array<[View, string]> = [
   ['fluxmap', 'Flux map'],
   ['loadsteps', 'Load steps'],
   ['tuning', 'Tuning'],
+  ['compare', 'Compare'],
   ['datasheet', 'Datasheet'],
 ];
 
@@ -481,6 +483,8 @@ export function App() {
                 <LoadStepsView project={results.project} theme={theme} stale={stale} result={simulation} setResult={setSimulation} />
               ) : shown === 'tuning' ? (
                 <TuningView project={results.project} theme={theme} />
+              ) : shown === 'compare' ? (
+                <CompareView project={results.project} theme={theme} />
               ) : (
                 <DatasheetView results={results} theme={theme} tableStep={tableStep} setTableStep={setTableStep} />
               )}
