@@ -23,7 +23,7 @@ import { CURVE, Plot, readTheme } from '../../components/Plot';
 import { num } from '../../components/format';
 import { exportPlotImage } from '../../components/image-export';
 import type { CornersDone, ToleranceRequest } from '../../workers/tolerance-protocol';
-import { cornerRows, marginHistogramFigure, passRows, sensitivityFigure } from './tolerance-figures';
+import { cornerRows, marginHistogramFigure, passRows, sensitivityFigure, shortPath as short } from './tolerance-figures';
 import { MonteCarloFields, ToleranceBands } from './ToleranceInputs';
 
 const makeWorker = (): Worker => new Worker(new URL('../../workers/tolerance-worker.ts', import.meta.url), { type: 'module' });
@@ -41,7 +41,6 @@ interface SamplesSolved {
 }
 
 const BINDING_BG = 'rgba(224,138,0,0.22)';
-const short = (path: string): string => path.replace(/^(motor|nameplate|inverter|thermal)\./, '');
 
 export const TolerancesView = memo(function TolerancesView({ project, theme }: { project: ResolvedProject; theme: 'light' | 'dark' }) {
   const exporter = useExporter();
@@ -204,14 +203,14 @@ export const TolerancesView = memo(function TolerancesView({ project, theme }: {
                 ))}
               </tbody>
             </table>
-            <div style={{ display: 'grid', gridTemplateColumns: 'minmax(0, 3fr) minmax(0, 2fr)', gap: 12, marginTop: 8 }}>
+            <div style={{ display: 'grid', gridTemplateColumns: 'minmax(0, 1fr)', gap: 12, marginTop: 8 }}>
               <div>
                 <h4>
                   Torque margins (red: not met){' '}
                   <button className="btn small no-print" onClick={() => save('margins', 'png')} data-testid="mc-hist-png">PNG</button>{' '}
                   <button className="btn small no-print" onClick={() => save('margins', 'svg')} data-testid="mc-hist-svg">SVG</button>
                 </h4>
-                {hist && <Plot data={hist.data} layout={hist.layout} height={Math.max(260, 200 * Math.ceil(summary.requirements.length / 3))} testId="tolerance-margins-plot" elRef={(el) => (histEl.current = el)} />}
+                {hist && <Plot data={hist.data} layout={hist.layout} height={Math.max(260, 230 * Math.ceil(summary.requirements.length / 3))} testId="tolerance-margins-plot" elRef={(el) => (histEl.current = el)} />}
               </div>
               <div>
                 <h4>
@@ -219,7 +218,7 @@ export const TolerancesView = memo(function TolerancesView({ project, theme }: {
                   <button className="btn small no-print" onClick={() => save('sensitivity', 'png')} data-testid="mc-sens-png">PNG</button>{' '}
                   <button className="btn small no-print" onClick={() => save('sensitivity', 'svg')}>SVG</button>
                 </h4>
-                {sens && <Plot data={sens.data} layout={sens.layout} height={Math.max(260, 60 + 40 * summary.requirements.length + 110)} testId="tolerance-sensitivity-plot" elRef={(el) => (sensEl.current = el)} />}
+                {sens && <Plot data={sens.data} layout={sens.layout} height={Math.max(200, 60 + 36 * summary.requirements.length)} testId="tolerance-sensitivity-plot" elRef={(el) => (sensEl.current = el)} />}
               </div>
             </div>
           </>

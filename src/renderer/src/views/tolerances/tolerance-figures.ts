@@ -98,6 +98,9 @@ export function marginHistogramFigure(s: MonteCarloSummary, t: PlotTheme, c: Cur
   return { data, layout: layout as Layout };
 }
 
+/** A parameter's path without its section (Ke for nameplate.Ke): a file has only one motor form, so the name stays unique. */
+export const shortPath = (path: string): string => path.replace(/^(motor|nameplate|inverter|thermal)\./, '');
+
 /** The rank correlations as a matrix: requirements down, parameters across (null where a column is constant). */
 export function sensitivityMatrix(s: MonteCarloSummary, paths: readonly string[]): { z: Array<Array<number | null>>; rows: string[]; columns: string[] } {
   return { z: s.requirements.map((q) => paths.map((p) => q.sensitivity[p] ?? null)), rows: s.requirements.map((q) => q.label), columns: [...paths] };
@@ -109,15 +112,15 @@ export function sensitivityFigure(s: MonteCarloSummary, paths: readonly string[]
   const text = m.z.map((row) => row.map((v) => (v === null ? '–' : v.toFixed(2))));
   return {
     data: [{
-      type: 'heatmap', z: m.z, x: m.columns, y: m.rows, zmin: -1, zmax: 1, text, texttemplate: '%{text}', textfont: { size: 12 },
+      type: 'heatmap', z: m.z, x: m.columns.map(shortPath), y: m.rows, zmin: -1, zmax: 1, text, texttemplate: '%{text}', textfont: { size: 12 },
       colorscale: [[0, '#b3261e'], [0.5, t.dark ? '#333333' : '#f5f5f5'], [1, '#0b5cad']],
       colorbar: { title: { text: 'rank<br>correlation' }, thickness: 12 },
       hovertemplate: '%{y} margin against %{x}: %{text}<extra></extra>',
       xgap: 2, ygap: 2,
     } as Data],
     layout: baseLayout(t, {
-      margin: { l: 150, r: 16, t: 16, b: 110 },
-      xaxis: axis(t, '', { showgrid: false, showline: false, ticks: '', tickangle: -30 }) as Layout['xaxis'],
+      margin: { l: 150, r: 16, t: 16, b: 40 },
+      xaxis: axis(t, '', { showgrid: false, showline: false, ticks: '', side: 'bottom' }) as Layout['xaxis'],
       yaxis: axis(t, '', { showgrid: false, showline: false, ticks: '', autorange: 'reversed' }) as Layout['yaxis'],
     }),
   };
