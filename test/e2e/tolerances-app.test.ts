@@ -2,12 +2,13 @@
 // bands): the corners computed in a worker (64 = 2^6 corners, the binding one first and marked, the
 // least bus over every corner as the CLI's `corners` gives it), a band edited through the form (its
 // schema message beside it, then put back), the file's Monte Carlo (1000 samples) run on one worker
-// and on two with identical results, its CSV export, and a larger run cancelled. Screenshots in
+// and on two with identical results, its figures as SVG and PNG with their conditions, its CSV export, and a larger run cancelled. Screenshots in
 // test-results/tolerances-corners.png and test-results/tolerances-monte-carlo.png.
 import { readFileSync } from 'node:fs';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Page } from 'playwright-core';
-import { closeApp, openApp, shotPath, type AppSession } from './harness';
+import { join } from 'node:path';
+import { closeApp, openApp, shotPath, SHOTS, type AppSession } from './harness';
 import { parseCsv } from '../../src/core/reports/csv';
 
 let app: AppSession | undefined;
@@ -85,6 +86,19 @@ describe('the Tolerances tab', () => {
     await page.waitForSelector('[data-testid="tolerance-sensitivity-plot"] .heatmaplayer', { state: 'attached' });
     await page.locator('[data-testid="tol-mc"]').scrollIntoViewIfNeeded();
     await page.screenshot({ path: shotPath('tolerances-monte-carlo'), fullPage: true });
+
+    // the figures as images: title, the Monte Carlo settings and the project's conditions (bus, limits, date, version)
+    for (const [id, format] of [['mc-hist-svg', 'svg'], ['mc-sens-png', 'png'], ['mc-hist-png', 'png']] as const) {
+      const [img] = await Promise.all([page.waitForEvent('download'), page.click(`[data-testid="${id}"]`)]);
+      const file = join(SHOTS, `${id}-export.${format}`);
+      await img.saveAs(file);
+      if (format === 'svg') {
+        const svg = readFileSync(file, 'utf8');
+        expect(svg).toContain('torque margin histograms; Monte Carlo, 1000 samples, seed 1, normal');
+        expect(svg).toMatch(/Torquewise \d+\.\d+\.\d+ · \d{4}-\d{2}-\d{2}/);
+        expect(svg).toContain('Vdc 350 V');
+      } else expect(readFileSync(file).subarray(1, 4).toString('latin1')).toBe('PNG');
+    }
 
     const [download] = await Promise.all([page.waitForEvent('download'), page.click('[data-testid="mc-csv"]')]);
     const rows = parseCsv(readFileSync((await download.path())!, 'utf8'));

@@ -41,6 +41,8 @@ export interface SampleRunDone {
   chunk: SampleChunk;
   workers: number;
   wall_ms: number;
+  /** the workers' time in the chunks, summed (wall_ms x workers when they never wait) */
+  busy_ms: number;
 }
 
 export interface SampleRunRequest {
@@ -70,7 +72,7 @@ export function useSampleRun(onDone: (d: SampleRunDone) => void): {
     const n = workerCount(asked, jobs.length);
     const started = performance.now();
     const results: SampleChunk[] = [];
-    let next = 0, samplesDone = 0;
+    let next = 0, samplesDone = 0, busy = 0;
     const mine: Worker[] = [];
     pool.current = mine;
     setRun({ kind: 'running', done: 0, total: req.mc.samples, workers: n, started });
@@ -93,14 +95,15 @@ export function useSampleRun(onDone: (d: SampleRunDone) => void): {
         const m = ev.data;
         if (m.kind === 'error') return fail(m.message);
         if (m.kind !== 'done') return;
-        const chunk = (m as { kind: 'done' } & SamplesDone).chunk;
+        const { chunk, compute_ms } = m as { kind: 'done' } & SamplesDone;
+        busy += compute_ms;
         results.push(chunk);
         samplesDone += chunk.count;
         if (results.length === jobs.length) {
           const joined = joinChunks(results);
           stop();
           setRun({ kind: 'idle' });
-          done.current({ chunk: joined, workers: n, wall_ms: performance.now() - started });
+          done.current({ chunk: joined, workers: n, wall_ms: performance.now() - started, busy_ms: busy });
           return;
         }
         setRun((r) => (r.kind === 'running' ? { ...r, done: samplesDone } : r));

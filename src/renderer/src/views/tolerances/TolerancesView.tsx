@@ -37,6 +37,7 @@ interface SamplesSolved {
   labels: string[];
   workers: number;
   wall_ms: number;
+  busy_ms: number;
   projectText: string;
 }
 
@@ -77,8 +78,8 @@ export const TolerancesView = memo(function TolerancesView({ project, theme }: {
   const workersBad = !(Number.isInteger(workers) && workers >= 1 && workers <= 16);
   const [thermal, setThermal] = useState(false);
   const [samples, setSamples] = useState<SamplesSolved | null>(null);
-  const asked = useRef<Omit<SamplesSolved, 'chunk' | 'workers' | 'wall_ms'> | null>(null);
-  const mcRun = useSampleRun((d) => asked.current && setSamples({ ...asked.current, chunk: d.chunk, workers: d.workers, wall_ms: d.wall_ms }));
+  const asked = useRef<Omit<SamplesSolved, 'chunk' | 'workers' | 'wall_ms' | 'busy_ms'> | null>(null);
+  const mcRun = useSampleRun((d) => asked.current && setSamples({ ...asked.current, chunk: d.chunk, workers: d.workers, wall_ms: d.wall_ms, busy_ms: d.busy_ms }));
   const startSamples = () => {
     if (workersBad) return;
     const th = thermal && project.thermal !== undefined;
@@ -186,8 +187,8 @@ export const TolerancesView = memo(function TolerancesView({ project, theme }: {
         {mr.kind === 'error' && <div className="finding danger" data-testid="mc-error">{mr.message}</div>}
         {!summary || !samples ? <div className="empty">{mr.kind === 'running' ? 'Sampling…' : 'No samples yet: Run.'}</div> : (
           <>
-            <div className="key" data-testid="mc-conditions" data-wall-ms={samples.wall_ms.toFixed(0)} data-workers={samples.workers}>
-              {mcWords(samples)}; computed in {(samples.wall_ms / 1000).toFixed(2)} s on {samples.workers} worker{samples.workers === 1 ? '' : 's'}.{samplesStale && ' (Run again for the edited project.)'}
+            <div className="key" data-testid="mc-conditions" data-wall-ms={samples.wall_ms.toFixed(0)} data-workers={samples.workers} data-busy-ms={samples.busy_ms.toFixed(0)}>
+              {mcWords(samples)}; computed in {(samples.wall_ms / 1000).toFixed(2)} s on {samples.workers} worker{samples.workers === 1 ? '' : 's'} ({(samples.busy_ms / 1000).toFixed(2)} s of worker time in the samples).{samplesStale && ' (Run again for the edited project.)'}
             </div>
             <table className="data compact" data-testid="mc-pass">
               <thead><tr><th>point</th><th>met, % of samples</th><th>± standard error</th><th>least margin N·m</th><th>mean margin N·m</th></tr></thead>
