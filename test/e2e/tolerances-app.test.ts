@@ -60,13 +60,21 @@ describe('the Tolerances tab', () => {
     expect(pageErrors).toEqual([]);
   }, 120_000);
 
-  it('edits a band through the form: the schema\'s message beside it, and the corners follow the fixed value', async () => {
+  it('edits a band through the form: the schema\'s message and a band end the file cannot take beside it, and the corners follow the fixed value', async () => {
     await page.fill('[data-testid="band-max-inverter.Vdc"]', '300');
     await page.waitForSelector('[data-testid="band-inverter.Vdc"] [data-testid="band-msg"]');
     expect(await page.textContent('[data-testid="band-inverter.Vdc"] [data-testid="band-msg"]')).toMatch(/min must be <= max/);
     await page.fill('[data-testid="band-max-inverter.Vdc"]', '380');
     await page.waitForSelector('[data-testid="band-inverter.Vdc"] [data-testid="band-msg"]', { state: 'detached' });
+    // a lower end the file cannot take (a bus of 1 V, below twice the devices' drop): the corners' run stops, its message beside the band
+    await page.fill('[data-testid="band-min-inverter.Vdc"]', '1');
+    await page.waitForSelector('[data-testid="tol-corners-error"]', { timeout: 60_000 });
+    expect(await page.textContent('[data-testid="band-inverter.Vdc"] [data-testid="band-msg"]')).toMatch(/^has its lower end at 1 V, which the file cannot take/);
+    await page.fill('[data-testid="band-min-inverter.Vdc"]', '320');
+    await page.waitForSelector('[data-testid="tol-corners-error"]', { state: 'detached', timeout: 60_000 });
+    await page.waitForSelector('[data-testid="band-inverter.Vdc"] [data-testid="band-msg"]', { state: 'detached' });
     await page.waitForSelector('[data-testid="tol-corners-summary"]', { timeout: 60_000 });
+    expect(Number(await page.getAttribute('[data-testid="tol-min-vdc"]', 'data-value'))).toBeCloseTo(395.4, 0);
     expect(pageErrors).toEqual([]);
   }, 120_000);
 

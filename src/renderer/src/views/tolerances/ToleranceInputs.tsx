@@ -49,12 +49,15 @@ function SubtreeNumber({ subtree, keys, value, testId, width = 64 }: { subtree: 
 
 const unitOf = (path: string): string => KEYS[`tolerances.${path}`]?.unit ?? '';
 
-function BandRow({ path, file, param }: { path: TolerancePath; file: ProjectFile; param: ToleranceParameter | undefined }) {
+function BandRow({ path, file, param, runProblem }: { path: TolerancePath; file: ProjectFile; param: ToleranceParameter | undefined; runProblem: string | undefined }) {
   const store = useFormStore();
   const band = useFormValue((d) => asObj(getAt(d.tree, 'tolerances'))[path]);
   const b = asObj(band);
   const form: 'none' | 'pct' | 'abs' = band === undefined ? 'none' : 'min' in b || 'max' in b ? 'abs' : 'pct';
-  const msgs = useMessagesUnder(`tolerances.${path}`);
+  const schemaMsgs = useMessagesUnder(`tolerances.${path}`);
+  // a band end the file cannot take, as the corners' run found it (core checkBandEnds), beside its row
+  const own = runProblem?.startsWith(`tolerances.${path} `) ? runProblem.slice(`tolerances.${path} `.length) : '';
+  const msgs = [schemaMsgs, own].filter((m) => m !== '').join('\n');
   let nominal: number | null = null;
   try {
     nominal = nominalValue(file, path);
@@ -99,8 +102,12 @@ function BandRow({ path, file, param }: { path: TolerancePath; file: ProjectFile
   );
 }
 
-/** The band table: every parameter this file may give a band, its nominal value, its band and its ends (as the last valid project has them). */
-export function ToleranceBands({ file, params }: { file: ProjectFile; params: readonly ToleranceParameter[] }) {
+/**
+ * The band table: every parameter this file may give a band, its nominal value, its band and its ends
+ * (as the last valid project has them). `runProblem`: the message of a run that stopped at a band
+ * (an InputError at tolerances.<path>), shown beside that band.
+ */
+export function ToleranceBands({ file, params, runProblem }: { file: ProjectFile; params: readonly ToleranceParameter[]; runProblem?: string }) {
   const allowed = allowedTolerancePaths(file);
   const top = useFormValue((_, issues) => Object.entries(issues).filter(([k]) => k === 'tolerances' || (k.startsWith('tolerances.') && !allowed.some((p) => k === `tolerances.${p}` || k.startsWith(`tolerances.${p}.`)) && !k.startsWith('tolerances.monteCarlo'))).map(([k, v]) => `${k} ${v}`).join('\n'));
   return (
@@ -108,7 +115,7 @@ export function ToleranceBands({ file, params }: { file: ProjectFile; params: re
       <table className="data compact" data-testid="tolerance-bands">
         <thead><tr><th>parameter</th><th>nominal</th><th>band as</th><th>band</th><th>ends</th><th /></tr></thead>
         <tbody>
-          {allowed.map((p) => <BandRow key={p} path={p} file={file} param={params.find((q) => q.path === p)} />)}
+          {allowed.map((p) => <BandRow key={p} path={p} file={file} param={params.find((q) => q.path === p)} runProblem={runProblem} />)}
         </tbody>
       </table>
       <Messages text={top} />

@@ -117,7 +117,7 @@ export const TolerancesView = memo(function TolerancesView({ project, theme }: {
     <div data-testid="view-tolerances">
       <div className="card">
         <h4>Bands (edits go to the file's <code>tolerances</code> section)</h4>
-        <ToleranceBands file={project.file} params={params} />
+        <ToleranceBands file={project.file} params={params} runProblem={cornersRun.run.kind === 'error' ? cornersRun.run.message : undefined} />
       </div>
 
       <div className="card" data-testid="tol-corners">
