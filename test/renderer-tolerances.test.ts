@@ -12,7 +12,7 @@ import { joinChunks, runSampleChunk, type SampleChunk } from '../src/core/projec
 import { monteCarloSummary } from '../src/core/reports/tolerance-statistics';
 import type { MonteCarloSettings } from '../src/core/project/tolerance-schema';
 import { CURVE, type PlotTheme } from '../src/renderer/src/components/plot-style';
-import { cornerRows, marginHistogramFigure, passRows, sensitivityFigure, sensitivityMatrix, shortPath } from '../src/renderer/src/views/tolerances/tolerance-figures';
+import { bandsCaption, cornerRows, marginHistogramFigure, passRows, sensitivityFigure, sensitivityMatrix, shortPath } from '../src/renderer/src/views/tolerances/tolerance-figures';
 import { chunkPlan, MAX_WORKERS, SAMPLES_PER_CHUNK, workerCount } from '../src/renderer/src/state/sample-run';
 
 const theme: PlotTheme = { ink: '#111111', muted: '#666666', line: '#dddddd', panel: '#ffffff', bg: '#f5f5f5', ok: '#2e7d32', bad: '#b3261e', dark: false };
@@ -100,6 +100,11 @@ describe('Monte Carlo: chunks between workers, pass rows and figures', () => {
     expect(s.requirements[0]!.margin.min).toBeLessThan(0);
     expect((f.layout as { shapes: Array<{ x0: number }> }).shapes).toHaveLength(1);
     expect((f.layout as { shapes: Array<{ x0: number }> }).shapes[0]!.x0).toBe(0);
+    // the bands as the figure's caption, kept in its exported image
+    const cap = bandsCaption(params, (x) => String(Number(x.toPrecision(8))));
+    expect(cap).toBe('bands: psiM 0.016–0.024 Wb, Imax 99.999–100.001 A');
+    const g = marginHistogramFigure(s, theme, CURVE.light, cap);
+    expect((g.layout as { annotations: Array<{ text: string }> }).annotations.map((a) => a.text)).toContain(cap);
   });
 
   it('sensitivity heat table: the margin rises with psiM in every sample, rank correlation 1', () => {

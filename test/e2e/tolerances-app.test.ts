@@ -102,7 +102,8 @@ describe('the Tolerances tab', () => {
       await img.saveAs(file);
       if (format === 'svg') {
         const svg = readFileSync(file, 'utf8');
-        expect(svg).toContain('torque margin histograms; Monte Carlo, 1000 samples, seed 1, normal');
+        expect(svg).toContain('torque margins, 1000 samples, seed 1, normal σ 0.33');
+        expect(svg).toContain('bands: R 0.0342–0.0378');
         expect(svg).toMatch(/Torquewise \d+\.\d+\.\d+ · \d{4}-\d{2}-\d{2}/);
         expect(svg).toContain('Vdc 350 V');
       } else expect(readFileSync(file).subarray(1, 4).toString('latin1')).toBe('PNG');

@@ -23,7 +23,7 @@ import { CURVE, Plot, readTheme } from '../../components/Plot';
 import { num } from '../../components/format';
 import { exportPlotImage } from '../../components/image-export';
 import type { CornersDone, ToleranceRequest } from '../../workers/tolerance-protocol';
-import { cornerRows, marginHistogramFigure, passRows, sensitivityFigure, shortPath as short } from './tolerance-figures';
+import { bandsCaption, cornerRows, marginHistogramFigure, passRows, sensitivityFigure, shortPath as short } from './tolerance-figures';
 import { MonteCarloFields, ToleranceBands } from './ToleranceInputs';
 
 const makeWorker = (): Worker => new Worker(new URL('../../workers/tolerance-worker.ts', import.meta.url), { type: 'module' });
@@ -90,8 +90,9 @@ export const TolerancesView = memo(function TolerancesView({ project, theme }: {
 
   const c: CornersResult | null = corners?.corners ?? null;
   const rows = useMemo(() => (c ? cornerRows(c, torques) : []), [c]); // eslint-disable-line react-hooks/exhaustive-deps
-  const hist = useMemo(() => (summary ? marginHistogramFigure(summary, readTheme(), CURVE[theme]) : null), [summary, theme]);
-  const sens = useMemo(() => (summary && samples ? sensitivityFigure(summary, samples.params.map((p) => p.path), readTheme()) : null), [summary, samples, theme]); // eslint-disable-line react-hooks/exhaustive-deps
+  const caption = samples ? `${bandsCaption(samples.params, (x) => num(x))}; margins the least of hot and cold${samples.thermal ? ', S1 checked' : ''}` : '';
+  const hist = useMemo(() => (summary ? marginHistogramFigure(summary, readTheme(), CURVE[theme], caption) : null), [summary, theme]); // eslint-disable-line react-hooks/exhaustive-deps
+  const sens = useMemo(() => (summary && samples ? sensitivityFigure(summary, samples.params.map((p) => p.path), readTheme(), caption) : null), [summary, samples, theme]); // eslint-disable-line react-hooks/exhaustive-deps
   const histEl = useRef<HTMLDivElement | null>(null);
   const sensEl = useRef<HTMLDivElement | null>(null);
 
@@ -99,7 +100,9 @@ export const TolerancesView = memo(function TolerancesView({ project, theme }: {
   const save = (which: 'margins' | 'sensitivity', format: 'png' | 'svg') => {
     const el = which === 'margins' ? histEl.current : sensEl.current;
     if (!el || !samples) return;
-    const what = which === 'margins' ? `torque margin histograms; ${mcWords(samples)}` : `rank correlation of each margin with each parameter; ${mcWords(samples)}`;
+    // the title short enough for one line; the bands are the figure's own caption
+    const run = `${samples.mc.samples} samples, seed ${samples.mc.seed}, ${samples.mc.distribution}${samples.mc.distribution === 'normal' ? ` σ ${samples.mc.sigmaOfBand}` : ''}`;
+    const what = which === 'margins' ? `torque margins, ${run}` : `margin rank correlations, ${run}`;
     void exportPlotImage(el, format, `tolerance-${which}`, project, exporter, what);
   };
   const saveCsv = () => {
@@ -211,7 +214,7 @@ export const TolerancesView = memo(function TolerancesView({ project, theme }: {
                   <button className="btn small no-print" onClick={() => save('margins', 'png')} data-testid="mc-hist-png">PNG</button>{' '}
                   <button className="btn small no-print" onClick={() => save('margins', 'svg')} data-testid="mc-hist-svg">SVG</button>
                 </h4>
-                {hist && <Plot data={hist.data} layout={hist.layout} height={Math.max(260, 230 * Math.ceil(summary.requirements.length / 3))} testId="tolerance-margins-plot" elRef={(el) => (histEl.current = el)} />}
+                {hist && <Plot data={hist.data} layout={hist.layout} height={Math.max(280, 30 + 230 * Math.ceil(summary.requirements.length / 3))} testId="tolerance-margins-plot" elRef={(el) => (histEl.current = el)} />}
               </div>
               <div>
                 <h4>
@@ -219,7 +222,7 @@ export const TolerancesView = memo(function TolerancesView({ project, theme }: {
                   <button className="btn small no-print" onClick={() => save('sensitivity', 'png')} data-testid="mc-sens-png">PNG</button>{' '}
                   <button className="btn small no-print" onClick={() => save('sensitivity', 'svg')}>SVG</button>
                 </h4>
-                {sens && <Plot data={sens.data} layout={sens.layout} height={Math.max(200, 60 + 36 * summary.requirements.length)} testId="tolerance-sensitivity-plot" elRef={(el) => (sensEl.current = el)} />}
+                {sens && <Plot data={sens.data} layout={sens.layout} height={Math.max(220, 80 + 36 * summary.requirements.length)} testId="tolerance-sensitivity-plot" elRef={(el) => (sensEl.current = el)} />}
               </div>
             </div>
           </>

@@ -57,6 +57,16 @@ export function passRows(s: MonteCarloSummary): PassRow[] {
   return [...rows, { label: 'every point', pct: 100 * s.allMet.fraction, sePct: 100 * s.allMet.standardError, leastMargin_Nm: least, meanMargin_Nm: NaN }];
 }
 
+/** A line under a figure (the bands sampled), kept in its exported image: below the axis titles, left-aligned. */
+function captionAnnotation(text: string, t: PlotTheme, yshift: number): Record<string, unknown> {
+  return { text, xref: 'paper', yref: 'paper', x: 0, y: 0, xanchor: 'left', yanchor: 'top', yshift, align: 'left', showarrow: false, font: { size: 11, color: t.muted } };
+}
+
+/** The bands of a run as a caption: "bands: R 0.0342–0.0378 ohm, …" (each parameter without its section). */
+export function bandsCaption(params: ReadonlyArray<{ path: string; min: number; max: number; unit: string }>, fmt: (x: number) => string): string {
+  return `bands: ${params.map((p) => `${shortPath(p.path)} ${fmt(p.min)}–${fmt(p.max)}${p.unit ? ` ${p.unit}` : ''}`).join(', ')}`;
+}
+
 /** Columns of the histogram grid. */
 export const HISTOGRAM_COLUMNS = 3;
 
@@ -65,7 +75,7 @@ export const HISTOGRAM_COLUMNS = 3;
  * hill start and of a top-speed point differ by an order of magnitude), bars red left of zero (not
  * met) and a dashed line at zero margin.
  */
-export function marginHistogramFigure(s: MonteCarloSummary, t: PlotTheme, c: CurveColours): Figure {
+export function marginHistogramFigure(s: MonteCarloSummary, t: PlotTheme, c: CurveColours, caption?: string): Figure {
   const n = s.requirements.length;
   const cols = Math.min(HISTOGRAM_COLUMNS, Math.max(1, n));
   const rows = Math.max(1, Math.ceil(n / cols));
@@ -73,7 +83,7 @@ export function marginHistogramFigure(s: MonteCarloSummary, t: PlotTheme, c: Cur
   const layout: Record<string, unknown> = baseLayout(t, {
     showlegend: false,
     grid: { rows, columns: cols, pattern: 'independent', xgap: 0.12, ygap: 0.38 },
-    margin: { l: 56, r: 16, t: 30, b: 44 },
+    margin: { l: 56, r: 16, t: 30, b: caption ? 68 : 44 },
     bargap: 0.04,
   });
   const annotations: Array<Record<string, unknown>> = [];
@@ -84,7 +94,7 @@ export function marginHistogramFigure(s: MonteCarloSummary, t: PlotTheme, c: Cur
     const centres = h.counts.map((_, b) => (h.edges[b]! + h.edges[b + 1]!) / 2);
     const widths = h.counts.map((_, b) => Math.max(h.edges[b + 1]! - h.edges[b]!, 1e-9));
     data.push({
-      type: 'bar', x: centres, y: h.counts, width: widths, xaxis: `x${sfx}`, yaxis: `y${sfx}`, name: q.label,
+      type: 'bar', x: centres, y: h.counts, width: widths, xaxis: `x${sfx}`, yaxis: `y${sfx}`, name: q.label, showlegend: false,
       marker: { color: centres.map((x) => (x < 0 ? c.hot : c.cold)) },
       hovertemplate: `${q.label}<br>margin %{x:.3g} N·m<br>%{y} samples<extra></extra>`,
     } as Data);
@@ -93,6 +103,7 @@ export function marginHistogramFigure(s: MonteCarloSummary, t: PlotTheme, c: Cur
     annotations.push({ text: `<b>${q.label}</b> (${(100 * q.fraction).toFixed(1)} % met)`, xref: `x${sfx} domain`, yref: `y${sfx} domain`, x: 0.5, y: 1.0, yanchor: 'bottom', showarrow: false, font: { size: 11 } });
     if (q.margin.min <= 0 && q.margin.max >= 0) shapes.push({ type: 'line', xref: `x${sfx}`, yref: `y${sfx} domain`, x0: 0, x1: 0, y0: 0, y1: 1, line: { color: t.ink, dash: 'dash', width: 1 } });
   });
+  if (caption) annotations.push(captionAnnotation(caption, t, -40));
   layout.annotations = annotations;
   layout.shapes = shapes;
   return { data, layout: layout as Layout };
@@ -107,7 +118,7 @@ export function sensitivityMatrix(s: MonteCarloSummary, paths: readonly string[]
 }
 
 /** The sensitivities as a heat table: red where a larger parameter lowers the margin, blue where it raises it, the value written in each cell. */
-export function sensitivityFigure(s: MonteCarloSummary, paths: readonly string[], t: PlotTheme): Figure {
+export function sensitivityFigure(s: MonteCarloSummary, paths: readonly string[], t: PlotTheme, caption?: string): Figure {
   const m = sensitivityMatrix(s, paths);
   const text = m.z.map((row) => row.map((v) => (v === null ? '–' : v.toFixed(2))));
   return {
@@ -119,9 +130,10 @@ export function sensitivityFigure(s: MonteCarloSummary, paths: readonly string[]
       xgap: 2, ygap: 2,
     } as Data],
     layout: baseLayout(t, {
-      margin: { l: 150, r: 16, t: 16, b: 40 },
+      margin: { l: 150, r: 16, t: 16, b: caption ? 56 : 40 },
       xaxis: axis(t, '', { showgrid: false, showline: false, ticks: '', side: 'bottom' }) as Layout['xaxis'],
       yaxis: axis(t, '', { showgrid: false, showline: false, ticks: '', autorange: 'reversed' }) as Layout['yaxis'],
+      ...(caption ? { annotations: [captionAnnotation(caption, t, -28)] as Layout['annotations'] } : {}),
     }),
   };
 }
