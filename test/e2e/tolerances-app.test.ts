@@ -92,8 +92,10 @@ describe('the Tolerances tab', () => {
     expect(all).toBeLessThan(100);
     expect(await page.$$eval('[data-testid="tolerance-margins-plot"] .barlayer .trace', (els) => els.length)).toBe(5);
     await page.waitForSelector('[data-testid="tolerance-sensitivity-plot"] .heatmaplayer', { state: 'attached' });
-    await page.locator('[data-testid="tol-mc"]').scrollIntoViewIfNeeded();
-    await page.screenshot({ path: shotPath('tolerances-monte-carlo'), fullPage: true });
+    // a tall window for the picture, so the whole Monte Carlo card is in it
+    await page.setViewportSize({ width: 1440, height: 1900 });
+    await page.locator('[data-testid="tol-mc"]').screenshot({ path: shotPath('tolerances-monte-carlo') });
+    await page.setViewportSize({ width: 1440, height: 900 });
 
     // the figures as images: title, the Monte Carlo settings and the project's conditions (bus, limits, date, version)
     for (const [id, format] of [['mc-hist-svg', 'svg'], ['mc-sens-png', 'png'], ['mc-hist-png', 'png']] as const) {

@@ -214,7 +214,7 @@ export const TolerancesView = memo(function TolerancesView({ project, theme }: {
                   <button className="btn small no-print" onClick={() => save('margins', 'png')} data-testid="mc-hist-png">PNG</button>{' '}
                   <button className="btn small no-print" onClick={() => save('margins', 'svg')} data-testid="mc-hist-svg">SVG</button>
                 </h4>
-                {hist && <Plot data={hist.data} layout={hist.layout} height={Math.max(280, 30 + 230 * Math.ceil(summary.requirements.length / 3))} testId="tolerance-margins-plot" elRef={(el) => (histEl.current = el)} />}
+                {hist && <Plot data={hist.data} layout={hist.layout} height={Math.max(300, 50 + 230 * Math.ceil(summary.requirements.length / 3))} testId="tolerance-margins-plot" elRef={(el) => (histEl.current = el)} />}
               </div>
               <div>
                 <h4>

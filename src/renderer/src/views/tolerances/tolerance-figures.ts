@@ -58,8 +58,8 @@ export function passRows(s: MonteCarloSummary): PassRow[] {
 }
 
 /** A line under a figure (the bands sampled), kept in its exported image: below the axis titles, left-aligned. */
-function captionAnnotation(text: string, t: PlotTheme, yshift: number): Record<string, unknown> {
-  return { text, xref: 'paper', yref: 'paper', x: 0, y: 0, xanchor: 'left', yanchor: 'top', yshift, align: 'left', showarrow: false, font: { size: 11, color: t.muted } };
+function captionAnnotation(text: string, t: PlotTheme, yshift: number, xshift = 0): Record<string, unknown> {
+  return { text, xref: 'paper', yref: 'paper', x: 0, y: 0, xanchor: 'left', yanchor: 'top', yshift, xshift, align: 'left', showarrow: false, font: { size: 11, color: t.muted } };
 }
 
 /** The bands of a run as a caption: "bands: R 0.0342–0.0378 ohm, …" (each parameter without its section). */
@@ -83,7 +83,7 @@ export function marginHistogramFigure(s: MonteCarloSummary, t: PlotTheme, c: Cur
   const layout: Record<string, unknown> = baseLayout(t, {
     showlegend: false,
     grid: { rows, columns: cols, pattern: 'independent', xgap: 0.12, ygap: 0.38 },
-    margin: { l: 56, r: 16, t: 30, b: caption ? 68 : 44 },
+    margin: { l: 56, r: 16, t: 30, b: caption ? 84 : 44 },
     bargap: 0.04,
   });
   const annotations: Array<Record<string, unknown>> = [];
@@ -103,7 +103,7 @@ export function marginHistogramFigure(s: MonteCarloSummary, t: PlotTheme, c: Cur
     annotations.push({ text: `<b>${q.label}</b> (${(100 * q.fraction).toFixed(1)} % met)`, xref: `x${sfx} domain`, yref: `y${sfx} domain`, x: 0.5, y: 1.0, yanchor: 'bottom', showarrow: false, font: { size: 11 } });
     if (q.margin.min <= 0 && q.margin.max >= 0) shapes.push({ type: 'line', xref: `x${sfx}`, yref: `y${sfx} domain`, x0: 0, x1: 0, y0: 0, y1: 1, line: { color: t.ink, dash: 'dash', width: 1 } });
   });
-  if (caption) annotations.push(captionAnnotation(caption, t, -40));
+  if (caption) annotations.push(captionAnnotation(caption, t, -58));
   layout.annotations = annotations;
   layout.shapes = shapes;
   return { data, layout: layout as Layout };
@@ -133,7 +133,7 @@ export function sensitivityFigure(s: MonteCarloSummary, paths: readonly string[]
       margin: { l: 150, r: 16, t: 16, b: caption ? 56 : 40 },
       xaxis: axis(t, '', { showgrid: false, showline: false, ticks: '', side: 'bottom' }) as Layout['xaxis'],
       yaxis: axis(t, '', { showgrid: false, showline: false, ticks: '', autorange: 'reversed' }) as Layout['yaxis'],
-      ...(caption ? { annotations: [captionAnnotation(caption, t, -28)] as Layout['annotations'] } : {}),
+      ...(caption ? { annotations: [captionAnnotation(caption, t, -28, -140)] as Layout['annotations'] } : {}),
     }),
   };
 }
