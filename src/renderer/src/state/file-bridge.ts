@@ -39,6 +39,7 @@ const MIME: Record<ExportKind, string> = {
   'efficiency-csv': 'text/csv',
   'duty-cycle-csv': 'text/csv',
   'current-table-header': 'text/x-c',
+  'tolerance-csv': 'text/csv',
 };
 
 function download(data: string | Uint8Array, name: string, mime: string): void {
