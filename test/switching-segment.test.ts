@@ -5,6 +5,7 @@ import { describe, expect, it } from 'vitest';
 import { Plant, STATE_SIZE, loadSchedule } from '../src/core/simulation/plant';
 import { Rk4Stepper } from '../src/core/simulation/stepper';
 import { ExactSegment } from '../src/core/simulation/switching-segment';
+import { DqPropagator } from '../src/core/simulation/dq-propagator';
 
 const machine = { polePairs: 4, Rs: 0.02, Ld: 1.5e-4, Lq: 3.5e-4, psiM: 0.06 };
 const plantOf = (over: Partial<ConstructorParameters<typeof Plant>[0]> = {}): Plant => new Plant({
@@ -40,13 +41,20 @@ describe('exact switching segment', () => {
     }
   });
 
-  it('locked mechanics: the speed stays, the angle advances by p omega h', () => {
+  it('locked mechanics: the currents are DqPropagator.propagate\'s at the frozen speed (to 1e-12 A), the speed stays, the angle advances by p omega h', () => {
     const plant = plantOf({ mechanics: 'locked' });
     plant.setLoadSegment(0, 2e-5);
     const ex = new ExactSegment(plant, 400);
     const y = start(plant);
     ex.span[0] = 0; ex.span[1] = 2e-5;
     expect(ex.step(y)).toBe(true);
+    const prop = new DqPropagator(machine);
+    prop.setStep(4 * 300, 2e-5);
+    const out = new Float64Array(2);
+    const c = Math.cos(1.2), sn = Math.sin(1.2);
+    prop.propagate(-80, 150, 232 * c - 115 * sn, -232 * sn - 115 * c, out, 0);
+    expect(Math.abs(y[0]! - out[0]!)).toBeLessThan(1e-12);
+    expect(Math.abs(y[1]! - out[1]!)).toBeLessThan(1e-12);
     expect(y[2]).toBe(300);
     expect(y[3]).toBeCloseTo(1.2 + 4 * 300 * 2e-5, 14);
   });

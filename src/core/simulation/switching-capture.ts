@@ -9,7 +9,9 @@
  *     period's length; plus the state at the last period's end;
  *   - the full-resolution traces at every segment boundary (WindowTrace): over a window the
  *     project chooses (kept from its start, up to the capacity), or, without one, a ring of the last
- *     boundaries (the summary takes the last two fundamental periods of it).
+ *     boundaries, written over the run's last DEFAULT_WINDOW_SAMPLES / 8 carrier periods only (the
+ *     summary takes the last two fundamental periods of it; a run stopped well before its end has
+ *     none).
  * Common practice (no source).
  */
 
@@ -81,6 +83,7 @@ export class SwitchingCapture {
    * DEFAULT_WINDOW_SAMPLES boundaries); `fsw` the carrier frequency, Hz, to size a window.
    */
   constructor(periods: number, window: { from_s: number; to_s: number } | null, fsw: number) {
+    const duration = periods / fsw;
     const cap = Math.max(2, Math.min(RECORD_CAPACITY, Math.ceil(periods) + 2));
     this.cap = cap;
     this.t = new Float64Array(cap);
@@ -94,7 +97,10 @@ export class SwitchingCapture {
     this.idc2 = new Float64Array(cap);
     this.span = new Float64Array(cap);
     if (window === null) {
-      this.window = new WindowTrace(-Infinity, Infinity, Math.max(16, Math.min(DEFAULT_WINDOW_SAMPLES, 14 * Math.ceil(periods) + 16)), true);
+      // the ring written only over the run's last cap/8 carrier periods (about 8 boundaries each): the
+      // periods before could not reach the end
+      const cap = Math.max(16, Math.min(DEFAULT_WINDOW_SAMPLES, 14 * Math.ceil(periods) + 16));
+      this.window = new WindowTrace(Math.max(0, duration - cap / (8 * fsw)), Infinity, cap, true);
     } else {
       const need = 14 * Math.ceil((window.to_s - window.from_s) * fsw) + 16;
       this.window = new WindowTrace(window.from_s, window.to_s, Math.max(16, Math.min(WINDOW_CAPACITY, need)), false);

@@ -118,8 +118,9 @@ export class SwitchingPeriod {
 
   resetProbe(): void {
     this.nb = 0;
-    this.legVs.fill(0);
-    this.cmdVs.fill(0);
+    const l = this.legVs, c = this.cmdVs;
+    l[0] = 0; l[1] = 0; l[2] = 0;
+    c[0] = 0; c[1] = 0; c[2] = 0;
     this.idcInt = 0;
     this.idcSqInt = 0;
     this.span = 0;

@@ -1,7 +1,8 @@
 /**
  * One segment of the switching model (the legs' states, hence the stationary-frame voltage, held)
  * for a constant-parameter plant in current states, between two load breakpoints at most:
- *   - the currents by the exact propagator (dq-propagator.ts) at the segment's frozen electrical
+ *   - the currents by the exact propagator (dq-propagator.ts: its setStep, errorBound and propagate
+ *     written out here, its series branch only; equal to it, test/switching-segment.test.ts) at the segment's frozen electrical
  *     speed, the mean of the speed profile predicted from the segment start's derivatives
  *     (p (omega0 + g0 h/2 + g0' h²/6)), the voltage projected on the rotor's angle at the start;
  *   - the mechanics as the exact stepper takes them (exact-stepper.ts), on the segment's two ends:
@@ -16,24 +17,25 @@
  * `step` returns false (y untouched) where the closed form or the rules do not apply, and the caller
  * integrates the segment otherwise (RK4 in switching-period.ts): free mechanics near zero speed
  * (|omega0| < 20 w + 4 |g0| h, w the smoothed Coulomb sign's width), a large angle per segment
- * (max(p |omega0|, Rs/L) h > MAX_ANGLE), the propagator's rounding-error bound above 1e-11 Imax
+ * (max(p |omega0|, Rs/L) h > MAX_ANGLE; |delta h| or |we h| above 0.5, the series' range), the
+ * propagator's rounding-error bound (with 1-norms) above 1e-11 Imax
  * (the Rs -> 0 resonance), a non-finite state. Allocation-free; an instance belongs to one run.
  */
-import { DqPropagator } from './dq-propagator';
+import { cosS, sincS, coshS, sinhcS } from './dq-propagator';
 import { MAX_ANGLE } from './exact-stepper';
 import type { Plant } from './plant';
 import { cosSmall, sinSmall } from '../mathematics/rotation';
 
 const sinSmallL = sinSmall;
 const cosSmallL = cosSmall;
+const cosSL = cosS, sincSL = sincS, coshSL = coshS, sinhcSL = sinhcS;
+const EPS8 = 8 * 2.220446049250313e-16;
 
 export class ExactSegment {
   /** the segment [span[0], span[1]] the next `step` integrates, s (doubles cross the call unboxed) */
   readonly span = new Float64Array(2);
   /** segments the closed form declined */
   fallbacks = 0;
-  private readonly prop: DqPropagator;
-  private readonly end = new Float64Array(2);
   private readonly pp: number;
   private readonly Rs: number;
   private readonly Ld: number;
@@ -50,6 +52,18 @@ export class ExactSegment {
   private readonly free: boolean;
   private readonly errMax: number;
   private readonly rate: number;
+  // the propagator's constants (see DqPropagator.setStep), for its arithmetic written out in `step`
+  private readonly m: number;
+  private readonly q: number;
+  private readonly rqd: number;
+  private readonly rdq: number;
+  private readonly Rs2: number;
+  private readonly iRs: number;
+  private readonly S2: number;
+  private readonly LqS2: number;
+  private readonly LdS2: number;
+  private readonly dL: number;
+  private readonly LdLq: number;
   // node results (see `node`): g = omega', g', power, power' (double fields start as non-integers)
   private ng = NaN; private ngp = NaN; private np = NaN; private npp = NaN;
   /** arguments of `node`: id, iq, omega, vd, vq, t */
@@ -58,7 +72,6 @@ export class ExactSegment {
   constructor(private readonly plant: Plant, Imax: number) {
     const m = plant.model.linear;
     if (m === null || plant.fluxStates) throw new Error('ExactSegment needs a constant-parameter plant in current states');
-    this.prop = new DqPropagator({ Rs: plant.model.Rs, Ld: m.Ld, Lq: m.Lq, psiM: m.psiM });
     this.pp = plant.model.polePairs;
     this.Rs = plant.model.Rs;
     this.Ld = m.Ld;
@@ -76,6 +89,18 @@ export class ExactSegment {
     this.free = pr.mechanics === 'free';
     this.errMax = 1e-11 * Imax;
     this.rate = Math.max(this.Rs / m.Ld, this.Rs / m.Lq);
+    const a = -this.Rs / m.Ld, d = -this.Rs / m.Lq, S = m.Ld + m.Lq;
+    this.m = 0.5 * (a + d);
+    this.q = 0.5 * (a - d);
+    this.rqd = m.Lq / m.Ld;
+    this.rdq = m.Ld / m.Lq;
+    this.Rs2 = this.Rs * this.Rs;
+    this.iRs = 1 / this.Rs; // Infinity for Rs = 0: every segment then declines (the bound below is not finite)
+    this.S2 = S * S;
+    this.LqS2 = 2 * m.Lq * S;
+    this.LdS2 = 2 * m.Ld * S;
+    this.dL = m.Ld - m.Lq;
+    this.LdLq = m.Ld * m.Lq;
   }
 
   /**
@@ -142,13 +167,36 @@ export class ExactSegment {
       if (aw0 < 20 * this.width + 4 * ag0 * h) return this.no();
     }
     const hh = h * h;
-    const prop = this.prop;
-    prop.setStep(p * (w0 + 0.5 * g0 * h + (gp0 * hh) / 6), h);
-    if (!(prop.errorBound(id0, iq0, vd0, vq0) <= this.errMax)) return this.no();
-    const e = this.end;
-    prop.propagate(id0, iq0, vd0, vq0, e, 0);
-    const id1 = e[0]!, iq1 = e[1]!;
-    const cw = prop.cw, sw = prop.sw;
+    // DqPropagator.setStep, errorBound and propagate written out (no call, no square root): the
+    // series branch |delta h| <= 0.5 (every segment of a carrier period at any sensible speed)
+    const W = p * (w0 + 0.5 * g0 * h + (gp0 * hh) / 6);
+    const q = this.q;
+    const yy = (q * q - W * W) * hh;
+    const wt = W * h;
+    if (!(yy > -0.25 && yy < 0.25 && wt > -0.5 && wt < 0.5)) return this.no();
+    const mh = this.m * h;
+    // e^{m h} by its series below |m h| = 0.05 (truncation below 1e-16), else the library's
+    const E = mh > -0.05 && mh < 0.05 ? 1 + mh * (1 + mh * (0.5 + mh * (1 / 6 + mh * (1 / 24 + mh * (1 / 120 + mh * (1 / 720 + mh / 5040)))))) : Math.exp(mh);
+    let EC: number, ES: number;
+    if (yy >= 0) { EC = E * coshSL(yy); ES = E * h * sinhcSL(yy); } else { EC = E * cosSL(-yy); ES = E * h * sincSL(-yy); }
+    const p11 = EC + ES * q, p12 = ES * W * this.rqd, p21 = -ES * W * this.rdq, p22 = EC - ES * q;
+    const wt2 = wt * wt;
+    const cw = cosSL(wt2), sw = wt * sincSL(wt2);
+    const w2 = W * W, Rs2 = this.Rs2;
+    const iN = 1 / (Rs2 + w2 * this.S2);
+    const iRN = iN * this.iRs;
+    const k1r = (Rs2 + w2 * this.LqS2) * iRN, k1i = W * this.dL * iN;
+    const k2r = -k1i, k2i = -(Rs2 + w2 * this.LdS2) * iRN;
+    const f = (W * this.psiM) / (Rs2 + w2 * this.LdLq);
+    const xcd = W === 0 ? 0 : -W * this.Lq * f, xcq = W === 0 ? 0 : -this.Rs * f;
+    // the rounding-error bound of DqPropagator.errorBound with 1-norms (at least its 2-norms)
+    const bound = EPS8 * (Math.abs(id0) + Math.abs(iq0) + (Math.abs(k1r) + Math.abs(k1i) + Math.abs(k2r) + Math.abs(k2i)) * (Math.abs(vd0) + Math.abs(vq0)) + Math.abs(xcd) + Math.abs(xcq));
+    if (!(bound <= this.errMax)) return this.no();
+    const x1r = vd0 * k1r - vq0 * k1i, x1i = vd0 * k1i + vq0 * k1r;
+    const x2r = vd0 * k2r - vq0 * k2i, x2i = vd0 * k2i + vq0 * k2r;
+    const zd = id0 - x1r - xcd, zq = iq0 - x2r - xcq;
+    const id1 = p11 * zd + p12 * zq + xcd + x1r * cw + x1i * sw;
+    const iq1 = p21 * zd + p22 * zq + xcq + x2r * cw + x2i * sw;
     ag[0] = id1; ag[1] = iq1; ag[2] = w0 + g0 * h + 0.5 * gp0 * hh; ag[3] = vd0 * cw + vq0 * sw; ag[4] = -vd0 * sw + vq0 * cw; ag[5] = tb;
     this.node();
     const g1 = this.ng, gp1 = this.ngp, P1 = this.np, Pp1 = this.npp;
