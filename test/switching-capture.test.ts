@@ -10,6 +10,7 @@ describe('switching capture', () => {
     for (let k = 0; k < 10; k++) c.t[c.slot()] = k;
     expect(Array.from(c.order(), (j) => c.t[j])).toEqual([3, 4, 5, 6, 7, 8, 9]);
     expect(new SwitchingCapture(1e7, null, 10000).cap).toBe(RECORD_CAPACITY);
+    expect(new SwitchingCapture(1e5, null, 10000).recordFrom).toBeCloseTo(10 - (RECORD_CAPACITY - 2) / 10000, 12);
   });
 
   it('a window keeps its first cap samples then refuses (-1); a ring wraps', () => {

@@ -1,7 +1,7 @@
 /**
  * What the switching model keeps of a run for its result (switching-summary.ts), in typed arrays
  * allocated when the run is set up and written in place during it (nothing allocated per period):
- *   - per carrier period, in a ring of the last `cap` periods: the start time, the electrical angle
+ *   - per carrier period, in a ring of the last `cap` periods (recorded from `recordFrom` on): the start time, the electrical angle
  *     at the start (unwrapped: continuous over the run), phase a's current at the start (the
  *     carrier's valley, where a centred pulse pattern's ripple crosses its mean: what a drive's
  *     current sampling sees), phase a's peak-to-peak ripple, each leg's mean voltage error (actual
@@ -16,7 +16,7 @@
  */
 
 /** Largest number of carrier periods the ring keeps (a few whole fundamental periods at any speed the analysis takes). */
-export const RECORD_CAPACITY = 8192;
+export const RECORD_CAPACITY = 4096;
 /** Largest number of boundary samples a window keeps (at most 14 boundaries per carrier period). */
 export const WINDOW_CAPACITY = 200_000;
 /** Boundary samples the default window's ring keeps. */
@@ -75,6 +75,8 @@ export class SwitchingCapture {
   iaEnd = NaN;
   /** the unwrapped electrical angle the run is at (see SwitchingStepper) */
   thetaRun = NaN;
+  /** the time from which periods are recorded: the ring's span before the run's end (earlier periods could not reach it), s */
+  readonly recordFrom: number;
   readonly window: WindowTrace;
 
   /**
@@ -86,6 +88,7 @@ export class SwitchingCapture {
     const duration = periods / fsw;
     const cap = Math.max(2, Math.min(RECORD_CAPACITY, Math.ceil(periods) + 2));
     this.cap = cap;
+    this.recordFrom = Math.max(0, duration - (cap - 2) / fsw);
     this.t = new Float64Array(cap);
     this.theta = new Float64Array(cap);
     this.ia = new Float64Array(cap);

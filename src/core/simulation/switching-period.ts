@@ -341,6 +341,9 @@ export class SwitchingPeriod {
       c = Math.cos(y[3]!);
       s = Math.sin(y[3]!);
     }
+    // the rotation handed to the exact segment that starts here (it needs the same cos and sin)
+    const ex = this.exact;
+    if (ex !== null) { const r = ex.rot; r[0] = y[3]!; r[1] = c; r[2] = s; }
     const ial = id * c - iq * s;
     const ibe = id * s + iq * c;
     const iph = this.iph;

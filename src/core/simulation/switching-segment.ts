@@ -34,6 +34,8 @@ const EPS8 = 8 * 2.220446049250313e-16;
 export class ExactSegment {
   /** the segment [span[0], span[1]] the next `step` integrates, s (doubles cross the call unboxed) */
   readonly span = new Float64Array(2);
+  /** the angle and its cos and sin the caller last computed (the start's rotation when the angle is the start's) */
+  readonly rot = new Float64Array(3).fill(NaN);
   /** segments the closed form declined */
   fallbacks = 0;
   private readonly pp: number;
@@ -146,8 +148,12 @@ export class ExactSegment {
     if ((p * aw0 > this.rate ? p * aw0 : this.rate) * h > MAX_ANGLE) return this.no();
     // the rotation at the start from the plant's angle origin (as the plant's derivative does)
     const d = th0 - plant.th0;
+    const rot = this.rot;
     let c: number, s: number;
-    if (d > -0.5 && d < 0.5) {
+    if (rot[0] === th0) {
+      c = rot[1]!;
+      s = rot[2]!;
+    } else if (d > -0.5 && d < 0.5) {
       const sd = sinSmallL(d), cd = cosSmallL(d);
       c = plant.c0 * cd - plant.s0 * sd;
       s = plant.s0 * cd + plant.c0 * sd;

@@ -29,6 +29,8 @@ export class SwitchingStepper extends Stepper {
   readonly capture: SwitchingCapture | null;
   /** the angle at the start of the carrier period in progress (unwrapped) */
   private thStart = NaN;
+  /** the carrier period in progress is being recorded */
+  private open = false;
   constructor(plant: Plant, Ts: number, inner: Stepper, private readonly spec: PwmSpec, exact: ExactSegment | null = null, capture: SwitchingCapture | null = null) {
     super(plant, Ts);
     this.bridge = new SwitchingPeriod(plant, inner, spec, exact);
@@ -46,26 +48,27 @@ export class SwitchingStepper extends Stepper {
     let whole = true; // a carrier period ends with this control period
     if (this.spec.updatesPerPeriod === 1) {
       const tm = 0.5 * (t0 + t1);
-      if (cap !== null) this.startPeriod(th0);
+      if (cap !== null) this.startPeriod(cap, th0, t0);
       this.bridge.half(y, t0, tm, d, true, false); // the zero state about the peak stays one segment
       this.bridge.half(y, tm, t1, d, false);
     } else {
       const rising = (Math.round(t0 / this.Ts) & 1) === 0;
-      if (cap !== null && rising) this.startPeriod(th0);
+      if (cap !== null && rising) this.startPeriod(cap, th0, t0);
       this.bridge.half(y, t0, t1, d, rising);
       whole = !rising;
     }
     if (cap !== null) {
       cap.thetaRun += y[3]! - th0;
-      if (whole) this.endPeriod(cap, t1);
+      if (whole && this.open) this.endPeriod(cap, t1);
     }
     u[0] = va;
     u[1] = vb;
   }
 
-  private startPeriod(th0: number): void {
-    const cap = this.capture!;
+  private startPeriod(cap: SwitchingCapture, th0: number, t0: number): void {
     if (Number.isNaN(cap.thetaRun)) cap.thetaRun = th0;
+    this.open = t0 >= cap.recordFrom;
+    if (!this.open) return;
     this.thStart = cap.thetaRun;
     this.bridge.resetProbe();
   }
