@@ -2,8 +2,9 @@
  * Switching-model bench: one second of the traction demo (its speed step plus load step) at 10 kHz
  * control with a 10 kHz carrier (one update per period, min-max SVPWM, dead time 2 µs), against the
  * averaged model in the same process: alternating runs so that load from other processes falls on
- * both alike, the fastest and the median of each. Target (issue 14): the switching model at least
- * 50x real time.
+ * both alike, the fastest and the median of each, and the process's CPU time per run (median and
+ * range: less sensitive to other processes than the wall clock). Target (issue 14): the switching
+ * model at least 50x real time.
  */
 import { readFileSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
