@@ -12,12 +12,65 @@ import type { ResolvedProject } from '../../core/project/project';
 import { peakToRms } from '../../core/base/units';
 import { MAX_TRACE_POINTS } from '../../core/simulation/decimate';
 import { findingLine } from '../../core/reports/phrases';
+import { InputError } from '../../core/base/errors';
+import type { SwitchingResult } from '../../core/simulation/switching-result';
 
 /** The metrics of the JSON document: the keys issue 3 names first, then the rest of the engine's. */
 const JSON_METRICS = [
   'finalSpeed_rpm', 'speedOvershoot_pct', 'riseTime_s', 'settlingTime_s', 'loadStepDip_rpm', 'loadStepRecovery_s',
   'peakCurrent_A', 'rmsCurrent_A', 'voltageSaturation_s', 'energyFromBus_J', 'steadyStateError_rpm',
 ] as const satisfies ReadonlyArray<keyof SimulationResult['metrics']>;
+
+/** A number for the JSON document: null for NaN or an infinity (what the analysis could not give). */
+const num = (x: number): number | null => (Number.isFinite(x) ? x : null);
+const arr = (a: Float64Array): Array<number | null> => Array.from(a, num);
+
+/** The switching model's figures for the JSON document (typed arrays as plain arrays, NaN as null). */
+export function switchingJson(s: SwitchingResult) {
+  const w = s.window;
+  return {
+    fsw_Hz: s.fsw_Hz, deadTime_s: s.deadTime_s, modulation: s.modulation, fundamental_Hz: num(s.fundamental_Hz),
+    ripplePeakToPeak_A: { max: num(s.ripplePeakToPeak_A.max), mean: num(s.ripplePeakToPeak_A.mean) },
+    rippleEnvelope: { angle_rad: arr(s.rippleEnvelope.angle_rad), peakToPeak_A: arr(s.rippleEnvelope.peakToPeak_A) },
+    thd: num(s.thd), thdMaxHarmonic: s.thdMaxHarmonic, harmonics_A: arr(s.harmonics_A),
+    deadTimeVoltageError_V: num(s.deadTimeVoltageError_V),
+    dcLink: { mean_A: num(s.dcLink.mean_A), rms_A: num(s.dcLink.rms_A), rippleRms_A: num(s.dcLink.rippleRms_A) },
+    analysed: { from_s: num(s.analysed.from_s), to_s: num(s.analysed.to_s), cycles: s.analysed.cycles },
+    window: {
+      from_s: num(w.from_s), to_s: num(w.to_s), truncated: w.truncated,
+      t_s: arr(w.t_s), ia_A: arr(w.ia_A), ib_A: arr(w.ib_A), ic_A: arr(w.ic_A), va_V: arr(w.va_V), idc_A: arr(w.idc_A),
+    },
+  };
+}
+
+/** The switching model's window as CSV: one row per segment boundary. */
+export function switchingWindowCsv(s: SwitchingResult): string {
+  const w = s.window;
+  const rows: CsvCell[][] = [['t_s', 'ia_A', 'ib_A', 'ic_A', 'va_V', 'idc_A']];
+  for (let i = 0; i < w.t_s.length; i++) rows.push([w.t_s[i]!, w.ia_A[i]!, w.ib_A[i]!, w.ic_A[i]!, w.va_V[i]!, w.idc_A[i]!]);
+  return csvDocument(rows);
+}
+
+/** The switching summary's text lines. */
+export function switchingLines(s: SwitchingResult): string[] {
+  const f = (x: number, k = 1): string => (Number.isFinite(x) ? fmt(x * k) : '-');
+  const rows: Array<[string, string, string]> = [
+    ['carrier, dead time, modulation', `${fmt(s.fsw_Hz)} Hz, ${fmt(s.deadTime_s * 1e6)} µs, ${s.modulation}`, ''],
+    ['phase current ripple peak to peak (max / mean)', `${f(s.ripplePeakToPeak_A.max)} / ${f(s.ripplePeakToPeak_A.mean)}`, 'A'],
+    [`phase current THD (to harmonic ${s.thdMaxHarmonic})`, f(s.thd, 100), '%'],
+    ['dead-time voltage error (fundamental)', f(s.deadTimeVoltageError_V), 'V peak'],
+    ['DC-link current mean / rms', `${f(s.dcLink.mean_A)} / ${f(s.dcLink.rms_A)}`, 'A'],
+    ['DC-link ripple current rms (bus capacitor)', f(s.dcLink.rippleRms_A), 'A rms'],
+  ];
+  const a = s.analysed;
+  return [
+    `switching model: over ${a.cycles} whole fundamental period(s) at ${f(s.fundamental_Hz)} Hz, ${f(a.from_s, 1e3)} to ${f(a.to_s, 1e3)} ms` +
+      (a.cycles === 0 ? ' (no whole fundamental period: THD and dead-time error not given)' : ''),
+    ...table(['switching', 'value', 'unit'], rows),
+    `zoom window ${f(s.window.from_s, 1e3)} to ${f(s.window.to_s, 1e3)} ms, ${s.window.t_s.length} samples${s.window.truncated ? ' (cut at its sample bound)' : ''} (--window-csv FILE)`,
+    '',
+  ];
+}
 
 /** The simulate command's JSON document: every metric and trace channel, events, findings, stats. */
 export function simulationJson(r: SimulationResult, findings: Finding[] = [], projectSetup_s?: number) {
@@ -34,6 +87,7 @@ export function simulationJson(r: SimulationResult, findings: Finding[] = [], pr
     events: r.events.map((e) => ({ ...e })),
     findings: findings.map((f) => ({ ...f })),
     diagnostic: r.diagnostic ?? null,
+    ...(r.switching ? { switching: switchingJson(r.switching) } : {}),
     stats: {
       controlSteps: r.stats.controlSteps, rhsEvaluations: r.stats.rhsEvaluations, evaluationsPerPeriod: r.stats.evaluationsPerPeriod, wall_s: r.stats.wall_s,
       // set-up apart from the periods: the project's (tuning, reference table) when given, and the run's own
@@ -61,8 +115,8 @@ export function simulationCsv(r: SimulationResult): string {
 export const simulateCommand: Command = {
   name: 'simulate',
   summary: 'cascade simulation of the scenario: metrics, events, traces',
-  usage: 'simulate <project.json> [--max-points N] [--csv FILE] [--json]',
-  flags: { csv: 'output', 'max-points': 'number' },
+  usage: 'simulate <project.json> [--max-points N] [--csv FILE] [--window-csv FILE] [--json]',
+  flags: { csv: 'output', 'max-points': 'number', 'window-csv': 'output' },
   run(p, args) {
     const t0 = performance.now();
     const setup = simulationFromProject(p);
@@ -70,9 +124,15 @@ export const simulateCommand: Command = {
     // trace length per channel (min/max decimated; the metrics always use every sample), bounded so
     // that memory stays bounded (MAX_TRACE_POINTS)
     const maxPoints = numberFlag(args, 'max-points', { min: 2, max: MAX_TRACE_POINTS, integer: true });
+    if (args.flags.has('window-csv') && setup.pwm?.model !== 'switching') {
+      throw new InputError('--window-csv', 'needs the switching model (control.pwm.model "switching"): the averaged model has no switching window');
+    }
     const r = runSimulation(setup, maxPoints !== undefined ? { maxPoints } : {});
     const { json, lines } = simulationReport(p, setup, r, projectSetup_s);
-    return { json, lines, ...(args.flags.has('csv') ? { files: [{ flag: 'csv', contents: simulationCsv(r) }] } : {}) };
+    const files: Array<{ flag: string; contents: string }> = [];
+    if (args.flags.has('csv')) files.push({ flag: 'csv', contents: simulationCsv(r) });
+    if (args.flags.has('window-csv') && r.switching) files.push({ flag: 'window-csv', contents: switchingWindowCsv(r.switching) });
+    return { json, lines, ...(files.length > 0 ? { files } : {}) };
   },
 };
 
@@ -113,6 +173,7 @@ export function simulationReport(p: ResolvedProject, setup: SimulationSetup, r: 
     ])));
     lines.push('');
   }
+  if (r.switching) lines.push(...switchingLines(r.switching));
   if (r.events.length === 0) lines.push('events: none');
   else {
     lines.push('events:');

@@ -97,7 +97,8 @@ export function runSimulation(setup: AnySetup, opts: RunOptions = {}): Simulatio
   const yi = plant.fluxStates ? new Float64Array(STATE_SIZE) : y;
   if (yi !== y) plant.currentState(y, yi);
   ctrl.reset(y[OMEGA]!, y[THETA]!);
-  const stepper = makeSwitchingStepper(setup, plant, y) ?? makePeriodStepper(setup, plant, y);
+  const sw = makeSwitchingStepper(setup, plant, y);
+  const stepper = sw ?? makePeriodStepper(setup, plant, y);
   const rec = new TraceRecorder(setup, plant.model, plant, ctrl, N, o.maxPoints);
   // the angle and speed the controller sees: the true ones (ideal), else an estimator's
   const est = angleEstimatorFor(setup.angle, plant.model.polePairs);
@@ -207,5 +208,6 @@ export function runSimulation(setup: AnySetup, opts: RunOptions = {}): Simulatio
   stats.wall_s = Math.max(setup_s, budget.elapsed());
   stats.run_s = stats.wall_s - setup_s;
   const peakCurrentAt = log.peakDetail();
-  return { metrics, loadSteps: rec.loadSteps(), traces, events, stats, ...(peakCurrentAt ? { peakCurrentAt } : {}), ...(diagnostic ? { diagnostic } : {}) };
+  const switching = sw?.result() ?? null;
+  return { metrics, loadSteps: rec.loadSteps(), traces, events, stats, ...(peakCurrentAt ? { peakCurrentAt } : {}), ...(diagnostic ? { diagnostic } : {}), ...(switching ? { switching } : {}) };
 }

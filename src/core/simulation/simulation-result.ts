@@ -1,6 +1,7 @@
 /** What a simulation run returns: metrics, decimated traces (channels in TRACE_NAMES order), events, statistics. */
 import type { SimulationEvent } from './simulation-setup';
 import { ANGLE_TRACE_NAMES, type AngleTraceName } from './angle-sensing';
+import type { SwitchingResult } from './switching-result';
 
 export interface SimulationMetrics {
   finalSpeed_rpm: number | null;
@@ -81,4 +82,6 @@ export interface SimulationResult {
   events: SimulationEvent[];
   stats: SimulationStats;
   diagnostic?: string;
+  /** the switching model's figures (present when the run used it: control.pwm.model "switching") */
+  switching?: SwitchingResult;
 }

@@ -31,6 +31,11 @@ export interface SolverOptions {
    * elsewhere (default false: Cash-Karp throughout, the results of before)
    */
   exactPeriods?: boolean;
+  /**
+   * the switching model's segments for a constant-parameter machine: 'exact' (default: the exact
+   * propagator, switching-segment.ts) or 'rk4' (one classical RK4 step each, the reference path)
+   */
+  switchingSegments?: 'exact' | 'rk4';
 }
 
 export const DEFAULT_SOLVER_OPTIONS: Readonly<SolverOptions> = {
