@@ -20,9 +20,8 @@ const tempsJson = (t: Temperatures) => ({ windingTemp_C: t.windingTemp_C, stator
 
 export const overloadCommand: Command = {
   name: 'overload',
-  summary: 'how long an overload torque can be held from a continuous point\'s hot steady state (one point, or a curve against torque)',
-  usage: 'overload <project.json> --speed RPM (--torque NM | --torques N) [--from-speed RPM] [--from-torque NM] [--csv FILE] [--json]\n' +
-    '  start: the coupled steady state of (--from-speed, --from-torque); defaults: the overload speed and half the S1 torque there',
+  summary: 'how long an overload torque can be held from a continuous point\'s hot steady state (default start: half the S1 torque at the overload speed; one point, or a curve against torque)',
+  usage: 'overload <project.json> --speed RPM (--torque NM | --torques N) [--from-speed RPM] [--from-torque NM] [--csv FILE] [--json]',
   flags: { speed: 'number', torque: 'number', torques: 'number', 'from-speed': 'number', 'from-torque': 'number', csv: 'output' },
   run(p, args) {
     const net = thermalOf(p);
