@@ -8,6 +8,9 @@ import { useFormStore, useFormValue } from '../../state/form-store';
 import { num } from '../../components/format';
 import { MODULATION_NAMES } from './switching-figures';
 
+// each option short enough for the narrow column
+const SHORT: Record<string, string> = { sinusoidal: 'sinusoidal', svpwm: 'SVPWM (min-max)', dpwm1: 'DPWM1 (discontinuous)' };
+
 const PWM = 'control.pwm';
 
 function Messages({ path }: { path: string }) {
@@ -21,7 +24,7 @@ function Messages({ path }: { path: string }) {
   );
 }
 
-function PwmNumber({ path, label, unit, placeholder, hint, testId }: { path: string; label: string; unit: string; placeholder: string; hint?: (v: number) => string; testId: string }) {
+function PwmNumber({ path, label, unit, placeholder, hint, emptyHint, testId }: { path: string; label: string; unit: string; placeholder: string; hint?: (v: number) => string; emptyHint?: string; testId: string }) {
   const fid = useId();
   const store = useFormStore();
   const text = useFormValue((d) => textOf(d, path));
@@ -40,6 +43,7 @@ function PwmNumber({ path, label, unit, placeholder, hint, testId }: { path: str
         <span className="unit">{unit}</span>
       </span>
       {hint && text.trim() !== '' && Number.isFinite(v) && <span className="hint">{hint(v)}</span>}
+      {emptyHint && text.trim() === '' && <span className="hint">{emptyHint}</span>}
       <Messages path={path} />
     </div>
   );
@@ -77,7 +81,7 @@ export function PwmControl() {
       </div>
       {model === 'switching' && (
         <>
-          <PwmNumber path={`${PWM}.fsw_Hz`} label="carrier frequency" unit="Hz" testId="pwm-fsw" placeholder={typeof fCtrl === 'number' ? `${fCtrl} (control rate)` : 'control rate'} hint={(v) => `= ${num(v / 1e3)} kHz; control rate its 1 or 2 times`} />
+          <PwmNumber path={`${PWM}.fsw_Hz`} label="carrier frequency" unit="Hz" testId="pwm-fsw" placeholder={typeof fCtrl === 'number' ? String(fCtrl) : ''} emptyHint="empty: the control rate" hint={(v) => `= ${num(v / 1e3)} kHz (the control rate must be 1 or 2 times it)`} />
           <PwmNumber path={`${PWM}.deadTime_s`} label="dead time" unit="s" testId="pwm-dead-time" placeholder="0" hint={(v) => `= ${num(v * 1e6)} µs`} />
           <div className="field">
             <label className="label" htmlFor="pwm-modulation">modulation</label>
@@ -88,9 +92,9 @@ export function PwmControl() {
                   store.update((d) => editValue(d, `${PWM}.modulation`, v === '' ? undefined : v));
                 }}
               >
-                <option value="">the inverter's ({MODULATION_NAMES[fromInverter]})</option>
-                {Object.entries(MODULATION_NAMES).map(([k, label]) => (
-                  <option key={k} value={k}>{label}</option>
+                <option value="">inverter's: {fromInverter === 'svpwm' ? 'SVPWM' : 'sinusoidal'}</option>
+                {Object.keys(MODULATION_NAMES).map((k) => (
+                  <option key={k} value={k} title={MODULATION_NAMES[k]}>{SHORT[k] ?? k}</option>
                 ))}
               </select>
             </span>

@@ -10,7 +10,7 @@ import { exportPlotImage } from '../../components/image-export';
 import { num } from '../../components/format';
 import { useExporter } from '../../state/exporter';
 import type { SimDone } from '../../state/simulation-run';
-import { overlayFigure, rippleEnvelopeFigure, rippleWindowFigure, spectrumFigure, switchingConditions, switchingSummary, switchingWindowCsv } from './switching-figures';
+import { overlayFigure, rippleEnvelopeFigure, rippleWindowFigure, spectrumFigure, switchingConditions, switchingSummary, switchingWindowCsv, windowZoom, type WindowZoom } from './switching-figures';
 
 type Which = 'window' | 'envelope' | 'spectrum' | 'overlay';
 
@@ -26,10 +26,11 @@ function Exports({ save, which }: { save: (w: Which, f: 'png' | 'svg') => void; 
 export function SwitchingPanel({ result, project, theme }: { result: SimDone; project: ResolvedProject; theme: 'light' | 'dark' }) {
   const exporter = useExporter();
   const [log, setLog] = useState(true);
+  const [zoom, setZoom] = useState<WindowZoom>('window');
   const s = result.switching;
   const avg = result.averaged;
   const col = CURVE[theme];
-  const win = useMemo(() => (s ? rippleWindowFigure(s, readTheme(), col) : null), [s, col]);
+  const win = useMemo(() => (s ? rippleWindowFigure(s, readTheme(), col, windowZoom(s, zoom)) : null), [s, col, zoom]);
   const env = useMemo(() => (s ? rippleEnvelopeFigure(s, readTheme(), col) : null), [s, col]);
   const spec = useMemo(() => (s ? spectrumFigure(s, log, readTheme(), col) : null), [s, log, col]);
   const over = useMemo(() => (avg ? overlayFigure(avg, result, readTheme(), col) : null), [avg, result, col]);
@@ -39,12 +40,12 @@ export function SwitchingPanel({ result, project, theme }: { result: SimDone; pr
   const save = (which: Which, format: 'png' | 'svg') => {
     const el = els.current[which];
     const what = {
-      window: `${cond}: phase currents, applied phase voltage and DC-link current at full resolution, ${span}`,
-      envelope: `${cond}: phase-current ripple over the fundamental`,
-      spectrum: `${cond}: phase-current spectrum, THD ${s ? num(s.thd * 100, 3) : '–'} %`,
-      overlay: `${cond}: averaged and switching runs overlaid`,
+      window: `ripple window, ${span}`,
+      envelope: 'phase-current ripple over the fundamental',
+      spectrum: `phase-current spectrum, THD ${s ? num(s.thd * 100, 3) : '–'} %`,
+      overlay: 'averaged and switching runs overlaid',
     }[which];
-    if (el) void exportPlotImage(el, format, `switching-${which}`, project, exporter, what);
+    if (el) void exportPlotImage(el, format, `switching-${which}`, project, exporter, what, [`${cond}; load-step scenario of the project`]);
   };
   const saveCsv = () => {
     if (!s) return;
@@ -70,6 +71,11 @@ export function SwitchingPanel({ result, project, theme }: { result: SimDone; pr
           <div className="card">
             <h4>
               Ripple window — {span}
+              <select className="no-print" style={{ marginLeft: 10, fontWeight: 400 }} value={zoom} onChange={(e) => setZoom(e.target.value as WindowZoom)} data-testid="sw-zoom" title="drag on the plot to zoom further; double-click to reset">
+                <option value="window">whole window</option>
+                <option value="peak">4 carrier periods at ia's peak</option>
+                <option value="zero">4 carrier periods at ia's zero crossing</option>
+              </select>
               <Exports save={save} which="window" />
               <button className="btn small no-print" style={{ marginLeft: 4 }} onClick={saveCsv} data-testid="sw-csv">CSV</button>
             </h4>

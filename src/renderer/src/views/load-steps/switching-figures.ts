@@ -31,7 +31,7 @@ const stack = (rows: number, i: number, gap = 0.06): [number, number] => {
  * current runs between switching instants), the applied phase voltage va and the DC-link current idc
  * (each held from its boundary to the next), on one time axis in ms.
  */
-export function rippleWindowFigure(s: SwitchingResult, t: PlotTheme, col: CurveColours): Figure {
+export function rippleWindowFigure(s: SwitchingResult, t: PlotTheme, col: CurveColours, range_ms?: [number, number] | null): Figure {
   const w = s.window;
   const x = Array.from(w.t_s, (v) => v * 1e3);
   const tr = (y: Float64Array, name: string, yaxis: string, colour: string, shape: 'linear' | 'hv', width = 1.2): Data =>
@@ -40,19 +40,43 @@ export function rippleWindowFigure(s: SwitchingResult, t: PlotTheme, col: CurveC
     tr(w.ia_A, 'ia', 'y', col.a, 'linear', 1.5),
     tr(w.ib_A, 'ib', 'y', col.b, 'linear'),
     tr(w.ic_A, 'ic', 'y', col.c, 'linear'),
-    tr(w.va_V, 'va (applied, phase to neutral)', 'y2', col.volt, 'hv'),
+    tr(w.va_V, 'va (applied, phase to neutral)', 'y2', col.mtpv, 'hv'),
     tr(w.idc_A, 'idc (DC link)', 'y3', col.load, 'hv'),
   ];
   const layout = baseLayout(t, {
     margin: { l: 70, r: 16, t: 10, b: 44 },
     hovermode: 'x',
     legend: { orientation: 'h', x: 0, y: 1.06, yanchor: 'bottom', font: { size: 11 } },
-    xaxis: axis(t, 'time, ms', { anchor: 'y3', range: [x[0] ?? 0, x[x.length - 1] ?? 1] }),
+    xaxis: axis(t, 'time, ms', { anchor: 'y3', range: range_ms ?? [x[0] ?? 0, x[x.length - 1] ?? 1] }),
     yaxis: axis(t, 'ia, ib, ic, A', { domain: stack(3, 0) }),
     yaxis2: axis(t, 'va, V', { domain: stack(3, 1) }),
     yaxis3: axis(t, 'idc, A', { domain: stack(3, 2) }),
   } as Layout);
   return { data, layout };
+}
+
+/** Where the ripple window may zoom: the whole window, or a few carrier periods at ia's peak or at its zero crossing. */
+export type WindowZoom = 'window' | 'peak' | 'zero';
+
+/**
+ * The time range (ms) of `periods` carrier periods centred on ia's largest sample (`peak`) or on its
+ * first rising zero crossing (`zero`) in the window; null for the whole window.
+ */
+export function windowZoom(s: SwitchingResult, at: WindowZoom, periods = 4): [number, number] | null {
+  const { t_s: t, ia_A: ia } = s.window;
+  if (at === 'window' || t.length < 2) return null;
+  let k = 0;
+  if (at === 'peak') {
+    for (let j = 1; j < ia.length; j++) if (ia[j]! > ia[k]!) k = j;
+  } else {
+    k = -1;
+    for (let j = 1; j < ia.length && k < 0; j++) if (ia[j - 1]! < 0 && ia[j]! >= 0) k = j;
+    if (k < 0) return null;
+  }
+  const half = (periods / 2 / s.fsw_Hz) * 1e3;
+  const lo = t[0]! * 1e3, hi = t[t.length - 1]! * 1e3;
+  const c = Math.min(Math.max(t[k]! * 1e3, lo + half), hi - half);
+  return [Math.max(lo, c - half), Math.min(hi, c + half)];
 }
 
 /** The ripple's peak-to-peak envelope over one fundamental period, against the electrical angle in degrees. */
@@ -76,13 +100,6 @@ export function rippleEnvelopeFigure(s: SwitchingResult, t: PlotTheme, col: Curv
     yaxis: axis(t, 'ia ripple, A peak to peak', { rangemode: 'tozero' }),
   } as Layout);
   return { data, layout };
-}
-
-/** THD from the harmonic amplitudes (index = order, A peak): sqrt(sum of the squares of orders 2..) / the fundamental. */
-export function thdOf(h: ArrayLike<number>): number {
-  let s = 0;
-  for (let k = 2; k < h.length; k++) s += h[k]! * h[k]!;
-  return h.length > 1 && h[1]! > 0 ? Math.sqrt(s) / h[1]! : NaN;
 }
 
 /**
@@ -118,7 +135,7 @@ export function spectrumFigure(s: SwitchingResult, log: boolean, t: PlotTheme, c
 
 /**
  * The averaged and the switching runs overlaid on one time axis: speed (rpm) and the dq currents
- * (A peak), the averaged run dashed under the switching one (both decimated as the runs record them).
+ * (A peak), the averaged run dashed over the switching one (both decimated as the runs record them).
  */
 export function overlayFigure(avg: SimDone, sw: SimDone, t: PlotTheme, col: CurveColours): Figure {
   const data: Data[] = [];
@@ -127,12 +144,13 @@ export function overlayFigure(avg: SimDone, sw: SimDone, t: PlotTheme, col: Curv
     if (!y) return;
     data.push({ type: 'scatter', mode: 'lines', x: r.traces.t_s, y, name, yaxis, line: { color: colour, dash, width }, hovertemplate: `${name}: %{y:.4g}<extra>%{x:.4f} s</extra>` } as Data);
   };
-  line(avg, 'speed_rpm', 'speed, averaged', 'y', col.ref, 'dash', 2);
-  line(sw, 'speed_rpm', 'speed, switching', 'y', col.cold, 'solid', 1.3);
-  line(avg, 'iq_A', 'iq, averaged', 'y2', col.ref, 'dash', 2);
-  line(sw, 'iq_A', 'iq, switching', 'y2', col.iq, 'solid', 1.1);
-  line(avg, 'id_A', 'id, averaged', 'y2', col.load, 'dash', 2);
-  line(sw, 'id_A', 'id, switching', 'y2', col.id, 'solid', 1.1);
+  // the switching run under, the averaged run dashed over it: where they agree both stay visible
+  line(sw, 'speed_rpm', 'speed, switching', 'y', col.cold, 'solid', 2.2);
+  line(avg, 'speed_rpm', 'speed, averaged', 'y', col.ref, 'dash', 1.4);
+  line(sw, 'iq_A', 'iq, switching', 'y2', col.iq, 'solid', 1.8);
+  line(avg, 'iq_A', 'iq, averaged', 'y2', col.ref, 'dash', 1.4);
+  line(sw, 'id_A', 'id, switching', 'y2', col.id, 'solid', 1.8);
+  line(avg, 'id_A', 'id, averaged', 'y2', col.load, 'dash', 1.4);
   const x = sw.traces.t_s;
   const layout = baseLayout(t, {
     margin: { l: 70, r: 16, t: 10, b: 44 },
