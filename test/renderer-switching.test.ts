@@ -22,7 +22,7 @@ const s = switchingResultFixture();
 type Tr = { type?: string; name?: string; x: number[]; y: number[]; yaxis?: string; line?: { shape?: string; dash?: string }; marker?: { color?: string[] } };
 
 describe('the ripple window', () => {
-  it('draws every sample of the window: ia, ib, ic straight between samples, va and idc held, time in ms', () => {
+  it('draws every sample of the window: ia, ib, ic straight between samples, va and idc held over the segment ending at each, time in ms', () => {
     // common practice (no source): a switched voltage is piecewise constant between switching instants, the inductor current continuous
     const d = rippleWindowFigure(s, theme, col).data as unknown as Tr[];
     expect(d.map((t) => t.name)).toEqual(['ia', 'ib', 'ic', 'va (applied, phase to neutral)', 'idc (DC link)']);
@@ -33,7 +33,7 @@ describe('the ripple window', () => {
     expect(d[3]!.y[4321]).toBe(s.window.va_V[4321]);
     expect(d[4]!.y[77]).toBe(s.window.idc_A[77]);
     expect(d.slice(0, 3).map((t) => [t.yaxis, t.line!.shape])).toEqual([['y', 'linear'], ['y', 'linear'], ['y', 'linear']]);
-    expect(d.slice(3).map((t) => [t.yaxis, t.line!.shape])).toEqual([['y2', 'hv'], ['y3', 'hv']]);
+    expect(d.slice(3).map((t) => [t.yaxis, t.line!.shape])).toEqual([['y2', 'vh'], ['y3', 'vh']]);
   });
 
   it('zooms to four carrier periods at ia\'s peak or its rising zero crossing, inside the window', () => {

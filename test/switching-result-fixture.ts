@@ -32,6 +32,8 @@ export function switchingResultFixture(o: FixtureOptions = {}): SwitchingResult 
   const dt = span / (n - 1);
   const t = new Float64Array(n), ia = new Float64Array(n), ib = new Float64Array(n), ic = new Float64Array(n), va = new Float64Array(n), idc = new Float64Array(n);
   const r = [0, 0, 0];
+  // the voltage and DC-link current over the interval ending at each sample (the state set at the sample before)
+  let vaPrev = 0, idcPrev = 0;
   const shift = [0, (-2 * Math.PI) / 3, (2 * Math.PI) / 3];
   for (let j = 0; j < n; j++) {
     const tj = from + j * dt;
@@ -51,8 +53,10 @@ export function switchingResultFixture(o: FixtureOptions = {}): SwitchingResult 
     ia[j] = i[0]!;
     ib[j] = i[1]!;
     ic[j] = i[2]!;
-    va[j] = vph[0]!;
-    idc[j] = s[0]! * i[0]! + s[1]! * i[1]! + s[2]! * i[2]!;
+    va[j] = vaPrev;
+    idc[j] = idcPrev;
+    vaPrev = vph[0]!;
+    idcPrev = s[0]! * i[0]! + s[1]! * i[1]! + s[2]! * i[2]!;
   }
   // harmonic amplitudes of ia over the whole fundamental periods (index = order)
   const harmonics = new Float64Array(H + 1);
@@ -87,7 +91,7 @@ export function switchingResultFixture(o: FixtureOptions = {}): SwitchingResult 
     envPp[b] = Math.max(envPp[b]!, pp[p]!);
   }
   let s1 = 0, s2 = 0;
-  for (let j = 0; j < n - 1; j++) {
+  for (let j = 1; j < n; j++) {
     s1 += idc[j]!;
     s2 += idc[j]! ** 2;
   }

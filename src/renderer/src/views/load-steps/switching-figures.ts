@@ -29,19 +29,20 @@ const stack = (rows: number, i: number, gap = 0.06): [number, number] => {
 /**
  * The ripple window: phase currents ia, ib, ic at every segment boundary (straight between them, as the
  * current runs between switching instants), the applied phase voltage va and the DC-link current idc
- * (each held from its boundary to the next), on one time axis in ms.
+ * (each the value over the segment ending at its boundary: drawn as steps, vertical first), on one
+ * time axis in ms; `range_ms` the part shown (the whole window when absent).
  */
 export function rippleWindowFigure(s: SwitchingResult, t: PlotTheme, col: CurveColours, range_ms?: [number, number] | null): Figure {
   const w = s.window;
   const x = Array.from(w.t_s, (v) => v * 1e3);
-  const tr = (y: Float64Array, name: string, yaxis: string, colour: string, shape: 'linear' | 'hv', width = 1.2): Data =>
+  const tr = (y: Float64Array, name: string, yaxis: string, colour: string, shape: 'linear' | 'vh', width = 1.2): Data =>
     ({ type: 'scatter', mode: 'lines', x, y: Array.from(y), name, yaxis, line: { color: colour, width, shape }, hovertemplate: `${name}: %{y:.4g}<extra>%{x:.4f} ms</extra>` }) as Data;
   const data: Data[] = [
     tr(w.ia_A, 'ia', 'y', col.a, 'linear', 1.5),
     tr(w.ib_A, 'ib', 'y', col.b, 'linear'),
     tr(w.ic_A, 'ic', 'y', col.c, 'linear'),
-    tr(w.va_V, 'va (applied, phase to neutral)', 'y2', col.mtpv, 'hv'),
-    tr(w.idc_A, 'idc (DC link)', 'y3', col.load, 'hv'),
+    tr(w.va_V, 'va (applied, phase to neutral)', 'y2', col.mtpv, 'vh'),
+    tr(w.idc_A, 'idc (DC link)', 'y3', col.load, 'vh'),
   ];
   const layout = baseLayout(t, {
     margin: { l: 70, r: 16, t: 10, b: 44 },
