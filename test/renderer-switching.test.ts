@@ -87,6 +87,12 @@ describe('the spectrum', () => {
     expect(bars.x.slice(0, 3)).toEqual([1, 3, 5]);
     expect((f.layout.yaxis as { type?: string }).type).toBe('log');
   });
+
+  it('says so when no whole fundamental period was analysed (THD NaN)', () => {
+    const f = spectrumFigure({ ...s, thd: NaN }, false, theme, col);
+    expect((f.layout.title as { text: string }).text).toBe('ia spectrum: no whole fundamental period analysed');
+    expect(switchingSummary({ ...s, thd: NaN }).find((r) => r.key === 'thd')!.text).toBe('–');
+  });
 });
 
 describe('the summary and the CSV', () => {

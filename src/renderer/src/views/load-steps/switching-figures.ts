@@ -127,7 +127,7 @@ export function spectrumFigure(s: SwitchingResult, log: boolean, t: PlotTheme, c
     margin: { l: 70, r: 16, t: 30, b: 44 },
     showlegend: false,
     bargap: 0.25,
-    title: { text: `ia spectrum: THD ${num(s.thd * 100, 3)} % (orders 2 to ${s.thdMaxHarmonic})`, font: { size: 12 }, x: 0.01, xanchor: 'left' },
+    title: { text: Number.isFinite(s.thd) ? `ia spectrum: THD ${num(s.thd * 100, 3)} % (orders 2 to ${s.thdMaxHarmonic})` : 'ia spectrum: no whole fundamental period analysed', font: { size: 12 }, x: 0.01, xanchor: 'left' },
     xaxis: axis(t, 'harmonic order (of the fundamental)', { range: [0.4, n + 0.6] }),
     yaxis: axis(t, 'amplitude, A peak', log ? { type: 'log' } : { rangemode: 'tozero' }),
   } as Layout);
@@ -169,7 +169,7 @@ export function switchingSummary(s: SwitchingResult): Array<{ key: string; label
   const rows = [
     { key: 'rippleMax', label: 'phase-current ripple, largest (peak to peak per carrier period)', value: s.ripplePeakToPeak_A.max, text: `${num(s.ripplePeakToPeak_A.max, 3)} A` },
     { key: 'rippleMean', label: 'phase-current ripple, mean over the fundamental', value: s.ripplePeakToPeak_A.mean, text: `${num(s.ripplePeakToPeak_A.mean, 3)} A` },
-    { key: 'thd', label: `THD of the phase current (orders 2 to ${s.thdMaxHarmonic})`, value: s.thd, text: `${num(s.thd * 100, 3)} %` },
+    { key: 'thd', label: `THD of the phase current (orders 2 to ${s.thdMaxHarmonic})`, value: s.thd, text: Number.isFinite(s.thd) ? `${num(s.thd * 100, 3)} %` : '–' },
     { key: 'deadTime', label: 'fundamental voltage lost to dead time and device drop', value: s.deadTimeVoltageError_V, text: `${num(s.deadTimeVoltageError_V, 3)} V peak (phase)` },
     { key: 'dcMean', label: 'DC-link current, mean', value: s.dcLink.mean_A, text: `${num(s.dcLink.mean_A, 3)} A` },
     { key: 'dcRms', label: 'DC-link current, rms', value: s.dcLink.rms_A, text: `${num(s.dcLink.rms_A, 3)} A rms` },
