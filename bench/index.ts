@@ -15,13 +15,15 @@ import { dutyCycleBench } from './duty-cycle';
 import { againstCheckout } from './against-checkout';
 import { continuousTorqueBench, peakDurationBench } from './continuous-torque';
 import { toleranceSampleBench } from './tolerance-sample';
+import { sensorlessBench } from './sensorless';
+import { angleSourcesBench } from './angle-sources';
 
 export interface BenchSection {
   name: string;
   run: () => void | Promise<void>;
 }
 
-const sections: BenchSection[] = [envelopeBench, fluxMapEnvelopeBench, simulateBench, simulateMapBench, switchingBench, cliStartBench, efficiencyMapBench, cliEfficiencyThreadsBench, continuousTorqueBench, peakDurationBench, dutyCycleBench, toleranceSampleBench];
+const sections: BenchSection[] = [envelopeBench, fluxMapEnvelopeBench, simulateBench, simulateMapBench, switchingBench, cliStartBench, efficiencyMapBench, cliEfficiencyThreadsBench, continuousTorqueBench, peakDurationBench, dutyCycleBench, toleranceSampleBench, sensorlessBench, angleSourcesBench];
 
 const argv = process.argv.slice(2);
 const onlyAt = argv.indexOf('--only');

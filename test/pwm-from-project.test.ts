@@ -18,6 +18,12 @@ describe('pwmFromProject', () => {
     const two = pwmFromProject(p, { ...control, pwm: { model: 'switching', fsw_Hz: 5000, deadTime_s: 1e-6, modulation: 'dpwm1', deviceDrop: 0 } });
     expect([two.model, two.fsw_Hz, two.updatesPerPeriod, two.deadTime_s, two.modulation, two.deviceDrop_V]).toEqual(['switching', 5000, 2, 1e-6, 'dpwm1', 0]);
   });
+  it('the zoom window from control.pwm.window_s (absent: no window, the default of the last two fundamental periods)', () => {
+    const p = traction();
+    const control = p.file.control!;
+    expect(pwmFromProject(p, { ...control, pwm: { model: 'switching', deadTime_s: 0, window_s: { from: 0.5, to: 0.51 } } }).window).toEqual({ from_s: 0.5, to_s: 0.51 });
+    expect(pwmFromProject(p, { ...control, pwm: { model: 'switching', deadTime_s: 0 } })).not.toHaveProperty('window');
+  });
   it('modulation from inverter.modulation: "sinusoidal" stays, "six-step" gives min-max "svpwm"', () => {
     for (const [inv, pwm] of [['sinusoidal', 'sinusoidal'], ['six-step', 'svpwm']] as const) {
       const j = demoJson('demo-ipm-traction');

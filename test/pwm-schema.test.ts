@@ -33,4 +33,11 @@ describe('control.pwm', () => {
     expect(messageOf(() => parseProject(minimal({ dead_time: 1 })))).toMatch(/control\.pwm/);
     expect(checkProject(minimal({ fsw_Hz: 5000, model: 'switching' }))).toEqual([]);
   });
+  it('window_s {from, to}: optional, the end after the start, every key documented', () => {
+    expect(parseProject(minimal({ model: 'switching', window_s: { from: 0.1, to: 0.12 } })).control?.pwm?.window_s).toEqual({ from: 0.1, to: 0.12 });
+    expect(messageOf(() => parseProject(minimal({ window_s: { from: 0.2, to: 0.1 } })))).toBe('control.pwm.window_s.to must be > control.pwm.window_s.from (0.2 s)');
+    expect(messageOf(() => parseProject(minimal({ window_s: { from: -1, to: 0.1 } })))).toMatch(/^control\.pwm\.window_s\.from must be >= 0/);
+    expect(messageOf(() => parseProject(minimal({ window_s: { from: 0, to: 0.1, step: 1 } })))).toMatch(/control\.pwm\.window_s/);
+    for (const k of ['control.pwm.window_s', 'control.pwm.window_s.from', 'control.pwm.window_s.to']) expect(KEYS[k]?.doc.length).toBeGreaterThan(10);
+  });
 });

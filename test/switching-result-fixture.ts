@@ -108,7 +108,8 @@ export function switchingResultFixture(o: FixtureOptions = {}): SwitchingResult 
     // the dead-time loss of the fundamental (Murai, Watanabe and Iwasaki 1987): (4/pi) Vdc td fsw
     deadTimeVoltageError_V: (4 / Math.PI) * Vdc * td * fsw,
     dcLink: { mean_A: mean, rms_A: rms, rippleRms_A: Math.sqrt(Math.max(0, rms * rms - mean * mean)) },
-    window: { from_s: from, to_s: from + span, t_s: t, ia_A: ia, ib_A: ib, ic_A: ic, va_V: va, idc_A: idc },
-    analysed: { from_s: from, to_s: from + span },
+    window: { from_s: from, to_s: from + span, truncated: false, t_s: t, ia_A: ia, ib_A: ib, ic_A: ic, va_V: va, idc_A: idc },
+    analysed: { from_s: from, to_s: from + span, cycles },
+    fundamental_Hz: f1,
   };
 }

@@ -57,6 +57,24 @@ describe('switching stepper', () => {
     }
   });
 
+  it('the exact segments (the default for a constant-parameter machine) stay within 1e-6 Imax of one RK4 step per segment over a whole run: traction demo, speed step and load step, 0.7 s, dead time 2 µs, every segment boundary compared (common practice, no source)', () => {
+    const s = simulationFromProject(traction(), { control: { pwm: { model: 'switching', deadTime_s: 2e-6, window_s: { from: 0, to: 0.7 } } }, scenario: { duration_s: 0.7 } });
+    const a = runSimulation(s);
+    const b = runSimulation({ ...s, solver: { ...s.solver, switchingSegments: 'rk4' } });
+    expect(a.stats.evaluationsPerPeriod).toBeLessThan(b.stats.evaluationsPerPeriod); // two node evaluations per segment against four
+    const wa = a.switching!.window, wb = b.switching!.window;
+    expect(wa.t_s.length).toBe(wb.t_s.length);
+    expect(wa.t_s.length).toBeGreaterThan(7 * 7000 * 0.9); // every boundary of 7000 carrier periods
+    let e = 0, big = 0;
+    for (let i = 0; i < wa.t_s.length; i++) {
+      for (const k of ['ia_A', 'ib_A', 'ic_A'] as const) { e = Math.max(e, Math.abs(wa[k][i]! - wb[k][i]!)); big = Math.max(big, Math.abs(wb[k][i]!)); }
+    }
+    expect(big).toBeGreaterThan(300);
+    expect(e).toBeLessThan(1e-6 * s.Imax);
+    expect(Math.abs(a.metrics.finalSpeed_rpm! - b.metrics.finalSpeed_rpm!)).toBeLessThan(1e-4);
+    expect(Math.abs(a.metrics.energyFromBus_J! / b.metrics.energyFromBus_J! - 1)).toBeLessThan(1e-6);
+  });
+
   it('puts the controller\'s command back into the plant\'s input after the period', () => {
     const s = simulationFromProject(traction(), { control: { pwm: { model: 'switching', deadTime_s: 1e-6 } } });
     const plant = new Plant(s.plant);

@@ -7,6 +7,7 @@ import { checkProject, parseProject } from '../src/core/project/schema';
 import { allowedTolerancePaths, TOLERANCE_PATHS } from '../src/core/project/tolerance-schema';
 import { loadProject } from '../src/core/project/project';
 import { linearSpm } from './tolerance-fixtures';
+import { toleranceParameters } from '../src/core/project/tolerance-apply';
 
 describe('tolerances section', () => {
   it('takes percent and absolute bands and fills the Monte Carlo defaults', () => {
@@ -23,11 +24,17 @@ describe('tolerances section', () => {
     expect(p[0]!.message).toContain('is not a parameter a tolerance may name (allowed: motor.Rs, motor.psiM');
   });
 
-  it('refuses a parameter this file does not have (a nameplate term on a motor section), listing what it may name', () => {
-    const p = checkProject(linearSpm({ 'nameplate.Ke': { minus_pct: 5, plus_pct: 5 } }));
-    expect(p).toEqual([{ path: 'tolerances.nameplate.Ke', message: 'names a parameter this file does not have (allowed for this file: motor.Rs, motor.psiM, motor.Ld, motor.Lq, inverter.Vdc, inverter.Imax)' }]);
-    // no thermal section: no coolant band
-    expect(checkProject(linearSpm({ 'thermal.coolantTemp_C': { min: 20, max: 40 } }))[0]!.path).toBe('tolerances.thermal.coolantTemp_C');
+  it('a parameter this file does not have (a nameplate term on a motor section) is a warning naming it and what it may name, and is left out of the study', () => {
+    const j = linearSpm({ 'nameplate.Ke': { minus_pct: 5, plus_pct: 5 }, 'motor.psiM': { minus_pct: 5, plus_pct: 5 } });
+    expect(checkProject(j)).toEqual([]);
+    const { resolved } = loadProject(JSON.stringify(j));
+    const f = resolved!.findings.filter((x) => x.code === 'tolerance-band-unused');
+    expect(f).toEqual([{ code: 'tolerance-band-unused', severity: 'warning', field: 'tolerances.nameplate.Ke',
+      message: 'tolerances.nameplate.Ke names a parameter this file does not have, so corners and samples leave it out (allowed for this file: motor.Rs, motor.psiM, motor.Ld, motor.Lq, inverter.Vdc, inverter.Imax).' }]);
+    expect(toleranceParameters(parseProject(j)).map((q) => q.path)).toEqual(['motor.psiM']);
+    // no thermal section: a coolant band is said unused too
+    const { resolved: r2 } = loadProject(JSON.stringify(linearSpm({ 'thermal.coolantTemp_C': { min: 20, max: 40 } })));
+    expect(r2!.findings.find((x) => x.code === 'tolerance-band-unused')?.field).toBe('tolerances.thermal.coolantTemp_C');
   });
 
   it('refuses a band with min above max, a negative percent, and bad Monte Carlo settings, each at its path', () => {

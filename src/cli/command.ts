@@ -23,6 +23,10 @@ export interface CommandInput {
   projectText: string;
   /** the text of the file named by option `flag` (a regular file, at most the project size limit, UTF-8); an InputError naming the option otherwise */
   readFile(flag: string): Promise<string>;
+  /** the project file's path as given on the command line */
+  projectPath?: string;
+  /** a command with `moreFiles`: the further project files named after the first, each path and text as read */
+  moreFiles?: Array<{ path: string; text: string }>;
 }
 
 export interface Command {
@@ -30,5 +34,7 @@ export interface Command {
   summary: string;
   usage: string;
   flags: FlagSpec;
+  /** the command takes further project files after the first (read as the first is, passed in CommandInput.moreFiles) */
+  moreFiles?: boolean;
   run(project: ResolvedProject, args: ParsedArgs, input?: CommandInput): CommandResult | Promise<CommandResult>;
 }

@@ -6,6 +6,7 @@ import type { Command } from './command';
 import { isInputError, InputError, problemLines } from '../core/base/errors';
 import { loadProjectText } from '../core/project/project';
 import { COMMANDS } from './commands/registry';
+import { inFile } from './file-refusal';
 import { nodeFs, type FsLayer } from '../node/fs-layer';
 import { ProjectReadError, readProjectText } from '../node/project-file';
 import { checkOutputPaths, writeOutputs } from './output-files';
@@ -62,13 +63,15 @@ export async function main(argv: readonly string[], out: TextSink = process.stdo
     const spec: FlagSpec = { ...cmd.flags, json: 'switch' };
     checkFlags(args, spec);
     if (!args.file) throw new InputError('project file', `is missing: ${cmd.usage}`);
-    if (args.extra.length > 0) throw new InputError('arguments', `'${args.extra[0]}' is not expected after the project file: ${cmd.usage}`);
+    if (args.extra.length > 0 && !cmd.moreFiles) throw new InputError('arguments', `'${args.extra[0]}' is not expected after the project file: ${cmd.usage}`);
     const text = await readProjectFile(args.file, fs);
+    const moreFiles = cmd.moreFiles ? await Promise.all(args.extra.map(async (path) => ({ path, text: await readProjectFile(path, fs) }))) : undefined;
     // output paths are checked before any work: a long run never ends in a refusal to write
     await checkOutputPaths(args, spec, args.file, fs);
-    const project = loadProjectText(text);
+    // a command of several files names the file of a refusal
+    const project = cmd.moreFiles ? inFile(args.file, () => loadProjectText(text)) : loadProjectText(text);
     if (project.readOnly) err.write(`torquewise: note: ${visible(project.findings.find((f) => f.code === 'newer-format')?.message ?? 'the file is of a newer format version and is read here read-only')}\n`);
-    const result = await cmd.run(project, args, { projectText: text, readFile: (flag) => readInputFile(args, flag, fs) });
+    const result = await cmd.run(project, args, { projectText: text, readFile: (flag) => readInputFile(args, flag, fs), projectPath: args.file, ...(moreFiles ? { moreFiles } : {}) });
     for (const w of await writeOutputs(result.files, args, fs, options.platform)) err.write(`torquewise: note: ${visible(w)}\n`);
     out.write(args.flags.has('json') ? terminalJson(result.json) : terminalText(result.lines));
     return 0;

@@ -15,6 +15,7 @@ import { dutyCycleCommand } from './duty-cycle';
 import { currentTableCommand } from './current-table';
 import { cornersCommand } from './corners';
 import { toleranceSampleCommand } from './tolerance-sample';
+import { compareCommand } from './compare';
 
 /** Every command of the CLI, in the order `help` lists them. Add a command by importing it here. */
 export const COMMANDS: Command[] = [
@@ -28,6 +29,7 @@ export const COMMANDS: Command[] = [
   sizeCommand,
   cornersCommand,
   toleranceSampleCommand,
+  compareCommand,
   simulateCommand,
   tuneCommand,
   currentTableCommand,

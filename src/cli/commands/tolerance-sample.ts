@@ -4,30 +4,9 @@ import { fmt, table } from '../table';
 import { toleranceParameters, tolerancesOf } from '../../core/project/tolerance-apply';
 import { MAX_MONTE_CARLO_SAMPLES, type MonteCarloSettings } from '../../core/project/tolerance-schema';
 import { monteCarloSummary } from '../../core/reports/tolerance-statistics';
-import type { SampleChunk } from '../../core/project/tolerance-sample';
-import type { ToleranceParameter } from '../../core/project/tolerance-apply';
 import { toleranceSamplesThreaded } from '../tolerance-workers';
 import { requireTolerances } from './corners';
-import { CSV_EOL, csvDocument, type CsvCell } from '../../core/reports/csv';
-
-/** One row per sample: its index, the parameters' values, each requirement's margin and verdict. */
-export function sampleCsv(c: SampleChunk, params: readonly ToleranceParameter[], labels: readonly string[], comment: string): string {
-  const head = ['sample', ...params.map((p) => `${p.path}${p.unit ? ` (${p.unit})` : ''}`), ...labels.flatMap((l) => [`${l}: margin (N·m)`, `${l}: met`]), 'all met'];
-  const rows: CsvCell[][] = [head];
-  for (let s = 0; s < c.count; s++) {
-    const cells: CsvCell[] = [c.from + s];
-    for (let j = 0; j < c.k; j++) cells.push(c.values[s * c.k + j]!);
-    let all = 1;
-    for (let j = 0; j < c.nReq; j++) {
-      const met = c.met[s * c.nReq + j]!;
-      all &= met;
-      cells.push(c.margins[s * c.nReq + j]!, met);
-    }
-    cells.push(all);
-    rows.push(cells);
-  }
-  return comment + CSV_EOL + csvDocument(rows);
-}
+import { sampleCsv } from '../../core/reports/tolerance-sample-csv';
 
 export const toleranceSampleCommand: Command = {
   name: 'tolerance-sample',

@@ -34,4 +34,9 @@ export interface PwmSpec {
    * (see switching-period.ts for the rule)
    */
   zeroCurrent_A: number;
+  /**
+   * the switching model's zoom window, s: full-resolution traces from `from_s` to `to_s` (absent:
+   * the last two fundamental periods of the run)
+   */
+  window?: { from_s: number; to_s: number };
 }

@@ -26,6 +26,7 @@ import { parseProjectJson } from './project-json';
 import { RPM_TO_RAD_S } from '../base/units';
 import type { MachineModel } from '../machine/machine-model';
 import { LinearDqModel } from '../machine/linear-dq';
+import { toleranceChoiceProblems } from './tolerance-schema';
 
 export { parseProjectJson };
 export type { ResolvedDutyCycle } from './thermal-resolve';
@@ -210,6 +211,7 @@ export function resolveProject(file: ProjectFile, opts: { findings?: boolean } =
   }
 
   if (opts.findings !== false) {
+    for (const t of toleranceChoiceProblems(file)) findings.push({ code: 'tolerance-band-unused', severity: 'warning', field: `tolerances.${t.key}`, message: `tolerances.${t.key} ${t.message}.` });
     findings.push(...ratedFindings(rated, hot, inverter, peak, file.motor ? 'motor' : 'nameplate'));
     findings.push(...oddMachineFindings(file.motor ? 'motor' : 'nameplate', machine20, hot, mechanics, peak, file.requirements));
   }

@@ -5,7 +5,7 @@
  * modulation (from inverter.modulation when absent: "sinusoidal" stays, "svpwm" and "six-step" give
  * min-max "svpwm", which clips into the hexagon as six-step does), the device drop (the inverter's
  * when absent), the bus. The phase current that counts as zero for the dead time and the drop is a
- * ten-thousandth of the peak current limit.
+ * ten-thousandth of the peak current limit. The zoom window (control.pwm.window_s) when given.
  */
 import { InputError } from '../base/errors';
 import type { PwmSpec } from '../drive/pwm-spec';
@@ -31,5 +31,6 @@ export function pwmFromProject(p: ResolvedProject, control: ControlSection): Pwm
     Vdc: p.inverter.Vdc,
     deviceDrop_V: pwm?.deviceDrop ?? p.inverter.deviceDrop,
     zeroCurrent_A: ZERO_CURRENT_FRACTION * p.peak.Imax,
+    ...(pwm?.window_s ? { window: { from_s: pwm.window_s.from, to_s: pwm.window_s.to } } : {}),
   };
 }

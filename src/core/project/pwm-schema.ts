@@ -6,7 +6,9 @@
  * "deadTime_s" (default 0); "modulation" "sinusoidal", "svpwm" (min-max injection, centred
  * space-vector PWM) or "dpwm1" (discontinuous, one leg clamped per 60°), from inverter.modulation
  * when absent ("sinusoidal" stays, "svpwm" and "six-step" give "svpwm"); "deviceDrop" the on-state
- * drop of a conducting switch or diode (inverter.deviceDrop when absent). The checks across
+ * drop of a conducting switch or diode (inverter.deviceDrop when absent); "window_s" {from, to} the
+ * switching model's zoom window of full-resolution traces, s (the last two fundamental periods of
+ * the run when absent; at most WINDOW_CAPACITY samples are kept). The checks across
  * sections (rates, dead time against the carrier period, drop against the bus) are `pwmProblems`.
  */
 import { z } from 'zod';
@@ -26,6 +28,11 @@ export const pwmSchema = z
     deadTime_s: num('control.pwm.deadTime_s', 0, 1e-3).default(0),
     modulation: z.enum(PWM_MODULATIONS).optional().describe(doc('control.pwm.modulation')), // from inverter.modulation when absent
     deviceDrop: num('control.pwm.deviceDrop', 0, 1e3).optional(), // inverter.deviceDrop when absent
+    // the switching model's zoom window; the last two fundamental periods of the run when absent
+    window_s: z
+      .strictObject({ from: num('control.pwm.window_s.from', 0, 1e5), to: num('control.pwm.window_s.to', 0, 1e5) })
+      .optional()
+      .describe(doc('control.pwm.window_s')),
   })
   .describe(doc('control.pwm'));
 
@@ -39,7 +46,7 @@ export function carrierFrequency(control: { fCtrl_Hz: number; pwm?: { fsw_Hz?: n
 /**
  * The problems of control.pwm that depend on other sections, each with its path from the project
  * root: the control rate one or two times the carrier frequency; the dead time below a quarter of the
- * carrier period; the device drop below half the bus.
+ * carrier period; the zoom window's end after its start; the device drop below half the bus.
  */
 export function pwmProblems(control: { fCtrl_Hz: number; pwm?: PwmSection | undefined } | undefined, Vdc: number): { path: (string | number)[]; message: string }[] {
   const pwm = control?.pwm;
@@ -52,6 +59,9 @@ export function pwmProblems(control: { fCtrl_Hz: number; pwm?: PwmSection | unde
   }
   if (pwm.deadTime_s >= 0.25 / fsw) {
     out.push({ path: ['control', 'pwm', 'deadTime_s'], message: `must be below a quarter of the carrier period (${(0.25e6 / fsw).toPrecision(3)} µs at ${fsw} Hz)` });
+  }
+  if (pwm.window_s !== undefined && !(pwm.window_s.to > pwm.window_s.from)) {
+    out.push({ path: ['control', 'pwm', 'window_s', 'to'], message: `must be > control.pwm.window_s.from (${pwm.window_s.from} s)` });
   }
   if (pwm.deviceDrop !== undefined && Vdc > 0 && 2 * pwm.deviceDrop >= Vdc) {
     out.push({ path: ['control', 'pwm', 'deviceDrop'], message: `must be < half of inverter.Vdc (${Vdc / 2} V)` });

@@ -13,7 +13,9 @@ import { lossesSchema } from './loss-schema';
 import { thermalCapProblem, thermalSchema } from './thermal-schema';
 import { dutyCycleCapProblem, dutyCycleSchema } from './duty-cycle-schema';
 import { pwmProblems, pwmSchema } from './pwm-schema';
-import { toleranceChoiceProblems, tolerancesSchema } from './tolerance-schema';
+import { angleSchema } from './angle-schema';
+import { tolerancesSchema } from './tolerance-schema';
+import { variantsSchema } from './variant-schema';
 import { CHOOSE_ONE, headerProblem, listCapProblem, problemsOf, type ProjectProblem } from './schema-problems';
 
 export { CAPPED_LISTS, KEYS, MAX_LIST_ENTRIES, MAX_PROJECT_BYTES, PROJECT_FORMAT, PROJECT_VERSION } from './schema-keys';
@@ -201,6 +203,7 @@ const controlSchema = z
     speedRamp_rpm_per_s: num('control.speedRamp_rpm_per_s', 0, 1e8, { gtMin: true }).optional(),
     speedLoopDivider: num('control.speedLoopDivider', 1, 1000, { int: true }).default(1),
     pwm: pwmSchema.optional(), // the averaged inverter when absent
+    angle: angleSchema.optional(), // the true angle and speed ("ideal") when absent
   })
   .superRefine((c, ctx) => {
     const bad = (path: string, message: string): void => ctx.addIssue({ code: 'custom', path: [path], message });
@@ -277,6 +280,7 @@ const projectObject = z.strictObject({
   thermal: thermalSchema.optional(), // no thermal rating when absent
   dutyCycle: dutyCycleSchema.optional(),
   tolerances: tolerancesSchema.optional(), // no tolerance study when absent
+  variants: variantsSchema.optional(), // no variants when absent
 });
 
 export const projectSchema = projectObject.superRefine((p, ctx) => {
@@ -290,7 +294,6 @@ export const projectSchema = projectObject.superRefine((p, ctx) => {
     for (const c of fluxMapCoverageProblems(map, Ipk, words)) ctx.addIssue({ code: 'custom', path: ['motor', 'fluxMap', c.key], message: c.message });
   }
   for (const c of pwmProblems(p.control, p.inverter.Vdc)) ctx.addIssue({ code: 'custom', path: c.path, message: c.message });
-  for (const t of toleranceChoiceProblems(p)) ctx.addIssue({ code: 'custom', path: ['tolerances', t.key], message: t.message });
   if (p.control?.mode === 'current-step' && p.scenario !== undefined && p.scenario.currentStep === undefined) {
     ctx.addIssue({ code: 'custom', path: ['scenario', 'currentStep'], message: 'is required by control.mode "current-step"' });
   }
@@ -315,6 +318,7 @@ export type { ThermalSection } from './thermal-schema';
 export type { DutyCycleSection } from './duty-cycle-schema';
 export type { PwmSection } from './pwm-schema';
 export type { MonteCarloSettings, ToleranceBand, TolerancePath, TolerancesSection } from './tolerance-schema';
+export type { VariantsSection } from './variant-schema';
 export { MAX_DUTY_CYCLE_SAMPLES } from './duty-cycle-schema';
 
 // The nameplate section must be usable as a Nameplate as it is.

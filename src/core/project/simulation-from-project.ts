@@ -12,6 +12,7 @@ import { loadSchedule, loadLevel, coulombWidth } from '../simulation/plant';
 import type { PlantParams } from '../simulation/plant';
 import { stepSchedule } from '../control/controller';
 import type { ControllerConfig, ControlMode } from '../control/controller';
+import type { AngleSpec } from '../control/angle-spec';
 import { buildReferenceTable, torqueLimitsAt } from '../control/reference-table';
 import type { ReferenceTable } from '../control/reference-table';
 import { safetyReport } from '../steady-state/safety';
@@ -27,6 +28,7 @@ import type { MachineInput } from '../machine/machine-model';
 import { machineModel } from '../machine/linear-dq';
 import { zeroCurrentTerms } from '../machine/model-numeric';
 import { pwmFromProject } from './pwm-from-project';
+import { angleFromProject } from './angle-from-project';
 
 export interface SimulationOverrides {
   control?: Partial<ControlSection>;
@@ -153,7 +155,14 @@ export function simulationFromProject(p: ResolvedProject, overrides: SimulationO
     tuning,
     findings,
     pwm: pwmFromProject(p, control),
+    ...angleOf(control, machine.polePairs),
   };
+}
+
+/** the setup's angle source; none (the true angle and speed) when ideal, so that ideal setups stay as they were */
+function angleOf(control: ControlSection, polePairs: number): { angle?: AngleSpec } {
+  const angle = angleFromProject(control, polePairs);
+  return angle.source === 'ideal' ? {} : { angle };
 }
 
 interface ScenarioFacts {

@@ -9,7 +9,7 @@
 import { InputError } from '../base/errors';
 import { fluxMapAt } from '../machine/flux-map';
 import { parseProject, type ProjectFile } from './schema';
-import { TOLERANCE_PATHS, type ToleranceBand, type TolerancePath, type TolerancesSection } from './tolerance-schema';
+import { allowedTolerancePaths, TOLERANCE_PATHS, type ToleranceBand, type TolerancePath, type TolerancesSection } from './tolerance-schema';
 import { KEYS } from './schema-keys';
 
 export interface ToleranceParameter {
@@ -75,9 +75,10 @@ export function toleranceParameters(file: ProjectFile): ToleranceParameter[] {
   const t = tolerancesOf(file);
   if (t === undefined) return [];
   const out: ToleranceParameter[] = [];
+  const allowed = allowedTolerancePaths(file);
   for (const path of TOLERANCE_PATHS) {
     const b = t[path];
-    if (b === undefined) continue;
+    if (b === undefined || !allowed.includes(path)) continue; // a band on a parameter the file lacks: a warning at resolution
     const nominal = nominalValue(file, path);
     const mapFlux0 = path.startsWith('motor.fluxMap.') ? nominalValue(file, 'motor.fluxMap.magnetFlux') : undefined;
     out.push({ path, nominal, ...bandEnds(nominal, b), unit: KEYS[`tolerances.${path}`]?.unit ?? '', ...(mapFlux0 !== undefined ? { mapFlux0 } : {}) });

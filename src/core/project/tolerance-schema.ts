@@ -94,7 +94,12 @@ export function allowedTolerancePaths(file: { motor?: { fluxMap?: unknown }; nam
   return out;
 }
 
-/** The bands a file gives that its form does not allow, each naming the key and the allowed ones (the schema adds them at tolerances.<key>). */
+/**
+ * The bands a file gives that its form does not allow, each naming the key and the allowed ones: a
+ * warning at resolution (project.ts), not a refusal, so that switching the motor between datasheet and
+ * model terms or switching the thermal section off keeps the file usable; such a band is left out of
+ * corners and samples (tolerance-apply.ts) until the file has the parameter again.
+ */
 export function toleranceChoiceProblems(file: Parameters<typeof allowedTolerancePaths>[0] & { tolerances?: Record<string, unknown> }): Array<{ key: string; message: string }> {
   const t = file.tolerances;
   if (t === undefined) return [];
@@ -102,7 +107,7 @@ export function toleranceChoiceProblems(file: Parameters<typeof allowedTolerance
   const out: Array<{ key: string; message: string }> = [];
   for (const k of Object.keys(t)) {
     if (k === 'monteCarlo' || t[k] === undefined || !(TOLERANCE_PATHS as readonly string[]).includes(k)) continue;
-    if (!(allowed as string[]).includes(k)) out.push({ key: k, message: `names a parameter this file does not have (allowed for this file: ${allowed.join(', ')})` });
+    if (!(allowed as string[]).includes(k)) out.push({ key: k, message: `names a parameter this file does not have, so corners and samples leave it out (allowed for this file: ${allowed.join(', ')})` });
   }
   return out;
 }

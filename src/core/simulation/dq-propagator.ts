@@ -46,20 +46,20 @@ export interface DqConstants {
  * cos, sin(x)/x (complex branch) and cosh, sinh(x)/x (real branch) of y = x^2. Beyond 0.5 the
  * library functions.
  */
-function cosS(y: number): number {
+export function cosS(y: number): number {
   // Estrin's scheme: the four pairs are independent (short dependency chains)
   const y2 = y * y, y4 = y2 * y2;
   return 1 - y / 2 + y2 * (1 / 24 - y / 720) + y4 * (1 / 40320 - y / 3628800 + y2 * (1 / 479001600 - y / 87178291200));
 }
-function sincS(y: number): number {
+export function sincS(y: number): number {
   const y2 = y * y, y4 = y2 * y2;
   return 1 - y / 6 + y2 * (1 / 120 - y / 5040) + y4 * (1 / 362880 - y / 39916800 + y2 * (1 / 6227020800 - y / 1307674368000));
 }
-function coshS(y: number): number {
+export function coshS(y: number): number {
   const y2 = y * y, y4 = y2 * y2;
   return 1 + y / 2 + y2 * (1 / 24 + y / 720) + y4 * (1 / 40320 + y / 3628800 + y2 * (1 / 479001600 + y / 87178291200));
 }
-function sinhcS(y: number): number {
+export function sinhcS(y: number): number {
   const y2 = y * y, y4 = y2 * y2;
   return 1 + y / 6 + y2 * (1 / 120 + y / 5040) + y4 * (1 / 362880 + y / 39916800 + y2 * (1 / 6227020800 + y / 1307674368000));
 }

@@ -28,6 +28,8 @@ import { finiteOrNull } from './metrics';
 import { makePeriodStepper } from './exact-stepper';
 import { makeSwitchingStepper } from './switching-stepper';
 import { TraceRecorder } from './recorder';
+import { AngleSensing } from './angle-sensing';
+import { angleEstimatorFor } from '../control/angle-estimator-for';
 import { RunLog } from './run-log';
 import { PERIOD_SAMPLE_SIZE, S_T, S_ID, S_IQ, S_W, S_ID_REF, S_IQ_REF, S_TORQUE_REF, S_SPEED_REF } from './period-sample';
 import { BudgetWatch, CHECK_EVERY, CurrentOscillationWatch, SpeedSwingWatch, divergence, integratorFailure } from './watchdogs';
@@ -95,8 +97,13 @@ export function runSimulation(setup: AnySetup, opts: RunOptions = {}): Simulatio
   const yi = plant.fluxStates ? new Float64Array(STATE_SIZE) : y;
   if (yi !== y) plant.currentState(y, yi);
   ctrl.reset(y[OMEGA]!, y[THETA]!);
-  const stepper = makeSwitchingStepper(setup, plant, y) ?? makePeriodStepper(setup, plant, y);
+  const sw = makeSwitchingStepper(setup, plant, y);
+  const stepper = sw ?? makePeriodStepper(setup, plant, y);
   const rec = new TraceRecorder(setup, plant.model, plant, ctrl, N, o.maxPoints);
+  // the angle and speed the controller sees: the true ones (ideal), else an estimator's
+  const est = angleEstimatorFor(setup.angle, plant.model.polePairs);
+  const sensing = est ? new AngleSensing(est, plant.model.polePairs, Ts, rec.cap, o.maxPoints) : null;
+  if (sensing) sensing.reset(y[THETA]!, y[OMEGA]!);
   const hist = new Uint32Array(1025);
   const vab = plant.input;
   const bounds = { trip_A: Math.min(20 * setup.Imax, setup.tripCurrent_A), Imax: setup.Imax, speed_rad_s: setup.divergenceSpeed_rad_s, Ts };
@@ -116,8 +123,10 @@ export function runSimulation(setup: AnySetup, opts: RunOptions = {}): Simulatio
     // inverse Park and the record
     plant.setAngleOrigin(th0);
     smp[0] = t0; smp[1] = yi[I_D]!; smp[2] = yi[I_Q]!; smp[3] = yi[OMEGA]!; smp[4] = th0; smp[5] = plant.c0; smp[6] = plant.s0;
+    if (sensing) sensing.sample(yi, plant.c0, plant.s0, vab, smp);
     ctrl.stepSampled(vab);
     rec.record(k, yi);
+    if (sensing) sensing.record(t0);
     x[S_T] = t0; x[S_ID] = yi[I_D]!; x[S_IQ] = yi[I_Q]!; x[S_W] = yi[OMEGA]!;
     x[S_ID_REF] = ctrl.idRef; x[S_IQ_REF] = ctrl.iqRef; x[S_TORQUE_REF] = ctrl.torqueRef; x[S_SPEED_REF] = ctrl.speedRefOut;
     log.observe(x, ctrl.currentLimited, ctrl.voltageSaturated);
@@ -156,7 +165,12 @@ export function runSimulation(setup: AnySetup, opts: RunOptions = {}): Simulatio
   const periods = k;
   // final sample (the state at the end) unless a divergence left it non-finite
   if (stop === null || Number.isFinite(yi[I_D]! + yi[I_Q]! + yi[OMEGA]! + yi[THETA]!)) {
-    if (rec.count < rec.cap) { plant.setAngleOrigin(yi[THETA]!); rec.record(rec.count, yi); }
+    if (rec.count < rec.cap) {
+      plant.setAngleOrigin(yi[THETA]!);
+      // the estimator samples the end state when the plant moved on since its last sample
+      if (sensing) { if (stop === null) sensing.sample(yi, plant.c0, plant.s0, vab, smp); sensing.record(rec.count * Ts); }
+      rec.record(rec.count, yi);
+    }
   }
   const nRec = rec.count;
   const tLast = nRec > 0 ? rec.last[0]! : 0;
@@ -180,8 +194,9 @@ export function runSimulation(setup: AnySetup, opts: RunOptions = {}): Simulatio
     voltageSaturation_s: finiteOrNull(log.satPeriods * Ts),
     energyFromBus_J: finiteOrNull(y[ENERGY]!),
     steadyStateError_rpm: finiteOrNull(m.sse),
+    ...(sensing ? sensing.metrics() : {}),
   };
-  const traces = rec.traces();
+  const traces = sensing ? { ...rec.traces(), ...sensing.traces() } : rec.traces();
   const stats: SimulationStats = {
     controlSteps: periods,
     rhsEvaluations: plant.evaluations,
@@ -193,5 +208,6 @@ export function runSimulation(setup: AnySetup, opts: RunOptions = {}): Simulatio
   stats.wall_s = Math.max(setup_s, budget.elapsed());
   stats.run_s = stats.wall_s - setup_s;
   const peakCurrentAt = log.peakDetail();
-  return { metrics, loadSteps: rec.loadSteps(), traces, events, stats, ...(peakCurrentAt ? { peakCurrentAt } : {}), ...(diagnostic ? { diagnostic } : {}) };
+  const switching = sw?.result() ?? null;
+  return { metrics, loadSteps: rec.loadSteps(), traces, events, stats, ...(peakCurrentAt ? { peakCurrentAt } : {}), ...(diagnostic ? { diagnostic } : {}), ...(switching ? { switching } : {}) };
 }

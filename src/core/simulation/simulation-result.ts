@@ -1,5 +1,7 @@
 /** What a simulation run returns: metrics, decimated traces (channels in TRACE_NAMES order), events, statistics. */
 import type { SimulationEvent } from './simulation-setup';
+import { ANGLE_TRACE_NAMES, type AngleTraceName } from './angle-sensing';
+import type { SwitchingResult } from './switching-result';
 
 export interface SimulationMetrics {
   finalSpeed_rpm: number | null;
@@ -15,6 +17,9 @@ export interface SimulationMetrics {
   voltageSaturation_s: number | null;
   energyFromBus_J: number | null;
   steadyStateError_rpm: number | null;
+  /** rms and peak of the angle error (estimated minus true electrical angle), rad: only when the angle source is not ideal */
+  angleErrorRms_rad?: number | null;
+  angleErrorPeak_rad?: number | null;
 }
 
 export const TRACE_NAMES = [
@@ -22,7 +27,15 @@ export const TRACE_NAMES = [
   'vd_V', 'vq_V', 'vNorm', 'ia_A', 'ib_A', 'ic_A', 'pDc_W',
 ] as const;
 export type TraceName = (typeof TRACE_NAMES)[number];
-export type Traces = Record<TraceName, Float64Array>;
+/** the channels of TRACE_NAMES; with an angle source other than ideal also those of ANGLE_TRACE_NAMES */
+export type Traces = Record<TraceName, Float64Array> & Partial<Record<AngleTraceName, Float64Array>>;
+
+/** The channel names of a run's traces: TRACE_NAMES, then the angle channels when the run has them. */
+export function traceNamesOf(traces: Traces): (TraceName | AngleTraceName)[] {
+  const out: (TraceName | AngleTraceName)[] = [...TRACE_NAMES];
+  for (const k of ANGLE_TRACE_NAMES) if (traces[k] !== undefined) out.push(k);
+  return out;
+}
 
 export interface SimulationStats {
   controlSteps: number;
@@ -69,4 +82,6 @@ export interface SimulationResult {
   events: SimulationEvent[];
   stats: SimulationStats;
   diagnostic?: string;
+  /** the switching model's figures (present when the run used it: control.pwm.model "switching") */
+  switching?: SwitchingResult;
 }

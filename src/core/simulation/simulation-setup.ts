@@ -9,6 +9,7 @@ import type { MachineInput } from '../machine/machine-model';
 import type { ControllerConfig } from '../control/controller';
 import type { TuningReport } from '../control/tuning';
 import type { PwmSpec } from '../drive/pwm-spec';
+import type { AngleSpec } from '../control/angle-spec';
 import { DEFAULT_MAX_POINTS } from './decimate';
 
 export interface SolverOptions {
@@ -30,6 +31,11 @@ export interface SolverOptions {
    * elsewhere (default false: Cash-Karp throughout, the results of before)
    */
   exactPeriods?: boolean;
+  /**
+   * the switching model's segments for a constant-parameter machine: 'exact' (default: the exact
+   * propagator, switching-segment.ts) or 'rk4' (one classical RK4 step each, the reference path)
+   */
+  switchingSegments?: 'exact' | 'rk4';
 }
 
 export const DEFAULT_SOLVER_OPTIONS: Readonly<SolverOptions> = {
@@ -79,6 +85,8 @@ export interface SimulationSetup<M extends MachineInput = DqMachine> {
   findings?: Finding[];
   /** the inverter's modulation; absent or model 'average' = the averaged inverter (see switching-stepper.ts) */
   pwm?: PwmSpec;
+  /** where the controller's angle and speed come from; absent or source 'ideal' = the true values */
+  angle?: AngleSpec;
 }
 
 export interface RunOptions {

@@ -27,7 +27,8 @@
  * at each segment's start and made linear across |i| <= zeroCurrent (common practice, no source).
  *
  * The segments are integrated by a Stepper (stepper.ts; Cash-Karp through the plant's derivative
- * for any machine, flux maps included). The probe accumulates, until `resetProbe`, the phase
+ * for any machine, flux maps included), or, for a constant-parameter machine, by the exact segment
+ * (switching-segment.ts) with one RK4 step where it declines. The probe accumulates, until `resetProbe`, the phase
  * currents at every segment boundary (the extremes of a piecewise-smooth ripple), the legs' actual
  * and commanded volt-seconds and the integrals of the DC-link current i_dc = sum s_x i_x and of its
  * square (each segment's current taken as linear between its ends). Allocation-free; the run owns
@@ -37,6 +38,8 @@ import type { PwmSpec } from '../drive/pwm-spec';
 import { STATE_SIZE, type Plant } from './plant';
 import { Rk4Stepper, type Stepper } from './stepper';
 import { nextLoadBreak } from './load-schedule';
+import type { ExactSegment } from './switching-segment';
+import type { WindowTrace } from './switching-capture';
 import { cosSmall, sinSmall } from '../mathematics/rotation';
 
 const SQRT3_2 = Math.sqrt(3) / 2;
@@ -72,6 +75,8 @@ export class SwitchingPeriod {
   span = 0;
   /** segments integrated in all (for statistics) */
   segments = 0;
+  /** full-resolution traces at every segment end within the window (null: none kept) */
+  window: WindowTrace | null = null;
 
   private readonly Vdc: number;
   private readonly td: number;
@@ -98,9 +103,10 @@ export class SwitchingPeriod {
 
   /**
    * `inner` integrates the segments; an Rk4Stepper is driven one step per segment directly (its
-   * substeps ignored), any other through its `period`.
+   * substeps ignored), any other through its `period`. With `exact` (and an Rk4Stepper) each
+   * segment goes to the exact segment first, RK4 where that declines.
    */
-  constructor(private readonly plant: Plant, private readonly inner: Stepper, spec: Pick<PwmSpec, 'Vdc' | 'deadTime_s' | 'deviceDrop_V' | 'zeroCurrent_A' | 'fsw_Hz'>) {
+  constructor(private readonly plant: Plant, private readonly inner: Stepper, spec: Pick<PwmSpec, 'Vdc' | 'deadTime_s' | 'deviceDrop_V' | 'zeroCurrent_A' | 'fsw_Hz'>, private readonly exact: ExactSegment | null = null) {
     this.rk4 = inner instanceof Rk4Stepper;
     this.Th = 0.5 / spec.fsw_Hz;
     this.Vdc = spec.Vdc;
@@ -112,8 +118,9 @@ export class SwitchingPeriod {
 
   resetProbe(): void {
     this.nb = 0;
-    this.legVs.fill(0);
-    this.cmdVs.fill(0);
+    const l = this.legVs, c = this.cmdVs;
+    l[0] = 0; l[1] = 0; l[2] = 0;
+    c[0] = 0; c[1] = 0; c[2] = 0;
     this.idcInt = 0;
     this.idcSqInt = 0;
     this.span = 0;
@@ -247,41 +254,58 @@ export class SwitchingPeriod {
     this.idcSqInt += ((dc0 * dc0 + dc0 * dc1 + dc1 * dc1) * h) / 3;
     this.span += h;
     this.sample();
+    const win = this.window;
+    if (win !== null && tb >= win.from && tb <= win.to) {
+      const j = win.slot();
+      if (j >= 0) {
+        win.t[j] = tb; win.ia[j] = iph[0]!; win.ib[j] = iph[1]!; win.ic[j] = iph[2]!; win.va[j] = input[0]!; win.idc[j] = dc1;
+      }
+    }
   }
 
   /**
-   * Classical RK4 over the segment [tOpen, tv[0]], one step per piece between load breakpoints (the
-   * plant's load set once per piece, as Stepper.period does); the time goes to the plant through
-   * its typed array (no boxed argument). Common practice (no source).
+   * The segment [tOpen, tv[0]] piece by piece between load breakpoints (the plant's load set once
+   * per piece, as Stepper.period does): each piece by the exact segment (switching-segment.ts) when
+   * one is given and it applies, else by one classical RK4 step (common practice, no source); the
+   * time goes to the plant through its typed array (no boxed argument).
    */
   private rk4Segment(y: Float64Array): void {
     const plant = this.plant;
     const load = plant.params.load;
     const tb = this.tv[0]!;
-    const time = plant.time;
-    const { k1, k2, k3, k4, w } = this;
+    const ex = this.exact;
     let a = this.tOpen;
     for (let piece = 0; piece < 8; piece++) {
       if (a >= this.nextBreak) this.nextBreak = nextLoadBreak(load, a);
       const b = this.nextBreak < tb ? this.nextBreak : tb;
       if (this.nextBreak !== this.loadKey) { plant.setLoadSegment(a, b); this.loadKey = this.nextBreak; }
-      const h = b - a;
-      if (h > 0) {
-        time[0] = a;
-        plant.derivAt(k1, y);
-        for (let i = 0; i < STATE_SIZE; i++) w[i] = y[i]! + 0.5 * h * k1[i]!;
-        time[0] = a + 0.5 * h;
-        plant.derivAt(k2, w);
-        for (let i = 0; i < STATE_SIZE; i++) w[i] = y[i]! + 0.5 * h * k2[i]!;
-        plant.derivAt(k3, w);
-        for (let i = 0; i < STATE_SIZE; i++) w[i] = y[i]! + h * k3[i]!;
-        time[0] = b;
-        plant.derivAt(k4, w);
-        for (let i = 0; i < STATE_SIZE; i++) y[i] = y[i]! + (h / 6) * (k1[i]! + 2 * k2[i]! + 2 * k3[i]! + k4[i]!);
+      if (b - a > 0) {
+        let done = false;
+        if (ex !== null) { ex.span[0] = a; ex.span[1] = b; done = ex.step(y); }
+        if (!done) this.rk4Step(y, a, b);
       }
       if (b >= tb) break;
       a = b;
     }
+  }
+
+  /** One classical RK4 step over [a, b] (the plant's load set for the piece). */
+  private rk4Step(y: Float64Array, a: number, b: number): void {
+    const plant = this.plant;
+    const time = plant.time;
+    const { k1, k2, k3, k4, w } = this;
+    const h = b - a;
+    time[0] = a;
+    plant.derivAt(k1, y);
+    for (let i = 0; i < STATE_SIZE; i++) w[i] = y[i]! + 0.5 * h * k1[i]!;
+    time[0] = a + 0.5 * h;
+    plant.derivAt(k2, w);
+    for (let i = 0; i < STATE_SIZE; i++) w[i] = y[i]! + 0.5 * h * k2[i]!;
+    plant.derivAt(k3, w);
+    for (let i = 0; i < STATE_SIZE; i++) w[i] = y[i]! + h * k3[i]!;
+    time[0] = b;
+    plant.derivAt(k4, w);
+    for (let i = 0; i < STATE_SIZE; i++) y[i] = y[i]! + (h / 6) * (k1[i]! + 2 * k2[i]! + 2 * k3[i]! + k4[i]!);
   }
 
   private sample(): void {
@@ -317,6 +341,9 @@ export class SwitchingPeriod {
       c = Math.cos(y[3]!);
       s = Math.sin(y[3]!);
     }
+    // the rotation handed to the exact segment that starts here (it needs the same cos and sin)
+    const ex = this.exact;
+    if (ex !== null) { const r = ex.rot; r[0] = y[3]!; r[1] = c; r[2] = s; }
     const ial = id * c - iq * s;
     const ibe = id * s + iq * c;
     const iph = this.iph;

@@ -22,6 +22,8 @@ import { DatasheetView } from '../views/datasheet/DatasheetView';
 import { FluxMapView } from '../views/flux-map/FluxMapView';
 import { EfficiencyView } from '../views/efficiency/EfficiencyView';
 import { DutyCycleView } from '../views/duty-cycle/DutyCycleView';
+import { CompareView } from '../views/compare/CompareView';
+import { TolerancesView } from '../views/tolerances/TolerancesView';
 import { fluxMapOf } from '../views/flux-map/flux-map-data';
 import { envelopeCsv, tracesCsv } from '../components/exports';
 import { exportDatasheetHtml, exportVisiblePlot } from '../components/image-export';
@@ -29,7 +31,7 @@ import { limitPhrase } from '../../../core/reports/phrases';
 import { FieldNotesContext, FindingsStrip, findingsKey, notesByPath } from '../components/field-notes';
 import { num } from '../components/format';
 
-type View = 'envelope' | 'efficiency' | 'dutycycle' | 'fluxmap' | 'loadsteps' | 'tuning' | 'datasheet';
+type View = 'envelope' | 'efficiency' | 'dutycycle' | 'fluxmap' | 'loadsteps' | 'tuning' | 'compare' | 'datasheet' | 'tolerances';
 const VIEWS: Array<[View, string]> = [
   ['envelope', 'Envelope'],
   ['efficiency', 'Efficiency'],
@@ -37,7 +39,9 @@ const VIEWS: Array<[View, string]> = [
   ['fluxmap', 'Flux map'],
   ['loadsteps', 'Load steps'],
   ['tuning', 'Tuning'],
+  ['compare', 'Compare'],
   ['datasheet', 'Datasheet'],
+  ['tolerances', 'Tolerances'],
 ];
 
 /** How long a successful export's notice stays on the status line, ms (a failure stays until replaced). */
@@ -259,8 +263,10 @@ export function App() {
   const hasMap = fluxMapOf(results?.project) !== null;
   // the duty-cycle tab only for a project with both a thermal network and a duty cycle
   const hasCycle = results?.project.thermal !== undefined && results?.project.dutyCycle !== undefined;
-  const views = VIEWS.filter(([v]) => (v !== 'fluxmap' || hasMap) && (v !== 'dutycycle' || hasCycle));
-  const shown: View = (view === 'fluxmap' && !hasMap) || (view === 'dutycycle' && !hasCycle) ? 'envelope' : view;
+  // the tolerances tab only for a project with a `tolerances` section
+  const hasTol = results?.project.file.tolerances !== undefined;
+  const views = VIEWS.filter(([v]) => (v !== 'fluxmap' || hasMap) && (v !== 'dutycycle' || hasCycle) && (v !== 'tolerances' || hasTol));
+  const shown: View = (view === 'fluxmap' && !hasMap) || (view === 'dutycycle' && !hasCycle) || (view === 'tolerances' && !hasTol) ? 'envelope' : view;
 
 
   const load = useCallback((text: string, src: { name: string; path: string | null; demo: boolean; readOnly: boolean }, message?: string) => {
@@ -479,8 +485,12 @@ export function App() {
                 <FluxMapView project={results.project} theme={theme} />
               ) : shown === 'loadsteps' ? (
                 <LoadStepsView project={results.project} theme={theme} stale={stale} result={simulation} setResult={setSimulation} />
+              ) : shown === 'tolerances' ? (
+                <TolerancesView project={results.project} theme={theme} />
               ) : shown === 'tuning' ? (
                 <TuningView project={results.project} theme={theme} />
+              ) : shown === 'compare' ? (
+                <CompareView project={results.project} theme={theme} />
               ) : (
                 <DatasheetView results={results} theme={theme} tableStep={tableStep} setTableStep={setTableStep} />
               )}

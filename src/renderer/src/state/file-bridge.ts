@@ -40,6 +40,7 @@ const MIME: Record<ExportKind, string> = {
   'duty-cycle-csv': 'text/csv',
   'switching-csv': 'text/csv',
   'current-table-header': 'text/x-c',
+  'tolerance-csv': 'text/csv',
 };
 
 function download(data: string | Uint8Array, name: string, mime: string): void {

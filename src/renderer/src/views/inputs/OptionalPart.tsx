@@ -22,6 +22,8 @@ interface PartProps {
   parent?: Path;
   /** a note beside the switch */
   note?: ReactNode;
+  /** what else goes with the part when it is switched off (e.g. a tolerance band on one of its values) */
+  alsoOff?: (d: Draft) => Draft;
   children: ReactNode;
 }
 
@@ -48,7 +50,9 @@ export function Optional(props: PartProps) {
         onChange={(on) =>
           store.update((d) => {
             const blank = typeof props.blank === 'function' ? props.blank(d.tree) : props.blank;
-            return on ? editSubtree(d, props.path, blank) : dropEmpty(editSubtree(d, props.path, undefined), props.parent);
+            if (on) return editSubtree(d, props.path, blank);
+            const off = dropEmpty(editSubtree(d, props.path, undefined), props.parent);
+            return props.alsoOff ? props.alsoOff(off) : off;
           })
         }
       />

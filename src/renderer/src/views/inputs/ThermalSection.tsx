@@ -3,7 +3,7 @@
 // limits, and the inverter's junction (its resistance and limit, switched together).
 import { Section } from '../../components/Section';
 import { num } from '../../components/format';
-import type { Json } from '../../state/draft';
+import type { Draft, Json } from '../../state/draft';
 import { editSubtree, getAt } from '../../state/draft';
 import { useFormStore, useFormValue } from '../../state/form-store';
 import { NumField, RowCell, unitOf, useMessages, type Hint } from './Inputs';
@@ -103,7 +103,7 @@ export function ThermalSection() {
   const line = useFormValue((d) => networkLine(d.tree));
   return (
     <Section title="Thermal network" testId="sec-thermal">
-      <Optional path="thermal" label="Thermal rating" blank={START_THERMAL} note="winding — stator — coolant">
+      <Optional path="thermal" label="Thermal rating" blank={START_THERMAL} note="winding — stator — coolant" alsoOff={dropCoolantBand}>
         <F path="thermal.coolantTemp_C" label="Coolant" />
         <F path="thermal.windingCapacity_J_per_K" label="Winding capacity" hint={hints.copper} />
         <F path="thermal.windingToStator_K_per_W" label="Winding → stator" />
@@ -127,4 +127,12 @@ export function ThermalSection() {
       </Optional>
     </Section>
   );
+}
+
+/** Without a thermal section a tolerance band on its coolant temperature names nothing: it goes too. */
+function dropCoolantBand(d: Draft): Draft {
+  const t = getAt(d.tree, 'tolerances');
+  if (t === null || typeof t !== 'object' || Array.isArray(t) || !('thermal.coolantTemp_C' in t)) return d;
+  const { ['thermal.coolantTemp_C']: _gone, ...rest } = t;
+  return editSubtree(d, 'tolerances', rest);
 }

@@ -58,7 +58,10 @@ export function SwitchingPanel({ result, project, theme }: { result: SimDone; pr
       <div className="key" data-testid="sw-conditions">
         <span>
           {cond}
-          {s && `; statistics over ${num(s.analysed.from_s * 1e3)} to ${num(s.analysed.to_s * 1e3)} ms (whole fundamental periods at the run's end)`}.
+          {s && (s.analysed.cycles > 0
+            ? `; statistics over ${num(s.analysed.from_s * 1e3)} to ${num(s.analysed.to_s * 1e3)} ms (${s.analysed.cycles} whole fundamental periods of ${num(s.fundamental_Hz, 3)} Hz at the run's end)`
+            : '; no whole fundamental period at the run\'s end: no harmonic figures')}.
+          {s?.window.truncated && ' The window holds fewer samples than it spans: it stops at its sample bound.'}
         </span>
       </div>
       {!s && (

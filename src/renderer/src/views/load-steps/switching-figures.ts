@@ -121,14 +121,14 @@ export function spectrumFigure(s: SwitchingResult, log: boolean, t: PlotTheme, c
     colours.push(k === 1 ? col.c : col.a);
   }
   const data: Data[] = [
-    { type: 'bar', x, y, name: 'harmonic amplitude', marker: { color: colours }, hovertemplate: 'order %{x}: %{y:.4g} A peak<extra></extra>' } as Data,
+    { type: 'bar', x, y, customdata: x.map((k) => k * s.fundamental_Hz), name: 'harmonic amplitude', marker: { color: colours }, hovertemplate: 'order %{x} (%{customdata:.4g} Hz): %{y:.4g} A peak<extra></extra>' } as Data,
   ];
   const layout = baseLayout(t, {
     margin: { l: 70, r: 16, t: 30, b: 44 },
     showlegend: false,
     bargap: 0.25,
     title: { text: Number.isFinite(s.thd) ? `ia spectrum: THD ${num(s.thd * 100, 3)} % (orders 2 to ${s.thdMaxHarmonic})` : 'ia spectrum: no whole fundamental period analysed', font: { size: 12 }, x: 0.01, xanchor: 'left' },
-    xaxis: axis(t, 'harmonic order (of the fundamental)', { range: [0.4, n + 0.6] }),
+    xaxis: axis(t, `harmonic order (fundamental ${num(s.fundamental_Hz, 3)} Hz)`, { range: [0.4, n + 0.6] }),
     yaxis: axis(t, 'amplitude, A peak', log ? { type: 'log' } : { rangemode: 'tozero' }),
   } as Layout);
   return { data, layout };

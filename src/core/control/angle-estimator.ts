@@ -1,0 +1,31 @@
+/**
+ * The common shape of everything that tells the controller the rotor's electrical angle and speed
+ * (encoder, resolver, sensorless observer; see angle-spec.ts). An estimator is sampled once per
+ * control period, between the plant's state and the controller's sample, with the true values (a
+ * sensor reads them through its imperfections; an observer ignores them) and the measured currents
+ * and the voltages commanded for the period that ends (alpha-beta, stator frame). It writes its
+ * outputs into its own fields: no allocation per sample.
+ *
+ * Units: angles in electrical radians, wrapped to [-pi, pi]; speeds in electrical rad/s.
+ */
+export interface AngleEstimator {
+  /** start locked onto a known state (a run that starts at speed starts locked) */
+  reset(thetaE: number, omegaE: number): void;
+  /**
+   * One control period. trueThetaE: the plant's electrical angle (rad); trueOmegaM: its mechanical
+   * speed (rad/s); i_alpha, i_beta: measured currents (A); v_alpha, v_beta: the voltages commanded
+   * over the period (V); Ts: the control period (s).
+   */
+  sample(trueThetaE: number, trueOmegaM: number, i_alpha: number, i_beta: number, v_alpha: number, v_beta: number, Ts: number): void;
+  /** the estimated electrical angle, rad, in [-pi, pi] */
+  readonly thetaE: number;
+  /** the estimated electrical speed, rad/s */
+  readonly omegaE: number;
+}
+
+const TWO_PI = 2 * Math.PI;
+
+/** An angle wrapped to [-pi, pi] (x - 2 pi round(x / 2 pi)). */
+export function wrapToPi(x: number): number {
+  return x - TWO_PI * Math.round(x / TWO_PI);
+}

@@ -1,0 +1,74 @@
+/**
+ * A resolver read through a type II tracking loop (an AngleEstimator), on the demodulated envelopes
+ * of its two channels (the excitation carrier is taken as removed by synchronous demodulation):
+ *
+ *   cosine channel  c = cos theta_r,   sine channel  s = (1 + eps) sin(theta_r + phi)
+ *
+ * theta_r = pr theta_m the resolver's electrical angle (pr its pole pairs), eps the amplitude
+ * imbalance, phi the quadrature error. The loop's detector e = s cos thetaHat - c sin thetaHat is
+ * sin(theta_r - thetaHat) for ideal channels; it drives the shared type II PLL (type2-pll.ts), with
+ * kp = 2 zeta wn, ki = wn^2 and wn from the closed-loop -3 dB bandwidth and the damping. The detector
+ * nulls at tan thetaHat = s / c: for small eps and phi the error thetaHat - theta_r is
+ * phi/2 + (eps/2) sin 2 theta_r + (phi/2) cos 2 theta_r (a steady phi/2 and a second harmonic of
+ * amplitude sqrt(eps^2 + phi^2)/2), passed by the loop as by its closed-loop response at 2 omega_r.
+ *
+ * The motor's electrical angle is (p / pr) thetaHat (p the motor's pole pairs, a multiple of pr),
+ * its speed (p / pr) omegaHat. The loop's angle after the update of sample k is its prediction for
+ * sample k + 1; the angle given for sample k takes one period's travel back, thetaHat - Ts omegaHat
+ * (exact at constant speed once locked). The true electrical angle may arrive wrapped: it is unwrapped from one
+ * sample to the next. No allocation per sample.
+ */
+import type { ResolverAngle } from './angle-spec';
+import { wrapToPi, type AngleEstimator } from './angle-estimator';
+import { Type2Pll, type2PllGains, type2PllNaturalFrequency } from './type2-pll';
+
+export class ResolverEstimator implements AngleEstimator {
+  thetaE = 0;
+  omegaE = 0;
+  /** the tracking loop (resolver electrical angle and speed) */
+  readonly pll: Type2Pll;
+  /** the resolver's electrical angle, unwrapped, rad */
+  thetaR = 0;
+  /** the loop's estimate of the resolver's electrical angle at the sample's instant, rad in [-pi, pi] */
+  thetaRHat = 0;
+
+  private readonly ratio: number;
+  private readonly gain: number;
+  private readonly phi: number;
+  private lastTheta = 0;
+
+  constructor(spec: ResolverAngle, private readonly polePairs: number) {
+    const pr = spec.polePairs ?? 1;
+    this.ratio = polePairs / pr;
+    const wn = type2PllNaturalFrequency(2 * Math.PI * spec.bandwidth_Hz, spec.damping);
+    const { kp, ki } = type2PllGains(wn, spec.damping);
+    this.pll = new Type2Pll(kp, ki);
+    this.gain = 1 + (spec.amplitudeImbalance ?? 0);
+    this.phi = ((spec.quadratureError_deg ?? 0) * Math.PI) / 180;
+  }
+
+  reset(thetaE: number, omegaE: number): void {
+    this.lastTheta = thetaE;
+    this.thetaR = thetaE / this.ratio;
+    this.pll.reset(this.thetaR, omegaE / this.ratio);
+    this.publish();
+  }
+
+  sample(trueThetaE: number, _trueOmegaM: number, _ia: number, _ib: number, _va: number, _vb: number, Ts: number): void {
+    this.thetaR += wrapToPi(trueThetaE - this.lastTheta) / this.ratio;
+    this.lastTheta = trueThetaE;
+    const th = this.thetaR;
+    const s = this.gain * Math.sin(th + this.phi);
+    const c = Math.cos(th);
+    const h = this.pll.theta;
+    this.pll.update(s * Math.cos(h) - c * Math.sin(h), Ts);
+    this.publish(Ts);
+  }
+
+  /** the loop's angle after an update is its prediction for the next sample: one period's travel taken back */
+  private publish(Ts = 0): void {
+    this.thetaRHat = wrapToPi(this.pll.theta - Ts * this.pll.omega);
+    this.thetaE = wrapToPi(this.ratio * this.thetaRHat);
+    this.omegaE = this.ratio * this.pll.omega;
+  }
+}

@@ -1,0 +1,86 @@
+/**
+ * The angle and speed the controller sees, in a run whose angle source is not ideal: the estimator
+ * (../control/angle-estimator.ts) sampled once per control period between the plant's state and the
+ * controller's sample. It reads the true angle and speed (a sensor's input), the phase currents in
+ * the stator frame and the voltage commanded over the period that ends; the controller then gets the
+ * currents in the estimated frame, the estimated angle (its cos and sin) and the estimated speed.
+ *
+ * It keeps the run's angle error (estimated minus true electrical angle, wrapped to [-pi, pi]): its
+ * rms and peak over every sample, and two decimated traces on the recorder's time axis,
+ * `thetaError_rad` and `speedEstimate_rpm`. No allocation per period.
+ */
+import type { AngleEstimator } from '../control/angle-estimator';
+import { wrapToPi } from '../control/angle-estimator';
+import { RAD_S_TO_RPM } from '../base/units';
+import { StreamingMinMax } from './decimate';
+import { I_D, I_Q, OMEGA, THETA } from './plant';
+
+export const ANGLE_TRACE_NAMES = ['thetaError_rad', 'speedEstimate_rpm'] as const;
+export type AngleTraceName = (typeof ANGLE_TRACE_NAMES)[number];
+
+export class AngleSensing {
+  /** the last sample's angle error, rad */
+  error = 0;
+  private sumE2 = 0;
+  private peak = 0;
+  private n = 0;
+  private readonly dec: StreamingMinMax;
+
+  /** samples: the recorder's count (periods + 1); maxPoints: its decimation */
+  constructor(readonly estimator: AngleEstimator, private readonly polePairs: number, private readonly Ts: number, samples: number, maxPoints: number) {
+    this.dec = new StreamingMinMax(ANGLE_TRACE_NAMES.length, samples, maxPoints);
+  }
+
+  /** start locked onto the plant's state (electrical angle, mechanical speed) */
+  reset(theta: number, omegaM: number): void {
+    this.estimator.reset(theta, this.polePairs * omegaM);
+  }
+
+  /**
+   * Sample the estimator with the state yi (currents, speed, angle; c, s the cos and sin of its
+   * angle) and the voltage vab of the period that ends, and write the controller's sample
+   * smp[1..6] = (id, iq, omega_m, theta, cos theta, sin theta) as the controller sees them.
+   */
+  sample(yi: Float64Array, c: number, s: number, vab: Float64Array, smp: Float64Array): void {
+    const id = yi[I_D]!, iq = yi[I_Q]!, th = yi[THETA]!;
+    const ia = id * c - iq * s;
+    const ib = id * s + iq * c;
+    const est = this.estimator;
+    est.sample(th, yi[OMEGA]!, ia, ib, vab[0]!, vab[1]!, this.Ts);
+    const h = est.thetaE;
+    const ch = Math.cos(h), sh = Math.sin(h);
+    smp[1] = ia * ch + ib * sh;
+    smp[2] = -ia * sh + ib * ch;
+    smp[3] = est.omegaE / this.polePairs;
+    smp[4] = h; smp[5] = ch; smp[6] = sh;
+    const e = wrapToPi(h - th);
+    this.error = e;
+    if (Number.isFinite(e)) {
+      this.sumE2 += e * e;
+      this.n++;
+      const a = e < 0 ? -e : e;
+      if (a > this.peak) this.peak = a;
+    }
+  }
+
+  /** the sample at time t into the traces (the recorder's instants) */
+  record(t: number): void {
+    const o = this.dec.slot(t);
+    if (o < 0) return;
+    const buf = this.dec.buf;
+    buf[o] = this.error;
+    buf[o + 1] = (this.estimator.omegaE / this.polePairs) * RAD_S_TO_RPM;
+    this.dec.commit();
+  }
+
+  metrics(): { angleErrorRms_rad: number | null; angleErrorPeak_rad: number | null } {
+    return this.n > 0 ? { angleErrorRms_rad: Math.sqrt(this.sumE2 / this.n), angleErrorPeak_rad: this.peak } : { angleErrorRms_rad: null, angleErrorPeak_rad: null };
+  }
+
+  /** the decimated traces; non-finite samples become 0 */
+  traces(): Record<AngleTraceName, Float64Array> {
+    const d = this.dec.finish();
+    for (const a of d.channels) for (let j = 0; j < a.length; j++) if (!Number.isFinite(a[j]!)) a[j] = 0;
+    return { thetaError_rad: d.channels[0]!, speedEstimate_rpm: d.channels[1]! };
+  }
+}

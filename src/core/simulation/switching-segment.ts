@@ -1,0 +1,221 @@
+/**
+ * One segment of the switching model (the legs' states, hence the stationary-frame voltage, held)
+ * for a constant-parameter plant in current states, between two load breakpoints at most:
+ *   - the currents by the exact propagator (dq-propagator.ts: its setStep, errorBound and propagate
+ *     written out here, its series branch only; equal to it, test/switching-segment.test.ts) at the segment's frozen electrical
+ *     speed, the mean of the speed profile predicted from the segment start's derivatives
+ *     (p (omega0 + g0 h/2 + g0' h²/6)), the voltage projected on the rotor's angle at the start;
+ *   - the mechanics as the exact stepper takes them (exact-stepper.ts), on the segment's two ends:
+ *     the torque's derivative from di/dt under the segment's voltage, the speed by the cubic Hermite
+ *     rule h/2 (g0 + g1) + h²/12 (g0' - g1'), the angle by the same rule on the speed's integral,
+ *     h²(7 g0/20 + 3 g1/20) + h³(g0'/20 - g1'/30), the energy by the rule on the bridge's power.
+ *     The end speed for the end's derivative is predicted from the start's (the friction's and the
+ *     load's dependence on the speed over a segment is of third order).
+ * The rules integrate the cubic Hermite interpolant of values and derivatives at the two ends (from
+ * memory: Stoer and Bulirsch, Introduction to Numerical Analysis, Hermite interpolation).
+ *
+ * `step` returns false (y untouched) where the closed form or the rules do not apply, and the caller
+ * integrates the segment otherwise (RK4 in switching-period.ts): free mechanics near zero speed
+ * (|omega0| < 20 w + 4 |g0| h, w the smoothed Coulomb sign's width), a large angle per segment
+ * (max(p |omega0|, Rs/L) h > MAX_ANGLE; |delta h| or |we h| above 0.5, the series' range), the
+ * propagator's rounding-error bound (with 1-norms) above 1e-11 Imax
+ * (the Rs -> 0 resonance), a non-finite state. Allocation-free; an instance belongs to one run.
+ */
+import { cosS, sincS, coshS, sinhcS } from './dq-propagator';
+import { MAX_ANGLE } from './exact-stepper';
+import type { Plant } from './plant';
+import { cosSmall, sinSmall } from '../mathematics/rotation';
+
+const sinSmallL = sinSmall;
+const cosSmallL = cosSmall;
+const cosSL = cosS, sincSL = sincS, coshSL = coshS, sinhcSL = sinhcS;
+const EPS8 = 8 * 2.220446049250313e-16;
+
+export class ExactSegment {
+  /** the segment [span[0], span[1]] the next `step` integrates, s (doubles cross the call unboxed) */
+  readonly span = new Float64Array(2);
+  /** the angle and its cos and sin the caller last computed (the start's rotation when the angle is the start's) */
+  readonly rot = new Float64Array(3).fill(NaN);
+  /** segments the closed form declined */
+  fallbacks = 0;
+  private readonly pp: number;
+  private readonly Rs: number;
+  private readonly Ld: number;
+  private readonly Lq: number;
+  private readonly psiM: number;
+  private readonly iLd: number;
+  private readonly iLq: number;
+  private readonly invJ: number;
+  private readonly B: number;
+  private readonly Tc: number;
+  private readonly width: number;
+  private readonly iWidth: number;
+  private readonly k2: number;
+  private readonly free: boolean;
+  private readonly errMax: number;
+  private readonly rate: number;
+  // the propagator's constants (see DqPropagator.setStep), for its arithmetic written out in `step`
+  private readonly m: number;
+  private readonly q: number;
+  private readonly rqd: number;
+  private readonly rdq: number;
+  private readonly Rs2: number;
+  private readonly iRs: number;
+  private readonly S2: number;
+  private readonly LqS2: number;
+  private readonly LdS2: number;
+  private readonly dL: number;
+  private readonly LdLq: number;
+  // node results (see `node`): g = omega', g', power, power' (double fields start as non-integers)
+  private ng = NaN; private ngp = NaN; private np = NaN; private npp = NaN;
+  /** arguments of `node`: id, iq, omega, vd, vq, t */
+  private readonly arg = new Float64Array(6);
+
+  constructor(private readonly plant: Plant, Imax: number) {
+    const m = plant.model.linear;
+    if (m === null || plant.fluxStates) throw new Error('ExactSegment needs a constant-parameter plant in current states');
+    this.pp = plant.model.polePairs;
+    this.Rs = plant.model.Rs;
+    this.Ld = m.Ld;
+    this.Lq = m.Lq;
+    this.psiM = m.psiM;
+    this.iLd = 1 / m.Ld;
+    this.iLq = 1 / m.Lq;
+    const pr = plant.params;
+    this.invJ = 1 / pr.inertia;
+    this.B = pr.viscousFriction;
+    this.Tc = pr.coulombFriction;
+    this.width = pr.coulombWidth_rad_s;
+    this.iWidth = 1 / pr.coulombWidth_rad_s;
+    this.k2 = pr.load.quadraticK;
+    this.free = pr.mechanics === 'free';
+    this.errMax = 1e-11 * Imax;
+    this.rate = Math.max(this.Rs / m.Ld, this.Rs / m.Lq);
+    const a = -this.Rs / m.Ld, d = -this.Rs / m.Lq, S = m.Ld + m.Lq;
+    this.m = 0.5 * (a + d);
+    this.q = 0.5 * (a - d);
+    this.rqd = m.Lq / m.Ld;
+    this.rdq = m.Ld / m.Lq;
+    this.Rs2 = this.Rs * this.Rs;
+    this.iRs = 1 / this.Rs; // Infinity for Rs = 0: every segment then declines (the bound below is not finite)
+    this.S2 = S * S;
+    this.LqS2 = 2 * m.Lq * S;
+    this.LdS2 = 2 * m.Ld * S;
+    this.dL = m.Ld - m.Lq;
+    this.LdLq = m.Ld * m.Lq;
+  }
+
+  /**
+   * The plant's derivative at a node from arg[0..5] (see `arg`), the load line the plant holds
+   * (Plant.setLoadSegment): g, g' (omega'' from the torque's derivative), the power and its derivative.
+   */
+  private node(): void {
+    const a = this.arg;
+    const id = a[0]!, iq = a[1]!, w = a[2]!, vd = a[3]!, vq = a[4]!, t = a[5]!;
+    this.plant.evaluations++;
+    const p = this.pp, Ld = this.Ld, Lq = this.Lq, psiM = this.psiM, Rs = this.Rs;
+    const we = p * w;
+    const did = (vd - Rs * id + we * Lq * iq) * this.iLd;
+    const diq = (vq - Rs * iq - we * (Ld * id + psiM)) * this.iLq;
+    this.np = 1.5 * (vd * id + vq * iq);
+    this.npp = 1.5 * (we * vq * id + vd * did - we * vd * iq + vq * diq);
+    if (!this.free) { this.ng = 0; this.ngp = 0; return; }
+    const k = 1.5 * p;
+    const Te = k * (psiM * iq + (Ld - Lq) * id * iq);
+    const dTe = k * (psiM * diq + (Ld - Lq) * (did * iq + id * diq));
+    const aw = w < 0 ? -w : w;
+    let fr = 0, dfr = 0;
+    if (this.Tc > 0) {
+      const x = w * this.iWidth;
+      const r = 1 / Math.sqrt(1 + x * x);
+      fr = this.Tc * x * r;
+      dfr = this.Tc * r * r * r * this.iWidth;
+    }
+    const plant = this.plant;
+    const g = (Te - this.B * w - fr - (plant.loadA + plant.loadB * t) - this.k2 * w * aw) * this.invJ;
+    this.ng = g;
+    this.ngp = (dTe - (this.B + dfr + 2 * this.k2 * aw) * g - plant.loadB) * this.invJ;
+  }
+
+  /** Integrate y over [span[0], span[1]] with the plant's input (alpha-beta) held; false (y untouched) where it does not apply. */
+  step(y: Float64Array): boolean {
+    const ta = this.span[0]!, tb = this.span[1]!;
+    const h = tb - ta;
+    const plant = this.plant;
+    const p = this.pp;
+    const id0 = y[0]!, iq0 = y[1]!, w0 = y[2]!, th0 = y[3]!;
+    const aw0 = w0 < 0 ? -w0 : w0;
+    if ((p * aw0 > this.rate ? p * aw0 : this.rate) * h > MAX_ANGLE) return this.no();
+    // the rotation at the start from the plant's angle origin (as the plant's derivative does)
+    const d = th0 - plant.th0;
+    const rot = this.rot;
+    let c: number, s: number;
+    if (rot[0] === th0) {
+      c = rot[1]!;
+      s = rot[2]!;
+    } else if (d > -0.5 && d < 0.5) {
+      const sd = sinSmallL(d), cd = cosSmallL(d);
+      c = plant.c0 * cd - plant.s0 * sd;
+      s = plant.s0 * cd + plant.c0 * sd;
+    } else {
+      c = Math.cos(th0);
+      s = Math.sin(th0);
+    }
+    const u = plant.input;
+    const vd0 = u[0]! * c + u[1]! * s, vq0 = -u[0]! * s + u[1]! * c;
+    if (!Number.isFinite(id0 + iq0 + w0 + th0 + vd0 + vq0)) return this.no();
+    const ag = this.arg;
+    ag[0] = id0; ag[1] = iq0; ag[2] = w0; ag[3] = vd0; ag[4] = vq0; ag[5] = ta;
+    this.node();
+    const g0 = this.ng, gp0 = this.ngp, P0 = this.np, Pp0 = this.npp;
+    if (this.free) {
+      const ag0 = g0 < 0 ? -g0 : g0;
+      if (aw0 < 20 * this.width + 4 * ag0 * h) return this.no();
+    }
+    const hh = h * h;
+    // DqPropagator.setStep, errorBound and propagate written out (no call, no square root): the
+    // series branch |delta h| <= 0.5 (every segment of a carrier period at any sensible speed)
+    const W = p * (w0 + 0.5 * g0 * h + (gp0 * hh) / 6);
+    const q = this.q;
+    const yy = (q * q - W * W) * hh;
+    const wt = W * h;
+    if (!(yy > -0.25 && yy < 0.25 && wt > -0.5 && wt < 0.5)) return this.no();
+    const mh = this.m * h;
+    // e^{m h} by its series below |m h| = 0.05 (truncation below 1e-16), else the library's
+    const E = mh > -0.05 && mh < 0.05 ? 1 + mh * (1 + mh * (0.5 + mh * (1 / 6 + mh * (1 / 24 + mh * (1 / 120 + mh * (1 / 720 + mh / 5040)))))) : Math.exp(mh);
+    let EC: number, ES: number;
+    if (yy >= 0) { EC = E * coshSL(yy); ES = E * h * sinhcSL(yy); } else { EC = E * cosSL(-yy); ES = E * h * sincSL(-yy); }
+    const p11 = EC + ES * q, p12 = ES * W * this.rqd, p21 = -ES * W * this.rdq, p22 = EC - ES * q;
+    const wt2 = wt * wt;
+    const cw = cosSL(wt2), sw = wt * sincSL(wt2);
+    const w2 = W * W, Rs2 = this.Rs2;
+    const iN = 1 / (Rs2 + w2 * this.S2);
+    const iRN = iN * this.iRs;
+    const k1r = (Rs2 + w2 * this.LqS2) * iRN, k1i = W * this.dL * iN;
+    const k2r = -k1i, k2i = -(Rs2 + w2 * this.LdS2) * iRN;
+    const f = (W * this.psiM) / (Rs2 + w2 * this.LdLq);
+    const xcd = W === 0 ? 0 : -W * this.Lq * f, xcq = W === 0 ? 0 : -this.Rs * f;
+    // the rounding-error bound of DqPropagator.errorBound with 1-norms (at least its 2-norms)
+    const bound = EPS8 * (Math.abs(id0) + Math.abs(iq0) + (Math.abs(k1r) + Math.abs(k1i) + Math.abs(k2r) + Math.abs(k2i)) * (Math.abs(vd0) + Math.abs(vq0)) + Math.abs(xcd) + Math.abs(xcq));
+    if (!(bound <= this.errMax)) return this.no();
+    const x1r = vd0 * k1r - vq0 * k1i, x1i = vd0 * k1i + vq0 * k1r;
+    const x2r = vd0 * k2r - vq0 * k2i, x2i = vd0 * k2i + vq0 * k2r;
+    const zd = id0 - x1r - xcd, zq = iq0 - x2r - xcq;
+    const id1 = p11 * zd + p12 * zq + xcd + x1r * cw + x1i * sw;
+    const iq1 = p21 * zd + p22 * zq + xcq + x2r * cw + x2i * sw;
+    ag[0] = id1; ag[1] = iq1; ag[2] = w0 + g0 * h + 0.5 * gp0 * hh; ag[3] = vd0 * cw + vq0 * sw; ag[4] = -vd0 * sw + vq0 * cw; ag[5] = tb;
+    this.node();
+    const g1 = this.ng, gp1 = this.ngp, P1 = this.np, Pp1 = this.npp;
+    y[0] = id1;
+    y[1] = iq1;
+    y[2] = w0 + 0.5 * h * (g0 + g1) + (hh / 12) * (gp0 - gp1);
+    y[3] = th0 + p * (w0 * h + hh * (0.35 * g0 + 0.15 * g1) + hh * h * (gp0 / 20 - gp1 / 30));
+    y[4] = y[4]! + 0.5 * h * (P0 + P1) + (hh / 12) * (Pp0 - Pp1);
+    return true;
+  }
+
+  private no(): boolean {
+    this.fallbacks++;
+    return false;
+  }
+}
