@@ -53,7 +53,15 @@ describe('the ripple window', () => {
     const j = w.t_s.findIndex((x) => x * 1e3 >= mid);
     expect(w.ia_A[j - 1]! < 0 || w.ia_A[j]! < 0).toBe(true);
     expect(windowZoom(s, 'window')).toBeNull();
-    expect((rippleWindowFigure(s, theme, col, [a, b]).layout.xaxis as { range: number[] }).range).toEqual([a, b]);
+    const zf = rippleWindowFigure(s, theme, col, [a, b]);
+    expect((zf.layout.xaxis as { range: number[] }).range).toEqual([a, b]);
+    // zoomed: ia alone, its axis around its samples there (the ripple fills it), ib and ic a legend click away
+    const inRange = Array.from(w.ia_A).filter((_, j) => w.t_s[j]! * 1e3 >= a && w.t_s[j]! * 1e3 <= b);
+    const [lo, hi] = (zf.layout.yaxis as { range: number[] }).range as [number, number];
+    expect(lo).toBeCloseTo(Math.min(...inRange) - 0.15 * (Math.max(...inRange) - Math.min(...inRange)), 9);
+    expect(hi).toBeCloseTo(Math.max(...inRange) + 0.15 * (Math.max(...inRange) - Math.min(...inRange)), 9);
+    expect((zf.data as Array<{ visible?: unknown }>).map((d) => d.visible)).toEqual([undefined, 'legendonly', 'legendonly', undefined, undefined]);
+    expect((rippleWindowFigure(s, theme, col).layout.yaxis as { range?: number[] }).range).toBeUndefined();
   });
 
   it('the ripple envelope runs over one fundamental period in degrees', () => {
@@ -165,5 +173,17 @@ describe('the averaged run a switching run keeps', () => {
     const iqS = meanAfter(d[2]!, 0.35), iqA = meanAfter(d[3]!, 0.35);
     expect(Math.abs(iqS - iqA) / Math.abs(iqA)).toBeLessThan(0.01);
     expect(Math.abs(meanAfter(d[0]!, 0.35) - 3000)).toBeLessThan(3);
+
+    // the engine's switching result, drawn and summarised: every window sample, the summary's own numbers
+    const sr = w.switching!;
+    expect(a.switching).toBeUndefined();
+    const win = rippleWindowFigure(sr, theme, col).data as unknown as Tr[];
+    for (const t of win) expect(t.x.length).toBe(sr.window.t_s.length);
+    const dead = switchingSummary(sr).find((r) => r.key === 'deadTime')!.value;
+    expect(dead).toBe(sr.deadTimeVoltageError_V);
+    // dead time 0 here and a 0.2 V device drop: the drop alone is a square wave of 0.2 V against the
+    // current, fundamental (4/pi) 0.2 V = 0.255 V (common practice (no source)); the dead time adds
+    // (4/pi) Vdc td fsw (Murai, Watanabe and Iwasaki 1987), nothing at td = 0
+    expect(Math.abs(dead - (4 / Math.PI) * 0.2) / ((4 / Math.PI) * 0.2)).toBeLessThan(0.1);
   }, 30_000);
 });

@@ -30,7 +30,8 @@ const stack = (rows: number, i: number, gap = 0.06): [number, number] => {
  * The ripple window: phase currents ia, ib, ic at every segment boundary (straight between them, as the
  * current runs between switching instants), the applied phase voltage va and the DC-link current idc
  * (each the value over the segment ending at its boundary: drawn as steps, vertical first), on one
- * time axis in ms; `range_ms` the part shown (the whole window when absent).
+ * time axis in ms; `range_ms` the part shown (the whole window when absent; when given, ia alone on
+ * an axis fitted to its samples there, ib and ic hidden in the legend).
  */
 export function rippleWindowFigure(s: SwitchingResult, t: PlotTheme, col: CurveColours, range_ms?: [number, number] | null): Figure {
   const w = s.window;
@@ -44,12 +45,23 @@ export function rippleWindowFigure(s: SwitchingResult, t: PlotTheme, col: CurveC
     tr(w.va_V, 'va (applied, phase to neutral)', 'y2', col.mtpv, 'vh'),
     tr(w.idc_A, 'idc (DC link)', 'y3', col.load, 'vh'),
   ];
+  // zoomed to a few carrier periods: ia alone on an axis fitted to it there, so its ripple reads (ib, ic a click away in the legend)
+  let iaRange: [number, number] | null = null;
+  if (range_ms) {
+    let lo = Infinity, hi = -Infinity;
+    for (let j = 0; j < x.length; j++) if (x[j]! >= range_ms[0] && x[j]! <= range_ms[1]) (lo = Math.min(lo, w.ia_A[j]!), hi = Math.max(hi, w.ia_A[j]!));
+    if (hi >= lo) {
+      const pad = Math.max(0.15 * (hi - lo), 1e-3 * Math.max(1, Math.abs(hi)));
+      iaRange = [lo - pad, hi + pad];
+      for (const d of data.slice(1, 3) as Array<{ visible?: unknown }>) d.visible = 'legendonly';
+    }
+  }
   const layout = baseLayout(t, {
     margin: { l: 70, r: 16, t: 10, b: 44 },
     hovermode: 'x',
     legend: { orientation: 'h', x: 0, y: 1.06, yanchor: 'bottom', font: { size: 11 } },
     xaxis: axis(t, 'time, ms', { anchor: 'y3', range: range_ms ?? [x[0] ?? 0, x[x.length - 1] ?? 1] }),
-    yaxis: axis(t, 'ia, ib, ic, A', { domain: stack(3, 0) }),
+    yaxis: axis(t, iaRange ? 'ia, A' : 'ia, ib, ic, A', iaRange ? { domain: stack(3, 0), range: iaRange } : { domain: stack(3, 0) }),
     yaxis2: axis(t, 'va, V', { domain: stack(3, 1) }),
     yaxis3: axis(t, 'idc, A', { domain: stack(3, 2) }),
   } as Layout);
