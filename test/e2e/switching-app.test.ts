@@ -72,8 +72,14 @@ describe('the switching model in the Load steps view', () => {
     // (2/3 + 1/sqrt(3)) Vdc T / L = 66 A of swing in one 50 µs carrier period on 45 µH (common practice (no source))
     expect(ripple).toBeGreaterThan(0);
     expect(ripple).toBeLessThan(66);
+    // the statistics cover whole fundamental periods of 250 Hz (3000 rpm, 5 pole pairs)
+    expect(await page.textContent('[data-testid="sw-conditions"]')).toMatch(/\d+ whole fundamental periods of 250 Hz/);
     await page.locator('[data-testid="switching-panel"]').scrollIntoViewIfNeeded();
-    await page.screenshot({ path: shotPath('switching-view'), fullPage: true });
+    await page.screenshot({ path: shotPath('switching-view') });
+    // zoomed to four carrier periods at ia's zero crossing: ia alone on its own scale
+    await page.selectOption('[data-testid="sw-zoom"]', 'zero');
+    await page.waitForFunction(() => document.querySelector('[data-testid="switching-window-plot"] .ytitle')?.textContent === 'ia, A');
+    await page.locator('[data-testid="switching-window-plot"]').screenshot({ path: shotPath('switching-window-zero') });
 
     // the window's CSV: a comment line, then the columns at full resolution
     const [download] = await Promise.all([page.waitForEvent('download'), page.click('[data-testid="sw-csv"]')]);
