@@ -30,17 +30,19 @@ export function SwitchingPanel({ result, project, theme }: { result: SimDone; pr
   const s = result.switching;
   const avg = result.averaged;
   const col = CURVE[theme];
-  const win = useMemo(() => (s ? rippleWindowFigure(s, readTheme(), col, windowZoom(s, zoom)) : null), [s, col, zoom]);
+  const zr = useMemo(() => (s ? windowZoom(s, zoom) : null), [s, zoom]);
+  const win = useMemo(() => (s ? rippleWindowFigure(s, readTheme(), col, zr) : null), [s, col, zr]);
   const env = useMemo(() => (s ? rippleEnvelopeFigure(s, readTheme(), col) : null), [s, col]);
   const spec = useMemo(() => (s ? spectrumFigure(s, log, readTheme(), col) : null), [s, log, col]);
   const over = useMemo(() => (avg ? overlayFigure(avg, result, readTheme(), col) : null), [avg, result, col]);
   const els = useRef<Partial<Record<Which, HTMLDivElement | null>>>({});
   const cond = s ? switchingConditions(s) : 'switching model';
   const span = s ? `window ${num(s.window.from_s * 1e3)} to ${num(s.window.to_s * 1e3)} ms` : '';
+  const zoomed = zr ? `4 carrier periods at ia's ${zoom === 'peak' ? 'peak' : 'zero crossing'}, ${num(zr[0], 6)} to ${num(zr[1], 6)} ms` : null;
   const save = (which: Which, format: 'png' | 'svg') => {
     const el = els.current[which];
     const what = {
-      window: `ripple window, ${span}`,
+      window: zoomed ? `ripple, ${zoomed} (${span})` : `ripple, ${span}`,
       envelope: 'phase-current ripple over the fundamental',
       spectrum: `phase-current spectrum, THD ${s ? num(s.thd * 100, 3) : '–'} %`,
       overlay: 'averaged and switching runs overlaid',
