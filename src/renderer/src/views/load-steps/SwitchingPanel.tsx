@@ -38,16 +38,17 @@ export function SwitchingPanel({ result, project, theme }: { result: SimDone; pr
   const els = useRef<Partial<Record<Which, HTMLDivElement | null>>>({});
   const cond = s ? switchingConditions(s) : 'switching model';
   const span = s ? `window ${num(s.window.from_s * 1e3)} to ${num(s.window.to_s * 1e3)} ms` : '';
-  const zoomed = zr ? `4 carrier periods at ia's ${zoom === 'peak' ? 'peak' : 'zero crossing'}, ${num(zr[0], 6)} to ${num(zr[1], 6)} ms` : null;
+  const shown = zr ? `4 carrier periods, ${num(zr[0], 6)} to ${num(zr[1], 6)} ms, of the ${span}` : span;
   const save = (which: Which, format: 'png' | 'svg') => {
     const el = els.current[which];
     const what = {
-      window: zoomed ? `ripple, ${zoomed} (${span})` : `ripple, ${span}`,
+      window: zr ? `ripple at ia's ${zoom === 'peak' ? 'peak' : 'zero crossing'}` : 'ripple window',
       envelope: 'phase-current ripple over the fundamental',
       spectrum: `phase-current spectrum, THD ${s ? num(s.thd * 100, 3) : '–'} %`,
       overlay: 'averaged and switching runs overlaid',
     }[which];
-    if (el) void exportPlotImage(el, format, `switching-${which}`, project, exporter, what, [`${cond}; load-step scenario of the project`]);
+    const more = which === 'window' ? `${cond}; ${shown}` : `${cond}; the project's load-step scenario`;
+    if (el) void exportPlotImage(el, format, `switching-${which}`, project, exporter, what, [more]);
   };
   const saveCsv = () => {
     if (!s) return;
