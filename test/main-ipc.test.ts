@@ -19,7 +19,7 @@ const BAD: Array<[string, (x: unknown) => { ok: boolean; message?: string }, 'sa
   ['save: unknown key', checkSaveRequest, 'save', { path: '/a.json', text: '{}', mode: 0o777 }, 'save.mode is not a known field'],
   ['saveAs: no text', checkSaveAsRequest, 'saveAs', {}, 'saveAs.text must be a string'],
   ['saveAs: a path as name', checkSaveAsRequest, 'saveAs', { text: '', suggestedName: '../../etc/x.json' }, 'saveAs.suggestedName must be a file name, not a path'],
-  ['export: unknown kind', checkExportRequest, 'export', { kind: 'exe', data: '' }, 'export.kind must be one of envelope-csv, traces-csv, plot-png, plot-svg, datasheet, efficiency-csv, duty-cycle-csv, current-table-header, tolerance-csv'],
+  ['export: unknown kind', checkExportRequest, 'export', { kind: 'exe', data: '' }, 'export.kind must be one of envelope-csv, traces-csv, plot-png, plot-svg, datasheet, efficiency-csv, duty-cycle-csv, switching-csv, current-table-header, tolerance-csv'],
   ['export: PNG as text', checkExportRequest, 'export', { kind: 'plot-png', data: 'iVBOR' }, 'export.data must be bytes (Uint8Array) for plot-png'],
   ['export: CSV as bytes', checkExportRequest, 'export', { kind: 'envelope-csv', data: new Uint8Array(3) }, 'export.data must be a string for envelope-csv'],
   ['export: a path smuggled in', checkExportRequest, 'export', { kind: 'plot-svg', data: '<svg/>', path: '/etc/passwd' }, 'export.path is not a known field'],

@@ -15,7 +15,7 @@ export const MAX_EXPORT_BYTES = 64 * 1024 * 1024;
 /** Longest path accepted. */
 export const MAX_PATH_CHARS = 4096;
 
-export const EXPORT_KINDS: readonly ExportKind[] = ['envelope-csv', 'traces-csv', 'plot-png', 'plot-svg', 'datasheet', 'efficiency-csv', 'duty-cycle-csv', 'current-table-header', 'tolerance-csv'];
+export const EXPORT_KINDS: readonly ExportKind[] = ['envelope-csv', 'traces-csv', 'plot-png', 'plot-svg', 'datasheet', 'efficiency-csv', 'duty-cycle-csv', 'switching-csv', 'current-table-header', 'tolerance-csv'];
 
 /** Save-dialog filter, default name and content type per export. */
 export const EXPORT_FORMATS: Record<ExportKind, { filterName: string; extension: string; binary: boolean; defaultName: string }> = {
@@ -26,6 +26,7 @@ export const EXPORT_FORMATS: Record<ExportKind, { filterName: string; extension:
   datasheet: { filterName: 'HTML page', extension: 'html', binary: false, defaultName: 'datasheet.html' },
   'efficiency-csv': { filterName: 'CSV table', extension: 'csv', binary: false, defaultName: 'efficiency-map.csv' },
   'duty-cycle-csv': { filterName: 'CSV table', extension: 'csv', binary: false, defaultName: 'duty-cycle.csv' },
+  'switching-csv': { filterName: 'CSV table', extension: 'csv', binary: false, defaultName: 'switching-window.csv' },
   'current-table-header': { filterName: 'C header', extension: 'h', binary: false, defaultName: 'current-table.h' },
   'tolerance-csv': { filterName: 'CSV table', extension: 'csv', binary: false, defaultName: 'tolerance-samples.csv' },
 };

@@ -3,7 +3,7 @@
 // Kept free of imports other than types: the sandboxed preload bundles it.
 import type { ExportKind } from '../types/bridge';
 
-const EXPORT_KINDS: readonly ExportKind[] = ['envelope-csv', 'traces-csv', 'plot-png', 'plot-svg', 'datasheet', 'efficiency-csv', 'duty-cycle-csv', 'current-table-header', 'tolerance-csv'];
+const EXPORT_KINDS: readonly ExportKind[] = ['envelope-csv', 'traces-csv', 'plot-png', 'plot-svg', 'datasheet', 'efficiency-csv', 'duty-cycle-csv', 'switching-csv', 'current-table-header', 'tolerance-csv'];
 
 function isObject(x: unknown): x is Record<string, unknown> {
   return typeof x === 'object' && x !== null && !Array.isArray(x);

@@ -2,7 +2,7 @@
 // Types only: the preload implements it, the renderer consumes it, main serves its channels.
 
 /** What an Export menu item produces; the renderer supplies the content, main writes it. */
-export type ExportKind = 'envelope-csv' | 'traces-csv' | 'plot-png' | 'plot-svg' | 'datasheet' | 'efficiency-csv' | 'duty-cycle-csv' | 'current-table-header' | 'tolerance-csv';
+export type ExportKind = 'envelope-csv' | 'traces-csv' | 'plot-png' | 'plot-svg' | 'datasheet' | 'efficiency-csv' | 'duty-cycle-csv' | 'switching-csv' | 'current-table-header' | 'tolerance-csv';
 
 /** Events the application menu sends to the renderer (the renderer decides what to do). */
 export type MenuEventName =

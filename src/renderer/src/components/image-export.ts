@@ -47,12 +47,13 @@ export const figureTitle = (project: ResolvedProject, name: string, what?: strin
 /**
  * A plot element as a PNG or SVG file named `name`, through plotly's image API, drawn with a title,
  * its legend and the conditions (project, bus, temperatures, current limits, date, version); says how it went.
- * `what`: what the plot shows, for the title (default: by the plot's name).
+ * `what`: what the plot shows, for the title (default: by the plot's name); `moreConditions`: lines
+ * before the project's conditions (the run's own, e.g. the PWM model).
  */
-export function exportPlotImage(el: HTMLElement, format: 'png' | 'svg', name: string, project: ResolvedProject, exporter: Exporter, what?: string): Promise<boolean> {
+export function exportPlotImage(el: HTMLElement, format: 'png' | 'svg', name: string, project: ResolvedProject, exporter: Exporter, what?: string, moreConditions: string[] = []): Promise<boolean> {
   const image = async () => {
     const gd = el as unknown as { data?: Data[]; layout?: Partial<Layout> };
-    const layout = exportLayout(gd.layout ?? {}, figureTitle(project, name, what), figureConditions(project, { date: isoDate(new Date()) }));
+    const layout = exportLayout(gd.layout ?? {}, figureTitle(project, name, what), [...moreConditions, ...figureConditions(project, { date: isoDate(new Date()) })]);
     const fig = { data: gd.data ?? [], layout } as unknown as Parameters<typeof Plotly.toImage>[0];
     return Plotly.toImage(fig, { format, width: EXPORT_SIZE.width, height: EXPORT_SIZE.height, scale: format === 'png' ? 2 : 1 });
   };

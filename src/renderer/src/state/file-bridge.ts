@@ -38,6 +38,7 @@ const MIME: Record<ExportKind, string> = {
   datasheet: 'text/html',
   'efficiency-csv': 'text/csv',
   'duty-cycle-csv': 'text/csv',
+  'switching-csv': 'text/csv',
   'current-table-header': 'text/x-c',
   'tolerance-csv': 'text/csv',
 };

@@ -4,6 +4,7 @@
 // with progress, the core's SimulationResult and findings, or the reason it could not run.
 import type { Finding } from '../../../core/base/finding';
 import type { SimulationResult } from '../../../core/simulation/simulate';
+import type { SwitchingResult } from '../../../core/simulation/switching-result';
 
 export type SimRequest = {
   kind: 'run';
@@ -17,7 +18,8 @@ export type SimReply =
   | { kind: 'progress'; fraction: number }
   | {
       kind: 'done';
-      result: SimulationResult;
+      /** with the switching model, its switching result beside the averaged results */
+      result: SimulationResult & { switching?: SwitchingResult };
       /** before and after the run: the scenario beyond the motor or drive, tuning warnings, limits met */
       findings: Finding[];
     }

@@ -16,6 +16,9 @@ import type { SimDone } from '../../state/simulation-run';
 import { useExporter } from '../../state/exporter';
 import { tracesCsv } from '../../components/exports';
 import { num } from '../../components/format';
+import { PwmControl } from './PwmControl';
+import { SwitchingPanel } from './SwitchingPanel';
+import { inputsKey, keepAveraged } from './switching-figures';
 
 
 /** Colours of the traces: distinct within each plot and never one colour for two quantities. */
@@ -130,11 +133,15 @@ const METRICS: Array<[keyof SimDone['metrics'], string, (v: number) => string]> 
 export const LoadStepsView = memo(function LoadStepsView({ project, theme, stale, result, setResult }: { project: ResolvedProject; theme: 'light' | 'dark'; stale: boolean; result: SimDone | null; setResult: (r: SimDone) => void }) {
   const exporter = useExporter();
 
+  // the inverter model and the inputs of the run asked for, for the run that comes back
+  const asked = useRef<{ pwmModel: 'average' | 'switching'; inputsKey: string }>({ pwmModel: 'average', inputsKey: '' });
   const { run, start: startRun, cancel } = useWorkerRun<SimRequest, Omit<Extract<SimReply, { kind: 'done' }>, 'kind'>>('simulation', (m) =>
-    setResult({ ...m.result, findings: m.findings, project: project.name }),
+    setResult(keepAveraged(result, { ...m.result, findings: m.findings, project: project.name, ...asked.current })),
   );
-  const start = () =>
+  const start = () => {
+    asked.current = { pwmModel: project.file.control?.pwm?.model === 'switching' ? 'switching' : 'average', inputsKey: inputsKey(project.file) };
     startRun(new Worker(new URL('../../workers/sim-worker.ts', import.meta.url), { type: 'module' }), { kind: 'run', projectText: JSON.stringify(project.file), maxPoints: 4000 });
+  };
 
   const fig = useMemo(() => (result ? tracesFigure(result, theme) : null), [result, theme]);
   const hasScenario = project.file.scenario !== undefined;
@@ -149,6 +156,9 @@ export const LoadStepsView = memo(function LoadStepsView({ project, theme, stale
         </Section>
         <Section title="Controller (edit in the side panel)">
           <InputSummary items={CONTROL_SUMMARY} testId="loadsteps-control" note="Click a name to edit it in the side panel." />
+        </Section>
+        <Section title="PWM: inverter model">
+          <PwmControl />
         </Section>
       </div>
       <div>
@@ -192,9 +202,10 @@ export const LoadStepsView = memo(function LoadStepsView({ project, theme, stale
                 ))}
               </div>
             )}
+            {result.pwmModel === 'switching' && <SwitchingPanel result={result} project={project} theme={theme} />}
             <div className="card">
               <h4>
-                Traces — {result.project}
+                Traces — {result.project}{result.pwmModel === 'switching' ? ' (switching model)' : ''}
                 <span style={{ fontWeight: 400, fontSize: 12, marginLeft: 10 }}>shaded: voltage saturation (amber), current limit (red)</span>
               </h4>
               {fig && <Plot data={fig.data} layout={fig.layout} height={660} testId="traces-plot" />}
