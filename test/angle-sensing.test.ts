@@ -55,9 +55,6 @@ describe('angle source in the simulation', () => {
     expect(slow.metrics.angleErrorPeak_rad!).toBeGreaterThan(5 * fast.metrics.angleErrorPeak_rad!);
     expect(Math.abs(slow.metrics.finalSpeed_rpm! - 2000)).toBeGreaterThan(10);
   });
-  it('sensorless is refused until its observer is in', () => {
-    expect(messageOf(() => runSimulation(servo({ source: 'sensorless', handoverSpeed_rpm: 100 })))).toMatch(/^control\.angle\.source "sensorless" cannot be simulated yet/);
-  });
   it('the command line: angle columns and metrics only when the source is not ideal', () => {
     const o = { maxPoints: 50 };
     const ideal = runSimulation(servo(), o);
