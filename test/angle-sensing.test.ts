@@ -11,7 +11,8 @@ import { simulationCsv, simulationJson } from '../src/cli/commands/simulate';
 
 function servo(angle?: unknown) {
   const o = demoJson('demo-servo-axis');
-  if (angle !== undefined) o.control.angle = angle;
+  // the demo carries an encoder: no argument = the section left out (the true angle)
+  if (angle !== undefined) o.control.angle = angle; else delete o.control.angle;
   return simulationFromProject(loadProjectText(JSON.stringify(o)));
 }
 
