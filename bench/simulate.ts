@@ -157,7 +157,7 @@ export const simulateBench: BenchSection = {
   run() {
     const path = fileURLToPath(new URL('../resources/demo-ipm-traction.json', import.meta.url));
     const p = loadProjectText(readFileSync(path, 'utf8'));
-    const base = simulationFromProject(p, { control: { fCtrl_Hz: 10000 }, scenario: { duration_s: 1 } });
+    const base = simulationFromProject(p, { control: { fCtrl_Hz: 10000, angle: { source: 'ideal' } }, scenario: { duration_s: 1 } }); // the true angle: the demo's resolver is measured in angle-sources.ts
     const Imax = base.Imax;
     const ref = runSimulation({ ...base, solver: { ...base.solver, tol: 1e-11 } }, FULL);
     const ours = timed(base);
@@ -217,7 +217,7 @@ export const simulateMapBench: BenchSection = {
   run() {
     const path = fileURLToPath(new URL('../resources/demo-ipm-traction.json', import.meta.url));
     const p = loadProjectText(readFileSync(path, 'utf8'));
-    const base = simulationFromProject(p, { control: { fCtrl_Hz: 10000 }, scenario: { duration_s: 1 } });
+    const base = simulationFromProject(p, { control: { fCtrl_Hz: 10000, angle: { source: 'ideal' } }, scenario: { duration_s: 1 } }); // the true angle: the demo's resolver is measured in angle-sources.ts
     const m = base.plant.machine;
     const mapSetup = (): SimulationSetup<MachineModel> => {
       const map = tabulatedMap(m, 1.5 * base.Imax, 41);

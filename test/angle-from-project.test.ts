@@ -28,6 +28,7 @@ describe('angleFromProject', () => {
 describe('the simulation setup carries the angle source', () => {
   it('ideal (absent): no angle in the setup, as before; an encoder: its specification', () => {
     const o = demoJson('demo-servo-axis');
+    delete o.control.angle; // the demo carries an encoder: the section left out
     expect('angle' in simulationFromProject(loadProjectText(JSON.stringify(o)))).toBe(false);
     o.control.angle = { source: 'ideal' };
     expect('angle' in simulationFromProject(loadProjectText(JSON.stringify(o)))).toBe(false);

@@ -14,6 +14,14 @@ const demo = (name: string) => join(root, 'resources', `demo-${name}.json`);
 const run = runCli;
 
 const dir = mkdtempSync(join(tmpdir(), 'tw-cli-'));
+/** a copy of the servo demo with the true rotor angle (control.angle ideal): for the checks about the loops and limits, not the angle source */
+const servoIdeal = (): string => {
+  const o = JSON.parse(readFileSync(demo('servo-axis'), 'utf8'));
+  o.control.angle = { source: 'ideal' };
+  const f = join(dir, 'demo-servo-axis-ideal.json');
+  writeFileSync(f, JSON.stringify(o));
+  return f;
+};
 
 /** An invented lossless surface-magnet project for closed-form checks. */
 function spmProject(over: Record<string, unknown> = {}): string {
@@ -86,7 +94,7 @@ describe('cli --json documents', () => {
   });
 
   it('simulate and tune: the documents of the issue', async () => {
-    const sim = JSON.parse((await run('simulate', demo('servo-axis'), '--json')).out);
+    const sim = JSON.parse((await run('simulate', servoIdeal(), '--json')).out);
     expect(Object.keys(sim).sort()).toEqual(expect.arrayContaining(['events', 'metrics', 'stats', 'traces']));
     for (const k of ['finalSpeed_rpm', 'speedOvershoot_pct', 'riseTime_s', 'settlingTime_s', 'loadStepDip_rpm', 'loadStepRecovery_s', 'peakCurrent_A', 'rmsCurrent_A', 'voltageSaturation_s']) {
       expect(sim.metrics).toHaveProperty(k);
@@ -113,7 +121,7 @@ describe('cli --json documents', () => {
     expect(sim.diagnostic).toBeNull();
     expect(sim.stats.evaluationsPerPeriod).toBe(6);
     // --max-points bounds the trace length; the metrics are the same (they use every sample)
-    const short = JSON.parse((await run('simulate', demo('servo-axis'), '--max-points', '200', '--json')).out);
+    const short = JSON.parse((await run('simulate', servoIdeal(), '--max-points', '200', '--json')).out);
     expect(short.traces.t_s.length).toBeLessThanOrEqual(200);
     expect(short.metrics.loadStepDip_rpm).toBe(sim.metrics.loadStepDip_rpm);
     const tune = JSON.parse((await run('tune', demo('servo-axis'), '--json')).out);
@@ -165,7 +173,7 @@ describe('cli: which current limit binds', () => {
       expect(doc.currentLimits.peak.inverter_A).toBe(450);
       expect(doc.currentLimits.continuous).toMatchObject({ A: 226, binds: 'inverter' });
     }
-    const sim = await run('simulate', demo('servo-axis'));
+    const sim = await run('simulate', servoIdeal());
     expect(sim.out).toMatch(/current reference limited to the peak 15 A peak \(10\.61 A rms\): inverter/);
     expect(sim.out).toMatch(/caution, inverter peak current: the phase current reached 15\.75 A peak/);
   });

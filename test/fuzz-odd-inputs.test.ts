@@ -11,7 +11,12 @@ import { computeEnvelope } from '../src/core/steady-state/envelope';
 import { InputError } from '../src/core/base/errors';
 
 type Json = Record<string, any>;
-const spm = (): Json => structuredClone(DEMOS['demo-spm-48v']) as Json;
+// the 48 V demo with the true rotor angle (control.angle ideal): these checks are about odd machines, not the angle source
+const spm = (): Json => {
+  const o = structuredClone(DEMOS['demo-spm-48v']) as Json;
+  (o.control as Json).angle = { source: 'ideal' };
+  return o;
+};
 const withMotor = (patch: Json, base: Json = spm()): Json => ({ ...base, motor: { ...base.motor, ...patch } });
 const resolve = (j: Json) => resolveProject(parseProject(j));
 const codes = (j: Json): string[] => resolve(j).findings.map((f) => f.code);

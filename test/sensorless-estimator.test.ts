@@ -8,7 +8,7 @@ import { LinearDqModel } from '../src/core/machine/linear-dq';
 import type { DqMachine } from '../src/core/machine/dq-machine';
 import { SensorlessEstimator, type SensorlessOptions } from '../src/core/control/sensorless-estimator';
 import { correctionGains, correctionWeight } from '../src/core/control/sensorless-active-flux';
-import { wrapAngle } from '../src/core/control/sensorless-pll';
+import { wrapToPi as wrapAngle } from '../src/core/control/angle-estimator';
 import type { SensorlessAngle } from '../src/core/control/angle-spec';
 import { messageOf } from './helpers';
 

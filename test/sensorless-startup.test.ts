@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { OpenLoopStartup, STARTUP_BLEND, STARTUP_DONE, STARTUP_OPEN_LOOP } from '../src/core/control/sensorless-startup';
-import { wrapAngle } from '../src/core/control/sensorless-pll';
+import { wrapToPi as wrapAngle } from '../src/core/control/angle-estimator';
 
 // Open-loop (current-frequency) start with a speed ramp, then a linear blend of the angle to the
 // observer's: common practice (no source). The checks are kinematics: the ramp reaches the

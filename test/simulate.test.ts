@@ -9,7 +9,12 @@ import type { SimulationResult } from '../src/core/simulation/simulate';
 import { stepResponse, loadStepResponse, steadyStateError } from '../src/core/simulation/metrics';
 import { MAX_TRACE_POINTS } from '../src/core/simulation/decimate';
 
-const demo = (f: string): any => JSON.parse(readFileSync(resolve(__dirname, '..', 'resources', `${f}.json`), 'utf8'));
+// the demos with the true rotor angle (control.angle ideal): these checks are about the plant and the loops, not the angle source
+const demo = (f: string): any => {
+  const o = JSON.parse(readFileSync(resolve(__dirname, '..', 'resources', `${f}.json`), 'utf8'));
+  if (o.control) o.control.angle = { source: 'ideal' };
+  return o;
+};
 const proj = (o: unknown): ResolvedProject => loadProjectText(JSON.stringify(o));
 /** untouched traces: every run here is shorter than the largest trace length a run may ask for */
 const FULL = { maxPoints: MAX_TRACE_POINTS };

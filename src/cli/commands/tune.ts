@@ -2,6 +2,7 @@ import type { Command } from '../command';
 import { table, fmt, orDash } from '../table';
 import { gainScheduleFromProject, tuneFromProject, tuningInputFromProject } from '../../core/project/tuning-from-project';
 import type { LoopReport, TuningReport } from '../../core/control/tuning';
+import type { EstimatorLoopReport } from '../../core/control/estimator-loop';
 import type { GainSchedule } from '../../core/control/gain-schedule';
 import { findingLine } from '../../core/reports/phrases';
 import { GAIN_SCHEDULE_COLUMNS, gainScheduleCaption, gainScheduleCells } from '../../core/reports/gain-schedule-table';
@@ -20,8 +21,17 @@ export function tuningJson(r: TuningReport, withBode = false, schedule: GainSche
     speedLagEquivalent_s: r.speedLagEquivalent_s,
     currentDelay_s: r.currentDelay_s,
     warnings: r.warnings,
+    ...(r.estimator ? { estimator: withBode ? r.estimator : { ...r.estimator, speedLoop: { crossover_Hz: r.estimator.speedLoop.crossover_Hz, phaseMargin_deg: r.estimator.speedLoop.phaseMargin_deg } } } : {}),
     ...(schedule ? { gainSchedule: schedule } : {}),
   };
+}
+
+/** The estimator's loop in words: its gains and margins (closed forms), the speed loop through it. */
+function estimatorLine(e: EstimatorLoopReport): string {
+  const loop = e.kp !== null && e.ki !== null
+    ? `type II loop kp ${fmt(e.kp)} 1/s, ki ${fmt(e.ki)} 1/s², wn ${fmt(e.naturalFrequency_rad_s!)} rad/s, damping ${fmt(e.damping!)}, angle bandwidth ${orDash(e.angleBandwidth_Hz)} Hz, crossover ${orDash(e.crossover_Hz)} Hz, phase margin ${orDash(e.phaseMargin_deg)} deg; `
+    : '';
+  return `angle estimator (${e.source}): ${loop}speed estimate bandwidth ${fmt(e.speedBandwidth_Hz)} Hz; speed loop through it: crossover ${orDash(e.speedLoop.crossover_Hz)} Hz, phase margin ${orDash(e.speedLoop.phaseMargin_deg)} deg`;
 }
 
 export const tuneCommand: Command = {
@@ -49,6 +59,7 @@ export const tuneCommand: Command = {
         ['loop', 'Kp', 'Kp unit', 'Ki', 'Ki unit', 'design Hz', 'crossover Hz', 'bandwidth -3 dB Hz', 'phase margin deg', 'gain margin dB', 'peaking dB', 'PM continuous approx. deg'],
         loops.map(([name, l, ku, kiu]) => [name, fmt(l.Kp), ku, fmt(l.Ki), kiu, fmt(l.design_Hz), orDash(l.crossover_Hz), l.phaseMargin_deg !== null && l.phaseMargin_deg <= 0 ? '- (unstable)' : orDash(l.bandwidth_Hz), orDash(l.phaseMargin_deg), orDash(l.gainMargin_dB), orDash(l.peaking_dB), orDash(l.continuous.phaseMargin_deg)]),
       ),
+      ...(r.estimator ? ['', estimatorLine(r.estimator)] : []),
       '',
       ...(r.warnings.length === 0 ? ['warnings: none'] : ['warnings:', ...r.warnings.map((w) => `  ${findingLine(w)}`)]),
       'margins of the sampled loop as the controller runs it (discrete PI, zero-order hold, winding discretised, delay of whole periods), up to half the loop\'s sample rate;',

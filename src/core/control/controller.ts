@@ -52,11 +52,8 @@ const scheduleValueL = scheduleValue;
 const limitVoltageDqL = limitVoltageDq;
 const sinSmallL = sinSmall;
 const cosSmallL = cosSmall;
-
 const MAX_DELAY = 16;
-
 const EMPTY = new Float64Array(0);
-
 export class CascadeController {
   readonly cfg: ControllerConfig;
   // integrators, and the speed reference chain
@@ -70,6 +67,8 @@ export class CascadeController {
   torqueRef = 0;
   idRef = 0;
   iqRef = 0;
+  /** an imposed q-current reference, A, with id 0 (a sensorless start-up's open-loop current; NaN = none) */
+  forcedIq = Number.NaN;
   /** commanded (limited) dq voltage of this period, V */
   vdCmd = 0;
   vqCmd = 0;
@@ -287,6 +286,7 @@ export class CascadeController {
       const iqv = (1 - f) * (1 - g) * B[i00]! + f * (1 - g) * B[i10]! + (1 - f) * g * B[i00 + 1]! + f * g * B[i10 + 1]!;
       iqr = neg ? -iqv : iqv;
     }
+    if (this.forcedIq === this.forcedIq) { idr = 0; iqr = this.forcedIq; }
     // current reference limit, d axis first
     const I = P[P_IMAX]!;
     let limited = this.torqueClamped;

@@ -3,7 +3,7 @@
  * period: the active-flux observer (sensorless-active-flux.ts) on the measured currents and the
  * voltage held over the period that ends (the delay handling is stated there), with the model's
  * parameters scaled by the specification's errors, read by a critically damped type II PLL of the
- * stated bandwidth (sensorless-pll.ts) whose phase detector is the normalised cross product
+ * stated bandwidth (type2-pll.ts) whose phase detector is the normalised cross product
  *
  *   e = (fa_beta cos thetaHat - fa_alpha sin thetaHat) / |fa| = sin(theta_fa - thetaHat);
  *
@@ -11,8 +11,7 @@
  * (sensorless-lock.ts) once the observer is in charge. Output at a sample: the angle at that sample
  * thetaHat + Ts kp e (the PLL's prediction corrected by this sample's detector) and the PLL's speed.
  *
- * Same shape as the common estimator interface (reset(thetaE, omegaE); sample(trueThetaE, trueOmegaM,
- * i_alpha, i_beta, v_alpha, v_beta, Ts); thetaE, omegaE electrical), plus what the simulator's
+ * An AngleEstimator (angle-estimator.ts), plus what the simulator's
  * wiring needs: `openLoop` and `startupCurrent_A` (while open loop the controller asks that current
  * on the q axis of thetaE instead of the speed loop's), `startup.handoverIq_A` (the q current at
  * hand-over, to start the speed PI's integrator from), `lossOfLock()` for the watchdog, and
@@ -24,7 +23,9 @@ import type { MachineInput } from '../machine/machine-model';
 import { isMachineModel } from '../machine/machine-model';
 import type { SensorlessAngle } from './angle-spec';
 import { ActiveFluxObserver, correctionGains, defaultCorrection_Hz } from './sensorless-active-flux';
-import { SensorlessPll, wrapAngle } from './sensorless-pll';
+import type { AngleEstimator } from './angle-estimator';
+import { wrapToPi as wrapAngle } from './angle-estimator';
+import { Type2Pll } from './type2-pll';
 import { OpenLoopStartup, STARTUP_DONE, STARTUP_OPEN_LOOP } from './sensorless-startup';
 import { DEFAULT_LOCK_BOUND_RAD, DEFAULT_LOCK_TIME_S, LockMonitor } from './sensorless-lock';
 
@@ -74,7 +75,7 @@ function checkSpec(spec: SensorlessAngle, opts: SensorlessOptions): void {
   if (!(opts.startupCurrent_A >= 0)) throw new InputError(`${F}.startupCurrent_A`, 'must be >= 0 A');
 }
 
-export class SensorlessEstimator {
+export class SensorlessEstimator implements AngleEstimator {
   /** the angle and electrical speed the controller gets, rad (in [-pi, pi]) and rad/s */
   thetaE = 0.5;
   omegaE = 0.5;
@@ -82,7 +83,7 @@ export class SensorlessEstimator {
   observerThetaE = 0.5;
   observerOmegaE = 0.5;
   readonly observer: ActiveFluxObserver;
-  readonly pll: SensorlessPll;
+  readonly pll: Type2Pll;
   readonly startup: OpenLoopStartup;
   readonly lock: LockMonitor;
   /** the observer's model terms (after the stated errors) */
@@ -94,7 +95,7 @@ export class SensorlessEstimator {
     this.terms = observerTerms(spec, machine);
     const g = correctionGains(opts.correction_Hz ?? defaultCorrection_Hz(spec.bandwidth_Hz));
     this.observer = new ActiveFluxObserver(this.terms, g.kp, g.ki);
-    this.pll = SensorlessPll.ofBandwidth(spec.bandwidth_Hz);
+    this.pll = Type2Pll.ofBandwidth(spec.bandwidth_Hz);
     const p = machine.polePairs;
     this.handoverE = spec.handoverSpeed_rpm * RPM_TO_RAD_S * p;
     const ramp = opts.startupRamp_rpm_per_s ?? spec.handoverSpeed_rpm / 0.2;

@@ -4,7 +4,7 @@
  * angle error once per control period and stops the run when it trips; `message()` names it.
  * Common practice (no source). Allocation-free per update.
  */
-import { wrapAngle } from './sensorless-pll';
+import { wrapToPi as wrapAngle } from './angle-estimator';
 
 /** default bound: 45 degrees electrical (the torque per ampere down to cos 45 = 71 %) */
 export const DEFAULT_LOCK_BOUND_RAD = Math.PI / 4;

@@ -12,7 +12,7 @@
  * made torque at hand-over is I cos(offset) on the rotor's q axis: the value to start the speed
  * PI's integrator from (`handoverIq_A`). Common practice (no source). Allocation-free.
  */
-import { wrapAngle } from './sensorless-pll';
+import { wrapToPi as wrapAngle } from './angle-estimator';
 
 export const STARTUP_OPEN_LOOP = 0;
 export const STARTUP_BLEND = 1;

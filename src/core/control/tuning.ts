@@ -26,6 +26,7 @@
 import type { MachineInput } from '../machine/machine-model';
 import { currentLoopPlant } from './current-loop-plant';
 import type { Finding } from '../base/finding';
+import type { EstimatorLoopReport } from './estimator-loop';
 import { InputError } from '../base/errors';
 import { sampledBode, sampledCurrentOpenLoop, sampledMargins, sampledSpeedOpenLoop, UnwrappedResponse, type SampledResponse } from './sampled-loop';
 
@@ -67,6 +68,8 @@ export interface TuningReport {
   /** total delay of the current loop in the response, s */
   currentDelay_s: number;
   warnings: Finding[];
+  /** the angle estimator's loop and the speed loop through it (estimator-loop.ts); absent for the true angle */
+  estimator?: EstimatorLoopReport;
 }
 
 export type CurrentTuning = { bandwidth_Hz: number } | { Kp: number; Ki: number };

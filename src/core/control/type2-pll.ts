@@ -41,12 +41,22 @@ export function type2PllNaturalFrequency(bandwidth_rad_s: number, zeta: number):
 /** The loop's state: angle (rad, wrapped to [-pi, pi]) and speed (rad/s); no allocation per update. */
 export class Type2Pll {
   /** the angle estimate, rad, in [-pi, pi] */
-  theta = 0;
+  theta = 0.5;
   /** the speed estimate (the integrator), rad/s */
-  omega = 0;
+  omega = 0.5;
 
   constructor(public readonly kp: number, public readonly ki: number) {
     if (!(kp > 0) || !(ki > 0)) throw new RangeError(`type II PLL gains must be positive (kp ${kp}, ki ${ki})`);
+    // the double fields are declared with a non-integer value so that the engine stores them as
+    // doubles from the start (no boxed number per store in a hot loop); the real start is set here
+    this.theta = 0;
+    this.omega = 0;
+  }
+
+  /** a critically damped (zeta = 1) loop of closed-loop -3 dB bandwidth f Hz: kp = 2 alpha, ki = alpha^2 */
+  static ofBandwidth(bandwidth_Hz: number): Type2Pll {
+    const a = type2PllNaturalFrequency(2 * Math.PI * bandwidth_Hz, 1);
+    return new Type2Pll(2 * a, a * a);
   }
 
   reset(theta: number, omega: number): void {

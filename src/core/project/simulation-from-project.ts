@@ -155,14 +155,18 @@ export function simulationFromProject(p: ResolvedProject, overrides: SimulationO
     tuning,
     findings,
     pwm: pwmFromProject(p, control),
-    ...angleOf(control, machine.polePairs),
+    ...angleOf(control, machine.polePairs, p.rated.speed_rad_s ?? noLoadSpeed(machine, lim)),
   };
 }
 
-/** the setup's angle source; none (the true angle and speed) when ideal, so that ideal setups stay as they were */
-function angleOf(control: ControlSection, polePairs: number): { angle?: AngleSpec } {
+/**
+ * the setup's angle source; none (the true angle and speed) when ideal, so that ideal setups stay as
+ * they were; a sensorless source with the rated speed (nameplate, else the no-load speed at Vmax)
+ */
+function angleOf(control: ControlSection, polePairs: number, rated_rad_s: number): { angle?: AngleSpec; ratedSpeed_rad_s?: number } {
   const angle = angleFromProject(control, polePairs);
-  return angle.source === 'ideal' ? {} : { angle };
+  if (angle.source === 'ideal') return {};
+  return angle.source === 'sensorless' ? { angle, ratedSpeed_rad_s: rated_rad_s } : { angle };
 }
 
 interface ScenarioFacts {

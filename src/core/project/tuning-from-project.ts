@@ -5,6 +5,8 @@
 import { tuneLoops, DEFAULT_CURRENT_BANDWIDTH_FRACTION, DEFAULT_SPEED_BANDWIDTH_FRACTION } from '../control/tuning';
 import type { CurrentTuning, SpeedTuning, TuningInput, TuningReport } from '../control/tuning';
 import type { ResolvedProject } from './project';
+import { estimatorLoop } from '../control/estimator-loop';
+import { angleFromProject } from './angle-from-project';
 import { gainSchedule, type GainSchedule } from '../control/gain-schedule';
 import { defaultControl, type ControlSection } from './schema';
 
@@ -37,8 +39,13 @@ export function tuningInputFromProject(p: ResolvedProject): TuningInput {
   return tuningInputFor(p, p.file.control ?? defaultControl(), p.file.scenario?.loadInertia ?? 0);
 }
 
+/** The loops' tuning; with an angle source other than ideal also the estimator's loop and its finding (estimator-loop.ts). */
 export function tuneFromProject(p: ResolvedProject): TuningReport {
-  return tuneLoops(tuningInputFromProject(p));
+  const input = tuningInputFromProject(p);
+  const r = tuneLoops(input);
+  const est = estimatorLoop(angleFromProject(p.file.control, p.models.hot.polePairs), 1 / input.fCtrl_Hz, r.speed);
+  if (est === null) return r;
+  return { ...r, estimator: est.report, warnings: est.finding ? [...r.warnings, est.finding] : r.warnings };
 }
 
 /** The current-loop gain schedule of a project: its tuning input along MTPA up to the peak current (control/gain-schedule.ts). */

@@ -8,9 +8,16 @@
  * It keeps the run's angle error (estimated minus true electrical angle, wrapped to [-pi, pi]): its
  * rms and peak over every sample, and two decimated traces on the recorder's time axis,
  * `thetaError_rad` and `speedEstimate_rpm`. No allocation per period.
+ *
+ * A sensorless estimator below its hand-over speed runs an open-loop start-up: `steer` then has the
+ * controller ask the start-up current on the q axis of the estimated frame (d reference 0) and, at
+ * hand-over, starts the speed PI's integrator from the torque of the q current the start-up gave.
  */
 import type { AngleEstimator } from '../control/angle-estimator';
 import { wrapToPi } from '../control/angle-estimator';
+import { SensorlessEstimator } from '../control/sensorless-estimator';
+import type { CascadeController } from '../control/controller';
+import type { MachineModel } from '../machine/machine-model';
 import { RAD_S_TO_RPM } from '../base/units';
 import { StreamingMinMax } from './decimate';
 import { I_D, I_Q, OMEGA, THETA } from './plant';
@@ -25,10 +32,34 @@ export class AngleSensing {
   private peak = 0;
   private n = 0;
   private readonly dec: StreamingMinMax;
+  /** the estimator when it is sensorless (its start-up and its lock), else null */
+  readonly sensorless: SensorlessEstimator | null;
+  private wasOpen = false;
 
-  /** samples: the recorder's count (periods + 1); maxPoints: its decimation */
-  constructor(readonly estimator: AngleEstimator, private readonly polePairs: number, private readonly Ts: number, samples: number, maxPoints: number) {
+  /** samples: the recorder's count (periods + 1); maxPoints: its decimation; model: the torque at hand-over (sensorless) */
+  constructor(readonly estimator: AngleEstimator, private readonly polePairs: number, private readonly Ts: number, samples: number, maxPoints: number, private readonly model?: MachineModel) {
     this.dec = new StreamingMinMax(ANGLE_TRACE_NAMES.length, samples, maxPoints);
+    this.sensorless = estimator instanceof SensorlessEstimator ? estimator : null;
+  }
+
+  /** After `sample`, before the controller's step: the open-loop start-up's current while it lasts, the hand-over once. */
+  steer(ctrl: CascadeController): void {
+    const sl = this.sensorless;
+    if (sl === null) return;
+    if (sl.openLoop) {
+      ctrl.forcedIq = sl.startupCurrent_A;
+      this.wasOpen = true;
+    } else if (this.wasOpen) {
+      this.wasOpen = false;
+      ctrl.forcedIq = Number.NaN;
+      const iq = sl.startup.handoverIq_A;
+      ctrl.xw = this.model ? this.model.torque(0, iq) : 0;
+    }
+  }
+
+  /** the watchdog's text once a sensorless estimator has lost its lock, else null */
+  lossOfLock(): string | null {
+    return this.sensorless === null ? null : this.sensorless.lossOfLock();
   }
 
   /** start locked onto the plant's state (electrical angle, mechanical speed) */

@@ -21,6 +21,7 @@
  * progress callback).
  */
 import { InputError } from '../base/errors';
+import { RAD_S_TO_RPM } from '../base/units';
 import { Plant, STATE_SIZE, I_D, I_Q, OMEGA, THETA, ENERGY } from './plant';
 import { CascadeController } from '../control/controller';
 import { MAX_TRACE_POINTS } from './decimate';
@@ -32,7 +33,7 @@ import { AngleSensing } from './angle-sensing';
 import { angleEstimatorFor } from '../control/angle-estimator-for';
 import { RunLog } from './run-log';
 import { PERIOD_SAMPLE_SIZE, S_T, S_ID, S_IQ, S_W, S_ID_REF, S_IQ_REF, S_TORQUE_REF, S_SPEED_REF } from './period-sample';
-import { BudgetWatch, CHECK_EVERY, CurrentOscillationWatch, SpeedSwingWatch, divergence, integratorFailure } from './watchdogs';
+import { AngleLockWatch, BudgetWatch, CHECK_EVERY, CurrentOscillationWatch, SpeedSwingWatch, divergence, integratorFailure } from './watchdogs';
 import { DEFAULT_RUN_OPTIONS, type EventKind, type RunOptions, type AnySetup } from './simulation-setup';
 import type { SimulationMetrics, SimulationResult, SimulationStats } from './simulation-result';
 
@@ -101,9 +102,10 @@ export function runSimulation(setup: AnySetup, opts: RunOptions = {}): Simulatio
   const stepper = sw ?? makePeriodStepper(setup, plant, y);
   const rec = new TraceRecorder(setup, plant.model, plant, ctrl, N, o.maxPoints);
   // the angle and speed the controller sees: the true ones (ideal), else an estimator's
-  const est = angleEstimatorFor(setup.angle, plant.model.polePairs);
-  const sensing = est ? new AngleSensing(est, plant.model.polePairs, Ts, rec.cap, o.maxPoints) : null;
+  const est = angleEstimatorFor(setup.angle, plant.model.polePairs, { machine: plant.model, Imax: setup.Imax, startupRamp_rpm_per_s: setup.controller.speedRamp_rad_s2 * RAD_S_TO_RPM });
+  const sensing = est ? new AngleSensing(est, plant.model.polePairs, Ts, rec.cap, o.maxPoints, plant.model) : null;
   if (sensing) sensing.reset(y[THETA]!, y[OMEGA]!);
+  const lock = sensing?.sensorless ? new AngleLockWatch(sensing) : null;
   const hist = new Uint32Array(1025);
   const vab = plant.input;
   const bounds = { trip_A: Math.min(20 * setup.Imax, setup.tripCurrent_A), Imax: setup.Imax, speed_rad_s: setup.divergenceSpeed_rad_s, Ts };
@@ -123,14 +125,14 @@ export function runSimulation(setup: AnySetup, opts: RunOptions = {}): Simulatio
     // inverse Park and the record
     plant.setAngleOrigin(th0);
     smp[0] = t0; smp[1] = yi[I_D]!; smp[2] = yi[I_Q]!; smp[3] = yi[OMEGA]!; smp[4] = th0; smp[5] = plant.c0; smp[6] = plant.s0;
-    if (sensing) sensing.sample(yi, plant.c0, plant.s0, vab, smp);
+    if (sensing) { sensing.sample(yi, plant.c0, plant.s0, vab, smp); sensing.steer(ctrl); }
     ctrl.stepSampled(vab);
     rec.record(k, yi);
     if (sensing) sensing.record(t0);
     x[S_T] = t0; x[S_ID] = yi[I_D]!; x[S_IQ] = yi[I_Q]!; x[S_W] = yi[OMEGA]!;
     x[S_ID_REF] = ctrl.idRef; x[S_IQ_REF] = ctrl.iqRef; x[S_TORQUE_REF] = ctrl.torqueRef; x[S_SPEED_REF] = ctrl.speedRefOut;
     log.observe(x, ctrl.currentLimited, ctrl.voltageSaturated);
-    const why = osc.check(k, x) ?? (swing ? swing.check(x, ctrl.torqueClamped) : null);
+    const why = osc.check(k, x) ?? (swing ? swing.check(x, ctrl.torqueClamped) : null) ?? (lock ? lock.check(t0) : null);
     if (why !== null) { stop = { kind: 'divergence', t: t0, message: why }; break; }
 
     const e0 = plant.evaluations;

@@ -1,5 +1,8 @@
-/** Findings of a simulation run worth showing beside its metrics (stops, unsettled load steps, an unreached speed, a current above the limit, voltage saturation). */
+/** Findings of a simulation run worth showing beside its metrics (stops, unsettled load steps, an unreached speed, a current above the limit, voltage saturation, where a sensorless observer is not valid). */
 import type { Finding } from '../base/finding';
+import { RAD_S_TO_RPM } from '../base/units';
+import { sensorlessValidity } from '../control/sensorless-validity';
+import { sensorlessCorrection_Hz } from '../control/angle-estimator-for';
 import type { AnySetup } from './simulation-setup';
 import type { SimulationResult } from './simulation-result';
 
@@ -42,6 +45,9 @@ export function currentAboveLimit(r: SimulationResult, setup?: AnySetup): Findin
 /** Findings of a run worth showing beside the metrics. */
 export function simulationFindings(r: SimulationResult, setup?: AnySetup): Finding[] {
   const out: Finding[] = [...(setup?.findings ?? []), ...(setup?.tuning?.warnings ?? [])];
+  // a sensorless observer: the speeds where it is not valid, against the start-up's hand-over
+  const a = setup?.angle;
+  if (setup && a && a.source === 'sensorless' && setup.ratedSpeed_rad_s) out.push(sensorlessValidity(a, setup.plant.machine, setup.ratedSpeed_rad_s * RAD_S_TO_RPM, { correction_Hz: sensorlessCorrection_Hz(a) }).finding);
   if (r.diagnostic) out.push({ code: 'simulation-stopped', severity: 'danger', message: r.diagnostic });
   // load steps the loop met before it had settled: not measured, said why
   for (const ls of r.loadSteps ?? []) {

@@ -87,6 +87,8 @@ export interface SimulationSetup<M extends MachineInput = DqMachine> {
   pwm?: PwmSpec;
   /** where the controller's angle and speed come from; absent or source 'ideal' = the true values */
   angle?: AngleSpec;
+  /** the motor's rated speed, rad/s (mechanical): set with a sensorless angle source, for its validity finding */
+  ratedSpeed_rad_s?: number;
 }
 
 export interface RunOptions {

@@ -10,6 +10,8 @@
  *   speed loop oscillating between the torque limits (a stable loop meets the opposite limit at
  *   most once or twice after a large step).
  * - `divergence`: a non-finite state, |i| above the overcurrent trip, |speed| above the divergence speed.
+ * - `AngleLockWatch`: a sensorless estimator's loss of lock (its angle error above a bound for a
+ *   time, sensorless-lock.ts), named with the run's time.
  * - `BudgetWatch`: the abort signal and the wall-time budget, read every CHECK_EVERY periods.
  * - `integratorFailure`: the words for an integrator that could not finish a period.
  *
@@ -73,6 +75,16 @@ export class SpeedSwingWatch {
     if (this.swings < SWING_LIMIT) return null;
     const id = x[S_ID]!, iq = x[S_IQ]!, w = x[S_W]!, wRef = x[S_SPEED_REF]!;
     return `diverged at t = ${t0.toPrecision(6)} s: the speed loop oscillates (the torque reference swung between the motoring and the generating limit ${this.swings} times, each within ${SWING_GAP_S} s of the last); state id = ${id.toPrecision(6)} A, iq = ${iq.toPrecision(6)} A, speed = ${(w * RAD_S_TO_RPM).toPrecision(6)} rpm, reference ${(wRef * RAD_S_TO_RPM).toPrecision(6)} rpm (lower the speed gains, or check the inertia)`;
+  }
+}
+
+export class AngleLockWatch {
+  constructor(private readonly source: { lossOfLock(): string | null }) {}
+
+  /** At period start t0: the diagnostic once the lock is lost, else null. */
+  check(t0: number): string | null {
+    const m = this.source.lossOfLock();
+    return m === null ? null : `stopped at t = ${t0.toPrecision(6)} s: ${m} (raise the observer's bandwidth, correct its parameters, or hand over at a higher speed)`;
   }
 }
 

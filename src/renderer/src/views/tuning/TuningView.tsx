@@ -10,6 +10,7 @@ import { num } from '../../components/format';
 import { CONTROL_SUMMARY, InputSummary } from '../../components/input-summary';
 import { GainScheduleCard } from './GainScheduleCard';
 import { CurrentTableCard } from './CurrentTableCard';
+import { EstimatorCard } from './EstimatorCard';
 
 /** The controller inputs the tuning depends on (shown read-only; edited in the side panel). */
 const TUNING_INPUTS = ['control.fCtrl_Hz', 'control.delaySamples', 'control.currentBandwidth_Hz', 'control.speedBandwidth_Hz', 'control.speedTuning.method', 'control.speedTuning.a', 'control.speedLoopDivider'];
@@ -150,6 +151,7 @@ export const TuningView = memo(function TuningView({ project, theme }: { project
               {project.models.hot.linear !== null && <GainScheduleCard project={project} theme={theme} />}
             </div>
           )}
+          {tuned.rep?.estimator && <EstimatorCard rep={tuned.rep} theme={theme} />}
           <div className="card" data-testid="tuning-warnings">
             <h4>Warnings</h4>
             {tuned.error && <div className="finding danger">{tuned.error}</div>}

@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import { SensorlessPll, pllNaturalFrequency, wrapAngle } from '../src/core/control/sensorless-pll';
+import { Type2Pll as SensorlessPll, type2PllNaturalFrequency as pllNaturalFrequency } from '../src/core/control/type2-pll';
+import { wrapToPi as wrapAngle } from '../src/core/control/angle-estimator';
 
 // The standard second-order loop (Gardner, 2005, Phaselock Techniques, 3rd ed., ch. 2; Harnefors and
 // Nee, 2000, IEEE Trans. Industrial Electronics 47(1): kp = 2 alpha, ki = alpha^2). With
@@ -15,7 +16,7 @@ function run(pll: SensorlessPll, theta: (t: number) => number, Ts: number, n: nu
   return e;
 }
 
-describe('sensorless observer PLL (type II)', () => {
+describe('the sensorless observer\'s PLL: the shared type II loop (type2-pll.ts)', () => {
   it('zeta = 1: the -3 dB bandwidth is 2.482 wn, |H(j wb)| = 1/sqrt 2 (Gardner 2005)', () => {
     const wb = 2 * Math.PI * 100;
     const a = pllNaturalFrequency(wb, 1);
