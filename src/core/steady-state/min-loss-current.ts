@@ -74,6 +74,17 @@ export function locusIq(L: ShaftLocus, id: number): number {
 export function minLossCurrent(m: MachineModel, lim: DriveLimits, c: LossConditions, w: number, Ts: number, pMech: number, p0: OperatingPoint, sc: PointLossScratch): OperatingPoint {
   if (!p0.feasible || p0.iq === 0) return p0;
   const L: ShaftLocus = { m, c, Imax: lim.Imax, w, Ts, pMech, sign: p0.iq < 0 ? -1 : 1, flux: new Float64Array(2) };
+  return minLossOnLocus(L, lim, w, p0, sc);
+}
+
+/**
+ * The search itself along a locus (its points parametrised by id): from p0 the feasible stretch at the
+ * real mechanical speed w (current, and the voltage within VOLTAGE_SLACK of Vmax) bracketed on both
+ * sides by bisection, the loss at w minimised over it by golden section; p0 unless a point has less
+ * loss. Shared by the shaft-torque locus (above) and the electromagnetic-torque locus (min-loss-em-torque.ts).
+ */
+export function minLossOnLocus(L: ShaftLocus, lim: DriveLimits, w: number, p0: OperatingPoint, sc: PointLossScratch): OperatingPoint {
+  const m = L.m, c = L.c;
   const vmax = lim.Vmax * (1 + VOLTAGE_SLACK);
   const v = sc.v;
   const we = m.polePairs * w;
