@@ -11,6 +11,7 @@ export function switchingProjectJson(window_s?: { from: number; to: number }): R
   const d = demoJson('demo-spm-48v');
   d.name = 'SPM 48 V demo, switching model (test fixture)';
   d.control.pwm = { model: 'switching', fsw_Hz: 10000, deadTime_s: 1e-6, ...(window_s ? { window_s } : {}) };
+  d.control.angle = { source: 'ideal' }; // the demo's sensorless start-up is not what these tests check
   d.scenario.duration_s = 0.16;
   d.scenario.loadSteps = [{ t_s: 0.12, torque_Nm: 3 }];
   return d;
