@@ -32,6 +32,7 @@
 import { DqPropagator } from './dq-propagator';
 import { I_D, I_Q, OMEGA, THETA, ENERGY } from './plant';
 import type { Plant } from './plant';
+import { LinearNode } from './linear-node';
 import { Stepper, makeStepper } from './stepper';
 import type { AnySetup } from './simulation-setup';
 import { nextLoadBreak, loadLevel } from './load-schedule';
@@ -58,16 +59,14 @@ export class ExactStepper extends Stepper {
   fallbacks = 0;
   /** apply the first-order correction for the speed's change (false only to measure what it does) */
   private readonly prop: DqPropagator;
+  /** the plant's derivative at a node (linear-node.ts) */
+  private readonly n: LinearNode;
   private readonly pp: number;
   private readonly Rs: number;
   private readonly Ld: number;
   private readonly Lq: number;
   private readonly psiM: number;
-  private readonly invJ: number;
-  private readonly B: number;
-  private readonly Tc: number;
   private readonly width: number;
-  private readonly k2: number;
   private readonly free: boolean;
   private readonly errMax: number;
   private readonly rate: number;
@@ -76,7 +75,6 @@ export class ExactStepper extends Stepper {
   private readonly iLq: number;
   private readonly rqd: number;
   private readonly rdq: number;
-  private readonly iWidth: number;
   // the load line of the current piece (LA + LB t) and where the piece ends
   // (double fields start as non-integers: the engine then keeps them as unboxed doubles)
   private nextBreakX = -Infinity;
@@ -90,6 +88,7 @@ export class ExactStepper extends Stepper {
   constructor(plant: Plant, Ts: number, private readonly fallback: Stepper, Imax: number) {
     super(plant, Ts);
     const m = plant.model.linear!;
+    this.n = new LinearNode(plant);
     this.prop = new DqPropagator({ Rs: plant.model.Rs, Ld: m.Ld, Lq: m.Lq, psiM: m.psiM });
     this.pp = plant.model.polePairs;
     this.Rs = plant.model.Rs;
@@ -97,11 +96,7 @@ export class ExactStepper extends Stepper {
     this.Lq = m.Lq;
     this.psiM = m.psiM;
     const pr = plant.params;
-    this.invJ = 1 / pr.inertia;
-    this.B = pr.viscousFriction;
-    this.Tc = pr.coulombFriction;
     this.width = pr.coulombWidth_rad_s;
-    this.k2 = pr.load.quadraticK;
     this.free = pr.mechanics === 'free';
     this.errMax = 1e-11 * Imax;
     this.rate = Math.max(this.Rs / m.Ld, this.Rs / m.Lq);
@@ -109,7 +104,6 @@ export class ExactStepper extends Stepper {
     this.iLq = 1 / m.Lq;
     this.rqd = m.Lq / m.Ld;
     this.rdq = m.Ld / m.Lq;
-    this.iWidth = 1 / pr.coulombWidth_rad_s;
   }
 
   protected piece(): void {
@@ -145,32 +139,11 @@ export class ExactStepper extends Stepper {
    * Sets nd, nq (di/dt), ng (d omega/dt), ngp (its time derivative), np (power), npp (its derivative).
    */
   private node(): void {
-    const a = this.arg;
-    const id = a[0]!, iq = a[1]!, w = a[2]!, vd = a[3]!, vq = a[4]!, t = a[5]!;
-    this.plant.evaluations++;
-    const p = this.pp, Ld = this.Ld, Lq = this.Lq, psiM = this.psiM, Rs = this.Rs;
-    const we = p * w;
-    const did = (vd - Rs * id + we * Lq * iq) * this.iLd;
-    const diq = (vq - Rs * iq - we * (Ld * id + psiM)) * this.iLq;
-    this.nd = did;
-    this.nq = diq;
-    this.np = 1.5 * (vd * id + vq * iq);
-    this.npp = 1.5 * (we * vq * id + vd * did - we * vd * iq + vq * diq);
-    if (!this.free) { this.ng = 0; this.ngp = 0; return; }
-    const k = 1.5 * p;
-    const Te = k * (psiM * iq + (Ld - Lq) * id * iq);
-    const dTe = k * (psiM * diq + (Ld - Lq) * (did * iq + id * diq));
-    const aw = w < 0 ? -w : w;
-    let fr = 0, dfr = 0;
-    if (this.Tc > 0) {
-      const x = w * this.iWidth;
-      const r = 1 / Math.sqrt(1 + x * x);
-      fr = this.Tc * x * r;
-      dfr = this.Tc * r * r * r * this.iWidth;
-    }
-    const g = (Te - this.B * w - fr - (this.LA + this.LB * t) - this.k2 * w * aw) * this.invJ;
-    this.ng = g;
-    this.ngp = (dTe - (this.B + dfr + 2 * this.k2 * aw) * g - this.LB) * this.invJ;
+    const n = this.n;
+    n.LA = this.LA;
+    n.LB = this.LB;
+    n.at(this.arg);
+    this.nd = n.nd; this.nq = n.nq; this.np = n.np; this.npp = n.npp; this.ng = n.ng; this.ngp = n.ngp;
   }
 
   /**

@@ -24,6 +24,7 @@
 import { cosS, sincS, coshS, sinhcS } from './dq-propagator';
 import { MAX_ANGLE } from './exact-stepper';
 import type { Plant } from './plant';
+import { LinearNode } from './linear-node';
 import { cosSmall, sinSmall } from '../mathematics/rotation';
 
 const sinSmallL = sinSmall;
@@ -45,12 +46,7 @@ export class ExactSegment {
   private readonly psiM: number;
   private readonly iLd: number;
   private readonly iLq: number;
-  private readonly invJ: number;
-  private readonly B: number;
-  private readonly Tc: number;
   private readonly width: number;
-  private readonly iWidth: number;
-  private readonly k2: number;
   private readonly free: boolean;
   private readonly errMax: number;
   private readonly rate: number;
@@ -68,12 +64,15 @@ export class ExactSegment {
   private readonly LdLq: number;
   // node results (see `node`): g = omega', g', power, power' (double fields start as non-integers)
   private ng = NaN; private ngp = NaN; private np = NaN; private npp = NaN;
+  /** the plant's derivative at a node (linear-node.ts) */
+  private readonly n: LinearNode;
   /** arguments of `node`: id, iq, omega, vd, vq, t */
   private readonly arg = new Float64Array(6);
 
   constructor(private readonly plant: Plant, Imax: number) {
     const m = plant.model.linear;
     if (m === null || plant.fluxStates) throw new Error('ExactSegment needs a constant-parameter plant in current states');
+    this.n = new LinearNode(plant);
     this.pp = plant.model.polePairs;
     this.Rs = plant.model.Rs;
     this.Ld = m.Ld;
@@ -82,12 +81,7 @@ export class ExactSegment {
     this.iLd = 1 / m.Ld;
     this.iLq = 1 / m.Lq;
     const pr = plant.params;
-    this.invJ = 1 / pr.inertia;
-    this.B = pr.viscousFriction;
-    this.Tc = pr.coulombFriction;
     this.width = pr.coulombWidth_rad_s;
-    this.iWidth = 1 / pr.coulombWidth_rad_s;
-    this.k2 = pr.load.quadraticK;
     this.free = pr.mechanics === 'free';
     this.errMax = 1e-11 * Imax;
     this.rate = Math.max(this.Rs / m.Ld, this.Rs / m.Lq);
@@ -110,31 +104,11 @@ export class ExactSegment {
    * (Plant.setLoadSegment): g, g' (omega'' from the torque's derivative), the power and its derivative.
    */
   private node(): void {
-    const a = this.arg;
-    const id = a[0]!, iq = a[1]!, w = a[2]!, vd = a[3]!, vq = a[4]!, t = a[5]!;
-    this.plant.evaluations++;
-    const p = this.pp, Ld = this.Ld, Lq = this.Lq, psiM = this.psiM, Rs = this.Rs;
-    const we = p * w;
-    const did = (vd - Rs * id + we * Lq * iq) * this.iLd;
-    const diq = (vq - Rs * iq - we * (Ld * id + psiM)) * this.iLq;
-    this.np = 1.5 * (vd * id + vq * iq);
-    this.npp = 1.5 * (we * vq * id + vd * did - we * vd * iq + vq * diq);
-    if (!this.free) { this.ng = 0; this.ngp = 0; return; }
-    const k = 1.5 * p;
-    const Te = k * (psiM * iq + (Ld - Lq) * id * iq);
-    const dTe = k * (psiM * diq + (Ld - Lq) * (did * iq + id * diq));
-    const aw = w < 0 ? -w : w;
-    let fr = 0, dfr = 0;
-    if (this.Tc > 0) {
-      const x = w * this.iWidth;
-      const r = 1 / Math.sqrt(1 + x * x);
-      fr = this.Tc * x * r;
-      dfr = this.Tc * r * r * r * this.iWidth;
-    }
-    const plant = this.plant;
-    const g = (Te - this.B * w - fr - (plant.loadA + plant.loadB * t) - this.k2 * w * aw) * this.invJ;
-    this.ng = g;
-    this.ngp = (dTe - (this.B + dfr + 2 * this.k2 * aw) * g - plant.loadB) * this.invJ;
+    const n = this.n;
+    n.LA = this.plant.loadA;
+    n.LB = this.plant.loadB;
+    n.at(this.arg);
+    this.np = n.np; this.npp = n.npp; this.ng = n.ng; this.ngp = n.ngp;
   }
 
   /** Integrate y over [span[0], span[1]] with the plant's input (alpha-beta) held; false (y untouched) where it does not apply. */

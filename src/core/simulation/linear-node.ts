@@ -1,0 +1,81 @@
+/**
+ * The constant-parameter plant's derivative at one node, with the time derivatives the Hermite
+ * quadratures of the exact period (exact-stepper.ts) and the switching segment (switching-segment.ts)
+ * need: di/dt, the acceleration g = d omega/dt and its derivative g' (from the torque's derivative),
+ * the electrical power 1.5 (vd id + vq iq) and its derivative. Motor reference direction; the same
+ * equations as plant.ts (dq currents as states, friction smoothed by x / sqrt(1 + x^2), load torque
+ * the line LA + LB t over the span). Allocates nothing.
+ */
+import type { Plant } from './plant';
+
+export class LinearNode {
+  /** load torque over the span: LA + LB t, N·m (set by the caller) */
+  LA = NaN;
+  LB = NaN;
+  /** results: di/dt (A/s), omega' and omega'' , power (W) and its derivative (double fields start as non-integers) */
+  nd = NaN; nq = NaN; ng = NaN; ngp = NaN; np = NaN; npp = NaN;
+  private readonly pp: number;
+  private readonly Rs: number;
+  private readonly Ld: number;
+  private readonly Lq: number;
+  private readonly psiM: number;
+  private readonly iLd: number;
+  private readonly iLq: number;
+  private readonly invJ: number;
+  private readonly B: number;
+  private readonly Tc: number;
+  private readonly iWidth: number;
+  private readonly k2: number;
+  private readonly free: boolean;
+
+  /** plant: a constant-parameter plant (model.linear set) */
+  constructor(private readonly plant: Plant) {
+    const m = plant.model.linear!;
+    const pr = plant.params;
+    this.pp = plant.model.polePairs;
+    this.Rs = plant.model.Rs;
+    this.Ld = m.Ld;
+    this.Lq = m.Lq;
+    this.psiM = m.psiM;
+    this.iLd = 1 / m.Ld;
+    this.iLq = 1 / m.Lq;
+    this.invJ = 1 / pr.inertia;
+    this.B = pr.viscousFriction;
+    this.Tc = pr.coulombFriction;
+    this.iWidth = 1 / pr.coulombWidth_rad_s;
+    this.k2 = pr.load.quadraticK;
+    this.free = pr.mechanics === 'free';
+  }
+
+  /**
+   * The node at current (id, iq), speed omega, dq voltage (vd, vq) and time t, from a[0..5] (doubles
+   * cross the call through a typed array: no boxing when the call is not inlined).
+   */
+  at(a: Float64Array): void {
+    const id = a[0]!, iq = a[1]!, w = a[2]!, vd = a[3]!, vq = a[4]!, t = a[5]!;
+    this.plant.evaluations++;
+    const p = this.pp, Ld = this.Ld, Lq = this.Lq, psiM = this.psiM, Rs = this.Rs;
+    const we = p * w;
+    const did = (vd - Rs * id + we * Lq * iq) * this.iLd;
+    const diq = (vq - Rs * iq - we * (Ld * id + psiM)) * this.iLq;
+    this.nd = did;
+    this.nq = diq;
+    this.np = 1.5 * (vd * id + vq * iq);
+    this.npp = 1.5 * (we * vq * id + vd * did - we * vd * iq + vq * diq);
+    if (!this.free) { this.ng = 0; this.ngp = 0; return; }
+    const k = 1.5 * p;
+    const Te = k * (psiM * iq + (Ld - Lq) * id * iq);
+    const dTe = k * (psiM * diq + (Ld - Lq) * (did * iq + id * diq));
+    const aw = w < 0 ? -w : w;
+    let fr = 0, dfr = 0;
+    if (this.Tc > 0) {
+      const x = w * this.iWidth;
+      const r = 1 / Math.sqrt(1 + x * x);
+      fr = this.Tc * x * r;
+      dfr = this.Tc * r * r * r * this.iWidth;
+    }
+    const g = (Te - this.B * w - fr - (this.LA + this.LB * t) - this.k2 * w * aw) * this.invJ;
+    this.ng = g;
+    this.ngp = (dTe - (this.B + dfr + 2 * this.k2 * aw) * g - this.LB) * this.invJ;
+  }
+}
