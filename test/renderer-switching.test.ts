@@ -2,6 +2,7 @@
 // the ripple window at full resolution, the ripple envelope, the spectrum (linear and log, THD
 // stated), the summary rows, the window's CSV, the averaged run a switching run keeps, and the overlay
 // of the SPM demo's averaged and switching runs as the engine computes them.
+import { pinSpmSpeedTuning } from './switching-fixtures';
 import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
@@ -133,6 +134,7 @@ function run(model: 'average' | 'switching'): SimDone {
   const f = structuredClone(demo);
   f.control.pwm = { model };
   f.control.angle = { source: 'ideal' }; // the demo's sensorless start-up is not what this test checks
+  pinSpmSpeedTuning(f);
   const r = runSimulation(simulationFromProject(loadProjectText(JSON.stringify(f))), { maxPoints: 4000 });
   return { ...r, findings: [], project: 'spm', pwmModel: model, inputsKey: inputsKey(f) };
 }

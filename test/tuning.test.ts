@@ -145,6 +145,8 @@ describe('loop tuning', () => {
       // the demo with the true rotor angle (control.angle ideal): this check is about the loops' own margins
       const o = JSON.parse(readFileSync(resolve(__dirname, '..', 'resources', `${f}.json`), 'utf8'));
       o.control.angle = { source: 'ideal' };
+      // the 48 V demo pinned to the speed tuning these cautions were written for (the demo itself now tunes its speed loop to 60 Hz)
+      if (f === 'demo-spm-48v') { o.control.speedTuning = { method: 'symmetric-optimum', a: 2 }; delete o.control.speedBandwidth_Hz; }
       const p = loadProjectText(JSON.stringify(o));
       const r = tuneFromProject(p);
       const all = JSON.stringify(r);

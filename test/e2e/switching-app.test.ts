@@ -6,6 +6,7 @@ import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { demoJson } from '../helpers';
+import { pinSpmSpeedTuning } from '../switching-fixtures';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Page } from 'playwright-core';
 import { closeApp, openApp, shotPath, type AppSession } from './harness';
@@ -32,6 +33,7 @@ describe('the switching model in the Load steps view', () => {
     // the SPM demo with the true angle (its sensorless start-up is not what this test checks), opened as a file
     const demo = demoJson('demo-spm-48v');
     demo.control.angle = { source: 'ideal' };
+    pinSpmSpeedTuning(demo);
     const file = join(mkdtempSync(join(tmpdir(), 'tw-switching-e2e-')), 'spm-ideal-angle.json');
     writeFileSync(file, JSON.stringify(demo));
     const [chooser] = await Promise.all([page.waitForEvent('filechooser'), page.click('[data-testid="open"]')]);

@@ -52,6 +52,23 @@ function clip01(x: number): number {
 }
 
 /**
+ * Dead-time and device-drop compensation of one leg's duty d over a half carrier period Th, for the
+ * phase current's sign s in [-1, 1] (taken linear across a band about zero current): the dead time
+ * delays the rising edge of a leg whose current flows out of it (s = 1) and the falling edge of one
+ * whose current flows in (s = -1), each by td (see switching-period.ts), so the rising half gains
+ * td/Th (1 + s)/2 and the falling half loses td/Th (1 - s)/2 (each half exact for a current of one
+ * sign, the carrier period's sum td s / Th); the device drop lowers the leg by drop s, made up by
+ * s drop/Vdc. Clipped to [0, 1]. Murai, Watanabe and Iwasaki (1987), "Waveform distortion and
+ * correction circuit for PWM inverters with switching lag-times", IEEE Trans. Industry
+ * Applications IA-23(5) (the correction by the current's sign); the per-edge split and the linear
+ * band are common practice (no source).
+ */
+export function compensatedDuty(d: number, s: number, rising: boolean, tdOverTh: number, dropOverVdc: number): number {
+  const dd = rising ? d + 0.5 * tdOverTh * (1 + s) : d - 0.5 * tdOverTh * (1 - s);
+  return clip01(dd + s * dropOverVdc);
+}
+
+/**
  * The commanded edges of a leg with duty d in a carrier period [0, Tc] of a symmetric carrier whose
  * valley (all legs off) is at the period's ends: the upper device is on over
  * [(1 - d) Tc/2, (1 + d) Tc/2]. With two updates per period the rising edge takes the first half's

@@ -35,6 +35,12 @@ export interface PwmSpec {
    */
   zeroCurrent_A: number;
   /**
+   * dead-time and device-drop compensation (absent: off): each half period every leg's duty is
+   * moved by the expected volt-second error for the sign of its phase current at the period's start,
+   * so that the mean leg voltage is the command (see compensatedDuty in pwm-modulator.ts)
+   */
+  compensation?: { band_A: number };
+  /**
    * the switching model's zoom window, s: full-resolution traces from `from_s` to `to_s` (absent:
    * the last two fundamental periods of the run)
    */

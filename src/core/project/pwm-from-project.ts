@@ -6,6 +6,9 @@
  * min-max "svpwm", which clips into the hexagon as six-step does), the device drop (the inverter's
  * when absent), the bus. The phase current that counts as zero for the dead time and the drop is a
  * ten-thousandth of the peak current limit. The zoom window (control.pwm.window_s) when given.
+ * With control.pwm.deadTimeCompensation the modulator corrects each leg's duty by the sign of its
+ * phase current, linear across a band of COMPENSATION_BAND_FRACTION of the peak current limit
+ * (about the current ripple, where the sampled current's sign does not say which diode conducts).
  */
 import { InputError } from '../base/errors';
 import type { PwmSpec } from '../drive/pwm-spec';
@@ -15,6 +18,9 @@ import { carrierFrequency, pwmProblems } from './pwm-schema';
 
 /** The phase current below which the switching model counts a current as zero, per ampere of the peak limit. */
 export const ZERO_CURRENT_FRACTION = 1e-4;
+
+/** The dead-time compensation's band about zero current, per ampere of the peak limit. */
+export const COMPENSATION_BAND_FRACTION = 0.02;
 
 export function pwmFromProject(p: ResolvedProject, control: ControlSection): PwmSpec {
   // the same checks as the schema's, for a control section changed after parsing (overrides)
@@ -31,6 +37,7 @@ export function pwmFromProject(p: ResolvedProject, control: ControlSection): Pwm
     Vdc: p.inverter.Vdc,
     deviceDrop_V: pwm?.deviceDrop ?? p.inverter.deviceDrop,
     zeroCurrent_A: ZERO_CURRENT_FRACTION * p.peak.Imax,
+    ...(pwm?.deadTimeCompensation ? { compensation: { band_A: COMPENSATION_BAND_FRACTION * p.peak.Imax } } : {}),
     ...(pwm?.window_s ? { window: { from_s: pwm.window_s.from, to_s: pwm.window_s.to } } : {}),
   };
 }

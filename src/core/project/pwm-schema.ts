@@ -8,7 +8,9 @@
  * when absent ("sinusoidal" stays, "svpwm" and "six-step" give "svpwm"); "deviceDrop" the on-state
  * drop of a conducting switch or diode (inverter.deviceDrop when absent); "window_s" {from, to} the
  * switching model's zoom window of full-resolution traces, s (the last two fundamental periods of
- * the run when absent; at most WINDOW_CAPACITY samples are kept). The checks across
+ * the run when absent; at most WINDOW_CAPACITY samples are kept); "deadTimeCompensation" (default
+ * false) the modulator's correction of the dead time and the device drop by the sign of each phase
+ * current (see pwm-from-project.ts for its band). The checks across
  * sections (rates, dead time against the carrier period, drop against the bus) are `pwmProblems`.
  */
 import { z } from 'zod';
@@ -28,6 +30,7 @@ export const pwmSchema = z
     deadTime_s: num('control.pwm.deadTime_s', 0, 1e-3).default(0),
     modulation: z.enum(PWM_MODULATIONS).optional().describe(doc('control.pwm.modulation')), // from inverter.modulation when absent
     deviceDrop: num('control.pwm.deviceDrop', 0, 1e3).optional(), // inverter.deviceDrop when absent
+    deadTimeCompensation: z.boolean().optional().describe(doc('control.pwm.deadTimeCompensation')), // off when absent (overrides typed by the output keep working without it)
     // the switching model's zoom window; the last two fundamental periods of the run when absent
     window_s: z
       .strictObject({ from: num('control.pwm.window_s.from', 0, 1e5), to: num('control.pwm.window_s.to', 0, 1e5) })

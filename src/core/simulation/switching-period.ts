@@ -41,6 +41,7 @@ import { nextLoadBreak } from './load-schedule';
 import type { ExactSegment } from './switching-segment';
 import type { WindowTrace } from './switching-capture';
 import { cosSmall, sinSmall } from '../mathematics/rotation';
+import { compensatedDuty } from '../drive/pwm-modulator';
 
 const SQRT3_2 = Math.sqrt(3) / 2;
 const INV_SQRT3 = 1 / Math.sqrt(3);
@@ -82,6 +83,9 @@ export class SwitchingPeriod {
   private readonly td: number;
   private readonly drop: number;
   private readonly i0: number;
+  /** dead-time compensation (PwmSpec.compensation): its band, A (0: off), and each leg's current sign at the period's start */
+  private readonly compBand: number;
+  private readonly compSign = new Float64Array(3);
   /** the time the state is at while a segment is open (NaN: closed, the state at the last half's end) */
   private tOpen = NaN;
   /** the bound on the phase currents' rate of change for this half (see slewBound), A/s */
@@ -106,7 +110,7 @@ export class SwitchingPeriod {
    * substeps ignored), any other through its `period`. With `exact` (and an Rk4Stepper) each
    * segment goes to the exact segment first, RK4 where that declines.
    */
-  constructor(private readonly plant: Plant, private readonly inner: Stepper, spec: Pick<PwmSpec, 'Vdc' | 'deadTime_s' | 'deviceDrop_V' | 'zeroCurrent_A' | 'fsw_Hz'>, private readonly exact: ExactSegment | null = null) {
+  constructor(private readonly plant: Plant, private readonly inner: Stepper, spec: Pick<PwmSpec, 'Vdc' | 'deadTime_s' | 'deviceDrop_V' | 'zeroCurrent_A' | 'fsw_Hz' | 'compensation'>, private readonly exact: ExactSegment | null = null) {
     this.rk4 = inner instanceof Rk4Stepper;
     this.Th = 0.5 / spec.fsw_Hz;
     this.Vdc = spec.Vdc;
@@ -114,6 +118,7 @@ export class SwitchingPeriod {
     this.drop = spec.deviceDrop_V;
     this.i0 = spec.zeroCurrent_A > 0 ? spec.zeroCurrent_A : 1e-12;
     this.yc = new Float64Array(8);
+    this.compBand = spec.compensation ? Math.max(spec.compensation.band_A, this.i0) : 0;
   }
 
   resetProbe(): void {
@@ -145,11 +150,14 @@ export class SwitchingPeriod {
       this.tv[0] = t0;
       if (this.nb === 0) this.sample();
       this.slew = this.slewBound(y);
+      if (this.compBand > 0) for (let x = 0; x < 3; x++) this.compSign[x] = sgn(this.iph[x]!, this.compBand);
     }
     const edgeT = this.edgeT, pendT = this.pendT;
+    const comp = this.compBand > 0;
     for (let x = 0; x < 3; x++) {
-      const dx = d[x]!;
-      this.cmdVs[x] += dx * this.Vdc * Th;
+      // the probe's command is the modulator's duty; the compensation is the bridge's own
+      const dx = comp ? compensatedDuty(d[x]!, this.compSign[x]!, rising, this.td / Th, this.drop / this.Vdc) : d[x]!;
+      this.cmdVs[x] += d[x]! * this.Vdc * Th;
       // the comparator at the half's start: at the valley on only for d = 1, at the peak on for any d > 0
       const start = rising ? dx >= 1 : dx > 0;
       if ((start ? 1 : 0) !== this.cmd[x]) { this.tv[0] = t0; this.command(y, x, start ? 1 : 0); }
