@@ -3,7 +3,7 @@ import { describe, expect, it } from 'vitest';
 import { demoJson, messageOf } from './helpers';
 import { parseProject, defaultControl } from '../src/core/project/schema';
 import { resolveProject } from '../src/core/project/project';
-import { pwmFromProject, ZERO_CURRENT_FRACTION } from '../src/core/project/pwm-from-project';
+import { COMPENSATION_BAND_FRACTION, pwmFromProject, ZERO_CURRENT_FRACTION } from '../src/core/project/pwm-from-project';
 import { simulationFromProject } from '../src/core/project/simulation-from-project';
 
 const traction = () => resolveProject(parseProject(demoJson('demo-ipm-traction')));
@@ -23,6 +23,13 @@ describe('pwmFromProject', () => {
     const control = p.file.control!;
     expect(pwmFromProject(p, { ...control, pwm: { model: 'switching', deadTime_s: 0, window_s: { from: 0.5, to: 0.51 } } }).window).toEqual({ from_s: 0.5, to_s: 0.51 });
     expect(pwmFromProject(p, { ...control, pwm: { model: 'switching', deadTime_s: 0 } })).not.toHaveProperty('window');
+  });
+  it('dead-time compensation: absent or false gives no compensation (the spec as before); true gives its band, a fraction of the peak current limit (common practice, no source)', () => {
+    const p = traction();
+    const control = p.file.control!;
+    expect(pwmFromProject(p, { ...control, pwm: { model: 'switching', deadTime_s: 1e-6 } })).not.toHaveProperty('compensation');
+    expect(pwmFromProject(p, { ...control, pwm: { model: 'switching', deadTime_s: 1e-6, deadTimeCompensation: false } })).not.toHaveProperty('compensation');
+    expect(pwmFromProject(p, { ...control, pwm: { model: 'switching', deadTime_s: 1e-6, deadTimeCompensation: true } }).compensation).toEqual({ band_A: COMPENSATION_BAND_FRACTION * p.peak.Imax });
   });
   it('modulation from inverter.modulation: "sinusoidal" stays, "six-step" gives min-max "svpwm"', () => {
     for (const [inv, pwm] of [['sinusoidal', 'sinusoidal'], ['six-step', 'svpwm']] as const) {

@@ -33,6 +33,12 @@ describe('control.pwm', () => {
     expect(messageOf(() => parseProject(minimal({ dead_time: 1 })))).toMatch(/control\.pwm/);
     expect(checkProject(minimal({ fsw_Hz: 5000, model: 'switching' }))).toEqual([]);
   });
+  it('deadTimeCompensation: a boolean, off when absent (results unchanged), documented, refused otherwise naming the field', () => {
+    expect(parseProject(minimal({ model: 'switching', deadTimeCompensation: true })).control?.pwm?.deadTimeCompensation).toBe(true);
+    expect(parseProject(minimal({ model: 'switching' })).control?.pwm?.deadTimeCompensation).toBeUndefined();
+    expect(KEYS['control.pwm.deadTimeCompensation']?.doc).toMatch(/default false/);
+    expect(messageOf(() => parseProject(minimal({ deadTimeCompensation: 'yes' })))).toMatch(/^control\.pwm\.deadTimeCompensation /);
+  });
   it('window_s {from, to}: optional, the end after the start, every key documented', () => {
     expect(parseProject(minimal({ model: 'switching', window_s: { from: 0.1, to: 0.12 } })).control?.pwm?.window_s).toEqual({ from: 0.1, to: 0.12 });
     expect(messageOf(() => parseProject(minimal({ window_s: { from: 0.2, to: 0.1 } })))).toBe('control.pwm.window_s.to must be > control.pwm.window_s.from (0.2 s)');

@@ -11,7 +11,7 @@ import { runSimulation, simulationFindings } from '../src/core/simulation/simula
 
 function spm(angle: Record<string, unknown>) {
   const o = demoJson('demo-spm-48v');
-  o.control.angle = { ...o.control.angle, ...angle }; // the demo's: 4000 Hz PLL, hand-over at 700 rpm
+  o.control.angle = { ...o.control.angle, ...angle }; // the demo's: 1000 Hz PLL, hand-over at 700 rpm
   return simulationFromProject(loadProjectText(JSON.stringify(o)));
 }
 

@@ -22,6 +22,11 @@
  * Iwasaki (1987), "Waveform distortion and correction circuit for PWM inverters with switching
  * lag-times", IEEE Trans. Industry Applications IA-23(5)).
  *
+ * Compensation (PwmSpec.compensation): each leg's duty is moved by compensatedDuty
+ * (../drive/pwm-modulator.ts) for the sign of its phase current at the control period's start, linear
+ * across the spec's band; the probe's commanded volt-seconds stay the modulator's duty, so the
+ * recorded error is what remains after the compensation.
+ *
  * Device drop: a leg connected to a rail sits at that rail minus deviceDrop in the direction of its
  * current (the switch or the diode conducting), u = s Vdc - deviceDrop sgn(i), with the sign taken
  * at each segment's start and made linear across |i| <= zeroCurrent (common practice, no source).
