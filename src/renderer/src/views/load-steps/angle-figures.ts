@@ -105,8 +105,8 @@ export function angleMetricRows(m: { angleErrorRms_rad?: number | null; angleErr
     const v = m[key];
     if (typeof v === 'number' && Number.isFinite(v)) rows.push({ key, label, text: angleText(v), value: v });
   };
-  add('angleErrorRms_rad', 'angle error (estimated − true), rms');
-  add('angleErrorPeak_rad', 'angle error (estimated − true), peak');
+  add('angleErrorRms_rad', 'angle error, rms (estimated − true)');
+  add('angleErrorPeak_rad', 'angle error, peak (estimated − true)');
   return rows;
 }
 
