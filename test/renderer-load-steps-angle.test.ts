@@ -49,6 +49,11 @@ describe('the angle source named', () => {
 
   it('the true angle (ideal, or no control.angle): nothing named', () => {
     expect(angleSourceText(idealFile)).toBeNull();
+    // without a motor section the caller's pole pairs give the count's electrical angle
+    const np = demoJson('demo-servo-axis');
+    delete np.motor;
+    expect(angleSourceText(np)).toMatch(/^encoder, 2048 lines \(8192 counts per revolution\), /);
+    expect(angleSourceText(np, 4)).toMatch(/0\.176 ° electrical per count/);
     const f = demoJson('demo-servo-axis');
     delete f.control.angle;
     expect(angleSourceText(f)).toBeNull();

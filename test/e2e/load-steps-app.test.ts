@@ -4,7 +4,7 @@
 //   test-results/load-steps-encoder.png, load-steps-encoder-traces.png, load-steps-encoder-zoom.png,
 //   load-steps-encoder-metrics.png;
 // - the 48 V demo with its sensorless observer: the hand-over marked, the validity finding beside the
-//   angle source; screenshots test-results/load-steps-sensorless.png, load-steps-sensorless-traces.png;
+//   angle source; screenshots test-results/load-steps-sensorless.png, load-steps-sensorless-traces.png, load-steps-sensorless-dark.png;
 // - with the switching model: the zoom window moved from the run's end to the first load step and to
 //   times typed in, each run's window where it was put; a start after the run refused beside its
 //   field; screenshots test-results/switching-window-load-step.png, switching-window-times.png.
@@ -105,6 +105,11 @@ describe('the Load steps view with an encoder', () => {
     await page.locator('[data-testid="traces-plot"]').screenshot({ path: shotPath('load-steps-sensorless-traces') });
     await page.locator('[data-testid="angle-source"]').scrollIntoViewIfNeeded();
     await page.screenshot({ path: shotPath('load-steps-sensorless') });
+    // the dark theme: the estimate and the angle error in colours of their own there too
+    await page.click('[data-testid="theme-toggle"]');
+    await page.waitForTimeout(300);
+    await page.locator('[data-testid="traces-plot"]').screenshot({ path: shotPath('load-steps-sensorless-dark') });
+    await page.click('[data-testid="theme-toggle"]');
     expect(pageErrors).toEqual([]);
   }, 180_000);
 

@@ -7,8 +7,8 @@ import { jumpToField } from '../../components/jump-to-field';
 import type { SimDone } from '../../state/simulation-run';
 import { angleFindings, angleSourceText, angleText } from './angle-figures';
 
-export function AngleCard({ result, file }: { result: SimDone; file: unknown }) {
-  const source = angleSourceText(file);
+export function AngleCard({ result, file, polePairs }: { result: SimDone; file: unknown; polePairs: number }) {
+  const source = angleSourceText(file, polePairs);
   if (source === null || !result.traces.thetaError_rad) return null;
   const m = result.metrics;
   const rms = typeof m.angleErrorRms_rad === 'number' ? angleText(m.angleErrorRms_rad) : null;

@@ -128,7 +128,7 @@ export const LoadStepsView = memo(function LoadStepsView({ project, theme, stale
                 Traces — {result.project}{result.pwmModel === 'switching' ? ' (switching model)' : ''}
                 <span style={{ fontWeight: 400, fontSize: 12, marginLeft: 10 }}>shaded: voltage saturation (amber), current limit (red)</span>
               </h4>
-              <AngleCard result={result} file={file} />
+              <AngleCard result={result} file={file} polePairs={project.machine20.polePairs} />
               {fig && <Plot data={fig.data} layout={fig.layout} height={tracesHeight(result)} testId="traces-plot" />}
             </div>
             <div className="cols">

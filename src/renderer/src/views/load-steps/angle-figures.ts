@@ -33,12 +33,14 @@ export function runFile(inputsKey: string | undefined, current: unknown): unknow
  * The angle source in one line, as an engineer names it: "encoder, 2048 lines (8192 counts per
  * revolution, 0.176 ° electrical per count), speed over 8 control periods, filter 1 kHz"; "resolver,
  * tracking loop 300 Hz, damping 0.707"; "sensorless observer, PLL 4000 Hz, open-loop start-up handing
- * over at 700 rpm". Null for the true angle (ideal or absent).
+ * over at 700 rpm". Null for the true angle (ideal or absent). `polePairs` when the file has no motor
+ * section.
  */
-export function angleSourceText(file: unknown): string | null {
+export function angleSourceText(file: unknown, polePairs: number | null = null): string | null {
   const a = angleOf(file);
   if (!a) return null;
-  const pp = numOf(obj(obj(file)?.motor)?.polePairs);
+  // the motor section's pole pairs, else the caller's (a nameplate gives poles in its own terms)
+  const pp = numOf(obj(obj(file)?.motor)?.polePairs) ?? polePairs;
   const hz = (v: number): string => (v >= 1000 ? `${num(v / 1e3)} kHz` : `${num(v)} Hz`);
   const parts: string[] = [];
   if (a.source === 'encoder') {

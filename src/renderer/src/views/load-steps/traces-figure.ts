@@ -12,8 +12,8 @@ import { angleErrorRange, degrees } from './angle-figures';
 
 /** Colours of the traces: distinct within each plot and never one colour for two quantities. */
 const TRACE = {
-  light: { ref: '#555555', speed: '#0b5cad', estimate: '#d95f02', angle: '#b3261e', error: '#00796b', torque: '#6a3d9a', load: '#8d6e00', id: '#e65100', iq: '#00838f', volt: '#c51b7d', a: '#b3261e', b: '#558b2f', c: '#283593' },
-  dark: { ref: '#bbbbbb', speed: '#79c0ff', estimate: '#ffa657', angle: '#ff7b72', error: '#4dd0c4', torque: '#d2a8ff', load: '#f2cc60', id: '#ffa657', iq: '#56d4dd', volt: '#ff8ccf', a: '#ff7b72', b: '#aed581', c: '#9fa8ff' },
+  light: { ref: '#555555', speed: '#0b5cad', estimate: '#8c510a', angle: '#222222', error: '#00796b', torque: '#6a3d9a', load: '#8d6e00', id: '#e65100', iq: '#00838f', volt: '#c51b7d', a: '#b3261e', b: '#558b2f', c: '#283593' },
+  dark: { ref: '#bbbbbb', speed: '#79c0ff', estimate: '#e3b87f', angle: '#e6e6e6', error: '#4dd0c4', torque: '#d2a8ff', load: '#f2cc60', id: '#ffa657', iq: '#56d4dd', volt: '#ff8ccf', a: '#ff7b72', b: '#aed581', c: '#9fa8ff' },
 } as const;
 
 const GAP = 0.03;
