@@ -1,5 +1,7 @@
 // Load steps view: the scenario editor, a run button (the simulation runs in a Web Worker, with
-// progress and cancel), stacked traces on one time axis, the metrics table, saturation shaded.
+// progress and cancel), stacked traces on one time axis (traces-figure.ts), the metrics table,
+// saturation shaded; with a measured or estimated angle, the source named with its findings, the
+// estimated speed over the true one, the angle error and its rms and peak (angle-figures.ts).
 import { memo, useMemo, useRef } from 'react';
 import { useWorkerRun } from '../../state/worker-run';
 import type { ResolvedProject } from '../../../../core/project/project';
@@ -21,7 +23,6 @@ import { inputsKey, keepAveraged } from './switching-figures';
 import { tracesFigure, tracesHeight } from './traces-figure';
 import { AngleCard } from './AngleCard';
 import { angleFindings, angleMetricRows, angleSourceText, handoverSpeed, runFile } from './angle-figures';
-
 
 const ms = (v: number): string => `${sig3(v * 1e3)} ms`;
 const METRICS: Array<[keyof SimDone['metrics'], string, (v: number) => string]> = [
