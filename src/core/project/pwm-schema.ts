@@ -8,9 +8,11 @@
  * when absent ("sinusoidal" stays, "svpwm" and "six-step" give "svpwm"); "deviceDrop" the on-state
  * drop of a conducting switch or diode (inverter.deviceDrop when absent); "window_s" {from, to} the
  * switching model's zoom window of full-resolution traces, s (the last two fundamental periods of
- * the run when absent; at most WINDOW_CAPACITY samples are kept); "deadTimeCompensation" (default
- * false) the modulator's correction of the dead time and the device drop by the sign of each phase
- * current (see pwm-from-project.ts for its band). The checks across
+ * the run when absent; at most WINDOW_CAPACITY samples are kept); "windowAt" where the window sits
+ * without window_s: "end" (the default) or "load-step" (around the first load event, see
+ * switching-window.ts); "deadTimeCompensation" (default false) the modulator's correction of the
+ * dead time and the device drop by the sign of each phase current (see pwm-from-project.ts for its
+ * band). The checks across
  * sections (rates, dead time against the carrier period, drop against the bus) are `pwmProblems`.
  */
 import { z } from 'zod';
@@ -36,6 +38,8 @@ export const pwmSchema = z
       .strictObject({ from: num('control.pwm.window_s.from', 0, 1e5), to: num('control.pwm.window_s.to', 0, 1e5) })
       .optional()
       .describe(doc('control.pwm.window_s')),
+    // where the zoom window sits when window_s is not given: "end" (as when absent) or "load-step" (switching-window.ts)
+    windowAt: z.enum(['end', 'load-step']).optional().describe(doc('control.pwm.windowAt')),
   })
   .describe(doc('control.pwm'));
 

@@ -13,6 +13,7 @@ import { lossesSchema } from './loss-schema';
 import { thermalCapProblem, thermalSchema } from './thermal-schema';
 import { dutyCycleCapProblem, dutyCycleSchema } from './duty-cycle-schema';
 import { pwmProblems, pwmSchema } from './pwm-schema';
+import { switchingWindowProblems } from './switching-window';
 import { angleSchema } from './angle-schema';
 import { tolerancesSchema } from './tolerance-schema';
 import { variantsSchema } from './variant-schema';
@@ -294,6 +295,7 @@ export const projectSchema = projectObject.superRefine((p, ctx) => {
     for (const c of fluxMapCoverageProblems(map, Ipk, words)) ctx.addIssue({ code: 'custom', path: ['motor', 'fluxMap', c.key], message: c.message });
   }
   for (const c of pwmProblems(p.control, p.inverter.Vdc)) ctx.addIssue({ code: 'custom', path: c.path, message: c.message });
+  for (const c of switchingWindowProblems(p.control?.pwm, p.scenario)) ctx.addIssue({ code: 'custom', path: c.path, message: c.message });
   if (p.control?.mode === 'current-step' && p.scenario !== undefined && p.scenario.currentStep === undefined) {
     ctx.addIssue({ code: 'custom', path: ['scenario', 'currentStep'], message: 'is required by control.mode "current-step"' });
   }

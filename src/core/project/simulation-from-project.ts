@@ -154,7 +154,7 @@ export function simulationFromProject(p: ResolvedProject, overrides: SimulationO
     },
     tuning,
     findings,
-    pwm: pwmFromProject(p, control),
+    pwm: pwmFromProject(p, control, scenario),
     ...angleOf(control, machine.polePairs, p.rated.speed_rad_s ?? noLoadSpeed(machine, lim)),
   };
 }

@@ -8,12 +8,15 @@
  *     less commanded, V), the integrals of the DC-link current and of its square (A·s, A²·s) and the
  *     period's length; plus the state at the last period's end;
  *   - the full-resolution traces at every segment boundary (WindowTrace): over a window the
- *     project chooses (kept from its start, up to the capacity), or, without one, a ring of the last
+ *     project chooses (kept from its start, up to the capacity; its start must lie before the run's
+ *     end, InputError naming control.pwm.window_s.from), or, without one, a ring of the last
  *     boundaries, written over the run's last DEFAULT_WINDOW_SAMPLES / 8 carrier periods only (the
  *     summary takes the last two fundamental periods of it; a run stopped well before its end has
  *     none).
  * Common practice (no source).
  */
+
+import { InputError } from '../base/errors';
 
 /** Largest number of carrier periods the ring keeps (a few whole fundamental periods at any speed the analysis takes). */
 export const RECORD_CAPACITY = 4096;
@@ -105,7 +108,11 @@ export class SwitchingCapture {
       const cap = Math.max(16, Math.min(DEFAULT_WINDOW_SAMPLES, 14 * Math.ceil(periods) + 16));
       this.window = new WindowTrace(Math.max(0, duration - cap / (8 * fsw)), Infinity, cap, true);
     } else {
-      const need = 14 * Math.ceil((window.to_s - window.from_s) * fsw) + 16;
+      // a window that starts after the run's end would keep nothing: refused, naming the key (the
+      // project's checks refuse it first; this holds for a duration changed after them)
+      if (!(window.from_s < duration)) throw new InputError('control.pwm.window_s.from', `must be < the run's duration (${+duration.toPrecision(12)} s): the zoom window starts after the run ends`);
+      // sized for the part of it the run reaches
+      const need = 14 * Math.ceil((Math.min(window.to_s, duration) - window.from_s) * fsw) + 16;
       this.window = new WindowTrace(window.from_s, window.to_s, Math.max(16, Math.min(WINDOW_CAPACITY, need)), false);
     }
   }

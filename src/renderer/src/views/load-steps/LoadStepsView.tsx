@@ -1,15 +1,16 @@
 // Load steps view: the scenario editor, a run button (the simulation runs in a Web Worker, with
-// progress and cancel), stacked traces on one time axis, the metrics table, saturation shaded.
-import { memo, useEffect, useMemo, useRef, useState } from 'react';
+// progress and cancel), stacked traces on one time axis (traces-figure.ts), the metrics table,
+// saturation shaded; with a measured or estimated angle, the source named with its findings, the
+// estimated speed over the true one, the angle error and its rms and peak (angle-figures.ts).
+import { memo, useMemo, useRef } from 'react';
 import { useWorkerRun } from '../../state/worker-run';
-import type { Data, Layout } from 'plotly.js-dist-min';
 import type { ResolvedProject } from '../../../../core/project/project';
 import { SQRT2 } from '../../../../core/base/units';
-import { axis, baseLayout, Plot, readTheme } from '../../components/Plot';
+import { Plot, readTheme } from '../../components/Plot';
 import { Section } from '../../components/Section';
 import { CONTROL_SUMMARY, InputSummary, ScenarioSummary } from '../../components/input-summary';
 import { jumpToField } from '../../components/jump-to-field';
-import { rpmText, sig3, speedError, speedErrorRange } from '../../components/trace-scales';
+import { rpmText, sig3 } from '../../components/trace-scales';
 import { fieldPhrase, plainMessage, severityPhrase } from '../../../../core/reports/phrases';
 import type { SimReply, SimRequest } from '../../workers/sim-protocol';
 import type { SimDone } from '../../state/simulation-run';
@@ -19,97 +20,9 @@ import { num } from '../../components/format';
 import { PwmControl } from './PwmControl';
 import { SwitchingPanel } from './SwitchingPanel';
 import { inputsKey, keepAveraged } from './switching-figures';
-
-
-/** Colours of the traces: distinct within each plot and never one colour for two quantities. */
-const TRACE = {
-  light: { ref: '#555555', speed: '#0b5cad', error: '#00796b', torque: '#6a3d9a', load: '#8d6e00', id: '#e65100', iq: '#00838f', volt: '#c51b7d', a: '#b3261e', b: '#558b2f', c: '#283593' },
-  dark: { ref: '#bbbbbb', speed: '#79c0ff', error: '#4dd0c4', torque: '#d2a8ff', load: '#f2cc60', id: '#ffa657', iq: '#56d4dd', volt: '#ff8ccf', a: '#ff7b72', b: '#aed581', c: '#9fa8ff' },
-} as const;
-
-const ROWS = 6;
-const GAP = 0.03;
-const domain = (i: number): [number, number] => {
-  const h = (1 - GAP * (ROWS - 1)) / ROWS;
-  const top = 1 - i * (h + GAP);
-  return [top - h, top];
-};
-
-export function tracesFigure(r: SimDone, theme: 'light' | 'dark'): { data: Data[]; layout: Layout } {
-  const t = readTheme();
-  const col = TRACE[theme];
-  const tr = r.traces;
-  const x = tr.t_s!;
-  const data: Data[] = [];
-  const groups = ['speed, rpm', 'speed error, rpm', 'torque, N·m', 'dq currents, A peak', 'voltage', 'phase currents, A peak'];
-  const line = (y: Float64Array | undefined, name: string, row: number, colour: string, dash = 'solid', width = 1.6, digits = '.4g') => {
-    if (!y) return;
-    data.push({
-      type: 'scatter',
-      mode: 'lines',
-      x,
-      y,
-      name,
-      xaxis: 'x',
-      yaxis: row === 0 ? 'y' : `y${row + 1}`,
-      line: { color: colour, width, dash },
-      legendgroup: `row${row}`,
-      legendgrouptitle: { text: groups[row] },
-      hovertemplate: `${name}: %{y:${digits}}<extra>%{x:.4f} s</extra>`,
-    } as Data);
-  };
-  line(tr.speedRef_rpm, 'reference', 0, col.ref, 'dash', 1.4, '.0f');
-  line(tr.speed_rpm, 'speed', 0, col.speed, 'solid', 2, '.1f');
-  if (tr.speedRef_rpm && tr.speed_rpm) line(speedError(tr.speedRef_rpm, tr.speed_rpm), 'reference − speed', 1, col.error, 'solid', 1.6, '.2f');
-  line(tr.torque_Nm, 'motor torque', 2, col.torque, 'solid', 1.6, '.3g');
-  line(tr.loadTorque_Nm, 'load torque', 2, col.load, 'dash', 1.6, '.3g');
-  line(tr.idRef_A, 'id reference', 3, col.id, 'dot', 1.3, '.3g');
-  line(tr.iqRef_A, 'iq reference', 3, col.iq, 'dot', 1.3, '.3g');
-  line(tr.id_A, 'id', 3, col.id, 'solid', 1.6, '.3g');
-  line(tr.iq_A, 'iq', 3, col.iq, 'solid', 1.6, '.3g');
-  line(tr.vNorm, '|v| / Vmax', 4, col.volt, 'solid', 1.6, '.3f');
-  line(tr.ia_A, 'ia', 5, col.a, 'solid', 1.1, '.3g');
-  line(tr.ib_A, 'ib', 5, col.b, 'solid', 1.1, '.3g');
-  line(tr.ic_A, 'ic', 5, col.c, 'solid', 1.1, '.3g');
-  const zoom = speedErrorRange(r.loadSteps);
-  const titles = ['speed, rpm', 'error, rpm', 'torque, N·m', 'id, iq, A peak', '|v| / Vmax', 'ia, ib, ic, A'];
-  // the error row is zoomed to the load dips: its legend group says so
-  if (zoom) for (const d of data as Array<{ legendgroup?: string; legendgrouptitle?: { text: string } }>) if (d.legendgroup === 'row1') d.legendgrouptitle = { text: 'speed error (zoomed), rpm' };
-  const layout: Record<string, unknown> = baseLayout(t, {
-    margin: { l: 84, r: 150, t: 10, b: 44 },
-    hovermode: 'x',
-    legend: { orientation: 'v', x: 1.01, y: 1, font: { size: 11 }, tracegroupgap: 14, groupclick: 'toggleitem' },
-    xaxis: axis(t, 'time, s', { anchor: `y${ROWS}`, range: [x[0], x[x.length - 1]] }),
-  });
-  for (let i = 0; i < ROWS; i++) {
-    const extra: Record<string, unknown> = { domain: domain(i) };
-    if (i === 4) extra.range = [0, 1.15];
-    if (i === 1 && zoom) extra.range = zoom;
-    layout[i === 0 ? 'yaxis' : `yaxis${i + 1}`] = axis(t, titles[i]!, extra);
-  }
-  // the x axis ticks appear once at the bottom; every row shares it
-  const fill = theme === 'dark' ? 'rgba(255,179,64,0.16)' : 'rgba(224,138,0,0.16)';
-  const fillI = theme === 'dark' ? 'rgba(255,123,114,0.13)' : 'rgba(179,38,30,0.10)';
-  const shapes: Record<string, unknown>[] = [];
-  const end = x[x.length - 1] ?? 0;
-  for (const e of r.events) {
-    if (e.kind !== 'voltage-saturation' && e.kind !== 'current-limit') continue;
-    shapes.push({
-      type: 'rect',
-      xref: 'x',
-      yref: 'paper',
-      x0: e.t_s,
-      x1: e.tEnd_s ?? end,
-      y0: 0,
-      y1: 1,
-      fillcolor: e.kind === 'voltage-saturation' ? fill : fillI,
-      line: { width: 0 },
-      layer: 'below',
-    });
-  }
-  layout.shapes = shapes;
-  return { data, layout };
-}
+import { tracesFigure, tracesHeight } from './traces-figure';
+import { AngleCard } from './AngleCard';
+import { angleFindings, angleMetricRows, angleSourceText, handoverSpeed, runFile } from './angle-figures';
 
 const ms = (v: number): string => `${sig3(v * 1e3)} ms`;
 const METRICS: Array<[keyof SimDone['metrics'], string, (v: number) => string]> = [
@@ -143,8 +56,16 @@ export const LoadStepsView = memo(function LoadStepsView({ project, theme, stale
     startRun(new Worker(new URL('../../workers/sim-worker.ts', import.meta.url), { type: 'module' }), { kind: 'run', projectText: JSON.stringify(project.file), maxPoints: 4000 });
   };
 
-  const fig = useMemo(() => (result ? tracesFigure(result, theme) : null), [result, theme]);
+  // the file the shown run was made from (its inputs less control.pwm): its angle source, not the one edited since
+  const file = useMemo(() => (result ? runFile(result.inputsKey, project.file) : null), [result, project.file]);
+  const fig = useMemo(() => (result ? tracesFigure(result, theme, readTheme(), handoverSpeed(file)) : null), [result, theme, file]);
   const hasScenario = project.file.scenario !== undefined;
+  // the findings about the angle source go with the angle's line above the traces (when it shows)
+  const general = useMemo(() => {
+    if (!result) return [];
+    const shown = angleSourceText(file) !== null && result.traces.thetaError_rad !== undefined ? new Set(angleFindings(result.findings)) : new Set();
+    return result.findings.filter((f) => !shown.has(f));
+  }, [result, file]);
   const sat = result?.events.filter((e) => e.kind === 'voltage-saturation' || e.kind === 'current-limit') ?? [];
   const other = result?.events.filter((e) => e.kind !== 'voltage-saturation' && e.kind !== 'current-limit') ?? [];
 
@@ -186,9 +107,9 @@ export const LoadStepsView = memo(function LoadStepsView({ project, theme, stale
         {result ? (
           <>
             {typeof result.diagnostic === 'string' && <div className="finding danger">{result.diagnostic}</div>}
-            {result.findings.length > 0 && (
+            {general.length > 0 && (
               <div data-testid="sim-findings">
-                {result.findings.map((f, i) => (
+                {general.map((f, i) => (
                   <div key={i} className={`finding ${f.severity}`}>
                     <strong>{severityPhrase(f.severity)}</strong>
                     {f.field && (
@@ -208,7 +129,8 @@ export const LoadStepsView = memo(function LoadStepsView({ project, theme, stale
                 Traces — {result.project}{result.pwmModel === 'switching' ? ' (switching model)' : ''}
                 <span style={{ fontWeight: 400, fontSize: 12, marginLeft: 10 }}>shaded: voltage saturation (amber), current limit (red)</span>
               </h4>
-              {fig && <Plot data={fig.data} layout={fig.layout} height={660} testId="traces-plot" />}
+              <AngleCard result={result} file={file} polePairs={project.machine20.polePairs} />
+              {fig && <Plot data={fig.data} layout={fig.layout} height={tracesHeight(result)} testId="traces-plot" />}
             </div>
             <div className="cols">
               <div className="card">
@@ -224,6 +146,12 @@ export const LoadStepsView = memo(function LoadStepsView({ project, theme, stale
                         </tr>
                       );
                     })}
+                    {angleMetricRows(result.metrics).map((m) => (
+                      <tr key={m.key}>
+                        <td>{m.label}</td>
+                        <td className="num" data-metric={m.key} data-value={m.value}>{m.text}</td>
+                      </tr>
+                    ))}
                   </tbody>
                 </table>
                 {result.loadSteps.length > 1 && (

@@ -1,12 +1,14 @@
 // The inverter model of the load-step run (control.pwm), edited in the project through the form's
 // draft like every input: averaged (the controller's voltage applied as the period's mean) or
 // switching (each carrier period split at the legs' switching instants), with the carrier frequency,
-// the dead time and the modulation. Messages come from the project schema, by path, beside the field.
+// the dead time, the modulation and where the zoom window of full-resolution traces sits (the run's
+// end, the first load step, or times given). Messages come from the project schema, by path, beside
+// the field.
 import { useId } from 'react';
 import { editNumber, editSubtree, editValue, getAt, textOf, type Json } from '../../state/draft';
 import { useFormStore, useFormValue } from '../../state/form-store';
 import { num } from '../../components/format';
-import { MODULATION_NAMES } from './switching-figures';
+import { MODULATION_NAMES, suggestedWindow, WINDOW_HINTS, WINDOW_MODES, windowModeOf, type WindowMode } from './switching-figures';
 
 // each option short enough for the narrow column
 const SHORT: Record<string, string> = { sinusoidal: 'sinusoidal', svpwm: 'SVPWM (min-max)', dpwm1: 'DPWM1 (discontinuous)' };
@@ -55,6 +57,8 @@ export function PwmControl() {
   const model = useFormValue((d) => (getAt(d.tree, `${PWM}.model`) === 'switching' ? 'switching' : 'average'));
   const fCtrl = useFormValue((d) => getAt(d.tree, 'control.fCtrl_Hz'));
   const invMod = useFormValue((d) => getAt(d.tree, 'inverter.modulation'));
+  const windowMode = useFormValue((d) => windowModeOf(getAt(d.tree, PWM)));
+  const duration = useFormValue((d) => getAt(d.tree, 'scenario.duration_s'));
   const modulation = useFormValue((d) => {
     const m = getAt(d.tree, `${PWM}.modulation`);
     return typeof m === 'string' ? m : '';
@@ -67,6 +71,16 @@ export function PwmControl() {
       return editSubtree(d, PWM, { ...rest, model: m });
     });
   const fromInverter = invMod === 'sinusoidal' ? 'sinusoidal' : 'svpwm';
+  const setWindow = (m: WindowMode) =>
+    store.update((d) => {
+      const cur = getAt(d.tree, PWM);
+      const rest = { ...(cur && typeof cur === 'object' && !Array.isArray(cur) ? (cur as Record<string, Json>) : {}) };
+      delete rest.windowAt;
+      delete rest.window_s;
+      if (m === 'load-step') rest.windowAt = 'load-step';
+      if (m === 'times') rest.window_s = suggestedWindow(typeof duration === 'number' ? duration : null);
+      return editSubtree(d, PWM, rest);
+    });
   return (
     <div data-testid="pwm-control">
       <div className="field">
@@ -100,6 +114,25 @@ export function PwmControl() {
             </span>
             <Messages path={`${PWM}.modulation`} />
           </div>
+          <div className="field">
+            <label className="label" htmlFor="pwm-window-at">zoom window</label>
+            <span className="control">
+              <select id="pwm-window-at" data-path={`${PWM}.windowAt`} data-testid="pwm-window-at" value={windowMode} onChange={(e) => setWindow(e.target.value as WindowMode)}>
+                {(Object.keys(WINDOW_MODES) as WindowMode[]).map((k) => (
+                  <option key={k} value={k}>{WINDOW_MODES[k]}</option>
+                ))}
+              </select>
+            </span>
+            <span className="hint">{WINDOW_HINTS[windowMode]}</span>
+            <Messages path={`${PWM}.windowAt`} />
+          </div>
+          {windowMode === 'times' && (
+            <>
+              <PwmNumber path={`${PWM}.window_s.from`} label="window from" unit="s" testId="pwm-window-from" placeholder="" hint={(v) => `= ${num(v * 1e3)} ms`} />
+              <PwmNumber path={`${PWM}.window_s.to`} label="window to" unit="s" testId="pwm-window-to" placeholder="" hint={(v) => `= ${num(v * 1e3)} ms`} />
+              <Messages path={`${PWM}.window_s`} />
+            </>
+          )}
           <Messages path={PWM} />
           <Messages path={`${PWM}.model`} />
         </>

@@ -10,6 +10,8 @@ import { exportPlotImage } from '../../components/image-export';
 import { num } from '../../components/format';
 import { useExporter } from '../../state/exporter';
 import type { SimDone } from '../../state/simulation-run';
+import { runFile } from './angle-figures';
+import { firstLoadEvent } from '../../../../core/project/switching-window';
 import { overlayFigure, rippleEnvelopeFigure, rippleWindowFigure, spectrumFigure, switchingConditions, switchingSummary, switchingWindowCsv, windowZoom, type WindowZoom } from './switching-figures';
 
 type Which = 'window' | 'envelope' | 'spectrum' | 'overlay';
@@ -31,7 +33,13 @@ export function SwitchingPanel({ result, project, theme }: { result: SimDone; pr
   const avg = result.averaged;
   const col = CURVE[theme];
   const zr = useMemo(() => (s ? windowZoom(s, zoom) : null), [s, zoom]);
-  const win = useMemo(() => (s ? rippleWindowFigure(s, readTheme(), col, zr) : null), [s, col, zr]);
+  // the run's first load event (its own file: the inputs key), marked in the window when it falls there
+  const loadAt = useMemo(() => {
+    const sc = (runFile(result.inputsKey, project.file) as { scenario?: Parameters<typeof firstLoadEvent>[0] } | null)?.scenario;
+    return sc ? firstLoadEvent(sc) : null;
+  }, [result.inputsKey, project.file]);
+  const marks = useMemo(() => (loadAt === null ? [] : [{ t_s: loadAt, label: `load step ${num(loadAt * 1e3)} ms` }]), [loadAt]);
+  const win = useMemo(() => (s ? rippleWindowFigure(s, readTheme(), col, zr, marks) : null), [s, col, zr, marks]);
   const env = useMemo(() => (s ? rippleEnvelopeFigure(s, readTheme(), col) : null), [s, col]);
   const spec = useMemo(() => (s ? spectrumFigure(s, log, readTheme(), col) : null), [s, log, col]);
   const over = useMemo(() => (avg ? overlayFigure(avg, result, readTheme(), col) : null), [avg, result, col]);

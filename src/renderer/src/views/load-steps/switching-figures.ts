@@ -31,9 +31,10 @@ const stack = (rows: number, i: number, gap = 0.06): [number, number] => {
  * current runs between switching instants), the applied phase voltage va and the DC-link current idc
  * (each the value over the segment ending at its boundary: drawn as steps, vertical first), on one
  * time axis in ms; `range_ms` the part shown (the whole window when absent; when given, ia alone on
- * an axis fitted to its samples there, ib and ic hidden in the legend).
+ * an axis fitted to its samples there, ib and ic hidden in the legend); `marks` instants drawn as
+ * labelled dashed lines across the rows (the load step), those within the window only.
  */
-export function rippleWindowFigure(s: SwitchingResult, t: PlotTheme, col: CurveColours, range_ms?: [number, number] | null): Figure {
+export function rippleWindowFigure(s: SwitchingResult, t: PlotTheme, col: CurveColours, range_ms?: [number, number] | null, marks: ReadonlyArray<{ t_s: number; label: string }> = []): Figure {
   const w = s.window;
   const x = Array.from(w.t_s, (v) => v * 1e3);
   const tr = (y: Float64Array, name: string, yaxis: string, colour: string, shape: 'linear' | 'vh', width = 1.2): Data =>
@@ -65,6 +66,12 @@ export function rippleWindowFigure(s: SwitchingResult, t: PlotTheme, col: CurveC
     yaxis2: axis(t, 'va, V', { domain: stack(3, 1) }),
     yaxis3: axis(t, 'idc, A', { domain: stack(3, 2) }),
   } as Layout);
+  const inside = marks.filter((m) => w.t_s.length > 0 && m.t_s >= w.t_s[0]! && m.t_s <= w.t_s[w.t_s.length - 1]!);
+  if (inside.length) {
+    const l = layout as Record<string, unknown>;
+    l.shapes = inside.map((m) => ({ type: 'line', xref: 'x', yref: 'paper', x0: m.t_s * 1e3, x1: m.t_s * 1e3, y0: 0, y1: 1, line: { color: t.muted, width: 1.2, dash: 'dash' } }));
+    l.annotations = inside.map((m) => ({ xref: 'x', yref: 'paper', x: m.t_s * 1e3, y: 1, xanchor: 'left', yanchor: 'top', showarrow: false, text: m.label, font: { size: 11, color: t.ink }, bgcolor: t.panel }));
+  }
   return { data, layout };
 }
 
@@ -201,6 +208,29 @@ export function switchingWindowCsv(s: SwitchingResult, comments: readonly string
     for (let i = 0; i < n; i++) yield cols.map((c) => c[i]!);
   }
   return csvDocument(rows());
+}
+
+/** Where the zoom window sits, as the PWM control offers it: control.pwm.windowAt, or window_s given as times. */
+export type WindowMode = 'end' | 'load-step' | 'times';
+export const WINDOW_MODES: Record<WindowMode, string> = { end: 'at the run\'s end', 'load-step': 'at the first load step', times: 'from … to … (times)' };
+export const WINDOW_HINTS: Record<WindowMode, string> = {
+  end: 'the last two fundamental periods of the run',
+  'load-step': 'two fundamental periods at the speed asked there, from a quarter of it before the step',
+  times: 'full-resolution traces between these times',
+};
+
+/** The window mode of a control.pwm subtree (as edited: any JSON). */
+export function windowModeOf(pwm: unknown): WindowMode {
+  const o = pwm && typeof pwm === 'object' && !Array.isArray(pwm) ? (pwm as Record<string, unknown>) : {};
+  if (o.window_s !== undefined) return 'times';
+  return o.windowAt === 'load-step' ? 'load-step' : 'end';
+}
+
+/** Times to start from when the user asks for a window by times: the middle tenth of the run after its half (10 ms of a 0.1 s run), s. */
+export function suggestedWindow(duration_s: number | null): { from: number; to: number } {
+  const T = duration_s !== null && duration_s > 0 ? duration_s : 0.1;
+  const r = (v: number) => +v.toPrecision(6);
+  return { from: r(T / 2), to: r(T * 0.6) };
 }
 
 /** The project's inputs apart from control.pwm, as text: runs with equal keys differ only in the inverter model. */
