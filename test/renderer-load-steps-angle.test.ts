@@ -41,7 +41,7 @@ describe('the angle source named', () => {
   it('resolver and sensorless: the tracking loop, the PLL with its hand-over and the observer\'s mismatches', () => {
     expect(angleSourceText(demoJson('demo-ipm-traction'))).toBe('resolver, tracking loop 300 Hz, damping 0.707');
     const f = demoJson('demo-spm-48v');
-    expect(angleSourceText(f)).toBe('sensorless observer, PLL 4 kHz, open-loop start-up handing over at 700 rpm');
+    expect(angleSourceText(f)).toBe('sensorless observer, PLL 1 kHz, open-loop start-up handing over at 700 rpm');
     expect(handoverSpeed(f)).toBe(700);
     f.control.angle.fluxError_pct = -20;
     expect(angleSourceText(f)).toMatch(/observer's parameters off the motor's: flux linkage -20 %$/);

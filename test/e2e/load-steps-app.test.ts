@@ -91,7 +91,7 @@ describe('the Load steps view with an encoder', () => {
     await page.click('[data-testid="tab-loadsteps"]');
     await runEnabled();
     await page.click('[data-testid="run"]');
-    await page.waitForFunction(() => /^sensorless observer, PLL 4 kHz, open-loop start-up handing over at 700 rpm/.test(document.querySelector('[data-testid="angle-source-text"]')?.textContent ?? ''), undefined, { timeout: 60_000 });
+    await page.waitForFunction(() => /^sensorless observer, PLL 1 kHz, open-loop start-up handing over at 700 rpm/.test(document.querySelector('[data-testid="angle-source-text"]')?.textContent ?? ''), undefined, { timeout: 60_000 });
     // the observer's validity: the back-EMF and the current model's weight bound it from below, the start-up hands over above (common practice (no source))
     expect(await page.textContent('[data-testid="angle-source"]')).toMatch(/sensorless observer is not valid below \d+ rpm/);
     expect(await page.$$eval('[data-testid="traces-plot"] .annotation-text', (els) => els.map((e) => e.textContent))).toContain('sensorless hand-over 700 rpm');
