@@ -109,9 +109,11 @@ describe('the traces with an encoder (servo demo)', () => {
     expect(lo).toBe(-hi);
   });
 
-  it('the metrics gain the angle error\'s rms and peak, in electrical degrees and mrad', () => {
+  it('the metrics gain the angle error\'s rms and peak, in electrical degrees and mrad, and the speed estimate\'s ripple in rpm', () => {
     const rows = angleMetricRows(servo.metrics);
-    expect(rows.map((r) => r.key)).toEqual(['angleErrorRms_rad', 'angleErrorPeak_rad']);
+    expect(rows.map((r) => r.key)).toEqual(['angleErrorRms_rad', 'angleErrorPeak_rad', 'speedEstimateRipple_rpm']);
+    expect(rows[2]!.value).toBe(servo.metrics.speedEstimateRipple_rpm);
+    expect(rows[2]!.text).toMatch(/^\d+(\.\d+)? rpm$/);
     expect(rows[1]!.value).toBe(servo.metrics.angleErrorPeak_rad);
     // the peak within one count (0.1758 ° electrical), the rms below it
     expect(rows[1]!.value * 180 / Math.PI).toBeLessThanOrEqual(0.17578125 + 1e-9);

@@ -76,8 +76,8 @@ export function switchingLines(s: SwitchingResult): string[] {
 export function simulationJson(r: SimulationResult, findings: Finding[] = [], projectSetup_s?: number) {
   const metrics: Record<string, number | null> = {};
   for (const k of JSON_METRICS) metrics[k] = r.metrics[k];
-  // the angle error's, only when the angle source is not ideal
-  for (const k of ['angleErrorRms_rad', 'angleErrorPeak_rad'] as const) if (r.metrics[k] !== undefined) metrics[k] = r.metrics[k];
+  // the angle error's and the speed estimate's, only when the angle source is not ideal
+  for (const k of ['angleErrorRms_rad', 'angleErrorPeak_rad', 'speedEstimateRipple_rpm'] as const) if (r.metrics[k] !== undefined) metrics[k] = r.metrics[k];
   const traces: Record<string, number[]> = {};
   for (const k of traceNamesOf(r.traces)) traces[k] = Array.from(r.traces[k]!);
   return {
@@ -155,6 +155,7 @@ export function simulationReport(p: ResolvedProject, setup: SimulationSetup, r: 
     // the angle the controller saw: only when the angle source is not ideal
     ...(m.angleErrorRms_rad !== undefined ? [['angle error rms (electrical)', orDash(m.angleErrorRms_rad ?? null), 'rad'] as [string, string, string]] : []),
     ...(m.angleErrorPeak_rad !== undefined ? [['angle error peak (electrical)', orDash(m.angleErrorPeak_rad ?? null), 'rad'] as [string, string, string]] : []),
+    ...(m.speedEstimateRipple_rpm !== undefined ? [['speed estimate ripple (rms)', orDash(m.speedEstimateRipple_rpm ?? null), 'rpm'] as [string, string, string]] : []),
   ];
   const lines = [
     `${p.name}: ${c.mode} control at ${fmt(1 / c.Ts)} Hz, delay ${c.delaySamples} period(s), anti-windup ${c.antiWindup}, ` +

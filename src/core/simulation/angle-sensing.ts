@@ -7,7 +7,11 @@
  *
  * It keeps the run's angle error (estimated minus true electrical angle, wrapped to [-pi, pi]): its
  * rms and peak over every sample, and two decimated traces on the recorder's time axis,
- * `thetaError_rad` and `speedEstimate_rpm`. No allocation per period.
+ * `thetaError_rad` and `speedEstimate_rpm`. And the speed estimate's ripple: the rms of the
+ * estimated minus the true mechanical speed over the run's steady-state window (its last 5 %, or two
+ * periods, as the steady-state speed error), where a speed step's lag has passed and what is left
+ * is the estimator's noise (quantisation, ripple); a sensorless start-up's open-loop samples are
+ * left out (its estimate steers nothing then). No allocation per period.
  *
  * A sensorless estimator below its hand-over speed runs an open-loop start-up: `steer` then has the
  * controller ask the start-up current on the q axis of the estimated frame (d reference 0) and, at
@@ -20,6 +24,7 @@ import type { CascadeController } from '../control/controller';
 import type { MachineModel } from '../machine/machine-model';
 import { RAD_S_TO_RPM } from '../base/units';
 import { StreamingMinMax } from './decimate';
+import { SteadyStateTracker } from './metrics';
 import { I_D, I_Q, OMEGA, THETA } from './plant';
 
 export const ANGLE_TRACE_NAMES = ['thetaError_rad', 'speedEstimate_rpm'] as const;
@@ -31,6 +36,10 @@ export class AngleSensing {
   private sumE2 = 0;
   private peak = 0;
   private n = 0;
+  /** the last sample's speed-estimate error squared, rpm^2 (NaN: no fresh sample to record) */
+  private w2 = Number.NaN;
+  private readonly ripple: SteadyStateTracker;
+  private tLast = 0;
   private readonly dec: StreamingMinMax;
   /** the estimator when it is sensorless (its start-up and its lock), else null */
   readonly sensorless: SensorlessEstimator | null;
@@ -39,6 +48,8 @@ export class AngleSensing {
   /** samples: the recorder's count (periods + 1); maxPoints: its decimation; model: the torque at hand-over (sensorless) */
   constructor(readonly estimator: AngleEstimator, private readonly polePairs: number, private readonly Ts: number, samples: number, maxPoints: number, private readonly model?: MachineModel) {
     this.dec = new StreamingMinMax(ANGLE_TRACE_NAMES.length, samples, maxPoints);
+    // the steady-state window is 5 % of the run (or 2 periods): the ring holds a little more
+    this.ripple = new SteadyStateTracker(Math.ceil(0.05 * samples) + 8);
     this.sensorless = estimator instanceof SensorlessEstimator ? estimator : null;
   }
 
@@ -92,10 +103,15 @@ export class AngleSensing {
       const a = e < 0 ? -e : e;
       if (a > this.peak) this.peak = a;
     }
+    const w = (est.omegaE / this.polePairs - yi[OMEGA]!) * RAD_S_TO_RPM;
+    this.w2 = this.sensorless !== null && this.sensorless.openLoop ? Number.NaN : w * w;
   }
 
   /** the sample at time t into the traces (the recorder's instants) */
   record(t: number): void {
+    if (Number.isFinite(this.w2)) this.ripple.push(t, this.w2, 0);
+    this.w2 = Number.NaN;
+    this.tLast = t;
     const o = this.dec.slot(t);
     if (o < 0) return;
     const buf = this.dec.buf;
@@ -104,8 +120,18 @@ export class AngleSensing {
     this.dec.commit();
   }
 
-  metrics(): { angleErrorRms_rad: number | null; angleErrorPeak_rad: number | null } {
-    return this.n > 0 ? { angleErrorRms_rad: Math.sqrt(this.sumE2 / this.n), angleErrorPeak_rad: this.peak } : { angleErrorRms_rad: null, angleErrorPeak_rad: null };
+  metrics(): { angleErrorRms_rad: number | null; angleErrorPeak_rad: number | null; speedEstimateRipple_rpm: number | null } {
+    return {
+      angleErrorRms_rad: this.n > 0 ? Math.sqrt(this.sumE2 / this.n) : null,
+      angleErrorPeak_rad: this.n > 0 ? this.peak : null,
+      speedEstimateRipple_rpm: this.rippleRms(),
+    };
+  }
+
+  /** the rms speed-estimate error over the steady-state window, rpm (null before any closed-loop sample) */
+  private rippleRms(): number | null {
+    const m = this.ripple.result(Math.max(0.05 * this.tLast, 2 * this.Ts));
+    return m === null ? null : Math.sqrt(m);
   }
 
   /** the decimated traces; non-finite samples become 0 */

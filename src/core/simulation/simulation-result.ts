@@ -20,6 +20,8 @@ export interface SimulationMetrics {
   /** rms and peak of the angle error (estimated minus true electrical angle), rad: only when the angle source is not ideal */
   angleErrorRms_rad?: number | null;
   angleErrorPeak_rad?: number | null;
+  /** rms of the estimated minus the true mechanical speed, rpm (a sensorless start-up's open-loop samples left out) */
+  speedEstimateRipple_rpm?: number | null;
 }
 
 export const TRACE_NAMES = [

@@ -100,8 +100,8 @@ export function angleText(rad: number): string {
   return `${num(rad * RAD_TO_DEG, 3)} ° electrical (${num(rad * 1e3, 3)} mrad)`;
 }
 
-/** The metrics table's rows for the angle error (rms, peak), present only when the run reports them. */
-export function angleMetricRows(m: { angleErrorRms_rad?: number | null; angleErrorPeak_rad?: number | null }): Array<{ key: string; label: string; text: string; value: number }> {
+/** The metrics table's rows for the angle error (rms, peak) and the speed estimate's ripple, present only when the run reports them. */
+export function angleMetricRows(m: { angleErrorRms_rad?: number | null; angleErrorPeak_rad?: number | null; speedEstimateRipple_rpm?: number | null }): Array<{ key: string; label: string; text: string; value: number }> {
   const rows: Array<{ key: string; label: string; text: string; value: number }> = [];
   const add = (key: 'angleErrorRms_rad' | 'angleErrorPeak_rad', label: string) => {
     const v = m[key];
@@ -109,6 +109,8 @@ export function angleMetricRows(m: { angleErrorRms_rad?: number | null; angleErr
   };
   add('angleErrorRms_rad', 'angle error, rms (estimated − true)');
   add('angleErrorPeak_rad', 'angle error, peak (estimated − true)');
+  const w = m.speedEstimateRipple_rpm;
+  if (typeof w === 'number' && Number.isFinite(w)) rows.push({ key: 'speedEstimateRipple_rpm', label: 'speed estimate ripple, rms (estimated − true)', text: `${num(w, 3)} rpm`, value: w });
   return rows;
 }
 
