@@ -167,8 +167,7 @@ export function sampledSpeedOpenLoop(sp: SampledSpeedLoopSpec): SampledResponse 
   const vi = new Float64Array(n);
   const z = new Float64Array(2);
   return (theta, out) => {
-    z[0] = Math.cos(theta); // z = e^{j theta}
-    z[1] = Math.sin(theta);
+    z[0] = Math.cos(theta); z[1] = Math.sin(theta); // z = e^{j theta}
     for (let i = 0; i < n; i++) {
       for (let j = 0; j < n; j++) {
         Mr[i * n + j] = (i === j ? z[0]! : 0) - Aw[i]![j]!;
