@@ -160,20 +160,20 @@ export function sampledSpeedOpenLoop(sp: SampledSpeedLoopSpec): SampledResponse 
     Aw = Af.map((row) => Aw[0]!.map((_, j) => row.reduce((s, v, l) => s + v * Aw[l]![j]!, 0)));
   }
   const KiTw = sp.speedKi * sp.T * sp.divider;
-  // complex solve (zI - Aw) x = Bw, output x[1] (the speed); preallocated workspace
-  const Mr = new Float64Array(n * n);
-  const Mi = new Float64Array(n * n);
-  const vr = new Float64Array(n);
-  const vi = new Float64Array(n);
+  // complex solve (zI - Aw) x = Bw, output x[1] (the speed); preallocated workspace, Aw and Bw as flat copies
+  const AwF = Float64Array.from(Aw.flat());
+  const BwF = Float64Array.from(Bw);
+  const Mr = new Float64Array(n * n), Mi = new Float64Array(n * n);
+  const vr = new Float64Array(n), vi = new Float64Array(n);
   const z = new Float64Array(2);
   return (theta, out) => {
     z[0] = Math.cos(theta); z[1] = Math.sin(theta); // z = e^{j theta}
     for (let i = 0; i < n; i++) {
       for (let j = 0; j < n; j++) {
-        Mr[i * n + j] = (i === j ? z[0]! : 0) - Aw[i]![j]!;
+        Mr[i * n + j] = (i === j ? z[0]! : 0) - AwF[i * n + j]!;
         Mi[i * n + j] = i === j ? z[1]! : 0;
       }
-      vr[i] = Bw[i]!;
+      vr[i] = BwF[i]!;
       vi[i] = 0;
     }
     // Gaussian elimination with partial pivoting
