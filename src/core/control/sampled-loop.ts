@@ -266,20 +266,19 @@ export class UnwrappedResponse {
   readonly im: Float64Array;
   private readonly o = new Float64Array(2);
   constructor(readonly resp: SampledResponse, thetaLo: number, anchorPhase: number, n = SAMPLED_GRID_POINTS) {
-    this.theta = new Float64Array(n);
-    this.mag = new Float64Array(n);
-    this.phase = new Float64Array(n);
-    this.re = new Float64Array(n); this.im = new Float64Array(n);
+    const theta = (this.theta = new Float64Array(n)), mag = (this.mag = new Float64Array(n)), phase = (this.phase = new Float64Array(n));
+    const re = (this.re = new Float64Array(n)), im = (this.im = new Float64Array(n)), o = this.o;
     const r = Math.log(Math.PI / thetaLo);
     let prev = anchorPhase;
     for (let k = 0; k < n; k++) {
       const th = k === n - 1 ? Math.PI : thetaLo * Math.exp((r * k) / (n - 1));
-      resp(th, this.o);
-      this.theta[k] = th;
-      this.re[k] = this.o[0]!; this.im[k] = this.o[1]!;
-      this.mag[k] = Math.hypot(this.o[0]!, this.o[1]!);
-      const ph = near(Math.atan2(this.o[1]!, this.o[0]!), prev);
-      this.phase[k] = ph;
+      resp(th, o);
+      const x = o[0]!, y = o[1]!;
+      theta[k] = th;
+      re[k] = x; im[k] = y;
+      mag[k] = Math.hypot(x, y);
+      const ph = near(Math.atan2(y, x), prev);
+      phase[k] = ph;
       prev = ph;
     }
   }
@@ -288,13 +287,12 @@ export class UnwrappedResponse {
     this.resp(theta, this.o);
     return [Math.hypot(this.o[0]!, this.o[1]!), near(Math.atan2(this.o[1]!, this.o[0]!), ref)];
   }
-  /** first grid interval where g goes from >= 0 to < 0, refined by bisection; g(theta, k) with k the interval start;
-   * grid(k): g at grid point k > 0 from the stored values (the number g(theta[k], k - 1) gives, without evaluating again) */
-  firstDown(g: (theta: number, k: number) => number, grid: (k: number) => number): number | null {
+  /** first grid interval where g(theta, k) (k the interval start) goes from >= 0 to < 0, refined by bisection; at grid point k > 0 g is grid[k] - shift (the stored values) */
+  firstDown(g: (theta: number, k: number) => number, grid: Float64Array, shift = 0): number | null {
     const n = this.theta.length;
     let ga = g(this.theta[0]!, 0);
     for (let k = 1; k < n; k++) {
-      const gb = grid(k);
+      const gb = grid[k]! - shift;
       if (ga >= 0 && gb < 0) {
         let lo = this.theta[k - 1]!;
         let hi = this.theta[k]!;
@@ -326,22 +324,22 @@ function foldDeg(x: number): number {
 export function sampledMargins(u: UnwrappedResponse, T: number): SampledMargins {
   const toHz = (th: number): number => th / (2 * Math.PI * T);
   const o = new Float64Array(2);
-  const thc = u.firstDown((th, k) => Math.log(u.at(th, u.phase[k]!)[0]), (k) => Math.log(u.mag[k]!));
-  let th180 = u.firstDown((th, k) => u.at(th, u.phase[k]!)[1] + Math.PI, (k) => u.phase[k]! + Math.PI);
-  const last = u.theta.length - 1;
+  const closedOf = (re: number, im: number): number => Math.hypot(re, im) / Math.hypot(1 + re, im);
+  // the scanned functions at the grid points, from the stored response: log gain, phase + pi, closed-loop gain
+  const n = u.theta.length, logMag = new Float64Array(n), ph180 = new Float64Array(n), cl = new Float64Array(n);
+  for (let k = 0; k < n; k++) { logMag[k] = Math.log(u.mag[k]!); ph180[k] = u.phase[k]! + Math.PI; cl[k] = closedOf(u.re[k]!, u.im[k]!); }
+  const thc = u.firstDown((th, k) => Math.log(u.at(th, u.phase[k]!)[0]), logMag);
+  let th180 = u.firstDown((th, k) => u.at(th, u.phase[k]!)[1] + Math.PI, ph180);
+  const last = n - 1;
   // a loop whose phase reaches -180° exactly at Nyquist (no delay): the gain margin is read there
   if (th180 === null && Math.abs(u.phase[last]! + Math.PI) < 1e-9) th180 = Math.PI;
-  const closedOf = (re: number, im: number): number => Math.hypot(re, im) / Math.hypot(1 + re, im);
-  const closed = (th: number): number => {
-    u.resp(th, o);
-    return closedOf(o[0]!, o[1]!);
-  };
-  const thb = u.firstDown((th) => closed(th) - Math.SQRT1_2, (k) => closedOf(u.re[k]!, u.im[k]!) - Math.SQRT1_2);
+  const closed = (th: number): number => { u.resp(th, o); return closedOf(o[0]!, o[1]!); };
+  const thb = u.firstDown((th) => closed(th) - Math.SQRT1_2, cl, Math.SQRT1_2);
   // closed-loop peak: grid maximum refined by golden-section search between its neighbours
   let kMax = 0;
   let cMax = -Infinity;
-  for (let k = 0; k < u.theta.length; k++) {
-    const c = closedOf(u.re[k]!, u.im[k]!);
+  for (let k = 0; k < n; k++) {
+    const c = cl[k]!;
     if (c > cMax) { cMax = c; kMax = k; }
   }
   let lo = u.theta[Math.max(0, kMax - 1)]!;
