@@ -207,4 +207,26 @@ describe('sampled-data loops', () => {
     expect(Math.abs(diffs['demo-spm-48v d']!)).toBeLessThan(0.3);
     for (const [k, v] of Object.entries(diffs)) if (!k.endsWith('speed')) expect(Math.abs(v)).toBeLessThan(1);
   });
+
+  it('the grid keeps the response it was built from: the margins read there the numbers a new evaluation gives', () => {
+    // common practice (no source): a scan that reads stored samples finds the same crossing as one that evaluates again
+    const spec: SampledSpeedLoopSpec = { currentKp: 2.5, currentKi: 500, R: 0.2, L: 1e-3, J: 5e-3, B: 1e-3, T: 1e-4, delaySamples: 1, divider: 2, speedKp: 0.6, speedKi: 30 };
+    for (const resp of [sampledCurrentOpenLoop(2.5, 500, 0.2, 1e-3, 1e-4, 1), sampledSpeedOpenLoop(spec)]) {
+      const u = new UnwrappedResponse(resp, 1e-5, -Math.PI / 2, 400);
+      const o = new Float64Array(2);
+      for (let k = 1; k < 400; k++) {
+        resp(u.theta[k]!, o);
+        expect([u.re[k], u.im[k]]).toEqual([o[0], o[1]]);
+        expect(u.mag[k]).toBe(u.at(u.theta[k]!, u.phase[k - 1]!)[0]);
+        expect(u.phase[k]).toBe(u.at(u.theta[k]!, u.phase[k - 1]!)[1]);
+      }
+      // the first down-crossing of the gain, by stored samples and by evaluating at each grid point
+      const g = (th: number, k: number): number => Math.log(u.at(th, u.phase[k]!)[0]);
+      const stored = u.mag.map((m) => Math.log(m));
+      const evaluated = u.theta.map((th, k) => (k === 0 ? 0 : g(th, k - 1)));
+      expect(evaluated.slice(1)).toEqual(stored.slice(1));
+      expect(u.firstDown(g, stored)).toBe(u.firstDown(g, evaluated));
+      expect(u.firstDown(g, stored)).not.toBeNull();
+    }
+  });
 });

@@ -3,7 +3,9 @@ import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
 import { CAPPED_LISTS, KEYS, MAX_LIST_ENTRIES, checkProject, listCapProblem, parseProject, projectSchema } from '../src/core/project/schema';
 import { InputError } from '../src/core/base/errors';
-import { DEFAULT_COLD_TEMP_C, DEFAULT_DUTY, DEFAULT_MODULATION, DEFAULT_TEMP_C, defaultConditions } from '../src/core/project/schema';
+import { DEFAULT_COLD_TEMP_C, DEFAULT_DUTY, DEFAULT_MODULATION, DEFAULT_TEMP_C, PARSE_OPTIONS, defaultConditions } from '../src/core/project/schema';
+import { readFileSync, readdirSync } from 'node:fs';
+import { resolve } from 'node:path';
 import { resolveProject } from '../src/core/project/project';
 
 const minimal = (): Record<string, any> => ({
@@ -366,5 +368,24 @@ describe('the values a file leaves out, once, in the schema', () => {
     expect(rp.inverter.modulation).toBe('svpwm');
     expect(rp.requirements[0]!.duty).toBe('peak');
     expect(rp.findings.map((f) => f.code)).toEqual(expect.arrayContaining(['conditions-assumed', 'modulation-assumed']));
+  });
+
+  it('parsed without generated parsers (PARSE_OPTIONS): the same file, keys in the same order, and the same problems as with them', () => {
+    // common practice (no source): the two parsing routes of the validation library must agree
+    const dir = resolve(__dirname, '..', 'resources');
+    for (const f of readdirSync(dir).filter((n) => /^demo-.*\.json$/.test(n))) {
+      const json = JSON.parse(readFileSync(resolve(dir, f), 'utf8'));
+      const a = projectSchema.safeParse(json, PARSE_OPTIONS);
+      const b = projectSchema.safeParse(json);
+      expect(a.success).toBe(true);
+      expect(JSON.stringify(a.data)).toBe(JSON.stringify(b.data));
+      // a broken copy: a wrong type, a value out of range, an unknown key, a missing required field
+      const bad = { ...json, inverter: { ...json.inverter, Vdc: 'high' }, conditions: { ...json.conditions, windingTemp_C: 1e6 }, surprise: 1, name: undefined };
+      const ea = projectSchema.safeParse(bad, PARSE_OPTIONS);
+      const eb = projectSchema.safeParse(bad);
+      expect(ea.success).toBe(false);
+      expect(ea.error!.issues.map((i) => [i.code, i.path.join('.')])).toEqual(eb.error!.issues.map((i) => [i.code, i.path.join('.')]));
+      expect(ea.error!.issues.length).toBeGreaterThanOrEqual(3);
+    }
   });
 });

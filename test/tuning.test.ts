@@ -172,4 +172,19 @@ describe('loop tuning', () => {
       );
     }
   });
+
+  it('the continuous approximation and the Bode data, computed when first read, are the numbers of a fresh computation, in the same place among the keys', () => {
+    // common practice (no source): a value computed on first read is the value computed at once
+    const r = tuneLoops(base);
+    const keys = ['Kp', 'Ki', 'samplePeriod_s', 'crossover_Hz', 'phaseMargin_deg', 'gainMargin_dB', 'bandwidth_Hz', 'peaking_dB', 'gainAtNyquist_dB', 'design_Hz', 'continuous', 'bode'];
+    expect(Object.keys(r.speed)).toEqual(keys);
+    const again = tuneLoops(base);
+    const bode = r.current.bode;
+    expect(r.current.bode).toBe(bode); // kept once read
+    expect(JSON.parse(JSON.stringify(r))).toEqual(JSON.parse(JSON.stringify(again)));
+    expect(Object.keys(JSON.parse(JSON.stringify(again.currentQ)))).toEqual(keys);
+    expect({ ...again.speed }.continuous).toEqual(r.speed.continuous);
+    expect(r.current.continuous.crossover_Hz!).toBeCloseTo(500, 6);
+    expect(bode.f_Hz).toHaveLength(300);
+  });
 });

@@ -126,6 +126,9 @@ export function buildReferenceTable(
   const iq = new Float64Array(nS * nU);
   const direct = solve === solveOperatingPoint && m.linear !== null ? new EllipseTorquePoint(m.linear, m.polePairs, m.Rs, lim.Vmax) : null;
   const pt = new Float64Array(2);
+  // the MTPA current of a torque does not depend on the speed: rows with the same limits (below base
+  // speed) ask for the same torques, each found once per table
+  const mtpaOf = new Map<number, { id: number; iq: number }>();
   for (let r = 0; r < nS; r++) {
     const w = (o.speedMax_rad_s * r) / (nS - 1);
     const zero = solve === solveOperatingPoint ? feasible(solve, m, lim, w, 0) : null;
@@ -141,7 +144,7 @@ export function buildReferenceTable(
       const Tq = Math.abs(u) === 1 ? T * (1 - 1e-9) : T;
       let ok: boolean;
       if (Tq === 0 && zero !== null) { ok = true; pt[0] = zero.id; pt[1] = zero.iq; }
-      else if (rowDirect && Tq !== 0) ok = directPoint(m, lim, direct, w, Tq, pt);
+      else if (rowDirect && Tq !== 0) ok = directPoint(m, lim, direct, w, Tq, pt, mtpaOf);
       else {
         const op = feasible(solve, m, lim, w, Tq);
         ok = op !== null;
@@ -162,10 +165,11 @@ export function buildReferenceTable(
  * The standard solver's least-current point for a nonzero torque T at speed w on a constant-parameter
  * machine, without its search over the current: MTPA when its voltage fits (the solver's closed form),
  * else the least-current point of T on the voltage boundary; within Imax, or false (as the solver's
- * infeasible point).
+ * infeasible point). `mtpaOf`: the MTPA currents of the torques met so far in this table.
  */
-function directPoint(m: MachineModel, lim: DriveLimits, e: EllipseTorquePoint, w: number, T: number, out: Float64Array): boolean {
-  const mt = mtpaCurrentForTorque(m, T);
+function directPoint(m: MachineModel, lim: DriveLimits, e: EllipseTorquePoint, w: number, T: number, out: Float64Array, mtpaOf: Map<number, { id: number; iq: number }>): boolean {
+  let mt = mtpaOf.get(T);
+  if (mt === undefined) mtpaOf.set(T, (mt = mtpaCurrentForTorque(m, T)));
   const pm = point(m, w, mt.id, mt.iq, 'mtpa');
   if (pm.voltage <= lim.Vmax) {
     out[0] = pm.id;

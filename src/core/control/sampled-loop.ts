@@ -59,12 +59,6 @@ export function zohStateSpace(A: number[][], B: number[], T: number): { Phi: num
   return { Phi: E.slice(0, n).map((r) => r.slice(0, n)), Gamma: E.slice(0, n).map((r) => r[n]!) };
 }
 
-/** z^k for z = e^{j theta}, k integer, into out */
-const cis = (x: number, out: Float64Array): void => {
-  out[0] = Math.cos(x);
-  out[1] = Math.sin(x);
-};
-
 /** Open loop of one current axis: (Kp + Ki T/(z-1)) z^-d b/(z - a). */
 export function sampledCurrentOpenLoop(Kp: number, Ki: number, R: number, L: number, T: number, delaySamples: number): SampledResponse {
   const { a, b } = zohFirstOrder(R, L, T);
@@ -166,20 +160,20 @@ export function sampledSpeedOpenLoop(sp: SampledSpeedLoopSpec): SampledResponse 
     Aw = Af.map((row) => Aw[0]!.map((_, j) => row.reduce((s, v, l) => s + v * Aw[l]![j]!, 0)));
   }
   const KiTw = sp.speedKi * sp.T * sp.divider;
-  // complex solve (zI - Aw) x = Bw, output x[1] (the speed); preallocated workspace
-  const Mr = new Float64Array(n * n);
-  const Mi = new Float64Array(n * n);
-  const vr = new Float64Array(n);
-  const vi = new Float64Array(n);
+  // complex solve (zI - Aw) x = Bw, output x[1] (the speed); preallocated workspace, Aw and Bw as flat copies
+  const AwF = Float64Array.from(Aw.flat());
+  const BwF = Float64Array.from(Bw);
+  const Mr = new Float64Array(n * n), Mi = new Float64Array(n * n);
+  const vr = new Float64Array(n), vi = new Float64Array(n);
   const z = new Float64Array(2);
   return (theta, out) => {
-    cis(theta, z);
+    z[0] = Math.cos(theta); z[1] = Math.sin(theta); // z = e^{j theta}
     for (let i = 0; i < n; i++) {
       for (let j = 0; j < n; j++) {
-        Mr[i * n + j] = (i === j ? z[0]! : 0) - Aw[i]![j]!;
+        Mr[i * n + j] = (i === j ? z[0]! : 0) - AwF[i * n + j]!;
         Mi[i * n + j] = i === j ? z[1]! : 0;
       }
-      vr[i] = Bw[i]!;
+      vr[i] = BwF[i]!;
       vi[i] = 0;
     }
     // Gaussian elimination with partial pivoting
@@ -267,20 +261,24 @@ export class UnwrappedResponse {
   readonly theta: Float64Array;
   readonly mag: Float64Array;
   readonly phase: Float64Array;
+  /** the response's real and imaginary parts at the grid points (the margins read them instead of evaluating again) */
+  readonly re: Float64Array;
+  readonly im: Float64Array;
   private readonly o = new Float64Array(2);
   constructor(readonly resp: SampledResponse, thetaLo: number, anchorPhase: number, n = SAMPLED_GRID_POINTS) {
-    this.theta = new Float64Array(n);
-    this.mag = new Float64Array(n);
-    this.phase = new Float64Array(n);
+    const theta = (this.theta = new Float64Array(n)), mag = (this.mag = new Float64Array(n)), phase = (this.phase = new Float64Array(n));
+    const re = (this.re = new Float64Array(n)), im = (this.im = new Float64Array(n)), o = this.o;
     const r = Math.log(Math.PI / thetaLo);
     let prev = anchorPhase;
     for (let k = 0; k < n; k++) {
       const th = k === n - 1 ? Math.PI : thetaLo * Math.exp((r * k) / (n - 1));
-      resp(th, this.o);
-      this.theta[k] = th;
-      this.mag[k] = Math.hypot(this.o[0]!, this.o[1]!);
-      const ph = near(Math.atan2(this.o[1]!, this.o[0]!), prev);
-      this.phase[k] = ph;
+      resp(th, o);
+      const x = o[0]!, y = o[1]!;
+      theta[k] = th;
+      re[k] = x; im[k] = y;
+      mag[k] = Math.hypot(x, y);
+      const ph = near(Math.atan2(y, x), prev);
+      phase[k] = ph;
       prev = ph;
     }
   }
@@ -289,12 +287,12 @@ export class UnwrappedResponse {
     this.resp(theta, this.o);
     return [Math.hypot(this.o[0]!, this.o[1]!), near(Math.atan2(this.o[1]!, this.o[0]!), ref)];
   }
-  /** first grid interval where g goes from >= 0 to < 0, refined by bisection; g(theta, k) with k the interval start */
-  firstDown(g: (theta: number, k: number) => number): number | null {
+  /** first grid interval where g(theta, k) (k the interval start) goes from >= 0 to < 0, refined by bisection; at grid point k > 0 g is grid[k] - shift (the stored values) */
+  firstDown(g: (theta: number, k: number) => number, grid: Float64Array, shift = 0): number | null {
     const n = this.theta.length;
     let ga = g(this.theta[0]!, 0);
     for (let k = 1; k < n; k++) {
-      const gb = g(this.theta[k]!, k - 1);
+      const gb = grid[k]! - shift;
       if (ga >= 0 && gb < 0) {
         let lo = this.theta[k - 1]!;
         let hi = this.theta[k]!;
@@ -326,21 +324,22 @@ function foldDeg(x: number): number {
 export function sampledMargins(u: UnwrappedResponse, T: number): SampledMargins {
   const toHz = (th: number): number => th / (2 * Math.PI * T);
   const o = new Float64Array(2);
-  const thc = u.firstDown((th, k) => Math.log(u.at(th, u.phase[k]!)[0]));
-  let th180 = u.firstDown((th, k) => u.at(th, u.phase[k]!)[1] + Math.PI);
-  const last = u.theta.length - 1;
+  const closedOf = (re: number, im: number): number => Math.hypot(re, im) / Math.hypot(1 + re, im);
+  // the scanned functions at the grid points, from the stored response: log gain, phase + pi, closed-loop gain
+  const n = u.theta.length, logMag = new Float64Array(n), ph180 = new Float64Array(n), cl = new Float64Array(n);
+  for (let k = 0; k < n; k++) { logMag[k] = Math.log(u.mag[k]!); ph180[k] = u.phase[k]! + Math.PI; cl[k] = closedOf(u.re[k]!, u.im[k]!); }
+  const thc = u.firstDown((th, k) => Math.log(u.at(th, u.phase[k]!)[0]), logMag);
+  let th180 = u.firstDown((th, k) => u.at(th, u.phase[k]!)[1] + Math.PI, ph180);
+  const last = n - 1;
   // a loop whose phase reaches -180° exactly at Nyquist (no delay): the gain margin is read there
   if (th180 === null && Math.abs(u.phase[last]! + Math.PI) < 1e-9) th180 = Math.PI;
-  const closed = (th: number): number => {
-    u.resp(th, o);
-    return Math.hypot(o[0]!, o[1]!) / Math.hypot(1 + o[0]!, o[1]!);
-  };
-  const thb = u.firstDown((th) => closed(th) - Math.SQRT1_2);
+  const closed = (th: number): number => { u.resp(th, o); return closedOf(o[0]!, o[1]!); };
+  const thb = u.firstDown((th) => closed(th) - Math.SQRT1_2, cl, Math.SQRT1_2);
   // closed-loop peak: grid maximum refined by golden-section search between its neighbours
   let kMax = 0;
   let cMax = -Infinity;
-  for (let k = 0; k < u.theta.length; k++) {
-    const c = closed(u.theta[k]!);
+  for (let k = 0; k < n; k++) {
+    const c = cl[k]!;
     if (c > cMax) { cMax = c; kMax = k; }
   }
   let lo = u.theta[Math.max(0, kMax - 1)]!;

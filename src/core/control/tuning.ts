@@ -234,6 +234,15 @@ export function bandwidthSpeedGains(J: number, omega_s: number): { Kp: number; K
   return { Kp, Ki: (Kp * omega_s) / 4 };
 }
 
+/**
+ * Makes o[key] a value computed by `compute` when first read (then kept as a plain value; its place
+ * among the keys unchanged): the same number whenever it is read, the work only if it is.
+ */
+function onFirstRead<T extends object, K extends keyof T>(o: T, key: K, compute: () => T[K]): void {
+  const keep = (value: T[K]): T[K] => (Object.defineProperty(o, key, { value, enumerable: true, writable: true, configurable: true }), value);
+  Object.defineProperty(o, key, { enumerable: true, configurable: true, get: () => keep(compute()), set: keep });
+}
+
 /** A frequency for a message: whole hertz from 100 Hz up, else 3 significant digits (never 1.06e+4). */
 const hz = (f: number): string => (Math.abs(f) >= 100 ? f.toFixed(0) : f.toPrecision(3));
 
@@ -270,7 +279,7 @@ export function tuneLoops(inp: TuningInput): TuningReport {
     open(wLo, anchor);
     const u = new UnwrappedResponse(sampled, wLo * T, anchor[1]!);
     const { peaking_dB, ...margins } = sampledMargins(u, T);
-    return {
+    const r: LoopReport = {
       Kp: g.Kp,
       Ki: g.Ki,
       samplePeriod_s: T,
@@ -278,9 +287,13 @@ export function tuneLoops(inp: TuningInput): TuningReport {
       peaking_dB,
       gainAtNyquist_dB: 20 * Math.log10(u.mag[u.mag.length - 1]!),
       design_Hz: design,
-      continuous: loopMargins(open, wLo, wHi),
-      bode: sampledBode(u, T, fLo, BODE_POINTS),
+      continuous: null!,
+      bode: null!,
     };
+    // read only by the tuning view and command, not by a simulation's set-up: computed when first read
+    onFirstRead(r, 'continuous', () => loopMargins(open, wLo, wHi));
+    onFirstRead(r, 'bode', () => sampledBode(u, T, fLo, BODE_POINTS));
+    return r;
   };
   const olD = currentOpenLoop(gd.Kp, gd.Ki, m.Rs, m.Ld, Td);
   const olQ = currentOpenLoop(gq.Kp, gq.Ki, m.Rs, m.Lq, Td);

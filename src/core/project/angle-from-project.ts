@@ -8,11 +8,12 @@ import { InputError } from '../base/errors';
 import type { AngleSpec } from '../control/angle-spec';
 import { angleSchema } from './angle-schema';
 import { problemsOf } from './schema-problems';
+import { PARSE_OPTIONS } from './schema';
 
 export function angleFromProject(control: { angle?: AngleSpec | undefined } | undefined, motorPolePairs: number): AngleSpec {
   const a = control?.angle;
   if (a === undefined) return { source: 'ideal' };
-  const r = angleSchema.safeParse(a); // a section changed after parsing (overrides) is checked as the file is
+  const r = angleSchema.safeParse(a, PARSE_OPTIONS); // a section changed after parsing (overrides) is checked as the file is
   if (!r.success) {
     const issues = r.error.issues.map((iss) => ({ ...iss, path: ['control', 'angle', ...iss.path] }));
     const first = problemsOf(issues, { control: { angle: a } })[0]!;
