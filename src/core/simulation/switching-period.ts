@@ -73,6 +73,8 @@ export class SwitchingPeriod {
   idcSqInt = 0;
   /** time accumulated since the reset, s */
   span = 0;
+  /** the probe accumulates (false: a period nobody reads, its probe skipped; `resetProbe` turns it on) */
+  probing = true;
   /** segments integrated in all (for statistics) */
   segments = 0;
   /** full-resolution traces at every segment end within the window (null: none kept) */
@@ -117,6 +119,7 @@ export class SwitchingPeriod {
   }
 
   resetProbe(): void {
+    this.probing = true;
     this.nb = 0;
     const l = this.legVs, c = this.cmdVs;
     l[0] = 0; l[1] = 0; l[2] = 0;
@@ -143,13 +146,13 @@ export class SwitchingPeriod {
       this.tOpen = t0;
       this.currents(y);
       this.tv[0] = t0;
-      if (this.nb === 0) this.sample();
+      if (this.nb === 0 && this.probing) this.sample();
       this.slew = this.slewBound(y);
     }
     const edgeT = this.edgeT, pendT = this.pendT;
     for (let x = 0; x < 3; x++) {
       const dx = d[x]!;
-      this.cmdVs[x] += dx * this.Vdc * Th;
+      if (this.probing) this.cmdVs[x] += dx * this.Vdc * Th;
       // the comparator at the half's start: at the valley on only for d = 1, at the peak on for any d > 0
       const start = rising ? dx >= 1 : dx > 0;
       if ((start ? 1 : 0) !== this.cmd[x]) { this.tv[0] = t0; this.command(y, x, start ? 1 : 0); }
@@ -232,10 +235,16 @@ export class SwitchingPeriod {
     const ta = this.tOpen, tb = this.tv[0]!;
     const iph = this.iph;
     const on = this.on;
-    const Vdc = this.Vdc, drop = this.drop, i0 = this.i0;
-    const ua = on[0]! * Vdc - drop * sgn(iph[0]!, i0);
-    const ub = on[1]! * Vdc - drop * sgn(iph[1]!, i0);
-    const uc = on[2]! * Vdc - drop * sgn(iph[2]!, i0);
+    const Vdc = this.Vdc, drop = this.drop;
+    let ua = on[0]! * Vdc, ub = on[1]! * Vdc, uc = on[2]! * Vdc;
+    if (drop !== 0) {
+      // the device drop against the current's sign, linear across |i| <= i0 (written out: no call)
+      const i0 = this.i0, ia = iph[0]!, ib = iph[1]!, ic = iph[2]!;
+      ua -= drop * (ia > i0 ? 1 : ia < -i0 ? -1 : ia / i0);
+      ub -= drop * (ib > i0 ? 1 : ib < -i0 ? -1 : ib / i0);
+      uc -= drop * (ic > i0 ? 1 : ic < -i0 ? -1 : ic / i0);
+    }
+    const probing = this.probing;
     const dc0 = on[0]! * iph[0]! + on[1]! * iph[1]! + on[2]! * iph[2]!;
     // the phase voltages in alpha-beta (legsToAlphaBeta, written out)
     const input = this.plant.input;
@@ -246,14 +255,16 @@ export class SwitchingPeriod {
     this.segments++;
     this.currents(y);
     const dc1 = on[0]! * iph[0]! + on[1]! * iph[1]! + on[2]! * iph[2]!;
-    const h = tb - ta;
-    this.legVs[0] += ua * h;
-    this.legVs[1] += ub * h;
-    this.legVs[2] += uc * h;
-    this.idcInt += 0.5 * (dc0 + dc1) * h;
-    this.idcSqInt += ((dc0 * dc0 + dc0 * dc1 + dc1 * dc1) * h) / 3;
-    this.span += h;
-    this.sample();
+    if (probing) {
+      const h = tb - ta;
+      this.legVs[0] += ua * h;
+      this.legVs[1] += ub * h;
+      this.legVs[2] += uc * h;
+      this.idcInt += 0.5 * (dc0 + dc1) * h;
+      this.idcSqInt += ((dc0 * dc0 + dc0 * dc1 + dc1 * dc1) * h) / 3;
+      this.span += h;
+      this.sample();
+    }
     const win = this.window;
     if (win !== null && tb >= win.from && tb <= win.to) {
       const j = win.slot();
@@ -351,9 +362,4 @@ export class SwitchingPeriod {
     iph[1] = -0.5 * ial + SQRT3_2 * ibe;
     iph[2] = -0.5 * ial - SQRT3_2 * ibe;
   }
-}
-
-/** sgn(i), linear across |i| <= i0 */
-function sgn(i: number, i0: number): number {
-  return i > i0 ? 1 : i < -i0 ? -1 : i / i0;
 }

@@ -68,7 +68,8 @@ export class SwitchingStepper extends Stepper {
   private startPeriod(cap: SwitchingCapture, th0: number, t0: number): void {
     if (Number.isNaN(cap.thetaRun)) cap.thetaRun = th0;
     this.open = t0 >= cap.recordFrom;
-    if (!this.open) return;
+    // a period before the ring's span is never read: its probe is skipped
+    if (!this.open) { this.bridge.probing = false; return; }
     this.thStart = cap.thetaRun;
     this.bridge.resetProbe();
   }
