@@ -145,10 +145,14 @@ export function runSimulation(setup: AnySetup, opts: RunOptions = {}): Simulatio
     }
     const ev = plant.evaluations - e0;
     hist[ev < 1024 ? ev : 1024]!++;
-    // wrap the angle (the next period restarts the integrator anyway)
-    let th = y[THETA]! % TWO_PI;
-    if (th < 0) th += TWO_PI;
-    y[THETA] = th;
+    // wrap the angle (the next period restarts the integrator anyway); within one turn of the
+    // range, th - 2 pi is exact (Sterbenz) and equals th % 2 pi: no floating-point remainder call
+    let th = y[THETA]!;
+    if (!(th >= 0 && th < TWO_PI)) {
+      th = th >= TWO_PI && th < 2 * TWO_PI ? th - TWO_PI : th % TWO_PI;
+      if (th < 0) th += TWO_PI;
+      y[THETA] = th;
+    }
     if (yi !== y) plant.currentState(y, yi);
     const gone = divergence(bounds, k, yi, rec.last);
     if (gone !== null) { stop = { kind: 'divergence', t: t1, message: gone }; break; }

@@ -97,11 +97,15 @@ export class SwitchingPeriod {
   private readonly w = new Float64Array(STATE_SIZE);
   /** times handed between the methods below through a typed array (no boxed arguments): tv[0] the time of the step at hand */
   private readonly tv = new Float64Array(1);
+  /** the half carrier period of `halfAt`: [hs[0], hs[1]] */
+  private readonly hs = new Float64Array(2);
   /** the next load breakpoint, and the breakpoint ending the piece the plant's load was last set for */
   private nextBreak = -Infinity;
   private loadKey = NaN;
   /** a half carrier period, s (for slewBound) */
   private readonly Th: number;
+  /** the phase voltages (alpha, beta) of each switching state without the device drop: abv[2 s], abv[2 s + 1], s = a + 2 b + 4 c */
+  private readonly abv = new Float64Array(16);
 
   /**
    * `inner` integrates the segments; an Rk4Stepper is driven one step per segment directly (its
@@ -116,6 +120,12 @@ export class SwitchingPeriod {
     this.drop = spec.deviceDrop_V;
     this.i0 = spec.zeroCurrent_A > 0 ? spec.zeroCurrent_A : 1e-12;
     this.yc = new Float64Array(8);
+    const V = this.Vdc;
+    for (let st = 0; st < 8; st++) {
+      const ua = (st & 1) * V, ub = ((st >> 1) & 1) * V, uc = ((st >> 2) & 1) * V;
+      this.abv[2 * st] = (2 * ua - ub - uc) / 3;
+      this.abv[2 * st + 1] = (ub - uc) * INV_SQRT3;
+    }
   }
 
   resetProbe(): void {
@@ -137,6 +147,16 @@ export class SwitchingPeriod {
    * around the carrier's peak is then one segment, not two.
    */
   half(y: Float64Array, t0: number, t1: number, d: Float64Array, rising: boolean, close = true): void {
+    // the times cross the (not inlined) call below through a typed array: no boxed arguments
+    const hs = this.hs;
+    hs[0] = t0;
+    hs[1] = t1;
+    this.halfAt(y, d, rising, close);
+  }
+
+  /** `half` over [hs[0], hs[1]]. */
+  private halfAt(y: Float64Array, d: Float64Array, rising: boolean, close: boolean): void {
+    const t0 = this.hs[0]!, t1 = this.hs[1]!;
     const Th = t1 - t0;
     const plant = this.plant;
     if (Number.isNaN(this.tOpen)) {
@@ -158,19 +178,24 @@ export class SwitchingPeriod {
       if ((start ? 1 : 0) !== this.cmd[x]) { this.tv[0] = t0; this.command(y, x, start ? 1 : 0); }
       edgeT[x] = dx > 0 && dx < 1 ? (rising ? t0 + (1 - dx) * Th : t0 + dx * Th) : Infinity;
     }
+    const s = rising ? 1 : 0;
     for (let guard = 0; guard < 12; guard++) {
-      let tn = Infinity;
-      for (let x = 0; x < 3; x++) {
-        if (edgeT[x]! < tn) tn = edgeT[x]!;
-        if (pendT[x]! < tn) tn = pendT[x]!;
-      }
+      // the next instant: the earliest commanded or delayed edge (each read once; an edge taken at
+      // tn changes only its own leg's entries)
+      const e0 = edgeT[0]!, e1 = edgeT[1]!, e2 = edgeT[2]!, p0 = pendT[0]!, p1 = pendT[1]!, p2 = pendT[2]!;
+      let tn = e0 < e1 ? e0 : e1;
+      if (e2 < tn) tn = e2;
+      if (p0 < tn) tn = p0;
+      if (p1 < tn) tn = p1;
+      if (p2 < tn) tn = p2;
       if (!(tn < t1)) break;
-      for (let x = 0; x < 3; x++) {
-        if (pendT[x]! <= tn) { this.tv[0] = tn; this.advance(y); this.on[x] = this.pendS[x]!; pendT[x] = Infinity; }
-      }
-      for (let x = 0; x < 3; x++) {
-        if (edgeT[x]! <= tn) { this.tv[0] = tn; this.command(y, x, rising ? 1 : 0); edgeT[x] = Infinity; }
-      }
+      this.tv[0] = tn;
+      if (p0 <= tn) this.delayed(y, 0);
+      if (p1 <= tn) this.delayed(y, 1);
+      if (p2 <= tn) this.delayed(y, 2);
+      if (e0 <= tn) { this.command(y, 0, s); edgeT[0] = Infinity; }
+      if (e1 <= tn) { this.command(y, 1, s); edgeT[1] = Infinity; }
+      if (e2 <= tn) { this.command(y, 2, s); edgeT[2] = Infinity; }
     }
     if (close) {
       this.tv[0] = t1;
@@ -201,6 +226,13 @@ export class SwitchingPeriod {
     const now = s === 1 ? i < -this.i0 : i > this.i0;
     if (now) { this.advance(y); this.on[x] = s; }
     else { pendT[x] = t + this.td; this.pendS[x] = s; }
+  }
+
+  /** Leg x's delayed edge, due at tv[0]: the open segment integrated to it, the leg set. */
+  private delayed(y: Float64Array, x: number): void {
+    this.advance(y);
+    this.on[x] = this.pendS[x]!;
+    this.pendT[x] = Infinity;
   }
 
   /** Integrate the open segment up to t (the legs unchanged since its start). */
@@ -236,25 +268,31 @@ export class SwitchingPeriod {
     const iph = this.iph;
     const on = this.on;
     const Vdc = this.Vdc, drop = this.drop;
-    let ua = on[0]! * Vdc, ub = on[1]! * Vdc, uc = on[2]! * Vdc;
+    const s0 = on[0]!, s1 = on[1]!, s2 = on[2]!;
+    let ua = s0 * Vdc, ub = s1 * Vdc, uc = s2 * Vdc;
+    const input = this.plant.input;
     if (drop !== 0) {
       // the device drop against the current's sign, linear across |i| <= i0 (written out: no call)
       const i0 = this.i0, ia = iph[0]!, ib = iph[1]!, ic = iph[2]!;
       ua -= drop * (ia > i0 ? 1 : ia < -i0 ? -1 : ia / i0);
       ub -= drop * (ib > i0 ? 1 : ib < -i0 ? -1 : ib / i0);
       uc -= drop * (ic > i0 ? 1 : ic < -i0 ? -1 : ic / i0);
+      // the phase voltages in alpha-beta (legsToAlphaBeta, written out)
+      input[0] = (2 * ua - ub - uc) / 3;
+      input[1] = (ub - uc) * INV_SQRT3;
+    } else {
+      // without the drop the same arithmetic per switching state, done once (see `abv`)
+      const k = 2 * (s0 + 2 * s1 + 4 * s2);
+      input[0] = this.abv[k]!;
+      input[1] = this.abv[k + 1]!;
     }
     const probing = this.probing;
-    const dc0 = on[0]! * iph[0]! + on[1]! * iph[1]! + on[2]! * iph[2]!;
-    // the phase voltages in alpha-beta (legsToAlphaBeta, written out)
-    const input = this.plant.input;
-    input[0] = (2 * ua - ub - uc) / 3;
-    input[1] = (ub - uc) * INV_SQRT3;
+    const dc0 = s0 * iph[0]! + s1 * iph[1]! + s2 * iph[2]!;
     if (this.rk4) this.rk4Segment(y);
     else this.inner.period(y, ta, tb);
     this.segments++;
     this.currents(y);
-    const dc1 = on[0]! * iph[0]! + on[1]! * iph[1]! + on[2]! * iph[2]!;
+    const dc1 = s0 * iph[0]! + s1 * iph[1]! + s2 * iph[2]!;
     if (probing) {
       const h = tb - ta;
       this.legVs[0] += ua * h;
@@ -344,7 +382,11 @@ export class SwitchingPeriod {
     }
     const dth = y[3]! - plant.th0;
     let c: number, s: number;
-    if (dth > -0.5 && dth < 0.5) {
+    if (dth === 0) {
+      // at the origin itself the series give exactly its cos and sin
+      c = plant.c0;
+      s = plant.s0;
+    } else if (dth > -0.5 && dth < 0.5) {
       const sd = sinSmall(dth), cd = cosSmall(dth);
       c = plant.c0 * cd - plant.s0 * sd;
       s = plant.s0 * cd + plant.c0 * sd;
