@@ -97,6 +97,8 @@ export class SwitchingPeriod {
   private readonly w = new Float64Array(STATE_SIZE);
   /** times handed between the methods below through a typed array (no boxed arguments): tv[0] the time of the step at hand */
   private readonly tv = new Float64Array(1);
+  /** the piece of `rk4Step`: [rk[0], rk[1]] */
+  private readonly rk = new Float64Array(2);
   /** the half carrier period of `halfAt`: [hs[0], hs[1]] */
   private readonly hs = new Float64Array(2);
   /** the next load breakpoint, and the breakpoint ending the piece the plant's load was last set for */
@@ -319,27 +321,44 @@ export class SwitchingPeriod {
    * time goes to the plant through its typed array (no boxed argument).
    */
   private rk4Segment(y: Float64Array): void {
-    const plant = this.plant;
-    const load = plant.params.load;
     const tb = this.tv[0]!;
     const ex = this.exact;
-    let a = this.tOpen;
+    const a0 = this.tOpen;
+    const nb = this.nextBreak;
+    if (a0 < nb && tb <= nb && nb === this.loadKey) {
+      // the common case, one piece with the plant's load already set (what the loop below does then)
+      if (tb - a0 > 0) this.piece(y, ex, a0, tb);
+      return;
+    }
+    const plant = this.plant;
+    const load = plant.params.load;
+    let a = a0;
     for (let piece = 0; piece < 8; piece++) {
       if (a >= this.nextBreak) this.nextBreak = nextLoadBreak(load, a);
       const b = this.nextBreak < tb ? this.nextBreak : tb;
       if (this.nextBreak !== this.loadKey) { plant.setLoadSegment(a, b); this.loadKey = this.nextBreak; }
-      if (b - a > 0) {
-        let done = false;
-        if (ex !== null) { ex.span[0] = a; ex.span[1] = b; done = ex.step(y); }
-        if (!done) this.rk4Step(y, a, b);
-      }
+      if (b - a > 0) this.piece(y, ex, a, b);
       if (b >= tb) break;
       a = b;
     }
   }
 
-  /** One classical RK4 step over [a, b] (the plant's load set for the piece). */
-  private rk4Step(y: Float64Array, a: number, b: number): void {
+  /** One piece [a, b]: the exact segment, else one RK4 step (its times through a typed array: no boxed arguments). */
+  private piece(y: Float64Array, ex: ExactSegment | null, a: number, b: number): void {
+    if (ex !== null) {
+      ex.span[0] = a;
+      ex.span[1] = b;
+      if (ex.step(y)) return;
+    }
+    const r = this.rk;
+    r[0] = a;
+    r[1] = b;
+    this.rk4Step(y);
+  }
+
+  /** One classical RK4 step over [rk[0], rk[1]] (the plant's load set for the piece). */
+  private rk4Step(y: Float64Array): void {
+    const a = this.rk[0]!, b = this.rk[1]!;
     const plant = this.plant;
     const time = plant.time;
     const { k1, k2, k3, k4, w } = this;
