@@ -26,14 +26,32 @@ const SQRT3_2 = Math.sqrt(3) / 2;
  * (v_alpha, v_beta) (amplitude-invariant, peak phase V) on the bus `Vdc`, V. Allocation-free.
  */
 export function legDuties(valpha: number, vbeta: number, Vdc: number, modulation: PwmModulation, d: Float64Array): void {
-  const va = valpha;
-  const vb = -0.5 * valpha + SQRT3_2 * vbeta;
-  const vc = -0.5 * valpha - SQRT3_2 * vbeta;
-  phaseDuties(va, vb, vc, Vdc, modulation, d);
+  d[0] = valpha;
+  d[1] = -0.5 * valpha + SQRT3_2 * vbeta;
+  d[2] = -0.5 * valpha - SQRT3_2 * vbeta;
+  dutiesOfPhases(Vdc, modulation, d);
+}
+
+/** `legDuties(vab[0], vab[1], ...)`: the reference read from an array (no double crosses a call). */
+export function legDutiesOf(vab: Float64Array, Vdc: number, modulation: PwmModulation, d: Float64Array): void {
+  const valpha = vab[0]!, vbeta = vab[1]!;
+  d[0] = valpha;
+  d[1] = -0.5 * valpha + SQRT3_2 * vbeta;
+  d[2] = -0.5 * valpha - SQRT3_2 * vbeta;
+  dutiesOfPhases(Vdc, modulation, d);
 }
 
 /** The duties of the three legs into `d` for the phase references va, vb, vc (V, phase to neutral). */
 export function phaseDuties(va: number, vb: number, vc: number, Vdc: number, modulation: PwmModulation, d: Float64Array): void {
+  d[0] = va;
+  d[1] = vb;
+  d[2] = vc;
+  dutiesOfPhases(Vdc, modulation, d);
+}
+
+/** The duties of the three legs, in place, from the phase references d[0..2]. */
+function dutiesOfPhases(Vdc: number, modulation: PwmModulation, d: Float64Array): void {
+  const va = d[0]!, vb = d[1]!, vc = d[2]!;
   let v0 = 0;
   if (modulation !== 'sinusoidal') {
     const mx = va > vb ? (va > vc ? va : vc) : vb > vc ? vb : vc;

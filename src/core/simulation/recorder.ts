@@ -10,7 +10,7 @@ import type { Plant } from './plant';
 import type { CascadeController } from '../control/controller';
 import { voltageLimitAt } from '../control/voltage-limit';
 import type { MachineModel } from '../machine/machine-model';
-import { cosSinNear } from '../mathematics/rotation';
+import { cosSmall, sinSmall } from '../mathematics/rotation';
 import { inverseClarkeAmplitudeInvariantInto } from '../mathematics/transforms';
 import { StreamingMinMax } from './decimate';
 import { StepResponseTracker, LoadStepTracker, SteadyStateTracker, finiteOrNull } from './metrics';
@@ -22,7 +22,8 @@ import { TRACE_NAMES, type LoadStepResult, type TraceName, type Traces } from '.
 const SETTLED_FLOOR_RPM = 1;
 // module-local constants and references (a CommonJS build turns an imported binding into a getter)
 const W_TO_RPM: number = RAD_S_TO_RPM;
-const cosSinNearL = cosSinNear;
+const sinSmallL = sinSmall;
+const cosSmallL = cosSmall;
 const clarkeInvL = inverseClarkeAmplitudeInvariantInto;
 
 /** Row index of a channel (the time axis is kept apart). */
@@ -68,7 +69,6 @@ export class TraceRecorder {
   /** the decimator's row buffer: each sample's channels are written into it directly */
   private readonly buf: Float64Array;
   private readonly msmp = new Float64Array(3);
-  private readonly rot = new Float64Array(2);
   private readonly stepTrk: StepResponseTracker | null;
   /** one tracker per load event; their windows [t, next event) do not overlap, so only the current one is fed */
   private readonly loadTrks: LoadStepTracker[];
@@ -140,13 +140,23 @@ export class TraceRecorder {
     const wRpm = w * W_TO_RPM;
     // applied voltage in dq at the mid-period angle
     const dm = 0.5 * p * w * this.Ts;
-    const r = this.rot;
-    cosSinNearL(c, s, dm, th + dm, r);
-    const cm = r[0]!, sm = r[1]!;
+    // cosSinNear(c, s, dm, th + dm) written out (four doubles would be boxed into the call where
+    // the engine does not inline it; the series return theirs in registers)
+    let cm: number, sm: number;
+    if (dm > -0.5 && dm < 0.5) {
+      const sd = sinSmallL(dm), cd = cosSmallL(dm);
+      cm = c * cd - s * sd;
+      sm = s * cd + c * sd;
+    } else {
+      cm = Math.cos(th + dm);
+      sm = Math.sin(th + dm);
+    }
     const vab = plant.input;
     const va = vab[0]!, vb = vab[1]!;
     const vlen = Math.sqrt(va * va + vb * vb);
-    const o = this.dec.slot(t);
+    const dec = this.dec;
+    dec.time[0] = t;
+    const o = dec.slotAt();
     if (o >= 0) {
       const row = this.buf;
       row[o + SPEED_REF] = wr;

@@ -169,7 +169,7 @@ export class SwitchingPeriod {
       this.currents(y);
       this.tv[0] = t0;
       if (this.nb === 0 && this.probing) this.sample();
-      this.slew = this.slewBound(y);
+      this.slewBound(y);
     }
     const edgeT = this.edgeT, pendT = this.pendT;
     for (let x = 0; x < 3; x++) {
@@ -251,17 +251,18 @@ export class SwitchingPeriod {
    * machine: |di_dq/dt| <= (|v| + Rs I + w (Lmax I + psiM)) / Lmin plus the frame's w I, with |v|
    * at most 2(Vdc + 2 drop)/3 and I twice the present |i| plus Vdc Th/Lmin; twice that for margin.
    * Infinity for any other machine (the sign is then always taken from the integrated state).
+   * Into `slew` (no double returned).
    */
-  private slewBound(y: Float64Array): number {
+  private slewBound(y: Float64Array): void {
     const m = this.plant.model.linear;
-    if (m === null) return Infinity;
+    if (m === null) { this.slew = Infinity; return; }
     const iph = this.iph;
     const I = Math.sqrt((2 / 3) * (iph[0]! * iph[0]! + iph[1]! * iph[1]! + iph[2]! * iph[2]!));
     const Lmin = m.Ld < m.Lq ? m.Ld : m.Lq, Lmax = m.Ld > m.Lq ? m.Ld : m.Lq;
     const w = Math.abs(this.plant.model.polePairs * y[2]!);
     const V = (2 / 3) * (this.Vdc + 2 * this.drop);
     const Ib = 2 * I + (this.Vdc * this.Th) / Lmin;
-    return 2 * ((V + this.plant.model.Rs * Ib + w * (Lmax * Ib + m.psiM)) / Lmin + w * Ib);
+    this.slew = 2 * ((V + this.plant.model.Rs * Ib + w * (Lmax * Ib + m.psiM)) / Lmin + w * Ib);
   }
 
   /** Integrate [ta, tb] with the present leg states; accumulate the probe. */

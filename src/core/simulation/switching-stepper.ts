@@ -10,7 +10,7 @@
  * the run's SwitchingResult (switching-summary.ts). Allocation-free during the run.
  */
 import type { PwmSpec } from '../drive/pwm-spec';
-import { legDuties } from '../drive/pwm-modulator';
+import { legDutiesOf } from '../drive/pwm-modulator';
 import type { Plant } from './plant';
 import { Rk4Stepper, Stepper, makeStepper } from './stepper';
 import { SwitchingPeriod } from './switching-period';
@@ -44,7 +44,7 @@ export class SwitchingStepper extends Stepper {
     const d = this.duty;
     const cap = this.capture;
     const th0 = y[3]!;
-    legDuties(va, vb, this.spec.Vdc, this.spec.modulation, d);
+    legDutiesOf(u, this.spec.Vdc, this.spec.modulation, d);
     let whole = true; // a carrier period ends with this control period
     if (this.spec.updatesPerPeriod === 1) {
       const tm = 0.5 * (t0 + t1);
