@@ -17,6 +17,8 @@ export class LinearNode {
   /** the smoothed Coulomb friction at the node's speed and its derivative by the speed (see `frictionAt`) */
   private fr = NaN;
   private dfr = NaN;
+  /** the speed fr and dfr were taken at (NaN: none) */
+  private fw = NaN;
   private readonly pp: number;
   private readonly Rs: number;
   private readonly Ld: number;
@@ -55,7 +57,7 @@ export class LinearNode {
    * cross the call through a typed array: no boxing when the call is not inlined).
    */
   at(a: Float64Array): void {
-    this.frictionAt(a);
+    if (a[2]! !== this.fw) this.frictionAt(a);
     this.atWithFriction(a);
   }
 
@@ -75,6 +77,7 @@ export class LinearNode {
     }
     this.fr = fr;
     this.dfr = dfr;
+    this.fw = a[2]!;
   }
 
   /** `at` with the friction of `frictionAt` at the same speed a[2]. */

@@ -196,9 +196,13 @@ export class ExactSegment {
     const g1 = this.ng, gp1 = this.ngp, P1 = this.np, Pp1 = this.npp;
     y[0] = id1;
     y[1] = iq1;
-    y[2] = w0 + 0.5 * h * (g0 + g1) + (hh / 12) * (gp0 - gp1);
+    const w1 = w0 + 0.5 * h * (g0 + g1) + (hh / 12) * (gp0 - gp1);
+    y[2] = w1;
     y[3] = th0 + p * (w0 * h + hh * (0.35 * g0 + 0.15 * g1) + hh * h * (gp0 / 20 - gp1 / 30));
     y[4] = y[4]! + 0.5 * h * (P0 + P1) + (hh / 12) * (Pp0 - Pp1);
+    // the next segment's start node is at this speed: its friction now (the node keeps it for that speed)
+    ag[2] = w1;
+    this.n.frictionAt(ag);
     return true;
   }
 
