@@ -64,10 +64,26 @@ export abstract class Stepper {
   /** the breakpoint that ends the piece the plant's load segment was last set for */
   private segBreak = NaN;
 
+  /**
+   * the period [span[0], span[1]] `integrate` works on, and the piece [span[2], span[3]] `piece`
+   * works on: the times cross the (virtual, not inlined) calls in an array, never boxed
+   */
+  protected readonly span = new Float64Array(4);
+
   constructor(protected readonly plant: Plant, protected readonly Ts: number) {}
 
   /** Integrate y from t0 to t1 in place (throws StepCollapse, or the library's error on a non-finite error estimate). */
   period(y: Float64Array, t0: number, t1: number): void {
+    const span = this.span;
+    span[0] = t0;
+    span[1] = t1;
+    this.integrate(y);
+  }
+
+  /** `period` over [span[0], span[1]]: split at the load's breakpoints, each piece to `piece`. */
+  protected integrate(y: Float64Array): void {
+    const span = this.span;
+    const t0 = span[0]!, t1 = span[1]!;
     const plant = this.plant;
     const load = plant.params.load;
     const Ts = this.Ts;
@@ -78,15 +94,17 @@ export abstract class Stepper {
       const tEnd = tb < t1 - 1e-9 * Ts ? tb : t1;
       // the load is linear between two breakpoints: set it once per piece (the piece ending at tb)
       if (tb !== this.segBreak) { plant.setLoadSegment(tStart, tEnd); this.segBreak = tb; }
-      this.piece(y, tStart, tEnd);
+      span[2] = tStart;
+      span[3] = tEnd;
+      this.piece(y);
       if (tEnd >= t1) break;
       tStart = tEnd;
       tb = nextLoadBreak(load, tEnd);
     }
   }
 
-  /** Integrate y over [tStart, tEnd], a piece with no load breakpoint inside. */
-  protected abstract piece(y: Float64Array, tStart: number, tEnd: number): void;
+  /** Integrate y over [span[2], span[3]], a piece with no load breakpoint inside. */
+  protected abstract piece(y: Float64Array): void;
 }
 
 /**
@@ -127,7 +145,8 @@ export class CashKarpStepper extends Stepper {
   }
 
   /** The integrator works on the array it was created with: `y` must be that array. */
-  protected piece(_y: Float64Array, tStart: number, tEnd: number): void {
+  protected piece(): void {
+    const tStart = this.span[2]!, tEnd = this.span[3]!;
     const integ = this.integ;
     const Ts = this.Ts;
     integ.t = tStart;
@@ -155,7 +174,8 @@ export class Rk4Stepper extends Stepper {
     super(plant, Ts);
   }
 
-  protected piece(y: Float64Array, tStart: number, tEnd: number): void {
+  protected piece(y: Float64Array): void {
+    const tStart = this.span[2]!, tEnd = this.span[3]!;
     this.run(y, tStart, tEnd, Math.max(1, Math.round((this.substeps * (tEnd - tStart)) / this.Ts)));
   }
 

@@ -38,7 +38,8 @@ export class SwitchingStepper extends Stepper {
     if (capture !== null) this.bridge.window = capture.window;
   }
 
-  override period(y: Float64Array, t0: number, t1: number): void {
+  protected override integrate(y: Float64Array): void {
+    const t0 = this.span[0]!, t1 = this.span[1]!;
     const u = this.plant.input;
     const va = u[0]!, vb = u[1]!;
     const d = this.duty;
