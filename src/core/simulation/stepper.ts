@@ -179,6 +179,28 @@ export class Rk4Stepper extends Stepper {
     this.run(y, tStart, tEnd, Math.max(1, Math.round((this.substeps * (tEnd - tStart)) / this.Ts)));
   }
 
+  /**
+   * One classical RK4 step over [a, b] in place (the plant's load set for it), its last stage at b
+   * itself: the switching model's piece where its closed form declines (switching-period.ts).
+   */
+  single(y: Float64Array, a: number, b: number): void {
+    const plant = this.plant;
+    const time = plant.time;
+    const { k1, k2, k3, k4, w } = this;
+    const h = b - a;
+    time[0] = a;
+    plant.derivAt(k1, y);
+    for (let i = 0; i < STATE_SIZE; i++) w[i] = y[i]! + 0.5 * h * k1[i]!;
+    time[0] = a + 0.5 * h;
+    plant.derivAt(k2, w);
+    for (let i = 0; i < STATE_SIZE; i++) w[i] = y[i]! + 0.5 * h * k2[i]!;
+    plant.derivAt(k3, w);
+    for (let i = 0; i < STATE_SIZE; i++) w[i] = y[i]! + h * k3[i]!;
+    time[0] = b;
+    plant.derivAt(k4, w);
+    for (let i = 0; i < STATE_SIZE; i++) y[i] = y[i]! + (h / 6) * (k1[i]! + 2 * k2[i]! + 2 * k3[i]! + k4[i]!);
+  }
+
   /** n classical RK4 steps over [t0, t1] in place. */
   run(y: Float64Array, t0: number, t1: number, n: number): void {
     const h = (t1 - t0) / n;

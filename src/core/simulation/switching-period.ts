@@ -35,7 +35,7 @@
  * every array.
  */
 import type { PwmSpec } from '../drive/pwm-spec';
-import { STATE_SIZE, type Plant } from './plant';
+import type { Plant } from './plant';
 import { Rk4Stepper, type Stepper } from './stepper';
 import { nextLoadBreak } from './load-schedule';
 import type { ExactSegment } from './switching-segment';
@@ -90,15 +90,8 @@ export class SwitchingPeriod {
   private slew = Infinity;
   /** one RK4 step per segment (constant-parameter machines; see switching-stepper.ts), else the inner stepper */
   private readonly rk4: boolean;
-  private readonly k1 = new Float64Array(STATE_SIZE);
-  private readonly k2 = new Float64Array(STATE_SIZE);
-  private readonly k3 = new Float64Array(STATE_SIZE);
-  private readonly k4 = new Float64Array(STATE_SIZE);
-  private readonly w = new Float64Array(STATE_SIZE);
   /** times handed between the methods below through a typed array (no boxed arguments): tv[0] the time of the step at hand */
   private readonly tv = new Float64Array(1);
-  /** the piece of `rk4Step`: [rk[0], rk[1]] */
-  private readonly rk = new Float64Array(2);
   /** the half carrier period of `halfAt`: [hs[0], hs[1]] */
   private readonly hs = new Float64Array(2);
   /** the next load breakpoint, and the breakpoint ending the piece the plant's load was last set for */
@@ -344,37 +337,14 @@ export class SwitchingPeriod {
     }
   }
 
-  /** One piece [a, b]: the exact segment, else one RK4 step (its times through a typed array: no boxed arguments). */
+  /** One piece [a, b]: the exact segment, else one RK4 step. */
   private piece(y: Float64Array, ex: ExactSegment | null, a: number, b: number): void {
     if (ex !== null) {
       ex.span[0] = a;
       ex.span[1] = b;
       if (ex.step(y)) return;
     }
-    const r = this.rk;
-    r[0] = a;
-    r[1] = b;
-    this.rk4Step(y);
-  }
-
-  /** One classical RK4 step over [rk[0], rk[1]] (the plant's load set for the piece). */
-  private rk4Step(y: Float64Array): void {
-    const a = this.rk[0]!, b = this.rk[1]!;
-    const plant = this.plant;
-    const time = plant.time;
-    const { k1, k2, k3, k4, w } = this;
-    const h = b - a;
-    time[0] = a;
-    plant.derivAt(k1, y);
-    for (let i = 0; i < STATE_SIZE; i++) w[i] = y[i]! + 0.5 * h * k1[i]!;
-    time[0] = a + 0.5 * h;
-    plant.derivAt(k2, w);
-    for (let i = 0; i < STATE_SIZE; i++) w[i] = y[i]! + 0.5 * h * k2[i]!;
-    plant.derivAt(k3, w);
-    for (let i = 0; i < STATE_SIZE; i++) w[i] = y[i]! + h * k3[i]!;
-    time[0] = b;
-    plant.derivAt(k4, w);
-    for (let i = 0; i < STATE_SIZE; i++) y[i] = y[i]! + (h / 6) * (k1[i]! + 2 * k2[i]! + 2 * k3[i]! + k4[i]!);
+    (this.inner as Rk4Stepper).single(y, a, b); // rare: the closed form declined
   }
 
   private sample(): void {
