@@ -87,6 +87,15 @@ export abstract class Stepper {
     const plant = this.plant;
     const load = plant.params.load;
     const Ts = this.Ts;
+    const nb = this.nextBreak;
+    if (t0 < nb && !(nb < t1 - 1e-9 * Ts) && nb === this.segBreak) {
+      // the common case, one piece with the plant's load already set (what the loop below does
+      // then; its times carried round the loop across the call were boxed)
+      span[2] = t0;
+      span[3] = t1;
+      this.piece(y);
+      return;
+    }
     if (t0 >= this.nextBreak) this.nextBreak = nextLoadBreak(load, t0);
     let tb = this.nextBreak;
     let tStart = t0;
