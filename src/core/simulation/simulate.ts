@@ -125,10 +125,10 @@ export function runSimulation(setup: AnySetup, opts: RunOptions = {}): Simulatio
     // inverse Park and the record
     plant.setAngleOrigin(th0);
     smp[0] = t0; smp[1] = yi[I_D]!; smp[2] = yi[I_Q]!; smp[3] = yi[OMEGA]!; smp[4] = th0; smp[5] = plant.c0; smp[6] = plant.s0;
-    if (sensing) { sensing.sample(yi, plant.c0, plant.s0, vab, smp); sensing.steer(ctrl); }
+    if (sensing) { sensing.sampleFrom(yi, vab, smp); sensing.steer(ctrl); }
     ctrl.stepSampled(vab);
     rec.record(k, yi);
-    if (sensing) sensing.record(t0);
+    if (sensing) { sensing.recordTime[0] = t0; sensing.recordAt(); }
     x[S_T] = t0; x[S_ID] = yi[I_D]!; x[S_IQ] = yi[I_Q]!; x[S_W] = yi[OMEGA]!;
     x[S_ID_REF] = ctrl.idRef; x[S_IQ_REF] = ctrl.iqRef; x[S_TORQUE_REF] = ctrl.torqueRef; x[S_SPEED_REF] = ctrl.speedRefOut;
     log.observe(x, ctrl.currentLimited, ctrl.voltageSaturated);
