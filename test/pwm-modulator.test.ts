@@ -1,6 +1,6 @@
 // The carrier modulator (src/core/drive/pwm-modulator.ts): duties by modulation, clipping, edges.
 import { describe, expect, it } from 'vitest';
-import { fallingEdge, legDuties, legsToAlphaBeta, phaseDuties, risingEdge } from '../src/core/drive/pwm-modulator';
+import { fallingEdge, legDuties, legsToAlphaBeta, phaseDuties, risingEdge, switchingStateVoltages } from '../src/core/drive/pwm-modulator';
 import { hexagonRadius } from '../src/core/drive/inverter';
 
 const Vdc = 400;
@@ -71,5 +71,25 @@ describe('carrier modulator', () => {
     expect(risingEdge(0.3, 1e-4)).toBeCloseTo(0.35e-4, 15);
     expect(fallingEdge(0.3, 1e-4)).toBeCloseTo(0.65e-4, 15);
     expect(fallingEdge(0.3, 1e-4) - risingEdge(0.3, 1e-4)).toBeCloseTo(0.3e-4, 15);
+  });
+  it('the eight switching states: two zero vectors and six active ones of length 2 Vdc/3, 60 deg apart, state 1 (a on) along alpha (Holmes and Lipo 2003, Pulse Width Modulation for Power Converters, ch. 6)', () => {
+    const v = new Float64Array(16);
+    switchingStateVoltages(Vdc, v);
+    expect(Math.hypot(v[0]!, v[1]!)).toBe(0);
+    expect(Math.hypot(v[14]!, v[15]!)).toBeCloseTo(0, 12);
+    expect(v[2]!).toBeCloseTo((2 * Vdc) / 3, 12);
+    expect(v[3]!).toBeCloseTo(0, 12);
+    // the hexagon's corners in order a, ab, b, bc, c, ca: states 1, 3, 2, 6, 4, 5
+    const order = [1, 3, 2, 6, 4, 5];
+    order.forEach((st, k) => {
+      expect(Math.hypot(v[2 * st]!, v[2 * st + 1]!)).toBeCloseTo((2 * Vdc) / 3, 9);
+      expect(Math.atan2(v[2 * st + 1]!, v[2 * st]!)).toBeCloseTo(Math.atan2(Math.sin((k * Math.PI) / 3), Math.cos((k * Math.PI) / 3)), 12);
+    });
+    // each state as legsToAlphaBeta reads the leg voltages
+    for (let st = 0; st < 8; st++) {
+      legsToAlphaBeta((st & 1) * Vdc, ((st >> 1) & 1) * Vdc, ((st >> 2) & 1) * Vdc, ab);
+      expect(v[2 * st]!).toBeCloseTo(ab[0]!, 12);
+      expect(v[2 * st + 1]!).toBeCloseTo(ab[1]!, 12);
+    }
   });
 });

@@ -20,20 +20,39 @@
 import type { PwmModulation } from './pwm-spec';
 
 const SQRT3_2 = Math.sqrt(3) / 2;
+const INV_SQRT3 = 1 / Math.sqrt(3);
 
 /**
  * The duties of the three legs into `d` (length >= 3) for the stationary-frame reference
  * (v_alpha, v_beta) (amplitude-invariant, peak phase V) on the bus `Vdc`, V. Allocation-free.
  */
 export function legDuties(valpha: number, vbeta: number, Vdc: number, modulation: PwmModulation, d: Float64Array): void {
-  const va = valpha;
-  const vb = -0.5 * valpha + SQRT3_2 * vbeta;
-  const vc = -0.5 * valpha - SQRT3_2 * vbeta;
-  phaseDuties(va, vb, vc, Vdc, modulation, d);
+  d[0] = valpha;
+  d[1] = -0.5 * valpha + SQRT3_2 * vbeta;
+  d[2] = -0.5 * valpha - SQRT3_2 * vbeta;
+  dutiesOfPhases(Vdc, modulation, d);
+}
+
+/** `legDuties(vab[0], vab[1], ...)`: the reference read from an array (no double crosses a call). */
+export function legDutiesOf(vab: Float64Array, Vdc: number, modulation: PwmModulation, d: Float64Array): void {
+  const valpha = vab[0]!, vbeta = vab[1]!;
+  d[0] = valpha;
+  d[1] = -0.5 * valpha + SQRT3_2 * vbeta;
+  d[2] = -0.5 * valpha - SQRT3_2 * vbeta;
+  dutiesOfPhases(Vdc, modulation, d);
 }
 
 /** The duties of the three legs into `d` for the phase references va, vb, vc (V, phase to neutral). */
 export function phaseDuties(va: number, vb: number, vc: number, Vdc: number, modulation: PwmModulation, d: Float64Array): void {
+  d[0] = va;
+  d[1] = vb;
+  d[2] = vc;
+  dutiesOfPhases(Vdc, modulation, d);
+}
+
+/** The duties of the three legs, in place, from the phase references d[0..2]. */
+function dutiesOfPhases(Vdc: number, modulation: PwmModulation, d: Float64Array): void {
+  const va = d[0]!, vb = d[1]!, vc = d[2]!;
   let v0 = 0;
   if (modulation !== 'sinusoidal') {
     const mx = va > vb ? (va > vc ? va : vc) : vb > vc ? vb : vc;
@@ -91,4 +110,16 @@ export function fallingEdge(d: number, Tc: number): number {
 export function legsToAlphaBeta(ua: number, ub: number, uc: number, out: Float64Array): void {
   out[0] = (2 * ua - ub - uc) / 3;
   out[1] = (ub - uc) / (2 * SQRT3_2);
+}
+
+/**
+ * The stator-frame voltages (alpha, beta) of the bridge's 8 switching states without the device drop,
+ * into out[2 s], out[2 s + 1] for the state s = a + 2 b + 4 c (a leg's bit set: on the plus rail).
+ */
+export function switchingStateVoltages(Vdc: number, out: Float64Array): void {
+  for (let st = 0; st < 8; st++) {
+    const ua = (st & 1) * Vdc, ub = ((st >> 1) & 1) * Vdc, uc = ((st >> 2) & 1) * Vdc;
+    out[2 * st] = (2 * ua - ub - uc) / 3;
+    out[2 * st + 1] = (ub - uc) * INV_SQRT3;
+  }
 }

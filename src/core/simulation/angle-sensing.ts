@@ -40,6 +40,8 @@ export class AngleSensing {
   private w2 = Number.NaN;
   private readonly ripple: SteadyStateTracker;
   private tLast = 0;
+  /** the ripple tracker's sample (time, error squared, 0), handed over unboxed */
+  private readonly rs = new Float64Array(3);
   private readonly dec: StreamingMinMax;
   /** the estimator when it is sensorless (its start-up and its lock), else null */
   readonly sensorless: SensorlessEstimator | null;
@@ -84,6 +86,14 @@ export class AngleSensing {
    * smp[1..6] = (id, iq, omega_m, theta, cos theta, sin theta) as the controller sees them.
    */
   sample(yi: Float64Array, c: number, s: number, vab: Float64Array, smp: Float64Array): void {
+    smp[5] = c;
+    smp[6] = s;
+    this.sampleFrom(yi, vab, smp);
+  }
+
+  /** `sample` with the true angle's cos and sin in smp[5], smp[6] (no double crosses the call). */
+  sampleFrom(yi: Float64Array, vab: Float64Array, smp: Float64Array): void {
+    const c = smp[5]!, s = smp[6]!;
     const id = yi[I_D]!, iq = yi[I_Q]!, th = yi[THETA]!;
     const ia = id * c - iq * s;
     const ib = id * s + iq * c;
@@ -109,15 +119,29 @@ export class AngleSensing {
 
   /** the sample at time t into the traces (the recorder's instants) */
   record(t: number): void {
-    if (Number.isFinite(this.w2)) this.ripple.push(t, this.w2, 0);
+    const dec = this.dec;
+    dec.time[0] = t;
+    this.recordAt();
+  }
+
+  /** `record` at the decimator's time[0] (a loop hands its time over unboxed: `recordTime`). */
+  recordAt(): void {
+    const rs = this.rs;
+    rs[0] = this.dec.time[0]!;
+    if (Number.isFinite(this.w2)) { rs[1] = this.w2; this.ripple.take(rs); }
     this.w2 = Number.NaN;
-    this.tLast = t;
-    const o = this.dec.slot(t);
+    this.tLast = rs[0]!;
+    const o = this.dec.slotAt();
     if (o < 0) return;
     const buf = this.dec.buf;
     buf[o] = this.error;
     buf[o + 1] = (this.estimator.omegaE / this.polePairs) * RAD_S_TO_RPM;
     this.dec.commit();
+  }
+
+  /** the array `recordAt` takes its time from */
+  get recordTime(): Float64Array {
+    return this.dec.time;
   }
 
   metrics(): { angleErrorRms_rad: number | null; angleErrorPeak_rad: number | null; speedEstimateRipple_rpm: number | null } {

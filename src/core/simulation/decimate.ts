@@ -118,8 +118,18 @@ export class StreamingMinMax {
     }
   }
 
+  /** the time of the sample `slotAt` opens (a caller that is not inlined hands it over unboxed) */
+  readonly time = new Float64Array(1);
+
   /** Offset in `buf` of the row of a sample at time t, or -1 when the sample is beyond nExpected (ignored). Follow with `commit()`. */
   slot(t: number): number {
+    this.time[0] = t;
+    return this.slotAt();
+  }
+
+  /** `slot(time[0])`. */
+  slotAt(): number {
+    const t = this.time[0]!;
     if (this.raw) {
       const j = this.count;
       if (j >= this.cap) return -1;

@@ -110,10 +110,10 @@ export class ExactStepper extends Stepper {
     throw new Error('ExactStepper integrates whole periods');
   }
 
-  override period(y: Float64Array, t0: number, t1: number): void {
-    if (!this.exact(y, t0, t1)) {
+  protected override integrate(y: Float64Array): void {
+    if (!this.exact(y)) {
       this.fallbacks++;
-      this.fallback.period(y, t0, t1);
+      this.fallback.period(y, this.span[0]!, this.span[1]!);
     }
   }
 
@@ -217,7 +217,8 @@ export class ExactStepper extends Stepper {
   }
 
   /** The period by the closed form; false (y untouched) when it does not apply. */
-  private exact(y: Float64Array, t0: number, t1: number): boolean {
+  private exact(y: Float64Array): boolean {
+    const t0 = this.span[0]!, t1 = this.span[1]!;
     const plant = this.plant;
     const ag = this.arg;
     if (t0 >= this.nextBreakX) {

@@ -14,6 +14,11 @@ export class LinearNode {
   LB = NaN;
   /** results: di/dt (A/s), omega' and omega'' , power (W) and its derivative (double fields start as non-integers) */
   nd = NaN; nq = NaN; ng = NaN; ngp = NaN; np = NaN; npp = NaN;
+  /** the smoothed Coulomb friction at the node's speed and its derivative by the speed (see `frictionAt`) */
+  private fr = NaN;
+  private dfr = NaN;
+  /** the speed fr and dfr were taken at (NaN: none) */
+  private fw = NaN;
   private readonly pp: number;
   private readonly Rs: number;
   private readonly Ld: number;
@@ -52,6 +57,31 @@ export class LinearNode {
    * cross the call through a typed array: no boxing when the call is not inlined).
    */
   at(a: Float64Array): void {
+    if (a[2]! !== this.fw) this.frictionAt(a);
+    this.atWithFriction(a);
+  }
+
+  /**
+   * The friction at the speed a[2] (a square root and a division: a caller that knows a node's speed
+   * early calls this first, so that their latency overlaps its other arithmetic, then
+   * `atWithFriction` on the node with that speed).
+   */
+  frictionAt(a: Float64Array): void {
+    let fr = 0, dfr = 0;
+    if (this.free && this.Tc > 0) {
+      const w = a[2]!;
+      const x = w * this.iWidth;
+      const r = 1 / Math.sqrt(1 + x * x);
+      fr = this.Tc * x * r;
+      dfr = this.Tc * r * r * r * this.iWidth;
+    }
+    this.fr = fr;
+    this.dfr = dfr;
+    this.fw = a[2]!;
+  }
+
+  /** `at` with the friction of `frictionAt` at the same speed a[2]. */
+  atWithFriction(a: Float64Array): void {
     const id = a[0]!, iq = a[1]!, w = a[2]!, vd = a[3]!, vq = a[4]!, t = a[5]!;
     this.plant.evaluations++;
     const p = this.pp, Ld = this.Ld, Lq = this.Lq, psiM = this.psiM, Rs = this.Rs;
@@ -67,13 +97,7 @@ export class LinearNode {
     const Te = k * (psiM * iq + (Ld - Lq) * id * iq);
     const dTe = k * (psiM * diq + (Ld - Lq) * (did * iq + id * diq));
     const aw = w < 0 ? -w : w;
-    let fr = 0, dfr = 0;
-    if (this.Tc > 0) {
-      const x = w * this.iWidth;
-      const r = 1 / Math.sqrt(1 + x * x);
-      fr = this.Tc * x * r;
-      dfr = this.Tc * r * r * r * this.iWidth;
-    }
+    const fr = this.fr, dfr = this.dfr;
     const g = (Te - this.B * w - fr - (this.LA + this.LB * t) - this.k2 * w * aw) * this.invJ;
     this.ng = g;
     this.ngp = (dTe - (this.B + dfr + 2 * this.k2 * aw) * g - this.LB) * this.invJ;

@@ -149,12 +149,22 @@ export class StepResponseTracker {
     this.valid = Math.abs(this.delta) > 1e-9 * Math.max(scale, 1e-300) && Number.isFinite(this.delta);
   }
 
-  /** `push(s[0], s[2])` (the sample [t, reference, y] as the simulator hands it: no boxed arguments) */
-  take(s: Float64Array): void {
-    this.push(s[0]!, s[2]!);
-  }
+  /** the sample of `push` as `take` reads it */
+  private readonly one = new Float64Array(3);
 
   push(t: number, y: number): void {
+    const o = this.one;
+    o[0] = t;
+    o[2] = y;
+    this.take(o);
+  }
+
+  /**
+   * The sample [t, reference, y] as the simulator hands it (s[1] unused here): the doubles cross the
+   * call in the array, never boxed, whether the engine inlines the call or not.
+   */
+  take(s: Float64Array): void {
+    const t = s[0]!, y = s[2]!;
     if (!(t >= this.tStep) || !(t < this.tEnd)) return;
     const z = (y - this.y0) / this.delta;
     if (this.lastWasOut) this.tAfterOut = t;
@@ -206,12 +216,20 @@ export class LoadStepTracker {
     this.next = new Float64Array(this.val.length);
   }
 
-  /** `push(s[0], s[1], s[2])` */
-  take(s: Float64Array): void {
-    this.push(s[0]!, s[1]!, s[2]!);
-  }
+  /** the sample of `push` as `take` reads it */
+  private readonly one = new Float64Array(3);
 
   push(t: number, yRef: number, y: number): void {
+    const o = this.one;
+    o[0] = t;
+    o[1] = yRef;
+    o[2] = y;
+    this.take(o);
+  }
+
+  /** The sample [t, reference, y] (doubles in the array: never boxed). */
+  take(s: Float64Array): void {
+    const t = s[0]!, yRef = s[1]!, y = s[2]!;
     if (!(t >= this.tStep) || !(t < this.tEnd)) return;
     const e = Math.abs(yRef - y);
     if (this.n === 0) {
@@ -274,9 +292,13 @@ export class SteadyStateTracker {
     this.d = new Float64Array(c);
   }
 
-  /** `push(s[0], s[1], s[2])` */
+  /** The sample [t, reference, y] (doubles in the array: never boxed). */
   take(s: Float64Array): void {
-    this.push(s[0]!, s[1]!, s[2]!);
+    const c = this.t.length;
+    const j = this.n % c;
+    this.t[j] = s[0]!;
+    this.d[j] = s[1]! - s[2]!;
+    this.n++;
   }
 
   push(t: number, ref: number, y: number): void {

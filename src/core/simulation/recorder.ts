@@ -10,7 +10,7 @@ import type { Plant } from './plant';
 import type { CascadeController } from '../control/controller';
 import { voltageLimitAt } from '../control/voltage-limit';
 import type { MachineModel } from '../machine/machine-model';
-import { cosSinNear } from '../mathematics/rotation';
+import { cosSmall, sinSmall } from '../mathematics/rotation';
 import { inverseClarkeAmplitudeInvariantInto } from '../mathematics/transforms';
 import { StreamingMinMax } from './decimate';
 import { StepResponseTracker, LoadStepTracker, SteadyStateTracker, finiteOrNull } from './metrics';
@@ -22,7 +22,8 @@ import { TRACE_NAMES, type LoadStepResult, type TraceName, type Traces } from '.
 const SETTLED_FLOOR_RPM = 1;
 // module-local constants and references (a CommonJS build turns an imported binding into a getter)
 const W_TO_RPM: number = RAD_S_TO_RPM;
-const cosSinNearL = cosSinNear;
+const sinSmallL = sinSmall;
+const cosSmallL = cosSmall;
 const clarkeInvL = inverseClarkeAmplitudeInvariantInto;
 
 /** Row index of a channel (the time axis is kept apart). */
@@ -68,7 +69,6 @@ export class TraceRecorder {
   /** the decimator's row buffer: each sample's channels are written into it directly */
   private readonly buf: Float64Array;
   private readonly msmp = new Float64Array(3);
-  private readonly rot = new Float64Array(2);
   private readonly stepTrk: StepResponseTracker | null;
   /** one tracker per load event; their windows [t, next event) do not overlap, so only the current one is fed */
   private readonly loadTrks: LoadStepTracker[];
@@ -133,37 +133,10 @@ export class TraceRecorder {
     const ctrl = this.ctrl;
     const p = this.p;
     const id = y[I_D]!, iq = y[I_Q]!, w = y[OMEGA]!, th = y[THETA]!;
-    const c = plant.c0, s = plant.s0;
-    const ia = id * c - iq * s;
-    const ib = id * s + iq * c;
     const wr = ctrl.speedRefOut * W_TO_RPM;
     const wRpm = w * W_TO_RPM;
-    // applied voltage in dq at the mid-period angle
-    const dm = 0.5 * p * w * this.Ts;
-    const r = this.rot;
-    cosSinNearL(c, s, dm, th + dm, r);
-    const cm = r[0]!, sm = r[1]!;
-    const vab = plant.input;
-    const va = vab[0]!, vb = vab[1]!;
-    const vlen = Math.sqrt(va * va + vb * vb);
-    const o = this.dec.slot(t);
-    if (o >= 0) {
-      const row = this.buf;
-      row[o + SPEED_REF] = wr;
-      row[o + SPEED] = wRpm;
-      row[o + TORQUE] = this.linear ? 1.5 * p * (this.psiM * iq + this.dLdq * id * iq) : this.model.torque(id, iq);
-      row[o + LOAD] = this.locked ? 0 : this.loadTorque(t, w);
-      row[o + ID_REF] = ctrl.idRef;
-      row[o + IQ_REF] = ctrl.iqRef;
-      row[o + ID] = id;
-      row[o + IQ] = iq;
-      row[o + VD] = va * cm + vb * sm;
-      row[o + VQ] = -va * sm + vb * cm;
-      row[o + VNORM] = vlen / (this.circle ? this.vRadius : voltageLimitAt(this.setup.controller.voltage, Math.atan2(vb, va)));
-      clarkeInvL(ia, ib, 0, row, o + IA);
-      row[o + PDC] = 1.5 * (va * ia + vb * ib);
-      this.dec.commit();
-    }
+    // the trackers first: the engine weighs the calls of this method for inlining from its end, and
+    // theirs cross no double (the sample goes in an array), the row's below do
     const m = this.msmp;
     m[0] = t; m[1] = wr; m[2] = wRpm;
     if (this.stepTrk) this.stepTrk.take(m);
@@ -174,7 +147,43 @@ export class TraceRecorder {
     const last = this.last;
     last[0] = t; last[1] = wRpm; last[2] = id; last[3] = iq;
     this.count++;
+    const dec = this.dec;
+    dec.time[0] = t;
+    const o = dec.slotAt();
+    if (o < 0) return;
+    const c = plant.c0, s = plant.s0;
+    const ia = id * c - iq * s;
+    const ib = id * s + iq * c;
+    const vab = plant.input;
+    const va = vab[0]!, vb = vab[1]!;
+    const row = this.buf;
+    row[o + SPEED_REF] = wr;
+    row[o + SPEED] = wRpm;
+    row[o + TORQUE] = this.linear ? 1.5 * p * (this.psiM * iq + this.dLdq * id * iq) : this.model.torque(id, iq);
+    row[o + LOAD] = this.locked ? 0 : this.loadTorque(t, w);
+    row[o + ID_REF] = ctrl.idRef;
+    row[o + IQ_REF] = ctrl.iqRef;
+    row[o + ID] = id;
+    row[o + IQ] = iq;
+    row[o + VNORM] = Math.sqrt(va * va + vb * vb) / (this.circle ? this.vRadius : voltageLimitAt(this.setup.controller.voltage, Math.atan2(vb, va)));
+    clarkeInvL(ia, ib, 0, row, o + IA);
+    row[o + PDC] = 1.5 * (va * ia + vb * ib);
+    // applied voltage in dq at the mid-period angle: cosSinNear(c, s, dm, th + dm) written out
+    const dm = 0.5 * p * w * this.Ts;
+    let cm: number, sm: number;
+    if (dm > -0.5 && dm < 0.5) {
+      const sd = sinSmallL(dm), cd = cosSmallL(dm);
+      cm = c * cd - s * sd;
+      sm = s * cd + c * sd;
+    } else {
+      cm = Math.cos(th + dm);
+      sm = Math.sin(th + dm);
+    }
+    row[o + VD] = va * cm + vb * sm;
+    row[o + VQ] = -va * sm + vb * cm;
+    dec.commit();
   }
+
 
   /**
    * The plant's load torque at (t, w) (plant.loadTorque, the same arithmetic as loadLevel), its

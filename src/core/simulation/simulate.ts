@@ -125,10 +125,10 @@ export function runSimulation(setup: AnySetup, opts: RunOptions = {}): Simulatio
     // inverse Park and the record
     plant.setAngleOrigin(th0);
     smp[0] = t0; smp[1] = yi[I_D]!; smp[2] = yi[I_Q]!; smp[3] = yi[OMEGA]!; smp[4] = th0; smp[5] = plant.c0; smp[6] = plant.s0;
-    if (sensing) { sensing.sample(yi, plant.c0, plant.s0, vab, smp); sensing.steer(ctrl); }
+    if (sensing) { sensing.sampleFrom(yi, vab, smp); sensing.steer(ctrl); }
     ctrl.stepSampled(vab);
     rec.record(k, yi);
-    if (sensing) sensing.record(t0);
+    if (sensing) { sensing.recordTime[0] = t0; sensing.recordAt(); }
     x[S_T] = t0; x[S_ID] = yi[I_D]!; x[S_IQ] = yi[I_Q]!; x[S_W] = yi[OMEGA]!;
     x[S_ID_REF] = ctrl.idRef; x[S_IQ_REF] = ctrl.iqRef; x[S_TORQUE_REF] = ctrl.torqueRef; x[S_SPEED_REF] = ctrl.speedRefOut;
     log.observe(x, ctrl.currentLimited, ctrl.voltageSaturated);
@@ -145,10 +145,14 @@ export function runSimulation(setup: AnySetup, opts: RunOptions = {}): Simulatio
     }
     const ev = plant.evaluations - e0;
     hist[ev < 1024 ? ev : 1024]!++;
-    // wrap the angle (the next period restarts the integrator anyway)
-    let th = y[THETA]! % TWO_PI;
-    if (th < 0) th += TWO_PI;
-    y[THETA] = th;
+    // wrap the angle (the next period restarts the integrator anyway); within one turn of the
+    // range, th - 2 pi is exact (Sterbenz) and equals th % 2 pi: no floating-point remainder call
+    let th = y[THETA]!;
+    if (!(th >= 0 && th < TWO_PI)) {
+      th = th >= TWO_PI && th < 2 * TWO_PI ? th - TWO_PI : th % TWO_PI;
+      if (th < 0) th += TWO_PI;
+      y[THETA] = th;
+    }
     if (yi !== y) plant.currentState(y, yi);
     const gone = divergence(bounds, k, yi, rec.last);
     if (gone !== null) { stop = { kind: 'divergence', t: t1, message: gone }; break; }

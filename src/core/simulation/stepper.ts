@@ -64,13 +64,38 @@ export abstract class Stepper {
   /** the breakpoint that ends the piece the plant's load segment was last set for */
   private segBreak = NaN;
 
+  /**
+   * the period [span[0], span[1]] `integrate` works on, and the piece [span[2], span[3]] `piece`
+   * works on: the times cross the (virtual, not inlined) calls in an array, never boxed
+   */
+  protected readonly span = new Float64Array(4);
+
   constructor(protected readonly plant: Plant, protected readonly Ts: number) {}
 
   /** Integrate y from t0 to t1 in place (throws StepCollapse, or the library's error on a non-finite error estimate). */
   period(y: Float64Array, t0: number, t1: number): void {
+    const span = this.span;
+    span[0] = t0;
+    span[1] = t1;
+    this.integrate(y);
+  }
+
+  /** `period` over [span[0], span[1]]: split at the load's breakpoints, each piece to `piece`. */
+  protected integrate(y: Float64Array): void {
+    const span = this.span;
+    const t0 = span[0]!, t1 = span[1]!;
     const plant = this.plant;
     const load = plant.params.load;
     const Ts = this.Ts;
+    const nb = this.nextBreak;
+    if (t0 < nb && !(nb < t1 - 1e-9 * Ts) && nb === this.segBreak) {
+      // the common case, one piece with the plant's load already set (what the loop below does
+      // then; its times carried round the loop across the call were boxed)
+      span[2] = t0;
+      span[3] = t1;
+      this.piece(y);
+      return;
+    }
     if (t0 >= this.nextBreak) this.nextBreak = nextLoadBreak(load, t0);
     let tb = this.nextBreak;
     let tStart = t0;
@@ -78,15 +103,17 @@ export abstract class Stepper {
       const tEnd = tb < t1 - 1e-9 * Ts ? tb : t1;
       // the load is linear between two breakpoints: set it once per piece (the piece ending at tb)
       if (tb !== this.segBreak) { plant.setLoadSegment(tStart, tEnd); this.segBreak = tb; }
-      this.piece(y, tStart, tEnd);
+      span[2] = tStart;
+      span[3] = tEnd;
+      this.piece(y);
       if (tEnd >= t1) break;
       tStart = tEnd;
       tb = nextLoadBreak(load, tEnd);
     }
   }
 
-  /** Integrate y over [tStart, tEnd], a piece with no load breakpoint inside. */
-  protected abstract piece(y: Float64Array, tStart: number, tEnd: number): void;
+  /** Integrate y over [span[2], span[3]], a piece with no load breakpoint inside. */
+  protected abstract piece(y: Float64Array): void;
 }
 
 /**
@@ -127,7 +154,8 @@ export class CashKarpStepper extends Stepper {
   }
 
   /** The integrator works on the array it was created with: `y` must be that array. */
-  protected piece(_y: Float64Array, tStart: number, tEnd: number): void {
+  protected piece(): void {
+    const tStart = this.span[2]!, tEnd = this.span[3]!;
     const integ = this.integ;
     const Ts = this.Ts;
     integ.t = tStart;
@@ -155,8 +183,31 @@ export class Rk4Stepper extends Stepper {
     super(plant, Ts);
   }
 
-  protected piece(y: Float64Array, tStart: number, tEnd: number): void {
+  protected piece(y: Float64Array): void {
+    const tStart = this.span[2]!, tEnd = this.span[3]!;
     this.run(y, tStart, tEnd, Math.max(1, Math.round((this.substeps * (tEnd - tStart)) / this.Ts)));
+  }
+
+  /**
+   * One classical RK4 step over [a, b] in place (the plant's load set for it), its last stage at b
+   * itself: the switching model's piece where its closed form declines (switching-period.ts).
+   */
+  single(y: Float64Array, a: number, b: number): void {
+    const plant = this.plant;
+    const time = plant.time;
+    const { k1, k2, k3, k4, w } = this;
+    const h = b - a;
+    time[0] = a;
+    plant.derivAt(k1, y);
+    for (let i = 0; i < STATE_SIZE; i++) w[i] = y[i]! + 0.5 * h * k1[i]!;
+    time[0] = a + 0.5 * h;
+    plant.derivAt(k2, w);
+    for (let i = 0; i < STATE_SIZE; i++) w[i] = y[i]! + 0.5 * h * k2[i]!;
+    plant.derivAt(k3, w);
+    for (let i = 0; i < STATE_SIZE; i++) w[i] = y[i]! + h * k3[i]!;
+    time[0] = b;
+    plant.derivAt(k4, w);
+    for (let i = 0; i < STATE_SIZE; i++) y[i] = y[i]! + (h / 6) * (k1[i]! + 2 * k2[i]! + 2 * k3[i]! + k4[i]!);
   }
 
   /** n classical RK4 steps over [t0, t1] in place. */

@@ -10,43 +10,36 @@
  * leg on td later; in between the leg follows the diode that conducts, which the sign of the leg's
  * phase current at the commanded edge decides (the state integrated up to that edge, or, for a
  * constant-parameter machine, the current at the segment's start when it cannot reach zero by then):
- *   - turn-on command (leg to the plus rail): a current into the leg (i < -zeroCurrent) already
- *     flows in the upper diode, the leg rises at once; otherwise (i > 0 through the lower diode)
- *     it rises td later;
- *   - turn-off command: a current out of the leg (i > zeroCurrent) moves to the lower diode at
- *     once; otherwise it stays on the upper diode for td.
+ *   - turn-on command (to the plus rail): a current into the leg (i < -zeroCurrent) already flows in
+ *     the upper diode, the leg rises at once; otherwise (i > 0, lower diode) it rises td later;
+ *   - turn-off: a current out of the leg (i > zeroCurrent) moves to the lower diode at once;
+ *     otherwise it stays on the upper diode for td.
  * Near zero current (|i| <= zeroCurrent) the leg stays for td on the side it was on (the diode of
  * the device that turned off), so such a pulse is delayed by td, its width unchanged: no mean
  * voltage error at zero current. A pulse shorter than the dead time vanishes (its turn-off command
- * cancels a turn-on still waiting). The mean leg error is -sgn(i) Vdc td / Tc (Murai, Watanabe and
- * Iwasaki (1987), "Waveform distortion and correction circuit for PWM inverters with switching
+ * cancels a turn-on still waiting). The mean leg error is -sgn(i) Vdc td / Tc (Murai, Watanabe,
+ * Iwasaki 1987, "Waveform distortion and correction circuit for PWM inverters with switching
  * lag-times", IEEE Trans. Industry Applications IA-23(5)).
  *
- * Compensation (PwmSpec.compensation): each leg's duty is moved by compensatedDuty
- * (../drive/pwm-modulator.ts) for the sign of its phase current at the control period's start, linear
- * across the spec's band; the probe's commanded volt-seconds stay the modulator's duty, so the
- * recorded error is what remains after the compensation.
+ * Compensation (PwmSpec.compensation): each leg's duty moved by compensatedDuty (pwm-modulator.ts)
+ * for its current's sign at the period's start; the probe keeps the modulator's duty as commanded.
+ * Device drop: a leg sits at its rail minus deviceDrop sgn(i) (switch or diode conducting), the
+ * sign at each segment's start, linear across |i| <= zeroCurrent (common practice, no source).
  *
- * Device drop: a leg connected to a rail sits at that rail minus deviceDrop in the direction of its
- * current (the switch or the diode conducting), u = s Vdc - deviceDrop sgn(i), with the sign taken
- * at each segment's start and made linear across |i| <= zeroCurrent (common practice, no source).
- *
- * The segments are integrated by a Stepper (stepper.ts; Cash-Karp through the plant's derivative
- * for any machine, flux maps included), or, for a constant-parameter machine, by the exact segment
- * (switching-segment.ts) with one RK4 step where it declines. The probe accumulates, until `resetProbe`, the phase
- * currents at every segment boundary (the extremes of a piecewise-smooth ripple), the legs' actual
- * and commanded volt-seconds and the integrals of the DC-link current i_dc = sum s_x i_x and of its
- * square (each segment's current taken as linear between its ends). Allocation-free; the run owns
- * every array.
+ * Segments: a Stepper (stepper.ts; Cash-Karp, any machine) or, for a constant-parameter machine,
+ * the exact segment (switching-segment.ts), one RK4 step where it declines. The probe accumulates,
+ * until `resetProbe`, the phase currents at every segment boundary (the extremes of a piecewise-
+ * smooth ripple), the legs' actual and commanded volt-seconds and the integrals of the DC-link
+ * current i_dc = sum s_x i_x and of its square (linear within a segment). Allocation-free.
  */
 import type { PwmSpec } from '../drive/pwm-spec';
-import { STATE_SIZE, type Plant } from './plant';
+import type { Plant } from './plant';
 import { Rk4Stepper, type Stepper } from './stepper';
 import { nextLoadBreak } from './load-schedule';
 import type { ExactSegment } from './switching-segment';
 import type { WindowTrace } from './switching-capture';
 import { cosSmall, sinSmall } from '../mathematics/rotation';
-import { compensatedDuty } from '../drive/pwm-modulator';
+import { compensatedDuty, switchingStateVoltages } from '../drive/pwm-modulator';
 
 const SQRT3_2 = Math.sqrt(3) / 2;
 const INV_SQRT3 = 1 / Math.sqrt(3);
@@ -79,6 +72,8 @@ export class SwitchingPeriod {
   idcSqInt = 0;
   /** time accumulated since the reset, s */
   span = 0;
+  /** the probe accumulates (false: a period nobody reads, its probe skipped; `resetProbe` turns it on) */
+  probing = true;
   /** segments integrated in all (for statistics) */
   segments = 0;
   /** full-resolution traces at every segment end within the window (null: none kept) */
@@ -97,18 +92,17 @@ export class SwitchingPeriod {
   private slew = Infinity;
   /** one RK4 step per segment (constant-parameter machines; see switching-stepper.ts), else the inner stepper */
   private readonly rk4: boolean;
-  private readonly k1 = new Float64Array(STATE_SIZE);
-  private readonly k2 = new Float64Array(STATE_SIZE);
-  private readonly k3 = new Float64Array(STATE_SIZE);
-  private readonly k4 = new Float64Array(STATE_SIZE);
-  private readonly w = new Float64Array(STATE_SIZE);
   /** times handed between the methods below through a typed array (no boxed arguments): tv[0] the time of the step at hand */
   private readonly tv = new Float64Array(1);
+  /** the half carrier period of `halfAt`: [hs[0], hs[1]] */
+  private readonly hs = new Float64Array(2);
   /** the next load breakpoint, and the breakpoint ending the piece the plant's load was last set for */
   private nextBreak = -Infinity;
   private loadKey = NaN;
   /** a half carrier period, s (for slewBound) */
   private readonly Th: number;
+  /** the phase voltages of each switching state without the device drop (switchingStateVoltages) */
+  private readonly abv = new Float64Array(16);
 
   /**
    * `inner` integrates the segments; an Rk4Stepper is driven one step per segment directly (its
@@ -124,9 +118,11 @@ export class SwitchingPeriod {
     this.i0 = spec.zeroCurrent_A > 0 ? spec.zeroCurrent_A : 1e-12;
     this.yc = new Float64Array(8);
     this.compBand = spec.compensation ? Math.max(spec.compensation.band_A, this.i0) : 0;
+    switchingStateVoltages(this.Vdc, this.abv);
   }
 
   resetProbe(): void {
+    this.probing = true;
     this.nb = 0;
     const l = this.legVs, c = this.cmdVs;
     l[0] = 0; l[1] = 0; l[2] = 0;
@@ -144,6 +140,16 @@ export class SwitchingPeriod {
    * around the carrier's peak is then one segment, not two.
    */
   half(y: Float64Array, t0: number, t1: number, d: Float64Array, rising: boolean, close = true): void {
+    // the times cross the (not inlined) call below through a typed array: no boxed arguments
+    const hs = this.hs;
+    hs[0] = t0;
+    hs[1] = t1;
+    this.halfAt(y, d, rising, close);
+  }
+
+  /** `half` over [hs[0], hs[1]]. */
+  private halfAt(y: Float64Array, d: Float64Array, rising: boolean, close: boolean): void {
+    const t0 = this.hs[0]!, t1 = this.hs[1]!;
     const Th = t1 - t0;
     const plant = this.plant;
     if (Number.isNaN(this.tOpen)) {
@@ -153,34 +159,40 @@ export class SwitchingPeriod {
       this.tOpen = t0;
       this.currents(y);
       this.tv[0] = t0;
-      if (this.nb === 0) this.sample();
-      this.slew = this.slewBound(y);
-      if (this.compBand > 0) for (let x = 0; x < 3; x++) this.compSign[x] = sgn(this.iph[x]!, this.compBand);
+      if (this.nb === 0 && this.probing) this.sample();
+      this.slewBound(y);
+      const b = this.compBand, iph = this.iph; // the compensation's current signs, linear across its band
+      if (b > 0) for (let x = 0; x < 3; x++) this.compSign[x] = iph[x]! > b ? 1 : iph[x]! < -b ? -1 : iph[x]! / b;
     }
     const edgeT = this.edgeT, pendT = this.pendT;
     const comp = this.compBand > 0;
     for (let x = 0; x < 3; x++) {
       // the probe's command is the modulator's duty; the compensation is the bridge's own
       const dx = comp ? compensatedDuty(d[x]!, this.compSign[x]!, rising, this.td / Th, this.drop / this.Vdc) : d[x]!;
-      this.cmdVs[x] += d[x]! * this.Vdc * Th;
+      if (this.probing) this.cmdVs[x] += d[x]! * this.Vdc * Th;
       // the comparator at the half's start: at the valley on only for d = 1, at the peak on for any d > 0
       const start = rising ? dx >= 1 : dx > 0;
       if ((start ? 1 : 0) !== this.cmd[x]) { this.tv[0] = t0; this.command(y, x, start ? 1 : 0); }
       edgeT[x] = dx > 0 && dx < 1 ? (rising ? t0 + (1 - dx) * Th : t0 + dx * Th) : Infinity;
     }
+    const s = rising ? 1 : 0;
     for (let guard = 0; guard < 12; guard++) {
-      let tn = Infinity;
-      for (let x = 0; x < 3; x++) {
-        if (edgeT[x]! < tn) tn = edgeT[x]!;
-        if (pendT[x]! < tn) tn = pendT[x]!;
-      }
+      // the next instant: the earliest commanded or delayed edge (each read once; an edge taken at
+      // tn changes only its own leg's entries)
+      const e0 = edgeT[0]!, e1 = edgeT[1]!, e2 = edgeT[2]!, p0 = pendT[0]!, p1 = pendT[1]!, p2 = pendT[2]!;
+      let tn = e0 < e1 ? e0 : e1;
+      if (e2 < tn) tn = e2;
+      if (p0 < tn) tn = p0;
+      if (p1 < tn) tn = p1;
+      if (p2 < tn) tn = p2;
       if (!(tn < t1)) break;
-      for (let x = 0; x < 3; x++) {
-        if (pendT[x]! <= tn) { this.tv[0] = tn; this.advance(y); this.on[x] = this.pendS[x]!; pendT[x] = Infinity; }
-      }
-      for (let x = 0; x < 3; x++) {
-        if (edgeT[x]! <= tn) { this.tv[0] = tn; this.command(y, x, rising ? 1 : 0); edgeT[x] = Infinity; }
-      }
+      this.tv[0] = tn;
+      if (p0 <= tn) this.delayed(y, 0);
+      if (p1 <= tn) this.delayed(y, 1);
+      if (p2 <= tn) this.delayed(y, 2);
+      if (e0 <= tn) { this.command(y, 0, s); edgeT[0] = Infinity; }
+      if (e1 <= tn) { this.command(y, 1, s); edgeT[1] = Infinity; }
+      if (e2 <= tn) { this.command(y, 2, s); edgeT[2] = Infinity; }
     }
     if (close) {
       this.tv[0] = t1;
@@ -213,6 +225,13 @@ export class SwitchingPeriod {
     else { pendT[x] = t + this.td; this.pendS[x] = s; }
   }
 
+  /** Leg x's delayed edge, due at tv[0]: the open segment integrated to it, the leg set. */
+  private delayed(y: Float64Array, x: number): void {
+    this.advance(y);
+    this.on[x] = this.pendS[x]!;
+    this.pendT[x] = Infinity;
+  }
+
   /** Integrate the open segment up to t (the legs unchanged since its start). */
   private advance(y: Float64Array): void {
     const t = this.tv[0]!;
@@ -227,17 +246,18 @@ export class SwitchingPeriod {
    * machine: |di_dq/dt| <= (|v| + Rs I + w (Lmax I + psiM)) / Lmin plus the frame's w I, with |v|
    * at most 2(Vdc + 2 drop)/3 and I twice the present |i| plus Vdc Th/Lmin; twice that for margin.
    * Infinity for any other machine (the sign is then always taken from the integrated state).
+   * Into `slew` (no double returned).
    */
-  private slewBound(y: Float64Array): number {
+  private slewBound(y: Float64Array): void {
     const m = this.plant.model.linear;
-    if (m === null) return Infinity;
+    if (m === null) { this.slew = Infinity; return; }
     const iph = this.iph;
     const I = Math.sqrt((2 / 3) * (iph[0]! * iph[0]! + iph[1]! * iph[1]! + iph[2]! * iph[2]!));
     const Lmin = m.Ld < m.Lq ? m.Ld : m.Lq, Lmax = m.Ld > m.Lq ? m.Ld : m.Lq;
     const w = Math.abs(this.plant.model.polePairs * y[2]!);
     const V = (2 / 3) * (this.Vdc + 2 * this.drop);
     const Ib = 2 * I + (this.Vdc * this.Th) / Lmin;
-    return 2 * ((V + this.plant.model.Rs * Ib + w * (Lmax * Ib + m.psiM)) / Lmin + w * Ib);
+    this.slew = 2 * ((V + this.plant.model.Rs * Ib + w * (Lmax * Ib + m.psiM)) / Lmin + w * Ib);
   }
 
   /** Integrate [ta, tb] with the present leg states; accumulate the probe. */
@@ -245,28 +265,42 @@ export class SwitchingPeriod {
     const ta = this.tOpen, tb = this.tv[0]!;
     const iph = this.iph;
     const on = this.on;
-    const Vdc = this.Vdc, drop = this.drop, i0 = this.i0;
-    const ua = on[0]! * Vdc - drop * sgn(iph[0]!, i0);
-    const ub = on[1]! * Vdc - drop * sgn(iph[1]!, i0);
-    const uc = on[2]! * Vdc - drop * sgn(iph[2]!, i0);
-    const dc0 = on[0]! * iph[0]! + on[1]! * iph[1]! + on[2]! * iph[2]!;
-    // the phase voltages in alpha-beta (legsToAlphaBeta, written out)
+    const Vdc = this.Vdc, drop = this.drop;
+    const s0 = on[0]!, s1 = on[1]!, s2 = on[2]!;
+    let ua = s0 * Vdc, ub = s1 * Vdc, uc = s2 * Vdc;
     const input = this.plant.input;
-    input[0] = (2 * ua - ub - uc) / 3;
-    input[1] = (ub - uc) * INV_SQRT3;
+    if (drop !== 0) {
+      // the device drop against the current's sign, linear across |i| <= i0 (written out: no call)
+      const i0 = this.i0, ia = iph[0]!, ib = iph[1]!, ic = iph[2]!;
+      ua -= drop * (ia > i0 ? 1 : ia < -i0 ? -1 : ia / i0);
+      ub -= drop * (ib > i0 ? 1 : ib < -i0 ? -1 : ib / i0);
+      uc -= drop * (ic > i0 ? 1 : ic < -i0 ? -1 : ic / i0);
+      // the phase voltages in alpha-beta (legsToAlphaBeta, written out)
+      input[0] = (2 * ua - ub - uc) / 3;
+      input[1] = (ub - uc) * INV_SQRT3;
+    } else {
+      // without the drop the same arithmetic per switching state, done once (see `abv`)
+      const k = 2 * (s0 + 2 * s1 + 4 * s2);
+      input[0] = this.abv[k]!;
+      input[1] = this.abv[k + 1]!;
+    }
+    const probing = this.probing;
+    const dc0 = s0 * iph[0]! + s1 * iph[1]! + s2 * iph[2]!;
     if (this.rk4) this.rk4Segment(y);
     else this.inner.period(y, ta, tb);
     this.segments++;
     this.currents(y);
-    const dc1 = on[0]! * iph[0]! + on[1]! * iph[1]! + on[2]! * iph[2]!;
-    const h = tb - ta;
-    this.legVs[0] += ua * h;
-    this.legVs[1] += ub * h;
-    this.legVs[2] += uc * h;
-    this.idcInt += 0.5 * (dc0 + dc1) * h;
-    this.idcSqInt += ((dc0 * dc0 + dc0 * dc1 + dc1 * dc1) * h) / 3;
-    this.span += h;
-    this.sample();
+    const dc1 = s0 * iph[0]! + s1 * iph[1]! + s2 * iph[2]!;
+    if (probing) {
+      const h = tb - ta;
+      this.legVs[0] += ua * h;
+      this.legVs[1] += ub * h;
+      this.legVs[2] += uc * h;
+      this.idcInt += 0.5 * (dc0 + dc1) * h;
+      this.idcSqInt += ((dc0 * dc0 + dc0 * dc1 + dc1 * dc1) * h) / 3;
+      this.span += h;
+      this.sample();
+    }
     const win = this.window;
     if (win !== null && tb >= win.from && tb <= win.to) {
       const j = win.slot();
@@ -283,42 +317,36 @@ export class SwitchingPeriod {
    * time goes to the plant through its typed array (no boxed argument).
    */
   private rk4Segment(y: Float64Array): void {
-    const plant = this.plant;
-    const load = plant.params.load;
     const tb = this.tv[0]!;
     const ex = this.exact;
-    let a = this.tOpen;
+    const a0 = this.tOpen;
+    const nb = this.nextBreak;
+    if (a0 < nb && tb <= nb && nb === this.loadKey) {
+      // the common case, one piece with the plant's load already set (what the loop below does then)
+      if (tb - a0 > 0) this.piece(y, ex, a0, tb);
+      return;
+    }
+    const plant = this.plant;
+    const load = plant.params.load;
+    let a = a0;
     for (let piece = 0; piece < 8; piece++) {
       if (a >= this.nextBreak) this.nextBreak = nextLoadBreak(load, a);
       const b = this.nextBreak < tb ? this.nextBreak : tb;
       if (this.nextBreak !== this.loadKey) { plant.setLoadSegment(a, b); this.loadKey = this.nextBreak; }
-      if (b - a > 0) {
-        let done = false;
-        if (ex !== null) { ex.span[0] = a; ex.span[1] = b; done = ex.step(y); }
-        if (!done) this.rk4Step(y, a, b);
-      }
+      if (b - a > 0) this.piece(y, ex, a, b);
       if (b >= tb) break;
       a = b;
     }
   }
 
-  /** One classical RK4 step over [a, b] (the plant's load set for the piece). */
-  private rk4Step(y: Float64Array, a: number, b: number): void {
-    const plant = this.plant;
-    const time = plant.time;
-    const { k1, k2, k3, k4, w } = this;
-    const h = b - a;
-    time[0] = a;
-    plant.derivAt(k1, y);
-    for (let i = 0; i < STATE_SIZE; i++) w[i] = y[i]! + 0.5 * h * k1[i]!;
-    time[0] = a + 0.5 * h;
-    plant.derivAt(k2, w);
-    for (let i = 0; i < STATE_SIZE; i++) w[i] = y[i]! + 0.5 * h * k2[i]!;
-    plant.derivAt(k3, w);
-    for (let i = 0; i < STATE_SIZE; i++) w[i] = y[i]! + h * k3[i]!;
-    time[0] = b;
-    plant.derivAt(k4, w);
-    for (let i = 0; i < STATE_SIZE; i++) y[i] = y[i]! + (h / 6) * (k1[i]! + 2 * k2[i]! + 2 * k3[i]! + k4[i]!);
+  /** One piece [a, b]: the exact segment, else one RK4 step. */
+  private piece(y: Float64Array, ex: ExactSegment | null, a: number, b: number): void {
+    if (ex !== null) {
+      ex.span[0] = a;
+      ex.span[1] = b;
+      if (ex.step(y)) return;
+    }
+    (this.inner as Rk4Stepper).single(y, a, b); // rare: the closed form declined
   }
 
   private sample(): void {
@@ -346,7 +374,11 @@ export class SwitchingPeriod {
     }
     const dth = y[3]! - plant.th0;
     let c: number, s: number;
-    if (dth > -0.5 && dth < 0.5) {
+    if (dth === 0) {
+      // at the origin itself the series give exactly its cos and sin
+      c = plant.c0;
+      s = plant.s0;
+    } else if (dth > -0.5 && dth < 0.5) {
       const sd = sinSmall(dth), cd = cosSmall(dth);
       c = plant.c0 * cd - plant.s0 * sd;
       s = plant.s0 * cd + plant.c0 * sd;
@@ -364,9 +396,4 @@ export class SwitchingPeriod {
     iph[1] = -0.5 * ial + SQRT3_2 * ibe;
     iph[2] = -0.5 * ial - SQRT3_2 * ibe;
   }
-}
-
-/** sgn(i), linear across |i| <= i0 */
-function sgn(i: number, i0: number): number {
-  return i > i0 ? 1 : i < -i0 ? -1 : i / i0;
 }

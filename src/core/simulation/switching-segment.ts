@@ -111,6 +111,15 @@ export class ExactSegment {
     this.np = n.np; this.npp = n.npp; this.ng = n.ng; this.ngp = n.ngp;
   }
 
+  /** `node` with the friction already taken at arg[2] (LinearNode.frictionAt). */
+  private nodeWithFriction(): void {
+    const n = this.n;
+    n.LA = this.plant.loadA;
+    n.LB = this.plant.loadB;
+    n.atWithFriction(this.arg);
+    this.np = n.np; this.npp = n.npp; this.ng = n.ng; this.ngp = n.ngp;
+  }
+
   /** Integrate y over [span[0], span[1]] with the plant's input (alpha-beta) held; false (y untouched) where it does not apply. */
   step(y: Float64Array): boolean {
     const ta = this.span[0]!, tb = this.span[1]!;
@@ -147,6 +156,11 @@ export class ExactSegment {
       if (aw0 < 20 * this.width + 4 * ag0 * h) return this.no();
     }
     const hh = h * h;
+    // the end node's speed, predicted: its friction first (a square root and a division that then
+    // overlap the propagation below)
+    const w1p = w0 + g0 * h + 0.5 * gp0 * hh;
+    ag[2] = w1p;
+    this.n.frictionAt(ag);
     // DqPropagator.setStep, errorBound and propagate written out (no call, no square root): the
     // series branch |delta h| <= 0.5 (every segment of a carrier period at any sensible speed)
     const W = p * (w0 + 0.5 * g0 * h + (gp0 * hh) / 6);
@@ -177,14 +191,18 @@ export class ExactSegment {
     const zd = id0 - x1r - xcd, zq = iq0 - x2r - xcq;
     const id1 = p11 * zd + p12 * zq + xcd + x1r * cw + x1i * sw;
     const iq1 = p21 * zd + p22 * zq + xcq + x2r * cw + x2i * sw;
-    ag[0] = id1; ag[1] = iq1; ag[2] = w0 + g0 * h + 0.5 * gp0 * hh; ag[3] = vd0 * cw + vq0 * sw; ag[4] = -vd0 * sw + vq0 * cw; ag[5] = tb;
-    this.node();
+    ag[0] = id1; ag[1] = iq1; ag[2] = w1p; ag[3] = vd0 * cw + vq0 * sw; ag[4] = -vd0 * sw + vq0 * cw; ag[5] = tb;
+    this.nodeWithFriction();
     const g1 = this.ng, gp1 = this.ngp, P1 = this.np, Pp1 = this.npp;
     y[0] = id1;
     y[1] = iq1;
-    y[2] = w0 + 0.5 * h * (g0 + g1) + (hh / 12) * (gp0 - gp1);
+    const w1 = w0 + 0.5 * h * (g0 + g1) + (hh / 12) * (gp0 - gp1);
+    y[2] = w1;
     y[3] = th0 + p * (w0 * h + hh * (0.35 * g0 + 0.15 * g1) + hh * h * (gp0 / 20 - gp1 / 30));
     y[4] = y[4]! + 0.5 * h * (P0 + P1) + (hh / 12) * (Pp0 - Pp1);
+    // the next segment's start node is at this speed: its friction now (the node keeps it for that speed)
+    ag[2] = w1;
+    this.n.frictionAt(ag);
     return true;
   }
 

@@ -10,7 +10,7 @@
  * the run's SwitchingResult (switching-summary.ts). Allocation-free during the run.
  */
 import type { PwmSpec } from '../drive/pwm-spec';
-import { legDuties } from '../drive/pwm-modulator';
+import { legDutiesOf } from '../drive/pwm-modulator';
 import type { Plant } from './plant';
 import { Rk4Stepper, Stepper, makeStepper } from './stepper';
 import { SwitchingPeriod } from './switching-period';
@@ -38,13 +38,14 @@ export class SwitchingStepper extends Stepper {
     if (capture !== null) this.bridge.window = capture.window;
   }
 
-  override period(y: Float64Array, t0: number, t1: number): void {
+  protected override integrate(y: Float64Array): void {
+    const t0 = this.span[0]!, t1 = this.span[1]!;
     const u = this.plant.input;
     const va = u[0]!, vb = u[1]!;
     const d = this.duty;
     const cap = this.capture;
     const th0 = y[3]!;
-    legDuties(va, vb, this.spec.Vdc, this.spec.modulation, d);
+    legDutiesOf(u, this.spec.Vdc, this.spec.modulation, d);
     let whole = true; // a carrier period ends with this control period
     if (this.spec.updatesPerPeriod === 1) {
       const tm = 0.5 * (t0 + t1);
@@ -68,7 +69,8 @@ export class SwitchingStepper extends Stepper {
   private startPeriod(cap: SwitchingCapture, th0: number, t0: number): void {
     if (Number.isNaN(cap.thetaRun)) cap.thetaRun = th0;
     this.open = t0 >= cap.recordFrom;
-    if (!this.open) return;
+    // a period before the ring's span is never read: its probe is skipped
+    if (!this.open) { this.bridge.probing = false; return; }
     this.thStart = cap.thetaRun;
     this.bridge.resetProbe();
   }
