@@ -54,14 +54,14 @@ export const CurrentTableCard = memo(function CurrentTableCard({ project }: { pr
         </label>{' '}
         {hasLosses && <label><input type="checkbox" data-testid="ct-min-loss" checked={minLoss} onChange={(e) => setMinLoss(e.target.checked)} /> loss-minimising</label>}{' '}
         <button className="btn" data-testid="ct-export" disabled={sp === null || tp === null || r.kind === 'running'} onClick={run}>Export current table</button>{' '}
-        <button className="btn danger" data-testid="ct-cancel" disabled={r.kind !== 'running'} onClick={build.cancel}>Cancel</button>{' '}
-        {r.kind === 'running' && (
-          <span data-testid="ct-building">
-            <progress className="progress" data-testid="ct-progress" max={1} value={r.fraction} /> <span data-testid="ct-percent">{Math.round(r.fraction * 100)} %</span> of the rows solved (background)
-          </span>
-        )}
-        {r.kind === 'cancelled' && <span data-testid="ct-cancelled">Cancelled; nothing was exported.</span>}
+        <button className="btn danger" data-testid="ct-cancel" disabled={r.kind !== 'running'} onClick={build.cancel}>Cancel</button>
       </div>
+      {r.kind === 'running' && (
+        <div className="hint" style={{ fontSize: 12, marginTop: 6 }} data-testid="ct-building">
+          <progress className="progress" data-testid="ct-progress" max={1} value={r.fraction} /> <span data-testid="ct-percent">{Math.round(r.fraction * 100)} %</span> of the speed rows solved, in the background; the header is exported when the table is done.
+        </div>
+      )}
+      {r.kind === 'cancelled' && <div className="hint" style={{ fontSize: 12, marginTop: 6 }} data-testid="ct-cancelled">Cancelled; nothing was exported.</div>}
       {r.kind === 'error' && <div className="finding danger" data-testid="ct-error">{r.message}</div>}
       {summary && <div className="hint" style={{ fontSize: 12, marginTop: 6 }} data-testid="ct-summary">{summary}</div>}
     </div>
