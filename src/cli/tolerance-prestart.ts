@@ -5,6 +5,7 @@
 // the main thread's own instead of delaying the samples. This module imports little (argument
 // parsing and the worker start), so that it runs first in the bundle.
 import type { Worker } from 'node:worker_threads';
+import { existsSync } from 'node:fs';
 import { numberFlag, parseArgs } from './args';
 import { startWorkers, type WorkerScript } from '../node/worker-pool';
 
@@ -19,10 +20,16 @@ export interface ToleranceWorkerData {
   warm?: { thermal: boolean };
 }
 
-/** The script a worker runs: from the sources a bootstrap that loads src/cli/bin.ts through tsx; bundled, the bundle itself. */
+/**
+ * The script a worker runs: bundled, the lean worker bundle beside this one (scripts/cli-bundle.mjs,
+ * src/cli/efficiency-worker.ts serves both tasks) or, without it, this very file; from the sources, a
+ * fixed bootstrap that loads src/cli/bin.ts through tsx.
+ */
 export function toleranceWorkerScript(): WorkerScript {
   const here = import.meta.url;
-  return { script: /\.ts$/.test(here) ? new URL('./tolerance-worker-source.mjs', here) : new URL(here) };
+  if (/\.ts$/.test(here)) return { script: new URL('./tolerance-worker-source.mjs', here) };
+  const lean = new URL('./efficiency-worker.mjs', here);
+  return { script: lean.protocol === 'file:' && existsSync(lean) ? lean : new URL(here) };
 }
 
 /**
