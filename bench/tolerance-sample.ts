@@ -3,13 +3,16 @@
  * (10 000 samples of its invented bands, each sized hot and cold for the verdicts) spawned as a user
  * runs it (`node out/cli/torquewise.mjs`, the built bin) with --threads 1 and --threads 2,
  * interleaved in the same run; the samples' own time (the document's `wall_s`: from the first chunk
- * to the joined result, the workers' start included) and the whole command's.
+ * to the joined result; the workers start at the process's entry, src/cli/tolerance-prestart.ts, so
+ * what is left of their start after the main thread's own is included) and the whole command's, with
+ * the machine's load average before and after (other work on the two cores lowers the ratio).
  * Targets: 10 000 samples under 30 s; 2 threads at least 1.7 x faster than 1 (on two cores; other
  * work on the cores shows as wide ranges and a lower ratio). Where Linux taskset exists, the same
  * runs held to one core give the bound on two cores (the work of two threads on one core, halved).
  */
 import { spawnSync } from 'node:child_process';
 import { join } from 'node:path';
+import { loadavg } from 'node:os';
 import { CLI_BUNDLE, ROOT, ensureBundle } from '../scripts/cli-bundle.mjs';
 import type { BenchSection } from './index';
 
@@ -44,6 +47,8 @@ export const toleranceSampleBench: BenchSection = {
     const failed = ensureBundle();
     if (failed !== '') throw new Error(`the command line could not be built: ${failed}`);
     run(1, 200);
+    const load = (): string => loadavg().map((x) => x.toFixed(2)).join(' ');
+    const loadBefore = load();
     const one: Array<{ samples: number; cpu: number; command: number }> = [], two: typeof one = [];
     for (let k = 0; k < REPS; k++) {
       one.push(run(1, SAMPLES));
@@ -52,7 +57,7 @@ export const toleranceSampleBench: BenchSection = {
     const m1 = median(one.map((x) => x.samples)), m2 = median(two.map((x) => x.samples));
     console.log(`${SAMPLES} samples: ${m1.toFixed(1)} s on 1 thread (${range(one.map((x) => x.samples))}), ${m2.toFixed(1)} s on 2 (${range(two.map((x) => x.samples))}): ` +
       `${(m1 / m2).toFixed(2)} x (targets: under ${TARGET_S} s: ${Math.min(m1, m2) < TARGET_S ? 'met' : 'NOT met'}; ${TARGET_RATIO} x: ${m1 / m2 >= TARGET_RATIO ? 'met' : 'NOT met'}); ` +
-      `whole command ${median(one.map((x) => x.command)).toFixed(1)} / ${median(two.map((x) => x.command)).toFixed(1)} s`);
+      `whole command ${median(one.map((x) => x.command)).toFixed(1)} / ${median(two.map((x) => x.command)).toFixed(1)} s; load average (1, 5, 15 min) ${loadBefore} before, ${load()} after`);
     // what the cores' other work cannot hide: the CPU time of the samples; two threads on two free cores take at least half of theirs
     const c1 = median(one.map((x) => x.cpu)), c2 = median(two.map((x) => x.cpu));
     console.log(`CPU time of the samples: ${c1.toFixed(1)} s on 1 thread, ${c2.toFixed(1)} s on 2 (the second thread's start and compilation: +${(c2 - c1).toFixed(1)} s); ` +

@@ -102,7 +102,7 @@ describe('tolerance-sample', () => {
   });
 });
 
-describe('the built CLI (out/cli/torquewise.mjs): the bundle is its own worker', () => {
+describe('the built CLI (out/cli/torquewise.mjs): its workers run the lean worker bundle beside it, started at the process entry', () => {
   it('1 and 2 threads identical, and equal to the sources', async () => {
     expect(ensureBundle()).toBe('');
     const argv = ['tolerance-sample', demo('servo-axis'), '--samples', '200', '--json'];

@@ -35,6 +35,7 @@ const ALLOWED: Array<[string, RegExp]> = [
   ['src/renderer/src/views/duty-cycle/DutyCycleView.tsx', /new Worker\(new URL\('\.\.\/\.\.\/workers\/thermal-worker\.ts', import\.meta\.url\)/], // the bundled thermal worker (duty cycle)
   ['src/renderer/src/views/compare/CompareView.tsx', /new Worker\(new URL\('\.\.\/\.\.\/workers\/compare-worker\.ts', import\.meta\.url\)/], // the bundled comparison worker (design variants)
   ['src/renderer/src/views/tolerances/TolerancesView.tsx', /new Worker\(new URL\('\.\.\/\.\.\/workers\/tolerance-worker\.ts', import\.meta\.url\)/], // the bundled tolerance worker (corners, and each Monte Carlo chunk)
+  ['src/renderer/src/views/tuning/CurrentTableCard.tsx', /new Worker\(new URL\('\.\.\/\.\.\/workers\/current-table-worker\.ts', import\.meta\.url\)/], // the bundled current-table worker (firmware table export)
   ['src/node/worker-pool.ts', /new Worker\(ws\.script, \{ workerData \}\)/], // the CLI's map threads: the bundle itself, or src/cli/efficiency-worker-source.mjs (src/cli/efficiency-workers.ts)
   ['src/main/index.ts', /\.loadURL\(devServerUrl\)/], // the loopback dev server, development builds only
   ['src/main/index.ts', /\.loadURL\(APP_PAGE_URL\)/], // the built page, app://torquewise/index.html (src/main/app-protocol.ts)

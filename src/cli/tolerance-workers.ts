@@ -1,33 +1,42 @@
-// Monte Carlo samples of a tolerance study across worker threads (src/node/worker-pool.ts runWorkerPool):
-// the samples are cut into chunks of consecutive indices, each chunk computed by whichever thread is
-// free (this one too); every sample draws from its own generator seeded by (seed, index), so the
-// joined result is the same bit for bit whatever the number of threads. In the built CLI (one file)
-// a worker is that file itself, started with workerData naming its task (src/cli/bin.ts hands it to
-// toleranceWorkerMain); run from the TypeScript sources (tests, tsx) a worker loads src/cli/bin.ts through tsx.
-import { parentPort, workerData } from 'node:worker_threads';
+// Monte Carlo samples of a tolerance study across worker threads. The samples are cut into chunks of
+// consecutive indices, claimed one at a time through a counter in shared memory by this thread and by
+// the workers (src/node/worker-pool.ts runSharedRows), each writing its samples in place into the run's
+// arrays in shared memory: no thread waits for another, and a worker not yet ready takes no chunk.
+// Every sample draws from its own generator seeded by (seed, index), so the result is the same bit for
+// bit whatever the number of threads and whichever thread computed which chunk. The process's entry
+// starts the workers first (src/cli/tolerance-prestart.ts): each reads and loads the project file and
+// warms up while the main thread does the same. In the built CLI (one file) a worker is that file
+// itself, started with workerData naming its task (src/cli/bin.ts hands it to toleranceWorkerMain);
+// run from the TypeScript sources (tests, tsx) a worker loads src/cli/bin.ts through tsx.
+import { parentPort, receiveMessageOnPort, workerData, type MessagePort } from 'node:worker_threads';
 import { loadProjectText } from '../core/project/project';
-import { toleranceParameters, type ToleranceParameter } from '../core/project/tolerance-apply';
-import { joinChunks, runSampleChunk, type SampleChunk } from '../core/project/tolerance-sample';
+import { toleranceParameters, tolerancesOf, type ToleranceParameter } from '../core/project/tolerance-apply';
+import { emptySampleChunk, writeSamples, type SampleChunk } from '../core/project/tolerance-sample';
 import type { MonteCarloSettings } from '../core/project/tolerance-schema';
 import type { ProjectFile } from '../core/project/schema';
-import { runWorkerPool, type WorkerScript } from '../node/worker-pool';
+import { readProjectText } from '../node/project-file';
+import { claimRows, rowCounter, runSharedRows } from '../node/worker-pool';
+import { TOLERANCE_WORKER_TASK, takeToleranceWorkers, type ToleranceWorkerData } from './tolerance-prestart';
+export { TOLERANCE_WORKER_TASK, prestartToleranceWorkers, toleranceWorkerScript } from './tolerance-prestart';
 
-/** The workerData that marks a tolerance-sample worker. */
-export const TOLERANCE_WORKER_TASK = 'torquewise-tolerance-sample';
+/** Samples per chunk claimed by a thread: small enough that the threads end together, large enough that a claim costs nothing. */
+export const SAMPLES_PER_CHUNK = 10;
 
-/** Samples per chunk handed to a thread: small enough to share the work evenly, large enough that a message costs nothing. */
-export const SAMPLES_PER_CHUNK = 25;
-
-interface ToleranceWorkerData {
-  task: typeof TOLERANCE_WORKER_TASK;
+/** What a worker is posted: the run (project, settings), its arrays in shared memory and the shared chunk counter. */
+export interface ToleranceWorkerJob {
   projectText: string;
   mc: MonteCarloSettings;
   thermal: boolean;
+  /** samples 0..mc.samples-1, the arrays in shared memory */
+  out: SampleChunk;
+  /** rowCounter(): chunks claimed, chunks done */
+  counter: Int32Array;
 }
 
-interface ChunkJob {
-  from: number;
-  count: number;
+interface Study {
+  text: string;
+  file: ProjectFile;
+  params: ToleranceParameter[];
 }
 
 /** True when this thread was started as a tolerance-sample worker. */
@@ -35,42 +44,106 @@ export function isToleranceWorker(): boolean {
   return parentPort !== null && (workerData as Partial<ToleranceWorkerData> | null)?.task === TOLERANCE_WORKER_TASK;
 }
 
-/** The script a worker runs: from the sources a bootstrap that loads src/cli/bin.ts through tsx; bundled, the bundle itself. */
-export function toleranceWorkerScript(): WorkerScript {
-  const here = import.meta.url;
-  return { script: /\.ts$/.test(here) ? new URL('./tolerance-worker-source.mjs', here) : new URL(here) };
+const chunks = (samples: number): number => Math.ceil(samples / SAMPLES_PER_CHUNK);
+
+/** Chunk i of a run of `samples` samples written into `out`. */
+function writeChunk(s: Study, mc: MonteCarloSettings, thermal: boolean, out: SampleChunk, i: number): void {
+  const from = i * SAMPLES_PER_CHUNK;
+  writeSamples(s.file, s.params, mc, from, Math.min(SAMPLES_PER_CHUNK, mc.samples - from), { thermal }, out);
 }
 
-/** A worker's loop: load the project once, then answer each chunk with its samples. */
+function study(text: string): Study {
+  const file = loadProjectText(text).file;
+  return { text, file, params: toleranceParameters(file) };
+}
+
+async function preload(path: string): Promise<Study | undefined> {
+  try {
+    return study(await readProjectText(path));
+  } catch {
+    return undefined; // the main thread reports what is wrong with the file
+  }
+}
+
+/** Longest warm-up, ms: a worker started early has about this long before its run is due. */
+const WARM_MS = 400;
+
+/**
+ * Warm-up while the run is not yet posted: throwaway samples of the file's bands (indices far beyond
+ * any run), so that the sizing's code is compiled when the run comes (a cold thread computes its first
+ * samples several times slower). Stops as soon as a message waits (returned), or after WARM_MS.
+ */
+function warmUp(port: MessagePort, s: Study, thermal: boolean): ToleranceWorkerJob | undefined {
+  const mc = tolerancesOf(s.file)?.monteCarlo;
+  if (mc === undefined) return undefined;
+  const until = performance.now() + WARM_MS;
+  const out = emptySampleChunk(0, 1, s.params.length, s.file.requirements.length);
+  for (let k = 0; performance.now() < until; k++) {
+    const m = receiveMessageOnPort(port);
+    if (m !== undefined) return m.message as ToleranceWorkerJob;
+    out.from = 2 ** 40 + k;
+    writeSamples(s.file, s.params, mc, out.from, 1, { thermal }, out);
+  }
+  return undefined;
+}
+
+/** A worker's loop: for each run posted, claim its chunks and write them, then answer. */
 export function toleranceWorkerMain(): void {
   const port = parentPort;
   if (port === null) return;
   const d = workerData as ToleranceWorkerData;
-  let study: { file: ProjectFile; params: ToleranceParameter[] } | undefined;
-  port.on('message', (m: { job: number; input: ChunkJob }) => {
+  const serve = (m: ToleranceWorkerJob, pre: Study | undefined): void => {
     try {
-      if (study === undefined) {
-        const file = loadProjectText(d.projectText).file;
-        study = { file, params: toleranceParameters(file) };
-      }
-      const result = runSampleChunk(study.file, study.params, d.mc, m.input.from, m.input.count, { thermal: d.thermal });
-      port.postMessage({ job: m.job, ok: true, result });
+      const s = pre !== undefined && pre.text === m.projectText ? pre : study(m.projectText);
+      claimRows(m.counter, chunks(m.mc.samples), (i) => writeChunk(s, m.mc, m.thermal, m.out, i));
+      port.postMessage({ ok: true });
     } catch (e) {
-      port.postMessage({ job: m.job, ok: false, name: e instanceof Error ? e.name : 'Error', message: e instanceof Error ? e.message : String(e) });
+      port.postMessage({ ok: false, name: e instanceof Error ? e.name : 'Error', message: e instanceof Error ? e.message : String(e) });
     }
+  };
+  if (d.projectPath === undefined) {
+    port.on('message', (m: ToleranceWorkerJob) => serve(m, undefined));
+    return;
+  }
+  void preload(d.projectPath).then((pre) => {
+    let first: ToleranceWorkerJob | undefined;
+    try {
+      if (pre !== undefined && d.warm !== undefined) first = warmUp(port, pre, d.warm.thermal);
+    } catch {
+      // a warm-up that fails changes nothing: the run reports its own failures
+    }
+    if (first !== undefined) serve(first, pre);
+    port.on('message', (m: ToleranceWorkerJob) => serve(m, pre));
   });
+}
+
+/** The run's samples in memory of its own (not shared), for the caller to keep. */
+function own(c: SampleChunk): SampleChunk {
+  return { ...c, values: new Float64Array(c.values), margins: new Float64Array(c.margins), met: new Uint8Array(c.met) };
 }
 
 /**
  * The samples 0..mc.samples-1 of the project: in this thread when threads <= 1, else shared in chunks
- * between this thread and threads - 1 workers (each given the project's text). The same result for any `threads`.
+ * between this thread and threads - 1 workers (each given the project's text; `workersOnly`: `threads`
+ * workers, this thread computing none). The same result for any `threads`.
  */
-export async function toleranceSamplesThreaded(projectText: string, file: ProjectFile, mc: MonteCarloSettings, threads: number, opts: { thermal: boolean }): Promise<SampleChunk> {
-  const params = toleranceParameters(file);
-  const jobs: ChunkJob[] = [];
-  for (let from = 0; from < mc.samples; from += SAMPLES_PER_CHUNK) jobs.push({ from, count: Math.min(SAMPLES_PER_CHUNK, mc.samples - from) });
-  const local = (j: ChunkJob): SampleChunk => runSampleChunk(file, params, mc, j.from, j.count, opts);
-  if (threads <= 1 || jobs.length < 2) return joinChunks(jobs.map(local));
-  const data: ToleranceWorkerData = { task: TOLERANCE_WORKER_TASK, projectText, mc, thermal: opts.thermal };
-  return joinChunks(await runWorkerPool<ChunkJob, SampleChunk>(toleranceWorkerScript(), data, jobs, threads, local));
+export async function toleranceSamplesThreaded(projectText: string, file: ProjectFile, mc: MonteCarloSettings, threads: number, opts: { thermal: boolean; workersOnly?: boolean }): Promise<SampleChunk> {
+  const s: Study = { text: projectText, file, params: toleranceParameters(file) };
+  const n = chunks(mc.samples);
+  const local = opts.workersOnly !== true;
+  if (local && (threads <= 1 || n < 2)) {
+    const out = emptySampleChunk(0, mc.samples, s.params.length, file.requirements.length);
+    for (let i = 0; i < n; i++) writeChunk(s, mc, opts.thermal, out, i);
+    return out;
+  }
+  const workers = takeToleranceWorkers(local ? Math.min(threads - 1, n - 1) : Math.max(1, Math.min(threads, n)));
+  const out = emptySampleChunk(0, mc.samples, s.params.length, file.requirements.length, (b) => new SharedArrayBuffer(b));
+  const counter = rowCounter();
+  const job: ToleranceWorkerJob = { projectText, mc, thermal: opts.thermal, out, counter };
+  try {
+    await runSharedRows(workers, job, counter, n, local ? (i) => writeChunk(s, mc, opts.thermal, out, i) : undefined);
+  } finally {
+    for (const w of workers) void w.terminate();
+  }
+  return own(out);
 }

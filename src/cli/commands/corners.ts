@@ -11,6 +11,25 @@ export function requireTolerances(p: ResolvedProject, command: string): void {
   }
 }
 
+/**
+ * Progress on a terminal: `corners: k of n (p %)` rewritten in place on standard error while the
+ * corners run, cleared at the end; nothing when standard error is not a terminal (a pipe, a file, a
+ * test), so what a script reads never changes.
+ */
+export function cornersProgress(err: { isTTY?: boolean; write(s: string): unknown } = process.stderr): { onCorner?: (done: number, total: number) => void; end(): void } {
+  if (err.isTTY !== true) return { end: () => undefined };
+  let shown = false;
+  return {
+    onCorner: (done, total) => {
+      shown = true;
+      err.write(`\rcorners: ${done} of ${total} (${Math.floor((100 * done) / total)} %)\u001b[K`);
+    },
+    end: () => {
+      if (shown) err.write('\r\u001b[K');
+    },
+  };
+}
+
 const values = (x: Record<string, number>): string => Object.entries(x).map(([k, v]) => `${k} ${fmt(v)}`).join(', ') || 'nominal';
 
 export const cornersCommand: Command = {
@@ -21,7 +40,13 @@ export const cornersCommand: Command = {
   run(p) {
     requireTolerances(p, 'corners');
     const t0 = performance.now();
-    const r = toleranceCorners(p.file);
+    const progress = cornersProgress();
+    let r;
+    try {
+      r = toleranceCorners(p.file, progress.onCorner ? { onCorner: progress.onCorner } : {});
+    } finally {
+      progress.end();
+    }
     const wall_s = (performance.now() - t0) / 1e3;
     const json = {
       minImax_A: r.minImax_A,

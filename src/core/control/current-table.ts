@@ -101,11 +101,16 @@ function rowLimits(m: MachineModel, lim: DriveLimits, w: number): { mot: Operati
   return { mot, gen, tMot: mot.feasible ? Math.max(0, mot.torque) : 0, tGen: gen.feasible ? Math.max(0, -gen.torque) : 0 };
 }
 
+/** What a caller may follow of a build: `onRow(done, total)` after each speed row of each corner is solved (total = corners x speed rows). */
+export interface CurrentTableProgress {
+  onRow?: (done: number, total: number) => void;
+}
+
 /**
  * The table for each named corner (e.g. hot and cold) on common axes. Throws InputError for a bad
  * grid, or when no corner makes torque at standstill within the limits.
  */
-export function buildCurrentTable(corners: ReadonlyArray<{ name: string; model: MachineInput }>, spec: CurrentTableSpec): CurrentTable {
+export function buildCurrentTable(corners: ReadonlyArray<{ name: string; model: MachineInput }>, spec: CurrentTableSpec, progress: CurrentTableProgress = {}): CurrentTable {
   checkSpec(spec);
   const nS = spec.speedPoints;
   const nT = 2 * spec.torquePoints - 1;
@@ -122,6 +127,8 @@ export function buildCurrentTable(corners: ReadonlyArray<{ name: string; model: 
   const half = spec.torquePoints - 1;
   for (let j = 0; j < nT; j++) torque[j] = (peak * (j - half)) / half;
   const sc = newPointLossScratch();
+  const rowsTotal = corners.length * nS;
+  let rowsDone = 0;
   const out: CurrentTableCorner[] = corners.map((c, k) => {
     const m = models[k]!;
     const id = new Float32Array(nS * nT), iq = new Float32Array(nS * nT);
@@ -151,6 +158,7 @@ export function buildCurrentTable(corners: ReadonlyArray<{ name: string; model: 
         id[r * nT + j] = p.id;
         iq[r * nT + j] = p.iq;
       }
+      progress.onRow?.(++rowsDone, rowsTotal);
     }
     return { name: c.name, id, iq, tMot, tGen, solvedNodes };
   });

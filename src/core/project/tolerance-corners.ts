@@ -64,17 +64,37 @@ export interface CornersResult {
   bindingCorner: number;
 }
 
+/** A run stopped by its caller's signal (between two corners). */
+export class CornersAborted extends Error {
+  constructor(done: number, total: number) {
+    super(`the corners were stopped after ${done} of ${total}`);
+    this.name = 'AbortError';
+  }
+}
+
+export interface CornersOptions {
+  /** the S1 check of continuous points where the file has a thermal section (default true) */
+  thermal?: boolean;
+  /** called after each corner is evaluated: corners done, corners in all */
+  onCorner?: (done: number, total: number) => void;
+  /** checked before each corner (an AbortSignal fits): once aborted, the run throws CornersAborted */
+  signal?: { readonly aborted: boolean };
+}
+
 /** Every corner of the file's bands evaluated (one corner, the nominal file, without bands). Throws InputError for a band end the file cannot take. */
-export function toleranceCorners(file: ProjectFile, opts: { thermal?: boolean } = {}): CornersResult {
+export function toleranceCorners(file: ProjectFile, opts: CornersOptions = {}): CornersResult {
   const params = toleranceParameters(file);
   checkBandEnds(file, params);
   const { plan, sets } = cornerValueSets(params);
-  const corners: Corner[] = sets.map((values) => {
+  const corners: Corner[] = [];
+  for (const values of sets) {
+    if (opts.signal?.aborted) throw new CornersAborted(corners.length, sets.length);
     const r = evaluateParameterSet(file, params, values, { bounds: true, thermal: opts.thermal !== false });
     const parameters: Record<string, number> = {};
     params.forEach((p, j) => (parameters[p.path] = values[j]!));
-    return { parameters, met: r.met, minImax_A: r.minImax_A, minVdc_V: r.minVdc_V, requirements: r.requirements };
-  });
+    corners.push({ parameters, met: r.met, minImax_A: r.minImax_A, minVdc_V: r.minVdc_V, requirements: r.requirements });
+    opts.onCorner?.(corners.length, sets.length);
+  }
   let minImax: number | null = 0, minVdc: number | null = 0;
   for (const c of corners) {
     minImax = minImax === null || c.minImax_A === null ? null : Math.max(minImax, c.minImax_A);

@@ -37,20 +37,35 @@ export interface SampleChunk {
   met: Uint8Array;
 }
 
-/** Samples from..from+count-1 evaluated. */
-export function runSampleChunk(file: ProjectFile, params: readonly ToleranceParameter[], mc: MonteCarloSettings, from: number, count: number, opts: { thermal: boolean }): SampleChunk {
-  const k = params.length, nReq = file.requirements.length;
-  const out: SampleChunk = { from, count, k, nReq, values: new Float64Array(count * k), margins: new Float64Array(count * nReq), met: new Uint8Array(count * nReq) };
+/**
+ * An empty record of samples from..from+count-1 (k parameters, nReq requirements); `memory(bytes)`
+ * gives each array's memory (a plain ArrayBuffer by default; a run shared between threads passes shared memory).
+ */
+export function emptySampleChunk(from: number, count: number, k: number, nReq: number, memory: (bytes: number) => ArrayBufferLike = (n) => new ArrayBuffer(n)): SampleChunk {
+  return { from, count, k, nReq, values: new Float64Array(memory(8 * count * k)), margins: new Float64Array(memory(8 * count * nReq)), met: new Uint8Array(memory(count * nReq)) };
+}
+
+/** Samples from..from+count-1 evaluated and written into `out` at their places (out must hold them: out.from <= from, from + count <= out.from + out.count). */
+export function writeSamples(file: ProjectFile, params: readonly ToleranceParameter[], mc: MonteCarloSettings, from: number, count: number, opts: { thermal: boolean }, out: SampleChunk): void {
+  const k = params.length, nReq = out.nReq;
+  if (!(from >= out.from && from + count <= out.from + out.count) || out.k !== k || nReq !== file.requirements.length) throw new RangeError(`samples ${from}..${from + count - 1} do not fit the record of ${out.from}..${out.from + out.count - 1}`);
   const v = new Float64Array(k);
   for (let s = 0; s < count; s++) {
+    const row = from - out.from + s;
     sampleValues(params, mc, from + s, v);
-    out.values.set(v, s * k);
+    out.values.set(v, row * k);
     const r = evaluateParameterSet(file, params, v, { bounds: false, thermal: opts.thermal });
     r.requirements.forEach((q, j) => {
-      out.margins[s * nReq + j] = Math.min(q.margins.torque_Nm, q.margins.s1Torque_Nm ?? Infinity);
-      out.met[s * nReq + j] = q.met ? 1 : 0;
+      out.margins[row * nReq + j] = Math.min(q.margins.torque_Nm, q.margins.s1Torque_Nm ?? Infinity);
+      out.met[row * nReq + j] = q.met ? 1 : 0;
     });
   }
+}
+
+/** Samples from..from+count-1 evaluated. */
+export function runSampleChunk(file: ProjectFile, params: readonly ToleranceParameter[], mc: MonteCarloSettings, from: number, count: number, opts: { thermal: boolean }): SampleChunk {
+  const out = emptySampleChunk(from, count, params.length, file.requirements.length);
+  writeSamples(file, params, mc, from, count, opts, out);
   return out;
 }
 

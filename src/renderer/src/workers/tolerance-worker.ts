@@ -1,4 +1,4 @@
-// Tolerance studies off the window's thread: every corner of the bands, or one chunk of Monte Carlo
+// Tolerance studies off the window's thread: every corner of the bands (with progress), or one chunk of Monte Carlo
 // samples (the window hands chunks to as many of these workers as it runs and joins them in order).
 // The project is loaded once per text and kept for the next chunk.
 /// <reference lib="webworker" />
@@ -27,7 +27,9 @@ self.onmessage = (ev: MessageEvent<ToleranceRequest>) => {
     }
     const file = loaded.file!;
     if (req.kind === 'corners') {
-      post({ kind: 'done', corners: toleranceCorners(file), compute_ms: performance.now() - t0 });
+      // progress after each corner (corners done / corners); cancel terminates this worker
+      const corners = toleranceCorners(file, { onCorner: (done, total) => post({ kind: 'progress', fraction: done / total }) });
+      post({ kind: 'done', corners, compute_ms: performance.now() - t0 });
       return;
     }
     const chunk = runSampleChunk(file, loaded.params, req.mc, req.from, req.count, { thermal: req.thermal });

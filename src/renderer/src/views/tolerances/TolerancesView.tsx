@@ -1,5 +1,6 @@
 // Tolerances view (a project with a `tolerances` section): the worst case over the parameter bands.
-// Corners: every combination of the band ends (core/project/tolerance-corners.ts) in a worker, each
+// Corners: every combination of the band ends (core/project/tolerance-corners.ts) in a worker (the
+// percentage of corners done as progress, cancel terminates it), each
 // corner's values and per point verdict and least torque margin, the binding corner first and
 // marked, and the least Imax and least bus over every corner. Monte Carlo: the file's samples, seed
 // and distribution, the samples shared in chunks between up to navigator.hardwareConcurrency workers
@@ -128,7 +129,7 @@ export const TolerancesView = memo(function TolerancesView({ project, theme }: {
           Corners{' '}
           <button className="btn small no-print" data-testid="tol-corners-run" onClick={startCorners} disabled={cr.kind === 'running'}>Compute</button>{' '}
           <button className="btn small danger no-print" data-testid="tol-corners-cancel" disabled={cr.kind !== 'running'} onClick={cornersRun.cancel}>Cancel</button>{' '}
-          {cr.kind === 'running' && <span data-testid="tol-corners-progress"><progress className="progress" /> sizing every corner hot and cold…</span>}
+          {cr.kind === 'running' && <span data-testid="tol-corners-progress"><progress className="progress" max={1} value={cr.fraction} /> <span data-testid="tol-corners-percent">{Math.round(cr.fraction * 100)} %</span> of the corners sized hot and cold…</span>}
           {cr.kind === 'cancelled' && <span data-testid="tol-corners-cancelled">Cancelled; the previous result (if any) is shown.</span>}
         </h4>
         {cr.kind === 'error' && <div className="finding danger" data-testid="tol-corners-error">{cr.message}</div>}

@@ -1,11 +1,15 @@
 // The tuning view's card that exports the firmware's current-reference table as a C header
 // (current-table-data.ts): the grid, the corners, the control rule, and the stated bound once made.
-import { memo, useState } from 'react';
+// The table is built in a Web Worker (workers/current-table-worker.ts; a flux map takes seconds):
+// progress as the share of speed rows solved, cancel terminates the worker, the window stays live.
+import { memo, useMemo, useState } from 'react';
 import type { ResolvedProject } from '../../../../core/project/project';
 import type { CurrentTableCorners } from '../../../../core/reports/current-table-export';
 import { isoDate } from '../../../../core/reports/figure-conditions';
 import { useExporter } from '../../state/exporter';
-import { CURRENT_TABLE_DEFAULTS, CURRENT_TABLE_POINTS_MAX, currentTableExport, currentTableFileName } from './current-table-data';
+import { useWorkerRun } from '../../state/worker-run';
+import type { CurrentTableDone, CurrentTableRequest } from '../../workers/current-table-protocol';
+import { CURRENT_TABLE_DEFAULTS, CURRENT_TABLE_POINTS_MAX } from './current-table-data';
 
 const whole = (s: string): number | null => {
   const n = Number(s);
@@ -14,6 +18,7 @@ const whole = (s: string): number | null => {
 
 export const CurrentTableCard = memo(function CurrentTableCard({ project }: { project: ResolvedProject }) {
   const exporter = useExporter();
+  const projectText = useMemo(() => JSON.stringify(project.file), [project]);
   const [speedText, setSpeedText] = useState(String(CURRENT_TABLE_DEFAULTS.speedPoints));
   const [torqueText, setTorqueText] = useState(String(CURRENT_TABLE_DEFAULTS.torquePoints));
   const [corners, setCorners] = useState<CurrentTableCorners>(CURRENT_TABLE_DEFAULTS.corners);
@@ -21,14 +26,16 @@ export const CurrentTableCard = memo(function CurrentTableCard({ project }: { pr
   const [summary, setSummary] = useState<string | null>(null);
   const sp = whole(speedText), tp = whole(torqueText);
   const hasLosses = Object.keys(project.losses).length > 0;
+  const build = useWorkerRun<CurrentTableRequest, CurrentTableDone>('current table', (m) => {
+    setSummary(m.summary);
+    void exporter.exportAndTell('current-table-header', () => m.header, m.fileName);
+  });
   const run = () => {
     if (sp === null || tp === null) return;
-    void exporter.exportAndTell('current-table-header', () => {
-      const r = currentTableExport(project, { speedPoints: sp, torquePoints: tp, corners, minLoss: minLoss && hasLosses }, isoDate(new Date()));
-      setSummary(r.summary);
-      return r.header;
-    }, currentTableFileName(project));
+    const w = new Worker(new URL('../../workers/current-table-worker.ts', import.meta.url), { type: 'module' });
+    build.start(w, { kind: 'current-table', projectText, choice: { speedPoints: sp, torquePoints: tp, corners, minLoss: minLoss && hasLosses }, date: isoDate(new Date()) });
   };
+  const r = build.run;
   return (
     <div className="card" data-testid="current-table">
       <h4>Current-reference table for firmware</h4>
@@ -46,8 +53,16 @@ export const CurrentTableCard = memo(function CurrentTableCard({ project }: { pr
           </select>
         </label>{' '}
         {hasLosses && <label><input type="checkbox" data-testid="ct-min-loss" checked={minLoss} onChange={(e) => setMinLoss(e.target.checked)} /> loss-minimising</label>}{' '}
-        <button data-testid="ct-export" disabled={sp === null || tp === null} onClick={run}>Export current table</button>
+        <button className="btn" data-testid="ct-export" disabled={sp === null || tp === null || r.kind === 'running'} onClick={run}>Export current table</button>{' '}
+        <button className="btn danger" data-testid="ct-cancel" disabled={r.kind !== 'running'} onClick={build.cancel}>Cancel</button>
       </div>
+      {r.kind === 'running' && (
+        <div className="hint" style={{ fontSize: 12, marginTop: 6 }} data-testid="ct-building">
+          <progress className="progress" data-testid="ct-progress" max={1} value={r.fraction} /> <span data-testid="ct-percent">{Math.round(r.fraction * 100)} %</span> of the speed rows solved, in the background; the header is exported when the table is done.
+        </div>
+      )}
+      {r.kind === 'cancelled' && <div className="hint" style={{ fontSize: 12, marginTop: 6 }} data-testid="ct-cancelled">Cancelled; nothing was exported.</div>}
+      {r.kind === 'error' && <div className="finding danger" data-testid="ct-error">{r.message}</div>}
       {summary && <div className="hint" style={{ fontSize: 12, marginTop: 6 }} data-testid="ct-summary">{summary}</div>}
     </div>
   );

@@ -1,7 +1,9 @@
 // The tuning view's current-table export (the card's data path, kept apart from React): the
 // firmware's current-reference table of the project (core/control/current-table.ts), its stated
 // bound, the C header text and a one-line summary, as the command line's `current-table --header`.
-import type { ResolvedProject } from '../../../../core/project/project';
+// Built in a Web Worker (workers/current-table-worker.ts runs currentTableJob), with progress as the
+// fraction of speed rows solved.
+import { loadProjectText, type ResolvedProject } from '../../../../core/project/project';
 import { buildCurrentTable } from '../../../../core/control/current-table';
 import { currentTableBound } from '../../../../core/control/current-table-bound';
 import { currentTableAbout, currentTableInputs, type CurrentTableCorners } from '../../../../core/reports/current-table-export';
@@ -23,13 +25,27 @@ export function currentTableFileName(p: ResolvedProject): string {
   return `${base}-current-table.h`;
 }
 
-/** The header text, a file name from the project's name, and a summary line with the stated bound. */
-export function currentTableExport(p: ResolvedProject, choice: CurrentTableChoice, date: string): { header: string; fileName: string; summary: string } {
+export interface CurrentTableExport {
+  header: string;
+  fileName: string;
+  summary: string;
+}
+
+/**
+ * The header text, a file name from the project's name, and a summary line with the stated bound;
+ * `onProgress(fraction)` after each speed row of each corner (the bound's check after the last is short).
+ */
+export function currentTableExport(p: ResolvedProject, choice: CurrentTableChoice, date: string, onProgress?: (fraction: number) => void): CurrentTableExport {
   const inputs = currentTableInputs(p, choice);
-  const t = buildCurrentTable(inputs.corners, inputs.spec);
+  const t = buildCurrentTable(inputs.corners, inputs.spec, onProgress ? { onRow: (done, total) => onProgress(done / total) } : {});
   const bound = currentTableBound(t, inputs.corners.map((c) => c.model));
   const header = currentTableHeader(t, currentTableAbout(p, inputs, bound, date));
   const r = (x: number) => String(Number(x.toPrecision(3)));
   const summary = `${t.nS} x ${t.nT} nodes, ${t.corners.map((c) => c.name).join(' and ')}; bound: torque ${r(bound.torque_Nm)} N·m, |i| over Imax ${r(bound.current_A)} A, |v| over Vmax ${r(bound.voltage_V)} V`;
   return { header, fileName: currentTableFileName(p), summary };
+}
+
+/** The worker's job: the project from its text (as every reader loads it), then its export. */
+export function currentTableJob(projectText: string, choice: CurrentTableChoice, date: string, onProgress?: (fraction: number) => void): CurrentTableExport {
+  return currentTableExport(loadProjectText(projectText), choice, date, onProgress);
 }
