@@ -1,4 +1,4 @@
-// The current-table worker's job (views/tuning/current-table-data.ts currentTableJob, run by
+// The current-table worker's job (workers/current-table-job.ts currentTableJob, run by
 // workers/current-table-worker.ts): the project from its text, progress as the share of speed rows
 // solved (rising to 1), and the same header and summary as the export on the window's thread
 // (common practice (no source): progress as items done / items).
@@ -6,7 +6,7 @@ import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { loadProjectText } from '../src/core/project/project';
-import { currentTableExport, currentTableJob } from '../src/renderer/src/views/tuning/current-table-data';
+import { currentTableExport, currentTableJob } from '../src/renderer/src/workers/current-table-job';
 
 const text = readFileSync(join(__dirname, '..', 'resources', 'demo-servo-axis.json'), 'utf8');
 

@@ -1,10 +1,10 @@
-// The tuning view's current-table export (views/tuning/current-table-data.ts): the header it writes is
+// The tuning view's current-table export (workers/current-table-job.ts): the header it writes is
 // the command line's for the same choice, and names the file from the project.
 import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { loadProjectText } from '../src/core/project/project';
-import { currentTableExport, currentTableFileName } from '../src/renderer/src/views/tuning/current-table-data';
+import { currentTableExport, currentTableFileName } from '../src/renderer/src/workers/current-table-job';
 import { runCli } from './cli-run';
 import { mkdtempSync } from 'node:fs';
 import { tmpdir } from 'node:os';

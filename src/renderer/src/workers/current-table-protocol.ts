@@ -3,7 +3,7 @@
 // does (src/core/project loadProjectText), builds the table a speed row at a time with progress (rows
 // done / rows), and answers with the C header, its file name and the summary line, or the reason it
 // could not run. Cancel = the window terminates the worker.
-import type { CurrentTableChoice } from '../views/tuning/current-table-data';
+import type { CurrentTableChoice } from './current-table-job';
 
 export type CurrentTableRequest = { kind: 'current-table'; projectText: string; choice: CurrentTableChoice; date: string };
 

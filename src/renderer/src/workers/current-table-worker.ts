@@ -1,8 +1,8 @@
-// The firmware's current-reference table built off the window's thread (views/tuning/current-table-data.ts
+// The firmware's current-reference table built off the window's thread (workers/current-table-job.ts
 // currentTableJob): progress after each speed row of each corner, then the header text to export.
 /// <reference lib="webworker" />
 import { isInputError } from '../../../core/base/errors';
-import { currentTableJob } from '../views/tuning/current-table-data';
+import { currentTableJob } from './current-table-job';
 import type { CurrentTableReply, CurrentTableRequest } from './current-table-protocol';
 
 const post = (msg: CurrentTableReply) => (self as unknown as DedicatedWorkerGlobalScope).postMessage(msg);

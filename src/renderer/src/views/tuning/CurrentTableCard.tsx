@@ -1,5 +1,5 @@
 // The tuning view's card that exports the firmware's current-reference table as a C header
-// (current-table-data.ts): the grid, the corners, the control rule, and the stated bound once made.
+// (../../workers/current-table-job.ts): the grid, the corners, the control rule, and the stated bound once made.
 // The table is built in a Web Worker (workers/current-table-worker.ts; a flux map takes seconds):
 // progress as the share of speed rows solved, cancel terminates the worker, the window stays live.
 import { memo, useMemo, useState } from 'react';
@@ -9,7 +9,7 @@ import { isoDate } from '../../../../core/reports/figure-conditions';
 import { useExporter } from '../../state/exporter';
 import { useWorkerRun } from '../../state/worker-run';
 import type { CurrentTableDone, CurrentTableRequest } from '../../workers/current-table-protocol';
-import { CURRENT_TABLE_DEFAULTS, CURRENT_TABLE_POINTS_MAX } from './current-table-data';
+import { CURRENT_TABLE_DEFAULTS, CURRENT_TABLE_POINTS_MAX } from '../../workers/current-table-job';
 
 const whole = (s: string): number | null => {
   const n = Number(s);

@@ -3,11 +3,11 @@
 // bound, the C header text and a one-line summary, as the command line's `current-table --header`.
 // Built in a Web Worker (workers/current-table-worker.ts runs currentTableJob), with progress as the
 // fraction of speed rows solved.
-import { loadProjectText, type ResolvedProject } from '../../../../core/project/project';
-import { buildCurrentTable } from '../../../../core/control/current-table';
-import { currentTableBound } from '../../../../core/control/current-table-bound';
-import { currentTableAbout, currentTableInputs, type CurrentTableCorners } from '../../../../core/reports/current-table-export';
-import { currentTableHeader } from '../../../../core/reports/current-table-header';
+import { loadProjectText, type ResolvedProject } from '../../../core/project/project';
+import { buildCurrentTable } from '../../../core/control/current-table';
+import { currentTableBound } from '../../../core/control/current-table-bound';
+import { currentTableAbout, currentTableInputs, type CurrentTableCorners } from '../../../core/reports/current-table-export';
+import { currentTableHeader } from '../../../core/reports/current-table-header';
 
 export interface CurrentTableChoice {
   speedPoints: number;
