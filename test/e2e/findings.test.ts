@@ -147,7 +147,8 @@ describe('findings where the eye is', () => {
       const gd = document.querySelector('[data-testid="traces-plot"]') as unknown as { data: Array<{ name: string; yaxis: string; line: { color: string } }>; _fullLayout: Record<string, { range?: number[] }> };
       return { traces: gd.data.map((d) => ({ name: d.name, axis: d.yaxis, colour: d.line.color })), errRange: gd._fullLayout.yaxis2?.range ?? null };
     });
-    const colour = (n: string) => fig.traces.find((t) => t.name === n)!.colour;
+    // a run with an angle sensor (the demo's resolver) names the true speed "speed (true)" beside the estimate
+    const colour = (n: string) => fig.traces.find((t) => t.name === n || t.name === `${n} (true)`)!.colour;
     expect(colour('id')).not.toBe(colour('ia'));
     expect(colour('iq')).not.toBe(colour('speed'));
     // within each plot, one colour per quantity (a reference shares its quantity's colour)
