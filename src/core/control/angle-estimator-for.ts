@@ -13,7 +13,7 @@ import { InputError } from '../base/errors';
 import type { MachineInput } from '../machine/machine-model';
 import type { AngleSpec, SensorlessAngle } from './angle-spec';
 import { defaultCorrection_Hz } from './sensorless-active-flux';
-import type { AngleEstimator } from './angle-estimator';
+import type { SampledAngleEstimator } from './angle-estimator';
 import { EncoderEstimator } from './encoder-estimator';
 import { ResolverEstimator } from './resolver-estimator';
 import { SensorlessEstimator } from './sensorless-estimator';
@@ -38,7 +38,7 @@ export interface SensorlessContext {
   startupRamp_rpm_per_s?: number;
 }
 
-export function angleEstimatorFor(spec: AngleSpec | undefined, polePairs: number, sensorless?: SensorlessContext): AngleEstimator | null {
+export function angleEstimatorFor(spec: AngleSpec | undefined, polePairs: number, sensorless?: SensorlessContext): SampledAngleEstimator | null {
   if (spec === undefined || spec.source === 'ideal') return null;
   if (spec.source === 'encoder') return new EncoderEstimator(spec, polePairs);
   if (spec.source === 'resolver') return new ResolverEstimator(spec, polePairs);

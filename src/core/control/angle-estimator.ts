@@ -23,6 +23,26 @@ export interface AngleEstimator {
   readonly omegaE: number;
 }
 
+/**
+ * The estimators' common entry: `sample(...)` writes its arguments into `input` and runs
+ * `sampleFromInput()`, which a hot loop calls directly after writing `input` itself, so that no
+ * double crosses a call that the engine may not inline (such a double is boxed on the heap).
+ */
+export abstract class SampledAngleEstimator implements AngleEstimator {
+  abstract readonly thetaE: number;
+  abstract readonly omegaE: number;
+  /** the inputs of one period: [trueThetaE, trueOmegaM, i_alpha, i_beta, v_alpha, v_beta, Ts] */
+  readonly input = new Float64Array(7);
+  abstract reset(thetaE: number, omegaE: number): void;
+  /** `sample` with its inputs already written into `input` */
+  abstract sampleFromInput(): void;
+  sample(trueThetaE: number, trueOmegaM: number, i_alpha: number, i_beta: number, v_alpha: number, v_beta: number, Ts: number): void {
+    const x = this.input;
+    x[0] = trueThetaE; x[1] = trueOmegaM; x[2] = i_alpha; x[3] = i_beta; x[4] = v_alpha; x[5] = v_beta; x[6] = Ts;
+    this.sampleFromInput();
+  }
+}
+
 const TWO_PI = 2 * Math.PI;
 
 /** An angle wrapped to [-pi, pi] (x - 2 pi round(x / 2 pi)). */

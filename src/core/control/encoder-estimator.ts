@@ -21,11 +21,11 @@
  * electrical frequency below half the control rate). No allocation per sample.
  */
 import type { EncoderAngle } from './angle-spec';
-import { wrapToPi, type AngleEstimator } from './angle-estimator';
+import { wrapToPi, SampledAngleEstimator } from './angle-estimator';
 
 const TWO_PI = 2 * Math.PI;
 
-export class EncoderEstimator implements AngleEstimator {
+export class EncoderEstimator extends SampledAngleEstimator {
   thetaE = 0;
   omegaE = 0;
   /** the count of the decoder (the interval index), before any wrap */
@@ -51,6 +51,7 @@ export class EncoderEstimator implements AngleEstimator {
   private filterTs = -1;
 
   constructor(spec: EncoderAngle, private readonly polePairs: number) {
+    super();
     this.delta = TWO_PI / (4 * spec.linesPerRev);
     this.offset = (spec.offset_deg * Math.PI) / 180;
     this.window = spec.speedWindowPeriods;
@@ -84,7 +85,10 @@ export class EncoderEstimator implements AngleEstimator {
     return Math.floor((t - since) * this.timerHz);
   }
 
-  sample(trueThetaE: number, trueOmegaM: number, _ia: number, _ib: number, _va: number, _vb: number, Ts: number): void {
+  /** One period from `input` (see SampledAngleEstimator): the true angle and speed, Ts. */
+  sampleFromInput(): void {
+    const x = this.input;
+    const trueThetaE = x[0]!, trueOmegaM = x[1]!, Ts = x[6]!;
     this.thetaUnwrapped += wrapToPi(trueThetaE - this.lastTheta);
     this.lastTheta = trueThetaE;
     const thetaM = this.thetaUnwrapped / this.polePairs;

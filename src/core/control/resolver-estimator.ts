@@ -19,10 +19,10 @@
  * sample to the next. No allocation per sample.
  */
 import type { ResolverAngle } from './angle-spec';
-import { wrapToPi, type AngleEstimator } from './angle-estimator';
+import { wrapToPi, SampledAngleEstimator } from './angle-estimator';
 import { Type2Pll, type2PllGains, type2PllNaturalFrequency } from './type2-pll';
 
-export class ResolverEstimator implements AngleEstimator {
+export class ResolverEstimator extends SampledAngleEstimator {
   thetaE = 0;
   omegaE = 0;
   /** the tracking loop (resolver electrical angle and speed) */
@@ -38,6 +38,7 @@ export class ResolverEstimator implements AngleEstimator {
   private lastTheta = 0;
 
   constructor(spec: ResolverAngle, private readonly polePairs: number) {
+    super();
     const pr = spec.polePairs ?? 1;
     this.ratio = polePairs / pr;
     const wn = type2PllNaturalFrequency(2 * Math.PI * spec.bandwidth_Hz, spec.damping);
@@ -54,7 +55,10 @@ export class ResolverEstimator implements AngleEstimator {
     this.publish();
   }
 
-  sample(trueThetaE: number, _trueOmegaM: number, _ia: number, _ib: number, _va: number, _vb: number, Ts: number): void {
+  /** One period from `input` (see SampledAngleEstimator): the true angle, Ts. */
+  sampleFromInput(): void {
+    const x = this.input;
+    const trueThetaE = x[0]!, Ts = x[6]!;
     this.thetaR += wrapToPi(trueThetaE - this.lastTheta) / this.ratio;
     this.lastTheta = trueThetaE;
     const th = this.thetaR;

@@ -23,7 +23,7 @@ import type { MachineInput } from '../machine/machine-model';
 import { isMachineModel } from '../machine/machine-model';
 import type { SensorlessAngle } from './angle-spec';
 import { ActiveFluxObserver, correctionGains, defaultCorrection_Hz } from './sensorless-active-flux';
-import type { AngleEstimator } from './angle-estimator';
+import { SampledAngleEstimator } from './angle-estimator';
 import { wrapToPi as wrapAngle } from './angle-estimator';
 import { Type2Pll } from './type2-pll';
 import { OpenLoopStartup, STARTUP_DONE, STARTUP_OPEN_LOOP } from './sensorless-startup';
@@ -75,7 +75,7 @@ function checkSpec(spec: SensorlessAngle, opts: SensorlessOptions): void {
   if (!(opts.startupCurrent_A >= 0)) throw new InputError(`${F}.startupCurrent_A`, 'must be >= 0 A');
 }
 
-export class SensorlessEstimator implements AngleEstimator {
+export class SensorlessEstimator extends SampledAngleEstimator {
   /** the angle and electrical speed the controller gets, rad (in [-pi, pi]) and rad/s */
   thetaE = 0.5;
   omegaE = 0.5;
@@ -91,6 +91,7 @@ export class SensorlessEstimator implements AngleEstimator {
   private readonly handoverE: number;
 
   constructor(readonly spec: SensorlessAngle, machine: MachineInput, opts: SensorlessOptions) {
+    super();
     checkSpec(spec, opts);
     this.terms = observerTerms(spec, machine);
     const g = correctionGains(opts.correction_Hz ?? defaultCorrection_Hz(spec.bandwidth_Hz));
@@ -138,23 +139,6 @@ export class SensorlessEstimator implements AngleEstimator {
   /** the open-loop current amplitude while open loop, else 0 */
   get startupCurrent_A(): number {
     return this.startup.current_A;
-  }
-
-  /**
-   * The inputs of one period for `sampleFromInput`: [trueThetaE, trueOmegaM, i_alpha, i_beta,
-   * v_alpha, v_beta, Ts] (a hot loop writes them here, so no double is boxed at the call, as the
-   * controller's `stepSampled` does).
-   */
-  readonly input = new Float64Array(7);
-
-  /**
-   * One control period: true angle and mechanical speed (only for the loss-of-lock monitor), the
-   * measured currents at this sample, the voltage held over the period that ends here, Ts.
-   */
-  sample(trueThetaE: number, trueOmegaM: number, ia: number, ib: number, va: number, vb: number, Ts: number): void {
-    const x = this.input;
-    x[0] = trueThetaE; x[1] = trueOmegaM; x[2] = ia; x[3] = ib; x[4] = va; x[5] = vb; x[6] = Ts;
-    this.sampleFromInput();
   }
 
   /** `sample` with its inputs already written into `this.input`. */

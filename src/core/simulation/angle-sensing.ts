@@ -17,7 +17,7 @@
  * controller ask the start-up current on the q axis of the estimated frame (d reference 0) and, at
  * hand-over, starts the speed PI's integrator from the torque of the q current the start-up gave.
  */
-import type { AngleEstimator } from '../control/angle-estimator';
+import type { SampledAngleEstimator } from '../control/angle-estimator';
 import { wrapToPi } from '../control/angle-estimator';
 import { SensorlessEstimator } from '../control/sensorless-estimator';
 import type { CascadeController } from '../control/controller';
@@ -48,7 +48,7 @@ export class AngleSensing {
   private wasOpen = false;
 
   /** samples: the recorder's count (periods + 1); maxPoints: its decimation; model: the torque at hand-over (sensorless) */
-  constructor(readonly estimator: AngleEstimator, private readonly polePairs: number, private readonly Ts: number, samples: number, maxPoints: number, private readonly model?: MachineModel) {
+  constructor(readonly estimator: SampledAngleEstimator, private readonly polePairs: number, private readonly Ts: number, samples: number, maxPoints: number, private readonly model?: MachineModel) {
     this.dec = new StreamingMinMax(ANGLE_TRACE_NAMES.length, samples, maxPoints);
     // the steady-state window is 5 % of the run (or 2 periods): the ring holds a little more
     this.ripple = new SteadyStateTracker(Math.ceil(0.05 * samples) + 8);
@@ -98,7 +98,9 @@ export class AngleSensing {
     const ia = id * c - iq * s;
     const ib = id * s + iq * c;
     const est = this.estimator;
-    est.sample(th, yi[OMEGA]!, ia, ib, vab[0]!, vab[1]!, this.Ts);
+    const x = est.input; // no double crosses the call (see SampledAngleEstimator)
+    x[0] = th; x[1] = yi[OMEGA]!; x[2] = ia; x[3] = ib; x[4] = vab[0]!; x[5] = vab[1]!; x[6] = this.Ts;
+    est.sampleFromInput();
     const h = est.thetaE;
     const ch = Math.cos(h), sh = Math.sin(h);
     smp[1] = ia * ch + ib * sh;
