@@ -4,10 +4,10 @@
 // read and load the project; started with the map instead, a worker joined it 100+ ms late. This
 // module imports little (argument parsing and the worker start), so that it runs first in the bundle.
 import type { Worker } from 'node:worker_threads';
-import { existsSync } from 'node:fs';
 import { numberFlag, parseArgs, stringFlag, type ParsedArgs } from './args';
 import type { Corner } from './efficiency-grid';
-import { startWorkers, type WorkerScript } from '../node/worker-pool';
+import type { WorkerScript } from '../node/worker-pool';
+import { cliWorkerScript, EarlyWorkers } from './early-workers';
 
 /** The workerData that marks an efficiency-map worker. */
 export const MAP_WORKER_TASK = 'torquewise-efficiency-map';
@@ -25,10 +25,7 @@ export interface MapWorkerData {
  * or, without it, this very file; from the sources, a fixed bootstrap that loads src/cli/bin.ts through tsx.
  */
 export function workerScript(): WorkerScript {
-  const here = import.meta.url;
-  if (/\.ts$/.test(here)) return { script: new URL('./efficiency-worker-source.mjs', here) };
-  const lean = new URL('./efficiency-worker.mjs', here);
-  return { script: lean.protocol === 'file:' && existsSync(lean) ? lean : new URL(here) };
+  return cliWorkerScript(import.meta.url, './efficiency-worker-source.mjs');
 }
 
 /**
@@ -51,7 +48,7 @@ export function mapGridFlags(args: ParsedArgs): { nS: number; nT: number; thread
 }
 
 /** Workers this process started at its entry for its efficiency command, not yet taken. */
-let early: Array<{ worker: Worker; alive: boolean }> = [];
+const early = new EarlyWorkers();
 
 /**
  * For an `efficiency` command line that will use more than one thread, starts its workers now (each
@@ -69,21 +66,10 @@ export function prestartMapWorkers(argv: readonly string[]): void {
   } catch {
     return; // bad input: the command reports it
   }
-  if (threads <= 1) return;
-  early = startWorkers(workerScript(), data, threads - 1).map((worker) => {
-    const e = { worker, alive: true };
-    worker.unref();
-    worker.on('error', () => (e.alive = false));
-    worker.on('exit', () => (e.alive = false));
-    return e;
-  });
+  if (threads > 1) early.start(workerScript(), data, threads - 1);
 }
 
 /** `n` workers for a map: those started early (still alive) first, then new ones; the early ones left over are ended. */
 export function takeMapWorkers(n: number): Worker[] {
-  const taken = early.filter((e) => e.alive).map((e) => e.worker).slice(0, n);
-  for (const e of early) if (!taken.includes(e.worker)) void e.worker.terminate();
-  early = [];
-  for (const w of taken) w.ref();
-  return [...taken, ...startWorkers(workerScript(), { task: MAP_WORKER_TASK } satisfies MapWorkerData, n - taken.length)];
+  return early.take(n, workerScript(), { task: MAP_WORKER_TASK } satisfies MapWorkerData);
 }

@@ -5,9 +5,9 @@
 // the main thread's own instead of delaying the samples. This module imports little (argument
 // parsing and the worker start), so that it runs first in the bundle.
 import type { Worker } from 'node:worker_threads';
-import { existsSync } from 'node:fs';
 import { numberFlag, parseArgs } from './args';
-import { startWorkers, type WorkerScript } from '../node/worker-pool';
+import type { WorkerScript } from '../node/worker-pool';
+import { cliWorkerScript, EarlyWorkers } from './early-workers';
 
 /** The workerData that marks a tolerance-sample worker. */
 export const TOLERANCE_WORKER_TASK = 'torquewise-tolerance-sample';
@@ -26,10 +26,7 @@ export interface ToleranceWorkerData {
  * fixed bootstrap that loads src/cli/bin.ts through tsx.
  */
 export function toleranceWorkerScript(): WorkerScript {
-  const here = import.meta.url;
-  if (/\.ts$/.test(here)) return { script: new URL('./tolerance-worker-source.mjs', here) };
-  const lean = new URL('./efficiency-worker.mjs', here);
-  return { script: lean.protocol === 'file:' && existsSync(lean) ? lean : new URL(here) };
+  return cliWorkerScript(import.meta.url, './tolerance-worker-source.mjs');
 }
 
 /**
@@ -49,31 +46,20 @@ export function tolerancePrestartPlan(argv: readonly string[]): { workers: numbe
 }
 
 /** Workers this process started at its entry for its tolerance-sample command, not yet taken. */
-let early: Array<{ worker: Worker; alive: boolean }> = [];
+const early = new EarlyWorkers();
 
 /** Starts the workers of tolerancePrestartPlan now. They hold no process open (unref) until the run takes them. */
 export function prestartToleranceWorkers(argv: readonly string[]): void {
   const plan = tolerancePrestartPlan(argv);
-  if (plan === null) return;
-  early = startWorkers(toleranceWorkerScript(), plan.data, plan.workers).map((worker) => {
-    const e = { worker, alive: true };
-    worker.unref();
-    worker.on('error', () => (e.alive = false));
-    worker.on('exit', () => (e.alive = false));
-    return e;
-  });
+  if (plan !== null) early.start(toleranceWorkerScript(), plan.data, plan.workers);
 }
 
 /** Workers started early and still alive, not yet taken. */
 export function prestartedToleranceWorkers(): number {
-  return early.filter((e) => e.alive).length;
+  return early.alive();
 }
 
 /** `n` workers for a run: those started early (still alive) first, then new ones; the early ones left over are ended. */
 export function takeToleranceWorkers(n: number): Worker[] {
-  const taken = early.filter((e) => e.alive).map((e) => e.worker).slice(0, n);
-  for (const e of early) if (!taken.includes(e.worker)) void e.worker.terminate();
-  early = [];
-  for (const w of taken) w.ref();
-  return [...taken, ...startWorkers(toleranceWorkerScript(), { task: TOLERANCE_WORKER_TASK } satisfies ToleranceWorkerData, n - taken.length)];
+  return early.take(n, toleranceWorkerScript(), { task: TOLERANCE_WORKER_TASK } satisfies ToleranceWorkerData);
 }

@@ -301,12 +301,15 @@ export class SteadyStateTracker {
     this.n++;
   }
 
+  /** the sample of `push` as `take` reads it */
+  private readonly one = new Float64Array(3);
+
   push(t: number, ref: number, y: number): void {
-    const c = this.t.length;
-    const j = this.n % c;
-    this.t[j] = t;
-    this.d[j] = ref - y;
-    this.n++;
+    const o = this.one;
+    o[0] = t;
+    o[1] = ref;
+    o[2] = y;
+    this.take(o);
   }
 
   result(window: number): number | null {
