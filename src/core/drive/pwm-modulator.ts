@@ -28,15 +28,20 @@ const INV_SQRT3 = 1 / Math.sqrt(3);
  */
 export function legDuties(valpha: number, vbeta: number, Vdc: number, modulation: PwmModulation, d: Float64Array): void {
   d[0] = valpha;
-  d[1] = -0.5 * valpha + SQRT3_2 * vbeta;
-  d[2] = -0.5 * valpha - SQRT3_2 * vbeta;
-  dutiesOfPhases(Vdc, modulation, d);
+  d[1] = vbeta;
+  dutiesOfAlphaBeta(Vdc, modulation, d);
 }
 
 /** `legDuties(vab[0], vab[1], ...)`: the reference read from an array (no double crosses a call). */
 export function legDutiesOf(vab: Float64Array, Vdc: number, modulation: PwmModulation, d: Float64Array): void {
-  const valpha = vab[0]!, vbeta = vab[1]!;
-  d[0] = valpha;
+  d[0] = vab[0]!;
+  d[1] = vab[1]!;
+  dutiesOfAlphaBeta(Vdc, modulation, d);
+}
+
+/** The duties, in place, from the stationary-frame reference (alpha, beta) in d[0], d[1]. */
+function dutiesOfAlphaBeta(Vdc: number, modulation: PwmModulation, d: Float64Array): void {
+  const valpha = d[0]!, vbeta = d[1]!;
   d[1] = -0.5 * valpha + SQRT3_2 * vbeta;
   d[2] = -0.5 * valpha - SQRT3_2 * vbeta;
   dutiesOfPhases(Vdc, modulation, d);
