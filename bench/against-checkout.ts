@@ -48,13 +48,13 @@ function timeIt(f: () => void, reps: number, rounds: number, warm: number): numb
 }
 
 /** In the child: time one engine (root) on one demo, print {envelope_ms, simulation_ms} as JSON. */
-async function child(root: string, demo: string, envelopeToo = true): Promise<void> {
+async function child(root: string, demo: string, envelopeToo = true, demoRoot = root): Promise<void> {
   type P = { hot: unknown; peak: unknown };
   const load = (await pick(root, ['src/core/project/project.ts', 'src/core/project.ts'], 'loadProjectText')) as unknown as (t: string) => P;
   const envelope = (await pick(root, ['src/core/steady-state/envelope.ts', 'src/core/envelope.ts'], 'computeEnvelope')) as unknown as (m: unknown, l: unknown, o: unknown) => void;
   const setup = (await pick(root, ['src/core/project/simulation-from-project.ts', 'src/core/simulation/simulate.ts', 'src/core/simulate.ts'], 'simulationFromProject')) as unknown as (p: P) => unknown;
   const run = (await pick(root, ['src/core/simulation/simulate.ts', 'src/core/simulate.ts'], 'runSimulation')) as unknown as (s: unknown, o: unknown) => void;
-  const p = load(readFileSync(join(root, 'resources', `${demo}.json`), 'utf8'));
+  const p = load(readFileSync(join(demoRoot, 'resources', `${demo}.json`), 'utf8'));
   const s = setup(p);
   const envelope_ms = envelopeToo ? timeIt(() => envelope(p.hot, p.peak, { points: 400 }), 20, 15, 40) : NaN;
   const simulation_ms = timeIt(() => run(s, { wallBudget_s: 600 }), 1, 15, 8);
@@ -81,10 +81,14 @@ async function bundleCurrent(root: string): Promise<boolean> {
   return mod.staleReason(join(root, 'out', 'cli', 'torquewise.mjs'), mod.bundleInputs(root)) === '';
 }
 
-export function againstCheckout(dir: string, only = ''): BenchSection {
+/**
+ * sameDemos: both engines run the other checkout's demo files (like for like: the demos of this tree
+ * may carry what the other engine does not have, e.g. an angle sensor)
+ */
+export function againstCheckout(dir: string, only = '', sameDemos = false): BenchSection {
   const want = (name: string): boolean => only === '' || name.toLowerCase().includes(only);
   return {
-    name: `against checkout ${dir}${only ? ` (only ${only})` : ''}`,
+    name: `against checkout ${dir}${only ? ` (only ${only})` : ''}${sameDemos ? ', both on its demo files' : ''}`,
     async run() {
       const here = resolve(import.meta.dirname, '..');
       const there = resolve(dir);
@@ -92,20 +96,20 @@ export function againstCheckout(dir: string, only = ''): BenchSection {
       const tsx = join(here, 'node_modules', 'tsx', 'dist', 'cli.mjs');
       const child = (args: string[]): Row => JSON.parse(execFileSync(process.execPath, [tsx, self, ...args], { encoding: 'utf8', maxBuffer: 1 << 26 })) as Row;
       const sim = want('simulation');
-      if (sim) {
+      if (sim && !sameDemos) {
         const { ensureBundle } = (await import(pathToFileURL(join(here, 'scripts', 'cli-bundle.mjs')).href)) as { ensureBundle: () => string };
         const failed = ensureBundle();
         if (failed !== '') throw new Error(`this tree's command line could not be built: ${failed}`);
       }
-      const theirCli = sim && (await bundleCurrent(there));
+      const theirCli = sim && !sameDemos && (await bundleCurrent(there));
       for (const demo of DEMOS) {
         const got: Record<'ours' | 'theirs', Row[]> = { ours: [], theirs: [] };
         for (let k = 0; k < PROCESSES; k++) {
           const order: Array<['ours' | 'theirs', string]> = k % 2 ? [['theirs', there], ['ours', here]] : [['ours', here], ['theirs', there]];
           for (const [who, root] of order) {
             const row: Row = {};
-            if (want('envelope') || want('simulation')) Object.assign(row, child(['--child', root, demo, want('envelope') ? 'envelope' : 'no-envelope']));
-            if (sim) {
+            if (want('envelope') || want('simulation')) Object.assign(row, child(['--child', root, demo, want('envelope') ? 'envelope' : 'no-envelope', sameDemos ? there : root]));
+            if (sim && !sameDemos) {
               Object.assign(row, child(['--child-parts', root, demo]), child(['--child-table', root, demo]));
               const c = who === 'ours' || theirCli ? cliSimulate(root, demo) : null;
               if (c) { row.cli_whole_ms = c.whole_ms; row.cli_run_ms = c.run_ms; }
@@ -132,7 +136,7 @@ export function againstCheckout(dir: string, only = ''): BenchSection {
           const theirs = b.length ? `, theirs ${median(b).toFixed(d)} [${range(b, d)}], ratio theirs/ours ${(median(b) / median(a)).toFixed(2)}` : ', theirs not measured (no current bundle)';
           console.log(`  ${label}: ours ${median(a).toFixed(d)} [${range(a, d)}]${theirs}`);
         }
-        if (sim && demo === 'demo-ipm-traction') {
+        if (sim && !sameDemos && demo === 'demo-ipm-traction') {
           const whole = median(got.ours.map((g) => g.cli_whole_ms!));
           const steady = 1000 / median(got.ours.map((g) => g.simulation_ms!));
           const cold = 1000 / median(got.ours.map((g) => g.cli_run_ms!));
@@ -144,7 +148,7 @@ export function againstCheckout(dir: string, only = ''): BenchSection {
 }
 
 const ci = process.argv.indexOf('--child');
-if (ci >= 0) await child(process.argv[ci + 1]!, process.argv[ci + 2]!, process.argv[ci + 3] !== 'no-envelope');
+if (ci >= 0) await child(process.argv[ci + 1]!, process.argv[ci + 2]!, process.argv[ci + 3] !== 'no-envelope', process.argv[ci + 4] ?? process.argv[ci + 1]!);
 const cp = process.argv.indexOf('--child-parts');
 if (cp >= 0) {
   const r = await partsTiming(process.argv[cp + 1]!, process.argv[cp + 2]!);

@@ -1,7 +1,8 @@
 /**
  * `npm run bench`: speed figures as ratios against baselines computed in the same run.
  * Each section is a module with a name and a run(); add a section by adding it to the list.
- * `--against DIR` times this tree's envelope and simulation against another checkout (see against-checkout.ts).
+ * `--against DIR` times this tree's envelope and simulation against another checkout (see against-checkout.ts);
+ * with `--same-demos` both run that checkout's demo files (like for like).
  * `--only WORD` runs only the sections whose name contains WORD (e.g. `npm run bench -- --only simulation`).
  */
 import { envelopeBench } from './envelope';
@@ -30,7 +31,7 @@ const onlyAt = argv.indexOf('--only');
 const only = onlyAt >= 0 ? (argv[onlyAt + 1] ?? '').toLowerCase() : '';
 const againstAt = argv.indexOf('--against');
 const against = againstAt >= 0 ? argv[againstAt + 1] : undefined;
-const chosen = against ? [againstCheckout(against, only)] : only ? sections.filter((s) => s.name.toLowerCase().includes(only)) : sections;
+const chosen = against ? [againstCheckout(against, only, argv.includes('--same-demos'))] : only ? sections.filter((s) => s.name.toLowerCase().includes(only)) : sections;
 if (chosen.length === 0) console.log(`no bench section matches "${only}": ${sections.map((s) => s.name).join('; ')}`);
 
 for (const s of chosen) {
