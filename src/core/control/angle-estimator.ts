@@ -45,7 +45,13 @@ export abstract class SampledAngleEstimator implements AngleEstimator {
 
 const TWO_PI = 2 * Math.PI;
 
-/** An angle wrapped to [-pi, pi] (x - 2 pi round(x / 2 pi)). */
+/**
+ * An angle wrapped to [-pi, pi] (x - 2 pi round(x / 2 pi)). Where the rounding's result is plain
+ * without the division (|x| < 3.14: 0; 3.15 < |x| < 9.42: +-1) the same value is computed without it.
+ */
 export function wrapToPi(x: number): number {
+  if (x > -3.14 && x < 3.14) return x;
+  if (x > 3.15 && x < 9.42) return x - TWO_PI;
+  if (x < -3.15 && x > -9.42) return x + TWO_PI;
   return x - TWO_PI * Math.round(x / TWO_PI);
 }

@@ -6,8 +6,9 @@
  * currents in the estimated frame, the estimated angle (its cos and sin) and the estimated speed.
  *
  * It keeps the run's angle error (estimated minus true electrical angle, wrapped to [-pi, pi]): its
- * rms and peak over every sample, and two decimated traces on the recorder's time axis,
- * `thetaError_rad` and `speedEstimate_rpm`. And the speed estimate's ripple: the rms of the
+ * rms and peak over every sample; the last sample's error and speed estimate are the traces
+ * `thetaError_rad` and `speedEstimate_rpm`, which the run's recorder writes into its own rows
+ * (recorder.ts: one decimator for every channel). And the speed estimate's ripple: the rms of the
  * estimated minus the true mechanical speed over the run's steady-state window (its last 5 %, or two
  * periods, as the steady-state speed error), where a speed step's lag has passed and what is left
  * is the estimator's noise (quantisation, ripple); a sensorless start-up's open-loop samples are
@@ -23,7 +24,6 @@ import { SensorlessEstimator } from '../control/sensorless-estimator';
 import type { CascadeController } from '../control/controller';
 import type { MachineModel } from '../machine/machine-model';
 import { RAD_S_TO_RPM } from '../base/units';
-import { StreamingMinMax } from './decimate';
 import { SteadyStateTracker } from './metrics';
 import { I_D, I_Q, OMEGA, THETA } from './plant';
 
@@ -36,20 +36,17 @@ export class AngleSensing {
   private sumE2 = 0;
   private peak = 0;
   private n = 0;
-  /** the last sample's speed-estimate error squared, rpm^2 (NaN: no fresh sample to record) */
-  private w2 = Number.NaN;
+  /** the last sample's speed estimate (mechanical), rpm */
+  speedEstimate_rpm = 0;
   private readonly ripple: SteadyStateTracker;
-  private tLast = 0;
   /** the ripple tracker's sample (time, error squared, 0), handed over unboxed */
   private readonly rs = new Float64Array(3);
-  private readonly dec: StreamingMinMax;
   /** the estimator when it is sensorless (its start-up and its lock), else null */
   readonly sensorless: SensorlessEstimator | null;
   private wasOpen = false;
 
-  /** samples: the recorder's count (periods + 1); maxPoints: its decimation; model: the torque at hand-over (sensorless) */
-  constructor(readonly estimator: SampledAngleEstimator, private readonly polePairs: number, private readonly Ts: number, samples: number, maxPoints: number, private readonly model?: MachineModel) {
-    this.dec = new StreamingMinMax(ANGLE_TRACE_NAMES.length, samples, maxPoints);
+  /** samples: the recorder's count (periods + 1); model: the torque at hand-over (sensorless) */
+  constructor(readonly estimator: SampledAngleEstimator, private readonly polePairs: number, private readonly Ts: number, samples: number, private readonly model?: MachineModel) {
     // the steady-state window is 5 % of the run (or 2 periods): the ring holds a little more
     this.ripple = new SteadyStateTracker(Math.ceil(0.05 * samples) + 8);
     this.sensorless = estimator instanceof SensorlessEstimator ? estimator : null;
@@ -81,17 +78,18 @@ export class AngleSensing {
   }
 
   /**
-   * Sample the estimator with the state yi (currents, speed, angle; c, s the cos and sin of its
-   * angle) and the voltage vab of the period that ends, and write the controller's sample
-   * smp[1..6] = (id, iq, omega_m, theta, cos theta, sin theta) as the controller sees them.
+   * Sample the estimator at time t with the state yi (currents, speed, angle; c, s the cos and sin
+   * of its angle) and the voltage vab of the period that ends, and write the controller's sample
+   * smp[0..6] = (t, id, iq, omega_m, theta, cos theta, sin theta) as the controller sees them.
    */
-  sample(yi: Float64Array, c: number, s: number, vab: Float64Array, smp: Float64Array): void {
+  sample(t: number, yi: Float64Array, c: number, s: number, vab: Float64Array, smp: Float64Array): void {
+    smp[0] = t;
     smp[5] = c;
     smp[6] = s;
     this.sampleFrom(yi, vab, smp);
   }
 
-  /** `sample` with the true angle's cos and sin in smp[5], smp[6] (no double crosses the call). */
+  /** `sample` with the time in smp[0] and the true angle's cos and sin in smp[5], smp[6] (no double crosses the call). */
   sampleFrom(yi: Float64Array, vab: Float64Array, smp: Float64Array): void {
     const c = smp[5]!, s = smp[6]!;
     const id = yi[I_D]!, iq = yi[I_Q]!, th = yi[THETA]!;
@@ -105,7 +103,8 @@ export class AngleSensing {
     const ch = Math.cos(h), sh = Math.sin(h);
     smp[1] = ia * ch + ib * sh;
     smp[2] = -ia * sh + ib * ch;
-    smp[3] = est.omegaE / this.polePairs;
+    const wHat = est.omegaE / this.polePairs;
+    smp[3] = wHat;
     smp[4] = h; smp[5] = ch; smp[6] = sh;
     const e = wrapToPi(h - th);
     this.error = e;
@@ -115,55 +114,29 @@ export class AngleSensing {
       const a = e < 0 ? -e : e;
       if (a > this.peak) this.peak = a;
     }
-    const w = (est.omegaE / this.polePairs - yi[OMEGA]!) * RAD_S_TO_RPM;
-    this.w2 = this.sensorless !== null && this.sensorless.openLoop ? Number.NaN : w * w;
+    this.speedEstimate_rpm = wHat * RAD_S_TO_RPM;
+    // the ripple's sample, but not from a sensorless start-up (its estimate steers nothing then)
+    if (this.sensorless === null || !this.sensorless.openLoop) {
+      const w = (wHat - yi[OMEGA]!) * RAD_S_TO_RPM;
+      const rs = this.rs;
+      rs[0] = smp[0]!;
+      rs[1] = w * w;
+      if (Number.isFinite(rs[1])) this.ripple.take(rs);
+    }
   }
 
-  /** the sample at time t into the traces (the recorder's instants) */
-  record(t: number): void {
-    const dec = this.dec;
-    dec.time[0] = t;
-    this.recordAt();
-  }
-
-  /** `record` at the decimator's time[0] (a loop hands its time over unboxed: `recordTime`). */
-  recordAt(): void {
-    const rs = this.rs;
-    rs[0] = this.dec.time[0]!;
-    if (Number.isFinite(this.w2)) { rs[1] = this.w2; this.ripple.take(rs); }
-    this.w2 = Number.NaN;
-    this.tLast = rs[0]!;
-    const o = this.dec.slotAt();
-    if (o < 0) return;
-    const buf = this.dec.buf;
-    buf[o] = this.error;
-    buf[o + 1] = (this.estimator.omegaE / this.polePairs) * RAD_S_TO_RPM;
-    this.dec.commit();
-  }
-
-  /** the array `recordAt` takes its time from */
-  get recordTime(): Float64Array {
-    return this.dec.time;
-  }
-
-  metrics(): { angleErrorRms_rad: number | null; angleErrorPeak_rad: number | null; speedEstimateRipple_rpm: number | null } {
+  /** tLast: the run's last recorded instant, s (the steady-state window is the last 5 % of the run) */
+  metrics(tLast: number): { angleErrorRms_rad: number | null; angleErrorPeak_rad: number | null; speedEstimateRipple_rpm: number | null } {
     return {
       angleErrorRms_rad: this.n > 0 ? Math.sqrt(this.sumE2 / this.n) : null,
       angleErrorPeak_rad: this.n > 0 ? this.peak : null,
-      speedEstimateRipple_rpm: this.rippleRms(),
+      speedEstimateRipple_rpm: this.rippleRms(tLast),
     };
   }
 
   /** the rms speed-estimate error over the steady-state window, rpm (null before any closed-loop sample) */
-  private rippleRms(): number | null {
-    const m = this.ripple.result(Math.max(0.05 * this.tLast, 2 * this.Ts));
+  private rippleRms(tLast: number): number | null {
+    const m = this.ripple.result(Math.max(0.05 * tLast, 2 * this.Ts));
     return m === null ? null : Math.sqrt(m);
-  }
-
-  /** the decimated traces; non-finite samples become 0 */
-  traces(): Record<AngleTraceName, Float64Array> {
-    const d = this.dec.finish();
-    for (const a of d.channels) for (let j = 0; j < a.length; j++) if (!Number.isFinite(a[j]!)) a[j] = 0;
-    return { thetaError_rad: d.channels[0]!, speedEstimate_rpm: d.channels[1]! };
   }
 }

@@ -285,6 +285,8 @@ export class SteadyStateTracker {
   private readonly t: Float64Array;
   private readonly d: Float64Array;
   private n = 0;
+  /** the ring's next slot, n mod capacity (kept apart: no integer division per sample) */
+  private j = 0;
 
   constructor(readonly capacity: number) {
     const c = Math.max(2, Math.ceil(capacity));
@@ -294,10 +296,10 @@ export class SteadyStateTracker {
 
   /** The sample [t, reference, y] (doubles in the array: never boxed). */
   take(s: Float64Array): void {
-    const c = this.t.length;
-    const j = this.n % c;
+    const j = this.j;
     this.t[j] = s[0]!;
     this.d[j] = s[1]! - s[2]!;
+    this.j = j + 1 === this.t.length ? 0 : j + 1;
     this.n++;
   }
 

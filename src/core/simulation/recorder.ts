@@ -3,7 +3,9 @@
  * (and at the end), fed at once to a streaming min/max decimator sized from the number of periods
  * and `maxPoints`, and to the streaming trackers of the speed metrics that need full-rate samples
  * (step response, load steps, steady-state error), so the memory of a run does not grow with its
- * length. The row layout follows TRACE_NAMES (channel c at row index c - 1; t_s is the time axis).
+ * length. The row layout follows TRACE_NAMES (channel c at row index c - 1; t_s is the time axis);
+ * with an angle source (angle-sensing.ts) the row goes on with ANGLE_TRACE_NAMES, its last sample's
+ * angle error and speed estimate: one decimator for every channel.
  */
 import { I_D, I_Q, OMEGA, THETA } from './plant';
 import type { Plant } from './plant';
@@ -16,6 +18,7 @@ import { StreamingMinMax } from './decimate';
 import { StepResponseTracker, LoadStepTracker, SteadyStateTracker, finiteOrNull } from './metrics';
 import { RAD_S_TO_RPM } from '../base/units';
 import type { AnySetup } from './simulation-setup';
+import { ANGLE_TRACE_NAMES, type AngleSensing } from './angle-sensing';
 import { TRACE_NAMES, type LoadStepResult, type TraceName, type Traces } from './simulation-result';
 
 /** A load step is read only from a settled speed: within SETTLED_FRACTION of the reference, and at least this, rpm. */
@@ -41,6 +44,9 @@ const VQ = channel('vq_V');
 const VNORM = channel('vNorm');
 const IA = channel('ia_A'); // ib_A and ic_A follow
 const PDC = channel('pDc_W');
+/** the angle source's channels follow TRACE_NAMES' */
+const ANGLE_ERROR = TRACE_NAMES.length - 1;
+const SPEED_ESTIMATE = ANGLE_ERROR + 1;
 
 export function scheduleBefore(steps: ReadonlyArray<{ t: number; v: number }>, t: number, initial: number): number {
   let v = initial;
@@ -89,10 +95,11 @@ export class TraceRecorder {
   private readonly circle: boolean;
   private readonly vRadius: number;
 
-  constructor(private readonly setup: AnySetup, private readonly model: MachineModel, private readonly plant: Plant, private readonly ctrl: CascadeController, periods: number, maxPoints: number) {
+  /** angle: the run's angle source (null: the true angle, no angle channels) */
+  constructor(private readonly setup: AnySetup, private readonly model: MachineModel, private readonly plant: Plant, private readonly ctrl: CascadeController, periods: number, maxPoints: number, private readonly angle: AngleSensing | null = null) {
     this.cap = periods + 1;
     this.Ts = setup.controller.Ts;
-    const nch = TRACE_NAMES.length - 1;
+    const nch = TRACE_NAMES.length - 1 + (angle !== null ? ANGLE_TRACE_NAMES.length : 0);
     this.dec = new StreamingMinMax(nch, this.cap, maxPoints);
     this.buf = this.dec.buf;
     const vspec = setup.controller.voltage;
@@ -181,6 +188,11 @@ export class TraceRecorder {
     }
     row[o + VD] = va * cm + vb * sm;
     row[o + VQ] = -va * sm + vb * cm;
+    const a = this.angle;
+    if (a !== null) {
+      row[o + ANGLE_ERROR] = a.error;
+      row[o + SPEED_ESTIMATE] = a.speedEstimate_rpm;
+    }
     dec.commit();
   }
 
@@ -230,15 +242,16 @@ export class TraceRecorder {
     });
   }
 
-  /** The decimated traces; non-finite samples (a divergence) become 0 so no NaN escapes. */
+  /** The decimated traces (the angle source's after TRACE_NAMES'); non-finite samples (a divergence) become 0 so no NaN escapes. */
   traces(): Traces {
     const decd = this.dec.finish();
     const traces = { t_s: decd.t } as Traces;
-    for (let i = 1; i < TRACE_NAMES.length; i++) {
-      const a = decd.channels[i - 1]!;
+    const names = this.angle !== null ? [...TRACE_NAMES.slice(1), ...ANGLE_TRACE_NAMES] : TRACE_NAMES.slice(1);
+    names.forEach((name, c) => {
+      const a = decd.channels[c]!;
       for (let j = 0; j < a.length; j++) if (!Number.isFinite(a[j]!)) a[j] = 0;
-      traces[TRACE_NAMES[i]!] = a;
-    }
+      traces[name] = a;
+    });
     return traces;
   }
 }

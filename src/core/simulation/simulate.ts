@@ -100,10 +100,10 @@ export function runSimulation(setup: AnySetup, opts: RunOptions = {}): Simulatio
   ctrl.reset(y[OMEGA]!, y[THETA]!);
   const sw = makeSwitchingStepper(setup, plant, y);
   const stepper = sw ?? makePeriodStepper(setup, plant, y);
-  const rec = new TraceRecorder(setup, plant.model, plant, ctrl, N, o.maxPoints);
   // the angle and speed the controller sees: the true ones (ideal), else an estimator's
   const est = angleEstimatorFor(setup.angle, plant.model.polePairs, { machine: plant.model, Imax: setup.Imax, startupRamp_rpm_per_s: setup.controller.speedRamp_rad_s2 * RAD_S_TO_RPM });
-  const sensing = est ? new AngleSensing(est, plant.model.polePairs, Ts, rec.cap, o.maxPoints, plant.model) : null;
+  const sensing = est ? new AngleSensing(est, plant.model.polePairs, Ts, N + 1, plant.model) : null;
+  const rec = new TraceRecorder(setup, plant.model, plant, ctrl, N, o.maxPoints, sensing);
   if (sensing) sensing.reset(y[THETA]!, y[OMEGA]!);
   const lock = sensing?.sensorless ? new AngleLockWatch(sensing) : null;
   const hist = new Uint32Array(1025);
@@ -128,7 +128,6 @@ export function runSimulation(setup: AnySetup, opts: RunOptions = {}): Simulatio
     if (sensing) { sensing.sampleFrom(yi, vab, smp); sensing.steer(ctrl); }
     ctrl.stepSampled(vab);
     rec.record(k, yi);
-    if (sensing) { sensing.recordTime[0] = t0; sensing.recordAt(); }
     x[S_T] = t0; x[S_ID] = yi[I_D]!; x[S_IQ] = yi[I_Q]!; x[S_W] = yi[OMEGA]!;
     x[S_ID_REF] = ctrl.idRef; x[S_IQ_REF] = ctrl.iqRef; x[S_TORQUE_REF] = ctrl.torqueRef; x[S_SPEED_REF] = ctrl.speedRefOut;
     log.observe(x, ctrl.currentLimited, ctrl.voltageSaturated);
@@ -174,7 +173,7 @@ export function runSimulation(setup: AnySetup, opts: RunOptions = {}): Simulatio
     if (rec.count < rec.cap) {
       plant.setAngleOrigin(yi[THETA]!);
       // the estimator samples the end state when the plant moved on since its last sample
-      if (sensing) { if (stop === null) sensing.sample(yi, plant.c0, plant.s0, vab, smp); sensing.record(rec.count * Ts); }
+      if (sensing && stop === null) sensing.sample(rec.count * Ts, yi, plant.c0, plant.s0, vab, smp);
       rec.record(rec.count, yi);
     }
   }
@@ -200,9 +199,9 @@ export function runSimulation(setup: AnySetup, opts: RunOptions = {}): Simulatio
     voltageSaturation_s: finiteOrNull(log.satPeriods * Ts),
     energyFromBus_J: finiteOrNull(y[ENERGY]!),
     steadyStateError_rpm: finiteOrNull(m.sse),
-    ...(sensing ? sensing.metrics() : {}),
+    ...(sensing ? sensing.metrics(tLast) : {}),
   };
-  const traces = sensing ? { ...rec.traces(), ...sensing.traces() } : rec.traces();
+  const traces = rec.traces();
   const stats: SimulationStats = {
     controlSteps: periods,
     rhsEvaluations: plant.evaluations,
