@@ -74,7 +74,7 @@ export class CascadeController {
   vqCmd = 0;
   currentLimited = false;
   voltageSaturated = false;
-  private k = 0;
+  private slot = 0; // the delay line's slot of this period (the period count modulo the delay)
   private readonly bufA = new Float64Array(MAX_DELAY);
   private readonly bufB = new Float64Array(MAX_DELAY);
   private readonly tmp = new Float64Array(2);
@@ -159,7 +159,7 @@ export class CascadeController {
     const P = this.prm;
     const we = P[P_POLES]! * w0;
     const psiM = P[P_PSIM]!;
-    this.k = 0;
+    this.slot = 0;
     this.speedCounter = 0;
     this.wRefRamp = w0;
     this.wRefFilt = w0;
@@ -358,13 +358,13 @@ export class CascadeController {
       out[0] = va;
       out[1] = vb;
     } else {
-      const slot = this.k % D;
+      const slot = this.slot;
       out[0] = this.bufA[slot]!;
       out[1] = this.bufB[slot]!;
       this.bufA[slot] = va;
       this.bufB[slot] = vb;
+      this.slot = slot + 1 === D ? 0 : slot + 1;
     }
-    this.k++;
   }
 
   /**
