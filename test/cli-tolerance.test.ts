@@ -81,6 +81,17 @@ describe('tolerance-sample', () => {
     const a = await toleranceSamplesThreaded(text, file, mc, 1, { thermal: false });
     const b = await toleranceSamplesThreaded(text, file, mc, 3, { thermal: false });
     expect(b).toEqual(a);
+    // the progress told along the way (common practice, no source): never decreasing, never above the
+    // total, ending at every sample; and the samples are the same with it
+    for (const threads of [1, 3]) {
+      const told: number[] = [];
+      const c = await toleranceSamplesThreaded(text, file, mc, threads, { thermal: false, onSamples: (done, total) => { expect(total).toBe(90); told.push(done); } });
+      expect(c).toEqual(a);
+      expect(told.length).toBeGreaterThan(0);
+      for (let i = 1; i < told.length; i++) expect(told[i]!).toBeGreaterThanOrEqual(told[i - 1]!);
+      expect(Math.max(...told)).toBe(90);
+      if (threads === 1) expect(told).toEqual([10, 20, 30, 40, 50, 60, 70, 80, 90]);
+    }
   }, 120_000);
 
   it('--csv: one row per sample, its values, margins and verdicts; --seed changes the draws', async () => {

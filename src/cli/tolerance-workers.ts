@@ -122,27 +122,44 @@ function own(c: SampleChunk): SampleChunk {
   return { ...c, values: new Float64Array(c.values), margins: new Float64Array(c.margins), met: new Uint8Array(c.met) };
 }
 
+/** How often the samples done are read while this thread waits for the workers, ms. */
+const PROGRESS_POLL_MS = 200;
+
 /**
  * The samples 0..mc.samples-1 of the project: in this thread when threads <= 1, else shared in chunks
  * between this thread and threads - 1 workers (each given the project's text; `workersOnly`: `threads`
- * workers, this thread computing none). The same result for any `threads`.
+ * workers, this thread computing none). The same result for any `threads`. `onSamples(done, total)`
+ * is told the samples done by every thread: after each chunk this thread computes, and every
+ * PROGRESS_POLL_MS while it waits for the workers.
  */
-export async function toleranceSamplesThreaded(projectText: string, file: ProjectFile, mc: MonteCarloSettings, threads: number, opts: { thermal: boolean; workersOnly?: boolean }): Promise<SampleChunk> {
+export async function toleranceSamplesThreaded(projectText: string, file: ProjectFile, mc: MonteCarloSettings, threads: number, opts: { thermal: boolean; workersOnly?: boolean; onSamples?: (done: number, total: number) => void }): Promise<SampleChunk> {
   const s: Study = { text: projectText, file, params: toleranceParameters(file) };
   const n = chunks(mc.samples);
   const local = opts.workersOnly !== true;
+  const tell = opts.onSamples;
+  const samplesOf = (chunksDone: number): number => Math.min(mc.samples, chunksDone * SAMPLES_PER_CHUNK);
   if (local && (threads <= 1 || n < 2)) {
     const out = emptySampleChunk(0, mc.samples, s.params.length, file.requirements.length);
-    for (let i = 0; i < n; i++) writeChunk(s, mc, opts.thermal, out, i);
+    for (let i = 0; i < n; i++) {
+      writeChunk(s, mc, opts.thermal, out, i);
+      tell?.(samplesOf(i + 1), mc.samples);
+    }
     return out;
   }
   const workers = takeToleranceWorkers(local ? Math.min(threads - 1, n - 1) : Math.max(1, Math.min(threads, n)));
   const out = emptySampleChunk(0, mc.samples, s.params.length, file.requirements.length, (b) => new SharedArrayBuffer(b));
   const counter = rowCounter();
   const job: ToleranceWorkerJob = { projectText, mc, thermal: opts.thermal, out, counter };
+  // the chunks done by every thread (counter[1]); the one this thread has just written counts too
+  const poll = tell ? setInterval(() => tell(samplesOf(Atomics.load(counter, 1)), mc.samples), PROGRESS_POLL_MS) : undefined;
+  const mine = (i: number): void => {
+    writeChunk(s, mc, opts.thermal, out, i);
+    tell?.(samplesOf(Atomics.load(counter, 1) + 1), mc.samples);
+  };
   try {
-    await runSharedRows(workers, job, counter, n, local ? (i) => writeChunk(s, mc, opts.thermal, out, i) : undefined);
+    await runSharedRows(workers, job, counter, n, local ? mine : undefined);
   } finally {
+    if (poll !== undefined) clearInterval(poll);
     for (const w of workers) void w.terminate();
   }
   return own(out);

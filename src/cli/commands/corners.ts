@@ -3,6 +3,7 @@ import { InputError } from '../../core/base/errors';
 import { fmt, table } from '../table';
 import { toleranceCorners } from '../../core/project/tolerance-corners';
 import type { ResolvedProject } from '../../core/project/project';
+import { terminalProgress } from '../terminal-progress';
 
 /** The file's tolerances section, or an InputError saying how to give one. */
 export function requireTolerances(p: ResolvedProject, command: string): void {
@@ -11,23 +12,10 @@ export function requireTolerances(p: ResolvedProject, command: string): void {
   }
 }
 
-/**
- * Progress on a terminal: `corners: k of n (p %)` rewritten in place on standard error while the
- * corners run, cleared at the end; nothing when standard error is not a terminal (a pipe, a file, a
- * test), so what a script reads never changes.
- */
+/** Progress on a terminal: `corners: k of n (p %)` on standard error (terminal-progress.ts). */
 export function cornersProgress(err: { isTTY?: boolean; write(s: string): unknown } = process.stderr): { onCorner?: (done: number, total: number) => void; end(): void } {
-  if (err.isTTY !== true) return { end: () => undefined };
-  let shown = false;
-  return {
-    onCorner: (done, total) => {
-      shown = true;
-      err.write(`\rcorners: ${done} of ${total} (${Math.floor((100 * done) / total)} %)\u001b[K`);
-    },
-    end: () => {
-      if (shown) err.write('\r\u001b[K');
-    },
-  };
+  const p = terminalProgress('corners', err);
+  return p.onStep ? { onCorner: p.onStep, end: p.end } : { end: p.end };
 }
 
 const values = (x: Record<string, number>): string => Object.entries(x).map(([k, v]) => `${k} ${fmt(v)}`).join(', ') || 'nominal';

@@ -7,6 +7,7 @@ import { monteCarloSummary } from '../../core/reports/tolerance-statistics';
 import { toleranceSamplesThreaded } from '../tolerance-workers';
 import { requireTolerances } from './corners';
 import { sampleCsv } from '../../core/reports/tolerance-sample-csv';
+import { terminalProgress } from '../terminal-progress';
 
 export const toleranceSampleCommand: Command = {
   name: 'tolerance-sample',
@@ -27,7 +28,13 @@ export const toleranceSampleCommand: Command = {
     const labels = p.requirements.map((r) => r.label);
     const t0 = performance.now(), cpu0 = process.cpuUsage();
     // without the project's text (a library call) this thread computes every sample
-    const c = await toleranceSamplesThreaded(input?.projectText ?? '', p.file, mc, input === undefined ? 1 : threads, { thermal });
+    const progress = terminalProgress('samples');
+    let c;
+    try {
+      c = await toleranceSamplesThreaded(input?.projectText ?? '', p.file, mc, input === undefined ? 1 : threads, { thermal, ...(progress.onStep ? { onSamples: progress.onStep } : {}) });
+    } finally {
+      progress.end();
+    }
     const wall_s = (performance.now() - t0) / 1e3;
     // the CPU time of every thread of the process meanwhile (user + system): the work, whatever else the cores run
     const cpu = process.cpuUsage(cpu0), cpu_s = (cpu.user + cpu.system) / 1e6;
