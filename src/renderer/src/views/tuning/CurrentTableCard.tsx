@@ -58,7 +58,7 @@ export const CurrentTableCard = memo(function CurrentTableCard({ project }: { pr
       </div>
       {r.kind === 'running' && (
         <div className="hint" style={{ fontSize: 12, marginTop: 6 }} data-testid="ct-building">
-          <progress className="progress" data-testid="ct-progress" max={1} value={r.fraction} /> <span data-testid="ct-percent">{Math.round(r.fraction * 100)} %</span> of the speed rows solved, in the background; the header is exported when the table is done.
+          <progress className="progress" data-testid="ct-progress" max={1} value={r.fraction} /> <span data-testid="ct-percent">{Math.round(r.fraction * 100)} %</span> of the speed rows solved, in the background; the header is exported when the table is done. Leaving the Tuning view cancels the build.
         </div>
       )}
       {r.kind === 'cancelled' && <div className="hint" style={{ fontSize: 12, marginTop: 6 }} data-testid="ct-cancelled">Cancelled; nothing was exported.</div>}
