@@ -33,11 +33,14 @@ export class EncoderEstimator extends SampledAngleEstimator {
   /** the speed before the filter, mechanical rad/s */
   omegaRawM = 0;
 
-  private readonly delta: number;
-  private readonly offset: number;
-  private readonly window: number;
-  private readonly timerHz: number;
-  private readonly filterHz: number;
+  // the numbers start as numbers (a field declared without a value starts undefined, and its loads
+  // then check for a boxed number)
+  private readonly delta: number = NaN;
+  private readonly offset: number = NaN;
+  private readonly window: number = 0;
+  private readonly timerHz: number = NaN;
+  private readonly filterHz: number = NaN;
+  private readonly polePairs: number = 0;
   private readonly counts: Float64Array;
   private readonly edgeTicks: Float64Array;
   private head = 0;
@@ -50,8 +53,9 @@ export class EncoderEstimator extends SampledAngleEstimator {
   private filterGain = 1;
   private filterTs = -1;
 
-  constructor(spec: EncoderAngle, private readonly polePairs: number) {
+  constructor(spec: EncoderAngle, polePairs: number) {
     super();
+    this.polePairs = polePairs;
     this.delta = TWO_PI / (4 * spec.linesPerRev);
     this.offset = (spec.offset_deg * Math.PI) / 180;
     this.window = spec.speedWindowPeriods;

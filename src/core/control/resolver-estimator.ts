@@ -32,12 +32,14 @@ export class ResolverEstimator extends SampledAngleEstimator {
   /** the loop's estimate of the resolver's electrical angle at the sample's instant, rad in [-pi, pi] */
   thetaRHat = 0;
 
-  private readonly ratio: number;
-  private readonly gain: number;
-  private readonly phi: number;
+  // the numbers start as doubles (a field declared without a value starts undefined, and its loads
+  // then check for a boxed number)
+  private readonly ratio: number = NaN;
+  private readonly gain: number = NaN;
+  private readonly phi: number = NaN;
   private lastTheta = 0;
 
-  constructor(spec: ResolverAngle, private readonly polePairs: number) {
+  constructor(spec: ResolverAngle, polePairs: number) {
     super();
     const pr = spec.polePairs ?? 1;
     this.ratio = polePairs / pr;

@@ -46,7 +46,14 @@ export class AngleSensing {
   private wasOpen = false;
 
   /** samples: the recorder's count (periods + 1); model: the torque at hand-over (sensorless) */
-  constructor(readonly estimator: SampledAngleEstimator, private readonly polePairs: number, private readonly Ts: number, samples: number, private readonly model?: MachineModel) {
+  // the numbers below start as doubles (a field declared without a value starts undefined, and its
+  // loads then check for a boxed number)
+  private readonly polePairs: number = NaN;
+  private readonly Ts: number = NaN;
+
+  constructor(readonly estimator: SampledAngleEstimator, polePairs: number, Ts: number, samples: number, private readonly model?: MachineModel) {
+    this.polePairs = polePairs;
+    this.Ts = Ts;
     // the steady-state window is 5 % of the run (or 2 periods): the ring holds a little more
     this.ripple = new SteadyStateTracker(Math.ceil(0.05 * samples) + 8);
     this.sensorless = estimator instanceof SensorlessEstimator ? estimator : null;
