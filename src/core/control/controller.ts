@@ -94,8 +94,8 @@ export class CascadeController {
   private readonly prm = new Float64Array(P_COUNT);
   // the configuration's switches and arrays, read once
   /** 0 speed, 1 torque, 2 current-step */
-  private readonly modeN: number;
-  private readonly D: number;
+  private readonly modeN: number = 0;
+  private readonly D: number = 0;
   private readonly lin: boolean;
   private readonly sched: boolean;
   private readonly clamping: boolean;

@@ -70,7 +70,12 @@ export abstract class Stepper {
    */
   protected readonly span = new Float64Array(4);
 
-  constructor(protected readonly plant: Plant, protected readonly Ts: number) {}
+  /** the control period, s (starts as a number: a parameter property starts undefined, and its loads then check for a boxed number) */
+  protected readonly Ts: number = NaN;
+
+  constructor(protected readonly plant: Plant, Ts: number) {
+    this.Ts = Ts;
+  }
 
   /** Integrate y from t0 to t1 in place (throws StepCollapse, or the library's error on a non-finite error estimate). */
   period(y: Float64Array, t0: number, t1: number): void {
