@@ -32,7 +32,6 @@
 import { DqPropagator, cosS, sincS, coshS, sinhcS } from './dq-propagator';
 import { I_D, I_Q, OMEGA, THETA, ENERGY } from './plant';
 import type { Plant } from './plant';
-import { LinearNode } from './linear-node';
 import { Stepper, makeStepper } from './stepper';
 import type { AnySetup } from './simulation-setup';
 import { nextLoadBreak, loadLevel } from './load-schedule';
@@ -62,8 +61,6 @@ export class ExactStepper extends Stepper {
   fallbacks = 0;
   /** the propagator for the periods outside the series branch (see `exact`) */
   private readonly prop: DqPropagator;
-  /** the plant's derivative at a node (linear-node.ts) */
-  private readonly n: LinearNode;
   private readonly pp: number;
   private readonly Rs: number;
   private readonly Ld: number;
@@ -87,6 +84,15 @@ export class ExactStepper extends Stepper {
   private readonly LdS2: number;
   private readonly dL: number;
   private readonly LdLq: number;
+  // the mechanics: Coulomb friction, 1/width, viscous friction, the k omega |omega| load's k, 1/J
+  private readonly Tc: number;
+  private readonly iW: number;
+  private readonly B: number;
+  private readonly k2: number;
+  private readonly iJ: number;
+  // the load line of the current piece (LA + LB t)
+  private LA = NaN;
+  private LB = NaN;
   // what depends on the period's length alone, for the length `cDt`: e^{m h} (h = dt/2; m = tr A / 2
   // does not depend on the speed), 1/det e^{A h} = e^{-2 m h}, 1/dt (double fields start as non-integers)
   private cDt = NaN;
@@ -100,7 +106,6 @@ export class ExactStepper extends Stepper {
     super(plant, Ts);
     const m = plant.model.linear!;
     const Rs = plant.model.Rs, Ld = m.Ld, Lq = m.Lq;
-    this.n = new LinearNode(plant);
     this.prop = new DqPropagator({ Rs, Ld, Lq, psiM: m.psiM });
     this.pp = plant.model.polePairs;
     this.Rs = Rs;
@@ -126,6 +131,11 @@ export class ExactStepper extends Stepper {
     this.LdS2 = 2 * Ld * S;
     this.dL = Ld - Lq;
     this.LdLq = Ld * Lq;
+    this.Tc = pr.coulombFriction;
+    this.iW = 1 / pr.coulombWidth_rad_s;
+    this.B = pr.viscousFriction;
+    this.k2 = pr.load.quadraticK;
+    this.iJ = 1 / pr.inertia;
   }
 
   protected piece(): void {
@@ -151,8 +161,8 @@ export class ExactStepper extends Stepper {
       const d = s.times[i + 1]! - s.times[i]!;
       slope = d > 0 ? (s.levels[i + 1]! - s.levels[i]!) / d : 0;
     }
-    this.n.LB = slope;
-    this.n.LA = loadLevel(s, tm) - slope * tm;
+    this.LB = slope;
+    this.LA = loadLevel(s, tm) - slope * tm;
   }
 
   /** the terms that depend on the period's length dt alone */
@@ -175,7 +185,6 @@ export class ExactStepper extends Stepper {
   private exact(y: Float64Array): boolean {
     const t0 = this.span[0]!, t1 = this.span[1]!;
     const plant = this.plant;
-    const ag = this.arg;
     if (t0 >= this.nextBreakX) {
       this.nextBreakX = nextLoadBreak(plant.params.load, t0);
       this.loadLine(t0, Math.min(this.nextBreakX, t0 + this.Ts));
@@ -195,24 +204,35 @@ export class ExactStepper extends Stepper {
     const aw0 = w0 < 0 ? -w0 : w0;
     if ((p * aw0 > this.rate ? p * aw0 : this.rate) * dt > MAX_ANGLE) return false;
     if (!Number.isFinite(id0 + iq0 + w0 + th0 + vd0 + vq0)) return false;
-    const n = this.n;
-    ag[0] = id0; ag[1] = iq0; ag[2] = w0; ag[3] = vd0; ag[4] = vq0; ag[5] = t0;
-    n.at(ag);
-    const g0 = n.ng, gp0 = n.ngp, P0 = n.np, Pp0 = n.npp;
-    if (this.free) {
+    // the plant's derivative at the nodes (as linear-node.ts: di/dt, g = omega' and g', the power and its derivative)
+    const Rs = this.Rs, Ld = this.Ld, Lq = this.Lq, psiM = this.psiM, iLd = this.iLd, iLq = this.iLq, dL = this.dL;
+    const free = this.free, Tc = this.Tc, iW = this.iW, B = this.B, k2 = this.k2, iJ = this.iJ, kT = 1.5 * p, LA = this.LA, LB = this.LB;
+    let g0 = 0, gp0 = 0, P0 = 0, Pp0 = 0;
+    const we0 = p * w0;
+    const did0 = (vd0 - Rs * id0 + we0 * Lq * iq0) * iLd, diq0 = (vq0 - Rs * iq0 - we0 * (Ld * id0 + psiM)) * iLq;
+    P0 = 1.5 * (vd0 * id0 + vq0 * iq0); Pp0 = 1.5 * (we0 * (vq0 * id0 - vd0 * iq0) + vd0 * did0 + vq0 * diq0);
+    if (free) {
+      const aw = w0 < 0 ? -w0 : w0;
+      let fr = 0, dfr = 0;
+      if (Tc > 0) { const x = w0 * iW, r = 1 / Math.sqrt(1 + x * x); fr = Tc * x * r; dfr = Tc * r * r * r * iW; }
+      g0 = (kT * iq0 * (psiM + dL * id0) - B * w0 - fr - (LA + LB * t0) - k2 * w0 * aw) * iJ;
+      gp0 = (kT * (psiM * diq0 + dL * (did0 * iq0 + id0 * diq0)) - (B + dfr + 2 * k2 * aw) * g0 - LB) * iJ;
+    }
+    plant.evaluations++;
+    if (free) {
       const ag0 = g0 < 0 ? -g0 : g0;
       if (aw0 < 20 * this.width + 4 * ag0 * dt) return false;
     }
     // the speed profile predicted from the start's derivatives: omega0 + g0 s + g0' s^2/2
-    let wh = w0 + g0 * h + 0.5 * gp0 * hh, w1 = w0 + g0 * dt + 2 * gp0 * hh;
+    const wh = w0 + g0 * h + 0.5 * gp0 * hh, w1 = w0 + g0 * dt + 2 * gp0 * hh;
     let gh = g0 + gp0 * h, g1 = g0 + gp0 * dt;
-    let intW = w0 * dt + 2 * g0 * hh + (4 / 3) * gp0 * hh * h;
-    let intWh = w0 * h + 0.5 * g0 * hh + (1 / 6) * gp0 * hh * h;
+    const intW = w0 * dt + 2 * g0 * hh + (4 / 3) * gp0 * hh * h;
+    const intWh = w0 * h + 0.5 * g0 * hh + (1 / 6) * gp0 * hh * h;
     // one propagation at the frozen speed of the predicted mean: DqPropagator.setStep written out
     // for the series branch (|delta h| <= 0.5, |W h| < 0.5: nearly every period), the propagator otherwise
     const iDt = this.cIDt, iDe = 1 - dd * iDt;
     const W = p * intW * (iDt * iDe);
-    const q = this.q, Rs = this.Rs, Rs2 = this.Rs2, rqd = this.rqd, rdq = this.rdq;
+    const q = this.q, Rs2 = this.Rs2, rqd = this.rqd, rdq = this.rdq;
     const yy = (q * q - W * W) * hh, wt = W * h;
     let a11: number, a12: number, a21: number, a22: number, cw: number, sw: number;
     if (yy > -0.25 && yy < 0.25 && wt > -0.5 && wt < 0.5) {
@@ -233,7 +253,7 @@ export class ExactStepper extends Stepper {
     const k1r = (Rs2 + w2 * this.LqS2) * iRN, k1i = W * this.dL * iN;
     const k2r = -k1i, k2i = -(Rs2 + w2 * this.LdS2) * iRN;
     const f = (W * this.psiM) / (Rs2 + w2 * this.LdLq);
-    const xcd = W === 0 ? 0 : -W * this.Lq * f, xcq = W === 0 ? 0 : -Rs * f;
+    const xcd = W === 0 ? 0 : -W * Lq * f, xcq = W === 0 ? 0 : -Rs * f;
     // the propagator's rounding-error bound (DqPropagator.errorBound) with 1-norms, at least its
     // 2-norms (|k2r| = |k1i|)
     const bound = EPS8 * ((id0 < 0 ? -id0 : id0) + (iq0 < 0 ? -iq0 : iq0) + ((k1r < 0 ? -k1r : k1r) + 2 * (k1i < 0 ? -k1i : k1i) + (k2i < 0 ? -k2i : k2i)) * ((vd0 < 0 ? -vd0 : vd0) + (vq0 < 0 ? -vq0 : vq0)) + (xcd < 0 ? -xcd : xcd) + (xcq < 0 ? -xcq : xcq));
@@ -250,7 +270,6 @@ export class ExactStepper extends Stepper {
     zd = xbhd - x1r - xcd; zq = xbhq - x2r - xcq;
     const xb1d = a11 * zd + a12 * zq + xcd + x1r * cw + x1i * sw;
     const xb1q = a21 * zd + a22 * zq + xcq + x2r * cw + x2i * sw;
-    const Ld = this.Ld, Lq = this.Lq, psiM = this.psiM, iLd = this.iLd, iLq = this.iLq;
     // A = [[ad, bw], [cw_, aq]]
     const ad = -Rs * iLd, aq = -Rs * iLq, bw = W * rqd, cW = -W * rdq;
     // U, V, Z, Y (see above) at a node from the frozen current x, its derivative x' and the frozen voltage v
@@ -278,49 +297,65 @@ export class ExactStepper extends Stepper {
     // e^{A dt} (r0, s0), e^{A h} (r0, s0)
     const R0d = b11 * r0d + b12 * r0q, R0q = b21 * r0d + b22 * r0q, S0d = b11 * s0d + b12 * s0q, S0q = b21 * s0d + b22 * s0q;
     const M0d = a11 * r0d + a12 * r0q, M0q = a21 * r0d + a22 * r0q, N0d = a11 * s0d + a12 * s0q, N0q = a21 * s0d + a22 * s0q;
-    let gph = 0, gp1 = 0, Ph = 0, Pph = 0, P1 = 0, Pp1 = 0, x1d = 0, x1q = 0;
-    for (let pass = 0; pass < 2; pass++) {
-      // the first-order correction for the speed's change within the period, on the current profile
-      const dwh = p * wh - W, dwph = p * gh, dthh = p * intWh - W * h;
-      const dw1 = p * w1 - W, dwp1 = p * g1, dth1 = p * intW - W * dt;
-      const rhd = dwh * Uhd + dthh * Zhd, rhq = dwh * Uhq + dthh * Zhq;
-      const shd = dwph * Uhd + dwh * Vhd + dthh * Yhd, shq = dwph * Uhq + dwh * Vhq + dthh * Yhq;
-      const r1d = dw1 * U1d + dth1 * Z1d, r1q = dw1 * U1q + dth1 * Z1q;
-      const s1d = dwp1 * U1d + dw1 * V1d + dth1 * Y1d, s1q = dwp1 * U1q + dw1 * V1q + dth1 * Y1q;
-      // e(dt): full-period weights h (7/15, 16/15, 7/15), h^2 (1/15, 0, -1/15)
-      x1d = xb1d + h * ((7 / 15) * (R0d + r1d) + (16 / 15) * (a11 * rhd + a12 * rhq)) + (hh / 15) * (S0d - s1d);
-      x1q = xb1q + h * ((7 / 15) * (R0q + r1q) + (16 / 15) * (a21 * rhd + a22 * rhq)) + (hh / 15) * (S0q - s1q);
-      if (pass === 1) break;
-      // e(h): first-half weights h (101/240, 8/15, 11/240), h^2 (13/240, -1/6, -1/80); the node at dt through e^{-A h}
-      const xhd = xbhd + h * ((101 / 240) * M0d + (8 / 15) * rhd + (11 / 240) * (i11 * r1d + i12 * r1q))
-        + hh * ((13 / 240) * N0d - shd / 6 - (1 / 80) * (i11 * s1d + i12 * s1q));
-      const xhq = xbhq + h * ((101 / 240) * M0q + (8 / 15) * rhq + (11 / 240) * (i21 * r1d + i22 * r1q))
-        + hh * ((13 / 240) * N0q - shq / 6 - (1 / 80) * (i21 * s1d + i22 * s1q));
-      // the nodes at the rotor's angle (frozen angle plus its deviation)
-      let sd = sinTiny(dthh), cd = cosTiny(dthh);
-      ag[0] = xhd; ag[1] = xhq; ag[2] = wh; ag[3] = vbd * cd + vbq * sd; ag[4] = -vbd * sd + vbq * cd; ag[5] = t0 + h;
-      n.at(ag);
-      gh = n.ng; gph = n.ngp; Ph = n.np; Pph = n.npp;
-      sd = sinTiny(dth1); cd = cosTiny(dth1);
-      ag[0] = x1d; ag[1] = x1q; ag[2] = w1; ag[3] = v1bd * cd + v1bq * sd; ag[4] = -v1bd * sd + v1bq * cd; ag[5] = t1;
-      n.at(ag);
-      g1 = n.ng; gp1 = n.ngp; P1 = n.np; Pp1 = n.npp;
-      // mechanics: quintic Hermite quadrature of g over the nodes
-      wh = w0 + h * ((101 / 240) * g0 + (8 / 15) * gh + (11 / 240) * g1) + hh * ((13 / 240) * gp0 - gph / 6 - gp1 / 80);
-      w1 = w0 + h * ((7 / 15) * (g0 + g1) + (16 / 15) * gh) + (hh / 15) * (gp0 - gp1);
-      intW = w0 * dt + hh * ((79 / 105) * g0 + (16 / 15) * gh + (19 / 105) * g1) + hh * h * ((2 / 21) * gp0 - (16 / 105) * gph - (4 / 105) * gp1);
-      intWh = w0 * h + hh * ((13 / 42) * g0 + gh / 6 + g1 / 42) + hh * h * ((59 / 1680) * gp0 - (8 / 105) * gph - (11 / 1680) * gp1);
+    let gph = 0, gp1 = 0, Ph = 0, Pph = 0, P1 = 0, Pp1 = 0;
+    // the first-order correction for the speed's change within the period, on the predicted profile
+    const dwh = p * wh - W, dwph = p * gh, dthh = p * intWh - W * h;
+    const g1p = g1, dw1 = p * w1 - W, dwp1 = p * g1, dth1 = p * intW - W * dt;
+    const rhd = dwh * Uhd + dthh * Zhd, rhq = dwh * Uhq + dthh * Zhq;
+    const shd = dwph * Uhd + dwh * Vhd + dthh * Yhd, shq = dwph * Uhq + dwh * Vhq + dthh * Yhq;
+    const r1d = dw1 * U1d + dth1 * Z1d, r1q = dw1 * U1q + dth1 * Z1q;
+    const s1d = dwp1 * U1d + dw1 * V1d + dth1 * Y1d, s1q = dwp1 * U1q + dw1 * V1q + dth1 * Y1q;
+    // e(dt): full-period weights h (7/15, 16/15, 7/15), h^2 (1/15, 0, -1/15)
+    let x1d = xb1d + h * ((7 / 15) * (R0d + r1d) + (16 / 15) * (a11 * rhd + a12 * rhq)) + (hh / 15) * (S0d - s1d);
+    let x1q = xb1q + h * ((7 / 15) * (R0q + r1q) + (16 / 15) * (a21 * rhd + a22 * rhq)) + (hh / 15) * (S0q - s1q);
+    // e(h): first-half weights h (101/240, 8/15, 11/240), h^2 (13/240, -1/6, -1/80); the node at dt through e^{-A h}
+    const xhd = xbhd + h * ((101 / 240) * M0d + (8 / 15) * rhd + (11 / 240) * (i11 * r1d + i12 * r1q))
+      + hh * ((13 / 240) * N0d - shd / 6 - (1 / 80) * (i11 * s1d + i12 * s1q));
+    const xhq = xbhq + h * ((101 / 240) * M0q + (8 / 15) * rhq + (11 / 240) * (i21 * r1d + i22 * r1q))
+      + hh * ((13 / 240) * N0q - shq / 6 - (1 / 80) * (i21 * s1d + i22 * s1q));
+    // the nodes at the rotor's angle (frozen angle plus its deviation)
+    let sd = sinTiny(dthh), cd = cosTiny(dthh);
+    const vhd = vbd * cd + vbq * sd, vhq = -vbd * sd + vbq * cd, th = t0 + h;
+    const weh = p * wh;
+    const didh = (vhd - Rs * xhd + weh * Lq * xhq) * iLd, diqh = (vhq - Rs * xhq - weh * (Ld * xhd + psiM)) * iLq;
+    Ph = 1.5 * (vhd * xhd + vhq * xhq); Pph = 1.5 * (weh * (vhq * xhd - vhd * xhq) + vhd * didh + vhq * diqh);
+    if (free) {
+      const aw = wh < 0 ? -wh : wh;
+      let fr = 0, dfr = 0;
+      if (Tc > 0) { const x = wh * iW, r = 1 / Math.sqrt(1 + x * x); fr = Tc * x * r; dfr = Tc * r * r * r * iW; }
+      gh = (kT * xhq * (psiM + dL * xhd) - B * wh - fr - (LA + LB * th) - k2 * wh * aw) * iJ;
+      gph = (kT * (psiM * diqh + dL * (didh * xhq + xhd * diqh)) - (B + dfr + 2 * k2 * aw) * gh - LB) * iJ;
     }
+    sd = sinTiny(dth1); cd = cosTiny(dth1);
+    const v1d = v1bd * cd + v1bq * sd, v1q = -v1bd * sd + v1bq * cd;
+    const we1 = p * w1;
+    const did1 = (v1d - Rs * x1d + we1 * Lq * x1q) * iLd, diq1 = (v1q - Rs * x1q - we1 * (Ld * x1d + psiM)) * iLq;
+    P1 = 1.5 * (v1d * x1d + v1q * x1q); Pp1 = 1.5 * (we1 * (v1q * x1d - v1d * x1q) + v1d * did1 + v1q * diq1);
+    if (free) {
+      const aw = w1 < 0 ? -w1 : w1;
+      let fr = 0, dfr = 0;
+      if (Tc > 0) { const x = w1 * iW, r = 1 / Math.sqrt(1 + x * x); fr = Tc * x * r; dfr = Tc * r * r * r * iW; }
+      g1 = (kT * x1q * (psiM + dL * x1d) - B * w1 - fr - (LA + LB * t1) - k2 * w1 * aw) * iJ;
+      gp1 = (kT * (psiM * diq1 + dL * (did1 * x1q + x1d * diq1)) - (B + dfr + 2 * k2 * aw) * g1 - LB) * iJ;
+    }
+    plant.evaluations += 2;
+    // mechanics: quintic Hermite quadrature of g over the nodes (the new profile)
+    const wh2 = w0 + h * ((101 / 240) * g0 + (8 / 15) * gh + (11 / 240) * g1) + hh * ((13 / 240) * gp0 - gph / 6 - gp1 / 80);
+    const w12 = w0 + h * ((7 / 15) * (g0 + g1) + (16 / 15) * gh) + (hh / 15) * (gp0 - gp1);
+    const intW2 = w0 * dt + hh * ((79 / 105) * g0 + (16 / 15) * gh + (19 / 105) * g1) + hh * h * ((2 / 21) * gp0 - (16 / 105) * gph - (4 / 105) * gp1);
+    const intWh2 = w0 * h + hh * ((13 / 42) * g0 + gh / 6 + g1 / 42) + hh * h * ((59 / 1680) * gp0 - (8 / 105) * gph - (11 / 1680) * gp1);
+    // the correction again on the new profile, by its change (linear in the profile's change): the end current
+    const Dwh = p * (wh2 - wh), Dthh = p * (intWh2 - intWh), Dw1 = p * (w12 - w1), Dwp1 = p * (g1 - g1p), Dth1 = p * (intW2 - intW);
+    const Drhd = Dwh * Uhd + Dthh * Zhd, Drhq = Dwh * Uhq + Dthh * Zhq;
+    x1d += h * ((7 / 15) * (Dw1 * U1d + Dth1 * Z1d) + (16 / 15) * (a11 * Drhd + a12 * Drhq)) - (hh / 15) * (Dwp1 * U1d + Dw1 * V1d + Dth1 * Y1d);
+    x1q += h * ((7 / 15) * (Dw1 * U1q + Dth1 * Z1q) + (16 / 15) * (a21 * Drhd + a22 * Drhq)) - (hh / 15) * (Dwp1 * U1q + Dw1 * V1q + Dth1 * Y1q);
     y[I_D] = x1d;
     y[I_Q] = x1q;
-    y[OMEGA] = w1;
-    y[THETA] = th0 + p * intW;
+    y[OMEGA] = w12;
+    y[THETA] = th0 + p * intW2;
     y[ENERGY] = y[ENERGY]! + h * ((7 / 15) * (P0 + P1) + (16 / 15) * Ph) + (hh / 15) * (Pp0 - Pp1);
     return true;
   }
-
-  /** the arguments of the node: id, iq, omega, vd, vq, t */
-  private readonly arg = new Float64Array(6);
 }
 
 /**
