@@ -39,6 +39,8 @@ import { cosSmall, sinSmall } from '../mathematics/rotation';
 
 const sinSmallL = sinSmall;
 const cosSmallL = cosSmall;
+// Math.abs: a sign mask, no branch (the sign of a current or a voltage is not predictable)
+const abs = Math.abs;
 const cosSL = cosS, sincSL = sincS, coshSL = coshS, sinhcSL = sinhcS;
 /** 8 eps: the propagator's rounding-error bound per unit of the sizes it scales with */
 const EPS8 = 8 * 2.220446049250313e-16;
@@ -201,7 +203,7 @@ export class ExactStepper extends Stepper {
     const u = plant.input;
     const c0 = plant.c0, s0 = plant.s0;
     const vd0 = u[0]! * c0 + u[1]! * s0, vq0 = -u[0]! * s0 + u[1]! * c0;
-    const aw0 = w0 < 0 ? -w0 : w0;
+    const aw0 = abs(w0);
     if ((p * aw0 > this.rate ? p * aw0 : this.rate) * dt > MAX_ANGLE) return false;
     if (!Number.isFinite(id0 + iq0 + w0 + th0 + vd0 + vq0)) return false;
     // the plant's derivative at the nodes (as linear-node.ts: di/dt, g = omega' and g', the power and its derivative)
@@ -212,7 +214,7 @@ export class ExactStepper extends Stepper {
     const did0 = (vd0 - Rs * id0 + we0 * Lq * iq0) * iLd, diq0 = (vq0 - Rs * iq0 - we0 * (Ld * id0 + psiM)) * iLq;
     P0 = 1.5 * (vd0 * id0 + vq0 * iq0); Pp0 = 1.5 * (we0 * (vq0 * id0 - vd0 * iq0) + vd0 * did0 + vq0 * diq0);
     if (free) {
-      const aw = w0 < 0 ? -w0 : w0;
+      const aw = abs(w0);
       let fr = 0, dfr = 0;
       if (Tc > 0) { const x = w0 * iW, r = 1 / Math.sqrt(1 + x * x); fr = Tc * x * r; dfr = Tc * r * r * r * iW; }
       g0 = (kT * iq0 * (psiM + dL * id0) - B * w0 - fr - (LA + LB * t0) - k2 * w0 * aw) * iJ;
@@ -220,7 +222,7 @@ export class ExactStepper extends Stepper {
     }
     plant.evaluations++;
     if (free) {
-      const ag0 = g0 < 0 ? -g0 : g0;
+      const ag0 = abs(g0);
       if (aw0 < 20 * this.width + 4 * ag0 * dt) return false;
     }
     // the speed profile predicted from the start's derivatives: omega0 + g0 s + g0' s^2/2
@@ -228,6 +230,13 @@ export class ExactStepper extends Stepper {
     let gh = g0 + gp0 * h, g1 = g0 + gp0 * dt;
     const intW = w0 * dt + 2 * g0 * hh + (4 / 3) * gp0 * hh * h;
     const intWh = w0 * h + 0.5 * g0 * hh + (1 / 6) * gp0 * hh * h;
+    // the friction at the node speeds (known now: a square root and a division each, whose latency
+    // then overlaps the propagation)
+    let frh = 0, dfrh = 0, fr1 = 0, dfr1 = 0;
+    if (free && Tc > 0) {
+      const xh = wh * iW, rh = 1 / Math.sqrt(1 + xh * xh), x1 = w1 * iW, r1 = 1 / Math.sqrt(1 + x1 * x1);
+      frh = Tc * xh * rh; dfrh = Tc * rh * rh * rh * iW; fr1 = Tc * x1 * r1; dfr1 = Tc * r1 * r1 * r1 * iW;
+    }
     // one propagation at the frozen speed of the predicted mean: DqPropagator.setStep written out
     // for the series branch (|delta h| <= 0.5, |W h| < 0.5: nearly every period), the propagator otherwise
     const iDt = this.cIDt, iDe = 1 - dd * iDt;
@@ -256,20 +265,20 @@ export class ExactStepper extends Stepper {
     const xcd = W === 0 ? 0 : -W * Lq * f, xcq = W === 0 ? 0 : -Rs * f;
     // the propagator's rounding-error bound (DqPropagator.errorBound) with 1-norms, at least its
     // 2-norms (|k2r| = |k1i|)
-    const bound = EPS8 * ((id0 < 0 ? -id0 : id0) + (iq0 < 0 ? -iq0 : iq0) + ((k1r < 0 ? -k1r : k1r) + 2 * (k1i < 0 ? -k1i : k1i) + (k2i < 0 ? -k2i : k2i)) * ((vd0 < 0 ? -vd0 : vd0) + (vq0 < 0 ? -vq0 : vq0)) + (xcd < 0 ? -xcd : xcd) + (xcq < 0 ? -xcq : xcq));
+    const bound = EPS8 * (abs(id0) + abs(iq0) + (abs(k1r) + 2 * abs(k1i) + abs(k2i)) * (abs(vd0) + abs(vq0)) + abs(xcd) + abs(xcq));
     if (!(bound <= this.errMax)) return false;
     // frozen voltage at the nodes (rotating by -W s in dq)
     const vbd = vd0 * cw + vq0 * sw, vbq = -vd0 * sw + vq0 * cw;
-    const v1bd = vbd * cw + vbq * sw, v1bq = -vbd * sw + vbq * cw;
-    // DqPropagator.propagate to h and on to dt
-    let x1r = vd0 * k1r - vq0 * k1i, x1i = vd0 * k1i + vq0 * k1r, x2r = vd0 * k2r - vq0 * k2i, x2i = vd0 * k2i + vq0 * k2r;
-    let zd = id0 - x1r - xcd, zq = iq0 - x2r - xcq;
+    const c2 = cw * cw - sw * sw, s2 = 2 * sw * cw;
+    const v1bd = vd0 * c2 + vq0 * s2, v1bq = -vd0 * s2 + vq0 * c2;
+    // DqPropagator.propagate to h and to dt (e^{A dt} = e^{A h}^2, the rotation by 2 W h: both from the start)
+    const b11 = a11 * a11 + a12 * a21, b12 = a11 * a12 + a12 * a22, b21 = a21 * a11 + a22 * a21, b22 = a21 * a12 + a22 * a22;
+    const x1r = vd0 * k1r - vq0 * k1i, x1i = vd0 * k1i + vq0 * k1r, x2r = vd0 * k2r - vq0 * k2i, x2i = vd0 * k2i + vq0 * k2r;
+    const zd = id0 - x1r - xcd, zq = iq0 - x2r - xcq;
     const xbhd = a11 * zd + a12 * zq + xcd + x1r * cw + x1i * sw;
     const xbhq = a21 * zd + a22 * zq + xcq + x2r * cw + x2i * sw;
-    x1r = vbd * k1r - vbq * k1i; x1i = vbd * k1i + vbq * k1r; x2r = vbd * k2r - vbq * k2i; x2i = vbd * k2i + vbq * k2r;
-    zd = xbhd - x1r - xcd; zq = xbhq - x2r - xcq;
-    const xb1d = a11 * zd + a12 * zq + xcd + x1r * cw + x1i * sw;
-    const xb1q = a21 * zd + a22 * zq + xcq + x2r * cw + x2i * sw;
+    const xb1d = b11 * zd + b12 * zq + xcd + x1r * c2 + x1i * s2;
+    const xb1q = b21 * zd + b22 * zq + xcq + x2r * c2 + x2i * s2;
     // A = [[ad, bw], [cw_, aq]]
     const ad = -Rs * iLd, aq = -Rs * iLq, bw = W * rqd, cW = -W * rdq;
     // U, V, Z, Y (see above) at a node from the frozen current x, its derivative x' and the frozen voltage v
@@ -287,8 +296,7 @@ export class ExactStepper extends Stepper {
     const xp1d = (v1bd - Rs * xb1d + W * Lq * xb1q) * iLd, xp1q = (v1bq - Rs * xb1q - W * (Ld * xb1d + psiM)) * iLq;
     const V1d = rqd * xp1q + Z1d - (ad * U1d + bw * U1q), V1q = -rdq * xp1d + Z1q - (cW * U1d + aq * U1q);
     const Y1d = -W * v1bd * iLd - (ad * Z1d + bw * Z1q), Y1q = -W * v1bq * iLq - (cW * Z1d + aq * Z1q);
-    // e^{A dt} = e^{A h}^2, e^{-A h} its inverse (det e^{A h} = e^{2 m h})
-    const b11 = a11 * a11 + a12 * a21, b12 = a11 * a12 + a12 * a22, b21 = a21 * a11 + a22 * a21, b22 = a21 * a12 + a22 * a22;
+    // e^{-A h}, the inverse of e^{A h} (det e^{A h} = e^{2 m h})
     const idet = this.cIdet * (1 - this.m * dd);
     const i11 = a22 * idet, i12 = -a12 * idet, i21 = -a21 * idet, i22 = a11 * idet;
     // the start node's correction (the same for every profile: no angle deviation at s = 0)
@@ -320,11 +328,9 @@ export class ExactStepper extends Stepper {
     const didh = (vhd - Rs * xhd + weh * Lq * xhq) * iLd, diqh = (vhq - Rs * xhq - weh * (Ld * xhd + psiM)) * iLq;
     Ph = 1.5 * (vhd * xhd + vhq * xhq); Pph = 1.5 * (weh * (vhq * xhd - vhd * xhq) + vhd * didh + vhq * diqh);
     if (free) {
-      const aw = wh < 0 ? -wh : wh;
-      let fr = 0, dfr = 0;
-      if (Tc > 0) { const x = wh * iW, r = 1 / Math.sqrt(1 + x * x); fr = Tc * x * r; dfr = Tc * r * r * r * iW; }
-      gh = (kT * xhq * (psiM + dL * xhd) - B * wh - fr - (LA + LB * th) - k2 * wh * aw) * iJ;
-      gph = (kT * (psiM * diqh + dL * (didh * xhq + xhd * diqh)) - (B + dfr + 2 * k2 * aw) * gh - LB) * iJ;
+      const aw = abs(wh);
+      gh = (kT * xhq * (psiM + dL * xhd) - B * wh - frh - (LA + LB * th) - k2 * wh * aw) * iJ;
+      gph = (kT * (psiM * diqh + dL * (didh * xhq + xhd * diqh)) - (B + dfrh + 2 * k2 * aw) * gh - LB) * iJ;
     }
     sd = sinTiny(dth1); cd = cosTiny(dth1);
     const v1d = v1bd * cd + v1bq * sd, v1q = -v1bd * sd + v1bq * cd;
@@ -332,11 +338,9 @@ export class ExactStepper extends Stepper {
     const did1 = (v1d - Rs * x1d + we1 * Lq * x1q) * iLd, diq1 = (v1q - Rs * x1q - we1 * (Ld * x1d + psiM)) * iLq;
     P1 = 1.5 * (v1d * x1d + v1q * x1q); Pp1 = 1.5 * (we1 * (v1q * x1d - v1d * x1q) + v1d * did1 + v1q * diq1);
     if (free) {
-      const aw = w1 < 0 ? -w1 : w1;
-      let fr = 0, dfr = 0;
-      if (Tc > 0) { const x = w1 * iW, r = 1 / Math.sqrt(1 + x * x); fr = Tc * x * r; dfr = Tc * r * r * r * iW; }
-      g1 = (kT * x1q * (psiM + dL * x1d) - B * w1 - fr - (LA + LB * t1) - k2 * w1 * aw) * iJ;
-      gp1 = (kT * (psiM * diq1 + dL * (did1 * x1q + x1d * diq1)) - (B + dfr + 2 * k2 * aw) * g1 - LB) * iJ;
+      const aw = abs(w1);
+      g1 = (kT * x1q * (psiM + dL * x1d) - B * w1 - fr1 - (LA + LB * t1) - k2 * w1 * aw) * iJ;
+      gp1 = (kT * (psiM * diq1 + dL * (did1 * x1q + x1d * diq1)) - (B + dfr1 + 2 * k2 * aw) * g1 - LB) * iJ;
     }
     plant.evaluations += 2;
     // mechanics: quintic Hermite quadrature of g over the nodes (the new profile)
