@@ -29,7 +29,7 @@
  * derivatives at the three nodes (from memory: Stoer and Bulirsch, Introduction to Numerical
  * Analysis, Hermite interpolation); the first-order correction is common practice (no source).
  */
-import { DqPropagator, cosS, sincS, coshS, sinhcS } from './dq-propagator';
+import { DqPropagator } from './dq-propagator';
 import { I_D, I_Q, OMEGA, THETA, ENERGY } from './plant';
 import type { Plant } from './plant';
 import { Stepper, makeStepper } from './stepper';
@@ -41,7 +41,27 @@ const sinSmallL = sinSmall;
 const cosSmallL = cosSmall;
 // Math.abs: a sign mask, no branch (the sign of a current or a voltage is not predictable)
 const abs = Math.abs;
-const cosSL = cosS, sincSL = sincS, coshSL = coshS, sinhcSL = sinhcS;
+/**
+ * The series of dq-propagator.ts (cosS, sincS, coshS, sinhcS: cos, sin(x)/x, cosh, sinh(x)/x of
+ * y = x^2, |x| <= 0.5) with the reciprocal factorials as factors: a product where a division by a
+ * constant costs a division (the engine keeps x / c as a division); they agree with those to rounding.
+ */
+function cosP(y: number): number {
+  const y2 = y * y, y4 = y2 * y2;
+  return 1 - y * 0.5 + y2 * (1 / 24 - y * (1 / 720)) + y4 * (1 / 40320 - y * (1 / 3628800) + y2 * (1 / 479001600 - y * (1 / 87178291200)));
+}
+function sincP(y: number): number {
+  const y2 = y * y, y4 = y2 * y2;
+  return 1 - y * (1 / 6) + y2 * (1 / 120 - y * (1 / 5040)) + y4 * (1 / 362880 - y * (1 / 39916800) + y2 * (1 / 6227020800 - y * (1 / 1307674368000)));
+}
+function coshP(y: number): number {
+  const y2 = y * y, y4 = y2 * y2;
+  return 1 + y * 0.5 + y2 * (1 / 24 + y * (1 / 720)) + y4 * (1 / 40320 + y * (1 / 3628800) + y2 * (1 / 479001600 + y * (1 / 87178291200)));
+}
+function sinhcP(y: number): number {
+  const y2 = y * y, y4 = y2 * y2;
+  return 1 + y * (1 / 6) + y2 * (1 / 120 + y * (1 / 5040)) + y4 * (1 / 362880 + y * (1 / 39916800) + y2 * (1 / 6227020800 + y * (1 / 1307674368000)));
+}
 /** 8 eps: the propagator's rounding-error bound per unit of the sizes it scales with */
 const EPS8 = 8 * 2.220446049250313e-16;
 
@@ -53,10 +73,10 @@ export const MAX_ANGLE = 1;
  * two terms below 1e-3 rad (truncation below 1e-17), the series of rotation.ts above.
  */
 function sinTiny(d: number): number {
-  return d > -1e-3 && d < 1e-3 ? d * (1 - (d * d) / 6) : sinSmallL(d);
+  return d > -1e-3 && d < 1e-3 ? d * (1 - d * d * (1 / 6)) : sinSmallL(d);
 }
 function cosTiny(d: number): number {
-  return d > -1e-3 && d < 1e-3 ? 1 - 0.5 * d * d * (1 - (d * d) / 12) : cosSmallL(d);
+  return d > -1e-3 && d < 1e-3 ? 1 - 0.5 * d * d * (1 - d * d * (1 / 12)) : cosSmallL(d);
 }
 export class ExactStepper extends Stepper {
   /** periods handed to the fallback stepper */
@@ -71,6 +91,9 @@ export class ExactStepper extends Stepper {
   private readonly width: number;
   private readonly free: boolean;
   private readonly errMax: number;
+  /** bounds over every speed W of |k1r| + |k1i| + |k2r| + |k2i| and |xcd| + |xcq| (DqPropagator.setStep's) */
+  private readonly gainMax: number;
+  private readonly xcMax: number;
   private readonly rate: number;
   // reciprocals, ratios and the propagator's constants (see DqPropagator.setStep): no division in a period
   private readonly iLd: number;
@@ -118,6 +141,11 @@ export class ExactStepper extends Stepper {
     this.width = pr.coulombWidth_rad_s;
     this.free = pr.mechanics === 'free';
     this.errMax = 1e-11 * Imax;
+    // with N = Rs^2 + W^2 S^2 >= 2 Rs |W| S: |k1r| <= max(1, 2 Lq/S)/Rs, |k2i| <= max(1, 2 Ld/S)/Rs,
+    // |k1i| = |k2r| <= |Ld - Lq|/(2 Rs S); |xcd| <= psiM/Ld, |xcq| <= psiM/(2 sqrt(Ld Lq)) (Rs = 0: infinite)
+    const S = Ld + Lq;
+    this.gainMax = (Math.max(1, (2 * Lq) / S) + Math.max(1, (2 * Ld) / S) + Math.abs(Ld - Lq) / S) / Rs;
+    this.xcMax = m.psiM * (1 / Ld + 0.5 / Math.sqrt(Ld * Lq));
     this.rate = Math.max(Rs / Ld, Rs / Lq);
     this.iLd = 1 / Ld;
     this.iLq = 1 / Lq;
@@ -125,7 +153,6 @@ export class ExactStepper extends Stepper {
     this.rdq = Ld / Lq;
     this.m = -0.5 * Rs * (1 / Ld + 1 / Lq);
     this.q = -0.5 * Rs * (1 / Ld - 1 / Lq);
-    const S = Ld + Lq;
     this.Rs2 = Rs * Rs;
     this.iRs = 1 / Rs;
     this.S2 = S * S;
@@ -206,6 +233,9 @@ export class ExactStepper extends Stepper {
     const aw0 = abs(w0);
     if ((p * aw0 > this.rate ? p * aw0 : this.rate) * dt > MAX_ANGLE) return false;
     if (!Number.isFinite(id0 + iq0 + w0 + th0 + vd0 + vq0)) return false;
+    // the propagator's rounding-error bound (DqPropagator.errorBound) with 1-norms and its sizes'
+    // bounds over every speed (see the constructor): at least the bound itself
+    if (!(EPS8 * (abs(id0) + abs(iq0) + this.gainMax * (abs(vd0) + abs(vq0)) + this.xcMax) <= this.errMax)) return false;
     // the plant's derivative at the nodes (as linear-node.ts: di/dt, g = omega' and g', the power and its derivative)
     const Rs = this.Rs, Ld = this.Ld, Lq = this.Lq, psiM = this.psiM, iLd = this.iLd, iLq = this.iLq, dL = this.dL;
     const free = this.free, Tc = this.Tc, iW = this.iW, B = this.B, k2 = this.k2, iJ = this.iJ, kT = 1.5 * p, LA = this.LA, LB = this.LB;
@@ -247,10 +277,10 @@ export class ExactStepper extends Stepper {
     if (yy > -0.25 && yy < 0.25 && wt > -0.5 && wt < 0.5) {
       const E = this.cE * (1 + 0.5 * this.m * dd);
       let EC: number, ES: number;
-      if (yy >= 0) { EC = E * coshSL(yy); ES = E * h * sinhcSL(yy); } else { EC = E * cosSL(-yy); ES = E * h * sincSL(-yy); }
+      if (yy >= 0) { EC = E * coshP(yy); ES = E * h * sinhcP(yy); } else { EC = E * cosP(-yy); ES = E * h * sincP(-yy); }
       a11 = EC + ES * q; a12 = ES * W * rqd; a21 = -ES * W * rdq; a22 = EC - ES * q;
       const wt2 = wt * wt;
-      cw = cosSL(wt2); sw = wt * sincSL(wt2);
+      cw = cosP(wt2); sw = wt * sincP(wt2);
     } else {
       const pr = this.prop;
       pr.setStep(W, h);
@@ -262,11 +292,7 @@ export class ExactStepper extends Stepper {
     const k1r = (Rs2 + w2 * this.LqS2) * iRN, k1i = W * this.dL * iN;
     const k2r = -k1i, k2i = -(Rs2 + w2 * this.LdS2) * iRN;
     const f = (W * this.psiM) / (Rs2 + w2 * this.LdLq);
-    const xcd = W === 0 ? 0 : -W * Lq * f, xcq = W === 0 ? 0 : -Rs * f;
-    // the propagator's rounding-error bound (DqPropagator.errorBound) with 1-norms, at least its
-    // 2-norms (|k2r| = |k1i|)
-    const bound = EPS8 * (abs(id0) + abs(iq0) + (abs(k1r) + 2 * abs(k1i) + abs(k2i)) * (abs(vd0) + abs(vq0)) + abs(xcd) + abs(xcq));
-    if (!(bound <= this.errMax)) return false;
+    const xcd = -W * Lq * f, xcq = -Rs * f;
     // frozen voltage at the nodes (rotating by -W s in dq)
     const vbd = vd0 * cw + vq0 * sw, vbq = -vd0 * sw + vq0 * cw;
     const c2 = cw * cw - sw * sw, s2 = 2 * sw * cw;
@@ -314,13 +340,13 @@ export class ExactStepper extends Stepper {
     const r1d = dw1 * U1d + dth1 * Z1d, r1q = dw1 * U1q + dth1 * Z1q;
     const s1d = dwp1 * U1d + dw1 * V1d + dth1 * Y1d, s1q = dwp1 * U1q + dw1 * V1q + dth1 * Y1q;
     // e(dt): full-period weights h (7/15, 16/15, 7/15), h^2 (1/15, 0, -1/15)
-    let x1d = xb1d + h * ((7 / 15) * (R0d + r1d) + (16 / 15) * (a11 * rhd + a12 * rhq)) + (hh / 15) * (S0d - s1d);
-    let x1q = xb1q + h * ((7 / 15) * (R0q + r1q) + (16 / 15) * (a21 * rhd + a22 * rhq)) + (hh / 15) * (S0q - s1q);
+    let x1d = xb1d + h * ((7 / 15) * (R0d + r1d) + (16 / 15) * (a11 * rhd + a12 * rhq)) + (hh * (1 / 15)) * (S0d - s1d);
+    let x1q = xb1q + h * ((7 / 15) * (R0q + r1q) + (16 / 15) * (a21 * rhd + a22 * rhq)) + (hh * (1 / 15)) * (S0q - s1q);
     // e(h): first-half weights h (101/240, 8/15, 11/240), h^2 (13/240, -1/6, -1/80); the node at dt through e^{-A h}
     const xhd = xbhd + h * ((101 / 240) * M0d + (8 / 15) * rhd + (11 / 240) * (i11 * r1d + i12 * r1q))
-      + hh * ((13 / 240) * N0d - shd / 6 - (1 / 80) * (i11 * s1d + i12 * s1q));
+      + hh * ((13 / 240) * N0d - shd * (1 / 6) - (1 / 80) * (i11 * s1d + i12 * s1q));
     const xhq = xbhq + h * ((101 / 240) * M0q + (8 / 15) * rhq + (11 / 240) * (i21 * r1d + i22 * r1q))
-      + hh * ((13 / 240) * N0q - shq / 6 - (1 / 80) * (i21 * s1d + i22 * s1q));
+      + hh * ((13 / 240) * N0q - shq * (1 / 6) - (1 / 80) * (i21 * s1d + i22 * s1q));
     // the nodes at the rotor's angle (frozen angle plus its deviation)
     let sd = sinTiny(dthh), cd = cosTiny(dthh);
     const vhd = vbd * cd + vbq * sd, vhq = -vbd * sd + vbq * cd, th = t0 + h;
@@ -344,20 +370,20 @@ export class ExactStepper extends Stepper {
     }
     plant.evaluations += 2;
     // mechanics: quintic Hermite quadrature of g over the nodes (the new profile)
-    const wh2 = w0 + h * ((101 / 240) * g0 + (8 / 15) * gh + (11 / 240) * g1) + hh * ((13 / 240) * gp0 - gph / 6 - gp1 / 80);
-    const w12 = w0 + h * ((7 / 15) * (g0 + g1) + (16 / 15) * gh) + (hh / 15) * (gp0 - gp1);
+    const wh2 = w0 + h * ((101 / 240) * g0 + (8 / 15) * gh + (11 / 240) * g1) + hh * ((13 / 240) * gp0 - gph * (1 / 6) - gp1 * (1 / 80));
+    const w12 = w0 + h * ((7 / 15) * (g0 + g1) + (16 / 15) * gh) + (hh * (1 / 15)) * (gp0 - gp1);
     const intW2 = w0 * dt + hh * ((79 / 105) * g0 + (16 / 15) * gh + (19 / 105) * g1) + hh * h * ((2 / 21) * gp0 - (16 / 105) * gph - (4 / 105) * gp1);
-    const intWh2 = w0 * h + hh * ((13 / 42) * g0 + gh / 6 + g1 / 42) + hh * h * ((59 / 1680) * gp0 - (8 / 105) * gph - (11 / 1680) * gp1);
+    const intWh2 = w0 * h + hh * ((13 / 42) * g0 + gh * (1 / 6) + g1 * (1 / 42)) + hh * h * ((59 / 1680) * gp0 - (8 / 105) * gph - (11 / 1680) * gp1);
     // the correction again on the new profile, by its change (linear in the profile's change): the end current
     const Dwh = p * (wh2 - wh), Dthh = p * (intWh2 - intWh), Dw1 = p * (w12 - w1), Dwp1 = p * (g1 - g1p), Dth1 = p * (intW2 - intW);
     const Drhd = Dwh * Uhd + Dthh * Zhd, Drhq = Dwh * Uhq + Dthh * Zhq;
-    x1d += h * ((7 / 15) * (Dw1 * U1d + Dth1 * Z1d) + (16 / 15) * (a11 * Drhd + a12 * Drhq)) - (hh / 15) * (Dwp1 * U1d + Dw1 * V1d + Dth1 * Y1d);
-    x1q += h * ((7 / 15) * (Dw1 * U1q + Dth1 * Z1q) + (16 / 15) * (a21 * Drhd + a22 * Drhq)) - (hh / 15) * (Dwp1 * U1q + Dw1 * V1q + Dth1 * Y1q);
+    x1d += h * ((7 / 15) * (Dw1 * U1d + Dth1 * Z1d) + (16 / 15) * (a11 * Drhd + a12 * Drhq)) - (hh * (1 / 15)) * (Dwp1 * U1d + Dw1 * V1d + Dth1 * Y1d);
+    x1q += h * ((7 / 15) * (Dw1 * U1q + Dth1 * Z1q) + (16 / 15) * (a21 * Drhd + a22 * Drhq)) - (hh * (1 / 15)) * (Dwp1 * U1q + Dw1 * V1q + Dth1 * Y1q);
     y[I_D] = x1d;
     y[I_Q] = x1q;
     y[OMEGA] = w12;
     y[THETA] = th0 + p * intW2;
-    y[ENERGY] = y[ENERGY]! + h * ((7 / 15) * (P0 + P1) + (16 / 15) * Ph) + (hh / 15) * (Pp0 - Pp1);
+    y[ENERGY] = y[ENERGY]! + h * ((7 / 15) * (P0 + P1) + (16 / 15) * Ph) + (hh * (1 / 15)) * (Pp0 - Pp1);
     return true;
   }
 }
