@@ -24,7 +24,8 @@
  * with |omega0| < 20 w + 4 |g0| dt (w the width of the smoothed Coulomb sign: the friction and a
  * k omega |omega| load are not smooth near zero speed); a large angle per period,
  * max(p |omega0|, Rs/Ld, Rs/Lq) dt > MAX_ANGLE (the quadratures lose their order; a stiff overdamped
- * period among them); the propagator's rounding-error bound (the Rs -> 0 resonance) above 1e-11 Imax;
+ * period among them); the propagator's rounding-error bound (the Rs -> 0 resonance), taken with its
+ * sizes' bounds over every speed, above 1e-11 Imax;
  * a non-finite state. The quadrature weights integrate the quintic Hermite interpolant of values and
  * derivatives at the three nodes (from memory: Stoer and Bulirsch, Introduction to Numerical
  * Analysis, Hermite interpolation); the first-order correction is common practice (no source).
@@ -236,13 +237,13 @@ export class ExactStepper extends Stepper {
     // the propagator's rounding-error bound (DqPropagator.errorBound) with 1-norms and its sizes'
     // bounds over every speed (see the constructor): at least the bound itself
     if (!(EPS8 * (abs(id0) + abs(iq0) + this.gainMax * (abs(vd0) + abs(vq0)) + this.xcMax) <= this.errMax)) return false;
-    // the plant's derivative at the nodes (as linear-node.ts: di/dt, g = omega' and g', the power and its derivative)
+    // the plant's derivative at the nodes (as linear-node.ts: di/dt, g = omega' and g', the power over 1.5 and its derivative)
     const Rs = this.Rs, Ld = this.Ld, Lq = this.Lq, psiM = this.psiM, iLd = this.iLd, iLq = this.iLq, dL = this.dL;
     const free = this.free, Tc = this.Tc, iW = this.iW, B = this.B, k2 = this.k2, iJ = this.iJ, kT = 1.5 * p, LA = this.LA, LB = this.LB;
     let g0 = 0, gp0 = 0, P0 = 0, Pp0 = 0;
     const we0 = p * w0;
     const did0 = (vd0 - Rs * id0 + we0 * Lq * iq0) * iLd, diq0 = (vq0 - Rs * iq0 - we0 * (Ld * id0 + psiM)) * iLq;
-    P0 = 1.5 * (vd0 * id0 + vq0 * iq0); Pp0 = 1.5 * (we0 * (vq0 * id0 - vd0 * iq0) + vd0 * did0 + vq0 * diq0);
+    P0 = vd0 * id0 + vq0 * iq0; Pp0 = we0 * (vq0 * id0 - vd0 * iq0) + vd0 * did0 + vq0 * diq0;
     if (free) {
       const aw = abs(w0);
       let fr = 0, dfr = 0;
@@ -352,7 +353,7 @@ export class ExactStepper extends Stepper {
     const vhd = vbd * cd + vbq * sd, vhq = -vbd * sd + vbq * cd, th = t0 + h;
     const weh = p * wh;
     const didh = (vhd - Rs * xhd + weh * Lq * xhq) * iLd, diqh = (vhq - Rs * xhq - weh * (Ld * xhd + psiM)) * iLq;
-    Ph = 1.5 * (vhd * xhd + vhq * xhq); Pph = 1.5 * (weh * (vhq * xhd - vhd * xhq) + vhd * didh + vhq * diqh);
+    Ph = vhd * xhd + vhq * xhq; Pph = weh * (vhq * xhd - vhd * xhq) + vhd * didh + vhq * diqh;
     if (free) {
       const aw = abs(wh);
       gh = (kT * xhq * (psiM + dL * xhd) - B * wh - frh - (LA + LB * th) - k2 * wh * aw) * iJ;
@@ -362,7 +363,7 @@ export class ExactStepper extends Stepper {
     const v1d = v1bd * cd + v1bq * sd, v1q = -v1bd * sd + v1bq * cd;
     const we1 = p * w1;
     const did1 = (v1d - Rs * x1d + we1 * Lq * x1q) * iLd, diq1 = (v1q - Rs * x1q - we1 * (Ld * x1d + psiM)) * iLq;
-    P1 = 1.5 * (v1d * x1d + v1q * x1q); Pp1 = 1.5 * (we1 * (v1q * x1d - v1d * x1q) + v1d * did1 + v1q * diq1);
+    P1 = v1d * x1d + v1q * x1q; Pp1 = we1 * (v1q * x1d - v1d * x1q) + v1d * did1 + v1q * diq1;
     if (free) {
       const aw = abs(w1);
       g1 = (kT * x1q * (psiM + dL * x1d) - B * w1 - fr1 - (LA + LB * t1) - k2 * w1 * aw) * iJ;
@@ -383,7 +384,8 @@ export class ExactStepper extends Stepper {
     y[I_Q] = x1q;
     y[OMEGA] = w12;
     y[THETA] = th0 + p * intW2;
-    y[ENERGY] = y[ENERGY]! + h * ((7 / 15) * (P0 + P1) + (16 / 15) * Ph) + (hh * (1 / 15)) * (Pp0 - Pp1);
+    // the power 1.5 (vd id + vq iq): its factor 1.5 once here
+    y[ENERGY] = y[ENERGY]! + 1.5 * (h * ((7 / 15) * (P0 + P1) + (16 / 15) * Ph) + (hh * (1 / 15)) * (Pp0 - Pp1));
     return true;
   }
 }
