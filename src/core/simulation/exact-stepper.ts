@@ -97,34 +97,19 @@ export class ExactStepper extends Stepper {
   private readonly xcMax: number;
   private readonly rate: number;
   // reciprocals, ratios and the propagator's constants (see DqPropagator.setStep): no division in a period
-  private readonly iLd: number;
-  private readonly iLq: number;
-  private readonly rqd: number;
-  private readonly rdq: number;
-  private readonly m: number;
-  private readonly q: number;
-  private readonly Rs2: number;
-  private readonly iRs: number;
-  private readonly S2: number;
-  private readonly LqS2: number;
-  private readonly LdS2: number;
-  private readonly dL: number;
+  private readonly iLd: number; private readonly iLq: number; private readonly rqd: number; private readonly rdq: number;
+  private readonly m: number; private readonly q: number; private readonly Rs2: number; private readonly iRs: number;
+  private readonly S2: number; private readonly LqS2: number; private readonly LdS2: number; private readonly dL: number;
   private readonly LdLq: number;
   // the mechanics: Coulomb friction, 1/width, viscous friction, the k omega |omega| load's k, 1/J
-  private readonly Tc: number;
-  private readonly iW: number;
-  private readonly B: number;
-  private readonly k2: number;
+  private readonly Tc: number; private readonly iW: number; private readonly B: number; private readonly k2: number;
   private readonly iJ: number;
   // the load line of the current piece (LA + LB t)
   private LA = NaN;
   private LB = NaN;
   // what depends on the period's length alone, for the length `cDt`: e^{m h} (h = dt/2; m = tr A / 2
   // does not depend on the speed), 1/det e^{A h} = e^{-2 m h}, 1/dt (double fields start as non-integers)
-  private cDt = NaN;
-  private cE = NaN;
-  private cIdet = NaN;
-  private cIDt = NaN;
+  private cDt = NaN; private cE = NaN; private cIdet = NaN; private cIDt = NaN;
   // where the load's current piece ends
   private nextBreakX = -Infinity;
 
