@@ -48,7 +48,7 @@ describe('exact periods against ode45-cash-karp (the same trajectory to 1e-7)', 
     for (const name of ['demo-ipm-traction', 'demo-spm-48v', 'demo-servo-axis']) {
       const s = simulationFromProject(loadProjectText(JSON.stringify(demo(name))));
       const plant = new Plant(s.plant);
-      expect(makePeriodStepper(s, plant, new Float64Array(5))).not.toBeInstanceOf(ExactStepper); // off by default
+      expect(makePeriodStepper(s, plant, new Float64Array(5))).toBeInstanceOf(ExactStepper); // on by default
       expect(makePeriodStepper({ ...s, solver: { ...s.solver, exactPeriods: true } }, plant, new Float64Array(5))).toBeInstanceOf(ExactStepper);
       const { dev, exact } = compare(s);
       expect(dev, name).toBeLessThan(1e-7);

@@ -1,7 +1,7 @@
 /**
  * The cascade simulator: the dq plant (plant.ts) integrated period by period (stepper.ts: Cash-Karp
- * adaptive Runge-Kutta, or RK4; with `solver.exactPeriods` the constant-parameter plant's exact
- * periods, exact-stepper.ts) under the digital controller (controller.ts).
+ * adaptive Runge-Kutta, or RK4; with `solver.exactPeriods` (the default) the constant-parameter
+ * plant's exact periods, exact-stepper.ts) under the digital controller (controller.ts).
  *
  * The stepper integrates the plant's states `y` (currents, or flux linkages for a model that is not
  * linear: see plant.ts); once per period the plant converts them to `yi`, the state in currents

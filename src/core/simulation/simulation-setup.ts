@@ -28,7 +28,7 @@ export interface SolverOptions {
   /**
    * with 'cash-karp' and a constant-parameter machine: each control period by the exact
    * discretisation of the electrical dynamics where it applies (exact-stepper.ts), Cash-Karp
-   * elsewhere (default false: Cash-Karp throughout, the results of before)
+   * elsewhere (default true; false: Cash-Karp throughout)
    */
   exactPeriods?: boolean;
   /**
@@ -45,6 +45,7 @@ export const DEFAULT_SOLVER_OPTIONS: Readonly<SolverOptions> = {
   currentFloor: 1e-3,
   speedFloor: 1e-3,
   angleFloor: 1,
+  exactPeriods: true,
 };
 
 /** Overcurrent trip of `simulationFromProject`, in units of Imax. */
