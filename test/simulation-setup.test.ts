@@ -9,8 +9,8 @@ describe('simulation setup and result', () => {
     expect(MAX_CONTROL_PERIODS).toBe(2_000_000);
     expect(DEFAULT_TRIP_FACTOR).toBe(3);
   });
-  it('solver defaults: Cash-Karp at tol 1e-6 with floors', () => {
-    expect(DEFAULT_SOLVER_OPTIONS).toEqual({ method: 'cash-karp', tol: 1e-6, rk4Substeps: 1, currentFloor: 1e-3, speedFloor: 1e-3, angleFloor: 1 });
+  it('solver defaults: Cash-Karp at tol 1e-6 with floors, the exact periods for a constant-parameter machine', () => {
+    expect(DEFAULT_SOLVER_OPTIONS).toEqual({ method: 'cash-karp', tol: 1e-6, rk4Substeps: 1, currentFloor: 1e-3, speedFloor: 1e-3, angleFloor: 1, exactPeriods: true });
   });
   it('sixteen channels, time first', () => {
     expect(TRACE_NAMES).toHaveLength(16);
