@@ -19,18 +19,18 @@ export class LinearNode {
   private dfr = NaN;
   /** the speed fr and dfr were taken at (NaN: none) */
   private fw = NaN;
-  private readonly pp: number;
-  private readonly Rs: number;
-  private readonly Ld: number;
-  private readonly Lq: number;
-  private readonly psiM: number;
-  private readonly iLd: number;
-  private readonly iLq: number;
-  private readonly invJ: number;
-  private readonly B: number;
-  private readonly Tc: number;
-  private readonly iWidth: number;
-  private readonly k2: number;
+  private readonly pp: number = NaN;
+  private readonly Rs: number = NaN;
+  private readonly Ld: number = NaN;
+  private readonly Lq: number = NaN;
+  private readonly psiM: number = NaN;
+  private readonly iLd: number = NaN;
+  private readonly iLq: number = NaN;
+  private readonly invJ: number = NaN;
+  private readonly B: number = NaN;
+  private readonly Tc: number = NaN;
+  private readonly iWidth: number = NaN;
+  private readonly k2: number = NaN;
   private readonly free: boolean;
 
   /** plant: a constant-parameter plant (model.linear set) */

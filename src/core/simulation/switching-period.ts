@@ -79,12 +79,12 @@ export class SwitchingPeriod {
   /** full-resolution traces at every segment end within the window (null: none kept) */
   window: WindowTrace | null = null;
 
-  private readonly Vdc: number;
-  private readonly td: number;
-  private readonly drop: number;
-  private readonly i0: number;
+  private readonly Vdc: number = NaN;
+  private readonly td: number = NaN;
+  private readonly drop: number = NaN;
+  private readonly i0: number = NaN;
   /** dead-time compensation (PwmSpec.compensation): its band, A (0: off), and each leg's current sign at the period's start */
-  private readonly compBand: number;
+  private readonly compBand: number = NaN;
   private readonly compSign = new Float64Array(3);
   /** the time the state is at while a segment is open (NaN: closed, the state at the last half's end) */
   private tOpen = NaN;
@@ -100,7 +100,7 @@ export class SwitchingPeriod {
   private nextBreak = -Infinity;
   private loadKey = NaN;
   /** a half carrier period, s (for slewBound) */
-  private readonly Th: number;
+  private readonly Th: number = NaN;
   /** the phase voltages of each switching state without the device drop (switchingStateVoltages) */
   private readonly abv = new Float64Array(16);
 

@@ -39,29 +39,29 @@ export class ExactSegment {
   readonly rot = new Float64Array(3).fill(NaN);
   /** segments the closed form declined */
   fallbacks = 0;
-  private readonly pp: number;
-  private readonly Rs: number;
-  private readonly Ld: number;
-  private readonly Lq: number;
-  private readonly psiM: number;
-  private readonly iLd: number;
-  private readonly iLq: number;
-  private readonly width: number;
+  private readonly pp: number = NaN;
+  private readonly Rs: number = NaN;
+  private readonly Ld: number = NaN;
+  private readonly Lq: number = NaN;
+  private readonly psiM: number = NaN;
+  private readonly iLd: number = NaN;
+  private readonly iLq: number = NaN;
+  private readonly width: number = NaN;
   private readonly free: boolean;
-  private readonly errMax: number;
-  private readonly rate: number;
+  private readonly errMax: number = NaN;
+  private readonly rate: number = NaN;
   // the propagator's constants (see DqPropagator.setStep), for its arithmetic written out in `step`
-  private readonly m: number;
-  private readonly q: number;
-  private readonly rqd: number;
-  private readonly rdq: number;
-  private readonly Rs2: number;
-  private readonly iRs: number;
-  private readonly S2: number;
-  private readonly LqS2: number;
-  private readonly LdS2: number;
-  private readonly dL: number;
-  private readonly LdLq: number;
+  private readonly m: number = NaN;
+  private readonly q: number = NaN;
+  private readonly rqd: number = NaN;
+  private readonly rdq: number = NaN;
+  private readonly Rs2: number = NaN;
+  private readonly iRs: number = NaN;
+  private readonly S2: number = NaN;
+  private readonly LqS2: number = NaN;
+  private readonly LdS2: number = NaN;
+  private readonly dL: number = NaN;
+  private readonly LdLq: number = NaN;
   // node results (see `node`): g = omega', g', power, power' (double fields start as non-integers)
   private ng = NaN; private ngp = NaN; private np = NaN; private npp = NaN;
   /** the plant's derivative at a node (linear-node.ts) */
