@@ -19,6 +19,8 @@ export class LinearNode {
   private dfr = NaN;
   /** the speed fr and dfr were taken at (NaN: none) */
   private fw = NaN;
+  // constants start as NaN (a double): declared without a value a field starts as undefined, and
+  // the engine then keeps its doubles boxed behind a check at every read
   private readonly pp: number = NaN;
   private readonly Rs: number = NaN;
   private readonly Ld: number = NaN;

@@ -39,6 +39,8 @@ export class ExactSegment {
   readonly rot = new Float64Array(3).fill(NaN);
   /** segments the closed form declined */
   fallbacks = 0;
+  // constants start as NaN (a double): declared without a value a field starts as undefined, and
+  // the engine then keeps its doubles boxed behind a check at every read
   private readonly pp: number = NaN;
   private readonly Rs: number = NaN;
   private readonly Ld: number = NaN;
