@@ -39,7 +39,7 @@ import { nextLoadBreak } from './load-schedule';
 import type { ExactSegment } from './switching-segment';
 import type { WindowTrace } from './switching-capture';
 import { cosSmall, sinSmall } from '../mathematics/rotation';
-import { compensatedDuty, switchingStateVoltages } from '../drive/pwm-modulator';
+import { compensatedDuty, switchingStateTable } from '../drive/pwm-modulator';
 
 const SQRT3_2 = Math.sqrt(3) / 2;
 const INV_SQRT3 = 1 / Math.sqrt(3);
@@ -101,8 +101,8 @@ export class SwitchingPeriod {
   private loadKey = NaN;
   /** a half carrier period, s (for slewBound) */
   private readonly Th: number = NaN;
-  /** the phase voltages of each switching state without the device drop (switchingStateVoltages) */
-  private readonly abv = new Float64Array(16);
+  /** each switching state's voltages with the device drop for each pattern of the currents' signs (switchingStateTable) */
+  private readonly svt = new Float64Array(320);
 
   /**
    * `inner` integrates the segments; an Rk4Stepper is driven one step per segment directly (its
@@ -118,7 +118,7 @@ export class SwitchingPeriod {
     this.i0 = spec.zeroCurrent_A > 0 ? spec.zeroCurrent_A : 1e-12;
     this.yc = new Float64Array(8);
     this.compBand = spec.compensation ? Math.max(spec.compensation.band_A, this.i0) : 0;
-    switchingStateVoltages(this.Vdc, this.abv);
+    switchingStateTable(this.Vdc, this.drop, this.svt);
   }
 
   resetProbe(): void {
@@ -267,22 +267,22 @@ export class SwitchingPeriod {
     const on = this.on;
     const Vdc = this.Vdc, drop = this.drop;
     const s0 = on[0]!, s1 = on[1]!, s2 = on[2]!;
-    let ua = s0 * Vdc, ub = s1 * Vdc, uc = s2 * Vdc;
     const input = this.plant.input;
-    if (drop !== 0) {
+    const i0 = this.i0, ia = iph[0]!, ib = iph[1]!, ic = iph[2]!;
+    let ua: number, ub: number, uc: number;
+    if (drop === 0 || (Math.abs(ia) > i0 && Math.abs(ib) > i0 && Math.abs(ic) > i0)) {
+      // the state's voltages for the currents' signs, done once per run (`svt`: the arithmetic below)
+      const tab = this.svt, k = 5 * (s0 + 2 * s1 + 4 * s2 + (ia > 0 ? 8 : 0) + (ib > 0 ? 16 : 0) + (ic > 0 ? 32 : 0));
+      input[0] = tab[k]!; input[1] = tab[k + 1]!;
+      ua = tab[k + 2]!; ub = tab[k + 3]!; uc = tab[k + 4]!;
+    } else {
       // the device drop against the current's sign, linear across |i| <= i0 (written out: no call)
-      const i0 = this.i0, ia = iph[0]!, ib = iph[1]!, ic = iph[2]!;
-      ua -= drop * (ia > i0 ? 1 : ia < -i0 ? -1 : ia / i0);
-      ub -= drop * (ib > i0 ? 1 : ib < -i0 ? -1 : ib / i0);
-      uc -= drop * (ic > i0 ? 1 : ic < -i0 ? -1 : ic / i0);
+      ua = s0 * Vdc - drop * (ia > i0 ? 1 : ia < -i0 ? -1 : ia / i0);
+      ub = s1 * Vdc - drop * (ib > i0 ? 1 : ib < -i0 ? -1 : ib / i0);
+      uc = s2 * Vdc - drop * (ic > i0 ? 1 : ic < -i0 ? -1 : ic / i0);
       // the phase voltages in alpha-beta (legsToAlphaBeta, written out)
       input[0] = (2 * ua - ub - uc) / 3;
       input[1] = (ub - uc) * INV_SQRT3;
-    } else {
-      // without the drop the same arithmetic per switching state, done once (see `abv`)
-      const k = 2 * (s0 + 2 * s1 + 4 * s2);
-      input[0] = this.abv[k]!;
-      input[1] = this.abv[k + 1]!;
     }
     const probing = this.probing;
     const dc0 = s0 * iph[0]! + s1 * iph[1]! + s2 * iph[2]!;
