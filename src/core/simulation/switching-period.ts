@@ -285,17 +285,16 @@ export class SwitchingPeriod {
       input[1] = (ub - uc) * INV_SQRT3;
     }
     const probing = this.probing;
-    const dc0 = s0 * iph[0]! + s1 * iph[1]! + s2 * iph[2]!;
+    const dc0 = probing ? s0 * iph[0]! + s1 * iph[1]! + s2 * iph[2]! : 0; // the DC-link current, for the probe only
     if (this.rk4) this.rk4Segment(y);
     else this.inner.period(y, ta, tb);
     this.segments++;
     this.currents(y);
-    const dc1 = s0 * iph[0]! + s1 * iph[1]! + s2 * iph[2]!;
     if (probing) {
+      const dc1 = s0 * iph[0]! + s1 * iph[1]! + s2 * iph[2]!;
       const h = tb - ta;
-      this.legVs[0] += ua * h;
-      this.legVs[1] += ub * h;
-      this.legVs[2] += uc * h;
+      const lv = this.legVs;
+      lv[0] += ua * h; lv[1] += ub * h; lv[2] += uc * h;
       this.idcInt += 0.5 * (dc0 + dc1) * h;
       this.idcSqInt += ((dc0 * dc0 + dc0 * dc1 + dc1 * dc1) * h) / 3;
       this.span += h;
@@ -305,7 +304,8 @@ export class SwitchingPeriod {
     if (win !== null && tb >= win.from && tb <= win.to) {
       const j = win.slot();
       if (j >= 0) {
-        win.t[j] = tb; win.ia[j] = iph[0]!; win.ib[j] = iph[1]!; win.ic[j] = iph[2]!; win.va[j] = input[0]!; win.idc[j] = dc1;
+        win.t[j] = tb; win.ia[j] = iph[0]!; win.ib[j] = iph[1]!; win.ic[j] = iph[2]!; win.va[j] = input[0]!;
+        win.idc[j] = s0 * iph[0]! + s1 * iph[1]! + s2 * iph[2]!;
       }
     }
   }

@@ -48,13 +48,15 @@ export class ExactSegment {
   private readonly psiM: number = NaN;
   private readonly iLd: number = NaN;
   private readonly iLq: number = NaN;
-  private readonly width: number = NaN;
+  /** 20 times the smoothed Coulomb sign's width, rad/s (the free-mechanics test below) */
+  private readonly width20: number = NaN;
   private readonly free: boolean;
   private readonly errMax: number = NaN;
   private readonly rate: number = NaN;
   // the propagator's constants (see DqPropagator.setStep), for its arithmetic written out in `step`
   private readonly m: number = NaN;
   private readonly q: number = NaN;
+  private readonly qq: number = NaN;
   private readonly rqd: number = NaN;
   private readonly rdq: number = NaN;
   private readonly Rs2: number = NaN;
@@ -83,13 +85,14 @@ export class ExactSegment {
     this.iLd = 1 / m.Ld;
     this.iLq = 1 / m.Lq;
     const pr = plant.params;
-    this.width = pr.coulombWidth_rad_s;
+    this.width20 = 20 * pr.coulombWidth_rad_s;
     this.free = pr.mechanics === 'free';
     this.errMax = 1e-11 * Imax;
     this.rate = Math.max(this.Rs / m.Ld, this.Rs / m.Lq);
     const a = -this.Rs / m.Ld, d = -this.Rs / m.Lq, S = m.Ld + m.Lq;
     this.m = 0.5 * (a + d);
     this.q = 0.5 * (a - d);
+    this.qq = this.q * this.q;
     this.rqd = m.Lq / m.Ld;
     this.rdq = m.Ld / m.Lq;
     this.Rs2 = this.Rs * this.Rs;
@@ -113,11 +116,9 @@ export class ExactSegment {
     this.np = n.np; this.npp = n.npp; this.ng = n.ng; this.ngp = n.ngp;
   }
 
-  /** `node` with the friction already taken at arg[2] (LinearNode.frictionAt). */
+  /** `node` with the friction already taken at arg[2] (LinearNode.frictionAt), the load line as `node` set it. */
   private nodeWithFriction(): void {
     const n = this.n;
-    n.LA = this.plant.loadA;
-    n.LB = this.plant.loadB;
     n.atWithFriction(this.arg);
     this.np = n.np; this.npp = n.npp; this.ng = n.ng; this.ngp = n.ngp;
   }
@@ -155,7 +156,7 @@ export class ExactSegment {
     const g0 = this.ng, gp0 = this.ngp, P0 = this.np, Pp0 = this.npp;
     if (this.free) {
       const ag0 = g0 < 0 ? -g0 : g0;
-      if (aw0 < 20 * this.width + 4 * ag0 * h) return this.no();
+      if (aw0 < this.width20 + 4 * ag0 * h) return this.no();
     }
     const hh = h * h;
     // the end node's speed, predicted: its friction first (a square root and a division that then
@@ -167,7 +168,7 @@ export class ExactSegment {
     // series branch |delta h| <= 0.5 (every segment of a carrier period at any sensible speed)
     const W = p * (w0 + 0.5 * g0 * h + (gp0 * hh) / 6);
     const q = this.q;
-    const yy = (q * q - W * W) * hh;
+    const yy = (this.qq - W * W) * hh;
     const wt = W * h;
     if (!(yy > -0.25 && yy < 0.25 && wt > -0.5 && wt < 0.5)) return this.no();
     const mh = this.m * h;
