@@ -43,4 +43,24 @@ describe('LinearNode', () => {
       expect(((p1 - p0) / (2 * h)) / pp).toBeCloseTo(1, 5);
     });
   }
+  it('the friction taken early at one speed and the node after it, as the node in one call (the same arithmetic); the friction kept for its speed (common practice, no source)', () => {
+    const s = simulationFromProject(loadProjectText(JSON.stringify(demo('demo-ipm-traction'))));
+    const plant = new Plant({ ...s.plant, inputFrame: 'dq' });
+    const a = new LinearNode(plant), b = new LinearNode(plant);
+    a.LA = b.LA = 1.5; a.LB = b.LB = -20;
+    a.at(Float64Array.of(-30, 60, 0.02, -25, 70, 0.2)); // the speed within the friction's smoothing width
+    b.xW = 0.02;
+    b.friction();
+    b.xId = -30; b.xIq = 60; b.xVd = -25; b.xVq = 70; b.xT = 0.2;
+    b.evaluateWithFriction();
+    expect([b.nd, b.nq, b.ng, b.ngp, b.np, b.npp]).toEqual([a.nd, a.nq, a.ng, a.ngp, a.np, a.npp]);
+    // a stale friction: evaluateWithFriction at another speed keeps the old one, evaluate takes the new
+    b.xW = 150;
+    b.evaluateWithFriction();
+    const stale = b.ng;
+    b.evaluate();
+    a.at(Float64Array.of(-30, 60, 150, -25, 70, 0.2));
+    expect(b.ng).toBe(a.ng);
+    expect(stale).not.toBe(a.ng);
+  });
 });

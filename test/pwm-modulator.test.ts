@@ -1,6 +1,6 @@
 // The carrier modulator (src/core/drive/pwm-modulator.ts): duties by modulation, clipping, edges.
 import { describe, expect, it } from 'vitest';
-import { fallingEdge, legDuties, legsToAlphaBeta, phaseDuties, risingEdge, switchingStateVoltages } from '../src/core/drive/pwm-modulator';
+import { fallingEdge, legDuties, legsToAlphaBeta, phaseDuties, risingEdge, switchingStateTable, switchingStateVoltages } from '../src/core/drive/pwm-modulator';
 import { hexagonRadius } from '../src/core/drive/inverter';
 
 const Vdc = 400;
@@ -90,6 +90,30 @@ describe('carrier modulator', () => {
       legsToAlphaBeta((st & 1) * Vdc, ((st >> 1) & 1) * Vdc, ((st >> 2) & 1) * Vdc, ab);
       expect(v[2 * st]!).toBeCloseTo(ab[0]!, 12);
       expect(v[2 * st + 1]!).toBeCloseTo(ab[1]!, 12);
+    }
+  });
+  it('the states with the device drop: each leg at its rail minus drop sgn(i); without the drop the states themselves (common practice, no source)', () => {
+    const drop = 1.5;
+    const t = new Float64Array(320);
+    switchingStateTable(Vdc, drop, t);
+    for (let k = 0; k < 64; k++) {
+      const sgn = (bit: number): number => ((k & bit) !== 0 ? 1 : -1);
+      const ua = (k & 1) * Vdc - drop * sgn(8), ub = ((k >> 1) & 1) * Vdc - drop * sgn(16), uc = ((k >> 2) & 1) * Vdc - drop * sgn(32);
+      expect([t[5 * k + 2], t[5 * k + 3], t[5 * k + 4]]).toEqual([ua, ub, uc]);
+      legsToAlphaBeta(ua, ub, uc, ab);
+      expect(t[5 * k]!).toBeCloseTo(ab[0]!, 12);
+      expect(t[5 * k + 1]!).toBeCloseTo(ab[1]!, 12);
+    }
+    // state a on, phase a's current out of its leg and b's and c's into theirs: alpha 2 (Vdc - 2 drop)/3
+    expect(t[5 * (1 + 8)]!).toBeCloseTo((2 * (Vdc - 2 * drop)) / 3, 12);
+    // all three currents of one sign (impossible in a star, a check of the common mode): the drop cancels
+    expect(t[5 * (1 + 56)]!).toBeCloseTo((2 * Vdc) / 3, 12);
+    const v = new Float64Array(16);
+    switchingStateVoltages(Vdc, v);
+    switchingStateTable(Vdc, 0, t);
+    for (let k = 0; k < 64; k++) {
+      expect(t[5 * k]).toBe(v[2 * (k & 7)]);
+      expect(t[5 * k + 1]).toBe(v[2 * (k & 7) + 1]);
     }
   });
 });

@@ -128,3 +128,25 @@ export function switchingStateVoltages(Vdc: number, out: Float64Array): void {
     out[2 * st + 1] = (ub - uc) * INV_SQRT3;
   }
 }
+
+/**
+ * Each switching state's voltages with the device drop, for each pattern of the phase currents'
+ * signs (every |i| above the drop's linear band): out[5 k .. 5 k + 4] = v_alpha, v_beta, ua, ub, uc
+ * for k = st + 8 sg, st = a + 2 b + 4 c the legs on the plus rail, sg = a + 2 b + 4 c the phases
+ * whose current is positive (out of the leg). A leg sits at its rail minus drop sgn(i), a switch or a
+ * diode conducting (common practice, no source). The arithmetic is the switching model's per segment
+ * (switching-period.ts): a table entry equals what it computes for that state and those signs.
+ */
+export function switchingStateTable(Vdc: number, drop: number, out: Float64Array): void {
+  for (let k = 0; k < 64; k++) {
+    let ua = (k & 1) * Vdc, ub = ((k >> 1) & 1) * Vdc, uc = ((k >> 2) & 1) * Vdc;
+    ua -= drop * ((k & 8) !== 0 ? 1 : -1);
+    ub -= drop * ((k & 16) !== 0 ? 1 : -1);
+    uc -= drop * ((k & 32) !== 0 ? 1 : -1);
+    out[5 * k] = (2 * ua - ub - uc) / 3;
+    out[5 * k + 1] = (ub - uc) * INV_SQRT3;
+    out[5 * k + 2] = ua;
+    out[5 * k + 3] = ub;
+    out[5 * k + 4] = uc;
+  }
+}

@@ -14,23 +14,25 @@ export class LinearNode {
   LB = NaN;
   /** results: di/dt (A/s), omega' and omega'' , power (W) and its derivative (double fields start as non-integers) */
   nd = NaN; nq = NaN; ng = NaN; ngp = NaN; np = NaN; npp = NaN;
-  /** the smoothed Coulomb friction at the node's speed and its derivative by the speed (see `frictionAt`) */
+  /** the smoothed Coulomb friction at the node's speed and its derivative by the speed (see `friction`) */
   private fr = NaN;
   private dfr = NaN;
   /** the speed fr and dfr were taken at (NaN: none) */
   private fw = NaN;
-  private readonly pp: number;
-  private readonly Rs: number;
-  private readonly Ld: number;
-  private readonly Lq: number;
-  private readonly psiM: number;
-  private readonly iLd: number;
-  private readonly iLq: number;
-  private readonly invJ: number;
-  private readonly B: number;
-  private readonly Tc: number;
-  private readonly iWidth: number;
-  private readonly k2: number;
+  // constants start as NaN (a double): declared without a value a field starts as undefined, and
+  // the engine then keeps its doubles boxed behind a check at every read
+  private readonly pp: number = NaN;
+  private readonly Rs: number = NaN;
+  private readonly Ld: number = NaN;
+  private readonly Lq: number = NaN;
+  private readonly psiM: number = NaN;
+  private readonly iLd: number = NaN;
+  private readonly iLq: number = NaN;
+  private readonly invJ: number = NaN;
+  private readonly B: number = NaN;
+  private readonly Tc: number = NaN;
+  private readonly iWidth: number = NaN;
+  private readonly k2: number = NaN;
   private readonly free: boolean;
 
   /** plant: a constant-parameter plant (model.linear set) */
@@ -53,23 +55,34 @@ export class LinearNode {
   }
 
   /**
-   * The node at current (id, iq), speed omega, dq voltage (vd, vq) and time t, from a[0..5] (doubles
-   * cross the call through a typed array: no boxing when the call is not inlined).
+   * The node's inputs for `evaluate`, `friction` and `evaluateWithFriction`: current (id, iq), speed
+   * omega, dq voltage (vd, vq) and time t. Fields, not arguments: a caller into which these calls are
+   * inlined keeps the values in registers (no store and reload, as through a typed array), and one
+   * into which they are not passes no boxed double.
    */
+  xId = NaN; xIq = NaN; xW = NaN; xVd = NaN; xVq = NaN; xT = NaN;
+
+  /** The node at the inputs a[0..5] (id, iq, omega, vd, vq, t; see the x fields). */
   at(a: Float64Array): void {
-    if (a[2]! !== this.fw) this.frictionAt(a);
-    this.atWithFriction(a);
+    this.xId = a[0]!; this.xIq = a[1]!; this.xW = a[2]!; this.xVd = a[3]!; this.xVq = a[4]!; this.xT = a[5]!;
+    this.evaluate();
+  }
+
+  /** The node at the x fields' inputs (the friction taken unless it is at their speed already). */
+  evaluate(): void {
+    if (this.xW !== this.fw) this.friction();
+    this.evaluateWithFriction();
   }
 
   /**
-   * The friction at the speed a[2] (a square root and a division: a caller that knows a node's speed
+   * The friction at the speed xW (a square root and a division: a caller that knows a node's speed
    * early calls this first, so that their latency overlaps its other arithmetic, then
-   * `atWithFriction` on the node with that speed).
+   * `evaluateWithFriction` on the node with that speed).
    */
-  frictionAt(a: Float64Array): void {
+  friction(): void {
+    const w = this.xW;
     let fr = 0, dfr = 0;
     if (this.free && this.Tc > 0) {
-      const w = a[2]!;
       const x = w * this.iWidth;
       const r = 1 / Math.sqrt(1 + x * x);
       fr = this.Tc * x * r;
@@ -77,12 +90,12 @@ export class LinearNode {
     }
     this.fr = fr;
     this.dfr = dfr;
-    this.fw = a[2]!;
+    this.fw = w;
   }
 
-  /** `at` with the friction of `frictionAt` at the same speed a[2]. */
-  atWithFriction(a: Float64Array): void {
-    const id = a[0]!, iq = a[1]!, w = a[2]!, vd = a[3]!, vq = a[4]!, t = a[5]!;
+  /** `evaluate` with the friction of `friction` at the same speed xW. */
+  evaluateWithFriction(): void {
+    const id = this.xId, iq = this.xIq, w = this.xW, vd = this.xVd, vq = this.xVq, t = this.xT;
     this.plant.evaluations++;
     const p = this.pp, Ld = this.Ld, Lq = this.Lq, psiM = this.psiM, Rs = this.Rs;
     const we = p * w;

@@ -37,9 +37,19 @@ export class WindowTrace {
   readonly idc: Float64Array;
   /**
    * `from`..`to` the times kept (s); `ring` true: the last `cap` samples are kept (the default
-   * window), false: the first `cap` samples within [from, to].
+   * window), false: the first `cap` samples within [from, to]. (Fields with a value of their kind
+   * before the constructor's: a field declared without one starts as undefined, and the engine then
+   * keeps its doubles boxed behind a check at every read.)
    */
-  constructor(readonly from: number, readonly to: number, readonly cap: number, readonly ring: boolean) {
+  readonly from: number = NaN;
+  readonly to: number = NaN;
+  readonly cap: number = 0;
+  readonly ring: boolean = false;
+  constructor(from: number, to: number, cap: number, ring: boolean) {
+    this.from = from;
+    this.to = to;
+    this.cap = cap;
+    this.ring = ring;
     this.t = new Float64Array(cap);
     this.ia = new Float64Array(cap);
     this.ib = new Float64Array(cap);
@@ -61,7 +71,7 @@ export class WindowTrace {
 export class SwitchingCapture {
   /** periods recorded in all (the ring's valid records are the last min(count, cap)) */
   count = 0;
-  readonly cap: number;
+  readonly cap: number = 0;
   readonly t: Float64Array;
   readonly theta: Float64Array;
   readonly ia: Float64Array;
@@ -79,7 +89,7 @@ export class SwitchingCapture {
   /** the unwrapped electrical angle the run is at (see SwitchingStepper) */
   thetaRun = NaN;
   /** the time from which periods are recorded: the ring's span before the run's end (earlier periods could not reach it), s */
-  readonly recordFrom: number;
+  readonly recordFrom: number = NaN;
   readonly window: WindowTrace;
 
   /**

@@ -39,7 +39,7 @@ import { nextLoadBreak } from './load-schedule';
 import type { ExactSegment } from './switching-segment';
 import type { WindowTrace } from './switching-capture';
 import { cosSmall, sinSmall } from '../mathematics/rotation';
-import { compensatedDuty, switchingStateVoltages } from '../drive/pwm-modulator';
+import { compensatedDuty, switchingStateTable } from '../drive/pwm-modulator';
 
 const SQRT3_2 = Math.sqrt(3) / 2;
 const INV_SQRT3 = 1 / Math.sqrt(3);
@@ -79,12 +79,12 @@ export class SwitchingPeriod {
   /** full-resolution traces at every segment end within the window (null: none kept) */
   window: WindowTrace | null = null;
 
-  private readonly Vdc: number;
-  private readonly td: number;
-  private readonly drop: number;
-  private readonly i0: number;
+  private readonly Vdc: number = NaN;
+  private readonly td: number = NaN;
+  private readonly drop: number = NaN;
+  private readonly i0: number = NaN;
   /** dead-time compensation (PwmSpec.compensation): its band, A (0: off), and each leg's current sign at the period's start */
-  private readonly compBand: number;
+  private readonly compBand: number = NaN;
   private readonly compSign = new Float64Array(3);
   /** the time the state is at while a segment is open (NaN: closed, the state at the last half's end) */
   private tOpen = NaN;
@@ -100,9 +100,9 @@ export class SwitchingPeriod {
   private nextBreak = -Infinity;
   private loadKey = NaN;
   /** a half carrier period, s (for slewBound) */
-  private readonly Th: number;
-  /** the phase voltages of each switching state without the device drop (switchingStateVoltages) */
-  private readonly abv = new Float64Array(16);
+  private readonly Th: number = NaN;
+  /** each switching state's voltages with the device drop for each pattern of the currents' signs (switchingStateTable) */
+  private readonly svt = new Float64Array(320);
 
   /**
    * `inner` integrates the segments; an Rk4Stepper is driven one step per segment directly (its
@@ -118,7 +118,7 @@ export class SwitchingPeriod {
     this.i0 = spec.zeroCurrent_A > 0 ? spec.zeroCurrent_A : 1e-12;
     this.yc = new Float64Array(8);
     this.compBand = spec.compensation ? Math.max(spec.compensation.band_A, this.i0) : 0;
-    switchingStateVoltages(this.Vdc, this.abv);
+    switchingStateTable(this.Vdc, this.drop, this.svt);
   }
 
   resetProbe(): void {
@@ -267,35 +267,34 @@ export class SwitchingPeriod {
     const on = this.on;
     const Vdc = this.Vdc, drop = this.drop;
     const s0 = on[0]!, s1 = on[1]!, s2 = on[2]!;
-    let ua = s0 * Vdc, ub = s1 * Vdc, uc = s2 * Vdc;
     const input = this.plant.input;
-    if (drop !== 0) {
+    const i0 = this.i0, ia = iph[0]!, ib = iph[1]!, ic = iph[2]!;
+    let ua: number, ub: number, uc: number;
+    if (drop === 0 || (Math.abs(ia) > i0 && Math.abs(ib) > i0 && Math.abs(ic) > i0)) {
+      // the state's voltages for the currents' signs, done once per run (`svt`: the arithmetic below)
+      const tab = this.svt, k = 5 * (s0 + 2 * s1 + 4 * s2 + (ia > 0 ? 8 : 0) + (ib > 0 ? 16 : 0) + (ic > 0 ? 32 : 0));
+      input[0] = tab[k]!; input[1] = tab[k + 1]!;
+      ua = tab[k + 2]!; ub = tab[k + 3]!; uc = tab[k + 4]!;
+    } else {
       // the device drop against the current's sign, linear across |i| <= i0 (written out: no call)
-      const i0 = this.i0, ia = iph[0]!, ib = iph[1]!, ic = iph[2]!;
-      ua -= drop * (ia > i0 ? 1 : ia < -i0 ? -1 : ia / i0);
-      ub -= drop * (ib > i0 ? 1 : ib < -i0 ? -1 : ib / i0);
-      uc -= drop * (ic > i0 ? 1 : ic < -i0 ? -1 : ic / i0);
+      ua = s0 * Vdc - drop * (ia > i0 ? 1 : ia < -i0 ? -1 : ia / i0);
+      ub = s1 * Vdc - drop * (ib > i0 ? 1 : ib < -i0 ? -1 : ib / i0);
+      uc = s2 * Vdc - drop * (ic > i0 ? 1 : ic < -i0 ? -1 : ic / i0);
       // the phase voltages in alpha-beta (legsToAlphaBeta, written out)
       input[0] = (2 * ua - ub - uc) / 3;
       input[1] = (ub - uc) * INV_SQRT3;
-    } else {
-      // without the drop the same arithmetic per switching state, done once (see `abv`)
-      const k = 2 * (s0 + 2 * s1 + 4 * s2);
-      input[0] = this.abv[k]!;
-      input[1] = this.abv[k + 1]!;
     }
     const probing = this.probing;
-    const dc0 = s0 * iph[0]! + s1 * iph[1]! + s2 * iph[2]!;
+    const dc0 = probing ? s0 * iph[0]! + s1 * iph[1]! + s2 * iph[2]! : 0; // the DC-link current, for the probe only
     if (this.rk4) this.rk4Segment(y);
     else this.inner.period(y, ta, tb);
     this.segments++;
     this.currents(y);
-    const dc1 = s0 * iph[0]! + s1 * iph[1]! + s2 * iph[2]!;
     if (probing) {
+      const dc1 = s0 * iph[0]! + s1 * iph[1]! + s2 * iph[2]!;
       const h = tb - ta;
-      this.legVs[0] += ua * h;
-      this.legVs[1] += ub * h;
-      this.legVs[2] += uc * h;
+      const lv = this.legVs;
+      lv[0] += ua * h; lv[1] += ub * h; lv[2] += uc * h;
       this.idcInt += 0.5 * (dc0 + dc1) * h;
       this.idcSqInt += ((dc0 * dc0 + dc0 * dc1 + dc1 * dc1) * h) / 3;
       this.span += h;
@@ -305,7 +304,8 @@ export class SwitchingPeriod {
     if (win !== null && tb >= win.from && tb <= win.to) {
       const j = win.slot();
       if (j >= 0) {
-        win.t[j] = tb; win.ia[j] = iph[0]!; win.ib[j] = iph[1]!; win.ic[j] = iph[2]!; win.va[j] = input[0]!; win.idc[j] = dc1;
+        win.t[j] = tb; win.ia[j] = iph[0]!; win.ib[j] = iph[1]!; win.ic[j] = iph[2]!; win.va[j] = input[0]!;
+        win.idc[j] = s0 * iph[0]! + s1 * iph[1]! + s2 * iph[2]!;
       }
     }
   }

@@ -39,35 +39,35 @@ export class ExactSegment {
   readonly rot = new Float64Array(3).fill(NaN);
   /** segments the closed form declined */
   fallbacks = 0;
-  private readonly pp: number;
-  private readonly Rs: number;
-  private readonly Ld: number;
-  private readonly Lq: number;
-  private readonly psiM: number;
-  private readonly iLd: number;
-  private readonly iLq: number;
-  private readonly width: number;
+  // constants start as NaN (a double): declared without a value a field starts as undefined, and
+  // the engine then keeps its doubles boxed behind a check at every read
+  private readonly pp: number = NaN;
+  private readonly Rs: number = NaN;
+  private readonly Ld: number = NaN;
+  private readonly Lq: number = NaN;
+  private readonly psiM: number = NaN;
+  private readonly iLd: number = NaN;
+  private readonly iLq: number = NaN;
+  /** 20 times the smoothed Coulomb sign's width, rad/s (the free-mechanics test below) */
+  private readonly width20: number = NaN;
   private readonly free: boolean;
-  private readonly errMax: number;
-  private readonly rate: number;
+  private readonly errMax: number = NaN;
+  private readonly rate: number = NaN;
   // the propagator's constants (see DqPropagator.setStep), for its arithmetic written out in `step`
-  private readonly m: number;
-  private readonly q: number;
-  private readonly rqd: number;
-  private readonly rdq: number;
-  private readonly Rs2: number;
-  private readonly iRs: number;
-  private readonly S2: number;
-  private readonly LqS2: number;
-  private readonly LdS2: number;
-  private readonly dL: number;
-  private readonly LdLq: number;
-  // node results (see `node`): g = omega', g', power, power' (double fields start as non-integers)
-  private ng = NaN; private ngp = NaN; private np = NaN; private npp = NaN;
-  /** the plant's derivative at a node (linear-node.ts) */
+  private readonly m: number = NaN;
+  private readonly q: number = NaN;
+  private readonly qq: number = NaN;
+  private readonly rqd: number = NaN;
+  private readonly rdq: number = NaN;
+  private readonly Rs2: number = NaN;
+  private readonly iRs: number = NaN;
+  private readonly S2: number = NaN;
+  private readonly LqS2: number = NaN;
+  private readonly LdS2: number = NaN;
+  private readonly dL: number = NaN;
+  private readonly LdLq: number = NaN;
+  /** the plant's derivative at a node (linear-node.ts; its inputs and results in its fields) */
   private readonly n: LinearNode;
-  /** arguments of `node`: id, iq, omega, vd, vq, t */
-  private readonly arg = new Float64Array(6);
 
   constructor(private readonly plant: Plant, Imax: number) {
     const m = plant.model.linear;
@@ -81,13 +81,14 @@ export class ExactSegment {
     this.iLd = 1 / m.Ld;
     this.iLq = 1 / m.Lq;
     const pr = plant.params;
-    this.width = pr.coulombWidth_rad_s;
+    this.width20 = 20 * pr.coulombWidth_rad_s;
     this.free = pr.mechanics === 'free';
     this.errMax = 1e-11 * Imax;
     this.rate = Math.max(this.Rs / m.Ld, this.Rs / m.Lq);
     const a = -this.Rs / m.Ld, d = -this.Rs / m.Lq, S = m.Ld + m.Lq;
     this.m = 0.5 * (a + d);
     this.q = 0.5 * (a - d);
+    this.qq = this.q * this.q;
     this.rqd = m.Lq / m.Ld;
     this.rdq = m.Ld / m.Lq;
     this.Rs2 = this.Rs * this.Rs;
@@ -97,27 +98,6 @@ export class ExactSegment {
     this.LdS2 = 2 * m.Ld * S;
     this.dL = m.Ld - m.Lq;
     this.LdLq = m.Ld * m.Lq;
-  }
-
-  /**
-   * The plant's derivative at a node from arg[0..5] (see `arg`), the load line the plant holds
-   * (Plant.setLoadSegment): g, g' (omega'' from the torque's derivative), the power and its derivative.
-   */
-  private node(): void {
-    const n = this.n;
-    n.LA = this.plant.loadA;
-    n.LB = this.plant.loadB;
-    n.at(this.arg);
-    this.np = n.np; this.npp = n.npp; this.ng = n.ng; this.ngp = n.ngp;
-  }
-
-  /** `node` with the friction already taken at arg[2] (LinearNode.frictionAt). */
-  private nodeWithFriction(): void {
-    const n = this.n;
-    n.LA = this.plant.loadA;
-    n.LB = this.plant.loadB;
-    n.atWithFriction(this.arg);
-    this.np = n.np; this.npp = n.npp; this.ng = n.ng; this.ngp = n.ngp;
   }
 
   /** Integrate y over [span[0], span[1]] with the plant's input (alpha-beta) held; false (y untouched) where it does not apply. */
@@ -147,25 +127,29 @@ export class ExactSegment {
     const u = plant.input;
     const vd0 = u[0]! * c + u[1]! * s, vq0 = -u[0]! * s + u[1]! * c;
     if (!Number.isFinite(id0 + iq0 + w0 + th0 + vd0 + vq0)) return this.no();
-    const ag = this.arg;
-    ag[0] = id0; ag[1] = iq0; ag[2] = w0; ag[3] = vd0; ag[4] = vq0; ag[5] = ta;
-    this.node();
-    const g0 = this.ng, gp0 = this.ngp, P0 = this.np, Pp0 = this.npp;
+    // the start node, under the load line the plant holds (Plant.setLoadSegment): g = omega', g'
+    // (omega'' from the torque's derivative), the power and its derivative
+    const n = this.n;
+    n.LA = plant.loadA;
+    n.LB = plant.loadB;
+    n.xId = id0; n.xIq = iq0; n.xW = w0; n.xVd = vd0; n.xVq = vq0; n.xT = ta;
+    n.evaluate();
+    const g0 = n.ng, gp0 = n.ngp, P0 = n.np, Pp0 = n.npp;
     if (this.free) {
       const ag0 = g0 < 0 ? -g0 : g0;
-      if (aw0 < 20 * this.width + 4 * ag0 * h) return this.no();
+      if (aw0 < this.width20 + 4 * ag0 * h) return this.no();
     }
     const hh = h * h;
     // the end node's speed, predicted: its friction first (a square root and a division that then
     // overlap the propagation below)
     const w1p = w0 + g0 * h + 0.5 * gp0 * hh;
-    ag[2] = w1p;
-    this.n.frictionAt(ag);
+    n.xW = w1p;
+    n.friction();
     // DqPropagator.setStep, errorBound and propagate written out (no call, no square root): the
     // series branch |delta h| <= 0.5 (every segment of a carrier period at any sensible speed)
     const W = p * (w0 + 0.5 * g0 * h + (gp0 * hh) / 6);
     const q = this.q;
-    const yy = (q * q - W * W) * hh;
+    const yy = (this.qq - W * W) * hh;
     const wt = W * h;
     if (!(yy > -0.25 && yy < 0.25 && wt > -0.5 && wt < 0.5)) return this.no();
     const mh = this.m * h;
@@ -191,9 +175,10 @@ export class ExactSegment {
     const zd = id0 - x1r - xcd, zq = iq0 - x2r - xcq;
     const id1 = p11 * zd + p12 * zq + xcd + x1r * cw + x1i * sw;
     const iq1 = p21 * zd + p22 * zq + xcq + x2r * cw + x2i * sw;
-    ag[0] = id1; ag[1] = iq1; ag[2] = w1p; ag[3] = vd0 * cw + vq0 * sw; ag[4] = -vd0 * sw + vq0 * cw; ag[5] = tb;
-    this.nodeWithFriction();
-    const g1 = this.ng, gp1 = this.ngp, P1 = this.np, Pp1 = this.npp;
+    // the end node at the predicted speed (its friction taken above)
+    n.xId = id1; n.xIq = iq1; n.xVd = vd0 * cw + vq0 * sw; n.xVq = -vd0 * sw + vq0 * cw; n.xT = tb;
+    n.evaluateWithFriction();
+    const g1 = n.ng, gp1 = n.ngp, P1 = n.np, Pp1 = n.npp;
     y[0] = id1;
     y[1] = iq1;
     const w1 = w0 + 0.5 * h * (g0 + g1) + (hh / 12) * (gp0 - gp1);
@@ -201,8 +186,8 @@ export class ExactSegment {
     y[3] = th0 + p * (w0 * h + hh * (0.35 * g0 + 0.15 * g1) + hh * h * (gp0 / 20 - gp1 / 30));
     y[4] = y[4]! + 0.5 * h * (P0 + P1) + (hh / 12) * (Pp0 - Pp1);
     // the next segment's start node is at this speed: its friction now (the node keeps it for that speed)
-    ag[2] = w1;
-    this.n.frictionAt(ag);
+    n.xW = w1;
+    n.friction();
     return true;
   }
 
