@@ -76,4 +76,21 @@ describe('streaming min/max decimation', () => {
     expect(Array.from(d.t)).toEqual([0, 99, 100, 199, 200, 249]);
     expect(Array.from(d.channels[0]!)).toEqual([0, 99, -5, 199, 200, 249]);
   });
+  it('says which sample its first held row is and when a commit ends a bucket', () => {
+    // 100 samples in 10 buckets of 10: common practice (no source)
+    const s = new StreamingMinMax(1, 100, 20);
+    const ends: number[] = [];
+    for (let k = 0; k < 100; k++) {
+      const o = s.slot(k);
+      expect(o).toBe((k - s.first) * 1);
+      if (s.ending) ends.push(k);
+      s.commit();
+    }
+    expect(ends).toEqual([9, 19, 29, 39, 49, 59, 69, 79, 89, 99]);
+    expect(s.first).toBe(100);
+    const raw = new StreamingMinMax(1, 5, 5000);
+    raw.push(0, [1]);
+    expect(raw.ending).toBe(false);
+    expect(raw.first).toBe(0);
+  });
 });

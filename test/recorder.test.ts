@@ -93,3 +93,60 @@ describe('the recorded load torque', () => {
     expect(got).toEqual(want);
   });
 });
+
+describe('the speed metrics of the recorder', () => {
+  it('equal the array forms on the full-rate samples, whether the decimator holds every row or a bucket of them', async () => {
+    // reference: stepResponse, loadStepResponse and steadyStateError of metrics.ts on the whole trace; common practice (no source)
+    const { stepResponse, loadStepResponse, steadyStateError } = await import('../src/core/simulation/metrics');
+    const { simulationFromProject } = await import('../src/core/project/simulation-from-project');
+    const { loadProjectText } = await import('../src/core/project/project');
+    const { readFileSync } = await import('node:fs');
+    const { fileURLToPath } = await import('node:url');
+    const p = loadProjectText(readFileSync(fileURLToPath(new URL('../resources/demo-ipm-traction.json', import.meta.url)), 'utf8'));
+    const s = simulationFromProject(p, { control: { angle: { source: 'ideal' } }, scenario: { duration_s: 0.2, speedSteps: [{ t_s: 0.01, speed_rpm: 1100 }], loadSteps: [{ t_s: 0.1, torque_Nm: 30 }] } });
+    const n = 2000;
+    const Ts = s.controller.Ts;
+    const make = (maxPoints: number) => {
+      const plant = new Plant(s.plant);
+      const ctrl = new CascadeController(s.controller);
+      return { rec: new TraceRecorder(s, plant.model, plant, ctrl, n, maxPoints), plant, ctrl };
+    };
+    const runs = [make(2 * (n + 1)), make(300)];
+    const y = new Float64Array(STATE_SIZE);
+    for (let k = 0; k <= n; k++) {
+      const t = k * Ts;
+      // a speed that overshoots the step to 1100 rpm, settles, then dips at the load step and recovers
+      const rpm = t < 0.01 ? 1000 : 1100 - 100 * Math.exp(-(t - 0.01) / 0.004) * Math.cos(900 * (t - 0.01)) - (t >= 0.1 ? 30 * ((t - 0.1) / 0.005) * Math.exp(1 - (t - 0.1) / 0.005) : 0);
+      y[2] = (rpm * Math.PI) / 30;
+      for (const r of runs) {
+        r.ctrl.speedRefOut = ((t < 0.01 ? 1000 : 1100) * Math.PI) / 30;
+        r.plant.setAngleOrigin(0);
+        r.rec.record(k, y);
+      }
+    }
+    const full = runs[0]!.rec.traces();
+    const tLast = n * Ts;
+    const want = {
+      step: stepResponse(full.t_s, full.speed_rpm, n + 1, 0.01, 0.1, 1000, 1100),
+      load: loadStepResponse(full.t_s, full.speedRef_rpm, full.speed_rpm, n + 1, 0.1, Infinity, undefined, 1),
+      sse: steadyStateError(full.t_s, full.speedRef_rpm, full.speed_rpm, n + 1, 0.05 * tLast),
+    };
+    expect(want.step.overshoot_pct).toBeGreaterThan(10);
+    expect(want.load.dip).toBeCloseTo(30, 1);
+    for (const { rec } of runs) {
+      const m = rec.speedMetrics(tLast);
+      expect([m.rise, m.over, m.settle]).toEqual([want.step.riseTime_s, want.step.overshoot_pct, want.step.settlingTime_s]);
+      expect([m.dip, m.recov]).toEqual([want.load.dip, want.load.recovery_s]);
+      expect(m.sse).toBe(want.sse);
+      expect(rec.loadSteps()[0]!.dip_rpm).toBe(want.load.dip);
+    }
+  });
+  it('takes the samples in order', () => {
+    const s = setup();
+    const plant = new Plant(s.plant);
+    const rec = new TraceRecorder(s, plant.model, plant, new CascadeController(s.controller), 3, 100);
+    const y = new Float64Array(STATE_SIZE);
+    rec.record(0, y);
+    expect(() => rec.record(2, y)).toThrow(/in order/);
+  });
+});

@@ -143,6 +143,16 @@ export class StreamingMinMax {
     return j * this.nChannels;
   }
 
+  /** The number of the first sample whose row `buf` holds (its row at offset 0). */
+  get first(): number {
+    return this.raw ? 0 : this.bStart;
+  }
+
+  /** The next `commit` ends a bucket: the rows held are reduced and then overwritten. */
+  get ending(): boolean {
+    return !this.raw && this.count + 1 >= this.bEnd;
+  }
+
   /** End the sample whose row was written at `slot`'s offset. */
   commit(): void {
     this.count++;

@@ -44,6 +44,8 @@ const VQ = channel('vq_V');
 const VNORM = channel('vNorm');
 const IA = channel('ia_A'); // ib_A and ic_A follow
 const PDC = channel('pDc_W');
+// the trackers read a row's speed reference and speed side by side (metrics.ts takeRows)
+if (SPEED !== SPEED_REF + 1) throw new Error('speed_rpm must follow speedRef_rpm in TRACE_NAMES');
 /** the angle source's channels follow TRACE_NAMES' */
 const ANGLE_ERROR = TRACE_NAMES.length - 1;
 const SPEED_ESTIMATE = ANGLE_ERROR + 1;
@@ -75,6 +77,10 @@ export class TraceRecorder {
   /** the decimator's row buffer: each sample's channels are written into it directly */
   private readonly buf: Float64Array;
   private readonly msmp = new Float64Array(3);
+  /** channels per row */
+  private readonly nch: number;
+  /** samples the trackers have taken (they take a bucket's at once, before it is reduced; the rest at the end) */
+  private fed = 0;
   private readonly stepTrk: StepResponseTracker | null;
   /** one tracker per load event; their windows [t, next event) do not overlap, so only the current one is fed */
   private readonly loadTrks: LoadStepTracker[];
@@ -100,6 +106,7 @@ export class TraceRecorder {
     this.cap = periods + 1;
     this.Ts = setup.controller.Ts;
     const nch = TRACE_NAMES.length - 1 + (angle !== null ? ANGLE_TRACE_NAMES.length : 0);
+    this.nch = nch;
     this.dec = new StreamingMinMax(nch, this.cap, maxPoints);
     this.buf = this.dec.buf;
     const vspec = setup.controller.voltage;
@@ -131,10 +138,11 @@ export class TraceRecorder {
   }
 
   /**
-   * Record the sample of period `idx` from the state y. The plant's angle origin must be the
+   * Record the sample of period `idx` (the samples come in order: idx = count) from the state y. The plant's angle origin must be the
    * state's angle (plant.setAngleOrigin): its cos and sin serve the phase currents and the voltage.
    */
   record(idx: number, y: Float64Array): void {
+    if (idx !== this.count) throw new Error(`the recorder takes the samples in order: sample ${this.count} expected, ${idx} given`);
     const t = idx * this.Ts;
     const plant = this.plant;
     const ctrl = this.ctrl;
@@ -142,22 +150,19 @@ export class TraceRecorder {
     const id = y[I_D]!, iq = y[I_Q]!, w = y[OMEGA]!, th = y[THETA]!;
     const wr = ctrl.speedRefOut * W_TO_RPM;
     const wRpm = w * W_TO_RPM;
-    // the trackers first: the engine weighs the calls of this method for inlining from its end, and
-    // theirs cross no double (the sample goes in an array), the row's below do
-    const m = this.msmp;
-    m[0] = t; m[1] = wr; m[2] = wRpm;
-    if (this.stepTrk) this.stepTrk.take(m);
-    const lt = this.loadTrks;
-    while (this.loadAt < lt.length && !(t < lt[this.loadAt]!.tEnd)) this.loadAt++;
-    if (this.loadAt < lt.length) lt[this.loadAt]!.take(m);
-    if (this.sseTrk) this.sseTrk.take(m);
     const last = this.last;
     last[0] = t; last[1] = wRpm; last[2] = id; last[3] = iq;
     this.count++;
     const dec = this.dec;
     dec.time[0] = t;
     const o = dec.slotAt();
-    if (o < 0) return;
+    if (o < 0) {
+      // beyond the samples the decimator holds: the trackers take this one at once
+      const m = this.msmp;
+      m[0] = t; m[1] = wr; m[2] = wRpm;
+      this.takeUnheld();
+      return;
+    }
     const c = plant.c0, s = plant.s0;
     const ia = id * c - iq * s;
     const ib = id * s + iq * c;
@@ -193,7 +198,51 @@ export class TraceRecorder {
       row[o + ANGLE_ERROR] = a.error;
       row[o + SPEED_ESTIMATE] = a.speedEstimate_rpm;
     }
+    // the trackers take the bucket's samples (speed reference and speed) before its rows go
+    if (dec.ending) this.feed(dec.count + 1);
     dec.commit();
+  }
+
+  /**
+   * The speed trackers take the samples fed..end-1 from the rows the decimator holds (sample k at
+   * time k·Ts, its speed reference and speed side by side in the row); each load tracker the
+   * samples before its window's end, from the first window not yet ended on, as one by one.
+   */
+  private feed(end: number): void {
+    const k0 = this.fed;
+    if (end <= k0) return;
+    const first = this.dec.first;
+    const rows = this.buf;
+    const nc = this.nch;
+    const Ts = this.Ts;
+    const i1 = end - first;
+    if (this.stepTrk) this.stepTrk.takeRows(rows, nc, SPEED_REF, k0 - first, i1, first, Ts);
+    const lt = this.loadTrks;
+    let i = k0 - first;
+    while (i < i1 && this.loadAt < lt.length) {
+      const tr = lt[this.loadAt]!;
+      const tEnd = tr.tEnd;
+      if (!((first + i) * Ts < tEnd)) { this.loadAt++; continue; }
+      let j = i + 1;
+      while (j < i1 && (first + j) * Ts < tEnd) j++;
+      tr.takeRows(rows, nc, SPEED_REF, i, j, first, Ts);
+      i = j;
+    }
+    if (this.sseTrk) this.sseTrk.takeRows(rows, nc, SPEED_REF, k0 - first, i1, first, Ts);
+    this.fed = end;
+  }
+
+  /** The sample in msmp [t, speed reference, speed], after the held ones, to the trackers at once. */
+  private takeUnheld(): void {
+    this.feed(this.dec.count);
+    const m = this.msmp;
+    const t = m[0]!;
+    if (this.stepTrk) this.stepTrk.take(m);
+    const lt = this.loadTrks;
+    while (this.loadAt < lt.length && !(t < lt[this.loadAt]!.tEnd)) this.loadAt++;
+    if (this.loadAt < lt.length) lt[this.loadAt]!.take(m);
+    if (this.sseTrk) this.sseTrk.take(m);
+    this.fed = this.count;
   }
 
 
@@ -224,6 +273,7 @@ export class TraceRecorder {
   speedMetrics(tLast: number): SpeedMetrics {
     const out: SpeedMetrics = { rise: null, over: null, settle: null, dip: null, recov: null, sse: null };
     if (this.setup.controller.mode !== 'speed' || this.count <= 2) return out;
+    this.feed(this.dec.count);
     if (this.stepTrk) {
       const r = this.stepTrk.result();
       out.rise = r.riseTime_s; out.over = r.overshoot_pct; out.settle = r.settlingTime_s;
@@ -236,6 +286,7 @@ export class TraceRecorder {
 
   /** Every load event's response, in time order. */
   loadSteps(): LoadStepResult[] {
+    this.feed(this.dec.count);
     return this.loadTrks.map((tr) => {
       const r = tr.result();
       return { t_s: tr.tStep, dip_rpm: finiteOrNull(r.dip), recovery_s: finiteOrNull(r.recovery_s), errorAtStep_rpm: finiteOrNull(r.errorAtStep), settled: r.settled };
@@ -244,6 +295,7 @@ export class TraceRecorder {
 
   /** The decimated traces (the angle source's after TRACE_NAMES'); non-finite samples (a divergence) become 0 so no NaN escapes. */
   traces(): Traces {
+    this.feed(this.dec.count);
     const decd = this.dec.finish();
     const traces = { t_s: decd.t } as Traces;
     const names = this.angle !== null ? [...TRACE_NAMES.slice(1), ...ANGLE_TRACE_NAMES] : TRACE_NAMES.slice(1);
