@@ -93,4 +93,20 @@ describe('streaming min/max decimation', () => {
     expect(raw.ending).toBe(false);
     expect(raw.first).toBe(0);
   });
+  it('an odd number of channels, NaN and infinities: the streaming form gives what decimateMinMax gives', () => {
+    // reference: decimateMinMax on the whole trace; common practice (no source)
+    const n = 997;
+    const t = Float64Array.from({ length: n }, (_, i) => i * 1e-3);
+    const odd = [0, 1, 2].map((c) => Float64Array.from(t, (x, i) => (i % 37 === c ? NaN : i % 53 === c ? (c ? -Infinity : Infinity) : Math.sin(40 * x + c) + 0.3 * Math.sin(977 * x * (c + 1)))));
+    odd[1]![0] = NaN; // the first of a bucket: it stays its minimum and maximum
+    for (const maxPoints of [20, 200, 600]) {
+      const want = decimateMinMax(t, odd, n, maxPoints);
+      const s = new StreamingMinMax(3, n, maxPoints);
+      for (let i = 0; i < n; i++) s.push(t[i]!, [odd[0]![i]!, odd[1]![i]!, odd[2]![i]!]);
+      const got = s.finish();
+      expect(Array.from(got.t)).toEqual(Array.from(want.t));
+      for (let c = 0; c < 3; c++) expect(Array.from(got.channels[c]!)).toEqual(Array.from(want.channels[c]!));
+      expect(Number.isNaN(got.channels[1]![0]!)).toBe(true);
+    }
+  });
 });

@@ -178,17 +178,30 @@ export class StreamingMinMax {
     const out = this.out;
     this.tOut[2 * b] = this.bFirstT;
     this.tOut[2 * b + 1] = this.bLastT;
-    for (let c = 0; c < nc; c++) {
-      let iMin = 0;
-      let iMax = 0;
-      let vMin = buf[c]!;
-      let vMax = vMin;
+    // two channels at a time (independent work side by side); a value below the minimum is not
+    // above the maximum (minimum <= maximum, and NaN passes neither test): one test for most values
+    const at0 = 2 * b;
+    let c = 0;
+    for (; c + 1 < nc; c += 2) {
+      let iMinA = 0, iMaxA = 0, vMinA = buf[c]!, vMaxA = vMinA;
+      let iMinB = 0, iMaxB = 0, vMinB = buf[c + 1]!, vMaxB = vMinB;
+      for (let i = 1, o = nc + c; i < len; i++, o += nc) {
+        const va = buf[o]!, vb = buf[o + 1]!;
+        if (va < vMinA) { vMinA = va; iMinA = i; } else if (va > vMaxA) { vMaxA = va; iMaxA = i; }
+        if (vb < vMinB) { vMinB = vb; iMinB = i; } else if (vb > vMaxB) { vMaxB = vb; iMaxB = i; }
+      }
+      const at = c * cap + at0;
+      if (iMinA <= iMaxA) { out[at] = vMinA; out[at + 1] = vMaxA; } else { out[at] = vMaxA; out[at + 1] = vMinA; }
+      const bt = at + cap;
+      if (iMinB <= iMaxB) { out[bt] = vMinB; out[bt + 1] = vMaxB; } else { out[bt] = vMaxB; out[bt + 1] = vMinB; }
+    }
+    if (c < nc) {
+      let iMin = 0, iMax = 0, vMin = buf[c]!, vMax = vMin;
       for (let i = 1, o = nc + c; i < len; i++, o += nc) {
         const v = buf[o]!;
-        if (v < vMin) { vMin = v; iMin = i; }
-        if (v > vMax) { vMax = v; iMax = i; }
+        if (v < vMin) { vMin = v; iMin = i; } else if (v > vMax) { vMax = v; iMax = i; }
       }
-      const at = c * cap + 2 * b;
+      const at = c * cap + at0;
       if (iMin <= iMax) { out[at] = vMin; out[at + 1] = vMax; } else { out[at] = vMax; out[at + 1] = vMin; }
     }
     this.b = b + 1;
