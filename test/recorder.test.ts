@@ -150,3 +150,35 @@ describe('the speed metrics of the recorder', () => {
     expect(() => rec.record(2, y)).toThrow(/in order/);
   });
 });
+
+describe('the recorded modulation index on the hexagon', () => {
+  it('is |v| over the hexagon radius at the vector angle, 1 at a vertex (2 Vdc/3) and at a face middle (Vdc/√3)', async () => {
+    // the six-step hexagon: vertices 2 Vdc/3, inscribed radius Vdc/√3 (Holmes and Lipo, 2003, Pulse Width
+    // Modulation for Power Converters, ch. 6); reference: hexagonRadius of drive/inverter.ts
+    const { hexagonRadius } = await import('../src/core/drive/inverter');
+    const Vdc = 300;
+    const s = setup();
+    s.controller = { ...s.controller, voltage: { shape: 'hexagon', radius: Vdc / Math.sqrt(3), Vdc } };
+    const plant = new Plant(s.plant);
+    const n = 720;
+    const rec = new TraceRecorder(s, plant.model, plant, new CascadeController(s.controller), n, 2 * (n + 1));
+    const y = new Float64Array(STATE_SIZE);
+    const want: number[] = [];
+    for (let k = 0; k <= n; k++) {
+      const ang = k < n ? (k * 2 * Math.PI) / n - 0.3 : Math.PI / 6;
+      const mag = k < n ? 50 + 150 * ((k * 7) % 11) / 11 : Vdc / Math.sqrt(3);
+      plant.input[0] = k === 0 ? (2 * Vdc) / 3 : mag * Math.cos(ang);
+      plant.input[1] = k === 0 ? 0 : mag * Math.sin(ang);
+      want.push(Math.hypot(plant.input[0]!, plant.input[1]!) / hexagonRadius(Vdc, Math.atan2(plant.input[1]!, plant.input[0]!)));
+      plant.setAngleOrigin(0);
+      rec.record(k, y);
+    }
+    const got = rec.traces().vNorm;
+    expect(got[0]).toBeCloseTo(1, 14);
+    expect(got[n]).toBeCloseTo(1, 14);
+    let worst = 0;
+    for (let k = 0; k <= n; k++) worst = Math.max(worst, Math.abs(got[k]! - want[k]!) / want[k]!);
+    expect(worst).toBeLessThan(1e-14);
+    expect(Math.min(...got)).toBeLessThan(0.3);
+  });
+});

@@ -10,7 +10,7 @@
 import { I_D, I_Q, OMEGA, THETA } from './plant';
 import type { Plant } from './plant';
 import type { CascadeController } from '../control/controller';
-import { voltageLimitAt } from '../control/voltage-limit';
+import { inscribedRadius } from '../drive/inverter';
 import type { MachineModel } from '../machine/machine-model';
 import { cosSmall, sinSmall } from '../mathematics/rotation';
 import { inverseClarkeAmplitudeInvariantInto } from '../mathematics/transforms';
@@ -44,6 +44,7 @@ const VQ = channel('vq_V');
 const VNORM = channel('vNorm');
 const IA = channel('ia_A'); // ib_A and ic_A follow
 const PDC = channel('pDc_W');
+const HALF_SQRT3 = Math.sqrt(3) / 2;
 // the trackers read a row's speed reference and speed side by side (metrics.ts takeRows)
 if (SPEED !== SPEED_REF + 1) throw new Error('speed_rpm must follow speedRef_rpm in TRACE_NAMES');
 /** the angle source's channels follow TRACE_NAMES' */
@@ -97,9 +98,11 @@ export class TraceRecorder {
   private readonly dLdq: number;
   private readonly linear: boolean;
   private readonly locked: boolean;
-  /** the modulation limit is a circle of radius vRadius (else the hexagon: voltageLimitAt) */
+  /** the modulation limit is a circle of radius vRadius (else the bridge's hexagon for the bus Vdc) */
   private readonly circle: boolean;
   private readonly vRadius: number;
+  /** the hexagon's inscribed radius Vdc/√3 */
+  private readonly hexInscribed: number;
 
   /** angle: the run's angle source (null: the true angle, no angle channels) */
   constructor(private readonly setup: AnySetup, private readonly model: MachineModel, private readonly plant: Plant, private readonly ctrl: CascadeController, periods: number, maxPoints: number, private readonly angle: AngleSensing | null = null) {
@@ -112,6 +115,7 @@ export class TraceRecorder {
     const vspec = setup.controller.voltage;
     this.circle = vspec.shape === 'circle';
     this.vRadius = vspec.radius;
+    this.hexInscribed = inscribedRadius(vspec.Vdc);
     const marks = setup.marks;
     const allEvents = [...marks.speedSteps.map((s) => s.t), ...marks.loadEvents].sort((a, b) => a - b);
     const nextAfter = (t: number): number => {
@@ -177,7 +181,9 @@ export class TraceRecorder {
     row[o + IQ_REF] = ctrl.iqRef;
     row[o + ID] = id;
     row[o + IQ] = iq;
-    row[o + VNORM] = Math.sqrt(va * va + vb * vb) / (this.circle ? this.vRadius : voltageLimitAt(this.setup.controller.voltage, Math.atan2(vb, va)));
+    // the hexagon's norm: the largest projection on its face normals (30°, 90°, 150°), max(|vb|,
+    // (√3/2)|va| + |vb|/2), over the inscribed radius (Math.max keeps a NaN)
+    row[o + VNORM] = this.circle ? Math.sqrt(va * va + vb * vb) / this.vRadius : Math.max(HALF_SQRT3 * Math.abs(va) + 0.5 * Math.abs(vb), Math.abs(vb)) / this.hexInscribed;
     clarkeInvL(ia, ib, 0, row, o + IA);
     row[o + PDC] = 1.5 * (va * ia + vb * ib);
     // applied voltage in dq at the mid-period angle: cosSinNear(c, s, dm, th + dm) written out
