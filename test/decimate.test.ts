@@ -107,6 +107,19 @@ describe('streaming min/max decimation', () => {
       expect(Array.from(got.t)).toEqual(Array.from(want.t));
       for (let c = 0; c < 3; c++) expect(Array.from(got.channels[c]!)).toEqual(Array.from(want.channels[c]!));
       expect(Number.isNaN(got.channels[1]![0]!)).toBe(true);
+      expect(s.allFinite).toBe(false);
     }
+    // finite samples: every decimated value finite, said so (never while every sample is kept)
+    const fin = new StreamingMinMax(2, n, 100);
+    for (let i = 0; i < n; i++) fin.push(t[i]!, [Math.sin(i), 1e300 * Math.cos(i)]);
+    fin.finish();
+    expect(fin.allFinite).toBe(true);
+    const wide = new StreamingMinMax(1, n, 100); // a range beyond the largest double: not vouched for
+    for (let i = 0; i < n; i++) wide.push(t[i]!, [i % 2 ? 1.7e308 : -1.7e308]);
+    expect(Array.from(wide.finish().channels[0]!).every(Number.isFinite)).toBe(true);
+    expect(wide.allFinite).toBe(false);
+    const raw = new StreamingMinMax(1, 5, 100);
+    raw.push(0, [1]);
+    expect(raw.allFinite).toBe(false);
   });
 });

@@ -92,6 +92,8 @@ export class StreamingMinMax {
   private bEnd: number;
   private bFirstT = 0;
   private bLastT = 0;
+  /** some bucket's extreme was not finite (or its range overflowed) */
+  private nonFinite = false;
 
   constructor(nChannels: number, nExpected: number, maxPoints: number = DEFAULT_MAX_POINTS) {
     const cap = Math.max(2, Math.floor(maxPoints / 2) * 2);
@@ -143,6 +145,11 @@ export class StreamingMinMax {
     return j * this.nChannels;
   }
 
+  /** Every decimated value is finite (false: some may not be; always false while every sample is kept). */
+  get allFinite(): boolean {
+    return !this.raw && !this.nonFinite;
+  }
+
   /** The number of the first sample whose row `buf` holds (its row at offset 0). */
   get first(): number {
     return this.raw ? 0 : this.bStart;
@@ -190,6 +197,8 @@ export class StreamingMinMax {
         if (va < vMinA) { vMinA = va; iMinA = i; } else if (va > vMaxA) { vMaxA = va; iMaxA = i; }
         if (vb < vMinB) { vMinB = vb; iMinB = i; } else if (vb > vMaxB) { vMaxB = vb; iMaxB = i; }
       }
+      // a non-finite extreme (or a range beyond the largest double) noted: see allFinite
+      if (!(vMaxA - vMinA < Infinity) || !(vMaxB - vMinB < Infinity)) this.nonFinite = true;
       const at = c * cap + at0;
       if (iMinA <= iMaxA) { out[at] = vMinA; out[at + 1] = vMaxA; } else { out[at] = vMaxA; out[at + 1] = vMinA; }
       const bt = at + cap;
@@ -201,6 +210,7 @@ export class StreamingMinMax {
         const v = buf[o]!;
         if (v < vMin) { vMin = v; iMin = i; } else if (v > vMax) { vMax = v; iMax = i; }
       }
+      if (!(vMax - vMin < Infinity)) this.nonFinite = true;
       const at = c * cap + at0;
       if (iMin <= iMax) { out[at] = vMin; out[at + 1] = vMax; } else { out[at] = vMax; out[at + 1] = vMin; }
     }
@@ -209,7 +219,11 @@ export class StreamingMinMax {
     this.bEnd = this.b >= this.buckets ? this.count : this.b === this.buckets - 1 ? this.nExpected : Math.floor((this.b + 1) * this.size);
   }
 
-  /** The decimated traces of the samples pushed so far (call once, at the end). */
+  /**
+   * The decimated traces of the samples pushed so far (call once, at the end). Once decimated, the
+   * time axis and the channels are views on the decimator's own output buffers (one for the
+   * channels), each channel its own range: nothing is copied.
+   */
   finish(): Decimated {
     const nc = this.nChannels;
     const channels: Float64Array[] = [];
@@ -225,7 +239,8 @@ export class StreamingMinMax {
     }
     if (this.b < this.buckets) this.flush();
     const m = 2 * this.b;
-    for (let c = 0; c < nc; c++) channels.push(this.out.slice(c * this.cap, c * this.cap + m));
-    return { t: this.tOut.slice(0, m), channels };
+    // the channels are views on the one output buffer (nothing copied): each its own range of it
+    for (let c = 0; c < nc; c++) channels.push(this.out.subarray(c * this.cap, c * this.cap + m));
+    return { t: this.tOut.subarray(0, m), channels };
   }
 }

@@ -303,13 +303,15 @@ export class TraceRecorder {
   traces(): Traces {
     this.feed(this.dec.count);
     const decd = this.dec.finish();
+    const scan = !this.dec.allFinite;
     const traces = { t_s: decd.t } as Traces;
     const names = this.angle !== null ? [...TRACE_NAMES.slice(1), ...ANGLE_TRACE_NAMES] : TRACE_NAMES.slice(1);
-    names.forEach((name, c) => {
+    for (let c = 0; c < names.length; c++) {
       const a = decd.channels[c]!;
-      for (let j = 0; j < a.length; j++) if (!Number.isFinite(a[j]!)) a[j] = 0;
-      traces[name] = a;
-    });
+      // x - x is 0 for a finite x, NaN for an infinite or NaN one
+      if (scan) for (let j = 0, n = a.length; j < n; j++) { const x = a[j]!; if (x - x !== 0) a[j] = 0; }
+      traces[names[c]!] = a;
+    }
     return traces;
   }
 }
