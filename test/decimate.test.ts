@@ -76,4 +76,50 @@ describe('streaming min/max decimation', () => {
     expect(Array.from(d.t)).toEqual([0, 99, 100, 199, 200, 249]);
     expect(Array.from(d.channels[0]!)).toEqual([0, 99, -5, 199, 200, 249]);
   });
+  it('says which sample its first held row is and when a commit ends a bucket', () => {
+    // 100 samples in 10 buckets of 10: common practice (no source)
+    const s = new StreamingMinMax(1, 100, 20);
+    const ends: number[] = [];
+    for (let k = 0; k < 100; k++) {
+      const o = s.slot(k);
+      expect(o).toBe((k - s.first) * 1);
+      if (s.ending) ends.push(k);
+      s.commit();
+    }
+    expect(ends).toEqual([9, 19, 29, 39, 49, 59, 69, 79, 89, 99]);
+    expect(s.first).toBe(100);
+    const raw = new StreamingMinMax(1, 5, 5000);
+    raw.push(0, [1]);
+    expect(raw.ending).toBe(false);
+    expect(raw.first).toBe(0);
+  });
+  it('an odd number of channels, NaN and infinities: the streaming form gives what decimateMinMax gives', () => {
+    // reference: decimateMinMax on the whole trace; common practice (no source)
+    const n = 997;
+    const t = Float64Array.from({ length: n }, (_, i) => i * 1e-3);
+    const odd = [0, 1, 2].map((c) => Float64Array.from(t, (x, i) => (i % 37 === c ? NaN : i % 53 === c ? (c ? -Infinity : Infinity) : Math.sin(40 * x + c) + 0.3 * Math.sin(977 * x * (c + 1)))));
+    odd[1]![0] = NaN; // the first of a bucket: it stays its minimum and maximum
+    for (const maxPoints of [20, 200, 600]) {
+      const want = decimateMinMax(t, odd, n, maxPoints);
+      const s = new StreamingMinMax(3, n, maxPoints);
+      for (let i = 0; i < n; i++) s.push(t[i]!, [odd[0]![i]!, odd[1]![i]!, odd[2]![i]!]);
+      const got = s.finish();
+      expect(Array.from(got.t)).toEqual(Array.from(want.t));
+      for (let c = 0; c < 3; c++) expect(Array.from(got.channels[c]!)).toEqual(Array.from(want.channels[c]!));
+      expect(Number.isNaN(got.channels[1]![0]!)).toBe(true);
+      expect(s.allFinite).toBe(false);
+    }
+    // finite samples: every decimated value finite, said so (never while every sample is kept)
+    const fin = new StreamingMinMax(2, n, 100);
+    for (let i = 0; i < n; i++) fin.push(t[i]!, [Math.sin(i), 1e300 * Math.cos(i)]);
+    fin.finish();
+    expect(fin.allFinite).toBe(true);
+    const wide = new StreamingMinMax(1, n, 100); // a range beyond the largest double: not vouched for
+    for (let i = 0; i < n; i++) wide.push(t[i]!, [i % 2 ? 1.7e308 : -1.7e308]);
+    expect(Array.from(wide.finish().channels[0]!).every(Number.isFinite)).toBe(true);
+    expect(wide.allFinite).toBe(false);
+    const raw = new StreamingMinMax(1, 5, 100);
+    raw.push(0, [1]);
+    expect(raw.allFinite).toBe(false);
+  });
 });

@@ -124,6 +124,36 @@ describe('streaming trackers give exactly the array forms', () => {
     expect(recovered).toBeGreaterThan(5);
     function k2(n: number): number { return n % 2 ? Infinity : (0.6 * n) * 1e-4; }
   });
+  it('rows taken at once (takeRows, times k·Ts) give what the samples taken one by one give', () => {
+    // the same figures as the array forms above: common practice (no source)
+    const Ts = 1e-4, n = 3000, stride = 5, at = 2;
+    const rows = new Float64Array(n * stride);
+    for (let i = 0; i < n; i++) {
+      const t = i * Ts;
+      rows[i * stride + at] = t < 0.05 ? 100 : 150;
+      rows[i * stride + at + 1] = t < 0.05 ? 100 : 150 - 50 * Math.exp(-(t - 0.05) / 0.01) * Math.cos(300 * (t - 0.05)) - (t > 0.2 ? 8 * Math.exp(-(t - 0.2) / 0.005) : 0);
+    }
+    const one = [new StepResponseTracker(0.05, 0.2, 100, 150), new LoadStepTracker(0.2, Infinity, undefined, 16), new SteadyStateTracker(40)] as const;
+    const many = [new StepResponseTracker(0.05, 0.2, 100, 150), new LoadStepTracker(0.2, Infinity, undefined, 16), new SteadyStateTracker(40)] as const;
+    const s = new Float64Array(3);
+    for (let i = 0; i < n; i++) {
+      s[0] = i * Ts; s[1] = rows[i * stride + at]!; s[2] = rows[i * stride + at + 1]!;
+      for (const tr of one) tr.take(s);
+    }
+    // uneven runs of rows, the last longer than the ring, from a block that starts at sample 7
+    const k0 = 7;
+    for (const tr of many) tr.takeRows(rows, stride, at, 0, k0, 0, Ts);
+    const block = rows.subarray(k0 * stride);
+    let i = 0;
+    for (const len of [1, 2, 3, 900, 4, 5, 1000]) { for (const tr of many) tr.takeRows(block, stride, at, i, i + len, k0, Ts); i += len; }
+    for (const tr of many) tr.takeRows(block, stride, at, i, n - k0, k0, Ts);
+    expect(many[0].result()).toEqual(one[0].result());
+    expect(many[0].result().overshoot_pct).toBeGreaterThan(10);
+    expect(many[1].result()).toEqual(one[1].result());
+    expect(many[1].result().dip).toBeGreaterThan(1);
+    expect(many[2].result(0.003)).toBe(one[2].result(0.003));
+    expect(many[2].result(0.003)).not.toBeNull();
+  });
   it('a load step that never recovers gives null recovery, like the array form', () => {
     const n = 500;
     const t = grid(n, 1e-3);

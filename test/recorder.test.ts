@@ -93,3 +93,92 @@ describe('the recorded load torque', () => {
     expect(got).toEqual(want);
   });
 });
+
+describe('the speed metrics of the recorder', () => {
+  it('equal the array forms on the full-rate samples, whether the decimator holds every row or a bucket of them', async () => {
+    // reference: stepResponse, loadStepResponse and steadyStateError of metrics.ts on the whole trace; common practice (no source)
+    const { stepResponse, loadStepResponse, steadyStateError } = await import('../src/core/simulation/metrics');
+    const { simulationFromProject } = await import('../src/core/project/simulation-from-project');
+    const { loadProjectText } = await import('../src/core/project/project');
+    const { readFileSync } = await import('node:fs');
+    const { fileURLToPath } = await import('node:url');
+    const p = loadProjectText(readFileSync(fileURLToPath(new URL('../resources/demo-ipm-traction.json', import.meta.url)), 'utf8'));
+    const s = simulationFromProject(p, { control: { angle: { source: 'ideal' } }, scenario: { duration_s: 0.2, speedSteps: [{ t_s: 0.01, speed_rpm: 1100 }], loadSteps: [{ t_s: 0.1, torque_Nm: 30 }] } });
+    const n = 2000;
+    const Ts = s.controller.Ts;
+    const make = (maxPoints: number) => {
+      const plant = new Plant(s.plant);
+      const ctrl = new CascadeController(s.controller);
+      return { rec: new TraceRecorder(s, plant.model, plant, ctrl, n, maxPoints), plant, ctrl };
+    };
+    const runs = [make(2 * (n + 1)), make(300)];
+    const y = new Float64Array(STATE_SIZE);
+    for (let k = 0; k <= n; k++) {
+      const t = k * Ts;
+      // a speed that overshoots the step to 1100 rpm, settles, then dips at the load step and recovers
+      const rpm = t < 0.01 ? 1000 : 1100 - 100 * Math.exp(-(t - 0.01) / 0.004) * Math.cos(900 * (t - 0.01)) - (t >= 0.1 ? 30 * ((t - 0.1) / 0.005) * Math.exp(1 - (t - 0.1) / 0.005) : 0);
+      y[2] = (rpm * Math.PI) / 30;
+      for (const r of runs) {
+        r.ctrl.speedRefOut = ((t < 0.01 ? 1000 : 1100) * Math.PI) / 30;
+        r.plant.setAngleOrigin(0);
+        r.rec.record(k, y);
+      }
+    }
+    const full = runs[0]!.rec.traces();
+    const tLast = n * Ts;
+    const want = {
+      step: stepResponse(full.t_s, full.speed_rpm, n + 1, 0.01, 0.1, 1000, 1100),
+      load: loadStepResponse(full.t_s, full.speedRef_rpm, full.speed_rpm, n + 1, 0.1, Infinity, undefined, 1),
+      sse: steadyStateError(full.t_s, full.speedRef_rpm, full.speed_rpm, n + 1, 0.05 * tLast),
+    };
+    expect(want.step.overshoot_pct).toBeGreaterThan(10);
+    expect(want.load.dip).toBeCloseTo(30, 1);
+    for (const { rec } of runs) {
+      const m = rec.speedMetrics(tLast);
+      expect([m.rise, m.over, m.settle]).toEqual([want.step.riseTime_s, want.step.overshoot_pct, want.step.settlingTime_s]);
+      expect([m.dip, m.recov]).toEqual([want.load.dip, want.load.recovery_s]);
+      expect(m.sse).toBe(want.sse);
+      expect(rec.loadSteps()[0]!.dip_rpm).toBe(want.load.dip);
+    }
+  });
+  it('takes the samples in order', () => {
+    const s = setup();
+    const plant = new Plant(s.plant);
+    const rec = new TraceRecorder(s, plant.model, plant, new CascadeController(s.controller), 3, 100);
+    const y = new Float64Array(STATE_SIZE);
+    rec.record(0, y);
+    expect(() => rec.record(2, y)).toThrow(/in order/);
+  });
+});
+
+describe('the recorded modulation index on the hexagon', () => {
+  it('is |v| over the hexagon radius at the vector angle, 1 at a vertex (2 Vdc/3) and at a face middle (Vdc/√3)', async () => {
+    // the six-step hexagon: vertices 2 Vdc/3, inscribed radius Vdc/√3 (Holmes and Lipo, 2003, Pulse Width
+    // Modulation for Power Converters, ch. 6); reference: hexagonRadius of drive/inverter.ts
+    const { hexagonRadius } = await import('../src/core/drive/inverter');
+    const Vdc = 300;
+    const s = setup();
+    s.controller = { ...s.controller, voltage: { shape: 'hexagon', radius: Vdc / Math.sqrt(3), Vdc } };
+    const plant = new Plant(s.plant);
+    const n = 720;
+    const rec = new TraceRecorder(s, plant.model, plant, new CascadeController(s.controller), n, 2 * (n + 1));
+    const y = new Float64Array(STATE_SIZE);
+    const want: number[] = [];
+    for (let k = 0; k <= n; k++) {
+      const ang = k < n ? (k * 2 * Math.PI) / n - 0.3 : Math.PI / 6;
+      const mag = k < n ? 50 + 150 * ((k * 7) % 11) / 11 : Vdc / Math.sqrt(3);
+      plant.input[0] = k === 0 ? (2 * Vdc) / 3 : mag * Math.cos(ang);
+      plant.input[1] = k === 0 ? 0 : mag * Math.sin(ang);
+      want.push(Math.hypot(plant.input[0]!, plant.input[1]!) / hexagonRadius(Vdc, Math.atan2(plant.input[1]!, plant.input[0]!)));
+      plant.setAngleOrigin(0);
+      rec.record(k, y);
+    }
+    const got = rec.traces().vNorm;
+    expect(got[0]).toBeCloseTo(1, 14);
+    expect(got[n]).toBeCloseTo(1, 14);
+    let worst = 0;
+    for (let k = 0; k <= n; k++) worst = Math.max(worst, Math.abs(got[k]! - want[k]!) / want[k]!);
+    expect(worst).toBeLessThan(1e-14);
+    expect(Math.min(...got)).toBeLessThan(0.3);
+  });
+});

@@ -20,6 +20,22 @@ describe('current-loop oscillation watch', () => {
   });
 });
 
+describe('current-loop oscillation watch over time', () => {
+  it('reversals leave the count once they are OSC_WINDOW periods old, quiet periods in between included', () => {
+    const w = new CurrentOscillationWatch(100);
+    let k = 0;
+    const big = (j: number) => periodSample(j * 1e-4, 0, 0, 0, j % 2 ? 10 : -10, 0);
+    for (; k < 10; k++) expect(w.check(k, big(k))).toBeNull(); // 9 reversals
+    for (; k < 80; k++) expect(w.check(k, periodSample(k * 1e-4, 0, 0, 0, 1, -1))).toBeNull(); // small errors: the 9 slide out
+    let fired: string | null = null;
+    const k0 = k;
+    for (; k < 200 && !fired; k++) fired = w.check(k, big(k));
+    // the error's last sign (period 9, +10) is still remembered: period 80 (-10) is already a reversal
+    expect(k - k0).toBe(OSC_LIMIT);
+    expect(fired).toMatch(/16 reversals/);
+  });
+});
+
 describe('speed-loop swing watch', () => {
   it('fires at the SWING_LIMIT-th swing between the torque limits, each within 1 s', () => {
     const w = new SpeedSwingWatch();
@@ -44,6 +60,11 @@ describe('divergence', () => {
     expect(divergence(b, 0, Float64Array.of(20, 25, 100, 1), last)).toMatch(/overcurrent trip 30\.00 A \(3\.00·Imax\)/);
     expect(divergence(b, 0, Float64Array.of(0, 0, -1001, 1), last)).toMatch(/\|speed\| exceeded 9549 rpm/);
     expect(divergence(b, 0, Float64Array.of(NaN, 0, 0, 1), last)).toMatch(/a state became non-finite \(id\); at t = 0\.00000 s it was id = 1\.00000 A/);
+    // a sum of the states that cancels or overflows: the full test decides
+    expect(divergence(b, 0, Float64Array.of(1e200, -1e200, 0, 1), last)).toMatch(/overcurrent trip/);
+    expect(divergence(b, 0, Float64Array.of(Infinity, -Infinity, 0, 1), last)).toMatch(/non-finite \(id, iq\)/);
+    expect(divergence(b, 0, Float64Array.of(1e308, 0, 1e308, 1), last)).toMatch(/overcurrent trip/);
+    expect(divergence(b, 0, Float64Array.of(-20, 22, -999, 6.28), last)).toBeNull();
   });
   it('names the integrator failure in our words', () => {
     expect(integratorFailure(new StepCollapse(), 0.5, 1, 2, 3)).toMatch(/step size collapsed/);

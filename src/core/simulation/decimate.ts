@@ -92,6 +92,8 @@ export class StreamingMinMax {
   private bEnd: number;
   private bFirstT = 0;
   private bLastT = 0;
+  /** some bucket's extreme was not finite (or its range overflowed) */
+  private nonFinite = false;
 
   constructor(nChannels: number, nExpected: number, maxPoints: number = DEFAULT_MAX_POINTS) {
     const cap = Math.max(2, Math.floor(maxPoints / 2) * 2);
@@ -143,6 +145,21 @@ export class StreamingMinMax {
     return j * this.nChannels;
   }
 
+  /** Every decimated value is finite (false: some may not be; always false while every sample is kept). */
+  get allFinite(): boolean {
+    return !this.raw && !this.nonFinite;
+  }
+
+  /** The number of the first sample whose row `buf` holds (its row at offset 0). */
+  get first(): number {
+    return this.raw ? 0 : this.bStart;
+  }
+
+  /** The next `commit` ends a bucket: the rows held are reduced and then overwritten. */
+  get ending(): boolean {
+    return !this.raw && this.count + 1 >= this.bEnd;
+  }
+
   /** End the sample whose row was written at `slot`'s offset. */
   commit(): void {
     this.count++;
@@ -168,17 +185,33 @@ export class StreamingMinMax {
     const out = this.out;
     this.tOut[2 * b] = this.bFirstT;
     this.tOut[2 * b + 1] = this.bLastT;
-    for (let c = 0; c < nc; c++) {
-      let iMin = 0;
-      let iMax = 0;
-      let vMin = buf[c]!;
-      let vMax = vMin;
+    // two channels at a time (independent work side by side); a value below the minimum is not
+    // above the maximum (minimum <= maximum, and NaN passes neither test): one test for most values
+    const at0 = 2 * b;
+    let c = 0;
+    for (; c + 1 < nc; c += 2) {
+      let iMinA = 0, iMaxA = 0, vMinA = buf[c]!, vMaxA = vMinA;
+      let iMinB = 0, iMaxB = 0, vMinB = buf[c + 1]!, vMaxB = vMinB;
+      for (let i = 1, o = nc + c; i < len; i++, o += nc) {
+        const va = buf[o]!, vb = buf[o + 1]!;
+        if (va < vMinA) { vMinA = va; iMinA = i; } else if (va > vMaxA) { vMaxA = va; iMaxA = i; }
+        if (vb < vMinB) { vMinB = vb; iMinB = i; } else if (vb > vMaxB) { vMaxB = vb; iMaxB = i; }
+      }
+      // a non-finite extreme (or a range beyond the largest double) noted: see allFinite
+      if (!(vMaxA - vMinA < Infinity) || !(vMaxB - vMinB < Infinity)) this.nonFinite = true;
+      const at = c * cap + at0;
+      if (iMinA <= iMaxA) { out[at] = vMinA; out[at + 1] = vMaxA; } else { out[at] = vMaxA; out[at + 1] = vMinA; }
+      const bt = at + cap;
+      if (iMinB <= iMaxB) { out[bt] = vMinB; out[bt + 1] = vMaxB; } else { out[bt] = vMaxB; out[bt + 1] = vMinB; }
+    }
+    if (c < nc) {
+      let iMin = 0, iMax = 0, vMin = buf[c]!, vMax = vMin;
       for (let i = 1, o = nc + c; i < len; i++, o += nc) {
         const v = buf[o]!;
-        if (v < vMin) { vMin = v; iMin = i; }
-        if (v > vMax) { vMax = v; iMax = i; }
+        if (v < vMin) { vMin = v; iMin = i; } else if (v > vMax) { vMax = v; iMax = i; }
       }
-      const at = c * cap + 2 * b;
+      if (!(vMax - vMin < Infinity)) this.nonFinite = true;
+      const at = c * cap + at0;
       if (iMin <= iMax) { out[at] = vMin; out[at + 1] = vMax; } else { out[at] = vMax; out[at + 1] = vMin; }
     }
     this.b = b + 1;
@@ -186,7 +219,11 @@ export class StreamingMinMax {
     this.bEnd = this.b >= this.buckets ? this.count : this.b === this.buckets - 1 ? this.nExpected : Math.floor((this.b + 1) * this.size);
   }
 
-  /** The decimated traces of the samples pushed so far (call once, at the end). */
+  /**
+   * The decimated traces of the samples pushed so far (call once, at the end). Once decimated, the
+   * time axis and the channels are views on the decimator's own output buffers (one for the
+   * channels), each channel its own range: nothing is copied.
+   */
   finish(): Decimated {
     const nc = this.nChannels;
     const channels: Float64Array[] = [];
@@ -202,7 +239,8 @@ export class StreamingMinMax {
     }
     if (this.b < this.buckets) this.flush();
     const m = 2 * this.b;
-    for (let c = 0; c < nc; c++) channels.push(this.out.slice(c * this.cap, c * this.cap + m));
-    return { t: this.tOut.slice(0, m), channels };
+    // the channels are views on the one output buffer (nothing copied): each its own range of it
+    for (let c = 0; c < nc; c++) channels.push(this.out.subarray(c * this.cap, c * this.cap + m));
+    return { t: this.tOut.subarray(0, m), channels };
   }
 }

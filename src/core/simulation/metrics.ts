@@ -126,7 +126,9 @@ export function steadyStateError(t: ArrayLike<number>, ref: ArrayLike<number>, y
 // The same figures, fed one sample at a time (times ascending) while a run goes on, so that a long
 // run needs no full-rate traces. Each gives exactly the number its array form above gives on the
 // same samples; `push` allocates nothing (LoadStepTracker grows its candidate list by doubling,
-// rarely, see there).
+// rarely, see there). `takeRows` takes a run of samples at once, from rows i0 <= i < i1 of a
+// row-major array (row i at i·stride: the reference at `at`, y at `at + 1`) taken at the times
+// (k0 + i)·Ts; `take` is its one-row case.
 
 /** `stepResponse` fed sample by sample: only samples with tStep <= t < tEnd count. */
 export class StepResponseTracker {
@@ -164,24 +166,33 @@ export class StepResponseTracker {
    * call in the array, never boxed, whether the engine inlines the call or not.
    */
   take(s: Float64Array): void {
-    const t = s[0]!, y = s[2]!;
-    if (!(t >= this.tStep) || !(t < this.tEnd)) return;
-    const z = (y - this.y0) / this.delta;
-    if (this.lastWasOut) this.tAfterOut = t;
-    if (this.n > 0) {
-      const prevZ = this.prevZ;
-      if (this.t10 === null && z >= 0.1) this.t10 = this.prevT + ((0.1 - prevZ) / (z - prevZ)) * (t - this.prevT);
-      if (this.t90 === null && z >= 0.9) this.t90 = this.prevT + ((0.9 - prevZ) / (z - prevZ)) * (t - this.prevT);
-    } else {
-      if (z >= 0.1) this.t10 = t;
-      if (z >= 0.9) this.t90 = t;
+    this.takeRows(s, 3, 1, 0, 1, s[0]!, 1);
+  }
+
+  /** The samples of rows i0..i1-1 at times (k0 + i)·Ts, ascending (see above); those outside [tStep, tEnd) skipped. */
+  takeRows(rows: Float64Array, stride: number, at: number, i0: number, i1: number, k0: number, Ts: number): void {
+    for (let i = i0; i < i1; i++) {
+      const t = (k0 + i) * Ts;
+      if (!(t >= this.tStep)) continue;
+      if (!(t < this.tEnd)) return;
+      const y = rows[i * stride + at + 1]!;
+      const z = (y - this.y0) / this.delta;
+      if (this.lastWasOut) this.tAfterOut = t;
+      if (this.n > 0) {
+        const prevZ = this.prevZ;
+        if (this.t10 === null && z >= 0.1) this.t10 = this.prevT + ((0.1 - prevZ) / (z - prevZ)) * (t - this.prevT);
+        if (this.t90 === null && z >= 0.9) this.t90 = this.prevT + ((0.9 - prevZ) / (z - prevZ)) * (t - this.prevT);
+      } else {
+        if (z >= 0.1) this.t10 = t;
+        if (z >= 0.9) this.t90 = t;
+      }
+      if (z > this.zMax) this.zMax = z;
+      this.lastWasOut = Math.abs(z - 1) > this.band;
+      if (this.lastWasOut) this.anyOut = true;
+      this.prevZ = z;
+      this.prevT = t;
+      this.n++;
     }
-    if (z > this.zMax) this.zMax = z;
-    this.lastWasOut = Math.abs(z - 1) > this.band;
-    if (this.lastWasOut) this.anyOut = true;
-    this.prevZ = z;
-    this.prevT = t;
-    this.n++;
   }
 
   result(): StepMetrics {
@@ -229,27 +240,37 @@ export class LoadStepTracker {
 
   /** The sample [t, reference, y] (doubles in the array: never boxed). */
   take(s: Float64Array): void {
-    const t = s[0]!, yRef = s[1]!, y = s[2]!;
-    if (!(t >= this.tStep) || !(t < this.tEnd)) return;
-    const e = Math.abs(yRef - y);
-    if (this.n === 0) {
-      this.e0 = e;
-      this.ref0 = yRef;
+    this.takeRows(s, 3, 1, 0, 1, s[0]!, 1);
+  }
+
+  /** The samples of rows i0..i1-1 at times (k0 + i)·Ts, ascending (see above); those outside [tStep, tEnd) skipped. */
+  takeRows(rows: Float64Array, stride: number, at: number, i0: number, i1: number, k0: number, Ts: number): void {
+    for (let i = i0; i < i1; i++) {
+      const t = (k0 + i) * Ts;
+      if (!(t >= this.tStep)) continue;
+      if (!(t < this.tEnd)) return;
+      const o = i * stride + at;
+      const yRef = rows[o]!, y = rows[o + 1]!;
+      const e = Math.abs(yRef - y);
+      if (this.n === 0) {
+        this.e0 = e;
+        this.ref0 = yRef;
+      }
+      if (this.lastPushed) this.next[this.top - 1] = t;
+      this.n++;
+      this.dip = Math.max(this.dip, e);
+      const thr = Math.max(this.recoveryFraction * this.dip, 1e-12);
+      let top = this.top;
+      while (top > 0 && this.val[top - 1]! <= e) top--;
+      this.lastPushed = e > thr;
+      if (this.lastPushed) {
+        if (top === this.val.length) this.grow();
+        this.val[top] = e;
+        this.next[top] = NaN;
+        top++;
+      }
+      this.top = top;
     }
-    if (this.lastPushed) this.next[this.top - 1] = t;
-    this.n++;
-    this.dip = Math.max(this.dip, e);
-    const thr = Math.max(this.recoveryFraction * this.dip, 1e-12);
-    let top = this.top;
-    while (top > 0 && this.val[top - 1]! <= e) top--;
-    this.lastPushed = e > thr;
-    if (this.lastPushed) {
-      if (top === this.val.length) this.grow();
-      this.val[top] = e;
-      this.next[top] = NaN;
-      top++;
-    }
-    this.top = top;
   }
 
   private grow(): void {
@@ -296,11 +317,22 @@ export class SteadyStateTracker {
 
   /** The sample [t, reference, y] (doubles in the array: never boxed). */
   take(s: Float64Array): void {
-    const j = this.j;
-    this.t[j] = s[0]!;
-    this.d[j] = s[1]! - s[2]!;
-    this.j = j + 1 === this.t.length ? 0 : j + 1;
-    this.n++;
+    this.takeRows(s, 3, 1, 0, 1, s[0]!, 1);
+  }
+
+  /** The samples of rows i0..i1-1 at times (k0 + i)·Ts (see above): only those the ring keeps are written. */
+  takeRows(rows: Float64Array, stride: number, at: number, i0: number, i1: number, k0: number, Ts: number): void {
+    const c = this.t.length;
+    const from = i1 - i0 > c ? i1 - c : i0;
+    let j = from === i0 ? this.j : (this.j + (from - i0)) % c;
+    for (let i = from; i < i1; i++) {
+      const o = i * stride + at;
+      this.t[j] = (k0 + i) * Ts;
+      this.d[j] = rows[o]! - rows[o + 1]!;
+      j = j + 1 === c ? 0 : j + 1;
+    }
+    this.j = j;
+    this.n += i1 - i0;
   }
 
   /** the sample of `push` as `take` reads it */

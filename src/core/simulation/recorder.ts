@@ -10,7 +10,7 @@
 import { I_D, I_Q, OMEGA, THETA } from './plant';
 import type { Plant } from './plant';
 import type { CascadeController } from '../control/controller';
-import { voltageLimitAt } from '../control/voltage-limit';
+import { inscribedRadius } from '../drive/inverter';
 import type { MachineModel } from '../machine/machine-model';
 import { cosSmall, sinSmall } from '../mathematics/rotation';
 import { inverseClarkeAmplitudeInvariantInto } from '../mathematics/transforms';
@@ -44,6 +44,9 @@ const VQ = channel('vq_V');
 const VNORM = channel('vNorm');
 const IA = channel('ia_A'); // ib_A and ic_A follow
 const PDC = channel('pDc_W');
+const HALF_SQRT3 = Math.sqrt(3) / 2;
+// the trackers read a row's speed reference and speed side by side (metrics.ts takeRows)
+if (SPEED !== SPEED_REF + 1) throw new Error('speed_rpm must follow speedRef_rpm in TRACE_NAMES');
 /** the angle source's channels follow TRACE_NAMES' */
 const ANGLE_ERROR = TRACE_NAMES.length - 1;
 const SPEED_ESTIMATE = ANGLE_ERROR + 1;
@@ -75,6 +78,10 @@ export class TraceRecorder {
   /** the decimator's row buffer: each sample's channels are written into it directly */
   private readonly buf: Float64Array;
   private readonly msmp = new Float64Array(3);
+  /** channels per row */
+  private readonly nch: number;
+  /** samples the trackers have taken (they take a bucket's at once, before it is reduced; the rest at the end) */
+  private fed = 0;
   private readonly stepTrk: StepResponseTracker | null;
   /** one tracker per load event; their windows [t, next event) do not overlap, so only the current one is fed */
   private readonly loadTrks: LoadStepTracker[];
@@ -91,20 +98,24 @@ export class TraceRecorder {
   private readonly dLdq: number;
   private readonly linear: boolean;
   private readonly locked: boolean;
-  /** the modulation limit is a circle of radius vRadius (else the hexagon: voltageLimitAt) */
+  /** the modulation limit is a circle of radius vRadius (else the bridge's hexagon for the bus Vdc) */
   private readonly circle: boolean;
   private readonly vRadius: number;
+  /** the hexagon's inscribed radius Vdc/√3 */
+  private readonly hexInscribed: number;
 
   /** angle: the run's angle source (null: the true angle, no angle channels) */
   constructor(private readonly setup: AnySetup, private readonly model: MachineModel, private readonly plant: Plant, private readonly ctrl: CascadeController, periods: number, maxPoints: number, private readonly angle: AngleSensing | null = null) {
     this.cap = periods + 1;
     this.Ts = setup.controller.Ts;
     const nch = TRACE_NAMES.length - 1 + (angle !== null ? ANGLE_TRACE_NAMES.length : 0);
+    this.nch = nch;
     this.dec = new StreamingMinMax(nch, this.cap, maxPoints);
     this.buf = this.dec.buf;
     const vspec = setup.controller.voltage;
     this.circle = vspec.shape === 'circle';
     this.vRadius = vspec.radius;
+    this.hexInscribed = inscribedRadius(vspec.Vdc);
     const marks = setup.marks;
     const allEvents = [...marks.speedSteps.map((s) => s.t), ...marks.loadEvents].sort((a, b) => a - b);
     const nextAfter = (t: number): number => {
@@ -131,10 +142,11 @@ export class TraceRecorder {
   }
 
   /**
-   * Record the sample of period `idx` from the state y. The plant's angle origin must be the
+   * Record the sample of period `idx` (the samples come in order: idx = count) from the state y. The plant's angle origin must be the
    * state's angle (plant.setAngleOrigin): its cos and sin serve the phase currents and the voltage.
    */
   record(idx: number, y: Float64Array): void {
+    if (idx !== this.count) throw new Error(`the recorder takes the samples in order: sample ${this.count} expected, ${idx} given`);
     const t = idx * this.Ts;
     const plant = this.plant;
     const ctrl = this.ctrl;
@@ -142,22 +154,19 @@ export class TraceRecorder {
     const id = y[I_D]!, iq = y[I_Q]!, w = y[OMEGA]!, th = y[THETA]!;
     const wr = ctrl.speedRefOut * W_TO_RPM;
     const wRpm = w * W_TO_RPM;
-    // the trackers first: the engine weighs the calls of this method for inlining from its end, and
-    // theirs cross no double (the sample goes in an array), the row's below do
-    const m = this.msmp;
-    m[0] = t; m[1] = wr; m[2] = wRpm;
-    if (this.stepTrk) this.stepTrk.take(m);
-    const lt = this.loadTrks;
-    while (this.loadAt < lt.length && !(t < lt[this.loadAt]!.tEnd)) this.loadAt++;
-    if (this.loadAt < lt.length) lt[this.loadAt]!.take(m);
-    if (this.sseTrk) this.sseTrk.take(m);
     const last = this.last;
     last[0] = t; last[1] = wRpm; last[2] = id; last[3] = iq;
     this.count++;
     const dec = this.dec;
     dec.time[0] = t;
     const o = dec.slotAt();
-    if (o < 0) return;
+    if (o < 0) {
+      // beyond the samples the decimator holds: the trackers take this one at once
+      const m = this.msmp;
+      m[0] = t; m[1] = wr; m[2] = wRpm;
+      this.takeUnheld();
+      return;
+    }
     const c = plant.c0, s = plant.s0;
     const ia = id * c - iq * s;
     const ib = id * s + iq * c;
@@ -172,7 +181,9 @@ export class TraceRecorder {
     row[o + IQ_REF] = ctrl.iqRef;
     row[o + ID] = id;
     row[o + IQ] = iq;
-    row[o + VNORM] = Math.sqrt(va * va + vb * vb) / (this.circle ? this.vRadius : voltageLimitAt(this.setup.controller.voltage, Math.atan2(vb, va)));
+    // the hexagon's norm: the largest projection on its face normals (30°, 90°, 150°), max(|vb|,
+    // (√3/2)|va| + |vb|/2), over the inscribed radius (Math.max keeps a NaN)
+    row[o + VNORM] = this.circle ? Math.sqrt(va * va + vb * vb) / this.vRadius : Math.max(HALF_SQRT3 * Math.abs(va) + 0.5 * Math.abs(vb), Math.abs(vb)) / this.hexInscribed;
     clarkeInvL(ia, ib, 0, row, o + IA);
     row[o + PDC] = 1.5 * (va * ia + vb * ib);
     // applied voltage in dq at the mid-period angle: cosSinNear(c, s, dm, th + dm) written out
@@ -193,7 +204,51 @@ export class TraceRecorder {
       row[o + ANGLE_ERROR] = a.error;
       row[o + SPEED_ESTIMATE] = a.speedEstimate_rpm;
     }
+    // the trackers take the bucket's samples (speed reference and speed) before its rows go
+    if (dec.ending) this.feed(dec.count + 1);
     dec.commit();
+  }
+
+  /**
+   * The speed trackers take the samples fed..end-1 from the rows the decimator holds (sample k at
+   * time k·Ts, its speed reference and speed side by side in the row); each load tracker the
+   * samples before its window's end, from the first window not yet ended on, as one by one.
+   */
+  private feed(end: number): void {
+    const k0 = this.fed;
+    if (end <= k0) return;
+    const first = this.dec.first;
+    const rows = this.buf;
+    const nc = this.nch;
+    const Ts = this.Ts;
+    const i1 = end - first;
+    if (this.stepTrk) this.stepTrk.takeRows(rows, nc, SPEED_REF, k0 - first, i1, first, Ts);
+    const lt = this.loadTrks;
+    let i = k0 - first;
+    while (i < i1 && this.loadAt < lt.length) {
+      const tr = lt[this.loadAt]!;
+      const tEnd = tr.tEnd;
+      if (!((first + i) * Ts < tEnd)) { this.loadAt++; continue; }
+      let j = i + 1;
+      while (j < i1 && (first + j) * Ts < tEnd) j++;
+      tr.takeRows(rows, nc, SPEED_REF, i, j, first, Ts);
+      i = j;
+    }
+    if (this.sseTrk) this.sseTrk.takeRows(rows, nc, SPEED_REF, k0 - first, i1, first, Ts);
+    this.fed = end;
+  }
+
+  /** The sample in msmp [t, speed reference, speed], after the held ones, to the trackers at once. */
+  private takeUnheld(): void {
+    this.feed(this.dec.count);
+    const m = this.msmp;
+    const t = m[0]!;
+    if (this.stepTrk) this.stepTrk.take(m);
+    const lt = this.loadTrks;
+    while (this.loadAt < lt.length && !(t < lt[this.loadAt]!.tEnd)) this.loadAt++;
+    if (this.loadAt < lt.length) lt[this.loadAt]!.take(m);
+    if (this.sseTrk) this.sseTrk.take(m);
+    this.fed = this.count;
   }
 
 
@@ -224,6 +279,7 @@ export class TraceRecorder {
   speedMetrics(tLast: number): SpeedMetrics {
     const out: SpeedMetrics = { rise: null, over: null, settle: null, dip: null, recov: null, sse: null };
     if (this.setup.controller.mode !== 'speed' || this.count <= 2) return out;
+    this.feed(this.dec.count);
     if (this.stepTrk) {
       const r = this.stepTrk.result();
       out.rise = r.riseTime_s; out.over = r.overshoot_pct; out.settle = r.settlingTime_s;
@@ -236,6 +292,7 @@ export class TraceRecorder {
 
   /** Every load event's response, in time order. */
   loadSteps(): LoadStepResult[] {
+    this.feed(this.dec.count);
     return this.loadTrks.map((tr) => {
       const r = tr.result();
       return { t_s: tr.tStep, dip_rpm: finiteOrNull(r.dip), recovery_s: finiteOrNull(r.recovery_s), errorAtStep_rpm: finiteOrNull(r.errorAtStep), settled: r.settled };
@@ -244,14 +301,17 @@ export class TraceRecorder {
 
   /** The decimated traces (the angle source's after TRACE_NAMES'); non-finite samples (a divergence) become 0 so no NaN escapes. */
   traces(): Traces {
+    this.feed(this.dec.count);
     const decd = this.dec.finish();
+    const scan = !this.dec.allFinite;
     const traces = { t_s: decd.t } as Traces;
     const names = this.angle !== null ? [...TRACE_NAMES.slice(1), ...ANGLE_TRACE_NAMES] : TRACE_NAMES.slice(1);
-    names.forEach((name, c) => {
+    for (let c = 0; c < names.length; c++) {
       const a = decd.channels[c]!;
-      for (let j = 0; j < a.length; j++) if (!Number.isFinite(a[j]!)) a[j] = 0;
-      traces[name] = a;
-    });
+      // x - x is 0 for a finite x, NaN for an infinite or NaN one
+      if (scan) for (let j = 0, n = a.length; j < n; j++) { const x = a[j]!; if (x - x !== 0) a[j] = 0; }
+      traces[names[c]!] = a;
+    }
     return traces;
   }
 }

@@ -49,10 +49,13 @@ export class RunLog {
 
   /** The period's sample (see period-sample.ts) and the controller's flags. */
   observe(x: Float64Array, currentLimited: boolean, voltageSaturated: boolean): void {
-    const t0 = x[S_T]!, id = x[S_ID]!, iq = x[S_IQ]!, w = x[S_W]!;
+    const id = x[S_ID]!, iq = x[S_IQ]!, w = x[S_W]!;
     const i2 = id * id + iq * iq;
-    const { gap, Ts } = this;
     this.sumI2 += i2;
+    // most periods: no limit met, no interval open, no new peak, no overspeed: nothing else to note
+    if (!currentLimited && !voltageSaturated && this.curStart < 0 && this.satStart < 0 && this.overStart < 0 && !(i2 > this.peakI2) && !(Math.abs(w) > this.wOver)) return;
+    const t0 = x[S_T]!;
+    const { gap, Ts } = this;
     if (currentLimited) { if (this.curStart < 0) this.curStart = t0; this.curOff = 0; }
     else if (this.curStart >= 0 && ++this.curOff >= gap) { this.closeInterval('current-limit', this.curStart, t0 - (gap - 1) * Ts, this.curCount++); this.curStart = -1; }
     if (voltageSaturated) { this.satPeriods++; this.lastSatT = t0; if (this.satStart < 0) this.satStart = t0; this.satOff = 0; }

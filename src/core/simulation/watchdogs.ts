@@ -42,18 +42,24 @@ export class CurrentOscillationWatch {
 
   /** Period k with its sample (see period-sample.ts): the current errors are reference - state. */
   check(k: number, x: Float64Array): string | null {
-    const t0 = x[S_T]!, id = x[S_ID]!, iq = x[S_IQ]!, w = x[S_W]!;
-    const ed = x[S_ID_REF]! - id, eq = x[S_IQ_REF]! - iq;
+    const ed = x[S_ID_REF]! - x[S_ID]!, eq = x[S_IQ_REF]! - x[S_IQ]!;
     const eMin = this.eMin;
-    const prevEd = this.prevEd;
-    const prevEq = this.prevEq;
-    const flip = ((ed > eMin && prevEd < -eMin) || (ed < -eMin && prevEd > eMin) || (eq > eMin && prevEq < -eMin) || (eq < -eMin && prevEq > eMin)) ? 1 : 0;
-    if (ed > eMin || ed < -eMin) this.prevEd = ed;
-    if (eq > eMin || eq < -eMin) this.prevEq = eq;
+    let flip = 0;
+    if (!(ed <= eMin && ed >= -eMin && eq <= eMin && eq >= -eMin)) {
+      const prevEd = this.prevEd;
+      const prevEq = this.prevEq;
+      flip = ((ed > eMin && prevEd < -eMin) || (ed < -eMin && prevEd > eMin) || (eq > eMin && prevEq < -eMin) || (eq < -eMin && prevEq > eMin)) ? 1 : 0;
+      if (ed > eMin || ed < -eMin) this.prevEd = ed;
+      if (eq > eMin || eq < -eMin) this.prevEq = eq;
+    } else if (this.sum === 0) {
+      // both errors small and no reversal in the window: the ring holds only zeros
+      return null;
+    }
     const slot = k % OSC_WINDOW;
     this.sum += flip - this.ring[slot]!;
     this.ring[slot] = flip;
     if (this.sum < OSC_LIMIT) return null;
+    const t0 = x[S_T]!, id = x[S_ID]!, iq = x[S_IQ]!, w = x[S_W]!;
     return `diverged at t = ${t0.toPrecision(6)} s: the current loop oscillates (${this.sum} reversals of a current error above 5 % of Imax in ${OSC_WINDOW} periods; unstable gains held bounded by the voltage limit); state id = ${id.toPrecision(6)} A, iq = ${iq.toPrecision(6)} A, speed = ${(w * RAD_S_TO_RPM).toPrecision(6)} rpm`;
   }
 }
@@ -104,6 +110,9 @@ export interface DivergenceBounds {
  */
 export function divergence(b: DivergenceBounds, k: number, y: Float64Array, last: Float64Array): string | null {
   const id = y[0]!, iq = y[1]!, w = y[2]!, th = y[3]!;
+  // a finite sum has finite terms (a non-finite term makes it infinite or NaN; an overflow only
+  // sends a finite state on to the full test)
+  if (Number.isFinite(id + iq + w + th) && id * id + iq * iq <= b.trip_A * b.trip_A && Math.abs(w) <= b.speed_rad_s) return null;
   const bad = !(Number.isFinite(id) && Number.isFinite(iq) && Number.isFinite(w) && Number.isFinite(th));
   if (!(bad || id * id + iq * iq > b.trip_A * b.trip_A || Math.abs(w) > b.speed_rad_s)) return null;
   return divergenceMessage(b, k, y, last);
