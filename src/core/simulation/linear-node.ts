@@ -1,7 +1,7 @@
 /**
  * The constant-parameter plant's derivative at one node, with the time derivatives the Hermite
- * quadratures of the exact period (exact-stepper.ts) and the switching segment (switching-segment.ts)
- * need: di/dt, the acceleration g = d omega/dt and its derivative g' (from the torque's derivative),
+ * quadratures of the switching segment (switching-segment.ts) need (the exact period,
+ * exact-stepper.ts, writes the same equations out in its own period, where a call would not be inlined): di/dt, the acceleration g = d omega/dt and its derivative g' (from the torque's derivative),
  * the electrical power 1.5 (vd id + vq iq) and its derivative. Motor reference direction; the same
  * equations as plant.ts (dq currents as states, friction smoothed by x / sqrt(1 + x^2), load torque
  * the line LA + LB t over the span). Allocates nothing.
