@@ -38,6 +38,8 @@ export class ResolverEstimator extends SampledAngleEstimator {
   private readonly gain: number = NaN;
   private readonly phi: number = NaN;
   private lastTheta = 0;
+  /** no imbalance and no quadrature error: the detector is sin(theta_r - thetaHat) itself */
+  private readonly ideal: boolean = false;
 
   constructor(spec: ResolverAngle, polePairs: number) {
     super();
@@ -48,6 +50,7 @@ export class ResolverEstimator extends SampledAngleEstimator {
     this.pll = new Type2Pll(kp, ki);
     this.gain = 1 + (spec.amplitudeImbalance ?? 0);
     this.phi = ((spec.quadratureError_deg ?? 0) * Math.PI) / 180;
+    this.ideal = this.gain === 1 && this.phi === 0;
   }
 
   reset(thetaE: number, omegaE: number): void {
@@ -64,10 +67,13 @@ export class ResolverEstimator extends SampledAngleEstimator {
     this.thetaR += wrapToPi(trueThetaE - this.lastTheta) / this.ratio;
     this.lastTheta = trueThetaE;
     const th = this.thetaR;
-    const s = this.gain * Math.sin(th + this.phi);
-    const c = Math.cos(th);
     const h = this.pll.theta;
-    this.pll.update(s * Math.cos(h) - c * Math.sin(h), Ts);
+    if (this.ideal) this.pll.update(Math.sin(th - h), Ts);
+    else {
+      const s = this.gain * Math.sin(th + this.phi);
+      const c = Math.cos(th);
+      this.pll.update(s * Math.cos(h) - c * Math.sin(h), Ts);
+    }
     this.publish(Ts);
   }
 
