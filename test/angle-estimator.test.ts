@@ -17,10 +17,10 @@ describe('wrapToPi', () => {
     const TWO_PI = 2 * Math.PI;
     const formula = (x: number): number => x - TWO_PI * Math.round(x / TWO_PI);
     const xs: number[] = [];
-    for (const e of [3.14, 3.15, 9.42, Math.PI, 3 * Math.PI]) for (const s of [1, -1]) for (const d of [-1e-12, 0, 1e-12, -1e-3, 1e-3]) xs.push(s * (e + d));
+    for (const e of [3.14, 3.15, 9.42, 9.43, 15.7, Math.PI, 3 * Math.PI, 5 * Math.PI]) for (const s of [1, -1]) for (const d of [-1e-12, 0, 1e-12, -1e-3, 1e-3]) xs.push(s * (e + d));
     // a dense sweep over the shortcuts' ranges and beyond (a fixed pseudo-random sequence)
     let u = 12345;
-    for (let i = 0; i < 20000; i++) { u = (u * 1103515245 + 12345) % 2147483648; xs.push((u / 2147483648 - 0.5) * 24); }
+    for (let i = 0; i < 20000; i++) { u = (u * 1103515245 + 12345) % 2147483648; xs.push((u / 2147483648 - 0.5) * 40); }
     for (const x of xs) expect(Object.is(wrapToPi(x), formula(x))).toBe(true);
   });
 });

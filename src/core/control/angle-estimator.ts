@@ -47,11 +47,14 @@ const TWO_PI = 2 * Math.PI;
 
 /**
  * An angle wrapped to [-pi, pi] (x - 2 pi round(x / 2 pi)). Where the rounding's result is plain
- * without the division (|x| < 3.14: 0; 3.15 < |x| < 9.42: +-1) the same value is computed without it.
+ * without the division (|x| < 3.14: 0; 3.15 < |x| < 9.42: +-1; 9.43 < |x| < 15.70: +-2) the same
+ * value is computed without it (2 pi times 2 is exact).
  */
 export function wrapToPi(x: number): number {
   if (x > -3.14 && x < 3.14) return x;
   if (x > 3.15 && x < 9.42) return x - TWO_PI;
   if (x < -3.15 && x > -9.42) return x + TWO_PI;
+  if (x > 9.43 && x < 15.7) return x - 2 * TWO_PI;
+  if (x < -9.43 && x > -15.7) return x + 2 * TWO_PI;
   return x - TWO_PI * Math.round(x / TWO_PI);
 }

@@ -40,6 +40,9 @@ export class ResolverEstimator extends SampledAngleEstimator {
   private lastTheta = 0;
   /** no imbalance and no quadrature error: the detector is sin(theta_r - thetaHat) itself */
   private readonly ideal: boolean = false;
+  /** the ratio is a power of two (1, 2, 4, ...), and its reciprocal */
+  private readonly pow2: boolean = false;
+  private readonly invRatio: number = NaN;
 
   constructor(spec: ResolverAngle, polePairs: number) {
     super();
@@ -51,6 +54,8 @@ export class ResolverEstimator extends SampledAngleEstimator {
     this.gain = 1 + (spec.amplitudeImbalance ?? 0);
     this.phi = ((spec.quadratureError_deg ?? 0) * Math.PI) / 180;
     this.ideal = this.gain === 1 && this.phi === 0;
+    this.invRatio = 1 / this.ratio;
+    this.pow2 = Number.isInteger(Math.log2(this.ratio));
   }
 
   reset(thetaE: number, omegaE: number): void {
@@ -64,7 +69,9 @@ export class ResolverEstimator extends SampledAngleEstimator {
   sampleFromInput(): void {
     const x = this.input;
     const trueThetaE = x[0]!, Ts = x[6]!;
-    this.thetaR += wrapToPi(trueThetaE - this.lastTheta) / this.ratio;
+    const d = wrapToPi(trueThetaE - this.lastTheta);
+    // a ratio that is a power of two divides exactly as a product by its reciprocal (the same value)
+    this.thetaR += this.pow2 ? d * this.invRatio : d / this.ratio;
     this.lastTheta = trueThetaE;
     const th = this.thetaR;
     const h = this.pll.theta;

@@ -45,7 +45,13 @@ export class Type2Pll {
   /** the speed estimate (the integrator), rad/s */
   omega = 0.5;
 
-  constructor(public readonly kp: number, public readonly ki: number) {
+  /** the gains (start as numbers: a parameter property starts undefined, and its loads then check for a boxed number) */
+  readonly kp: number = NaN;
+  readonly ki: number = NaN;
+
+  constructor(kp: number, ki: number) {
+    this.kp = kp;
+    this.ki = ki;
     if (!(kp > 0) || !(ki > 0)) throw new RangeError(`type II PLL gains must be positive (kp ${kp}, ki ${ki})`);
     // the double fields are declared with a non-integer value so that the engine stores them as
     // doubles from the start (no boxed number per store in a hot loop); the real start is set here
