@@ -4,6 +4,7 @@ import {
   busForVoltageLimit,
   driveLimits,
   effectiveBus,
+  hexagonFraction,
   hexagonRadius,
   hexagonVertex,
   inscribedRadius,
@@ -89,6 +90,18 @@ describe('hexagon', () => {
     for (let a = 0; a < Math.PI / 3; a += 0.05) {
       expect(hexagonRadius(600, a) * Math.cos(a - Math.PI / 6)).toBeCloseTo(600 / Math.sqrt(3), 10);
     }
+  });
+  it('a vector as a fraction of the hexagon in its direction: |v| / hexagonRadius, 1 on the edge all round', () => {
+    // the same hexagon (Holmes and Lipo, 2003, Pulse Width Modulation for Power Converters, ch. 6), read by projections
+    const h = inscribedRadius(600);
+    for (let a = -Math.PI; a < Math.PI; a += 0.07) {
+      const r = hexagonRadius(600, a);
+      expect(hexagonFraction(r * Math.cos(a), r * Math.sin(a), h)).toBeCloseTo(1, 12);
+      expect(hexagonFraction(0.3 * r * Math.cos(a), 0.3 * r * Math.sin(a), h)).toBeCloseTo(0.3, 12);
+    }
+    expect(hexagonFraction(400, 0, h)).toBeCloseTo(1, 12); // a vertex, 2 Vdc/3
+    expect(hexagonFraction(0, h, h)).toBe(1); // a face's middle
+    expect(hexagonFraction(Number.NaN, 0, h)).toBeNaN();
   });
 });
 

@@ -50,6 +50,17 @@ export function hexagonRadius(Vdc: number, angle: number): number {
   return inscribedRadius(Vdc) / Math.cos(a - sector / 2);
 }
 
+/**
+ * The vector (va, vb) as a fraction of the hexagon limit in its own direction, |v| / hexagonRadius:
+ * the largest of its projections on the faces' normals (30°, 90°, 150°), max((√3/2)|va| + |vb|/2,
+ * |vb|), over the inscribed radius `inscribed` (Vdc/√3). No angle and no cosine: equal to the ratio
+ * to rounding. Math.max keeps a NaN.
+ */
+export function hexagonFraction(va: number, vb: number, inscribed: number): number {
+  return Math.max(HALF_SQRT3 * Math.abs(va) + 0.5 * Math.abs(vb), Math.abs(vb)) / inscribed;
+}
+const HALF_SQRT3 = Math.sqrt(3) / 2;
+
 /** Radius of the circle inscribed in the hexagon, Vdc/sqrt(3) (the SVPWM linear range). */
 export const inscribedRadius = (Vdc: number): number => Vdc / Math.sqrt(3);
 

@@ -118,20 +118,8 @@ export function legsToAlphaBeta(ua: number, ub: number, uc: number, out: Float64
 }
 
 /**
- * The stator-frame voltages (alpha, beta) of the bridge's 8 switching states without the device drop,
- * into out[2 s], out[2 s + 1] for the state s = a + 2 b + 4 c (a leg's bit set: on the plus rail).
- */
-export function switchingStateVoltages(Vdc: number, out: Float64Array): void {
-  for (let st = 0; st < 8; st++) {
-    const ua = (st & 1) * Vdc, ub = ((st >> 1) & 1) * Vdc, uc = ((st >> 2) & 1) * Vdc;
-    out[2 * st] = (2 * ua - ub - uc) / 3;
-    out[2 * st + 1] = (ub - uc) * INV_SQRT3;
-  }
-}
-
-/**
  * Each switching state's voltages with the device drop, for each pattern of the phase currents'
- * signs (every |i| above the drop's linear band): out[5 k .. 5 k + 4] = v_alpha, v_beta, ua, ub, uc
+ * signs (every |i| above the drop's linear band; with no drop, the states themselves for any pattern): out[5 k .. 5 k + 4] = v_alpha, v_beta, ua, ub, uc
  * for k = st + 8 sg, st = a + 2 b + 4 c the legs on the plus rail, sg = a + 2 b + 4 c the phases
  * whose current is positive (out of the leg). A leg sits at its rail minus drop sgn(i), a switch or a
  * diode conducting (common practice, no source). The arithmetic is the switching model's per segment

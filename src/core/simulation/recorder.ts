@@ -10,7 +10,7 @@
 import { I_D, I_Q, OMEGA, THETA } from './plant';
 import type { Plant } from './plant';
 import type { CascadeController } from '../control/controller';
-import { inscribedRadius } from '../drive/inverter';
+import { hexagonFraction, inscribedRadius } from '../drive/inverter';
 import type { MachineModel } from '../machine/machine-model';
 import { cosSmall, sinSmall } from '../mathematics/rotation';
 import { inverseClarkeAmplitudeInvariantInto } from '../mathematics/transforms';
@@ -44,7 +44,7 @@ const VQ = channel('vq_V');
 const VNORM = channel('vNorm');
 const IA = channel('ia_A'); // ib_A and ic_A follow
 const PDC = channel('pDc_W');
-const HALF_SQRT3 = Math.sqrt(3) / 2;
+const hexagonFractionL = hexagonFraction;
 // the trackers read a row's speed reference and speed side by side (metrics.ts takeRows)
 if (SPEED !== SPEED_REF + 1) throw new Error('speed_rpm must follow speedRef_rpm in TRACE_NAMES');
 /** the angle source's channels follow TRACE_NAMES' */
@@ -181,9 +181,7 @@ export class TraceRecorder {
     row[o + IQ_REF] = ctrl.iqRef;
     row[o + ID] = id;
     row[o + IQ] = iq;
-    // the hexagon's norm: the largest projection on its face normals (30°, 90°, 150°), max(|vb|,
-    // (√3/2)|va| + |vb|/2), over the inscribed radius (Math.max keeps a NaN)
-    row[o + VNORM] = this.circle ? Math.sqrt(va * va + vb * vb) / this.vRadius : Math.max(HALF_SQRT3 * Math.abs(va) + 0.5 * Math.abs(vb), Math.abs(vb)) / this.hexInscribed;
+    row[o + VNORM] = this.circle ? Math.sqrt(va * va + vb * vb) / this.vRadius : hexagonFractionL(va, vb, this.hexInscribed);
     clarkeInvL(ia, ib, 0, row, o + IA);
     row[o + PDC] = 1.5 * (va * ia + vb * ib);
     // applied voltage in dq at the mid-period angle: cosSinNear(c, s, dm, th + dm) written out
